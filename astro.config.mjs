@@ -1,0 +1,26 @@
+// @ts-check
+// https://astro.build/config
+import node from '@astrojs/node';
+import react from '@astrojs/react';
+import tailwindcss from '@tailwindcss/vite';
+import { defineConfig, envField } from 'astro/config';
+
+const allowedHosts = (process.env.ALLOWED_HOSTS ?? '127.0.0.1,localhost')
+	.split(',')
+	.map((hostname) => ({ hostname: hostname.trim() }))
+	.filter((entry) => entry.hostname);
+
+export default defineConfig({
+	output: 'server',
+	adapter: node({ mode: 'standalone' }),
+	integrations: [react()],
+	server: { host: '127.0.0.1', port: 4321 },
+	// Astro 5 ignores the Host header unless it is listed; without this, request.url loses its port.
+	security: { checkOrigin: true, allowedDomains: allowedHosts },
+	vite: { plugins: [tailwindcss()] },
+	env: {
+		schema: {
+			DATABASE_URL: envField.string({ context: 'server', access: 'secret' }),
+		},
+	},
+});

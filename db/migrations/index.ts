@@ -1,0 +1,11 @@
+import type { Migration } from 'kysely';
+import * as createTeamAndVehicle from './2026_12_01_120000_create_team_and_vehicle';
+
+/**
+ * Every migration, by name, in the order they apply. Listed explicitly (rather than read from the
+ * folder at run time) so the same code runs under tsx, Vitest and the Astro bundle on Node 20,
+ * which cannot import .ts files natively. Add new files at the end.
+ */
+export const migrations: Record<string, Migration> = {
+	'2026_12_01_120000_create_team_and_vehicle': createTeamAndVehicle,
+};

@@ -1,0 +1,65 @@
+/**
+ * The demo scenario: an invented team with three vehicles. Every name and number here is made up.
+ * CLI: `npm run db:seed` seeds DATABASE_URL (or the embedded cluster) when it holds no team yet.
+ */
+import path from 'node:path';
+import { fileURLToPath } from 'node:url';
+import type { Kysely } from 'kysely';
+import { createDb } from '../src/lib/server/db/client';
+import { DEFAULT_CLUSTER, ensureCluster } from './cluster';
+import { migrateToLatest } from './migrator';
+import type { Database } from './schema';
+
+export const DEMO_TEAM_NAME = 'Harbour Street Sag Club';
+
+export const DEMO_VEHICLES = [
+	{
+		name: 'Pebble',
+		description: 'Small grey hatchback, daily driver',
+		competition_class: 'Street 1 (up to 2 kW)',
+		notes: 'Stock 90 A alternator, one AGM in the trunk. Keeps its back seat.',
+	},
+	{
+		name: 'Marlin',
+		description: 'Mid-size sedan, weekend build',
+		competition_class: 'Street 3 (up to 6 kW)',
+		notes: 'High-output alternator, two AGM banks, 1/0 runs front to back.',
+	},
+	{
+		name: 'Old Oak',
+		description: 'Long-roof estate wagon, the team flagship',
+		competition_class: 'Extreme (unlimited)',
+		notes: 'Two alternators, LiFePO4 16 V banks, 4/0 runs. Trailered to events.',
+	},
+] as const;
+
+/** Writes the demo scenario in one transaction. Returns the team id. */
+export async function seedDemo(db: Kysely<Database>): Promise<string> {
+	return db.transaction().execute(async (trx) => {
+		const team = await trx.insertInto('team').values({ name: DEMO_TEAM_NAME }).returning('id').executeTakeFirstOrThrow();
+		await trx
+			.insertInto('vehicle')
+			.values(DEMO_VEHICLES.map((v) => ({ ...v, team_id: team.id })))
+			.execute();
+		return team.id;
+	});
+}
+
+/** Seeds only an empty database (no team yet); returns whether it seeded. */
+export async function seedIfEmpty(db: Kysely<Database>): Promise<boolean> {
+	const { count } = await db.selectFrom('team').select((eb) => eb.fn.countAll<number>().as('count')).executeTakeFirstOrThrow();
+	if (Number(count) > 0) return false;
+	await seedDemo(db);
+	return true;
+}
+
+if (process.argv[1] && fileURLToPath(import.meta.url) === path.resolve(process.argv[1])) {
+	const url = process.env.DATABASE_URL ?? (await ensureCluster(DEFAULT_CLUSTER)).url(DEFAULT_CLUSTER.database);
+	const db = createDb(url, 1);
+	try {
+		await migrateToLatest(db);
+		console.log((await seedIfEmpty(db)) ? 'demo data written' : 'database already has data; nothing written');
+	} finally {
+		await db.destroy();
+	}
+}

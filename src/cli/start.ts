@@ -1,0 +1,112 @@
+/**
+ * `npm start`: the whole product on one machine. Starts the embedded PostgreSQL cluster (unless
+ * DATABASE_URL is set), migrates, seeds the demo scenario into an empty database, builds when the
+ * build is missing or stale, and serves on http://127.0.0.1:4321. Ctrl-C stops everything it started.
+ */
+import { spawn, spawnSync } from 'node:child_process';
+import { createDb } from '../lib/server/db/client';
+import { DEFAULT_CLUSTER, ensureCluster, stopCluster, ClusterError } from '../../db/cluster';
+import { migrateToLatest } from '../../db/migrator';
+import { seedIfEmpty } from '../../db/seed';
+import { buildIsStale } from './build-state';
+import { loadOrCreateSecrets } from './secrets';
+
+const t0 = performance.now();
+const log = (line: string) => console.log(`[sagwise] ${line}`);
+const cleanups: Array<() => Promise<void> | void> = [];
+
+async function main() {
+	const host = process.env.HOST ?? '127.0.0.1';
+	const port = Number(process.env.PORT ?? 4321);
+	const publicUrl = process.env.PUBLIC_URL ?? `http://${host}:${port}`;
+	const secrets = loadOrCreateSecrets();
+
+	let databaseUrl = process.env.DATABASE_URL;
+	if (!databaseUrl) {
+		const cluster = await ensureCluster(DEFAULT_CLUSTER);
+		databaseUrl = cluster.url(DEFAULT_CLUSTER.database);
+		log(`PostgreSQL ${cluster.started ? 'started' : 'already running'} on 127.0.0.1:${DEFAULT_CLUSTER.port} (data in ${DEFAULT_CLUSTER.dir})`);
+		if (cluster.started) cleanups.push(() => void stopCluster(DEFAULT_CLUSTER));
+	} else {
+		log('using DATABASE_URL; the embedded cluster is not started');
+	}
+
+	const db = createDb(databaseUrl, 2);
+	try {
+		await migrateToLatest(db, (line) => log(line));
+		if (await seedIfEmpty(db)) log('demo data written');
+	} finally {
+		await db.destroy();
+	}
+
+	if (buildIsStale()) {
+		log('building the app (first run or sources changed)…');
+		const build = spawnSync('npx', ['astro', 'build'], { stdio: 'inherit' });
+		if (build.status !== 0) throw new Error('astro build failed');
+	}
+
+	const env = {
+		...process.env,
+		HOST: host,
+		PORT: String(port),
+		DATABASE_URL: databaseUrl,
+		AUTH_SECRET: process.env.AUTH_SECRET ?? secrets.AUTH_SECRET,
+		AUTH_TRUST_HOST: process.env.AUTH_TRUST_HOST ?? 'true',
+		PUBLIC_URL: publicUrl,
+	};
+	const server = spawn(process.execPath, ['dist/server/entry.mjs'], { env, stdio: ['ignore', 'inherit', 'inherit'] });
+	cleanups.unshift(
+		() =>
+			new Promise<void>((resolve) => {
+				if (server.exitCode !== null) return resolve();
+				server.once('exit', () => resolve());
+				server.kill('SIGTERM');
+			}),
+	);
+	server.once('exit', (code) => {
+		if (!stopping) {
+			log(`server exited with code ${code}`);
+			void shutdown(code ?? 1);
+		}
+	});
+	await waitForHealth(`${publicUrl}/api/health`);
+	log(`ready in ${((performance.now() - t0) / 1000).toFixed(1)} s → ${publicUrl}`);
+	log('Ctrl-C stops the server and the services it started.');
+}
+
+async function waitForHealth(url: string, timeoutMs = 30_000) {
+	const deadline = Date.now() + timeoutMs;
+	while (Date.now() < deadline) {
+		try {
+			const res = await fetch(url);
+			if (res.ok) return;
+		} catch {
+			// not listening yet
+		}
+		await new Promise((r) => setTimeout(r, 150));
+	}
+	throw new Error(`the server did not report healthy at ${url} within ${timeoutMs / 1000} s`);
+}
+
+let stopping = false;
+async function shutdown(code = 0) {
+	if (stopping) return;
+	stopping = true;
+	log('stopping…');
+	for (const cleanup of cleanups) {
+		try {
+			await cleanup();
+		} catch (error) {
+			console.error(error);
+		}
+	}
+	process.exit(code);
+}
+
+process.on('SIGINT', () => void shutdown(0));
+process.on('SIGTERM', () => void shutdown(0));
+
+main().catch(async (error) => {
+	console.error(error instanceof ClusterError ? `[sagwise] ${error.message}` : error);
+	await shutdown(1);
+});

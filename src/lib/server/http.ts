@@ -1,0 +1,83 @@
+import type { z } from 'zod';
+
+export type ErrorCode =
+	| 'invalid_input'
+	| 'unsupported_media_type'
+	| 'unauthenticated'
+	| 'forbidden'
+	| 'not_found'
+	| 'conflict'
+	| 'rate_limited'
+	| 'database_unavailable'
+	| 'internal';
+
+export interface FieldError {
+	path: string;
+	message: string;
+}
+
+const titles: Record<number, string> = {
+	400: 'Bad Request',
+	401: 'Unauthorized',
+	403: 'Forbidden',
+	404: 'Not Found',
+	409: 'Conflict',
+	413: 'Content Too Large',
+	415: 'Unsupported Media Type',
+	429: 'Too Many Requests',
+	500: 'Internal Server Error',
+	503: 'Service Unavailable',
+};
+
+export interface ProblemBody {
+	type: string;
+	title: string;
+	status: number;
+	code: ErrorCode;
+	detail: string;
+	errors?: FieldError[];
+}
+
+/** An RFC 9457 problem-details response with a stable lower-snake `code` extension. */
+export function problem(
+	status: number,
+	code: ErrorCode,
+	detail: string,
+	errors?: FieldError[],
+	headers: Record<string, string> = {},
+): Response {
+	const body: ProblemBody = { type: 'about:blank', title: titles[status] ?? 'Error', status, code, detail, errors };
+	return new Response(JSON.stringify(body), {
+		status,
+		headers: { 'content-type': 'application/problem+json', ...headers },
+	});
+}
+
+/** Turns zod issues into `{ path, message }` pairs, with dotted paths (`cables.2.lengthM`). */
+export function toFieldErrors(error: z.ZodError): FieldError[] {
+	return error.issues.map((issue) => ({ path: issue.path.map(String).join('.'), message: issue.message }));
+}
+
+export type ReadResult<T> = { ok: true; data: T } | { ok: false; response: Response };
+
+/** Reads a JSON body and validates it: 415 when not JSON, 400 with field errors when invalid. */
+export async function readJson<S extends z.ZodType>(request: Request, schema: S): Promise<ReadResult<z.infer<S>>> {
+	const type = request.headers.get('content-type') ?? '';
+	if (!type.toLowerCase().startsWith('application/json')) {
+		return { ok: false, response: problem(415, 'unsupported_media_type', 'Send the body as application/json') };
+	}
+	let raw: unknown;
+	try {
+		raw = await request.json();
+	} catch {
+		return { ok: false, response: problem(400, 'invalid_input', 'The body is not valid JSON') };
+	}
+	const parsed = schema.safeParse(raw);
+	if (!parsed.success) {
+		return {
+			ok: false,
+			response: problem(400, 'invalid_input', 'Some fields need attention', toFieldErrors(parsed.error)),
+		};
+	}
+	return { ok: true, data: parsed.data };
+}

@@ -1,0 +1,50 @@
+import { experimental_AstroContainer as AstroContainer } from 'astro/container';
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import * as healthEndpoint from '../../src/pages/api/health';
+import { createDb } from '../../src/lib/server/db/client';
+import { createTestDb, type TestDb } from '../helpers/test-db';
+
+describe('GET /api/health', () => {
+	let container: AstroContainer;
+	let testDb: TestDb;
+
+	beforeAll(async () => {
+		container = await AstroContainer.create();
+		testDb = await createTestDb();
+	});
+	afterAll(async () => {
+		await testDb?.drop();
+	});
+
+	it('reports the version and a real database round trip when the database answers', async () => {
+		const response = await container.renderToResponse(healthEndpoint, {
+			routeType: 'endpoint',
+			locals: { db: testDb.db },
+			request: new Request('http://localhost/api/health'),
+		});
+		expect(response.status).toBe(200);
+		const body = await response.json();
+		expect(body.status).toBe('ok');
+		expect(body.version).toMatch(/^\d+\.\d+\.\d+/);
+		expect(body.database.status).toBe('ok');
+		expect(body.database.serverVersion).toMatch(/^\d+/);
+	});
+
+	it('answers 503 problem JSON when the database is unreachable', async () => {
+		// Nothing listens on port 1 on loopback.
+		const deadDb = createDb('postgres://postgres@127.0.0.1:1/none', 1);
+		try {
+			const response = await container.renderToResponse(healthEndpoint, {
+				routeType: 'endpoint',
+				locals: { db: deadDb },
+				request: new Request('http://localhost/api/health'),
+			});
+			expect(response.status).toBe(503);
+			expect(response.headers.get('content-type')).toBe('application/problem+json');
+			const body = await response.json();
+			expect(body).toMatchObject({ status: 503, code: 'database_unavailable' });
+		} finally {
+			await deadDb.destroy();
+		}
+	});
+});

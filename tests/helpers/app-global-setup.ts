@@ -1,0 +1,68 @@
+import { type ChildProcess, spawn, spawnSync } from 'node:child_process';
+import { existsSync } from 'node:fs';
+import { sql } from 'kysely';
+import type { TestProject } from 'vitest/node';
+import { ensureCluster } from '../../db/cluster';
+import { seedDemo } from '../../db/seed';
+import { buildIsStale } from '../../src/cli/build-state';
+import { createDb } from '../../src/lib/server/db/client';
+import { CHROMIUM_PATH } from './browser';
+import { TEST_CLUSTER } from './pg-global-setup';
+
+declare module 'vitest' {
+	export interface ProvidedContext {
+		appUrl: string;
+	}
+}
+
+const PORT = Number(process.env.SAGWISE_TEST_APP_PORT ?? 4399);
+
+/** Builds the app when needed and serves it on a test port against a seeded throwaway database. */
+export default async function setup(project: TestProject) {
+	if (!existsSync(CHROMIUM_PATH)) {
+		throw new Error(`Browser tests need Debian's chromium at ${CHROMIUM_PATH}: install it with \`apt-get install chromium\`.`);
+	}
+	if (buildIsStale()) {
+		const build = spawnSync('npx', ['astro', 'build'], { stdio: 'inherit' });
+		if (build.status !== 0) throw new Error('astro build failed; browser tests need the built app');
+	}
+	const cluster = await ensureCluster(TEST_CLUSTER);
+	const name = `e2e_${Date.now()}`;
+	const admin = createDb(cluster.url(), 1);
+	await sql`create database ${sql.id(name)} template ${sql.id(`sagwise_template_${process.env.SAGWISE_TEST_RUN}`)}`.execute(admin);
+	const db = createDb(cluster.url(name), 1);
+	await seedDemo(db);
+	await db.destroy();
+
+	const appUrl = `http://127.0.0.1:${PORT}`;
+	const server: ChildProcess = spawn(process.execPath, ['dist/server/entry.mjs'], {
+		env: {
+			...process.env,
+			HOST: '127.0.0.1',
+			PORT: String(PORT),
+			DATABASE_URL: cluster.url(name),
+			AUTH_SECRET: 'test-secret-not-for-production-0123456789',
+			AUTH_TRUST_HOST: 'true',
+			PUBLIC_URL: appUrl,
+		},
+		stdio: ['ignore', 'ignore', 'inherit'],
+	});
+	const deadline = Date.now() + 30_000;
+	for (;;) {
+		try {
+			if ((await fetch(`${appUrl}/api/health`)).ok) break;
+		} catch {
+			// not up yet
+		}
+		if (Date.now() > deadline || server.exitCode !== null) throw new Error('the test server did not start');
+		await new Promise((r) => setTimeout(r, 150));
+	}
+	project.provide('appUrl', appUrl);
+
+	return async () => {
+		server.kill('SIGTERM');
+		await new Promise((r) => server.once('exit', r));
+		await sql`drop database if exists ${sql.id(name)} with (force)`.execute(admin);
+		await admin.destroy();
+	};
+}

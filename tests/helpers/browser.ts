@@ -1,0 +1,58 @@
+import { mkdtempSync, mkdirSync, rmSync } from 'node:fs';
+import { tmpdir } from 'node:os';
+import path from 'node:path';
+import { type BrowserContext, chromium, type Page } from 'playwright-core';
+
+export const CHROMIUM_PATH = process.env.CHROMIUM_PATH ?? '/usr/bin/chromium';
+export const SCREENSHOT_DIR = '.data/screenshots';
+
+export interface Browser {
+	context: BrowserContext;
+	page: Page;
+	/** Console errors and failed requests seen so far. */
+	problems: string[];
+	screenshot: (name: string) => Promise<string>;
+	close: () => Promise<void>;
+}
+
+/** Debian's chromium, headless, with a fresh profile; never a downloaded browser. */
+export async function openBrowser(): Promise<Browser> {
+	const profile = mkdtempSync(path.join(tmpdir(), 'sagwise-profile-'));
+	const context = await chromium.launchPersistentContext(profile, {
+		executablePath: CHROMIUM_PATH,
+		headless: true,
+		viewport: { width: 1280, height: 900 },
+		args: [
+			'--headless',
+			'--no-sandbox',
+			'--disable-gpu',
+			'--disable-quic',
+			'--no-first-run',
+			'--disable-background-networking',
+			'--disable-component-update',
+			'--disable-sync',
+		],
+	});
+	const page = context.pages()[0] ?? (await context.newPage());
+	const problems: string[] = [];
+	page.on('console', (msg) => {
+		if (msg.type() === 'error') problems.push(`console: ${msg.text()}`);
+	});
+	page.on('pageerror', (error) => problems.push(`page error: ${error.message}`));
+	page.on('requestfailed', (req) => problems.push(`request failed: ${req.url()} ${req.failure()?.errorText ?? ''}`));
+	mkdirSync(SCREENSHOT_DIR, { recursive: true });
+	return {
+		context,
+		page,
+		problems,
+		screenshot: async (name) => {
+			const file = path.join(SCREENSHOT_DIR, `${name}.png`);
+			await page.screenshot({ path: file, fullPage: true });
+			return file;
+		},
+		close: async () => {
+			await context.close();
+			rmSync(profile, { recursive: true, force: true });
+		},
+	};
+}
