@@ -33,7 +33,6 @@ export default getViteConfig({
 					name: 'browser',
 					include: ['tests/e2e/**/*.test.ts'],
 					globalSetup: [pgSetup, 'tests/helpers/app-global-setup.ts'],
-					fileParallelism: false,
 					testTimeout: 60_000,
 					hookTimeout: 180_000,
 				},

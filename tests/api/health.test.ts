@@ -1,15 +1,13 @@
-import { experimental_AstroContainer as AstroContainer } from 'astro/container';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import * as healthEndpoint from '../../src/pages/api/health';
 import { createDb } from '../../src/lib/server/db/client';
+import { callEndpoint } from '../helpers/container';
 import { createTestDb, type TestDb } from '../helpers/test-db';
 
 describe('GET /api/health', () => {
-	let container: AstroContainer;
 	let testDb: TestDb;
 
 	beforeAll(async () => {
-		container = await AstroContainer.create();
 		testDb = await createTestDb();
 	});
 	afterAll(async () => {
@@ -17,11 +15,7 @@ describe('GET /api/health', () => {
 	});
 
 	it('reports the version and a real database round trip when the database answers', async () => {
-		const response = await container.renderToResponse(healthEndpoint, {
-			routeType: 'endpoint',
-			locals: { db: testDb.db },
-			request: new Request('http://localhost/api/health'),
-		});
+		const response = await callEndpoint(healthEndpoint, { locals: { db: testDb.db }, request: new Request('http://localhost/api/health') });
 		expect(response.status).toBe(200);
 		const body = await response.json();
 		expect(body.status).toBe('ok');
@@ -34,15 +28,10 @@ describe('GET /api/health', () => {
 		// Nothing listens on port 1 on loopback.
 		const deadDb = createDb('postgres://postgres@127.0.0.1:1/none', 1);
 		try {
-			const response = await container.renderToResponse(healthEndpoint, {
-				routeType: 'endpoint',
-				locals: { db: deadDb },
-				request: new Request('http://localhost/api/health'),
-			});
+			const response = await callEndpoint(healthEndpoint, { locals: { db: deadDb }, request: new Request('http://localhost/api/health') });
 			expect(response.status).toBe(503);
 			expect(response.headers.get('content-type')).toBe('application/problem+json');
-			const body = await response.json();
-			expect(body).toMatchObject({ status: 503, code: 'database_unavailable' });
+			expect(await response.json()).toMatchObject({ status: 503, code: 'database_unavailable' });
 		} finally {
 			await deadDb.destroy();
 		}

@@ -1,0 +1,86 @@
+import { bankPeukertK, bankThevenin, chargeAcceptanceA, peukertEffectiveCurrentA } from './battery';
+import { chargeResistanceOhm, compileNetwork, type CompiledNetwork, solveCompiled } from './network';
+import { describeSolution } from './solve';
+import type { BuildDocument } from './types';
+
+export interface BurpRun {
+	durationS: number;
+	stepS: number;
+	/** Sample times (s), one per step, starting at the first step's end. */
+	timeS: number[];
+	/** Lowest amplifier terminal voltage at each step (V). */
+	minAmplifierV: number[];
+	/** Each bank's terminal voltage at each step (V), by bank id. */
+	bankV: Record<string, number[]>;
+	/** Lowest terminal voltage each amplifier saw during the run (V). */
+	amplifierMinV: Record<string, number>;
+	/** Energy into the amplifiers, out of the banks and out of the alternators (Wh). */
+	energyWh: { amplifiers: number; banks: number; alternators: number; cableLoss: number };
+	startSoc: Record<string, number>;
+	endSoc: Record<string, number>;
+	/** Time (s) at which the system had no operating point any more, or null. */
+	collapsedAtS: number | null;
+}
+
+function updateBanks(net: CompiledNetwork, doc: BuildDocument, soc: Record<string, number>) {
+	doc.banks.forEach((bank, i) => {
+		const compiled = net.banks[i]!;
+		const th = bankThevenin(bank, soc[bank.id]!);
+		compiled.ocvV = th.ocvV;
+		compiled.chargeAcceptanceA = chargeAcceptanceA(bank, soc[bank.id]!);
+		compiled.chargeResistanceOhm = chargeResistanceOhm(bank, th.ocvV, th.resistanceOhm, compiled.chargeAcceptanceA);
+	});
+}
+
+/**
+ * A burp held for `durationS` at time step `stepS`: at each step the network is solved at burp
+ * demand (warm-started from the previous step), then each bank's state of charge moves by its
+ * current over the step — discharge counted with the Peukert-effective current
+ * I·(I/I_H)^(k−1), charge at face value.
+ */
+export function runBurp(
+	doc: BuildDocument,
+	opts: { engineRpm: number; demand: number; conductorTempC: number; durationS: number; stepS: number },
+): BurpRun {
+	const steps = Math.max(1, Math.round(opts.durationS / opts.stepS));
+	const soc: Record<string, number> = Object.fromEntries(doc.banks.map((b) => [b.id, b.stateOfCharge]));
+	const startSoc = { ...soc };
+	const net = compileNetwork(doc, { engineRpm: opts.engineRpm, demand: opts.demand, conductorTempC: opts.conductorTempC });
+	const timeS: number[] = [];
+	const minAmplifierV: number[] = [];
+	const bankV: Record<string, number[]> = Object.fromEntries(doc.banks.map((b) => [b.id, []]));
+	const amplifierMinV: Record<string, number> = Object.fromEntries(doc.amplifiers.map((a) => [a.id, Number.POSITIVE_INFINITY]));
+	const energyWh = { amplifiers: 0, banks: 0, alternators: 0, cableLoss: 0 };
+	let warm: Float64Array | undefined;
+	let collapsedAtS: number | null = null;
+	for (let k = 1; k <= steps; k++) {
+		updateBanks(net, doc, soc);
+		const raw = solveCompiled(net, warm);
+		warm = raw.v;
+		const s = describeSolution(net, raw);
+		const t = k * opts.stepS;
+		timeS.push(t);
+		let minV = Number.POSITIVE_INFINITY;
+		for (const a of s.amplifiers) {
+			minV = Math.min(minV, a.terminalV);
+			amplifierMinV[a.id] = Math.min(amplifierMinV[a.id]!, a.terminalV);
+			energyWh.amplifiers += (a.inputPowerW * opts.stepS) / 3600;
+		}
+		minAmplifierV.push(doc.amplifiers.length ? minV : Number.NaN);
+		for (const a of s.alternators) energyWh.alternators += (a.currentA * a.terminalV * opts.stepS) / 3600;
+		energyWh.cableLoss += (s.power.cableLossW * opts.stepS) / 3600;
+		s.banks.forEach((b, i) => {
+			const bank = doc.banks[i]!;
+			bankV[b.id]!.push(b.terminalV);
+			energyWh.banks += (b.currentA * b.terminalV * opts.stepS) / 3600;
+			const { capacityAh } = bankThevenin(bank);
+			const eff = peukertEffectiveCurrentA(capacityAh, bank.ratedHours, b.currentA, bankPeukertK(bank));
+			soc[b.id] = Math.min(1, Math.max(0, soc[b.id]! - (eff * opts.stepS) / 3600 / capacityAh));
+		});
+		if (raw.collapsed) {
+			collapsedAtS = t;
+			break;
+		}
+	}
+	return { durationS: opts.durationS, stepS: opts.stepS, timeS, minAmplifierV, bankV, amplifierMinV, energyWh, startSoc, endSoc: soc, collapsedAtS };
+}

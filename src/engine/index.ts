@@ -1,0 +1,14 @@
+export * from './types';
+export * from './conductors';
+export * from './amplifier';
+export * from './battery';
+export * from './alternator';
+export * from './fuses';
+export * from './topology';
+export { compileNetwork, solveCompiled, GMIN_S, type SolveConditions, type CompiledNetwork } from './network';
+export * from './solve';
+export * from './budget';
+export * from './burp';
+export * from './report';
+export * from './spice';
+export * from './units';

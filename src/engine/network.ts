@@ -1,0 +1,340 @@
+import { amplifierInputPowerW } from './amplifier';
+import { alternatorLimitA } from './alternator';
+import { bankChargeTargets, bankThevenin, cellsInSeries, chargeAcceptanceA } from './battery';
+import { cableResistanceOhm } from './conductors';
+import { solveDense } from './linear';
+import type { BuildDocument } from './types';
+
+/** A tiny conductance from every node to the chassis (as SPICE's gmin) keeps the matrix regular. */
+export const GMIN_S = 1e-9;
+const MAX_ITERATIONS = 80;
+const RESIDUAL_TOL_A = 1e-8;
+const STEP_TOL_V = 1e-10;
+
+export interface SolveConditions {
+	/** Engine speed (rpm); 0 = engine off. */
+	engineRpm: number;
+	/** Fraction of rated power every amplifier draws (1 = burp). */
+	demand: number;
+	/** Conductor temperature for cable resistance (°C). */
+	conductorTempC: number;
+	/** Per-bank state of charge, overriding the document (used by the time-stepped burp). */
+	stateOfCharge?: Readonly<Record<string, number>>;
+}
+
+interface TwoTerminal {
+	p: number; // node index, -1 = chassis
+	n: number;
+}
+
+/** The network reduced to numbers: node indices and per-element parameters. */
+export interface CompiledNetwork {
+	nodeIds: string[];
+	index: Map<string, number>;
+	cables: Array<TwoTerminal & { id: string; g: number; resistanceOhm: number }>;
+	banks: Array<TwoTerminal & { id: string; ocvV: number; resistanceOhm: number; chargeResistanceOhm: number; chargeAcceptanceA: number }>;
+	alternators: Array<TwoTerminal & { id: string; setPointV: number; resistanceOhm: number; limitA: number }>;
+	amplifiers: Array<TwoTerminal & { id: string; powerW: number }>;
+	loads: Array<TwoTerminal & { id: string; currentA: number }>;
+	/** Highest source voltage: the scale for initial guesses and collapse checks. */
+	nominalV: number;
+}
+
+export function compileNetwork(doc: BuildDocument, conditions: SolveConditions): CompiledNetwork {
+	const chassis = doc.nodes.find((n) => n.kind === 'chassis');
+	const nodeIds = doc.nodes.filter((n) => n !== chassis).map((n) => n.id);
+	const index = new Map(nodeIds.map((id, i) => [id, i]));
+	if (chassis) index.set(chassis.id, -1);
+	const at = (id: string) => {
+		const i = index.get(id);
+		if (i === undefined) throw new Error(`unknown node ${id}`);
+		return i;
+	};
+	const banks = doc.banks.map((b) => {
+		const soc = conditions.stateOfCharge?.[b.id] ?? b.stateOfCharge;
+		const th = bankThevenin(b, soc);
+		const acceptA = chargeAcceptanceA(b, soc);
+		return {
+			id: b.id,
+			p: at(b.positive),
+			n: at(b.negative),
+			ocvV: th.ocvV,
+			resistanceOhm: th.resistanceOhm,
+			chargeResistanceOhm: chargeResistanceOhm(b, th.ocvV, th.resistanceOhm, acceptA),
+			chargeAcceptanceA: acceptA,
+		};
+	});
+	const alternators = doc.alternators.map((a) => ({
+		id: a.id,
+		p: at(a.positive),
+		n: at(a.negative),
+		setPointV: a.setPointV,
+		resistanceOhm: a.sourceResistanceOhm,
+		limitA: alternatorLimitA(a, conditions.engineRpm),
+	}));
+	const nominalV = Math.max(1, ...banks.map((b) => b.ocvV), ...alternators.filter((a) => a.limitA > 0).map((a) => a.setPointV));
+	return {
+		nodeIds,
+		index,
+		cables: doc.cables.map((c) => {
+			const r = cableResistanceOhm(c, conditions.conductorTempC);
+			return { id: c.id, p: at(c.from), n: at(c.to), g: 1 / r, resistanceOhm: r };
+		}),
+		banks,
+		alternators,
+		amplifiers: doc.amplifiers.map((a) => ({ id: a.id, p: at(a.positive), n: at(a.negative), powerW: amplifierInputPowerW(a, conditions.demand) })),
+		loads: doc.loads.map((l) => ({ id: l.id, p: at(l.positive), n: at(l.negative), currentA: l.currentA })),
+		nominalV,
+	};
+}
+
+/**
+ * Charging behaves as a rising surface voltage: the bank takes (v − V_oc)/R_charge, with R_charge
+ * chosen so that at its absorption voltage it takes exactly its charge acceptance — a bank never
+ * shows more charging current than it accepts while the regulator stays within its targets.
+ * Never below the discharge resistance; at least 50 mV per cell of headroom is assumed.
+ */
+export function chargeResistanceOhm(bank: BuildDocument['banks'][number], ocvV: number, resistanceOhm: number, acceptanceA: number): number {
+	const headroomV = Math.max(bankChargeTargets(bank).absorptionV - ocvV, 0.05 * cellsInSeries(bank));
+	return Math.max(resistanceOhm, headroomV / Math.max(acceptanceA, 1e-6));
+}
+
+const volt = (v: Float64Array, i: number) => (i < 0 ? 0 : v[i]!);
+
+/**
+ * Current out of a bank's positive terminal at terminal voltage v, and its derivative dI/dv:
+ * (V_oc − v)/R discharging, (V_oc − v)/R_charge charging.
+ */
+export function bankCurrent(b: CompiledNetwork['banks'][number], v: number): [number, number] {
+	const r = v <= b.ocvV ? b.resistanceOhm : b.chargeResistanceOhm;
+	return [(b.ocvV - v) / r, -1 / r];
+}
+
+/** Current out of an alternator: a voltage source at its set point until its limit, never negative. */
+export function alternatorCurrent(a: CompiledNetwork['alternators'][number], v: number): [number, number] {
+	if (a.limitA <= 0) return [0, 0];
+	const i = (a.setPointV - v) / a.resistanceOhm;
+	if (i <= 0) return [0, 0];
+	if (i >= a.limitA) return [a.limitA, 0];
+	return [i, -1 / a.resistanceOhm];
+}
+
+interface Assembled {
+	f: Float64Array;
+	j: Float64Array;
+	/** Lowest amplifier terminal voltage seen; non-positive means no physical solution here. */
+	minAmpV: number;
+}
+
+function assemble(net: CompiledNetwork, v: Float64Array, lambda: number, out: Assembled) {
+	const n = net.nodeIds.length;
+	const { f, j } = out;
+	f.fill(0);
+	j.fill(0);
+	for (let i = 0; i < n; i++) {
+		f[i] = GMIN_S * v[i]!;
+		j[i * n + i] = GMIN_S;
+	}
+	// Adds a two-terminal element drawing `cur` into p (out of n) with incremental conductance `g`.
+	const stamp = (p: number, q: number, cur: number, g: number) => {
+		if (p >= 0) {
+			f[p] += cur;
+			j[p * n + p] += g;
+		}
+		if (q >= 0) {
+			f[q] -= cur;
+			j[q * n + q] += g;
+		}
+		if (p >= 0 && q >= 0) {
+			j[p * n + q] -= g;
+			j[q * n + p] -= g;
+		}
+	};
+	for (const c of net.cables) stamp(c.p, c.n, c.g * (volt(v, c.p) - volt(v, c.n)), c.g);
+	for (const b of net.banks) {
+		const [i, di] = bankCurrent(b, volt(v, b.p) - volt(v, b.n));
+		stamp(b.p, b.n, -i, -di);
+	}
+	for (const a of net.alternators) {
+		const [i, di] = alternatorCurrent(a, volt(v, a.p) - volt(v, a.n));
+		stamp(a.p, a.n, -i, -di);
+	}
+	let minAmpV = Number.POSITIVE_INFINITY;
+	for (const a of net.amplifiers) {
+		const vpn = volt(v, a.p) - volt(v, a.n);
+		minAmpV = Math.min(minAmpV, vpn);
+		const p = lambda * a.powerW;
+		if (p === 0) continue;
+		stamp(a.p, a.n, p / vpn, -p / (vpn * vpn));
+	}
+	for (const l of net.loads) stamp(l.p, l.n, l.currentA, 0);
+	out.minAmpV = minAmpV;
+}
+
+/** Cholesky test of the (symmetric) Jacobian: positive definite ⇔ a stable operating point. */
+function isPositiveDefinite(a: Float64Array, n: number): boolean {
+	const l = new Float64Array(a);
+	for (let k = 0; k < n; k++) {
+		let d = l[k * n + k]!;
+		for (let m = 0; m < k; m++) d -= l[k * n + m]! ** 2;
+		if (!(d > 0)) return false;
+		const s = Math.sqrt(d);
+		l[k * n + k] = s;
+		for (let i = k + 1; i < n; i++) {
+			let x = l[i * n + k]!;
+			for (let m = 0; m < k; m++) x -= l[i * n + m]! * l[k * n + m]!;
+			l[i * n + k] = x / s;
+		}
+	}
+	return true;
+}
+
+/**
+ * The network's co-content: a scalar whose gradient is the nodal residual f. Cables, sources and
+ * loads are monotone, so without amplifiers it is convex; near a stable operating point it is
+ * locally convex too. The Newton step is line-searched on it, which copes with the kinks where an
+ * alternator reaches its limit or a bank its charge acceptance. Amplifier terminals below `floorV`
+ * count as infinitely bad: that side of the curve is the collapsed, low-voltage branch.
+ */
+function coContent(net: CompiledNetwork, v: Float64Array, lambda: number, floorV: number): number {
+	let e = 0;
+	for (let i = 0; i < v.length; i++) e += 0.5 * GMIN_S * v[i]! ** 2;
+	for (const c of net.cables) e += 0.5 * c.g * (volt(v, c.p) - volt(v, c.n)) ** 2;
+	for (const b of net.banks) {
+		const x = volt(v, b.p) - volt(v, b.n);
+		e += (x - b.ocvV) ** 2 / (2 * (x <= b.ocvV ? b.resistanceOhm : b.chargeResistanceOhm));
+	}
+	for (const a of net.alternators) {
+		if (a.limitA <= 0) continue;
+		const x = volt(v, a.p) - volt(v, a.n);
+		const knee = a.setPointV - a.resistanceOhm * a.limitA;
+		if (x >= a.setPointV) continue;
+		e += x > knee ? (x - a.setPointV) ** 2 / (2 * a.resistanceOhm) : (a.resistanceOhm * a.limitA ** 2) / 2 - a.limitA * (x - knee);
+	}
+	for (const a of net.amplifiers) {
+		const x = volt(v, a.p) - volt(v, a.n);
+		const p = lambda * a.powerW;
+		if (p === 0) continue;
+		if (x < floorV) return Number.POSITIVE_INFINITY;
+		e += p * Math.log(x);
+	}
+	for (const l of net.loads) e += l.currentA * (volt(v, l.p) - volt(v, l.n));
+	return e;
+}
+
+interface NewtonResult {
+	ok: boolean;
+	v: Float64Array;
+	iterations: number;
+	residualA: number;
+}
+
+function maxAbs(x: Float64Array): number {
+	let m = 0;
+	for (let i = 0; i < x.length; i++) m = Math.max(m, Math.abs(x[i]!));
+	return m;
+}
+
+function newton(net: CompiledNetwork, lambda: number, start: Float64Array, work: Assembled): NewtonResult {
+	const n = net.nodeIds.length;
+	let v = new Float64Array(start);
+	const trial = new Float64Array(n);
+	const floorV = 0.02 * net.nominalV;
+	for (let iter = 1; iter <= MAX_ITERATIONS; iter++) {
+		assemble(net, v, lambda, work);
+		if (lambda > 0 && work.minAmpV < floorV) return { ok: false, v, iterations: iter, residualA: Number.NaN };
+		const residual = maxAbs(work.f);
+		if (residual < RESIDUAL_TOL_A) {
+			return { ok: isPositiveDefinite(work.j, n), v, iterations: iter, residualA: residual };
+		}
+		const step = new Float64Array(n);
+		for (let i = 0; i < n; i++) step[i] = -work.f[i]!;
+		let slope = 0;
+		for (let i = 0; i < n; i++) slope += work.f[i]! * step[i]!; // directional derivative of the co-content
+		if (!solveDense(work.j, step, n)) return { ok: false, v, iterations: iter, residualA: residual };
+		slope = 0;
+		for (let i = 0; i < n; i++) slope += work.f[i]! * step[i]!;
+		if (!(slope < 0)) return { ok: false, v, iterations: iter, residualA: residual };
+		const e0 = coContent(net, v, lambda, floorV);
+		const at = (t: number) => {
+			for (let i = 0; i < n; i++) trial[i] = v[i]! + t * step[i]!;
+			return coContent(net, trial, lambda, floorV);
+		};
+		// Backtrack to sufficient decrease, then keep halving while that still lowers the co-content.
+		let t = 1;
+		let e = at(t);
+		while (!(e <= e0 + 1e-4 * t * slope) && t > 1e-14) {
+			t /= 2;
+			e = at(t);
+		}
+		if (t <= 1e-14) return { ok: false, v, iterations: iter, residualA: residual };
+		for (let k = 0; k < 60; k++) {
+			const eHalf = at(t / 2);
+			if (!(eHalf < e)) break;
+			t /= 2;
+			e = eHalf;
+		}
+		const next = new Float64Array(n);
+		for (let i = 0; i < n; i++) next[i] = v[i]! + t * step[i]!;
+		const moved = maxAbs(step) * t;
+		v = next;
+		if (moved < STEP_TOL_V) {
+			assemble(net, v, lambda, work);
+			const r = maxAbs(work.f);
+			return { ok: r < RESIDUAL_TOL_A * 1e3 && isPositiveDefinite(work.j, n), v, iterations: iter, residualA: r };
+		}
+	}
+	return { ok: false, v, iterations: MAX_ITERATIONS, residualA: Number.NaN };
+}
+
+export interface RawSolution {
+	/** Node voltages by index (chassis excluded). */
+	v: Float64Array;
+	/** Fraction of the requested amplifier demand actually solved (1 unless the system collapses). */
+	lambda: number;
+	collapsed: boolean;
+	iterations: number;
+	residualA: number;
+}
+
+/**
+ * Solves the compiled network by nodal analysis with Newton iteration. Starts from `start` when
+ * given (warm start), otherwise from the unloaded network. When the full demand has no stable
+ * operating point the demand is ramped from zero (continuation) to find the largest fraction that
+ * still has one: the voltage-collapse point.
+ */
+export function solveCompiled(net: CompiledNetwork, start?: Float64Array): RawSolution {
+	const n = net.nodeIds.length;
+	const work: Assembled = { f: new Float64Array(n), j: new Float64Array(n * n), minAmpV: 0 };
+	let iterations = 0;
+	if (start) {
+		const warm = newton(net, 1, start, work);
+		iterations += warm.iterations;
+		if (warm.ok) return { v: warm.v, lambda: 1, collapsed: false, iterations, residualA: warm.residualA };
+	}
+	const unloaded = newton(net, 0, new Float64Array(n).fill(net.nominalV * 0.5), work);
+	iterations += unloaded.iterations;
+	if (!unloaded.ok) throw new Error('the unloaded network did not solve; check its topology');
+	const direct = newton(net, 1, unloaded.v, work);
+	iterations += direct.iterations;
+	if (direct.ok) return { v: direct.v, lambda: 1, collapsed: false, iterations, residualA: direct.residualA };
+
+	let lambda = 0;
+	let v = unloaded.v;
+	let residualA = unloaded.residualA;
+	let step = 0.25;
+	while (step > 1e-5 && lambda < 1) {
+		const next = Math.min(1, lambda + step);
+		const attempt = newton(net, next, v, work);
+		iterations += attempt.iterations;
+		if (attempt.ok) {
+			lambda = next;
+			v = attempt.v;
+			residualA = attempt.residualA;
+			step *= 1.5;
+		} else {
+			step /= 2;
+		}
+	}
+	return { v, lambda, collapsed: lambda < 1, iterations, residualA };
+}

@@ -1,0 +1,68 @@
+import { compileNetwork, type CompiledNetwork, type SolveConditions } from './network';
+import type { BuildDocument } from './types';
+
+export interface SpiceExport {
+	netlist: string;
+	/** SPICE node name for each build node id (the chassis is node 0). */
+	nodeNames: Record<string, string>;
+	/** SPICE device name for each cable id (its current is `@name[i]`). */
+	cableDevices: Record<string, string>;
+}
+
+const num = (x: number) => x.toPrecision(15);
+
+/**
+ * The build as a SPICE netlist for a DC operating point (.op): cables as resistors, banks and
+ * alternators as behavioural current sources with the engine's piecewise laws, amplifiers as
+ * constant-power behavioural loads I = P/V, steady loads as current sources. `nodeset` gives the
+ * simulator a starting point (a constant-power load has two solutions; SPICE needs a hint near the
+ * high-voltage one).
+ */
+export function toSpiceNetlist(
+	doc: BuildDocument,
+	conditions: SolveConditions,
+	opts: { title?: string; nodeset?: Record<string, number>; control?: boolean } = {},
+): SpiceExport {
+	const net: CompiledNetwork = compileNetwork(doc, conditions);
+	const nodeNames: Record<string, string> = {};
+	for (const [id, i] of net.index) nodeNames[id] = i < 0 ? '0' : `n${i + 1}`;
+	const name = (i: number) => (i < 0 ? '0' : `n${i + 1}`);
+	const v = (p: number, n: number) => (n < 0 ? `V(${name(p)})` : `(V(${name(p)})-V(${name(n)}))`);
+	const lines: string[] = [`* ${opts.title ?? 'Sagwise build'} — DC operating point`];
+	lines.push(`* nodes: ${Object.entries(nodeNames).map(([id, n]) => `${n}=${id}`).join(' ')}`);
+	const cableDevices: Record<string, string> = {};
+	net.cables.forEach((c, i) => {
+		const dev = `rc${i + 1}`;
+		cableDevices[c.id] = dev;
+		lines.push(`${dev} ${name(c.p)} ${name(c.n)} ${num(c.resistanceOhm)}`);
+	});
+	net.banks.forEach((b, i) => {
+		// Current into the positive node: max((Voc−v)/R, (Voc−v)/Rcharge).
+		const x = v(b.p, b.n);
+		lines.push(`bbank${i + 1} ${name(b.n)} ${name(b.p)} I=max((${num(b.ocvV)}-${x})/${num(b.resistanceOhm)}, (${num(b.ocvV)}-${x})/${num(b.chargeResistanceOhm)})`);
+	});
+	net.alternators.forEach((a, i) => {
+		if (a.limitA <= 0) return;
+		const x = v(a.p, a.n);
+		lines.push(`balt${i + 1} ${name(a.n)} ${name(a.p)} I=min(max((${num(a.setPointV)}-${x})/${num(a.resistanceOhm)}, 0), ${num(a.limitA)})`);
+	});
+	net.amplifiers.forEach((a, i) => {
+		if (a.powerW > 0) lines.push(`bamp${i + 1} ${name(a.p)} ${name(a.n)} I=${num(a.powerW)}/${v(a.p, a.n)}`);
+	});
+	net.loads.forEach((l, i) => lines.push(`iload${i + 1} ${name(l.p)} ${name(l.n)} DC ${num(l.currentA)}`));
+	// The engine's gmin, so both solve the same equations.
+	net.nodeIds.forEach((_, i) => lines.push(`rgmin${i + 1} ${name(i)} 0 1e9`));
+	if (opts.nodeset && Object.keys(opts.nodeset).length > 0) {
+		lines.push(`.nodeset ${Object.entries(opts.nodeset).filter(([id]) => nodeNames[id] !== '0').map(([id, x]) => `v(${nodeNames[id]})=${num(x)}`).join(' ')}`);
+	}
+	lines.push('.options reltol=1e-9 vntol=1e-12 abstol=1e-9 gmin=1e-15 itl1=500');
+	if (opts.control !== false) {
+		lines.push('.control', 'set numdgt=15', 'op');
+		const vec = [...net.nodeIds.map((_, i) => `v(${name(i)})`), ...Object.values(cableDevices).map((d) => `@${d}[i]`)];
+		lines.push(`print ${vec.join(' ')}`, '.endc');
+	} else {
+		lines.push('.op');
+	}
+	lines.push('.end', '');
+	return { netlist: lines.join('\n'), nodeNames, cableDevices };
+}

@@ -1,0 +1,166 @@
+/**
+ * The build document (schema version 1): a vehicle's DC electrical system as a network.
+ * SI units throughout: V, A, Ω, m, mm², W, Ah, °C. The zod schema that validates it at every
+ * boundary lives in src/lib/schemas/build-document.ts and is checked against these types.
+ */
+
+export const AWG_SIZES = ['12', '10', '8', '6', '4', '2', '1', '1/0', '2/0', '3/0', '4/0'] as const;
+export type AwgSize = (typeof AWG_SIZES)[number];
+
+export const MATERIALS = ['copper', 'tinned_copper', 'cca10', 'cca15', 'aluminium'] as const;
+export type Material = (typeof MATERIALS)[number];
+
+export const CHEMISTRIES = ['flooded', 'agm', 'lfp'] as const;
+export type Chemistry = (typeof CHEMISTRIES)[number];
+
+export const NODE_KINDS = ['chassis', 'battery', 'block', 'amplifier', 'alternator', 'junction'] as const;
+export type NodeKind = (typeof NODE_KINDS)[number];
+
+export interface BuildNode {
+	id: string;
+	label: string;
+	kind: NodeKind;
+}
+
+export type CableSize =
+	| { kind: 'awg'; awg: AwgSize }
+	| { kind: 'mm2'; mm2: number }
+	/** A measured metal cross-section, for cable sold under a gauge it does not meet. */
+	| { kind: 'measured'; areaMm2: number };
+
+export interface Fuse {
+	ratingA: number;
+	/** Which end of the cable the fuse sits at. */
+	end: 'from' | 'to';
+	/** Distance from that end's terminal along the cable. */
+	distanceM: number;
+}
+
+export interface Cable {
+	id: string;
+	label: string;
+	from: string;
+	to: string;
+	size: CableSize;
+	material: Material;
+	lengthM: number;
+	parallelRuns: number;
+	/** Fuses on this cable, at most one per end (a run between two banks wants one at each). */
+	fuses: Fuse[];
+	/** Insulation temperature rating, °C (e.g. 105). */
+	insulationC: number;
+}
+
+/** Alternator output limit (A) against alternator shaft speed (rpm), hot or cold as stated. */
+export interface CurvePoint {
+	rpm: number;
+	currentA: number;
+}
+
+export interface Alternator {
+	id: string;
+	label: string;
+	positive: string;
+	negative: string;
+	/** Rated hot output at high speed (A). Used when no curve is given. */
+	ratedHotA: number;
+	/** Output vs alternator shaft speed; empty means a default shape scaled to ratedHotA. */
+	curve: CurvePoint[];
+	/** True when the curve was measured cold; the engine then derates it by hotFactor. */
+	curveIsCold: boolean;
+	/** Hot/cold derating applied to a cold curve (common practice 0.8). */
+	hotFactor: number;
+	/** Crank pulley diameter / alternator pulley diameter. */
+	pulleyRatio: number;
+	/** Regulator set point (V). */
+	setPointV: number;
+	/** Regulator stiffness: the source resistance in voltage mode (Ω), small and positive. */
+	sourceResistanceOhm: number;
+}
+
+export interface BatteryBank {
+	id: string;
+	label: string;
+	positive: string;
+	negative: string;
+	chemistry: Chemistry;
+	/** Cells in one unit (a "12 V" lead-acid battery has 6; a LiFePO4 module 4 or 5). */
+	cellsPerUnit: number;
+	unitsInSeries: number;
+	stringsInParallel: number;
+	/** Capacity of one unit at its rated discharge time (Ah). */
+	unitCapacityAh: number;
+	/** Rated discharge time for the capacity (h), e.g. 20. */
+	ratedHours: number;
+	/** Internal resistance of one unit (Ω). */
+	unitResistanceOhm: number;
+	/** State of charge, 0..1. */
+	stateOfCharge: number;
+	/** Peukert exponent; null uses the chemistry's default. */
+	peukertK: number | null;
+	/** Absorption and float targets per unit (V); null uses the chemistry's defaults. */
+	absorptionV: number | null;
+	floatV: number | null;
+	/** Largest charging current the bank accepts, in multiples of its capacity (C-rate); null = chemistry default. */
+	maxChargeC: number | null;
+	location: 'engine_bay' | 'cabin' | 'trunk' | 'exterior';
+	secured: boolean;
+	vented: boolean;
+}
+
+export interface Amplifier {
+	id: string;
+	label: string;
+	positive: string;
+	negative: string;
+	/** Rated output power (W) at ratedVoltageV. */
+	ratedPowerW: number;
+	/** Supply voltage the rating was measured at (V), commonly 14.4. */
+	ratedVoltageV: number;
+	/** Efficiency at rated power, 0 < η ≤ 1. */
+	efficiency: number;
+	quantity: number;
+	/** Regulated supplies hold their output when the voltage sags; most competition amplifiers are not. */
+	regulated: boolean;
+}
+
+export interface SteadyLoad {
+	id: string;
+	label: string;
+	positive: string;
+	negative: string;
+	currentA: number;
+}
+
+export interface BuildDocument {
+	schemaVersion: 1;
+	nodes: BuildNode[];
+	alternators: Alternator[];
+	banks: BatteryBank[];
+	amplifiers: Amplifier[];
+	loads: SteadyLoad[];
+	cables: Cable[];
+}
+
+/** What the team asks the engine: operating conditions for a report. */
+export interface Scenario {
+	/** Engine speed (rpm); 0 = engine off. */
+	engineRpm: number;
+	/** Fraction of rated power for sustained music (1/8 is the usual figure). */
+	sustainedDemand: number;
+	/** Fraction of rated power for a burp (1 = full rated power). */
+	burpDemand: number;
+	/** Supply voltages for the fixed-voltage budget (V). */
+	voltagesV: number[];
+	/** Conductor temperature for cable resistance (°C). */
+	conductorTempC: number;
+	/** Largest acceptable drop from source to amplifier terminals (V). */
+	dropTargetV: number;
+	/** Bank terminal voltage counted as empty while carrying a deficit (V); null = the chemistry's cut-off per cell × cells. */
+	cutoffV: number | null;
+	/** Burp duration (s) and step (s) for the time-stepped run. */
+	burpSeconds: number;
+	burpStepS: number;
+	/** Distance within which a battery cable's fuse must sit (m); 0.45 m is common practice. */
+	fuseDistanceM: number;
+}
