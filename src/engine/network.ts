@@ -9,7 +9,8 @@ import type { BuildDocument } from './types';
 export const GMIN_S = 1e-9;
 const MAX_ITERATIONS = 80;
 const RESIDUAL_TOL_A = 1e-8;
-const STEP_TOL_V = 1e-10;
+/** Newton steps smaller than this are taken whole (the quadratic-convergence zone). */
+const LOCAL_STEP_V = 1e-3;
 
 export interface SolveConditions {
 	/** Engine speed (rpm); 0 = engine off. */
@@ -255,34 +256,36 @@ function newton(net: CompiledNetwork, lambda: number, start: Float64Array, work:
 		slope = 0;
 		for (let i = 0; i < n; i++) slope += work.f[i]! * step[i]!;
 		if (!(slope < 0)) return { ok: false, v, iterations: iter, residualA: residual };
-		const e0 = coContent(net, v, lambda, floorV);
-		const at = (t: number) => {
-			for (let i = 0; i < n; i++) trial[i] = v[i]! + t * step[i]!;
-			return coContent(net, trial, lambda, floorV);
-		};
-		// Backtrack to sufficient decrease, then keep halving while that still lowers the co-content.
+		const stepSize = maxAbs(step);
 		let t = 1;
-		let e = at(t);
-		while (!(e <= e0 + 1e-4 * t * slope) && t > 1e-14) {
-			t /= 2;
-			e = at(t);
-		}
-		if (t <= 1e-14) return { ok: false, v, iterations: iter, residualA: residual };
-		for (let k = 0; k < 60; k++) {
-			const eHalf = at(t / 2);
-			if (!(eHalf < e)) break;
-			t /= 2;
-			e = eHalf;
+		// Close to the solution Newton converges quadratically; the co-content's differences are then
+		// below its rounding, so a line search would only stall. Far from it, search the line.
+		if (stepSize > LOCAL_STEP_V) {
+			const e0 = coContent(net, v, lambda, floorV);
+			const at = (x: number) => {
+				for (let i = 0; i < n; i++) trial[i] = v[i]! + x * step[i]!;
+				return coContent(net, trial, lambda, floorV);
+			};
+			// Backtrack to sufficient decrease, then keep halving while that still lowers the co-content.
+			let e = at(t);
+			while (!(e <= e0 + 1e-4 * t * slope) && t > 1e-14) {
+				t /= 2;
+				e = at(t);
+			}
+			if (t <= 1e-14) return { ok: false, v, iterations: iter, residualA: residual };
+			for (let k = 0; k < 60; k++) {
+				const eHalf = at(t / 2);
+				if (!(eHalf < e)) break;
+				t /= 2;
+				e = eHalf;
+			}
+		} else if (lambda > 0) {
+			for (let i = 0; i < n; i++) trial[i] = v[i]! + step[i]!;
+			if (coContent(net, trial, lambda, floorV) === Number.POSITIVE_INFINITY) return { ok: false, v, iterations: iter, residualA: residual };
 		}
 		const next = new Float64Array(n);
 		for (let i = 0; i < n; i++) next[i] = v[i]! + t * step[i]!;
-		const moved = maxAbs(step) * t;
 		v = next;
-		if (moved < STEP_TOL_V) {
-			assemble(net, v, lambda, work);
-			const r = maxAbs(work.f);
-			return { ok: r < RESIDUAL_TOL_A * 1e3 && isPositiveDefinite(work.j, n), v, iterations: iter, residualA: r };
-		}
 	}
 	return { ok: false, v, iterations: MAX_ITERATIONS, residualA: Number.NaN };
 }

@@ -15,7 +15,7 @@ export async function callEndpoint(
 	// declared parameter type only names component factories.
 	return container.renderToResponse(module as never, {
 		routeType: 'endpoint',
-		locals: init.locals,
+		locals: init.locals as App.Locals,
 		params: init.params,
 		request: init.request,
 	});

@@ -1,0 +1,74 @@
+import { describe, expect, it } from 'vitest';
+import { amplifierCurrentA, amplifierInputPowerW, availableOutputW, outputLossDb, powerRatioDb, unregulatedOutputW, voltageRatioDb } from '../../src/engine/amplifier';
+
+// CEA-2006 rates mobile amplifiers at 14.4 V. Worked example (computed from I = P/(V·η) and P ∝ V²):
+// 2000 W rated at 14.4 V, η = 0.80, unregulated, driven to clipping.
+const amp = { ratedPowerW: 2000, ratedVoltageV: 14.4, efficiency: 0.8, quantity: 1, regulated: false };
+
+describe('unregulatedOutputW and supply current', () => {
+	it.each([
+		[12.0, 1388.9, 144.68],
+		[12.6, 1531.2, 151.91],
+		[13.8, 1836.8, 166.38],
+		[14.4, 2000.0, 173.61],
+		[16.0, 2469.1, 192.9],
+	])('at %f V gives %f W out and draws %f A', (v, outW, inA) => {
+		const out = unregulatedOutputW(2000, 14.4, v);
+		expect(out).toBeCloseTo(outW, 1);
+		// the output fraction is the demand level: d = P_out/P_rated
+		expect(amplifierCurrentA(amp, out / 2000, v)).toBeCloseTo(inA, 2);
+	});
+
+	it('draws 2500 W / V at every voltage when regulated (constant-power input)', () => {
+		for (const [v, a] of [
+			[12.0, 208.33],
+			[12.6, 198.41],
+			[13.8, 181.16],
+			[14.4, 173.61],
+			[16.0, 156.25],
+		] as const) {
+			expect(amplifierCurrentA(amp, 1, v)).toBeCloseTo(a, 2);
+		}
+	});
+
+	it('multiplies input power by quantity and divides by efficiency', () => {
+		expect(amplifierInputPowerW({ ...amp, quantity: 3 }, 1 / 8)).toBeCloseTo((3 * 2000) / 8 / 0.8, 9);
+	});
+});
+
+describe('level changes', () => {
+	// ΔL = 20·log10(V2/V1) at fixed load, referred to the CEA-2006 14.4 V point.
+	it.each([
+		[12.0, -1.584],
+		[12.6, -1.16],
+		[13.8, -0.37],
+		[16.0, 0.915],
+	])('is %f V → %f dB against 14.4 V', (v, db) => {
+		expect(voltageRatioDb(v, 14.4)).toBeCloseTo(db, 3);
+	});
+
+	it('gives +3.01 dB per power doubling', () => {
+		expect(powerRatioDb(2, 1)).toBeCloseTo(3.0103, 4);
+	});
+
+	it.each([
+		[12.0, 16.0, 2.499],
+		[12.6, 16.0, 2.075],
+		[12.0, 14.4, 1.584],
+	])('gives %f V → %f V as %f dB', (v1, v2, db) => {
+		expect(voltageRatioDb(v2, v1)).toBeCloseTo(db, 3);
+	});
+});
+
+describe('availableOutputW and outputLossDb', () => {
+	it('follows V² below the rated voltage and holds the rating above it', () => {
+		expect(availableOutputW(amp, 12)).toBeCloseTo(1388.9, 1);
+		expect(availableOutputW(amp, 16)).toBe(2000);
+		expect(outputLossDb(amp, 12)).toBeCloseTo(-1.584, 3);
+		expect(outputLossDb(amp, 16)).toBe(0);
+	});
+
+	it('loses nothing on a regulated supply', () => {
+		expect(outputLossDb({ ...amp, regulated: true }, 11)).toBe(0);
+	});
+});

@@ -1,0 +1,251 @@
+import fc from 'fast-check';
+import { describe, expect, it } from 'vitest';
+import { cableAreaMm2 } from '../../src/engine/conductors';
+import { solveNetwork } from '../../src/engine/solve';
+import type { BuildDocument } from '../../src/engine/types';
+import { alternator, amp, bank, cable, doc, node, randomNetwork, steady } from '../helpers/networks';
+
+const FT = 0.3048;
+const AT = { engineRpm: 1000, demand: 1, conductorTempC: 20 };
+
+/** One loop: a stiff source, 17 ft of 1/0 copper out and 3 ft back (worked examples WE1, WE3). */
+function loop(load: { amp?: number; steadyA?: number }, over: Partial<Parameters<typeof cable>[4]> = {}): BuildDocument {
+	return doc({
+		nodes: [node('gnd', 'chassis'), node('src'), node('lp'), node('ln')],
+		alternators: [alternator('alt', 'src', 'gnd', 5000, { setPointV: 12, sourceResistanceOhm: 1e-6 })],
+		amplifiers: load.amp ? [amp('a', 'lp', 'ln', load.amp)] : [],
+		loads: load.steadyA ? [steady('l', 'lp', 'ln', load.steadyA)] : [],
+		cables: [
+			cable('pos', 'src', 'lp', { kind: 'awg', awg: '1/0' }, 17 * FT, over),
+			cable('neg', 'ln', 'gnd', { kind: 'awg', awg: '1/0' }, 3 * FT, over),
+		],
+	});
+}
+
+const loopDrop = (s: ReturnType<typeof solveNetwork>) => s.cables.reduce((sum, c) => sum + c.dropV, 0);
+const loopLoss = (s: ReturnType<typeof solveNetwork>) => s.cables.reduce((sum, c) => sum + c.lossW, 0);
+
+describe('solveNetwork: loop drop and loss (Ohm’s law, worked example WE1)', () => {
+	// 1/0 AWG, 20 ft loop, 150 A. R from 0.09825 Ω/kft at 20 °C; V = I·R, P = I²·R.
+	it.each([
+		['copper', 20, 0.2947, 44.21],
+		['copper', 60, 0.3411, 51.16],
+		['cca10', 20, 0.4686, 70.29],
+		['cca15', 20, 0.4577, 0],
+		['aluminium', 20, 0.4832, 0],
+	] as const)('drops the WE1 figure for %s at %d °C', (material, tempC, dropV, lossW) => {
+		const s = solveNetwork(loop({ steadyA: 150 }, { material }), { ...AT, conductorTempC: tempC });
+		expect(loopDrop(s)).toBeCloseTo(dropV, 4);
+		if (lossW) expect(loopLoss(s)).toBeCloseTo(lossW, 2);
+		expect(s.cables[0]!.currentA).toBeCloseTo(150, 6); // less the 1 nS leak to chassis
+	});
+});
+
+describe('solveNetwork: constant-power load through a loop (closed form)', () => {
+	// V_load = [V_s + √(V_s² − 4·R·P)]/2: the high root of P = V·(V_s − V)/R.
+	// WE3 table: P = 2500 W, R = 1.965 mΩ.
+	it.each([
+		[12.0, 11.5756, 215.971],
+		[12.6, 12.1972, 204.964],
+		[13.8, 13.4343, 186.09],
+		[14.4, 14.0504, 177.931],
+		[16.0, 15.6868, 159.369],
+	])('at %f V source puts the amplifier at %f V drawing %f A', (vs, vAmp, amps) => {
+		const d = loop({ amp: 2500 });
+		d.alternators[0]!.setPointV = vs;
+		const s = solveNetwork(d, AT);
+		expect(s.status).toBe('ok');
+		const a = s.amplifiers[0]!;
+		// The stiff source (1 µΩ) costs ~0.2 mV, inside the table's last digit tolerance.
+		expect(a.terminalV).toBeCloseTo(vAmp, 3);
+		expect(a.currentA).toBeCloseTo(amps, 1);
+		// Exactly the closed form once the source resistance is in the loop:
+		const r = s.cables.reduce((sum, c) => sum + c.resistanceOhm, 0) + 1e-6;
+		expect(a.terminalV).toBeCloseTo((vs + Math.sqrt(vs * vs - 4 * r * 2500)) / 2, 8);
+	});
+});
+
+describe('solveNetwork: bus voltage with an alternator in current limit (worked example WE4)', () => {
+	// V = [(V_oc + R·I_alt) + √((V_oc + R·I_alt)² − 4·R·P)]/2
+	const bus = (banks: ReturnType<typeof bank>[], altA: number, watts: number) =>
+		doc({
+			nodes: [node('gnd', 'chassis'), node('bus', 'block')],
+			banks,
+			alternators: altA > 0 ? [alternator('alt', 'bus', 'gnd', altA, { setPointV: 14.4 })] : [],
+			amplifiers: [amp('a', 'bus', 'gnd', watts)],
+		});
+
+	it('settles at 12.2228 V with 12.7 V / 5 mΩ, 150 A and 3000 W', () => {
+		const s = solveNetwork(bus([bank('b', 'bus', 'gnd')], 150, 3000), AT);
+		expect(s.nodeVoltages.bus).toBeCloseTo(12.2228, 4);
+		expect(s.amplifiers[0]!.currentA).toBeCloseTo(245.44, 2);
+		expect(s.banks[0]!.currentA).toBeCloseTo(95.44, 2);
+		expect(s.alternators[0]!.mode).toBe('current');
+	});
+
+	it('settles at 12.4737 V with two such batteries in parallel', () => {
+		const s = solveNetwork(bus([bank('b1', 'bus', 'gnd'), bank('b2', 'bus', 'gnd')], 150, 3000), AT);
+		expect(s.nodeVoltages.bus).toBeCloseTo(12.4737, 4);
+		expect(s.amplifiers[0]!.currentA).toBeCloseTo(240.51, 2);
+	});
+
+	it('settles at 11.3821 V with the engine off', () => {
+		const s = solveNetwork(bus([bank('b', 'bus', 'gnd')], 0, 3000), AT);
+		expect(s.nodeVoltages.bus).toBeCloseTo(11.3821, 4);
+		expect(s.amplifiers[0]!.currentA).toBeCloseTo(263.57, 2);
+	});
+
+	it('settles at 12.9264 V on a 13.2 V / 2 mΩ LiFePO4 bank with 250 A and 5000 W', () => {
+		const lfp = bank('b', 'bus', 'gnd', { chemistry: 'lfp', cellsPerUnit: 4, unitResistanceOhm: 0.002, stateOfCharge: 0.6 });
+		const s = solveNetwork(bus([lfp], 250, 5000), AT);
+		expect(s.nodeVoltages.bus).toBeCloseTo(12.9264, 4);
+		expect(s.amplifiers[0]!.currentA).toBeCloseTo(386.81, 2);
+		expect(s.banks[0]!.currentA).toBeCloseTo(136.81, 2);
+	});
+
+	it('reports voltage collapse beyond P_max = (V_oc + R·I_alt)²/(4R) = 9045 W instead of a number', () => {
+		const s = solveNetwork(bus([bank('b', 'bus', 'gnd')], 150, 12000), AT);
+		expect(s.status).toBe('collapse');
+		const pMax = (12.7 + 0.005 * 150) ** 2 / (4 * 0.005); // 9045.125 W
+		expect(s.solvedDemandFraction * 12000).toBeGreaterThan(pMax * 0.999);
+		expect(s.solvedDemandFraction * 12000).toBeLessThanOrEqual(pMax);
+	});
+
+	it('holds the set point in voltage mode while the load is below the alternator limit', () => {
+		const s = solveNetwork(bus([bank('b', 'bus', 'gnd', { stateOfCharge: 1 })], 300, 1000), AT);
+		expect(s.alternators[0]!.mode).toBe('voltage');
+		expect(s.nodeVoltages.bus).toBeGreaterThan(14.4 - 0.01);
+		expect(s.nodeVoltages.bus).toBeLessThan(14.4);
+	});
+
+	it('never shows a charging current above the bank’s acceptance while at the absorption voltage', () => {
+		const empty = bank('b', 'bus', 'gnd', { stateOfCharge: 0.2 });
+		const s = solveNetwork(bus([empty], 500, 100), AT);
+		expect(s.banks[0]!.charging).toBe(true);
+		expect(-s.banks[0]!.currentA).toBeLessThanOrEqual(s.banks[0]!.chargeAcceptanceA * (1 + 1e-9));
+	});
+});
+
+describe('solveNetwork: unequal batteries in parallel (Millman, worked example WE5)', () => {
+	it('settles at 12.6231 V with 15.38 A circulating', () => {
+		// 12.7 V / 5 mΩ with 12.5 V / 8 mΩ. A generous charge acceptance keeps the weaker battery
+		// on its plain internal resistance, as in the linear textbook case.
+		const weak = bank('b2', 'bus', 'gnd', { stateOfCharge: 0.5 + 0.25 * 0.5, unitResistanceOhm: 0.008, maxChargeC: 10 }); // AGM: 12.5 V
+		const s = solveNetwork(doc({ nodes: [node('gnd', 'chassis'), node('bus')], banks: [bank('b1', 'bus', 'gnd', { maxChargeC: 10 }), weak] }), AT);
+		expect(s.banks[1]!.ocvV).toBeCloseTo(12.5, 9);
+		expect(s.nodeVoltages.bus).toBeCloseTo(12.6231, 4);
+		expect(s.banks[0]!.currentA).toBeCloseTo(15.38, 2);
+		expect(s.banks[1]!.currentA).toBeCloseTo(-15.38, 2);
+	});
+});
+
+function kirchhoffResidual(d: BuildDocument, s: ReturnType<typeof solveNetwork>): number {
+	const sum = new Map<string, number>(d.nodes.map((n) => [n.id, 0]));
+	const add = (id: string, a: number) => sum.set(id, sum.get(id)! + a);
+	d.cables.forEach((c, i) => {
+		add(c.from, -s.cables[i]!.currentA);
+		add(c.to, s.cables[i]!.currentA);
+	});
+	d.banks.forEach((b, i) => {
+		add(b.positive, s.banks[i]!.currentA);
+		add(b.negative, -s.banks[i]!.currentA);
+	});
+	d.alternators.forEach((a, i) => {
+		add(a.positive, s.alternators[i]!.currentA);
+		add(a.negative, -s.alternators[i]!.currentA);
+	});
+	d.amplifiers.forEach((a, i) => {
+		add(a.positive, -s.amplifiers[i]!.currentA);
+		add(a.negative, s.amplifiers[i]!.currentA);
+	});
+	d.loads.forEach((l, i) => {
+		add(l.positive, -s.loads[i]!.currentA);
+		add(l.negative, s.loads[i]!.currentA);
+	});
+	const chassis = d.nodes.find((n) => n.kind === 'chassis')!.id;
+	let worst = 0;
+	for (const [id, a] of sum) if (id !== chassis) worst = Math.max(worst, Math.abs(a));
+	return worst;
+}
+
+const seeds = fc.integer({ min: 1, max: 2 ** 31 - 1 });
+
+describe('solveNetwork: laws on generated networks (fast-check)', () => {
+	it('satisfies Kirchhoff’s current law at every node', () => {
+		fc.assert(
+			fc.property(seeds, fc.constantFrom(1 / 8, 1), (seed, demand) => {
+				const d = randomNetwork(seed);
+				const s = solveNetwork(d, { ...AT, engineRpm: 1500, demand });
+				expect(s.status).toBe('ok');
+				// Solver tolerance 1e-8 A; the 1 nS leak to chassis per node adds ~2e-8 A.
+				expect(kirchhoffResidual(d, s)).toBeLessThan(1e-6);
+			}),
+			{ numRuns: 60 },
+		);
+	});
+
+	it('balances power: sources = loads + cable losses to 1e-6 relative', () => {
+		fc.assert(
+			fc.property(seeds, (seed) => {
+				const s = solveNetwork(randomNetwork(seed), { ...AT, engineRpm: 1500 });
+				const { sourcesW, loadsW, cableLossW } = s.power;
+				expect(Math.abs(sourcesW - loadsW - cableLossW) / sourcesW).toBeLessThan(1e-6);
+			}),
+			{ numRuns: 60 },
+		);
+	});
+
+	it('never lowers a cable’s drop when it gets longer or thinner', () => {
+		fc.assert(
+			fc.property(seeds, fc.nat(), fc.double({ min: 1.01, max: 3, noNaN: true }), fc.boolean(), (seed, pick, factor, thinner) => {
+				const d = randomNetwork(seed);
+				const i = pick % d.cables.length;
+				const before = solveNetwork(d, { ...AT, engineRpm: 1500 });
+				const changed = structuredClone(d);
+				const c = changed.cables[i]!;
+				if (thinner) c.size = { kind: 'measured', areaMm2: cableAreaMm2(c.size) / factor };
+				else c.lengthM *= factor;
+				const after = solveNetwork(changed, { ...AT, engineRpm: 1500 });
+				expect(Math.abs(after.cables[i]!.dropV)).toBeGreaterThanOrEqual(Math.abs(before.cables[i]!.dropV) - 1e-9);
+			}),
+			{ numRuns: 80 },
+		);
+	});
+
+	it('never raises an amplifier’s voltage when its single feed gets longer or thinner', () => {
+		fc.assert(
+			fc.property(fc.double({ min: 0.3, max: 8, noNaN: true }), fc.double({ min: 1.01, max: 3, noNaN: true }), fc.double({ min: 200, max: 4000, noNaN: true }), (lengthM, factor, watts) => {
+				const one = (len: number, area: number) =>
+					doc({
+						nodes: [node('gnd', 'chassis'), node('bp'), node('ap'), node('an')],
+						banks: [bank('b', 'bp', 'gnd')],
+						amplifiers: [amp('a', 'ap', 'an', watts)],
+						cables: [cable('feed', 'bp', 'ap', { kind: 'measured', areaMm2: area }, len), cable('gnd', 'an', 'gnd', { kind: 'measured', areaMm2: area }, 1)],
+					});
+				const base = solveNetwork(one(lengthM, 50), AT).amplifiers[0]!.terminalV;
+				expect(solveNetwork(one(lengthM * factor, 50), AT).amplifiers[0]!.terminalV).toBeLessThanOrEqual(base + 1e-9);
+				expect(solveNetwork(one(lengthM, 50 / factor), AT).amplifiers[0]!.terminalV).toBeLessThanOrEqual(base + 1e-9);
+			}),
+			{ numRuns: 60 },
+		);
+	});
+
+	it('never lowers an amplifier’s voltage when a bank gains a parallel string (engine off, burp)', () => {
+		fc.assert(
+			fc.property(seeds, fc.nat(), (seed, pick) => {
+				const d = randomNetwork(seed, { banksOnly: true });
+				const before = solveNetwork(d, AT);
+				const more = structuredClone(d);
+				more.banks[pick % more.banks.length]!.stringsInParallel += 1;
+				const after = solveNetwork(more, AT);
+				before.amplifiers.forEach((a, i) => expect(after.amplifiers[i]!.terminalV).toBeGreaterThanOrEqual(a.terminalV - 1e-9));
+			}),
+			{ numRuns: 60 },
+		);
+	});
+
+	it('is deterministic: the same document gives the same numbers', () => {
+		const d = randomNetwork(424242);
+		expect(solveNetwork(d, AT)).toEqual(solveNetwork(structuredClone(d), AT));
+	});
+});

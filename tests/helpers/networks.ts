@@ -1,0 +1,166 @@
+/** Small builders for test networks, and a seeded generator of random vehicle-like networks. */
+import type { Alternator, Amplifier, BatteryBank, BuildDocument, BuildNode, Cable, CableSize, SteadyLoad } from '../../src/engine/types';
+import { AWG_SIZES, MATERIALS } from '../../src/engine/types';
+
+export const node = (id: string, kind: BuildNode['kind'] = 'junction'): BuildNode => ({ id, label: id, kind });
+
+export function bank(id: string, positive: string, negative: string, over: Partial<BatteryBank> = {}): BatteryBank {
+	return {
+		id,
+		label: id,
+		positive,
+		negative,
+		chemistry: 'agm',
+		cellsPerUnit: 6,
+		unitsInSeries: 1,
+		stringsInParallel: 1,
+		unitCapacityAh: 100,
+		ratedHours: 20,
+		unitResistanceOhm: 0.005,
+		stateOfCharge: 0.875, // AGM table: 12.7 V rested
+		peukertK: null,
+		absorptionV: null,
+		floatV: null,
+		maxChargeC: null,
+		location: 'trunk',
+		secured: true,
+		vented: false,
+		...over,
+	};
+}
+
+/** An alternator with a flat output limit (A) at any speed. */
+export function alternator(id: string, positive: string, negative: string, limitA: number, over: Partial<Alternator> = {}): Alternator {
+	return {
+		id,
+		label: id,
+		positive,
+		negative,
+		ratedHotA: limitA,
+		curve: [{ rpm: 0, currentA: limitA }],
+		curveIsCold: false,
+		hotFactor: 1,
+		pulleyRatio: 1,
+		setPointV: 14.4,
+		sourceResistanceOhm: 1e-4,
+		...over,
+	};
+}
+
+/** A constant-power load of `inputW` at demand 1 (efficiency 1, so input = rated). */
+export function amp(id: string, positive: string, negative: string, inputW: number, over: Partial<Amplifier> = {}): Amplifier {
+	return { id, label: id, positive, negative, ratedPowerW: inputW, ratedVoltageV: 14.4, efficiency: 1, quantity: 1, regulated: false, ...over };
+}
+
+export const steady = (id: string, positive: string, negative: string, currentA: number): SteadyLoad => ({ id, label: id, positive, negative, currentA });
+
+export function cable(id: string, from: string, to: string, size: CableSize, lengthM: number, over: Partial<Cable> = {}): Cable {
+	return { id, label: id, from, to, size, material: 'copper', lengthM, parallelRuns: 1, fuses: [], insulationC: 105, ...over };
+}
+
+export function doc(parts: Partial<BuildDocument> & { nodes: BuildNode[] }): BuildDocument {
+	return { schemaVersion: 1, alternators: [], banks: [], amplifiers: [], loads: [], cables: [], ...parts };
+}
+
+/** mulberry32: a tiny deterministic PRNG so generated networks are reproducible by seed. */
+export function rng(seed: number) {
+	let a = seed >>> 0;
+	const next = () => {
+		a = (a + 0x6d2b79f5) >>> 0;
+		let t = a;
+		t = Math.imul(t ^ (t >>> 15), t | 1);
+		t ^= t + Math.imul(t ^ (t >>> 7), t | 61);
+		return ((t ^ (t >>> 14)) >>> 0) / 4294967296;
+	};
+	return {
+		next,
+		between: (lo: number, hi: number) => lo + (hi - lo) * next(),
+		int: (lo: number, hi: number) => Math.floor(lo + (hi - lo + 1) * next()),
+		pick: <T,>(xs: readonly T[]): T => xs[Math.floor(next() * xs.length)]!,
+	};
+}
+
+export interface RandomNetworkOptions {
+	/** Engine off and identical banks: every bank discharges. */
+	banksOnly?: boolean;
+	maxAmps?: number;
+}
+
+/**
+ * A vehicle-like random network: an alternator and a front bank at the engine bay, a chain of
+ * distribution blocks toward the rear with more banks on the way, amplifiers hanging off the
+ * blocks, every negative returned to the chassis by its own ground cable, sometimes a ground
+ * run back to a block ground and a cross-link making a mesh. Loads stay well inside what the
+ * sources deliver so a stable operating point exists.
+ */
+export function randomNetwork(seed: number, opts: RandomNetworkOptions = {}): BuildDocument {
+	const r = rng(seed);
+	const nodes: BuildNode[] = [node('chassis', 'chassis')];
+	const banks: BatteryBank[] = [];
+	const alternators: Alternator[] = [];
+	const amplifiers: Amplifier[] = [];
+	const loads: SteadyLoad[] = [];
+	const cables: Cable[] = [];
+	const size = (): CableSize => (r.next() < 0.8 ? { kind: 'awg', awg: r.pick(AWG_SIZES.slice(2)) } : { kind: 'mm2', mm2: r.pick([16, 25, 35, 50, 70, 95]) });
+	const material = () => (r.next() < 0.7 ? 'copper' : r.pick(MATERIALS));
+	let k = 0;
+	const addCable = (from: string, to: string, lo = 0.3, hi = 6) =>
+		cables.push(cable(`c${++k}`, from, to, size(), r.between(lo, hi), { material: material(), parallelRuns: r.next() < 0.2 ? 2 : 1 }));
+	const soc = opts.banksOnly ? 0.8 : undefined;
+	const chemistry = opts.banksOnly ? 'agm' : r.pick(['agm', 'flooded', 'lfp'] as const);
+	const bankOver = (): Partial<BatteryBank> => ({
+		chemistry,
+		cellsPerUnit: chemistry === 'lfp' ? 4 : 6,
+		stateOfCharge: soc ?? r.between(0.4, 0.95),
+		unitResistanceOhm: r.between(0.002, 0.008),
+		stringsInParallel: r.int(1, 3),
+	});
+
+	nodes.push(node('front_pos', 'battery'), node('front_neg', 'battery'));
+	banks.push(bank('front', 'front_pos', 'front_neg', bankOver()));
+	addCable('front_neg', 'chassis', 0.3, 1);
+	if (!opts.banksOnly) {
+		nodes.push(node('alt_pos', 'alternator'), node('engine'));
+		alternators.push(alternator('alt', 'alt_pos', 'engine', r.between(80, 350), { setPointV: r.between(13.8, 14.6), sourceResistanceOhm: r.between(5e-5, 5e-4) }));
+		addCable('alt_pos', 'front_pos', 0.5, 1.5);
+		addCable('engine', 'chassis', 0.3, 1);
+		if (r.next() < 0.5) loads.push(steady('vehicle', 'front_pos', 'chassis', r.between(10, 40)));
+	}
+	const blocks = r.int(1, 4);
+	let prev = 'front_pos';
+	let totalW = 0;
+	let ampCount = 0;
+	for (let b = 1; b <= blocks; b++) {
+		const blk = `blk${b}`;
+		nodes.push(node(blk, 'block'));
+		addCable(prev, blk, 1, 6);
+		if (r.next() < 0.5) {
+			nodes.push(node(`b${b}_pos`, 'battery'), node(`b${b}_neg`, 'battery'));
+			banks.push(bank(`bank${b}`, `b${b}_pos`, `b${b}_neg`, bankOver()));
+			addCable(`b${b}_pos`, blk, 0.3, 1.5);
+			addCable(`b${b}_neg`, 'chassis', 0.3, 1.5);
+		}
+		const amps = r.int(0, 2);
+		for (let a = 0; a < amps && ampCount < (opts.maxAmps ?? 8); a++) {
+			ampCount++;
+			const id = `amp${ampCount}`;
+			nodes.push(node(`${id}_pos`, 'amplifier'), node(`${id}_neg`, 'amplifier'));
+			const w = r.between(100, 1500);
+			totalW += w;
+			amplifiers.push(amp(id, `${id}_pos`, `${id}_neg`, w, { efficiency: r.between(0.6, 0.95), ratedPowerW: w }));
+			addCable(blk, `${id}_pos`, 0.3, 2);
+			addCable(`${id}_neg`, 'chassis', 0.3, 2);
+		}
+		prev = blk;
+	}
+	if (blocks >= 3 && r.next() < 0.5) addCable('front_pos', `blk${blocks}`, 3, 6); // a second run: the network becomes a mesh
+	if (amplifiers.length === 0) {
+		nodes.push(node('amp1_pos', 'amplifier'), node('amp1_neg', 'amplifier'));
+		amplifiers.push(amp('amp1', 'amp1_pos', 'amp1_neg', 400));
+		addCable(prev, 'amp1_pos', 0.3, 2);
+		addCable('amp1_neg', 'chassis', 0.3, 2);
+		totalW += 400;
+	}
+	void totalW;
+	return { schemaVersion: 1, nodes, banks, alternators, amplifiers, loads, cables };
+}
