@@ -301,6 +301,47 @@ export interface RawSolution {
 }
 
 /**
+ * A starting point on the loaded side: every bank discharging through its internal resistance,
+ * every alternator at its current limit, and each amplifier replaced by the conductance it would
+ * have at the lowest bank voltage. When an alternator saturates while a bank is charging, the
+ * stable operating point can jump to this side, out of reach of a path that starts unloaded.
+ */
+function dischargeGuess(net: CompiledNetwork, lambda: number): Float64Array | null {
+	const n = net.nodeIds.length;
+	const j = new Float64Array(n * n);
+	const b = new Float64Array(n);
+	for (let i = 0; i < n; i++) j[i * n + i] = GMIN_S;
+	const stampG = (p: number, q: number, g: number) => {
+		if (p >= 0) j[p * n + p] += g;
+		if (q >= 0) j[q * n + q] += g;
+		if (p >= 0 && q >= 0) {
+			j[p * n + q] -= g;
+			j[q * n + p] -= g;
+		}
+	};
+	const inject = (p: number, q: number, amps: number) => {
+		if (p >= 0) b[p] += amps;
+		if (q >= 0) b[q] -= amps;
+	};
+	for (const c of net.cables) stampG(c.p, c.n, c.g);
+	for (const bank of net.banks) {
+		stampG(bank.p, bank.n, 1 / bank.resistanceOhm);
+		inject(bank.p, bank.n, bank.ocvV / bank.resistanceOhm);
+	}
+	for (const a of net.alternators) inject(a.p, a.n, a.limitA);
+	const vRef = Math.min(net.nominalV, ...net.banks.map((x) => x.ocvV));
+	for (const a of net.amplifiers) stampG(a.p, a.n, (lambda * a.powerW) / (vRef * vRef));
+	for (const l of net.loads) inject(l.p, l.n, -l.currentA);
+	return solveDense(j, b, n) ? b : null;
+}
+
+function minAmplifierVoltage(net: CompiledNetwork, v: Float64Array): number {
+	let m = Number.POSITIVE_INFINITY;
+	for (const a of net.amplifiers) m = Math.min(m, volt(v, a.p) - volt(v, a.n));
+	return m;
+}
+
+/**
  * Solves the compiled network by nodal analysis with Newton iteration. Starts from `start` when
  * given (warm start), otherwise from the unloaded network. When the full demand has no stable
  * operating point the demand is ramped from zero (continuation) to find the largest fraction that
@@ -310,30 +351,41 @@ export function solveCompiled(net: CompiledNetwork, start?: Float64Array): RawSo
 	const n = net.nodeIds.length;
 	const work: Assembled = { f: new Float64Array(n), j: new Float64Array(n * n), minAmpV: 0 };
 	let iterations = 0;
+	const attempt = (lambda: number, from: Float64Array | null): NewtonResult | null => {
+		if (!from) return null;
+		const r = newton(net, lambda, from, work);
+		iterations += r.iterations;
+		return r.ok ? r : null;
+	};
 	if (start) {
-		const warm = newton(net, 1, start, work);
-		iterations += warm.iterations;
-		if (warm.ok) return { v: warm.v, lambda: 1, collapsed: false, iterations, residualA: warm.residualA };
+		const warm = attempt(1, start);
+		if (warm) return { v: warm.v, lambda: 1, collapsed: false, iterations, residualA: warm.residualA };
 	}
 	const unloaded = newton(net, 0, new Float64Array(n).fill(net.nominalV * 0.5), work);
 	iterations += unloaded.iterations;
 	if (!unloaded.ok) throw new Error('the unloaded network did not solve; check its topology');
-	const direct = newton(net, 1, unloaded.v, work);
-	iterations += direct.iterations;
-	if (direct.ok) return { v: direct.v, lambda: 1, collapsed: false, iterations, residualA: direct.residualA };
+	/** Stable solutions at λ from the given start and from the discharge side; the higher one wins. */
+	const best = (lambda: number, from: Float64Array) => {
+		const a = attempt(lambda, from);
+		const b = attempt(lambda, dischargeGuess(net, lambda));
+		if (a && b) return minAmplifierVoltage(net, b.v) > minAmplifierVoltage(net, a.v) + 1e-6 ? b : a;
+		return a ?? b;
+	};
+	const direct = best(1, unloaded.v);
+	if (direct) return { v: direct.v, lambda: 1, collapsed: false, iterations, residualA: direct.residualA };
 
+	// No stable point at full demand: ramp the demand up from zero to find where it runs out.
 	let lambda = 0;
 	let v = unloaded.v;
 	let residualA = unloaded.residualA;
 	let step = 0.25;
 	while (step > 1e-5 && lambda < 1) {
 		const next = Math.min(1, lambda + step);
-		const attempt = newton(net, next, v, work);
-		iterations += attempt.iterations;
-		if (attempt.ok) {
+		const found = best(next, v);
+		if (found) {
 			lambda = next;
-			v = attempt.v;
-			residualA = attempt.residualA;
+			v = found.v;
+			residualA = found.residualA;
 			step *= 1.5;
 		} else {
 			step /= 2;

@@ -9,7 +9,7 @@ const FT = 0.3048;
 const AT = { engineRpm: 1000, demand: 1, conductorTempC: 20 };
 
 /** One loop: a stiff source, 17 ft of 1/0 copper out and 3 ft back (worked examples WE1, WE3). */
-function loop(load: { amp?: number; steadyA?: number }, over: Partial<Parameters<typeof cable>[4]> = {}): BuildDocument {
+function loop(load: { amp?: number; steadyA?: number }, over: Parameters<typeof cable>[5] = {}): BuildDocument {
 	return doc({
 		nodes: [node('gnd', 'chassis'), node('src'), node('lp'), node('ln')],
 		alternators: [alternator('alt', 'src', 'gnd', 5000, { setPointV: 12, sourceResistanceOhm: 1e-6 })],

@@ -161,6 +161,14 @@ export function randomNetwork(seed: number, opts: RandomNetworkOptions = {}): Bu
 		addCable('amp1_neg', 'chassis', 0.3, 2);
 		totalW += 400;
 	}
+	// Keep the demand well inside what the sources can give (about 2 kW per bank string and the
+	// alternator's output at 13 V), so that a stable operating point exists.
+	const capacityW = banks.reduce((s, b) => s + 2000 * b.stringsInParallel, 0) + alternators.reduce((s, a) => s + 13 * a.ratedHotA, 0);
+	const inputW = amplifiers.reduce((s, a) => s + a.ratedPowerW / a.efficiency, 0);
+	if (inputW > 0.6 * capacityW) {
+		const k = (0.6 * capacityW) / inputW;
+		for (const a of amplifiers) a.ratedPowerW *= k;
+	}
 	void totalW;
 	return { schemaVersion: 1, nodes, banks, alternators, amplifiers, loads, cables };
 }
