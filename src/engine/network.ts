@@ -364,10 +364,21 @@ export function solveCompiled(net: CompiledNetwork, start?: Float64Array): RawSo
 	const unloaded = newton(net, 0, new Float64Array(n).fill(net.nominalV * 0.5), work);
 	iterations += unloaded.iterations;
 	if (!unloaded.ok) throw new Error('the unloaded network did not solve; check its topology');
+	// The same network with every bank on its discharge resistance both ways has no soft charging
+	// side, so its stable point moves smoothly with demand; where banks end up discharging it is
+	// also the real network's solution, and a good start for it in any case.
+	const stiffBanks: CompiledNetwork = { ...net, banks: net.banks.map((b) => ({ ...b, chargeResistanceOhm: b.resistanceOhm })) };
+	const fromStiff = (lambda: number) => {
+		const guess = dischargeGuess(net, lambda);
+		if (!guess) return null;
+		const r = newton(stiffBanks, lambda, guess, work);
+		iterations += r.iterations;
+		return r.ok ? r.v : null;
+	};
 	/** Stable solutions at λ from the given start and from the discharge side; the higher one wins. */
 	const best = (lambda: number, from: Float64Array) => {
 		const a = attempt(lambda, from);
-		const b = attempt(lambda, dischargeGuess(net, lambda));
+		const b = attempt(lambda, dischargeGuess(net, lambda)) ?? attempt(lambda, fromStiff(lambda));
 		if (a && b) return minAmplifierVoltage(net, b.v) > minAmplifierVoltage(net, a.v) + 1e-6 ? b : a;
 		return a ?? b;
 	};

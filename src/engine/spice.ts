@@ -1,4 +1,5 @@
 import { compileNetwork, type CompiledNetwork, type SolveConditions } from './network';
+import { solveNetwork } from './solve';
 import type { BuildDocument } from './types';
 
 export interface SpiceExport {
@@ -21,8 +22,9 @@ const num = (x: number) => x.toPrecision(15);
 export function toSpiceNetlist(
 	doc: BuildDocument,
 	conditions: SolveConditions,
-	opts: { title?: string; nodeset?: Record<string, number>; control?: boolean } = {},
+	opts: { title?: string; nodeset?: Record<string, number> | 'unloaded'; control?: boolean } = {},
 ): SpiceExport {
+	const nodeset = opts.nodeset === 'unloaded' ? spiceNodesetHint(doc, conditions) : opts.nodeset;
 	const net: CompiledNetwork = compileNetwork(doc, conditions);
 	const nodeNames: Record<string, string> = {};
 	for (const [id, i] of net.index) nodeNames[id] = i < 0 ? '0' : `n${i + 1}`;
@@ -52,8 +54,8 @@ export function toSpiceNetlist(
 	net.loads.forEach((l, i) => lines.push(`iload${i + 1} ${name(l.p)} ${name(l.n)} DC ${num(l.currentA)}`));
 	// The engine's gmin, so both solve the same equations.
 	net.nodeIds.forEach((_, i) => lines.push(`rgmin${i + 1} ${name(i)} 0 1e9`));
-	if (opts.nodeset && Object.keys(opts.nodeset).length > 0) {
-		lines.push(`.nodeset ${Object.entries(opts.nodeset).filter(([id]) => nodeNames[id] !== '0').map(([id, x]) => `v(${nodeNames[id]})=${num(x)}`).join(' ')}`);
+	if (nodeset && Object.keys(nodeset).length > 0) {
+		lines.push(`.nodeset ${Object.entries(nodeset).filter(([id]) => nodeNames[id] !== '0').map(([id, x]) => `v(${nodeNames[id]})=${num(x)}`).join(' ')}`);
 	}
 	lines.push('.options reltol=1e-9 vntol=1e-12 abstol=1e-9 gmin=1e-15 itl1=500');
 	if (opts.control !== false) {
@@ -65,4 +67,12 @@ export function toSpiceNetlist(
 	}
 	lines.push('.end', '');
 	return { netlist: lines.join('\n'), nodeNames, cableDevices };
+}
+
+/**
+ * A starting point for SPICE near the high-voltage solution: the node voltages of the same network
+ * with no amplifier demand (positive side near the source voltages, ground side near 0 V).
+ */
+export function spiceNodesetHint(doc: BuildDocument, conditions: SolveConditions): Record<string, number> {
+	return solveNetwork(doc, { ...conditions, demand: 0 }).nodeVoltages;
 }

@@ -175,8 +175,9 @@ describe('solveNetwork: laws on generated networks (fast-check)', () => {
 		fc.assert(
 			fc.property(seeds, fc.constantFrom(1 / 8, 1), (seed, demand) => {
 				const d = randomNetwork(seed);
+				// At a collapse the solution returned is the last stable one (at the solved fraction):
+				// the law holds there too.
 				const s = solveNetwork(d, { ...AT, engineRpm: 1500, demand });
-				expect(s.status).toBe('ok');
 				// Solver tolerance 1e-8 A; the 1 nS leak to chassis per node adds ~2e-8 A.
 				expect(kirchhoffResidual(d, s)).toBeLessThan(1e-6);
 			}),

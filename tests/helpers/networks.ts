@@ -148,8 +148,10 @@ export function randomNetwork(seed: number, opts: RandomNetworkOptions = {}): Bu
 			const w = r.between(100, 1500);
 			totalW += w;
 			amplifiers.push(amp(id, `${id}_pos`, `${id}_neg`, w, { efficiency: r.between(0.6, 0.95), ratedPowerW: w }));
-			addCable(blk, `${id}_pos`, 0.3, 2);
-			addCable(`${id}_neg`, 'chassis', 0.3, 2);
+			// Feeds sized roughly to the amplifier, as a builder would: no 8 AWG on a 1.5 kW amplifier.
+			const feed: CableSize = { kind: 'awg', awg: w > 800 ? r.pick(['4', '2', '1/0'] as const) : r.pick(['8', '6', '4'] as const) };
+			cables.push(cable(`c${++k}`, blk, `${id}_pos`, feed, r.between(0.3, 2)));
+			cables.push(cable(`c${++k}`, `${id}_neg`, 'chassis', feed, r.between(0.3, 2)));
 		}
 		prev = blk;
 	}
