@@ -86,8 +86,8 @@ export interface AmplifierReport {
 	/** Output one unit delivers at its burp terminal voltage (W) and the loss against its rating (dB). */
 	burpOutputW: number;
 	burpOutputLossDb: number;
-	/** Lowest terminal voltage during the time-stepped burp (V). */
-	burpRunMinV: number;
+	/** Lowest terminal voltage during the time-stepped burp (V); null without it. */
+	burpRunMinV: number | null;
 }
 
 export interface BankReport {
@@ -121,7 +121,8 @@ export type BuildReport =
 			sustained: NetworkSolution;
 			burp: NetworkSolution;
 			budget: BudgetRow[];
-			burpRun: BurpRun;
+			/** Null when the report was asked for without the time-stepped burp. */
+			burpRun: BurpRun | null;
 			cables: CableReport[];
 			amplifiers: AmplifierReport[];
 			banks: BankReport[];
@@ -140,7 +141,7 @@ const fmt = (x: number, digits = 2) => x.toFixed(digits);
  * fuse advice, per-amplifier terminal voltages and output, and warnings with code, severity and
  * the element they concern. Deterministic; no I/O.
  */
-export function buildReport(doc: BuildDocument, scenarioIn: Partial<Scenario> = {}): BuildReport {
+export function buildReport(doc: BuildDocument, scenarioIn: Partial<Scenario> = {}, opts: { burpRun?: boolean } = {}): BuildReport {
 	const scenario: Scenario = { ...DEFAULT_SCENARIO, ...scenarioIn };
 	const issues = checkTopology(doc);
 	if (issues.length > 0) return { ok: false, issues };
@@ -149,7 +150,11 @@ export function buildReport(doc: BuildDocument, scenarioIn: Partial<Scenario> = 
 	const sustained = solveNetwork(doc, { ...base, demand: scenario.sustainedDemand });
 	const burp = solveNetwork(doc, { ...base, demand: scenario.burpDemand });
 	const budget = fixedVoltageBudget(doc, { ...scenario });
-	const burpRun = runBurp(doc, { ...base, demand: scenario.burpDemand, durationS: scenario.burpSeconds, stepS: scenario.burpStepS });
+	// The time-stepped burp is the costly part; an editor recomputing on every keystroke may leave it out.
+	const burpRun =
+		opts.burpRun === false
+			? null
+			: runBurp(doc, { ...base, demand: scenario.burpDemand, durationS: scenario.burpSeconds, stepS: scenario.burpStepS });
 	const warnings: ReportWarning[] = [];
 	const warn = (w: ReportWarning) => warnings.push(w);
 
@@ -243,7 +248,7 @@ export function buildReport(doc: BuildDocument, scenarioIn: Partial<Scenario> = 
 			burpCurrentA: b.currentA,
 			burpOutputW: availableOutputW(amp, b.terminalV),
 			burpOutputLossDb: outputLossDb(amp, b.terminalV),
-			burpRunMinV: burpRun.amplifierMinV[amp.id]!,
+			burpRunMinV: burpRun ? burpRun.amplifierMinV[amp.id]! : null,
 		};
 	});
 
