@@ -3,6 +3,7 @@
 import node from '@astrojs/node';
 import react from '@astrojs/react';
 import tailwindcss from '@tailwindcss/vite';
+import auth from 'auth-astro';
 import { defineConfig, envField } from 'astro/config';
 
 const allowedHosts = (process.env.ALLOWED_HOSTS ?? '127.0.0.1,localhost')
@@ -13,7 +14,7 @@ const allowedHosts = (process.env.ALLOWED_HOSTS ?? '127.0.0.1,localhost')
 export default defineConfig({
 	output: 'server',
 	adapter: node({ mode: 'standalone' }),
-	integrations: [react()],
+	integrations: [react(), auth()],
 	server: { host: '127.0.0.1', port: 4321 },
 	// Astro 5 ignores the Host header unless it is listed; without this, request.url loses its port.
 	security: { checkOrigin: true, allowedDomains: allowedHosts },

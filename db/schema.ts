@@ -4,12 +4,14 @@
  */
 import type { ColumnType, Generated, Insertable, Selectable, Updateable } from 'kysely';
 
-type Timestamp = ColumnType<Date, Date | string | undefined, Date | string>;
+type Timestamp = ColumnType<Date, Date | string, Date | string>;
+/** A timestamp the database fills in by default. */
+type DefaultTimestamp = ColumnType<Date, Date | string | undefined, Date | string>;
 
 export interface TeamTable {
 	id: Generated<string>;
 	name: string;
-	created_at: Generated<Timestamp>;
+	created_at: DefaultTimestamp;
 }
 
 export interface VehicleTable {
@@ -20,13 +22,105 @@ export interface VehicleTable {
 	competition_class: Generated<string>;
 	notes: Generated<string>;
 	archived_at: Timestamp | null;
-	created_at: Generated<Timestamp>;
+	created_at: DefaultTimestamp;
+}
+
+export type Role = 'captain' | 'member' | 'viewer';
+
+export interface UserTable {
+	id: string;
+	name: string | null;
+	email: string;
+	emailVerified: Timestamp | null;
+	image: string | null;
+	passwordHash: string | null;
+	unitSystem: Generated<'imperial' | 'metric'>;
+	createdAt: DefaultTimestamp;
+}
+
+export interface AccountTable {
+	id: Generated<string>;
+	userId: string;
+	type: string;
+	provider: string;
+	providerAccountId: string;
+	refresh_token: string | null;
+	access_token: string | null;
+	expires_at: number | null;
+	token_type: string | null;
+	scope: string | null;
+	id_token: string | null;
+	session_state: string | null;
+}
+
+export interface SessionTable {
+	id: Generated<string>;
+	sessionToken: string;
+	userId: string;
+	expires: Timestamp;
+}
+
+export interface VerificationTokenTable {
+	identifier: string;
+	token: string;
+	expires: Timestamp;
+}
+
+export interface MembershipTable {
+	team_id: string;
+	user_id: string;
+	role: Role;
+	created_at: DefaultTimestamp;
+}
+
+export interface InvitationTable {
+	id: Generated<string>;
+	team_id: string;
+	email: string;
+	role: Role;
+	token_hash: string;
+	invited_by: string | null;
+	created_at: DefaultTimestamp;
+	last_sent_at: DefaultTimestamp;
+	expires_at: Timestamp;
+	accepted_at: Timestamp | null;
+	accepted_by: string | null;
+	revoked_at: Timestamp | null;
+}
+
+export interface PasswordResetTable {
+	id: Generated<string>;
+	user_id: string;
+	token_hash: string;
+	created_at: DefaultTimestamp;
+	expires_at: Timestamp;
+	used_at: Timestamp | null;
+}
+
+export interface SignInAttemptTable {
+	id: Generated<number>;
+	email: string;
+	client: string;
+	succeeded: boolean;
+	created_at: DefaultTimestamp;
 }
 
 export interface Database {
 	team: TeamTable;
 	vehicle: VehicleTable;
+	User: UserTable;
+	Account: AccountTable;
+	Session: SessionTable;
+	VerificationToken: VerificationTokenTable;
+	membership: MembershipTable;
+	invitation: InvitationTable;
+	password_reset: PasswordResetTable;
+	sign_in_attempt: SignInAttemptTable;
 }
+
+export type UserRow = Selectable<UserTable>;
+export type MembershipRow = Selectable<MembershipTable>;
+export type InvitationRow = Selectable<InvitationTable>;
 
 export type TeamRow = Selectable<TeamTable>;
 export type NewTeamRow = Insertable<TeamTable>;

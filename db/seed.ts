@@ -2,10 +2,12 @@
  * The demo scenario: an invented team with three vehicles. Every name and number here is made up.
  * CLI: `npm run db:seed` seeds DATABASE_URL (or the embedded cluster) when it holds no team yet.
  */
+import { randomUUID } from 'node:crypto';
 import path from 'node:path';
 import { fileURLToPath } from 'node:url';
 import type { Kysely } from 'kysely';
 import { createDb } from '../src/lib/server/db/client';
+import { hashPassword } from '../src/lib/server/passwords';
 import { DEFAULT_CLUSTER, ensureCluster } from './cluster';
 import { migrateToLatest } from './migrator';
 import type { Database } from './schema';
@@ -33,14 +35,31 @@ export const DEMO_VEHICLES = [
 	},
 ] as const;
 
+/** Demo accounts, one per role. The password is printed by `npm start`; it is for local use only. */
+export const DEMO_PASSWORD = 'sagwise-demo-2026';
+export const DEMO_USERS = [
+	{ email: 'captain@sagwise.test', name: 'Demo Captain', role: 'captain' },
+	{ email: 'member@sagwise.test', name: 'Demo Member', role: 'member' },
+	{ email: 'viewer@sagwise.test', name: 'Demo Viewer', role: 'viewer' },
+] as const;
+
 /** Writes the demo scenario in one transaction. Returns the team id. */
 export async function seedDemo(db: Kysely<Database>): Promise<string> {
+	const passwordHash = await hashPassword(DEMO_PASSWORD);
 	return db.transaction().execute(async (trx) => {
 		const team = await trx.insertInto('team').values({ name: DEMO_TEAM_NAME }).returning('id').executeTakeFirstOrThrow();
 		await trx
 			.insertInto('vehicle')
 			.values(DEMO_VEHICLES.map((v) => ({ ...v, team_id: team.id })))
 			.execute();
+		for (const u of DEMO_USERS) {
+			const user = await trx
+				.insertInto('User')
+				.values({ id: randomUUID(), email: u.email, name: u.name, passwordHash, emailVerified: new Date() })
+				.returning('id')
+				.executeTakeFirstOrThrow();
+			await trx.insertInto('membership').values({ team_id: team.id, user_id: user.id, role: u.role }).execute();
+		}
 		return team.id;
 	});
 }

@@ -3,5 +3,8 @@
 declare namespace App {
 	interface Locals {
 		db: import('kysely').Kysely<import('../db/schema').Database>;
+		user: import('./lib/server/auth').AppUser | null;
+		mailer: import('./lib/server/mail').Mailer;
+		config: import('./lib/server/config').ServerConfig;
 	}
 }

@@ -1,5 +1,6 @@
 import type { Migration } from 'kysely';
 import * as createTeamAndVehicle from './2026_12_01_120000_create_team_and_vehicle';
+import * as createAccounts from './2026_12_01_130000_create_accounts_and_memberships';
 
 /**
  * Every migration, by name, in the order they apply. Listed explicitly (rather than read from the
@@ -8,4 +9,5 @@ import * as createTeamAndVehicle from './2026_12_01_120000_create_team_and_vehic
  */
 export const migrations: Record<string, Migration> = {
 	'2026_12_01_120000_create_team_and_vehicle': createTeamAndVehicle,
+	'2026_12_01_130000_create_accounts_and_memberships': createAccounts,
 };

@@ -7,7 +7,8 @@ import { spawn, spawnSync } from 'node:child_process';
 import { createDb } from '../lib/server/db/client';
 import { DEFAULT_CLUSTER, ensureCluster, stopCluster, ClusterError } from '../../db/cluster';
 import { migrateToLatest } from '../../db/migrator';
-import { seedIfEmpty } from '../../db/seed';
+import { DEMO_PASSWORD, DEMO_USERS, seedIfEmpty } from '../../db/seed';
+import { startSmtpFake } from './smtp-fake';
 import { buildIsStale } from './build-state';
 import { loadOrCreateSecrets } from './secrets';
 
@@ -39,6 +40,17 @@ async function main() {
 		await db.destroy();
 	}
 
+	let smtpUrl = process.env.SMTP_URL;
+	let devOutbox: string | undefined;
+	if (!smtpUrl) {
+		const smtpPort = Number(process.env.SAGWISE_SMTP_PORT ?? 2525);
+		const fake = await startSmtpFake({ port: smtpPort, dir: '.data/outbox' });
+		cleanups.push(() => fake.close());
+		smtpUrl = `smtp://127.0.0.1:${fake.port}`;
+		devOutbox = fake.dir;
+		log(`SMTP fake on 127.0.0.1:${fake.port}: mail lands in ${fake.dir}, shown at ${publicUrl}/dev/outbox`);
+	}
+
 	if (buildIsStale()) {
 		log('building the app (first run or sources changed)…');
 		const build = spawnSync('npx', ['astro', 'build'], { stdio: 'inherit' });
@@ -53,6 +65,8 @@ async function main() {
 		AUTH_SECRET: process.env.AUTH_SECRET ?? secrets.AUTH_SECRET,
 		AUTH_TRUST_HOST: process.env.AUTH_TRUST_HOST ?? 'true',
 		PUBLIC_URL: publicUrl,
+		SMTP_URL: smtpUrl,
+		...(devOutbox ? { SAGWISE_DEV_OUTBOX: devOutbox } : {}),
 	};
 	const server = spawn(process.execPath, ['dist/server/entry.mjs'], { env, stdio: ['ignore', 'inherit', 'inherit'] });
 	cleanups.unshift(
@@ -71,6 +85,7 @@ async function main() {
 	});
 	await waitForHealth(`${publicUrl}/api/health`);
 	log(`ready in ${((performance.now() - t0) / 1000).toFixed(1)} s → ${publicUrl}`);
+	log(`demo sign-in: ${DEMO_USERS.map((u) => `${u.email} (${u.role})`).join(', ')}; password ${DEMO_PASSWORD}`);
 	log('Ctrl-C stops the server and the services it started.');
 }
 

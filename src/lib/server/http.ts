@@ -9,6 +9,13 @@ export type ErrorCode =
 	| 'conflict'
 	| 'rate_limited'
 	| 'database_unavailable'
+	| 'email_taken'
+	| 'invalid_token'
+	| 'token_expired'
+	| 'token_used'
+	| 'email_mismatch'
+	| 'last_captain'
+	| 'confirmation_mismatch'
 	| 'internal';
 
 export interface FieldError {
@@ -22,6 +29,7 @@ const titles: Record<number, string> = {
 	403: 'Forbidden',
 	404: 'Not Found',
 	409: 'Conflict',
+	410: 'Gone',
 	413: 'Content Too Large',
 	415: 'Unsupported Media Type',
 	429: 'Too Many Requests',

@@ -1,0 +1,54 @@
+import { useState } from 'react';
+import { signUpSchema } from '@/lib/schemas/account';
+import { ApiError, postJson } from '@/lib/client/api-client';
+import { signInWithPassword } from '@/lib/client/auth-client';
+import { fieldErrors } from '@/lib/client/form-errors';
+import { Button, Field, FormMessage } from '../ui/Field';
+
+export interface SignUpFormProps {
+	callbackUrl: string;
+	/** Prefilled (and fixed) when signing up from an invitation. */
+	email?: string;
+}
+
+export function SignUpForm({ callbackUrl, email: invitedEmail }: SignUpFormProps) {
+	const [values, setValues] = useState({ name: '', email: invitedEmail ?? '', password: '' });
+	const [errors, setErrors] = useState<Record<string, string>>({});
+	const [message, setMessage] = useState<string | null>(null);
+	const [busy, setBusy] = useState(false);
+	const set = (key: keyof typeof values) => (e: React.ChangeEvent<HTMLInputElement>) => setValues((v) => ({ ...v, [key]: e.target.value }));
+
+	async function submit(event: React.FormEvent) {
+		event.preventDefault();
+		setMessage(null);
+		const parsed = signUpSchema.safeParse(values);
+		if (!parsed.success) return setErrors(fieldErrors(parsed.error));
+		setErrors({});
+		setBusy(true);
+		try {
+			await postJson('/api/account/sign-up', parsed.data);
+			const outcome = await signInWithPassword(parsed.data.email, parsed.data.password, callbackUrl);
+			if (outcome.ok) window.location.href = outcome.url;
+			else setMessage(outcome.message);
+		} catch (error) {
+			if (error instanceof ApiError) {
+				setErrors(error.byField());
+				setMessage(error.message);
+			} else setMessage('Could not reach the server. Check the connection and try again.');
+		} finally {
+			setBusy(false);
+		}
+	}
+
+	return (
+		<form onSubmit={submit} noValidate className="flex flex-col gap-4" aria-label="Create an account">
+			<Field label="Your name" name="name" autoComplete="name" value={values.name} onChange={set('name')} error={errors.name} required />
+			<Field label="E-mail" name="email" type="email" autoComplete="email" value={values.email} onChange={set('email')} readOnly={Boolean(invitedEmail)} error={errors.email} hint={invitedEmail ? 'The address the invitation was sent to' : undefined} required />
+			<Field label="Password" name="password" type="password" autoComplete="new-password" value={values.password} onChange={set('password')} error={errors.password} hint="At least 10 characters" required />
+			{message && <FormMessage tone="error">{message}</FormMessage>}
+			<Button type="submit" busy={busy}>
+				Create the account
+			</Button>
+		</form>
+	);
+}

@@ -1,0 +1,11 @@
+import type { z } from 'zod';
+
+/** zod issues as { field: message }, first message per field. */
+export function fieldErrors(error: z.ZodError): Record<string, string> {
+	const out: Record<string, string> = {};
+	for (const issue of error.issues) {
+		const key = issue.path.map(String).join('.');
+		out[key] ??= issue.message;
+	}
+	return out;
+}

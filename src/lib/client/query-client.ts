@@ -1,0 +1,22 @@
+import { QueryClient } from '@tanstack/react-query';
+import { ApiError } from './api-client';
+
+function makeQueryClient(): QueryClient {
+	return new QueryClient({
+		defaultOptions: {
+			queries: {
+				staleTime: 30_000,
+				// Do not retry answers that will not change: not signed in, forbidden, missing.
+				retry: (count, error) => !(error instanceof ApiError && error.status >= 400 && error.status < 500) && count < 2,
+			},
+		},
+	});
+}
+
+let browserClient: QueryClient | undefined;
+
+/** New client per server render; one shared client in the browser so islands share a cache. */
+export function getQueryClient(): QueryClient {
+	if (typeof window === 'undefined') return makeQueryClient();
+	return (browserClient ??= makeQueryClient());
+}

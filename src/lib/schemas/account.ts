@@ -1,0 +1,34 @@
+import { z } from 'zod';
+
+export const emailSchema = z
+	.string({ error: 'Enter your e-mail address' })
+	.trim()
+	.toLowerCase()
+	.pipe(z.email({ error: 'That does not look like an e-mail address' }).max(254, 'That address is too long'));
+
+export const passwordSchema = z
+	.string({ error: 'Enter a password' })
+	.min(10, 'Use at least 10 characters')
+	.max(200, 'Keep it under 200 characters');
+
+export const signUpSchema = z.object({
+	name: z.string().trim().min(1, 'Tell the team your name').max(80, 'Keep it under 80 characters'),
+	email: emailSchema,
+	password: passwordSchema,
+});
+export type SignUpInput = z.infer<typeof signUpSchema>;
+
+export const signInSchema = z.object({ email: emailSchema, password: z.string().min(1, 'Enter your password').max(200) });
+
+export const passwordResetRequestSchema = z.object({ email: emailSchema });
+export const passwordResetConfirmSchema = z.object({ token: z.string().min(20, 'This reset link is not valid').max(200), password: passwordSchema });
+
+export const roleSchema = z.enum(['captain', 'member', 'viewer'], { error: 'Role is captain, member or viewer' });
+
+export const teamNameSchema = z.string().trim().min(1, 'Give the team a name').max(80, 'Keep it under 80 characters');
+export const newTeamSchema = z.object({ name: teamNameSchema });
+export const renameTeamSchema = z.object({ name: teamNameSchema });
+export const deleteTeamSchema = z.object({ confirmName: z.string({ error: 'Type the team name to confirm' }) });
+
+export const newInvitationSchema = z.object({ email: emailSchema, role: roleSchema });
+export const changeRoleSchema = z.object({ role: roleSchema });

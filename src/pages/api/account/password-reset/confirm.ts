@@ -1,0 +1,24 @@
+import type { APIRoute } from 'astro';
+import { passwordResetConfirmSchema } from '@/lib/schemas/account';
+import { consumePasswordReset, updatePassword } from '@/lib/server/db/users';
+import { problem, readJson } from '@/lib/server/http';
+import { hashPassword } from '@/lib/server/passwords';
+import { hashToken } from '@/lib/server/tokens';
+
+/** Sets a new password with a reset token: single use, expiring; both writes in one transaction. */
+export const POST: APIRoute = async ({ request, locals }) => {
+	const body = await readJson(request, passwordResetConfirmSchema);
+	if (!body.ok) return body.response;
+	const passwordHash = await hashPassword(body.data.password);
+	const result = await locals.db.transaction().execute(async (trx) => {
+		const consumed = await consumePasswordReset(trx, hashToken(body.data.token));
+		if (consumed.ok) await updatePassword(trx, consumed.userId, passwordHash);
+		return consumed;
+	});
+	if (!result.ok) {
+		if (result.reason === 'expired') return problem(410, 'token_expired', 'This reset link has expired. Ask for a new one.');
+		if (result.reason === 'used') return problem(410, 'token_used', 'This reset link was already used. Ask for a new one.');
+		return problem(404, 'invalid_token', 'This reset link is not valid.');
+	}
+	return new Response(null, { status: 204 });
+};
