@@ -5,6 +5,7 @@ import type { TestProject } from 'vitest/node';
 import { ensureCluster } from '../../db/cluster';
 import { seedDemo } from '../../db/seed';
 import { buildIsStale } from '../../src/cli/build-state';
+import { startSmtpFake } from '../../src/cli/smtp-fake';
 import { createDb } from '../../src/lib/server/db/client';
 import { CHROMIUM_PATH } from './browser';
 import { TEST_CLUSTER } from './pg-global-setup';
@@ -12,6 +13,7 @@ import { TEST_CLUSTER } from './pg-global-setup';
 declare module 'vitest' {
 	export interface ProvidedContext {
 		appUrl: string;
+		outboxDir: string;
 	}
 }
 
@@ -35,6 +37,7 @@ export default async function setup(project: TestProject) {
 	await db.destroy();
 
 	const appUrl = `http://127.0.0.1:${PORT}`;
+	const smtp = await startSmtpFake({ port: 0, dir: `.data/test-outbox/${name}` });
 	const server: ChildProcess = spawn(process.execPath, ['dist/server/entry.mjs'], {
 		env: {
 			...process.env,
@@ -44,6 +47,8 @@ export default async function setup(project: TestProject) {
 			AUTH_SECRET: 'test-secret-not-for-production-0123456789',
 			AUTH_TRUST_HOST: 'true',
 			PUBLIC_URL: appUrl,
+			SMTP_URL: `smtp://127.0.0.1:${smtp.port}`,
+			SAGWISE_DEV_OUTBOX: smtp.dir,
 		},
 		stdio: ['ignore', 'ignore', 'inherit'],
 	});
@@ -58,10 +63,12 @@ export default async function setup(project: TestProject) {
 		await new Promise((r) => setTimeout(r, 150));
 	}
 	project.provide('appUrl', appUrl);
+	project.provide('outboxDir', smtp.dir);
 
 	return async () => {
 		server.kill('SIGTERM');
 		await new Promise((r) => server.once('exit', r));
+		await smtp.close();
 		await sql`drop database if exists ${sql.id(name)} with (force)`.execute(admin);
 		await admin.destroy();
 	};

@@ -1,0 +1,132 @@
+import { readdirSync, statSync } from 'node:fs';
+import path from 'node:path';
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import type { AppUser } from '../../src/lib/server/auth';
+import { hashToken } from '../../src/lib/server/tokens';
+import { callEndpoint, type EndpointModule, jsonRequest } from '../helpers/container';
+import { addMember, localsFor, makeTeam, makeUser } from '../helpers/fixtures';
+import { createTestDb, type TestDb } from '../helpers/test-db';
+
+/**
+ * Every team route, called as anonymous, viewer, member, captain and the captain of another team.
+ * The list of route files is read from disk, so a new route without an entry here fails the test.
+ */
+type Caller = 'anonymous' | 'viewer' | 'member' | 'captain' | 'outsider';
+type Expect = Record<Caller, number>;
+
+interface World {
+	teamId: string;
+	teamName: string;
+	users: Record<Exclude<Caller, 'anonymous'>, AppUser>;
+	/** Another member, the target of role changes and removals. */
+	targetId: string;
+	invitationId: string;
+	invitationToken: string;
+}
+
+interface Case {
+	method: 'GET' | 'POST' | 'PATCH' | 'DELETE';
+	params: (w: World) => Record<string, string>;
+	body?: (w: World) => unknown;
+	expect: Expect;
+}
+
+const teamScoped = (w: World) => ({ teamId: w.teamId });
+const read: Expect = { anonymous: 401, viewer: 200, member: 200, captain: 200, outsider: 404 };
+const captainOnly = (ok: number): Expect => ({ anonymous: 401, viewer: 403, member: 403, captain: ok, outsider: 404 });
+
+const MATRIX: Record<string, Case[]> = {
+	'teams/index.ts': [
+		{ method: 'GET', params: () => ({}), expect: { anonymous: 401, viewer: 200, member: 200, captain: 200, outsider: 200 } },
+		{ method: 'POST', params: () => ({}), body: () => ({ name: 'Another' }), expect: { anonymous: 401, viewer: 201, member: 201, captain: 201, outsider: 201 } },
+	],
+	'teams/[teamId].ts': [
+		{ method: 'GET', params: teamScoped, expect: read },
+		{ method: 'PATCH', params: teamScoped, body: () => ({ name: 'Renamed' }), expect: captainOnly(204) },
+		{ method: 'DELETE', params: teamScoped, body: (w) => ({ confirmName: w.teamName }), expect: captainOnly(204) },
+	],
+	'teams/[teamId]/members/index.ts': [{ method: 'GET', params: teamScoped, expect: read }],
+	'teams/[teamId]/members/[userId].ts': [
+		{ method: 'PATCH', params: (w) => ({ teamId: w.teamId, userId: w.targetId }), body: () => ({ role: 'viewer' }), expect: captainOnly(204) },
+		{ method: 'DELETE', params: (w) => ({ teamId: w.teamId, userId: w.targetId }), expect: captainOnly(204) },
+	],
+	'teams/[teamId]/invitations/index.ts': [
+		{ method: 'GET', params: teamScoped, expect: captainOnly(200) },
+		{ method: 'POST', params: teamScoped, body: () => ({ email: 'fresh@sagwise.test', role: 'viewer' }), expect: captainOnly(201) },
+	],
+	'teams/[teamId]/invitations/[invitationId].ts': [{ method: 'DELETE', params: (w) => ({ teamId: w.teamId, invitationId: w.invitationId }), expect: captainOnly(204) }],
+	'teams/[teamId]/invitations/[invitationId]/resend.ts': [
+		{ method: 'POST', params: (w) => ({ teamId: w.teamId, invitationId: w.invitationId }), expect: captainOnly(200) },
+	],
+	// Token-based: signed-in people whose address is not the invited one are refused.
+	'invitations/[token]/accept.ts': [
+		{ method: 'POST', params: (w) => ({ token: w.invitationToken }), expect: { anonymous: 401, viewer: 403, member: 403, captain: 403, outsider: 403 } },
+	],
+};
+
+const API_ROOT = path.resolve('src/pages/api');
+const SCOPES = ['teams', 'invitations'];
+
+function routeFiles(dir: string): string[] {
+	return readdirSync(dir).flatMap((name) => {
+		const full = path.join(dir, name);
+		return statSync(full).isDirectory() ? routeFiles(full) : name.endsWith('.ts') ? [path.relative(API_ROOT, full)] : [];
+	});
+}
+
+const modules = import.meta.glob<EndpointModule>('../../src/pages/api/{teams,invitations}/**/*.ts', { eager: true });
+const moduleFor = (file: string) => modules[`../../src/pages/api/${file}`]!;
+
+describe('authorization matrix', () => {
+	let t: TestDb;
+	beforeAll(async () => {
+		t = await createTestDb();
+	});
+	afterAll(async () => t?.drop());
+
+	async function world(): Promise<World> {
+		const teamName = `Matrix ${Math.random().toString(36).slice(2, 8)}`;
+		const teamId = await makeTeam(t.db, teamName);
+		const users = { viewer: await makeUser(t.db), member: await makeUser(t.db), captain: await makeUser(t.db), outsider: await makeUser(t.db) };
+		await addMember(t.db, teamId, users.viewer, 'viewer');
+		await addMember(t.db, teamId, users.member, 'member');
+		await addMember(t.db, teamId, users.captain, 'captain');
+		const target = await makeUser(t.db);
+		await addMember(t.db, teamId, target, 'member');
+		const otherTeam = await makeTeam(t.db, 'Elsewhere');
+		await addMember(t.db, otherTeam, users.outsider, 'captain');
+		const invitationToken = `tok${Math.random().toString(36).slice(2)}${'x'.repeat(30)}`;
+		const inv = await t.db
+			.insertInto('invitation')
+			.values({ team_id: teamId, email: 'pending@sagwise.test', role: 'member', token_hash: hashToken(invitationToken), expires_at: new Date(Date.now() + 86_400_000) })
+			.returning('id')
+			.executeTakeFirstOrThrow();
+		return { teamId, teamName, users, targetId: target.id, invitationId: inv.id, invitationToken };
+	}
+
+	it('has an entry for every route file and every exported method', () => {
+		const files = SCOPES.flatMap((s) => routeFiles(path.join(API_ROOT, s)));
+		expect(files.length).toBeGreaterThan(5);
+		for (const file of files) {
+			expect(MATRIX[file], `no authorization entry for ${file}`).toBeDefined();
+			const exported = Object.keys(moduleFor(file)).filter((k) => ['GET', 'POST', 'PUT', 'PATCH', 'DELETE'].includes(k)).sort();
+			expect(MATRIX[file]!.map((c) => c.method).sort(), `methods of ${file}`).toEqual(exported);
+		}
+	});
+
+	const rows = Object.entries(MATRIX).flatMap(([file, cases]) =>
+		cases.flatMap((c) => (Object.keys(c.expect) as Caller[]).map((caller) => [file, c.method, caller, c] as const)),
+	);
+
+	it.each(rows)('%s %s as %s', async (file, method, caller, c) => {
+		const w = await world();
+		const user = caller === 'anonymous' ? null : w.users[caller];
+		const res = await callEndpoint(moduleFor(file), {
+			locals: localsFor(t.db, user),
+			params: c.params(w),
+			request: jsonRequest('/x', method, c.body?.(w) ?? (method === 'GET' ? undefined : {})),
+		});
+		expect(res.status).toBe(c.expect[caller]);
+		if (res.status >= 400) expect(res.headers.get('content-type')).toBe('application/problem+json');
+	});
+});
