@@ -22,6 +22,28 @@ export interface VehicleTable {
 	competition_class: Generated<string>;
 	notes: Generated<string>;
 	archived_at: Timestamp | null;
+	owner_id: string | null;
+	created_at: DefaultTimestamp;
+}
+
+export interface BuildTable {
+	id: Generated<string>;
+	vehicle_id: string;
+	head_revision_id: string | null;
+	created_at: DefaultTimestamp;
+}
+
+export interface RevisionTable {
+	id: Generated<string>;
+	build_id: string;
+	parent_id: string | null;
+	number: number;
+	schema_version: number;
+	/** The build document (src/engine/types BuildDocument), validated before it is written. */
+	document: ColumnType<unknown, string, never>;
+	message: string;
+	author_id: string | null;
+	restored_from_id: string | null;
 	created_at: DefaultTimestamp;
 }
 
@@ -108,6 +130,8 @@ export interface SignInAttemptTable {
 export interface Database {
 	team: TeamTable;
 	vehicle: VehicleTable;
+	build: BuildTable;
+	revision: RevisionTable;
 	User: UserTable;
 	Account: AccountTable;
 	Session: SessionTable;
@@ -127,3 +151,4 @@ export type NewTeamRow = Insertable<TeamTable>;
 export type VehicleRow = Selectable<VehicleTable>;
 export type NewVehicleRow = Insertable<VehicleTable>;
 export type VehicleRowUpdate = Updateable<VehicleTable>;
+export type RevisionRow = Selectable<RevisionTable>;

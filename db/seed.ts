@@ -10,6 +10,7 @@ import { createDb } from '../src/lib/server/db/client';
 import { hashPassword } from '../src/lib/server/passwords';
 import { DEFAULT_CLUSTER, ensureCluster } from './cluster';
 import { migrateToLatest } from './migrator';
+import { DEMO_BUILDS, DEMO_HISTORIES } from './demo/builds';
 import type { Database } from './schema';
 
 export const DEMO_TEAM_NAME = 'Harbour Street Sag Club';
@@ -19,7 +20,7 @@ export const DEMO_VEHICLES = [
 		name: 'Pebble',
 		description: 'Small grey hatchback, daily driver',
 		competition_class: 'Street 1 (up to 2 kW)',
-		notes: 'Stock 90 A alternator, one AGM in the trunk. Keeps its back seat.',
+		notes: 'Stock 90 A alternator and its one AGM under the hood. Keeps its back seat.',
 	},
 	{
 		name: 'Marlin',
@@ -48,17 +49,43 @@ export async function seedDemo(db: Kysely<Database>): Promise<string> {
 	const passwordHash = await hashPassword(DEMO_PASSWORD);
 	return db.transaction().execute(async (trx) => {
 		const team = await trx.insertInto('team').values({ name: DEMO_TEAM_NAME }).returning('id').executeTakeFirstOrThrow();
-		await trx
-			.insertInto('vehicle')
-			.values(DEMO_VEHICLES.map((v) => ({ ...v, team_id: team.id })))
-			.execute();
+		const userIds: string[] = [];
 		for (const u of DEMO_USERS) {
 			const user = await trx
 				.insertInto('User')
 				.values({ id: randomUUID(), email: u.email, name: u.name, passwordHash, emailVerified: new Date() })
 				.returning('id')
 				.executeTakeFirstOrThrow();
+			userIds.push(user.id);
 			await trx.insertInto('membership').values({ team_id: team.id, user_id: user.id, role: u.role }).execute();
+		}
+		for (const [i, v] of DEMO_VEHICLES.entries()) {
+			const vehicle = await trx
+				.insertInto('vehicle')
+				.values({ ...v, team_id: team.id, owner_id: userIds[i % 2]! })
+				.returning('id')
+				.executeTakeFirstOrThrow();
+			const build = await trx.insertInto('build').values({ vehicle_id: vehicle.id }).returning('id').executeTakeFirstOrThrow();
+			let parentId: string | null = null;
+			for (const [n, r] of DEMO_HISTORIES[v.name].entries()) {
+				const rev: { id: string } = await trx
+					.insertInto('revision')
+					.values({
+						build_id: build.id,
+						parent_id: parentId,
+						number: n + 1,
+						schema_version: r.document.schemaVersion,
+						document: JSON.stringify(r.document),
+						message: r.message,
+						author_id: userIds[r.author]!,
+						created_at: new Date(Date.now() - r.daysAgo * 86_400_000),
+					})
+					.returning('id')
+					.executeTakeFirstOrThrow();
+				parentId = rev.id;
+			}
+			await trx.updateTable('build').set({ head_revision_id: parentId }).where('id', '=', build.id).execute();
+			void DEMO_BUILDS;
 		}
 		return team.id;
 	});

@@ -52,7 +52,7 @@ function amp(a: Partial<Amplifier> & Pick<Amplifier, 'id' | 'label' | 'positive'
 
 const load = (l: SteadyLoad): SteadyLoad => l;
 
-/** Small street hatchback: stock alternator, a starting battery and one AGM in the trunk. */
+/** Small street hatchback: stock alternator and its one starting battery; a block in the trunk. */
 export const pebbleBuild: BuildDocument = {
 	schemaVersion: 1,
 	nodes: [
@@ -61,25 +61,22 @@ export const pebbleBuild: BuildDocument = {
 		{ id: 'alt_pos', label: 'Alternator B+', kind: 'alternator' },
 		{ id: 'front_pos', label: 'Starting battery +', kind: 'battery' },
 		{ id: 'front_neg', label: 'Starting battery −', kind: 'battery' },
-		{ id: 'rear_pos', label: 'Trunk AGM +', kind: 'battery' },
-		{ id: 'rear_neg', label: 'Trunk AGM −', kind: 'battery' },
+		{ id: 'rear_block', label: 'Trunk fuse block', kind: 'block' },
 		{ id: 'amp_pos', label: 'Mono amplifier +', kind: 'amplifier' },
 		{ id: 'amp_neg', label: 'Mono amplifier −', kind: 'amplifier' },
 	],
 	alternators: [alternator({ id: 'alt', label: 'Stock alternator', positive: 'alt_pos', negative: 'engine', ratedHotA: 90, setPointV: 14.2, pulleyRatio: 2.4 })],
 	banks: [
-		bank({ id: 'front', label: 'Starting battery', positive: 'front_pos', negative: 'front_neg', chemistry: 'flooded', unitCapacityAh: 55, unitResistanceOhm: 0.007, location: 'engine_bay', stateOfCharge: 0.85 }),
-		bank({ id: 'rear', label: 'Trunk AGM', positive: 'rear_pos', negative: 'rear_neg', chemistry: 'agm', unitCapacityAh: 75, unitResistanceOhm: 0.0045 }),
+		bank({ id: 'front', label: 'Starting battery', positive: 'front_pos', negative: 'front_neg', chemistry: 'agm', unitCapacityAh: 70, unitResistanceOhm: 0.005, location: 'engine_bay', stateOfCharge: 0.9 }),
 	],
-	amplifiers: [amp({ id: 'mono', label: 'Mono amplifier', positive: 'amp_pos', negative: 'amp_neg', ratedPowerW: 1500, efficiency: 0.82 })],
+	amplifiers: [amp({ id: 'mono', label: 'Mono amplifier', positive: 'amp_pos', negative: 'amp_neg', ratedPowerW: 1200, efficiency: 0.82 })],
 	loads: [load({ id: 'vehicle', label: 'Vehicle electrics', positive: 'front_pos', negative: 'chassis', currentA: 22 })],
 	cables: [
 		cable('charge', 'Alternator charge lead', 'alt_pos', 'front_pos', awg('4'), 3, { fuses: [fuse(150, 'to', 6)] }),
 		cable('strap', 'Engine ground strap', 'engine', 'chassis', awg('4'), 1.5),
 		cable('front_gnd', 'Starting battery ground', 'front_neg', 'chassis', awg('4'), 1.5),
-		cable('run', 'Front-to-rear run', 'front_pos', 'rear_pos', awg('4'), 15, { material: 'cca10', fuses: [fuse(150, 'from', 10), fuse(150, 'to', 10)] }),
-		cable('rear_gnd', 'Trunk AGM ground', 'rear_neg', 'chassis', awg('4'), 1.5),
-		cable('amp_feed', 'Amplifier feed', 'rear_pos', 'amp_pos', awg('4'), 3, { fuses: [fuse(150, 'from', 8)] }),
+		cable('run', 'Front-to-rear run', 'front_pos', 'rear_block', awg('4'), 15, { material: 'cca10', fuses: [fuse(150, 'from', 10)] }),
+		cable('amp_feed', 'Amplifier feed', 'rear_block', 'amp_pos', awg('4'), 3, { fuses: [fuse(150, 'from', 8)] }),
 		cable('amp_gnd', 'Amplifier ground', 'amp_neg', 'chassis', awg('4'), 2),
 	],
 };
@@ -200,4 +197,95 @@ export const DEMO_BUILDS: Record<'Pebble' | 'Marlin' | 'Old Oak', BuildDocument>
 	Pebble: pebbleBuild,
 	Marlin: marlinBuild,
 	'Old Oak': oldOakBuild,
+};
+
+export interface DemoRevision {
+	message: string;
+	/** Index into DEMO_USERS (db/seed.ts) of the author. */
+	author: 0 | 1;
+	daysAgo: number;
+	document: BuildDocument;
+}
+
+function variant(base: BuildDocument, change: (d: BuildDocument) => void): BuildDocument {
+	const d = structuredClone(base);
+	change(d);
+	return d;
+}
+const withoutPart = <T extends { id: string }>(xs: T[], id: string) => xs.filter((x) => x.id !== id);
+const setCable = (d: BuildDocument, id: string, patch: Partial<Cable>) => Object.assign(d.cables.find((c) => c.id === id)!, patch);
+
+/** Each demo vehicle's history, oldest first; the last entry equals the build above. */
+export const DEMO_HISTORIES: Record<keyof typeof DEMO_BUILDS, DemoRevision[]> = {
+	Pebble: [
+		{
+			message: 'First install: 1.2 kW mono off the starting battery, 8 AWG CCA kit wiring',
+			author: 1,
+			daysAgo: 120,
+			document: variant(pebbleBuild, (d) => {
+				for (const id of ['charge', 'strap', 'front_gnd', 'run', 'amp_feed', 'amp_gnd']) setCable(d, id, { size: awg('8'), material: 'cca10' });
+				setCable(d, 'run', { fuses: [fuse(80, 'from', 10)] });
+				setCable(d, 'amp_feed', { fuses: [fuse(80, 'from', 8)] });
+				setCable(d, 'charge', { fuses: [] });
+			}),
+		},
+		{
+			message: 'Kit wire got warm at the first meet: run, feed and ground to 4 AWG',
+			author: 1,
+			daysAgo: 90,
+			document: variant(pebbleBuild, (d) => {
+				for (const id of ['charge', 'strap', 'front_gnd']) setCable(d, id, { size: awg('8'), material: 'cca10' });
+				setCable(d, 'charge', { fuses: [] });
+				for (const id of ['amp_feed', 'amp_gnd']) setCable(d, id, { material: 'cca10' });
+			}),
+		},
+		{ message: 'Charge lead and engine strap to 4 AWG copper, fused charge lead at the battery', author: 0, daysAgo: 60, document: pebbleBuild },
+	],
+	Marlin: [
+		{
+			message: 'Two bass amplifiers on the front AGM, 1/0 run to a trunk block',
+			author: 0,
+			daysAgo: 150,
+			document: variant(marlinBuild, (d) => {
+				d.banks = withoutPart(d.banks, 'rear');
+				d.cables = withoutPart(withoutPart(withoutPart(withoutPart(d.cables, 'rear_gnd'), 'mids_feed'), 'mids_gnd'), 'block_feed');
+				d.amplifiers = withoutPart(d.amplifiers, 'mids');
+				d.nodes = d.nodes.filter((n) => !['rear_neg', 'mids_pos', 'mids_neg', 'rear_pos'].includes(n.id));
+				setCable(d, 'run', { to: 'block', fuses: [fuse(300, 'from', 10)] });
+			}),
+		},
+		{
+			message: 'Second bank: two AGM strings in the trunk, fused at both ends of the run',
+			author: 1,
+			daysAgo: 100,
+			document: variant(marlinBuild, (d) => {
+				d.cables = withoutPart(withoutPart(d.cables, 'mids_feed'), 'mids_gnd');
+				d.amplifiers = withoutPart(d.amplifiers, 'mids');
+				d.nodes = d.nodes.filter((n) => !['mids_pos', 'mids_neg'].includes(n.id));
+			}),
+		},
+		{ message: 'Four-channel for the doors, fed from the block', author: 1, daysAgo: 40, document: marlinBuild },
+	],
+	'Old Oak': [
+		{
+			message: 'One alternator, front and rear-wall LiFePO4 banks, doubled 4/0 runs',
+			author: 0,
+			daysAgo: 200,
+			document: variant(oldOakBuild, (d) => {
+				d.alternators = withoutPart(d.alternators, 'alt2');
+				d.cables = withoutPart(d.cables, 'charge2');
+				d.nodes = d.nodes.filter((n) => n.id !== 'alt2_pos');
+				for (const a of d.alternators) a.setPointV = 17.4;
+			}),
+		},
+		{
+			message: 'Second alternator on the top bracket',
+			author: 1,
+			daysAgo: 110,
+			document: variant(oldOakBuild, (d) => {
+				for (const a of d.alternators) a.setPointV = 17.4;
+			}),
+		},
+		{ message: 'Regulators up to 17.8 V so the 5-cell banks reach absorption', author: 0, daysAgo: 30, document: oldOakBuild },
+	],
 };

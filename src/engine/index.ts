@@ -12,3 +12,4 @@ export * from './burp';
 export * from './report';
 export * from './spice';
 export * from './units';
+export * from './diff';

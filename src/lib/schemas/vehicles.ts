@@ -1,0 +1,45 @@
+import { z } from 'zod';
+import { buildDocumentSchema } from './build-document';
+
+const text = (max: number) => z.string().trim().max(max, `Keep it under ${max} characters`);
+
+export const vehicleFieldsSchema = z.object({
+	name: z.string().trim().min(1, 'Give the vehicle a name').max(80, 'Keep it under 80 characters'),
+	description: text(200).default(''),
+	competitionClass: text(80).default(''),
+	notes: text(2000).default(''),
+	ownerId: z.string().max(64).nullable().default(null),
+});
+export const newVehicleSchema = vehicleFieldsSchema;
+export const updateVehicleSchema = vehicleFieldsSchema.partial().extend({ archived: z.boolean().optional() });
+
+export const revisionMessageSchema = z.string().trim().min(1, 'Say what changed and why').max(500, 'Keep the message under 500 characters');
+
+export const newRevisionSchema = z.object({
+	/** The revision the draft started from; null only for a build's first revision. */
+	parentId: z.uuid({ error: 'parentId must be a revision id' }).nullable(),
+	message: revisionMessageSchema,
+	document: buildDocumentSchema,
+});
+export type NewRevisionInput = z.infer<typeof newRevisionSchema>;
+
+export const restoreRevisionSchema = z.object({ parentId: z.uuid().nullable(), message: revisionMessageSchema.optional() });
+
+const numberParam = (min: number, max: number) => z.coerce.number().min(min).max(max);
+
+/** Scenario controls as query parameters of the report route (all optional). */
+export const scenarioQuerySchema = z.object({
+	engineRpm: numberParam(0, 10000).optional(),
+	sustainedDemand: numberParam(0, 1).optional(),
+	burpDemand: numberParam(0, 2).optional(),
+	conductorTempC: numberParam(-40, 150).optional(),
+	dropTargetV: numberParam(0.01, 5).optional(),
+	voltagesV: z
+		.string()
+		.transform((s) => s.split(',').map(Number))
+		.pipe(z.array(z.number().min(6, 'Voltages from 6 V').max(20, 'Voltages up to 20 V')).min(1).max(12))
+		.optional(),
+	burpSeconds: numberParam(0.1, 60).optional(),
+	burpStepS: numberParam(0.001, 1).optional(),
+	fuseDistanceM: numberParam(0.01, 3).optional(),
+});

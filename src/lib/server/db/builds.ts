@@ -1,0 +1,103 @@
+import type { Kysely } from 'kysely';
+import type { Database, RevisionRow } from '../../../../db/schema';
+import type { BuildDocument } from '@/engine/types';
+
+type Db = Kysely<Database>;
+
+export interface RevisionSummary {
+	id: string;
+	number: number;
+	parentId: string | null;
+	message: string;
+	authorName: string | null;
+	createdAt: string;
+	restoredFromNumber: number | null;
+}
+
+export interface RevisionDto extends RevisionSummary {
+	schemaVersion: number;
+	document: BuildDocument;
+}
+
+export function findVehicle(db: Db, teamId: string, vehicleId: string) {
+	return db.selectFrom('vehicle').selectAll().where('team_id', '=', teamId).where('id', '=', vehicleId).executeTakeFirst();
+}
+
+export function findBuildForVehicle(db: Db, vehicleId: string) {
+	return db.selectFrom('build').selectAll().where('vehicle_id', '=', vehicleId).executeTakeFirst();
+}
+
+const summaryColumns = ['r.id', 'r.number', 'r.parent_id', 'r.message', 'r.created_at', 'r.schema_version', 'u.name as author_name', 'src.number as restored_number'] as const;
+
+function baseRevisionQuery(db: Db) {
+	return db.selectFrom('revision as r').leftJoin('User as u', 'u.id', 'r.author_id').leftJoin('revision as src', 'src.id', 'r.restored_from_id');
+}
+
+function toSummary(r: { id: string; number: number; parent_id: string | null; message: string; created_at: Date; author_name: string | null; restored_number: number | null }): RevisionSummary {
+	return { id: r.id, number: r.number, parentId: r.parent_id, message: r.message, authorName: r.author_name, createdAt: r.created_at.toISOString(), restoredFromNumber: r.restored_number };
+}
+
+export async function listRevisions(db: Db, buildId: string): Promise<RevisionSummary[]> {
+	const rows = await baseRevisionQuery(db).select(summaryColumns).where('r.build_id', '=', buildId).orderBy('r.number', 'desc').execute();
+	return rows.map(toSummary);
+}
+
+export async function findRevision(db: Db, buildId: string, revisionId: string): Promise<RevisionDto | undefined> {
+	const r = await baseRevisionQuery(db).select([...summaryColumns, 'r.document']).where('r.build_id', '=', buildId).where('r.id', '=', revisionId).executeTakeFirst();
+	return r && { ...toSummary(r), schemaVersion: r.schema_version, document: r.document as BuildDocument };
+}
+
+export async function findHeadRevision(db: Db, buildId: string): Promise<RevisionDto | undefined> {
+	const build = await db.selectFrom('build').select('head_revision_id').where('id', '=', buildId).executeTakeFirst();
+	return build?.head_revision_id ? findRevision(db, buildId, build.head_revision_id) : undefined;
+}
+
+export type SaveResult = { ok: true; revision: RevisionRow } | { ok: false; reason: 'stale'; headId: string | null };
+
+/**
+ * Appends a revision to a build's chain in one transaction. The build row is locked, and the save
+ * only goes through when `parentId` is still the head: a concurrent save by someone else makes
+ * this one stale (the caller answers 409 with both versions), so nothing is overwritten.
+ */
+export async function appendRevision(
+	db: Db,
+	p: { buildId: string; parentId: string | null; document: BuildDocument; message: string; authorId: string; restoredFromId?: string | null },
+): Promise<SaveResult> {
+	return db.transaction().execute(async (trx): Promise<SaveResult> => {
+		const build = await trx.selectFrom('build').select(['id', 'head_revision_id']).where('id', '=', p.buildId).forUpdate().executeTakeFirstOrThrow();
+		if (build.head_revision_id !== p.parentId) return { ok: false, reason: 'stale', headId: build.head_revision_id };
+		const last = await trx.selectFrom('revision').select((eb) => eb.fn.max('number').as('n')).where('build_id', '=', p.buildId).executeTakeFirst();
+		const revision = await trx
+			.insertInto('revision')
+			.values({
+				build_id: p.buildId,
+				parent_id: p.parentId,
+				number: Number(last?.n ?? 0) + 1,
+				schema_version: p.document.schemaVersion,
+				document: JSON.stringify(p.document),
+				message: p.message,
+				author_id: p.authorId,
+				restored_from_id: p.restoredFromId ?? null,
+			})
+			.returningAll()
+			.executeTakeFirstOrThrow();
+		await trx.updateTable('build').set({ head_revision_id: revision.id }).where('id', '=', p.buildId).execute();
+		return { ok: true, revision };
+	});
+}
+
+/** Creates a vehicle with its (empty) build, in one transaction. */
+export async function insertVehicleWithBuild(
+	db: Db,
+	v: { teamId: string; name: string; description: string; competitionClass: string; notes: string; ownerId: string | null },
+) {
+	return db.transaction().execute(async (trx) => {
+		const vehicle = await trx
+			.insertInto('vehicle')
+			.values({ team_id: v.teamId, name: v.name, description: v.description, competition_class: v.competitionClass, notes: v.notes, owner_id: v.ownerId })
+			.returningAll()
+			.executeTakeFirstOrThrow();
+		const build = await trx.insertInto('build').values({ vehicle_id: vehicle.id }).returning('id').executeTakeFirstOrThrow();
+		return { vehicle, buildId: build.id };
+	});
+}

@@ -1,0 +1,26 @@
+import type { Role } from '../../../db/schema';
+import { parseUuid } from '../schemas/ids';
+import { type TeamAccess, requireTeamRole } from './authz';
+import { findBuildForVehicle, findVehicle } from './db/builds';
+import { problem } from './http';
+
+export interface VehicleAccess {
+	access: TeamAccess;
+	vehicle: NonNullable<Awaited<ReturnType<typeof findVehicle>>>;
+	build: NonNullable<Awaited<ReturnType<typeof findBuildForVehicle>>>;
+}
+
+/** Team role check, then the vehicle (and its build) inside that team; anything else is a 404. */
+export async function requireVehicle(
+	locals: Pick<App.Locals, 'db' | 'user'>,
+	params: Record<string, string | undefined>,
+	min: Role,
+): Promise<{ ok: true; value: VehicleAccess } | { ok: false; response: Response }> {
+	const auth = await requireTeamRole(locals, params.teamId, min);
+	if (!auth.ok) return auth;
+	const vehicleId = parseUuid(params.vehicleId);
+	const vehicle = vehicleId ? await findVehicle(locals.db, auth.access.teamId, vehicleId) : undefined;
+	const build = vehicle ? await findBuildForVehicle(locals.db, vehicle.id) : undefined;
+	if (!vehicle || !build) return { ok: false, response: problem(404, 'not_found', 'No such vehicle') };
+	return { ok: true, value: { access: auth.access, vehicle, build } };
+}

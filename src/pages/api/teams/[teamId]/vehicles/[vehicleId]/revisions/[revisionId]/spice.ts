@@ -1,0 +1,31 @@
+import type { APIRoute } from 'astro';
+import { DEFAULT_SCENARIO } from '@/engine/report';
+import { toSpiceNetlist } from '@/engine/spice';
+import { parseUuid } from '@/lib/schemas/ids';
+import { scenarioQuerySchema } from '@/lib/schemas/vehicles';
+import { findRevision } from '@/lib/server/db/builds';
+import { problem, toFieldErrors } from '@/lib/server/http';
+import { requireVehicle } from '@/lib/server/vehicle-access';
+
+/** The revision as a SPICE netlist (DC operating point at burp demand), for any circuit simulator. */
+export const GET: APIRoute = async ({ params, locals, url }) => {
+	const found = await requireVehicle(locals, params, 'viewer');
+	if (!found.ok) return found.response;
+	const id = parseUuid(params.revisionId);
+	const revision = id && (await findRevision(locals.db, found.value.build.id, id));
+	if (!revision) return problem(404, 'not_found', 'No such revision');
+	const q = scenarioQuerySchema.safeParse(Object.fromEntries(url.searchParams));
+	if (!q.success) return problem(400, 'invalid_input', 'Some scenario settings need attention', toFieldErrors(q.error));
+	const conditions = {
+		engineRpm: q.data.engineRpm ?? DEFAULT_SCENARIO.engineRpm,
+		demand: q.data.burpDemand ?? DEFAULT_SCENARIO.burpDemand,
+		conductorTempC: q.data.conductorTempC ?? DEFAULT_SCENARIO.conductorTempC,
+	};
+	const { netlist } = toSpiceNetlist(revision.document, conditions, { title: `${found.value.vehicle.name} revision ${revision.number}`, nodeset: 'unloaded' });
+	return new Response(netlist, {
+		headers: {
+			'content-type': 'text/plain; charset=utf-8',
+			'content-disposition': `attachment; filename="${found.value.vehicle.name.replace(/[^\w-]+/g, '_')}-r${revision.number}.cir"`,
+		},
+	});
+};
