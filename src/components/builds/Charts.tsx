@@ -1,0 +1,45 @@
+import { CategoryScale, Chart as ChartJS, Filler, Legend, LinearScale, LineElement, PointElement, Tooltip } from 'chart.js';
+import { useMemo } from 'react';
+import { Line } from 'react-chartjs-2';
+import type { BudgetRow } from '@/engine/budget';
+import type { BurpRun } from '@/engine/burp';
+import { toBudgetChartData, toBurpChartData } from './chart-data';
+
+ChartJS.register(CategoryScale, LinearScale, PointElement, LineElement, Filler, Tooltip, Legend);
+ChartJS.defaults.font.family = "'Public Sans Variable', system-ui, sans-serif";
+
+const budgetOptions = {
+	responsive: true,
+	maintainAspectRatio: false,
+	animation: false as const,
+	interaction: { mode: 'index' as const, intersect: false },
+	scales: { y: { beginAtZero: true, title: { display: true, text: 'Current (A)' } }, x: { title: { display: true, text: 'Supply voltage' } } },
+	plugins: { legend: { position: 'bottom' as const } },
+};
+
+const burpOptions = {
+	responsive: true,
+	maintainAspectRatio: false,
+	animation: false as const,
+	interaction: { mode: 'index' as const, intersect: false },
+	scales: { y: { title: { display: true, text: 'Voltage (V)' } }, x: { title: { display: true, text: 'Time into the burp (s)' }, ticks: { maxTicksLimit: 11 } } },
+	plugins: { legend: { position: 'bottom' as const } },
+};
+
+export function BudgetChart({ rows }: { rows: BudgetRow[] }) {
+	const data = useMemo(() => toBudgetChartData(rows), [rows]);
+	return (
+		<div className="h-64">
+			<Line data={data} options={budgetOptions} aria-label="Current demand against alternator supply at each supply voltage" role="img" />
+		</div>
+	);
+}
+
+export function BurpChart({ run, bankLabels, ruleV }: { run: BurpRun; bankLabels: Record<string, string>; ruleV: number | null }) {
+	const data = useMemo(() => toBurpChartData(run, bankLabels, ruleV), [run, bankLabels, ruleV]);
+	return (
+		<div className="h-64">
+			<Line data={data} options={burpOptions} aria-label="Voltages over the time of a burp" role="img" />
+		</div>
+	);
+}

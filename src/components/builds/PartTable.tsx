@@ -1,0 +1,160 @@
+import { type ColumnDef, flexRender, getCoreRowModel, useReactTable } from '@tanstack/react-table';
+import { useEffect, useState } from 'react';
+
+export type CellSpec<T> =
+	| { kind: 'text'; get: (row: T) => string; set: (row: T, v: string) => T }
+	| { kind: 'number'; get: (row: T) => number | null; set: (row: T, v: number | null) => T; step?: string; blankAllowed?: boolean }
+	| { kind: 'select'; get: (row: T) => string; set: (row: T, v: string) => T; options: Array<{ value: string; label: string }> }
+	| { kind: 'checkbox'; get: (row: T) => boolean; set: (row: T, v: boolean) => T };
+
+export interface PartColumn<T> {
+	id: string;
+	header: string;
+	unit?: string;
+	/** Path of the field inside the part, for matching validation errors (e.g. `lengthM`). */
+	errorPath: string | ((row: T) => string);
+	cell: CellSpec<T>;
+	width?: string;
+}
+
+function NumberInput({ value, onChange, label, invalid, step, readOnly }: { value: number | null; onChange: (v: number | null) => void; label: string; invalid: boolean; step?: string; readOnly: boolean }) {
+	const [text, setText] = useState(value === null || Number.isNaN(value) ? '' : String(Number(value.toPrecision(8))));
+	useEffect(() => {
+		const parsed = text.trim() === '' ? null : Number(text);
+		if (parsed !== value && !(parsed !== null && value !== null && Math.abs(parsed - value) < 1e-9 * Math.max(1, Math.abs(value)))) {
+			setText(value === null || Number.isNaN(value) ? '' : String(Number(value.toPrecision(8))));
+		}
+		// eslint-disable-next-line react-hooks/exhaustive-deps
+	}, [value]);
+	return (
+		<input
+			type="text"
+			inputMode="decimal"
+			aria-label={label}
+			aria-invalid={invalid || undefined}
+			readOnly={readOnly}
+			step={step}
+			value={text}
+			onChange={(e) => {
+				setText(e.target.value);
+				const t = e.target.value.trim().replace(',', '.');
+				onChange(t === '' ? null : Number(t));
+			}}
+			className={`num w-full min-w-16 rounded border bg-card px-2 py-1 text-right ${invalid ? 'border-brick' : 'border-hairline'} ${readOnly ? 'bg-paper' : ''}`}
+		/>
+	);
+}
+
+/**
+ * An editable table of parts (cables, banks, …) on @tanstack/react-table: one row per part, one
+ * field per cell, each validation message shown under the field it concerns. Tab moves through
+ * the fields in reading order.
+ */
+export function PartTable<T extends { id: string; label: string }>({
+	caption,
+	rows,
+	columns,
+	onChange,
+	onRemove,
+	errors,
+	pathPrefix,
+	readOnly,
+	rowFlag,
+}: {
+	caption: string;
+	rows: T[];
+	columns: PartColumn<T>[];
+	onChange: (index: number, next: T) => void;
+	onRemove?: (index: number) => void;
+	errors: Record<string, string>;
+	pathPrefix: string;
+	readOnly: boolean;
+	rowFlag?: (row: T) => string | null;
+}) {
+	const defs: ColumnDef<T>[] = columns.map((col) => ({
+		id: col.id,
+		header: () => (
+			<span>
+				{col.header}
+				{col.unit && <span className="font-normal text-ink-soft"> ({col.unit})</span>}
+			</span>
+		),
+		cell: ({ row }) => {
+			const part = row.original;
+			const i = row.index;
+			const path = `${pathPrefix}.${i}.${typeof col.errorPath === 'function' ? col.errorPath(part) : col.errorPath}`;
+			const error = Object.entries(errors).find(([p]) => p === path || p.startsWith(`${path}.`))?.[1];
+			const label = `${part.label || part.id}: ${col.header}`;
+			const c = col.cell;
+			let input: React.ReactNode;
+			if (c.kind === 'text') {
+				input = <input aria-label={label} aria-invalid={!!error || undefined} readOnly={readOnly} value={c.get(part)} onChange={(e) => onChange(i, c.set(part, e.target.value))} className={`w-full min-w-28 rounded border bg-card px-2 py-1 ${error ? 'border-brick' : 'border-hairline'} ${readOnly ? 'bg-paper' : ''}`} />;
+			} else if (c.kind === 'number') {
+				input = <NumberInput label={label} value={c.get(part)} onChange={(v) => onChange(i, c.set(part, v))} invalid={!!error} step={c.step} readOnly={readOnly} />;
+			} else if (c.kind === 'select') {
+				input = (
+					<select aria-label={label} disabled={readOnly} value={c.get(part)} onChange={(e) => onChange(i, c.set(part, e.target.value))} className={`w-full min-w-32 rounded border bg-card px-1 py-1 ${error ? 'border-brick' : 'border-hairline'}`}>
+						{c.options.map((o) => (
+							<option key={o.value} value={o.value}>
+								{o.label}
+							</option>
+						))}
+					</select>
+				);
+			} else {
+				input = <input type="checkbox" aria-label={label} disabled={readOnly} checked={c.get(part)} onChange={(e) => onChange(i, c.set(part, e.target.checked))} className="size-4 accent-copper" />;
+			}
+			return (
+				<div className="flex flex-col gap-0.5">
+					{input}
+					{error && (
+						<span role="alert" className="max-w-48 text-xs leading-tight text-brick">
+							✕ {error}
+						</span>
+					)}
+				</div>
+			);
+		},
+	}));
+	const table = useReactTable({ data: rows, columns: defs, getCoreRowModel: getCoreRowModel(), getRowId: (r) => r.id });
+	return (
+		<div className="overflow-x-auto rounded-md border border-hairline bg-card">
+			<table className="w-full text-sm">
+				<caption className="sr-only">{caption}</caption>
+				<thead className="border-b border-hairline bg-paper text-left text-xs text-ink-soft">
+					{table.getHeaderGroups().map((hg) => (
+						<tr key={hg.id}>
+							{hg.headers.map((h) => (
+								<th key={h.id} scope="col" className="px-2 py-2 font-semibold whitespace-nowrap">
+									{flexRender(h.column.columnDef.header, h.getContext())}
+								</th>
+							))}
+							{!readOnly && onRemove && <th className="px-2 py-2"><span className="sr-only">Remove</span></th>}
+						</tr>
+					))}
+				</thead>
+				<tbody>
+					{table.getRowModel().rows.map((row) => {
+						const flag = rowFlag?.(row.original) ?? null;
+						return (
+							<tr key={row.id} className={`border-b border-hairline align-top last:border-0 ${flag ? 'bg-brick-tint/40' : ''}`} data-part-id={row.original.id}>
+								{row.getVisibleCells().map((cell) => (
+									<td key={cell.id} className="px-2 py-1.5">
+										{flexRender(cell.column.columnDef.cell, cell.getContext())}
+									</td>
+								))}
+								{!readOnly && onRemove && (
+									<td className="px-2 py-1.5">
+										<button type="button" onClick={() => onRemove(row.index)} aria-label={`Remove ${row.original.label || row.original.id}`} className="rounded px-2 py-1 text-ink-soft hover:bg-brick-tint hover:text-brick">
+											✕
+										</button>
+									</td>
+								)}
+							</tr>
+						);
+					})}
+				</tbody>
+			</table>
+		</div>
+	);
+}

@@ -1,0 +1,96 @@
+import type { Alternator, Amplifier, BatteryBank, BuildDocument, BuildNode, Cable, SteadyLoad } from '@/engine/types';
+
+/** An id not yet used in the document: `${prefix}-1`, `${prefix}-2`, … */
+export function freshId(doc: BuildDocument, prefix: string): string {
+	const used = new Set([...doc.nodes, ...doc.alternators, ...doc.banks, ...doc.amplifiers, ...doc.loads, ...doc.cables].map((x) => x.id));
+	for (let i = 1; ; i++) if (!used.has(`${prefix}-${i}`)) return `${prefix}-${i}`;
+}
+
+const firstOf = (doc: BuildDocument, kind: BuildNode['kind']) => doc.nodes.find((n) => n.kind === kind)?.id ?? doc.nodes[0]?.id ?? '';
+const chassisOf = (doc: BuildDocument) => firstOf(doc, 'chassis');
+
+export const newNode = (doc: BuildDocument): BuildNode => ({ id: freshId(doc, 'node'), label: 'New block', kind: 'block' });
+
+export const newCable = (doc: BuildDocument): Cable => ({
+	id: freshId(doc, 'cable'),
+	label: 'New cable',
+	from: firstOf(doc, 'battery'),
+	to: firstOf(doc, 'block'),
+	size: { kind: 'awg', awg: '4' },
+	material: 'copper',
+	lengthM: 1,
+	parallelRuns: 1,
+	fuses: [],
+	insulationC: 105,
+});
+
+export const newBank = (doc: BuildDocument): BatteryBank => ({
+	id: freshId(doc, 'bank'),
+	label: 'New bank',
+	positive: firstOf(doc, 'battery'),
+	negative: chassisOf(doc),
+	chemistry: 'agm',
+	cellsPerUnit: 6,
+	unitsInSeries: 1,
+	stringsInParallel: 1,
+	unitCapacityAh: 100,
+	ratedHours: 20,
+	unitResistanceOhm: 0.004,
+	stateOfCharge: 0.9,
+	peukertK: null,
+	absorptionV: null,
+	floatV: null,
+	maxChargeC: null,
+	location: 'trunk',
+	secured: true,
+	vented: false,
+});
+
+export const newAlternator = (doc: BuildDocument): Alternator => ({
+	id: freshId(doc, 'alt'),
+	label: 'New alternator',
+	positive: firstOf(doc, 'alternator'),
+	negative: chassisOf(doc),
+	ratedHotA: 200,
+	curve: [],
+	curveIsCold: false,
+	hotFactor: 0.8,
+	pulleyRatio: 2.6,
+	setPointV: 14.4,
+	sourceResistanceOhm: 1e-4,
+});
+
+export const newAmplifier = (doc: BuildDocument): Amplifier => ({
+	id: freshId(doc, 'amp'),
+	label: 'New amplifier',
+	positive: firstOf(doc, 'amplifier'),
+	negative: chassisOf(doc),
+	ratedPowerW: 1000,
+	ratedVoltageV: 14.4,
+	efficiency: 0.8,
+	quantity: 1,
+	regulated: false,
+});
+
+export const newLoad = (doc: BuildDocument): SteadyLoad => ({ id: freshId(doc, 'load'), label: 'New load', positive: firstOf(doc, 'battery'), negative: chassisOf(doc), currentA: 10 });
+
+/** A starting point for a vehicle with no revision yet: one battery, one amplifier, wired. */
+export function starterDocument(): BuildDocument {
+	return {
+		schemaVersion: 1,
+		nodes: [
+			{ id: 'chassis', label: 'Chassis', kind: 'chassis' },
+			{ id: 'batt_pos', label: 'Battery +', kind: 'battery' },
+			{ id: 'amp_pos', label: 'Amplifier +', kind: 'amplifier' },
+			{ id: 'amp_neg', label: 'Amplifier −', kind: 'amplifier' },
+		],
+		alternators: [],
+		banks: [{ ...newBank({ schemaVersion: 1, nodes: [], alternators: [], banks: [], amplifiers: [], loads: [], cables: [] }), id: 'battery', label: 'Battery', positive: 'batt_pos', negative: 'chassis', location: 'engine_bay' }],
+		amplifiers: [{ id: 'amp', label: 'Amplifier', positive: 'amp_pos', negative: 'amp_neg', ratedPowerW: 1000, ratedVoltageV: 14.4, efficiency: 0.8, quantity: 1, regulated: false }],
+		loads: [],
+		cables: [
+			{ id: 'feed', label: 'Amplifier feed', from: 'batt_pos', to: 'amp_pos', size: { kind: 'awg', awg: '4' }, material: 'copper', lengthM: 5, parallelRuns: 1, fuses: [{ ratingA: 100, end: 'from', distanceM: 0.2 }], insulationC: 105 },
+			{ id: 'ground', label: 'Amplifier ground', from: 'amp_neg', to: 'chassis', size: { kind: 'awg', awg: '4' }, material: 'copper', lengthM: 0.5, parallelRuns: 1, fuses: [], insulationC: 105 },
+		],
+	};
+}

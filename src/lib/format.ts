@@ -1,0 +1,74 @@
+import { M_PER_FT, M_PER_IN, type UnitSystem } from '@/engine/units';
+import { MM2_PER_CMIL } from '@/engine/conductors';
+
+export type { UnitSystem };
+
+/** Length in the user's units: feet or metres. */
+export const lengthUnit = (u: UnitSystem) => (u === 'imperial' ? 'ft' : 'm');
+export const toLengthDisplay = (m: number, u: UnitSystem) => (u === 'imperial' ? m / M_PER_FT : m);
+export const fromLengthDisplay = (x: number, u: UnitSystem) => (u === 'imperial' ? x * M_PER_FT : x);
+/** Short distances (fuse to battery): inches or centimetres. */
+export const shortUnit = (u: UnitSystem) => (u === 'imperial' ? 'in' : 'cm');
+export const toShortDisplay = (m: number, u: UnitSystem) => (u === 'imperial' ? m / M_PER_IN : m * 100);
+export const fromShortDisplay = (x: number, u: UnitSystem) => (u === 'imperial' ? x * M_PER_IN : x / 100);
+
+export function fmt(x: number | null | undefined, digits = 2): string {
+	if (x === null || x === undefined || !Number.isFinite(x)) return '—';
+	return x.toFixed(digits);
+}
+
+/** A document field's value as a person reads it, in their units (diffs, history). */
+export function formatFieldValue(field: string, value: unknown, u: UnitSystem): string {
+	if (value === undefined || value === null) return '—';
+	if (typeof value === 'boolean') return value ? 'yes' : 'no';
+	if (typeof value !== 'number') return String(value);
+	const leaf = field.split('.').at(-1)!;
+	if (leaf === 'lengthM') return `${fmt(toLengthDisplay(value, u), 1)} ${lengthUnit(u)}`;
+	if (leaf === 'distanceM') return `${fmt(toShortDisplay(value, u), 0)} ${shortUnit(u)}`;
+	if (leaf === 'mm2' || leaf === 'areaMm2') return u === 'imperial' ? `${fmt(value / MM2_PER_CMIL, 0)} cmil` : `${fmt(value, 1)} mm²`;
+	if (leaf.endsWith('Ohm')) return `${fmt(value * 1000, 2)} mΩ`;
+	if (leaf.endsWith('V')) return `${fmt(value, 2)} V`;
+	if (leaf.endsWith('A')) return `${fmt(value, 0)} A`;
+	if (leaf.endsWith('W')) return `${fmt(value, 0)} W`;
+	if (leaf.endsWith('Ah')) return `${fmt(value, 0)} Ah`;
+	if (leaf.endsWith('C') && leaf !== 'maxChargeC') return `${fmt(value, 0)} °C`;
+	if (leaf === 'stateOfCharge' || leaf === 'efficiency') return `${fmt(value * 100, 0)} %`;
+	return String(Number(value.toPrecision(6)));
+}
+
+const FIELD_NAMES: Record<string, string> = {
+	lengthM: 'length',
+	'size.awg': 'size (AWG)',
+	'size.kind': 'size given as',
+	'size.mm2': 'cross-section',
+	'size.areaMm2': 'measured cross-section',
+	material: 'material',
+	parallelRuns: 'parallel runs',
+	insulationC: 'insulation rating',
+	setPointV: 'regulator set point',
+	ratedHotA: 'rated hot output',
+	pulleyRatio: 'pulley ratio',
+	ratedPowerW: 'rated power',
+	stringsInParallel: 'strings in parallel',
+	unitsInSeries: 'units in series',
+	unitCapacityAh: 'capacity per unit',
+	unitResistanceOhm: 'internal resistance per unit',
+	stateOfCharge: 'state of charge',
+	currentA: 'current',
+};
+
+export function fieldName(field: string): string {
+	if (FIELD_NAMES[field]) return FIELD_NAMES[field];
+	const fuse = /^fuses\.(\d)\.(\w+)$/.exec(field);
+	if (fuse) return `fuse ${Number(fuse[1]) + 1} ${fuse[2] === 'ratingA' ? 'rating' : fuse[2] === 'distanceM' ? 'distance' : 'end'}`;
+	return field.replace(/([A-Z])/g, ' $1').toLowerCase();
+}
+
+export const GROUP_NAMES: Record<string, string> = {
+	nodes: 'Node',
+	alternators: 'Alternator',
+	banks: 'Bank',
+	amplifiers: 'Amplifier',
+	loads: 'Steady load',
+	cables: 'Cable',
+};
