@@ -57,7 +57,9 @@ export function diffBuilds(before: BuildDocument, after: BuildDocument): Compone
 			const fa = flatten(old);
 			const fb = flatten(item);
 			const keys = [...new Set([...Object.keys(fa), ...Object.keys(fb)])].sort();
-			const fields = keys.filter((k) => fa[k] !== fb[k]).map((k) => ({ field: k, before: fa[k], after: fb[k] }));
+			// An empty list turning into items (or back) shows as its items, not as "[] → —".
+			const emptyMarker = (k: string) => (fa[k] === '[]' && fb[k] === undefined) || (fb[k] === '[]' && fa[k] === undefined);
+			const fields = keys.filter((k) => fa[k] !== fb[k] && !emptyMarker(k)).map((k) => ({ field: k, before: fa[k], after: fb[k] }));
 			if (fields.length) changes.push({ group, id, label: item.label, kind: 'changed', fields });
 		}
 	}

@@ -1,7 +1,9 @@
 import { readdirSync, statSync } from 'node:fs';
 import path from 'node:path';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { pebbleBuild } from '../../db/demo/builds';
 import type { AppUser } from '../../src/lib/server/auth';
+import { appendRevision, insertVehicleWithBuild } from '../../src/lib/server/db/builds';
 import { hashToken } from '../../src/lib/server/tokens';
 import { callEndpoint, type EndpointModule, jsonRequest } from '../helpers/container';
 import { addMember, localsFor, makeTeam, makeUser } from '../helpers/fixtures';
@@ -22,18 +24,24 @@ interface World {
 	targetId: string;
 	invitationId: string;
 	invitationToken: string;
+	vehicleId: string;
+	revisionId: string;
 }
 
 interface Case {
 	method: 'GET' | 'POST' | 'PATCH' | 'DELETE';
 	params: (w: World) => Record<string, string>;
 	body?: (w: World) => unknown;
+	query?: (w: World) => string;
 	expect: Expect;
 }
 
 const teamScoped = (w: World) => ({ teamId: w.teamId });
 const read: Expect = { anonymous: 401, viewer: 200, member: 200, captain: 200, outsider: 404 };
 const captainOnly = (ok: number): Expect => ({ anonymous: 401, viewer: 403, member: 403, captain: ok, outsider: 404 });
+const memberWrite = (ok: number): Expect => ({ anonymous: 401, viewer: 403, member: ok, captain: ok, outsider: 404 });
+const vehicleScoped = (w: World) => ({ teamId: w.teamId, vehicleId: w.vehicleId });
+const revisionScoped = (w: World) => ({ teamId: w.teamId, vehicleId: w.vehicleId, revisionId: w.revisionId });
 
 const MATRIX: Record<string, Case[]> = {
 	'teams/index.ts': [
@@ -58,6 +66,23 @@ const MATRIX: Record<string, Case[]> = {
 	'teams/[teamId]/invitations/[invitationId]/resend.ts': [
 		{ method: 'POST', params: (w) => ({ teamId: w.teamId, invitationId: w.invitationId }), expect: captainOnly(200) },
 	],
+	'teams/[teamId]/vehicles/index.ts': [
+		{ method: 'GET', params: teamScoped, expect: read },
+		{ method: 'POST', params: teamScoped, body: () => ({ name: 'New car' }), expect: memberWrite(201) },
+	],
+	'teams/[teamId]/vehicles/[vehicleId]/index.ts': [
+		{ method: 'GET', params: vehicleScoped, expect: read },
+		{ method: 'PATCH', params: vehicleScoped, body: () => ({ notes: 'Changed' }), expect: memberWrite(200) },
+	],
+	'teams/[teamId]/vehicles/[vehicleId]/diff.ts': [{ method: 'GET', params: vehicleScoped, query: (w) => `?from=${w.revisionId}&to=${w.revisionId}`, expect: read }],
+	'teams/[teamId]/vehicles/[vehicleId]/revisions/index.ts': [
+		{ method: 'GET', params: vehicleScoped, expect: read },
+		{ method: 'POST', params: vehicleScoped, body: (w) => ({ parentId: w.revisionId, message: 'Matrix save', document: pebbleBuild }), expect: memberWrite(201) },
+	],
+	'teams/[teamId]/vehicles/[vehicleId]/revisions/[revisionId]/index.ts': [{ method: 'GET', params: revisionScoped, expect: read }],
+	'teams/[teamId]/vehicles/[vehicleId]/revisions/[revisionId]/report.ts': [{ method: 'GET', params: revisionScoped, expect: read }],
+	'teams/[teamId]/vehicles/[vehicleId]/revisions/[revisionId]/spice.ts': [{ method: 'GET', params: revisionScoped, expect: read }],
+	'teams/[teamId]/vehicles/[vehicleId]/revisions/[revisionId]/restore.ts': [{ method: 'POST', params: revisionScoped, body: (w) => ({ parentId: w.revisionId }), expect: memberWrite(201) }],
 	// Token-based: signed-in people whose address is not the invited one are refused.
 	'invitations/[token]/accept.ts': [
 		{ method: 'POST', params: (w) => ({ token: w.invitationToken }), expect: { anonymous: 401, viewer: 403, member: 403, captain: 403, outsider: 403 } },
@@ -101,7 +126,10 @@ describe('authorization matrix', () => {
 			.values({ team_id: teamId, email: 'pending@sagwise.test', role: 'member', token_hash: hashToken(invitationToken), expires_at: new Date(Date.now() + 86_400_000) })
 			.returning('id')
 			.executeTakeFirstOrThrow();
-		return { teamId, teamName, users, targetId: target.id, invitationId: inv.id, invitationToken };
+		const { vehicle, buildId } = await insertVehicleWithBuild(t.db, { teamId, name: 'Matrix car', description: '', competitionClass: '', notes: '', ownerId: null });
+		const saved = await appendRevision(t.db, { buildId, parentId: null, document: pebbleBuild, message: 'Seed', authorId: users.member.id });
+		if (!saved.ok) throw new Error('seed revision');
+		return { teamId, teamName, users, targetId: target.id, invitationId: inv.id, invitationToken, vehicleId: vehicle.id, revisionId: saved.revision.id };
 	}
 
 	it('has an entry for every route file and every exported method', () => {
@@ -124,7 +152,7 @@ describe('authorization matrix', () => {
 		const res = await callEndpoint(moduleFor(file), {
 			locals: localsFor(t.db, user),
 			params: c.params(w),
-			request: jsonRequest('/x', method, c.body?.(w) ?? (method === 'GET' ? undefined : {})),
+			request: jsonRequest(`/x${c.query?.(w) ?? ''}`, method, c.body?.(w) ?? (method === 'GET' ? undefined : {})),
 		});
 		expect(res.status).toBe(c.expect[caller]);
 		if (res.status >= 400) expect(res.headers.get('content-type')).toBe('application/problem+json');

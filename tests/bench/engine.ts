@@ -42,12 +42,29 @@ function synthetic200(): BuildDocument {
 	return d;
 }
 
+/** A 40-cable build: the size the editor must recompute on every keystroke (target < 16 ms). */
+function forty(): BuildDocument {
+	const d = doc({ nodes: [node('gnd', 'chassis'), node('alt'), node('bat', 'battery'), node('blk', 'block')] });
+	d.alternators.push(alternator('alt', 'alt', 'gnd', 300));
+	d.banks.push(bank('front', 'bat', 'gnd', { stringsInParallel: 2 }));
+	d.cables.push(cable('charge', 'alt', 'bat', { kind: 'awg', awg: '1/0' }, 1), cable('run', 'bat', 'blk', { kind: 'awg', awg: '1/0' }, 5, { parallelRuns: 2 }));
+	for (let i = 1; d.cables.length < 40; i++) {
+		d.nodes.push(node(`p${i}`, 'amplifier'), node(`n${i}`, 'amplifier'));
+		d.amplifiers.push(amp(`a${i}`, `p${i}`, `n${i}`, 150));
+		d.cables.push(cable(`f${i}`, 'blk', `p${i}`, { kind: 'awg', awg: '4' }, 1.5), cable(`g${i}`, `n${i}`, 'gnd', { kind: 'awg', awg: '4' }, 1));
+	}
+	return d;
+}
+
 const bench = new Bench({ time: 1500, warmupTime: 300, retainSamples: true });
 for (const [name, d] of Object.entries(DEMO_BUILDS)) {
 	bench.add(`report, no time-stepping: ${name}`, () => void buildReport(d, {}, { burpRun: false }));
 	bench.add(`burp 10 s at 10 ms: ${name}`, () => void runBurp(d, { engineRpm: DEFAULT_SCENARIO.engineRpm, demand: 1, conductorTempC: 25, durationS: 10, stepS: 0.01 }));
 	bench.add(`full report with burp: ${name}`, () => void buildReport(d));
 }
+const fortyCables = forty();
+bench.add(`editor recompute (report, no time-stepping): ${fortyCables.cables.length} cables`, () => void buildReport(fortyCables, {}, { burpRun: false }));
+bench.add(`editor deferred burp: ${fortyCables.cables.length} cables`, () => void runBurp(fortyCables, { engineRpm: 1500, demand: 1, conductorTempC: 25, durationS: 10, stepS: 0.01 }));
 const big = synthetic200();
 const bigCheck = solveNetwork(big, { engineRpm: 1500, demand: 1, conductorTempC: 25 });
 bench.add(`one network solve: synthetic ${big.cables.length} cables / ${big.nodes.length} nodes`, () => void solveNetwork(big, { engineRpm: 1500, demand: 1, conductorTempC: 25 }));

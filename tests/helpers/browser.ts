@@ -47,7 +47,7 @@ export async function openBrowser(): Promise<Browser> {
 		problems,
 		screenshot: async (name) => {
 			const file = path.join(SCREENSHOT_DIR, `${name}.png`);
-			await page.screenshot({ path: file, fullPage: true });
+			await page.screenshot({ path: file, fullPage: true, caret: 'initial' });
 			return file;
 		},
 		close: async () => {

@@ -1,0 +1,77 @@
+import { afterAll, describe, expect, inject, it } from 'vitest';
+import { DEMO_PASSWORD, DEMO_TEAM_NAME, DEMO_USERS } from '../../db/seed';
+import { type Browser, openBrowser } from '../helpers/browser';
+
+const appUrl = inject('appUrl');
+
+async function signInAndOpen(b: Browser, email: string, vehicle: string) {
+	await b.page.goto(`${appUrl}/sign-in?callbackUrl=/teams`);
+	await b.page.waitForSelector('astro-island:not([ssr])', { state: 'attached' });
+	await b.page.getByLabel('E-mail').fill(email);
+	await b.page.getByLabel('Password').fill(DEMO_PASSWORD);
+	await b.page.getByRole('button', { name: 'Sign in' }).click();
+	await b.page.waitForURL(`${appUrl}/teams`);
+	await b.page.getByRole('link', { name: new RegExp(DEMO_TEAM_NAME) }).click();
+	await b.page.getByRole('link', { name: vehicle, exact: true }).click();
+	await b.page.waitForSelector('astro-island[component-export="BuildWorkspace"]:not([ssr])', { state: 'attached' });
+	await b.page.getByRole('heading', { name: 'Cables: current, drop and protection' }).waitFor();
+}
+
+const dropOf = async (b: Browser, cableId: string) => Number((await b.page.getByTestId(`drop-${cableId}`).textContent())!.replace(/[^\d.]/g, ''));
+
+describe('editing a build in chromium', () => {
+	const opened: Browser[] = [];
+	afterAll(async () => {
+		for (const b of opened) await b.close();
+	});
+
+	it('member upsizes a cable, sees its drop fall before saving, saves, and the history names the cable', async () => {
+		const b = await openBrowser();
+		opened.push(b);
+		await signInAndOpen(b, DEMO_USERS[1].email, 'Pebble');
+		const before = await dropOf(b, 'run');
+		expect(before).toBeGreaterThan(0.3);
+
+		await b.page.getByLabel('Front-to-rear run: Size').selectOption('awg:1/0');
+		await expect.poll(() => dropOf(b, 'run')).toBeLessThan(before / 2);
+		const after = await dropOf(b, 'run');
+		await b.screenshot('build-editor-after-upsizing');
+
+		await b.page.getByLabel('What changed and why').fill('Front-to-rear run from 4 AWG CCA to 1/0');
+		await b.page.getByRole('button', { name: 'Save revision' }).click();
+		await b.page.getByText(/Saved as revision 4/).waitFor();
+		await expect.poll(() => dropOf(b, 'run')).toBeCloseTo(after, 3);
+
+		await b.page.getByRole('link', { name: 'See the history' }).click();
+		const entry = b.page.locator('[data-revision="4"]');
+		await entry.waitFor();
+		await expect(entry.textContent()).resolves.toMatch(/Front-to-rear run from 4 AWG CCA to 1\/0/);
+		await expect(entry.textContent()).resolves.toMatch(/Cable “Front-to-rear run”: size \(AWG\) 4 → 1\/0/);
+		await b.screenshot('build-history');
+		expect(b.problems).toEqual([]);
+	});
+
+	it('viewer sees no edit controls, and a direct write answers 403', async () => {
+		const b = await openBrowser();
+		opened.push(b);
+		await signInAndOpen(b, DEMO_USERS[2].email, 'Marlin');
+		await expect(b.page.getByRole('button', { name: 'Save revision' }).count()).resolves.toBe(0);
+		await expect(b.page.getByRole('button', { name: '+ Add' }).count()).resolves.toBe(0);
+		await expect(b.page.getByRole('button', { name: /^Remove / }).count()).resolves.toBe(0);
+		await expect(b.page.getByLabel('Front-to-rear run: Cable').getAttribute('readonly')).resolves.not.toBeNull();
+		await expect(b.page.getByLabel('Front-to-rear run: Size').isDisabled()).resolves.toBe(true);
+		await b.screenshot('build-viewer');
+
+		const status = await b.page.evaluate(async () => {
+			const [, , teamId, , vehicleId] = window.location.pathname.split('/');
+			const res = await fetch(`/api/teams/${teamId}/vehicles/${vehicleId}/revisions`, {
+				method: 'POST',
+				headers: { 'content-type': 'application/json' },
+				body: JSON.stringify({ parentId: null, message: 'sneaky', document: {} }),
+			});
+			return res.status;
+		});
+		expect(status).toBe(403);
+		expect(b.problems.filter((p) => !p.includes('403'))).toEqual([]);
+	});
+});
