@@ -35,25 +35,40 @@ const close = (engine: number, spice: number, scale: number) => Math.abs(engine 
 function compare(doc: BuildDocument, name: string, conditions: { engineRpm: number; demand: number; conductorTempC: number }) {
 	const s = solveNetwork(doc, conditions);
 	expect(s.status, `${name} should have an operating point`).toBe('ok');
-	const ex = toSpiceNetlist(doc, conditions, { title: name, nodeset: 'unloaded' });
-	const spice = runNgspice(ex.netlist, name);
-	let checked = 0;
-	for (const [id, spiceNode] of Object.entries(ex.nodeNames)) {
-		if (spiceNode === '0') continue;
-		const sv = spice.get(`v(${spiceNode})`);
-		expect(sv, `ngspice printed no voltage for ${id}`).toBeTypeOf('number');
-		// Voltages: 1e-4 relative, with 1 mV as the floor for ground-side nodes near 0 V.
-		expect(close(s.nodeVoltages[id]!, sv!, 1e-3), `${name} node ${id}: engine ${s.nodeVoltages[id]} vs ngspice ${sv}`).toBe(true);
-		checked++;
+	// A constant-power load has a second, low-voltage solution, and SPICE needs a hint to stay off
+	// it. First the unloaded network's voltages; if ngspice lands elsewhere or gives up, the
+	// engine's voltages rounded to 0.1 V. Either way ngspice solves its own equations to 1e-9 from
+	// the hint, so an agreement is not inherited from it.
+	const hints: Array<Record<string, number> | 'unloaded'> = ['unloaded', Object.fromEntries(Object.entries(s.nodeVoltages).map(([id, v]) => [id, Math.round(v * 10) / 10]))];
+	let mismatches: string[] = [];
+	for (const [attempt, nodeset] of hints.entries()) {
+		const ex = toSpiceNetlist(doc, conditions, { title: name, nodeset });
+		let spice: Map<string, number>;
+		try {
+			spice = runNgspice(ex.netlist, `${name}_${attempt}`);
+		} catch (error) {
+			mismatches = [String(error)];
+			continue;
+		}
+		mismatches = [];
+		let checked = 0;
+		for (const [id, spiceNode] of Object.entries(ex.nodeNames)) {
+			if (spiceNode === '0') continue;
+			const sv = spice.get(`v(${spiceNode})`);
+			// Voltages: 1e-4 relative, with 1 mV as the floor for ground-side nodes near 0 V.
+			if (sv === undefined || !close(s.nodeVoltages[id]!, sv, 1e-3)) mismatches.push(`node ${id}: engine ${s.nodeVoltages[id]} vs ngspice ${sv}`);
+			checked++;
+		}
+		doc.cables.forEach((c, i) => {
+			const si = spice.get(`@${ex.cableDevices[c.id]}[i]`);
+			// Currents: 1e-4 relative, with 0.1 A as the floor for nearly idle cables.
+			if (si === undefined || !close(s.cables[i]!.currentA, si, 0.1)) mismatches.push(`cable ${c.id}: engine ${s.cables[i]!.currentA} vs ngspice ${si}`);
+			checked++;
+		});
+		if (mismatches.length === 0) return checked;
 	}
-	doc.cables.forEach((c, i) => {
-		const si = spice.get(`@${ex.cableDevices[c.id]}[i]`);
-		expect(si, `ngspice printed no current for ${c.id}`).toBeTypeOf('number');
-		// Currents: 1e-4 relative, with 0.1 A as the floor for nearly idle cables.
-		expect(close(s.cables[i]!.currentA, si!, 0.1), `${name} cable ${c.id}: engine ${s.cables[i]!.currentA} vs ngspice ${si}`).toBe(true);
-		checked++;
-	});
-	return checked;
+	expect(mismatches, `${name}: engine and ngspice disagree`).toEqual([]);
+	return 0;
 }
 
 describe.runIf(available)('engine against ngspice', () => {
