@@ -8,7 +8,7 @@
  * CLI: `tsx db/cluster.ts start|stop|status [--dir .data/pg] [--port 54329]`
  */
 import { execFileSync, spawnSync } from 'node:child_process';
-import { chownSync, existsSync, mkdirSync, readdirSync } from 'node:fs';
+import { chownSync, existsSync, mkdirSync, readdirSync, readFileSync } from 'node:fs';
 import path from 'node:path';
 import { fileURLToPath } from 'node:url';
 import pg from 'pg';
@@ -130,11 +130,19 @@ export async function ensureCluster(opts: ClusterOptions): Promise<Cluster> {
 		prepareDir(p.abs);
 		mkdirSync(p.run, { recursive: true });
 		if (isRoot) execFileSync('chown', ['postgres:postgres', p.run]);
-		run(path.join(bin, 'pg_ctl'), [
-			'-D', p.data, '-l', p.log, '-w', '-t', '30',
-			'-o', `-p ${opts.port} -k ${p.run} -c listen_addresses=127.0.0.1 -c fsync=off`,
-			'start',
-		]);
+		try {
+			run(path.join(bin, 'pg_ctl'), [
+				'-D', p.data, '-l', p.log, '-w', '-t', '30',
+				'-o', `-p ${opts.port} -k ${p.run} -c listen_addresses=127.0.0.1 -c fsync=off`,
+				'start',
+			]);
+		} catch (error) {
+			const log = existsSync(p.log) ? readFileSync(p.log, 'utf8') : '';
+			if (/Address already in use/.test(log.slice(-2000))) {
+				throw new ClusterError(`Port ${opts.port} on 127.0.0.1 is taken by another server: stop it, or choose another port (SAGWISE_PG_PORT for npm start, SAGWISE_TEST_PG_PORT for the tests).`);
+			}
+			throw error;
+		}
 		started = true;
 	}
 	await waitForConnections(url());
