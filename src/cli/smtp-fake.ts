@@ -8,15 +8,7 @@ import path from 'node:path';
 import { simpleParser } from 'mailparser';
 import { SMTPServer } from 'smtp-server';
 
-export interface StoredMail {
-	id: string;
-	from: string;
-	to: string[];
-	subject: string;
-	text: string;
-	html: string;
-	receivedAt: string;
-}
+import type { OutboxMail as StoredMail } from '../lib/server/dev-outbox';
 
 export interface SmtpFake {
 	port: number;

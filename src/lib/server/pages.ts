@@ -1,6 +1,8 @@
 import type { AstroGlobal } from 'astro';
 import type { Role } from '../../../db/schema';
+import { parseUuid } from '../schemas/ids';
 import { type TeamAccess, requireTeamRole } from './authz';
+import { findBuildForVehicle, findVehicle } from './db/builds';
 
 /**
  * The page-side twin of requireTeamRole: anonymous → sign-in, not a member → 404 page,
@@ -15,4 +17,15 @@ export async function teamPageAccess(astro: AstroGlobal, min: Role = 'viewer'): 
 		return astro.rewrite('/403');
 	}
 	return astro.rewrite('/404');
+}
+
+/** teamPageAccess, then the vehicle of the URL inside that team (and its build), or the 404 page. */
+export async function vehiclePageAccess(astro: AstroGlobal, min: Role = 'viewer') {
+	const access = await teamPageAccess(astro, min);
+	if (access instanceof Response) return access;
+	const vehicleId = parseUuid(astro.params.vehicleId);
+	const vehicle = vehicleId ? await findVehicle(astro.locals.db, access.teamId, vehicleId) : undefined;
+	const build = vehicle ? await findBuildForVehicle(astro.locals.db, vehicle.id) : undefined;
+	if (!vehicle || !build) return astro.rewrite('/404');
+	return { access, vehicle, build };
 }

@@ -1,7 +1,7 @@
 import type { Role } from '../../../db/schema';
 import { parseUuid } from '../schemas/ids';
 import { type TeamAccess, requireTeamRole } from './authz';
-import { findBuildForVehicle, findVehicle } from './db/builds';
+import { findBuildForVehicle, findRevision, findVehicle } from './db/builds';
 import { problem } from './http';
 
 export interface VehicleAccess {
@@ -23,4 +23,14 @@ export async function requireVehicle(
 	const build = vehicle ? await findBuildForVehicle(locals.db, vehicle.id) : undefined;
 	if (!vehicle || !build) return { ok: false, response: problem(404, 'not_found', 'No such vehicle') };
 	return { ok: true, value: { access: auth.access, vehicle, build } };
+}
+
+/** requireVehicle, then the revision named in the URL, parsing the scenario query when asked. */
+export async function requireRevision(locals: Pick<App.Locals, 'db' | 'user'>, params: Record<string, string | undefined>, min: Role) {
+	const found = await requireVehicle(locals, params, min);
+	if (!found.ok) return found;
+	const id = parseUuid(params.revisionId);
+	const revision = id && (await findRevision(locals.db, found.value.build.id, id));
+	if (!revision) return { ok: false as const, response: problem(404, 'not_found', 'No such revision') };
+	return { ok: true as const, value: { ...found.value, revision } };
 }

@@ -1,18 +1,14 @@
 import type { APIRoute } from 'astro';
 import { buildReport } from '@/engine/report';
-import { parseUuid } from '@/lib/schemas/ids';
 import { scenarioQuerySchema } from '@/lib/schemas/vehicles';
-import { findRevision } from '@/lib/server/db/builds';
 import { problem, toFieldErrors } from '@/lib/server/http';
-import { requireVehicle } from '@/lib/server/vehicle-access';
+import { requireRevision } from '@/lib/server/vehicle-access';
 
 /** The power-budget report of a saved revision, computed on the server by the shared engine. */
 export const GET: APIRoute = async ({ params, locals, url }) => {
-	const found = await requireVehicle(locals, params, 'viewer');
+	const found = await requireRevision(locals, params, 'viewer');
 	if (!found.ok) return found.response;
-	const id = parseUuid(params.revisionId);
-	const revision = id && (await findRevision(locals.db, found.value.build.id, id));
-	if (!revision) return problem(404, 'not_found', 'No such revision');
+	const { revision } = found.value;
 	const scenario = scenarioQuerySchema.safeParse(Object.fromEntries(url.searchParams));
 	if (!scenario.success) return problem(400, 'invalid_input', 'Some scenario settings need attention', toFieldErrors(scenario.error));
 	const clean = Object.fromEntries(Object.entries(scenario.data).filter(([, v]) => v !== undefined));

@@ -1,19 +1,15 @@
 import type { APIRoute } from 'astro';
 import { DEFAULT_SCENARIO } from '@/engine/report';
 import { toSpiceNetlist } from '@/engine/spice';
-import { parseUuid } from '@/lib/schemas/ids';
 import { scenarioQuerySchema } from '@/lib/schemas/vehicles';
-import { findRevision } from '@/lib/server/db/builds';
 import { problem, toFieldErrors } from '@/lib/server/http';
-import { requireVehicle } from '@/lib/server/vehicle-access';
+import { requireRevision } from '@/lib/server/vehicle-access';
 
 /** The revision as a SPICE netlist (DC operating point at burp demand), for any circuit simulator. */
 export const GET: APIRoute = async ({ params, locals, url }) => {
-	const found = await requireVehicle(locals, params, 'viewer');
+	const found = await requireRevision(locals, params, 'viewer');
 	if (!found.ok) return found.response;
-	const id = parseUuid(params.revisionId);
-	const revision = id && (await findRevision(locals.db, found.value.build.id, id));
-	if (!revision) return problem(404, 'not_found', 'No such revision');
+	const { revision } = found.value;
 	const q = scenarioQuerySchema.safeParse(Object.fromEntries(url.searchParams));
 	if (!q.success) return problem(400, 'invalid_input', 'Some scenario settings need attention', toFieldErrors(q.error));
 	const conditions = {
