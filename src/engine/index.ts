@@ -13,3 +13,4 @@ export * from './report';
 export * from './spice';
 export * from './units';
 export * from './diff';
+export * from './hints';

@@ -4,6 +4,7 @@ import { useDeferredValue, useEffect, useMemo, useState } from 'react';
 import { diffBuilds } from '@/engine/diff';
 import { buildReport, DEFAULT_SCENARIO, type ReportWarning } from '@/engine/report';
 import { runBurp } from '@/engine/burp';
+import { upgradeHints } from '@/engine/hints';
 import type { BuildDocument, Scenario } from '@/engine/types';
 import { buildDocumentSchema } from '@/lib/schemas/build-document';
 import { checkTopology } from '@/engine/topology';
@@ -92,6 +93,10 @@ export function BuildWorkspaceView({ teamId, vehicleId, vehicleName, canEdit, he
 		return runBurp(deferredDraft, { engineRpm: scenario.engineRpm, demand: scenario.burpDemand, conductorTempC: scenario.conductorTempC, durationS: scenario.burpSeconds, stepS: scenario.burpStepS });
 	}, [deferredDraft, scenario]);
 	const changes = useMemo(() => (head ? diffBuilds(head.document, draft) : []), [head, draft]);
+	const hints = useMemo(() => {
+		if (Object.keys(validate(deferredDraft)).length) return null;
+		return upgradeHints(deferredDraft, { engineRpm: scenario.engineRpm, demand: scenario.burpDemand, conductorTempC: scenario.conductorTempC }).slice(0, 5);
+	}, [deferredDraft, scenario]);
 
 	const ok = report && report.ok ? report : null;
 	const warningsFor = (kind: string, id: string) => (ok ? ok.warnings.filter((w) => w.element.kind === kind && w.element.id === id) : []);
@@ -406,6 +411,34 @@ export function BuildWorkspaceView({ teamId, vehicleId, vehicleName, canEdit, he
 							<p role="status" className="text-sm text-ink-soft">Computing the burp…</p>
 						)}
 					</div>
+				</section>
+			)}
+
+			{ok && (
+				<section aria-labelledby="hints-heading">
+					<h2 id="hints-heading" className="text-xl font-bold">Where the volts go: single upgrades ranked</h2>
+					<p className="text-sm text-ink-soft">Each line is one change, solved on its own, ranked by the voltage it gives back at the weakest amplifier under the burp.</p>
+					{hints === null ? (
+						<p role="status" className="mt-2 text-sm text-ink-soft">Ranking upgrades…</p>
+					) : hints.length === 0 ? (
+						<p className="mt-2 text-sm text-ink-soft">No amplifier to rank upgrades for.</p>
+					) : (
+						<ol className="mt-3 divide-y divide-hairline rounded-md border border-hairline bg-card text-sm">
+							{hints.map((h, i) => (
+								<li key={`${h.kind}-${h.targetId}`} className="flex flex-wrap items-center gap-3 px-4 py-2">
+									<span className="num w-6 text-ink-soft">{i + 1}.</span>
+									<span className="flex-1">{h.description}</span>
+									<span className={`num font-semibold ${h.gainV > 0.005 ? 'text-teal' : 'text-ink-soft'}`}>
+										{h.gainV >= 0 ? '+' : ''}
+										{fmt(h.gainV, 3)} <Unit>V</Unit>
+									</span>
+									<span className="num text-ink-soft">
+										→ {fmt(h.afterV)} <Unit>V</Unit>
+									</span>
+								</li>
+							))}
+						</ol>
+					)}
 				</section>
 			)}
 
