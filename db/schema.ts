@@ -127,7 +127,60 @@ export interface SignInAttemptTable {
 	created_at: DefaultTimestamp;
 }
 
+export interface EventTable {
+	id: Generated<string>;
+	team_id: string;
+	name: string;
+	/** Dates as yyyy-MM-dd strings (no time zone). */
+	starts_on: ColumnType<string, string, string>;
+	ends_on: ColumnType<string, string, string>;
+	place: Generated<string>;
+	format: Generated<string>;
+	notes: Generated<string>;
+	created_at: DefaultTimestamp;
+}
+
+export interface RunTable {
+	id: Generated<string>;
+	vehicle_id: string;
+	event_id: string | null;
+	revision_id: string | null;
+	ran_at: Timestamp;
+	score_db: number | null;
+	frequency_hz: number | null;
+	resting_v: number | null;
+	min_v: number | null;
+	ambient_c: number | null;
+	notes: Generated<string>;
+	author_id: string | null;
+	created_at: DefaultTimestamp;
+}
+
+export interface StoredFileTable {
+	id: Generated<string>;
+	team_id: string;
+	run_id: string | null;
+	kind: 'logger' | 'photo' | 'thumbnail';
+	object_key: string;
+	file_name: string;
+	content_type: string;
+	size_bytes: number;
+	created_at: DefaultTimestamp;
+}
+
+export interface RunSampleTable {
+	run_id: string;
+	seq: number;
+	t_s: number;
+	volts: number;
+	amps: number;
+}
+
 export interface Database {
+	event: EventTable;
+	run: RunTable;
+	stored_file: StoredFileTable;
+	run_sample: RunSampleTable;
 	team: TeamTable;
 	vehicle: VehicleTable;
 	build: BuildTable;

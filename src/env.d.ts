@@ -6,5 +6,6 @@ declare namespace App {
 		user: import('./lib/server/auth').AppUser | null;
 		mailer: import('./lib/server/mail').Mailer;
 		config: import('./lib/server/config').ServerConfig;
+		storage: import('./lib/server/storage').Storage;
 	}
 }

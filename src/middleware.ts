@@ -4,12 +4,13 @@ import { toAppUser } from '@/lib/server/auth';
 import { db } from '@/lib/server/db/index';
 import { problem } from '@/lib/server/http';
 import { recordSignInAttempt, signInLimited } from '@/lib/server/rate-limit';
-import { config, mailer } from '@/lib/server/services';
+import { config, mailer, storage } from '@/lib/server/services';
 
 const attachServices = defineMiddleware((context, next) => {
 	context.locals.db = db;
 	context.locals.mailer = mailer;
 	context.locals.config = config;
+	context.locals.storage = storage;
 	context.locals.user = null;
 	return next();
 });

@@ -2,6 +2,7 @@ import type { Migration } from 'kysely';
 import * as createTeamAndVehicle from './2026_12_01_120000_create_team_and_vehicle';
 import * as createAccounts from './2026_12_01_130000_create_accounts_and_memberships';
 import * as createBuilds from './2026_12_01_140000_create_builds_and_revisions';
+import * as createEvents from './2026_12_01_150000_create_events_and_runs';
 
 /**
  * Every migration, by name, in the order they apply. Listed explicitly (rather than read from the
@@ -12,4 +13,5 @@ export const migrations: Record<string, Migration> = {
 	'2026_12_01_120000_create_team_and_vehicle': createTeamAndVehicle,
 	'2026_12_01_130000_create_accounts_and_memberships': createAccounts,
 	'2026_12_01_140000_create_builds_and_revisions': createBuilds,
+	'2026_12_01_150000_create_events_and_runs': createEvents,
 };

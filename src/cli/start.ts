@@ -9,6 +9,7 @@ import { DEFAULT_CLUSTER, ensureCluster, stopCluster, ClusterError } from '../..
 import { migrateToLatest } from '../../db/migrator';
 import { DEMO_PASSWORD, DEMO_USERS, seedIfEmpty } from '../../db/seed';
 import { startSmtpFake } from './smtp-fake';
+import { startS3Fake } from './s3-fake';
 import { buildIsStale } from './build-state';
 import { loadOrCreateSecrets } from './secrets';
 
@@ -51,6 +52,14 @@ async function main() {
 		log(`SMTP fake on 127.0.0.1:${fake.port}: mail lands in ${fake.dir}, shown at ${publicUrl}/dev/outbox`);
 	}
 
+	let s3Endpoint = process.env.S3_ENDPOINT;
+	if (s3Endpoint === undefined) {
+		const s3 = await startS3Fake({ port: Number(process.env.SAGWISE_S3_PORT ?? 4569), dir: '.data/s3', bucket: process.env.S3_BUCKET ?? 'sagwise-files' });
+		cleanups.push(() => s3.close());
+		s3Endpoint = s3.endpoint;
+		log(`S3 fake on ${s3.endpoint}: files in .data/s3`);
+	}
+
 	if (buildIsStale()) {
 		log('building the app (first run or sources changed)…');
 		const build = spawnSync('npx', ['astro', 'build'], { stdio: 'inherit' });
@@ -66,6 +75,7 @@ async function main() {
 		AUTH_TRUST_HOST: process.env.AUTH_TRUST_HOST ?? 'true',
 		PUBLIC_URL: publicUrl,
 		SMTP_URL: smtpUrl,
+		S3_ENDPOINT: s3Endpoint,
 		...(devOutbox ? { SAGWISE_DEV_OUTBOX: devOutbox } : {}),
 	};
 	const server = spawn(process.execPath, ['dist/server/entry.mjs'], { env, stdio: ['ignore', 'inherit', 'inherit'] });

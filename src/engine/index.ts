@@ -14,3 +14,4 @@ export * from './spice';
 export * from './units';
 export * from './diff';
 export * from './hints';
+export * from './run-analysis';

@@ -26,6 +26,8 @@ interface World {
 	invitationToken: string;
 	vehicleId: string;
 	revisionId: string;
+	eventId: string;
+	runId: string;
 }
 
 interface Case {
@@ -33,6 +35,8 @@ interface Case {
 	params: (w: World) => Record<string, string>;
 	body?: (w: World) => unknown;
 	query?: (w: World) => string;
+	/** A request of its own (multipart uploads); otherwise JSON from `body`. */
+	request?: (w: World) => Request;
 	expect: Expect;
 }
 
@@ -83,6 +87,37 @@ const MATRIX: Record<string, Case[]> = {
 	'teams/[teamId]/vehicles/[vehicleId]/revisions/[revisionId]/report.ts': [{ method: 'GET', params: revisionScoped, expect: read }],
 	'teams/[teamId]/vehicles/[vehicleId]/revisions/[revisionId]/spice.ts': [{ method: 'GET', params: revisionScoped, expect: read }],
 	'teams/[teamId]/vehicles/[vehicleId]/revisions/[revisionId]/restore.ts': [{ method: 'POST', params: revisionScoped, body: (w) => ({ parentId: w.revisionId }), expect: memberWrite(201) }],
+	'teams/[teamId]/events/index.ts': [
+		{ method: 'GET', params: teamScoped, expect: read },
+		{ method: 'POST', params: teamScoped, body: () => ({ name: 'Meet', startsOn: '2026-05-01', endsOn: '2026-05-01' }), expect: memberWrite(201) },
+	],
+	'teams/[teamId]/events/[eventId].ts': [
+		{ method: 'PATCH', params: (w) => ({ teamId: w.teamId, eventId: w.eventId }), body: () => ({ place: 'Somewhere' }), expect: memberWrite(204) },
+		{ method: 'DELETE', params: (w) => ({ teamId: w.teamId, eventId: w.eventId }), expect: captainOnly(204) },
+	],
+	'teams/[teamId]/runs/index.ts': [
+		{ method: 'GET', params: teamScoped, expect: read },
+		{ method: 'POST', params: teamScoped, body: (w) => ({ vehicleId: w.vehicleId, ranAt: new Date().toISOString(), scoreDb: 140 }), expect: memberWrite(201) },
+	],
+	'teams/[teamId]/runs/export.csv.ts': [{ method: 'GET', params: teamScoped, expect: read }],
+	'teams/[teamId]/runs/[runId]/index.ts': [
+		{ method: 'GET', params: (w) => ({ teamId: w.teamId, runId: w.runId }), expect: read },
+		{ method: 'PATCH', params: (w) => ({ teamId: w.teamId, runId: w.runId }), body: () => ({ notes: 'Windy' }), expect: memberWrite(200) },
+		{ method: 'DELETE', params: (w) => ({ teamId: w.teamId, runId: w.runId }), expect: memberWrite(204) },
+	],
+	'teams/[teamId]/runs/[runId]/logger.ts': [
+		{
+			method: 'POST',
+			params: (w) => ({ teamId: w.teamId, runId: w.runId }),
+			request: () => {
+				const form = new FormData();
+				form.set('file', new Blob(['time,volts,amps\n0,12.6,0\n1,12.4,100\n']), 'log.csv');
+				for (const [k, v] of Object.entries({ timeColumn: 'time', voltsColumn: 'volts', ampsColumn: 'amps' })) form.set(k, v);
+				return new Request('http://localhost/x', { method: 'POST', body: form });
+			},
+			expect: memberWrite(201),
+		},
+	],
 	// Token-based: signed-in people whose address is not the invited one are refused.
 	'invitations/[token]/accept.ts': [
 		{ method: 'POST', params: (w) => ({ token: w.invitationToken }), expect: { anonymous: 401, viewer: 403, member: 403, captain: 403, outsider: 403 } },
@@ -129,7 +164,9 @@ describe('authorization matrix', () => {
 		const { vehicle, buildId } = await insertVehicleWithBuild(t.db, { teamId, name: 'Matrix car', description: '', competitionClass: '', notes: '', ownerId: null });
 		const saved = await appendRevision(t.db, { buildId, parentId: null, document: pebbleBuild, message: 'Seed', authorId: users.member.id });
 		if (!saved.ok) throw new Error('seed revision');
-		return { teamId, teamName, users, targetId: target.id, invitationId: inv.id, invitationToken, vehicleId: vehicle.id, revisionId: saved.revision.id };
+		const ev = await t.db.insertInto('event').values({ team_id: teamId, name: 'Matrix meet', starts_on: '2026-06-01', ends_on: '2026-06-01' }).returning('id').executeTakeFirstOrThrow();
+		const run = await t.db.insertInto('run').values({ vehicle_id: vehicle.id, event_id: ev.id, revision_id: saved.revision.id, ran_at: new Date() }).returning('id').executeTakeFirstOrThrow();
+		return { teamId, teamName, users, targetId: target.id, invitationId: inv.id, invitationToken, vehicleId: vehicle.id, revisionId: saved.revision.id, eventId: ev.id, runId: run.id };
 	}
 
 	it('has an entry for every route file and every exported method', () => {
@@ -152,7 +189,7 @@ describe('authorization matrix', () => {
 		const res = await callEndpoint(moduleFor(file), {
 			locals: localsFor(t.db, user),
 			params: c.params(w),
-			request: jsonRequest(`/x${c.query?.(w) ?? ''}`, method, c.body?.(w) ?? (method === 'GET' ? undefined : {})),
+			request: c.request?.(w) ?? jsonRequest(`/x${c.query?.(w) ?? ''}`, method, c.body?.(w) ?? (method === 'GET' ? undefined : {})),
 		});
 		expect(res.status).toBe(c.expect[caller]);
 		if (res.status >= 400) expect(res.headers.get('content-type')).toBe('application/problem+json');

@@ -6,6 +6,7 @@ import { ensureCluster } from '../../db/cluster';
 import { seedDemo } from '../../db/seed';
 import { buildIsStale } from '../../src/cli/build-state';
 import { startSmtpFake } from '../../src/cli/smtp-fake';
+import { startS3Fake } from '../../src/cli/s3-fake';
 import { createDb } from '../../src/lib/server/db/client';
 import { CHROMIUM_PATH } from './browser';
 import { TEST_CLUSTER } from './pg-global-setup';
@@ -38,6 +39,7 @@ export default async function setup(project: TestProject) {
 
 	const appUrl = `http://127.0.0.1:${PORT}`;
 	const smtp = await startSmtpFake({ port: 0, dir: `.data/test-outbox/${name}` });
+	const s3 = await startS3Fake({ port: 0, dir: `.data/test-s3/${name}`, bucket: 'sagwise-files' });
 	const server: ChildProcess = spawn(process.execPath, ['dist/server/entry.mjs'], {
 		env: {
 			...process.env,
@@ -49,6 +51,8 @@ export default async function setup(project: TestProject) {
 			PUBLIC_URL: appUrl,
 			SMTP_URL: `smtp://127.0.0.1:${smtp.port}`,
 			SAGWISE_DEV_OUTBOX: smtp.dir,
+			S3_ENDPOINT: s3.endpoint,
+			S3_BUCKET: 'sagwise-files',
 		},
 		stdio: ['ignore', 'ignore', 'inherit'],
 	});
@@ -69,6 +73,7 @@ export default async function setup(project: TestProject) {
 		server.kill('SIGTERM');
 		await new Promise((r) => server.once('exit', r));
 		await smtp.close();
+		await s3.close();
 		await sql`drop database if exists ${sql.id(name)} with (force)`.execute(admin);
 		await admin.destroy();
 	};

@@ -4,9 +4,16 @@ import type { Database, Role } from '../../db/schema';
 import type { AppUser } from '../../src/lib/server/auth';
 import type { ServerConfig } from '../../src/lib/server/config';
 import type { Mailer } from '../../src/lib/server/mail';
+import type { Storage } from '../../src/lib/server/storage';
 import { hashPassword } from '../../src/lib/server/passwords';
 
-export const TEST_CONFIG: ServerConfig = { publicUrl: 'http://app.test', smtpUrl: 'smtp://unused', mailFrom: 'tests@sagwise.test', devOutboxDir: null };
+export const TEST_CONFIG: ServerConfig = {
+	publicUrl: 'http://app.test',
+	smtpUrl: 'smtp://unused',
+	mailFrom: 'tests@sagwise.test',
+	devOutboxDir: null,
+	s3: { endpoint: null, region: 'us-east-1', bucket: 'unused', accessKeyId: 'x', secretAccessKey: 'x', forcePathStyle: true },
+};
 
 export const nullMailer: Mailer = { send: async () => {} };
 
@@ -29,6 +36,17 @@ export async function addMember(db: Kysely<Database>, teamId: string, user: AppU
 	await db.insertInto('membership').values({ team_id: teamId, user_id: user.id, role }).execute();
 }
 
-export function localsFor(db: Kysely<Database>, user: AppUser | null, mailer: Mailer = nullMailer): App.Locals {
-	return { db, user, mailer, config: TEST_CONFIG };
+/** Files kept in memory, for routes whose tests do not look at storage. */
+export function memoryStorage(): Storage & { objects: Map<string, Uint8Array> } {
+	const objects = new Map<string, Uint8Array>();
+	return {
+		objects,
+		put: async (key, body) => void objects.set(key, body),
+		get: async (key) => objects.get(key) ?? null,
+		remove: async (key) => void objects.delete(key),
+	};
+}
+
+export function localsFor(db: Kysely<Database>, user: AppUser | null, mailer: Mailer = nullMailer, storage: Storage = memoryStorage()): App.Locals {
+	return { db, user, mailer, config: TEST_CONFIG, storage };
 }

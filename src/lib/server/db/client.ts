@@ -4,6 +4,8 @@ import type { Database } from '../../../../db/schema';
 
 // bigint counts come back as numbers; double precision is already a number, timestamps a Date.
 pg.types.setTypeParser(pg.types.builtins.INT8, (value) => Number(value));
+// Calendar dates stay yyyy-MM-dd strings: a Date would shift them by the server's time zone.
+pg.types.setTypeParser(pg.types.builtins.DATE, (value) => value);
 
 export function createDb(connectionString: string, max = 10): Kysely<Database> {
 	const pool = new pg.Pool({ connectionString, max, connectionTimeoutMillis: 3000 });

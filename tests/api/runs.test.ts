@@ -1,0 +1,142 @@
+import { mkdtempSync } from 'node:fs';
+import { tmpdir } from 'node:os';
+import path from 'node:path';
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { pebbleBuild } from '../../db/demo/builds';
+import { type S3Fake, startS3Fake } from '../../src/cli/s3-fake';
+import * as events from '../../src/pages/api/teams/[teamId]/events/index';
+import * as exportCsv from '../../src/pages/api/teams/[teamId]/runs/export.csv';
+import * as runs from '../../src/pages/api/teams/[teamId]/runs/index';
+import * as run from '../../src/pages/api/teams/[teamId]/runs/[runId]/index';
+import * as logger from '../../src/pages/api/teams/[teamId]/runs/[runId]/logger';
+import type { AppUser } from '../../src/lib/server/auth';
+import { appendRevision, insertVehicleWithBuild } from '../../src/lib/server/db/builds';
+import { createS3Storage, type Storage } from '../../src/lib/server/storage';
+import { HAND_CSV } from '../helpers/logger-fixtures';
+import { callEndpoint, jsonRequest } from '../helpers/container';
+import { addMember, localsFor, makeTeam, makeUser, nullMailer } from '../helpers/fixtures';
+import { createTestDb, type TestDb } from '../helpers/test-db';
+
+describe('events, runs and logger uploads (PostgreSQL + the S3 fake)', () => {
+	let t: TestDb;
+	let s3: S3Fake;
+	let storage: Storage;
+	let teamId: string;
+	let member: AppUser;
+	let vehicleId: string;
+	let firstRevision: string;
+	let secondRevision: string;
+	beforeAll(async () => {
+		t = await createTestDb();
+		s3 = await startS3Fake({ port: 0, dir: mkdtempSync(path.join(tmpdir(), 'sagwise-s3-')), bucket: 'test-files' });
+		storage = createS3Storage({ endpoint: s3.endpoint, region: 'us-east-1', bucket: 'test-files', accessKeyId: 'S3RVER', secretAccessKey: 'S3RVER', forcePathStyle: true });
+		teamId = await makeTeam(t.db, 'Run Team');
+		member = await makeUser(t.db);
+		await addMember(t.db, teamId, member, 'member');
+		const v = await insertVehicleWithBuild(t.db, { teamId, name: 'Logger car', description: '', competitionClass: '', notes: '', ownerId: null });
+		vehicleId = v.vehicle.id;
+		const r1 = await appendRevision(t.db, { buildId: v.buildId, parentId: null, document: pebbleBuild, message: 'One', authorId: member.id });
+		if (!r1.ok) throw new Error('r1');
+		firstRevision = r1.revision.id;
+		await new Promise((r) => setTimeout(r, 20));
+		const r2 = await appendRevision(t.db, { buildId: v.buildId, parentId: r1.revision.id, document: pebbleBuild, message: 'Two', authorId: member.id });
+		if (!r2.ok) throw new Error('r2');
+		secondRevision = r2.revision.id;
+	});
+	afterAll(async () => {
+		await s3?.close();
+		await t?.drop();
+	});
+
+	const locals = () => localsFor(t.db, member, nullMailer, storage);
+	const call = (module: Parameters<typeof callEndpoint>[0], method: string, params: Record<string, string>, body?: unknown, query = '') =>
+		callEndpoint(module, { locals: locals(), params: { teamId, ...params }, request: jsonRequest(`/x${query}`, method, body) });
+	const upload = (runId: string, file: Blob | null, name: string, mapping: Record<string, string> = { timeColumn: 'time', voltsColumn: 'volts', ampsColumn: 'amps', timeUnit: 's' }) => {
+		const form = new FormData();
+		if (file) form.set('file', file, name);
+		for (const [k, v] of Object.entries(mapping)) form.set(k, v);
+		return callEndpoint(logger, { locals: locals(), params: { teamId, runId }, request: new Request('http://localhost/x', { method: 'POST', body: form }) });
+	};
+	const newRun = async (ranAt: string) => (await (await call(runs, 'POST', {}, { vehicleId, ranAt, scoreDb: 142.3, restingV: 12.8, minV: 11.9 })).json()) as { id: string; revisionId: string };
+	const storedKeys = async (runId: string) => (await t.db.selectFrom('stored_file').select('object_key').where('run_id', '=', runId).execute()).map((r) => r.object_key);
+	const sampleCount = async (runId: string) => Number((await t.db.selectFrom('run_sample').select((eb) => eb.fn.countAll().as('n')).where('run_id', '=', runId).executeTakeFirstOrThrow()).n);
+
+	it('links a run to the revision in force at its time, and to an event of the team', async () => {
+		const ev = await (await call(events, 'POST', {}, { name: 'Spring meet', startsOn: '2026-04-11', endsOn: '2026-04-12' })).json();
+		const early = await (await call(runs, 'POST', {}, { vehicleId, eventId: ev.id, ranAt: new Date(Date.now() - 86_400_000).toISOString() })).json();
+		expect(early.revisionId).toBeNull(); // before the first revision existed
+		const now = await newRun(new Date().toISOString());
+		expect(now.revisionId).toBe(secondRevision);
+		const chosen = await (await call(runs, 'POST', {}, { vehicleId, ranAt: new Date().toISOString(), revisionId: firstRevision })).json();
+		expect(chosen.revisionId).toBe(firstRevision);
+		const bad = await call(runs, 'POST', {}, { vehicleId, ranAt: new Date().toISOString(), eventId: '00000000-0000-4000-8000-000000000000' });
+		expect(bad.status).toBe(400);
+		expect((await bad.json()).errors[0].path).toBe('eventId');
+	});
+
+	it('stores an uploaded logger file in S3, its samples in PostgreSQL, and analyses it like the hand computation', async () => {
+		const r = await newRun(new Date().toISOString());
+		const res = await upload(r.id, new Blob([HAND_CSV], { type: 'text/csv' }), 'burp.csv');
+		expect(res.status).toBe(201);
+		const body = await res.json();
+		expect(body.samples).toBe(4);
+		expect(body.analysis.energyWh).toBeCloseTo(4300 / 3600, 9);
+		expect(body.analysis.effective.resistanceOhm).toBeCloseTo(0.002, 9);
+		const [key] = await storedKeys(r.id);
+		expect(new TextDecoder().decode((await storage.get(key!))!)).toBe(HAND_CSV);
+		expect(await sampleCount(r.id)).toBe(4);
+		const got = await (await call(run, 'GET', { runId: r.id })).json();
+		expect(got.samples[2]).toEqual({ tS: 2, volts: 12.2, amps: 200 });
+		expect(got.analysis.minVolts).toBe(12.2);
+	});
+
+	it.each([
+		['a missing column', 'time,volts\n0,12\n1,12\n', /current column "amps"/],
+		['text in a number column', 'time,volts,amps\n0,12.6,0\n1,abc,3\n', /Row 3/],
+		['an empty file', '', /empty/],
+	])('refuses %s with a clear message and stores nothing', async (_what, csv, message) => {
+		const r = await newRun(new Date().toISOString());
+		const res = await upload(r.id, new Blob([csv], { type: 'text/csv' }), 'bad.csv');
+		expect(res.status).toBe(400);
+		expect((await res.json()).detail).toMatch(message);
+		expect(await storedKeys(r.id)).toEqual([]);
+		expect(await sampleCount(r.id)).toBe(0);
+	});
+
+	it('refuses a 50 MB file with 413 and stores nothing', async () => {
+		const r = await newRun(new Date().toISOString());
+		const big = new Blob([`time,volts,amps\n${'0,12.0,100\n'.repeat(5_000_000)}`]);
+		expect(big.size).toBeGreaterThan(50_000_000);
+		const res = await upload(r.id, big, 'huge.csv');
+		expect(res.status).toBe(413);
+		expect(await storedKeys(r.id)).toEqual([]);
+	});
+
+	it('refuses a photo renamed to .csv (checked by content, not name)', async () => {
+		const r = await newRun(new Date().toISOString());
+		const png = new Uint8Array([0x89, 0x50, 0x4e, 0x47, 0x0d, 0x0a, 0x1a, 0x0a, 0, 0, 0, 13, 73, 72, 68, 82]);
+		const res = await upload(r.id, new Blob([png]), 'photo.csv');
+		expect(res.status).toBe(400);
+		expect((await res.json()).detail).toMatch(/not a CSV/);
+		expect(await storedKeys(r.id)).toEqual([]);
+	});
+
+	it('exports runs as CSV, neutralising spreadsheet formulas in notes', async () => {
+		await call(runs, 'POST', {}, { vehicleId, ranAt: new Date().toISOString(), scoreDb: 150.1, notes: '=HYPERLINK("x")' });
+		const res = await call(exportCsv, 'GET', {}, undefined, `?vehicleId=${vehicleId}`);
+		expect(res.headers.get('content-type')).toMatch(/text\/csv/);
+		const text = await res.text();
+		expect(text.split(/\r?\n/)[0]).toBe('ran_at,vehicle,event,revision,score_db,frequency_hz,resting_v,min_v,ambient_c,notes');
+		expect(text).toContain('150.1');
+		expect(text).not.toMatch(/,=HYPERLINK/);
+	});
+
+	it('deletes a run with its samples and stored file', async () => {
+		const r = await newRun(new Date().toISOString());
+		await upload(r.id, new Blob([HAND_CSV]), 'burp.csv');
+		const [key] = await storedKeys(r.id);
+		expect((await call(run, 'DELETE', { runId: r.id })).status).toBe(204);
+		expect(await sampleCount(r.id)).toBe(0);
+		expect(await storage.get(key!)).toBeNull();
+	});
+});
