@@ -11,6 +11,8 @@ import { hashPassword } from '../src/lib/server/passwords';
 import { DEFAULT_CLUSTER, ensureCluster } from './cluster';
 import { migrateToLatest } from './migrator';
 import { DEMO_BUILDS, DEMO_HISTORIES } from './demo/builds';
+import { DEMO_EVENTS, DEMO_RUNS, demoTrace } from './demo/runs';
+import type { Storage } from '../src/lib/server/storage';
 import type { Database } from './schema';
 
 export const DEMO_TEAM_NAME = 'Harbour Street Sag Club';
@@ -44,8 +46,14 @@ export const DEMO_USERS = [
 	{ email: 'viewer@sagwise.test', name: 'Demo Viewer', role: 'viewer' },
 ] as const;
 
-/** Writes the demo scenario in one transaction. Returns the team id. */
-export async function seedDemo(db: Kysely<Database>): Promise<string> {
+const day = (daysAgo: number) => new Date(Date.now() - daysAgo * 86_400_000);
+const isoDay = (d: Date) => d.toISOString().slice(0, 10);
+
+/**
+ * Writes the demo scenario in one transaction (logger files go to storage when one is given).
+ * Returns the team id.
+ */
+export async function seedDemo(db: Kysely<Database>, storage?: Storage): Promise<string> {
 	const passwordHash = await hashPassword(DEMO_PASSWORD);
 	return db.transaction().execute(async (trx) => {
 		const team = await trx.insertInto('team').values({ name: DEMO_TEAM_NAME }).returning('id').executeTakeFirstOrThrow();
@@ -87,15 +95,56 @@ export async function seedDemo(db: Kysely<Database>): Promise<string> {
 			await trx.updateTable('build').set({ head_revision_id: parentId }).where('id', '=', build.id).execute();
 			void DEMO_BUILDS;
 		}
+		const eventIds = new Map<string, string>();
+		for (const e of DEMO_EVENTS) {
+			const row = await trx
+				.insertInto('event')
+				.values({ team_id: team.id, name: e.name, starts_on: isoDay(day(e.daysAgo)), ends_on: isoDay(day(e.daysAgo - (e.days - 1))), place: e.place, format: e.format })
+				.returning('id')
+				.executeTakeFirstOrThrow();
+			eventIds.set(e.key, row.id);
+		}
+		for (const r of DEMO_RUNS) {
+			const vehicle = await trx.selectFrom('vehicle as v').innerJoin('build as b', 'b.vehicle_id', 'v.id').select(['v.id', 'b.id as build_id']).where('v.team_id', '=', team.id).where('v.name', '=', r.vehicle).executeTakeFirstOrThrow();
+			const ranAt = new Date(day(r.daysAgo).getTime() + 14 * 3600_000);
+			const rev = await trx.selectFrom('revision').select('id').where('build_id', '=', vehicle.build_id).where('created_at', '<=', ranAt).orderBy('created_at', 'desc').limit(1).executeTakeFirst();
+			const run = await trx
+				.insertInto('run')
+				.values({
+					vehicle_id: vehicle.id,
+					event_id: r.event ? eventIds.get(r.event)! : null,
+					revision_id: rev?.id ?? null,
+					ran_at: ranAt,
+					score_db: r.scoreDb,
+					frequency_hz: r.frequencyHz,
+					resting_v: r.restingV,
+					min_v: r.minV,
+					ambient_c: r.ambientC,
+					notes: r.notes,
+					author_id: userIds[1]!,
+				})
+				.returning('id')
+				.executeTakeFirstOrThrow();
+			if (r.logger) {
+				const trace = demoTrace(r.logger);
+				await trx.insertInto('run_sample').values(trace.map((s, i) => ({ run_id: run.id, seq: i, t_s: s.tS, volts: s.volts, amps: s.amps }))).execute();
+				if (storage) {
+					const csv = `time_s,volts,amps\n${trace.map((s) => `${s.tS},${s.volts},${s.amps}`).join('\n')}\n`;
+					const key = `teams/${team.id}/runs/${run.id}/logger-demo.csv`;
+					await storage.put(key, new TextEncoder().encode(csv), 'text/csv');
+					await trx.insertInto('stored_file').values({ team_id: team.id, run_id: run.id, kind: 'logger', object_key: key, file_name: 'logger.csv', content_type: 'text/csv', size_bytes: csv.length }).execute();
+				}
+			}
+		}
 		return team.id;
 	});
 }
 
 /** Seeds only an empty database (no team yet); returns whether it seeded. */
-export async function seedIfEmpty(db: Kysely<Database>): Promise<boolean> {
+export async function seedIfEmpty(db: Kysely<Database>, storage?: Storage): Promise<boolean> {
 	const { count } = await db.selectFrom('team').select((eb) => eb.fn.countAll<number>().as('count')).executeTakeFirstOrThrow();
 	if (Number(count) > 0) return false;
-	await seedDemo(db);
+	await seedDemo(db, storage);
 	return true;
 }
 

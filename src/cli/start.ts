@@ -12,6 +12,8 @@ import { startSmtpFake } from './smtp-fake';
 import { startS3Fake } from './s3-fake';
 import { buildIsStale } from './build-state';
 import { loadOrCreateSecrets } from './secrets';
+import { readConfig } from '../lib/server/config';
+import { createS3Storage, ensureBucket } from '../lib/server/storage';
 
 const t0 = performance.now();
 const log = (line: string) => console.log(`[sagwise] ${line}`);
@@ -33,10 +35,21 @@ async function main() {
 		log('using DATABASE_URL; the embedded cluster is not started');
 	}
 
+	let s3Endpoint = process.env.S3_ENDPOINT;
+	if (s3Endpoint === undefined) {
+		const s3 = await startS3Fake({ port: Number(process.env.SAGWISE_S3_PORT ?? 4569), dir: '.data/s3', bucket: process.env.S3_BUCKET ?? 'sagwise-files' });
+		cleanups.push(() => s3.close());
+		s3Endpoint = s3.endpoint;
+		log(`S3 fake on ${s3.endpoint}: files in .data/s3`);
+	}
+
 	const db = createDb(databaseUrl, 2);
 	try {
 		await migrateToLatest(db, (line) => log(line));
-		if (await seedIfEmpty(db)) log('demo data written');
+		const s3Config = readConfig({ ...process.env, S3_ENDPOINT: s3Endpoint }).s3;
+		await ensureBucket(s3Config);
+		const storage = createS3Storage(s3Config);
+		if (await seedIfEmpty(db, storage)) log('demo data written');
 	} finally {
 		await db.destroy();
 	}
@@ -50,14 +63,6 @@ async function main() {
 		smtpUrl = `smtp://127.0.0.1:${fake.port}`;
 		devOutbox = fake.dir;
 		log(`SMTP fake on 127.0.0.1:${fake.port}: mail lands in ${fake.dir}, shown at ${publicUrl}/dev/outbox`);
-	}
-
-	let s3Endpoint = process.env.S3_ENDPOINT;
-	if (s3Endpoint === undefined) {
-		const s3 = await startS3Fake({ port: Number(process.env.SAGWISE_S3_PORT ?? 4569), dir: '.data/s3', bucket: process.env.S3_BUCKET ?? 'sagwise-files' });
-		cleanups.push(() => s3.close());
-		s3Endpoint = s3.endpoint;
-		log(`S3 fake on ${s3.endpoint}: files in .data/s3`);
 	}
 
 	if (buildIsStale()) {
