@@ -11,7 +11,17 @@ type DefaultTimestamp = ColumnType<Date, Date | string | undefined, Date | strin
 export interface TeamTable {
 	id: Generated<string>;
 	name: string;
+	/** Days before an event that members get a reminder. */
+	reminder_days: Generated<number>;
+	last_digest_at: Timestamp | null;
 	created_at: DefaultTimestamp;
+}
+
+export interface NotificationSentTable {
+	kind: 'event_reminder' | 'revision_digest';
+	subject_key: string;
+	user_id: string;
+	sent_at: DefaultTimestamp;
 }
 
 export interface VehicleTable {
@@ -177,6 +187,7 @@ export interface RunSampleTable {
 }
 
 export interface Database {
+	notification_sent: NotificationSentTable;
 	event: EventTable;
 	run: RunTable;
 	stored_file: StoredFileTable;

@@ -3,6 +3,7 @@ import * as createTeamAndVehicle from './2026_12_01_120000_create_team_and_vehic
 import * as createAccounts from './2026_12_01_130000_create_accounts_and_memberships';
 import * as createBuilds from './2026_12_01_140000_create_builds_and_revisions';
 import * as createEvents from './2026_12_01_150000_create_events_and_runs';
+import * as createNotifications from './2026_12_01_160000_create_notifications';
 
 /**
  * Every migration, by name, in the order they apply. Listed explicitly (rather than read from the
@@ -14,4 +15,5 @@ export const migrations: Record<string, Migration> = {
 	'2026_12_01_130000_create_accounts_and_memberships': createAccounts,
 	'2026_12_01_140000_create_builds_and_revisions': createBuilds,
 	'2026_12_01_150000_create_events_and_runs': createEvents,
+	'2026_12_01_160000_create_notifications': createNotifications,
 };

@@ -14,6 +14,7 @@ export interface TeamSettingsProps {
 	myRole: Role;
 	myUserId: string;
 	initialMembers: MemberDto[];
+	reminderDays: number;
 }
 
 const ROLES: Role[] = ['captain', 'member', 'viewer'];
@@ -31,7 +32,7 @@ export function TeamSettings(props: TeamSettingsProps) {
 	);
 }
 
-export function TeamSettingsView({ teamId, teamName, myRole, myUserId, initialMembers }: TeamSettingsProps) {
+export function TeamSettingsView({ teamId, teamName, myRole, myUserId, initialMembers, reminderDays }: TeamSettingsProps) {
 	const captain = myRole === 'captain';
 	return (
 		<div className="flex flex-col gap-10">
@@ -39,6 +40,7 @@ export function TeamSettingsView({ teamId, teamName, myRole, myUserId, initialMe
 			{captain && <InviteSection teamId={teamId} />}
 			{captain && <PendingSection teamId={teamId} />}
 			{captain && <TeamNameSection teamId={teamId} teamName={teamName} />}
+			{captain && <ReminderSection teamId={teamId} initialDays={reminderDays} />}
 			<LeaveOrDeleteSection teamId={teamId} teamName={teamName} captain={captain} myUserId={myUserId} />
 		</div>
 	);
@@ -294,6 +296,34 @@ function LeaveOrDeleteSection({ teamId, teamName, captain, myUserId }: { teamId:
 				)}
 				<ErrorNote error={error} />
 			</div>
+		</section>
+	);
+}
+
+function ReminderSection({ teamId, initialDays }: { teamId: string; initialDays: number }) {
+	const [days, setDays] = useState(String(initialDays));
+	const [state, setState] = useState<{ busy: boolean; note: string | null; error: string | null }>({ busy: false, note: null, error: null });
+	return (
+		<section aria-labelledby="reminder-heading">
+			<h2 id="reminder-heading" className="text-xl font-bold">Event reminders</h2>
+			<form
+				noValidate
+				className="mt-3 flex flex-wrap items-end gap-3"
+				onSubmit={async (e) => {
+					e.preventDefault();
+					setState({ busy: true, note: null, error: null });
+					try {
+						await sendJson(`/api/teams/${teamId}`, 'PATCH', { reminderDays: Number(days) });
+						setState({ busy: false, note: `Members get a reminder ${days} days before each event.`, error: null });
+					} catch (err) {
+						setState({ busy: false, note: null, error: err instanceof ApiError ? (err.byField().reminderDays ?? err.message) : 'Could not save' });
+					}
+				}}
+			>
+				<Field label="Days before an event" inputMode="numeric" value={days} onChange={(e) => setDays(e.target.value)} error={state.error ?? undefined} className="w-48" />
+				<Button type="submit" variant="secondary" busy={state.busy}>Save</Button>
+				{state.note && <span role="status" className="text-sm text-teal">✓ {state.note}</span>}
+			</form>
 		</section>
 	);
 }

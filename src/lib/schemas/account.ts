@@ -27,7 +27,12 @@ export const roleSchema = z.enum(['captain', 'member', 'viewer'], { error: 'Role
 
 export const teamNameSchema = z.string().trim().min(1, 'Give the team a name').max(80, 'Keep it under 80 characters');
 export const newTeamSchema = z.object({ name: teamNameSchema });
-export const renameTeamSchema = z.object({ name: teamNameSchema });
+export const renameTeamSchema = z
+	.object({
+		name: teamNameSchema.optional(),
+		reminderDays: z.number({ error: 'Days must be a number' }).int('Whole days').min(0, 'From 0 days').max(60, 'At most 60 days').optional(),
+	})
+	.refine((v) => v.name !== undefined || v.reminderDays !== undefined, 'Nothing to change');
 export const deleteTeamSchema = z.object({ confirmName: z.string({ error: 'Type the team name to confirm' }) });
 
 export const newInvitationSchema = z.object({ email: emailSchema, role: roleSchema });

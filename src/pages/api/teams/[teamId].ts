@@ -15,7 +15,8 @@ export const PATCH: APIRoute = async ({ params, request, locals }) => {
 	if (!auth.ok) return auth.response;
 	const body = await readJson(request, renameTeamSchema);
 	if (!body.ok) return body.response;
-	await renameTeam(locals.db, auth.access.teamId, body.data.name);
+	if (body.data.name !== undefined) await renameTeam(locals.db, auth.access.teamId, body.data.name);
+	if (body.data.reminderDays !== undefined) await locals.db.updateTable('team').set({ reminder_days: body.data.reminderDays }).where('id', '=', auth.access.teamId).execute();
 	return new Response(null, { status: 204 });
 };
 
