@@ -6,7 +6,7 @@ import type { AppUser } from '../../src/lib/server/auth';
 import { appendRevision, insertVehicleWithBuild } from '../../src/lib/server/db/builds';
 import { hashToken } from '../../src/lib/server/tokens';
 import { callEndpoint, type EndpointModule, jsonRequest } from '../helpers/container';
-import { addMember, localsFor, makeTeam, makeUser } from '../helpers/fixtures';
+import { addMember, localsFor, makeTeam, makeUser, memoryStorage } from '../helpers/fixtures';
 import { createTestDb, type TestDb } from '../helpers/test-db';
 
 /**
@@ -28,6 +28,7 @@ interface World {
 	revisionId: string;
 	eventId: string;
 	runId: string;
+	fileId: string;
 }
 
 interface Case {
@@ -105,6 +106,21 @@ const MATRIX: Record<string, Case[]> = {
 		{ method: 'PATCH', params: (w) => ({ teamId: w.teamId, runId: w.runId }), body: () => ({ notes: 'Windy' }), expect: memberWrite(200) },
 		{ method: 'DELETE', params: (w) => ({ teamId: w.teamId, runId: w.runId }), expect: memberWrite(204) },
 	],
+	'teams/[teamId]/runs/[runId]/photos.ts': [
+		{ method: 'GET', params: (w) => ({ teamId: w.teamId, runId: w.runId }), expect: read },
+		{
+			method: 'POST',
+			params: (w) => ({ teamId: w.teamId, runId: w.runId }),
+			request: () => {
+				const form = new FormData();
+				// A 1×1 PNG.
+				form.set('file', new Blob([Buffer.from('iVBORw0KGgoAAAANSUhEUgAAAAEAAAABCAYAAAAfFcSJAAAADUlEQVR42mP8z8BQDwAEhQGAhKmMIQAAAABJRU5ErkJggg==', 'base64')]), 'dot.png');
+				return new Request('http://localhost/x', { method: 'POST', body: form });
+			},
+			expect: memberWrite(201),
+		},
+	],
+	'teams/[teamId]/files/[fileId].ts': [{ method: 'GET', params: (w) => ({ teamId: w.teamId, fileId: w.fileId }), expect: read }],
 	'teams/[teamId]/runs/[runId]/logger.ts': [
 		{
 			method: 'POST',
@@ -139,6 +155,7 @@ const moduleFor = (file: string) => modules[`../../src/pages/api/${file}`]!;
 
 describe('authorization matrix', () => {
 	let t: TestDb;
+	const storage = memoryStorage();
 	beforeAll(async () => {
 		t = await createTestDb();
 	});
@@ -166,7 +183,9 @@ describe('authorization matrix', () => {
 		if (!saved.ok) throw new Error('seed revision');
 		const ev = await t.db.insertInto('event').values({ team_id: teamId, name: 'Matrix meet', starts_on: '2026-06-01', ends_on: '2026-06-01' }).returning('id').executeTakeFirstOrThrow();
 		const run = await t.db.insertInto('run').values({ vehicle_id: vehicle.id, event_id: ev.id, revision_id: saved.revision.id, ran_at: new Date() }).returning('id').executeTakeFirstOrThrow();
-		return { teamId, teamName, users, targetId: target.id, invitationId: inv.id, invitationToken, vehicleId: vehicle.id, revisionId: saved.revision.id, eventId: ev.id, runId: run.id };
+		const file = await t.db.insertInto('stored_file').values({ team_id: teamId, run_id: run.id, kind: 'logger', object_key: `matrix/${run.id}.csv`, file_name: 'log.csv', content_type: 'text/csv', size_bytes: 4 }).returning('id').executeTakeFirstOrThrow();
+		await storage.put(`matrix/${run.id}.csv`, new TextEncoder().encode('t,v\n'), 'text/csv');
+		return { teamId, teamName, users, targetId: target.id, invitationId: inv.id, invitationToken, vehicleId: vehicle.id, revisionId: saved.revision.id, eventId: ev.id, runId: run.id, fileId: file.id };
 	}
 
 	it('has an entry for every route file and every exported method', () => {
@@ -187,7 +206,7 @@ describe('authorization matrix', () => {
 		const w = await world();
 		const user = caller === 'anonymous' ? null : w.users[caller];
 		const res = await callEndpoint(moduleFor(file), {
-			locals: localsFor(t.db, user),
+			locals: localsFor(t.db, user, undefined, storage),
 			params: c.params(w),
 			request: c.request?.(w) ?? jsonRequest(`/x${c.query?.(w) ?? ''}`, method, c.body?.(w) ?? (method === 'GET' ? undefined : {})),
 		});

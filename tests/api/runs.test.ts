@@ -140,3 +140,55 @@ describe('events, runs and logger uploads (PostgreSQL + the S3 fake)', () => {
 		expect(await storage.get(key!)).toBeNull();
 	});
 });
+
+describe('run photos (PostgreSQL + the S3 fake)', async () => {
+	const sharp = (await import('sharp')).default;
+	const photos = await import('../../src/pages/api/teams/[teamId]/runs/[runId]/photos');
+	const files = await import('../../src/pages/api/teams/[teamId]/files/[fileId]');
+	let t: TestDb;
+	let s3: S3Fake;
+	let storage: Storage;
+	let teamId: string;
+	let member: AppUser;
+	let runId: string;
+	beforeAll(async () => {
+		t = await createTestDb();
+		s3 = await startS3Fake({ port: 0, dir: mkdtempSync(path.join(tmpdir(), 'sagwise-s3p-')), bucket: 'photo-files' });
+		storage = createS3Storage({ endpoint: s3.endpoint, region: 'us-east-1', bucket: 'photo-files', accessKeyId: 'S3RVER', secretAccessKey: 'S3RVER', forcePathStyle: true });
+		teamId = await makeTeam(t.db);
+		member = await makeUser(t.db);
+		await addMember(t.db, teamId, member, 'member');
+		const v = await insertVehicleWithBuild(t.db, { teamId, name: 'Photo car', description: '', competitionClass: '', notes: '', ownerId: null });
+		runId = (await t.db.insertInto('run').values({ vehicle_id: v.vehicle.id, ran_at: new Date() }).returning('id').executeTakeFirstOrThrow()).id;
+	});
+	afterAll(async () => {
+		await s3?.close();
+		await t?.drop();
+	});
+	const post = (blob: Blob, name: string) => {
+		const form = new FormData();
+		form.set('file', blob, name);
+		return callEndpoint(photos, { locals: localsFor(t.db, member, nullMailer, storage), params: { teamId, runId }, request: new Request('http://localhost/x', { method: 'POST', body: form }) });
+	};
+
+	it('stores a photo checked by content with a 320 px WebP thumbnail, and serves both', async () => {
+		const png = await sharp({ create: { width: 1200, height: 800, channels: 3, background: '#b8652a' } }).png().toBuffer();
+		const res = await post(new Blob([new Uint8Array(png)]), 'meter.jpg');
+		expect(res.status).toBe(201);
+		const { photoId, thumbnailId } = await res.json();
+		const get = (fileId: string) => callEndpoint(files, { locals: localsFor(t.db, member, nullMailer, storage), params: { teamId, fileId }, request: new Request('http://localhost/x') });
+		const original = await get(photoId);
+		expect(original.headers.get('content-type')).toBe('image/png');
+		expect(Buffer.from(await original.arrayBuffer()).equals(png)).toBe(true);
+		const thumb = await get(thumbnailId);
+		const meta = await sharp(Buffer.from(await thumb.arrayBuffer())).metadata();
+		expect(meta).toMatchObject({ format: 'webp', width: 320, height: 213 });
+	});
+
+	it('refuses a CSV renamed to .jpg and stores nothing', async () => {
+		const res = await post(new Blob(['time,volts,amps\n0,1,2\n']), 'fake.jpg');
+		expect(res.status).toBe(400);
+		expect((await res.json()).detail).toMatch(/JPEG, PNG or WebP/);
+		expect(await t.db.selectFrom('stored_file').selectAll().where('run_id', '=', runId).where('file_name', '=', 'fake.jpg').execute()).toEqual([]);
+	});
+});

@@ -91,7 +91,7 @@ export function VehicleRunsView({ teamId, vehicleId, canEdit, initialRuns, event
 				)}
 			</section>
 
-			{selected && <RunDetailPanel teamId={teamId} vehicleId={vehicleId} runId={selected} />}
+			{selected && <RunDetailPanel teamId={teamId} vehicleId={vehicleId} runId={selected} canEdit={canEdit} onDeleted={() => setSelected(null)} />}
 
 			{list.some((r) => r.scoreDb !== null) && (
 				<section aria-labelledby="compare-heading" className="grid gap-6 lg:grid-cols-2">
@@ -123,8 +123,12 @@ export function VehicleRunsView({ teamId, vehicleId, canEdit, initialRuns, event
 	);
 }
 
-function RunDetailPanel({ teamId, vehicleId, runId }: { teamId: string; vehicleId: string; runId: string }) {
+function RunDetailPanel({ teamId, vehicleId, runId, canEdit, onDeleted }: { teamId: string; vehicleId: string; runId: string; canEdit: boolean; onDeleted: () => void }) {
+	const qc = useQueryClient();
 	const detail = useQuery(runDetailQueryOptions(teamId, runId));
+	const photos = useQuery({ queryKey: ['photos', runId], queryFn: ({ signal }) => getJson<Array<{ id: string; name: string; thumbnailId: string | null }>>(`/api/teams/${teamId}/runs/${runId}/photos`, { signal }) });
+	const [photoError, setPhotoError] = useState<string | null>(null);
+	const [photoBusy, setPhotoBusy] = useState(false);
 	const revisionId = detail.data?.run.revisionId ?? null;
 	const revision = useQuery({
 		queryKey: ['revision', revisionId],
@@ -162,6 +166,58 @@ function RunDetailPanel({ teamId, vehicleId, runId }: { teamId: string; vehicleI
 				</>
 			) : (
 				<p className="mt-3 text-sm text-ink-soft">No logger file for this run.</p>
+			)}
+			<div className="mt-4">
+				<h3 className="font-semibold">Photos</h3>
+				{photos.data && photos.data.length === 0 && <p className="text-sm text-ink-soft">No photos of this run.</p>}
+				<ul className="mt-2 flex flex-wrap gap-2">
+					{photos.data?.map((ph) => (
+						<li key={ph.id}>
+							<a href={`/api/teams/${teamId}/files/${ph.id}`} target="_blank" rel="noreferrer">
+								<img src={`/api/teams/${teamId}/files/${ph.thumbnailId ?? ph.id}`} alt={ph.name} className="h-24 rounded-md border border-hairline object-cover" loading="lazy" />
+							</a>
+						</li>
+					))}
+				</ul>
+				{canEdit && (
+					<label className="mt-2 inline-flex items-center gap-2 text-sm">
+						<span className="font-semibold">Add a photo (JPEG, PNG or WebP, up to 10 MB)</span>
+						<input
+							type="file"
+							accept="image/jpeg,image/png,image/webp"
+							disabled={photoBusy}
+							onChange={async (e) => {
+								const f = e.target.files?.[0];
+								if (!f) return;
+								setPhotoBusy(true);
+								setPhotoError(null);
+								const form = new FormData();
+								form.set('file', f);
+								const res = await fetch(`/api/teams/${teamId}/runs/${runId}/photos`, { method: 'POST', body: form });
+								if (!res.ok) setPhotoError(((await res.json().catch(() => ({}))) as { detail?: string }).detail ?? 'The photo was refused');
+								await qc.invalidateQueries({ queryKey: ['photos', runId] });
+								setPhotoBusy(false);
+								e.target.value = '';
+							}}
+						/>
+					</label>
+				)}
+				{photoError && <FormMessage tone="error">{photoError}</FormMessage>}
+			</div>
+			{canEdit && (
+				<div className="mt-4">
+					<Button
+						variant="danger"
+						onClick={async () => {
+							if (!window.confirm('Delete this run, its logger samples and its photos?')) return;
+							await fetch(`/api/teams/${teamId}/runs/${runId}`, { method: 'DELETE' });
+							await qc.invalidateQueries({ queryKey: runKeys.byVehicle(vehicleId) });
+							onDeleted();
+						}}
+					>
+						Delete this run
+					</Button>
+				</div>
 			)}
 			<div className="mt-3 rounded-md bg-paper p-3 text-sm" aria-label="Model beside the measurement">
 				<strong>Model beside the measurement:</strong>{' '}
