@@ -4,7 +4,8 @@ import { useMemo, useState } from 'react';
 import { buildReport } from '@/engine/report';
 import { loggerColumns } from '@/lib/logger-csv';
 import { newRunSchema } from '@/lib/schemas/events';
-import { ApiError, getJson, postJson } from '@/lib/client/api-client';
+import { ApiError, getJson, postJson, sendJson } from '@/lib/client/api-client';
+import { revisionsQueryOptions } from '@/lib/client/queries/builds';
 import { fieldErrors } from '@/lib/client/form-errors';
 import { getQueryClient } from '@/lib/client/query-client';
 import type { RevisionDto } from '@/lib/client/queries/builds';
@@ -204,6 +205,7 @@ function RunDetailPanel({ teamId, vehicleId, runId, canEdit, onDeleted }: { team
 				)}
 				{photoError && <FormMessage tone="error">{photoError}</FormMessage>}
 			</div>
+			{canEdit && <EditRunForm teamId={teamId} vehicleId={vehicleId} run={run} />}
 			{canEdit && (
 				<div className="mt-4">
 					<Button
@@ -413,3 +415,48 @@ function LogRunForm({ teamId, vehicleId, events, onLogged }: { teamId: string; v
 }
 
 
+
+function EditRunForm({ teamId, vehicleId, run }: { teamId: string; vehicleId: string; run: RunDto }) {
+	const qc = useQueryClient();
+	const [open, setOpen] = useState(false);
+	const revisions = useQuery({ ...revisionsQueryOptions(teamId, vehicleId), enabled: open });
+	const [values, setValues] = useState({ scoreDb: run.scoreDb?.toString() ?? '', restingV: run.restingV?.toString() ?? '', minV: run.minV?.toString() ?? '', notes: run.notes, revisionId: run.revisionId ?? '' });
+	const [state, setState] = useState<{ busy: boolean; error: string | null; errors: Record<string, string> }>({ busy: false, error: null, errors: {} });
+	if (!open) return <Button variant="secondary" className="mt-4" onClick={() => setOpen(true)}>Edit this run</Button>;
+	const num = (x: string) => (x.trim() === '' ? null : Number(x));
+	const set = (k: keyof typeof values) => (e: React.ChangeEvent<HTMLInputElement | HTMLSelectElement>) => setValues((v) => ({ ...v, [k]: e.target.value }));
+	return (
+		<form
+			noValidate
+			aria-label="Edit the run"
+			className="mt-4 flex flex-wrap items-end gap-3 rounded-md border border-hairline p-3"
+			onSubmit={async (e) => {
+				e.preventDefault();
+				setState({ busy: true, error: null, errors: {} });
+				try {
+					await sendJson(`/api/teams/${teamId}/runs/${run.id}`, 'PATCH', { scoreDb: num(values.scoreDb), restingV: num(values.restingV), minV: num(values.minV), notes: values.notes, revisionId: values.revisionId || null });
+					await qc.invalidateQueries({ queryKey: runKeys.all });
+					setOpen(false);
+				} catch (err) {
+					setState({ busy: false, error: err instanceof ApiError ? err.message : 'Could not save', errors: err instanceof ApiError ? err.byField() : {} });
+				}
+			}}
+		>
+			<Field label="Score (dB)" inputMode="decimal" value={values.scoreDb} onChange={set('scoreDb')} error={state.errors.scoreDb} className="w-32" />
+			<Field label="Resting (V)" inputMode="decimal" value={values.restingV} onChange={set('restingV')} error={state.errors.restingV} className="w-32" />
+			<Field label="Minimum (V)" inputMode="decimal" value={values.minV} onChange={set('minV')} error={state.errors.minV} className="w-32" />
+			<div className="flex flex-col gap-1">
+				<label htmlFor={`rev-${run.id}`} className="text-sm font-semibold">Revision in force</label>
+				<select id={`rev-${run.id}`} value={values.revisionId} onChange={set('revisionId')} className="rounded-md border border-hairline bg-card px-3 py-2">
+					<option value="">none</option>
+					{revisions.data?.map((r) => <option key={r.id} value={r.id}>r{r.number} · {r.message.slice(0, 40)}</option>)}
+					{!revisions.data && run.revisionId && <option value={run.revisionId}>r{run.revisionNumber}</option>}
+				</select>
+			</div>
+			<Field label="Notes" value={values.notes} onChange={set('notes')} error={state.errors.notes} className="min-w-64 flex-1" />
+			<Button type="submit" busy={state.busy}>Save</Button>
+			<Button type="button" variant="secondary" onClick={() => setOpen(false)}>Cancel</Button>
+			{state.error && <FormMessage tone="error">{state.error}</FormMessage>}
+		</form>
+	);
+}
