@@ -15,3 +15,4 @@ export * from './units';
 export * from './diff';
 export * from './hints';
 export * from './run-analysis';
+export * from './checks';

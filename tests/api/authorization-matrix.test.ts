@@ -87,6 +87,7 @@ const MATRIX: Record<string, Case[]> = {
 	'teams/[teamId]/vehicles/[vehicleId]/revisions/[revisionId]/index.ts': [{ method: 'GET', params: revisionScoped, expect: read }],
 	'teams/[teamId]/vehicles/[vehicleId]/revisions/[revisionId]/report.ts': [{ method: 'GET', params: revisionScoped, expect: read }],
 	'teams/[teamId]/vehicles/[vehicleId]/revisions/[revisionId]/spice.ts': [{ method: 'GET', params: revisionScoped, expect: read }],
+	'teams/[teamId]/vehicles/[vehicleId]/revisions/[revisionId]/document.json.ts': [{ method: 'GET', params: revisionScoped, expect: read }],
 	'teams/[teamId]/vehicles/[vehicleId]/revisions/[revisionId]/restore.ts': [{ method: 'POST', params: revisionScoped, body: (w) => ({ parentId: w.revisionId }), expect: memberWrite(201) }],
 	'teams/[teamId]/events/index.ts': [
 		{ method: 'GET', params: teamScoped, expect: read },

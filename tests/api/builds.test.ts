@@ -6,6 +6,7 @@ import * as revisions from '../../src/pages/api/teams/[teamId]/vehicles/[vehicle
 import * as report from '../../src/pages/api/teams/[teamId]/vehicles/[vehicleId]/revisions/[revisionId]/report';
 import * as restore from '../../src/pages/api/teams/[teamId]/vehicles/[vehicleId]/revisions/[revisionId]/restore';
 import * as spice from '../../src/pages/api/teams/[teamId]/vehicles/[vehicleId]/revisions/[revisionId]/spice';
+import * as documentJson from '../../src/pages/api/teams/[teamId]/vehicles/[vehicleId]/revisions/[revisionId]/document.json';
 import * as vehicles from '../../src/pages/api/teams/[teamId]/vehicles/index';
 import * as vehicle from '../../src/pages/api/teams/[teamId]/vehicles/[vehicleId]/index';
 import type { AppUser } from '../../src/lib/server/auth';
@@ -135,6 +136,18 @@ describe('vehicles, builds and revisions', () => {
 		expect(text).toMatch(/^\* Spice revision 1/);
 		expect(text).toContain('.nodeset');
 		expect(text.match(/^rc\d+ /gm)).toHaveLength(pebbleBuild.cables.length);
+	});
+
+	it('downloads a revision as its JSON build document, which uploads back as an equal revision', async () => {
+		const v = await newVehicle('Json');
+		const r1 = await (await call(member, revisions, 'POST', { vehicleId: v.id }, { parentId: null, message: 'One', document: marlinBuild })).json();
+		const res = await call(member, documentJson, 'GET', { vehicleId: v.id, revisionId: r1.id });
+		expect(res.headers.get('content-disposition')).toMatch(/Json-r1\.build\.json/);
+		const file = JSON.parse(await res.text());
+		expect(file).toEqual(marlinBuild);
+		const back = await call(member, revisions, 'POST', { vehicleId: v.id }, { parentId: r1.id, message: 'Loaded from file', document: file });
+		expect(back.status).toBe(201);
+		expect((await back.json()).document).toEqual(marlinBuild);
 	});
 
 	it('archives a vehicle and hides it from the default list', async () => {

@@ -6,7 +6,7 @@ import { buildReport, DEFAULT_SCENARIO, type ReportWarning } from '@/engine/repo
 import { runBurp } from '@/engine/burp';
 import { upgradeHints } from '@/engine/hints';
 import type { BuildDocument, Scenario } from '@/engine/types';
-import { buildDocumentSchema } from '@/lib/schemas/build-document';
+import { buildDocumentSchema, parseBuildDocument } from '@/lib/schemas/build-document';
 import { checkTopology } from '@/engine/topology';
 import { ApiError, postJson, sendJson } from '@/lib/client/api-client';
 import { getQueryClient } from '@/lib/client/query-client';
@@ -188,6 +188,31 @@ export function BuildWorkspaceView({ teamId, vehicleId, vehicleName, canEdit, he
 						<Button type="submit" busy={saveState.busy} disabled={!dirty || !valid || message.trim() === ''}>
 							Save revision
 						</Button>
+						<label className="cursor-pointer rounded-md border border-hairline bg-card px-3 py-2 text-sm font-semibold hover:border-copper">
+							Load a JSON file
+							<input
+								type="file"
+								accept="application/json,.json"
+								className="sr-only"
+								onChange={async (e) => {
+									const f = e.target.files?.[0];
+									e.target.value = '';
+									if (!f) return;
+									let raw: unknown;
+									try {
+										raw = JSON.parse(await f.text());
+									} catch {
+										return setSaveState((s) => ({ ...s, error: `${f.name} is not valid JSON.`, ok: null }));
+									}
+									const parsed = parseBuildDocument(raw);
+									if (!parsed.ok) {
+										return setSaveState((s) => ({ ...s, ok: null, error: `${f.name} was not loaded: ${parsed.problems.slice(0, 4).map((p) => `${p.path || 'document'}: ${p.message}`).join(' · ')}` }));
+									}
+									setDraft(parsed.doc);
+									setSaveState((s) => ({ ...s, error: null, ok: `${f.name} is loaded into the draft; save it as a revision to keep it.` }));
+								}}
+							/>
+						</label>
 						{dirty && (
 							<Button
 								type="button"
