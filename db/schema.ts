@@ -13,6 +13,8 @@ export interface TeamTable {
 	name: string;
 	/** Days before an event that members get a reminder. */
 	reminder_days: Generated<number>;
+	/** Distance within which a battery cable's fuse must sit, for the pre-event checks (m). */
+	fuse_distance_m: Generated<number>;
 	last_digest_at: Timestamp | null;
 	created_at: DefaultTimestamp;
 }
@@ -186,7 +188,25 @@ export interface RunSampleTable {
 	amps: number;
 }
 
+export interface CheckItemTable {
+	id: Generated<string>;
+	team_id: string;
+	label: string;
+	created_at: DefaultTimestamp;
+}
+
+export interface CheckSignoffTable {
+	event_id: string;
+	vehicle_id: string;
+	item_key: string;
+	signed_by: string | null;
+	signed_at: DefaultTimestamp;
+	note: Generated<string>;
+}
+
 export interface Database {
+	check_item: CheckItemTable;
+	check_signoff: CheckSignoffTable;
 	notification_sent: NotificationSentTable;
 	event: EventTable;
 	run: RunTable;

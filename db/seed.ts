@@ -136,6 +136,10 @@ export async function seedDemo(db: Kysely<Database>, storage?: Storage): Promise
 				}
 			}
 		}
+		await trx
+			.insertInto('check_item')
+			.values([{ team_id: team.id, label: 'Battery hold-downs torqued and terminal covers on' }, { team_id: team.id, label: 'Main fuse holders closed, spare fuses in the kit' }])
+			.execute();
 		return team.id;
 	});
 }

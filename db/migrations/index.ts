@@ -4,6 +4,7 @@ import * as createAccounts from './2026_12_01_130000_create_accounts_and_members
 import * as createBuilds from './2026_12_01_140000_create_builds_and_revisions';
 import * as createEvents from './2026_12_01_150000_create_events_and_runs';
 import * as createNotifications from './2026_12_01_160000_create_notifications';
+import * as createChecks from './2026_12_01_170000_create_pre_event_checks';
 
 /**
  * Every migration, by name, in the order they apply. Listed explicitly (rather than read from the
@@ -16,4 +17,5 @@ export const migrations: Record<string, Migration> = {
 	'2026_12_01_140000_create_builds_and_revisions': createBuilds,
 	'2026_12_01_150000_create_events_and_runs': createEvents,
 	'2026_12_01_160000_create_notifications': createNotifications,
+	'2026_12_01_170000_create_pre_event_checks': createChecks,
 };

@@ -93,7 +93,15 @@ const MATRIX: Record<string, Case[]> = {
 		{ method: 'GET', params: teamScoped, expect: read },
 		{ method: 'POST', params: teamScoped, body: () => ({ name: 'Meet', startsOn: '2026-05-01', endsOn: '2026-05-01' }), expect: memberWrite(201) },
 	],
-	'teams/[teamId]/events/[eventId].ts': [
+	'teams/[teamId]/events/[eventId]/checks.ts': [
+		{ method: 'GET', params: (w) => ({ teamId: w.teamId, eventId: w.eventId }), query: (w) => `?vehicleId=${w.vehicleId}`, expect: read },
+		{ method: 'POST', params: (w) => ({ teamId: w.teamId, eventId: w.eventId }), body: (w) => ({ vehicleId: w.vehicleId, itemKey: 'battery_fusing', signed: true }), expect: memberWrite(200) },
+	],
+	'teams/[teamId]/check-items/index.ts': [
+		{ method: 'GET', params: teamScoped, expect: read },
+		{ method: 'POST', params: teamScoped, body: () => ({ label: 'Battery hold-downs torqued' }), expect: memberWrite(201) },
+	],
+	'teams/[teamId]/events/[eventId]/index.ts': [
 		{ method: 'PATCH', params: (w) => ({ teamId: w.teamId, eventId: w.eventId }), body: () => ({ place: 'Somewhere' }), expect: memberWrite(204) },
 		{ method: 'DELETE', params: (w) => ({ teamId: w.teamId, eventId: w.eventId }), expect: captainOnly(204) },
 	],
@@ -182,7 +190,7 @@ describe('authorization matrix', () => {
 		const { vehicle, buildId } = await insertVehicleWithBuild(t.db, { teamId, name: 'Matrix car', description: '', competitionClass: '', notes: '', ownerId: null });
 		const saved = await appendRevision(t.db, { buildId, parentId: null, document: pebbleBuild, message: 'Seed', authorId: users.member.id });
 		if (!saved.ok) throw new Error('seed revision');
-		const ev = await t.db.insertInto('event').values({ team_id: teamId, name: 'Matrix meet', starts_on: '2026-06-01', ends_on: '2026-06-01' }).returning('id').executeTakeFirstOrThrow();
+		const ev = await t.db.insertInto('event').values({ team_id: teamId, name: 'Matrix meet', starts_on: new Date(Date.now() + 30 * 86_400_000).toISOString().slice(0, 10), ends_on: new Date(Date.now() + 30 * 86_400_000).toISOString().slice(0, 10) }).returning('id').executeTakeFirstOrThrow();
 		const run = await t.db.insertInto('run').values({ vehicle_id: vehicle.id, event_id: ev.id, revision_id: saved.revision.id, ran_at: new Date() }).returning('id').executeTakeFirstOrThrow();
 		const file = await t.db.insertInto('stored_file').values({ team_id: teamId, run_id: run.id, kind: 'logger', object_key: `matrix/${run.id}.csv`, file_name: 'log.csv', content_type: 'text/csv', size_bytes: 4 }).returning('id').executeTakeFirstOrThrow();
 		await storage.put(`matrix/${run.id}.csv`, new TextEncoder().encode('t,v\n'), 'text/csv');

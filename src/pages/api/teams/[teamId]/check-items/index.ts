@@ -1,0 +1,22 @@
+import type { APIRoute } from 'astro';
+import { z } from 'zod';
+import { requireTeamRole } from '@/lib/server/authz';
+import { readJson } from '@/lib/server/http';
+
+const newItemSchema = z.object({ label: z.string().trim().min(1, 'Say what to check').max(200, 'Keep it under 200 characters') });
+
+export const GET: APIRoute = async ({ params, locals }) => {
+	const auth = await requireTeamRole(locals, params.teamId, 'viewer');
+	if (!auth.ok) return auth.response;
+	return Response.json(await locals.db.selectFrom('check_item').select(['id', 'label']).where('team_id', '=', auth.access.teamId).orderBy('created_at').execute());
+};
+
+/** Adds a manual item to every pre-event checklist of the team. */
+export const POST: APIRoute = async ({ params, request, locals }) => {
+	const auth = await requireTeamRole(locals, params.teamId, 'member');
+	if (!auth.ok) return auth.response;
+	const body = await readJson(request, newItemSchema);
+	if (!body.ok) return body.response;
+	const row = await locals.db.insertInto('check_item').values({ team_id: auth.access.teamId, label: body.data.label }).returning(['id', 'label']).executeTakeFirstOrThrow();
+	return Response.json(row, { status: 201 });
+};
