@@ -2,7 +2,11 @@ import type { z } from 'zod';
 import type { runFieldsSchema } from '../schemas/events';
 import { findVehicle } from './db/builds';
 import { findEvent, revisionBelongsTo, revisionInForce } from './db/runs';
-import { type FieldError } from './http';
+import type { Role } from '../../../db/schema';
+import { parseUuid } from '../schemas/ids';
+import { requireTeamRole } from './authz';
+import { findRun } from './db/runs';
+import { type FieldError, problem } from './http';
 
 type RunInput = Partial<z.infer<typeof runFieldsSchema>>;
 
@@ -21,4 +25,14 @@ export async function resolveRunLinks(
 	if (errors.length) return { ok: false, errors };
 	if (revisionId === undefined && input.ranAt) revisionId = await revisionInForce(db, vehicleId, new Date(input.ranAt));
 	return { ok: true, revisionId };
+}
+
+/** Team role check, then the run of the URL inside that team; anything else is a 404. */
+export async function requireRun(locals: Pick<App.Locals, 'db' | 'user'>, params: Record<string, string | undefined>, min: Role) {
+	const auth = await requireTeamRole(locals, params.teamId, min);
+	if (!auth.ok) return auth;
+	const id = parseUuid(params.runId);
+	const run = id ? await findRun(locals.db, auth.access.teamId, id) : undefined;
+	if (!run) return { ok: false as const, response: problem(404, 'not_found', 'No such run') };
+	return { ok: true as const, access: auth.access, run };
 }

@@ -1,10 +1,8 @@
 import type { APIRoute } from 'astro';
 import { analyseRun } from '@/engine/run-analysis';
 import { loggerMappingSchema } from '@/lib/schemas/events';
-import { parseUuid } from '@/lib/schemas/ids';
 import { MAX_LOGGER_BYTES, parseLoggerCsv } from '@/lib/logger-csv';
-import { requireTeamRole } from '@/lib/server/authz';
-import { findRun } from '@/lib/server/db/runs';
+import { requireRun } from '@/lib/server/runs';
 import { problem, toFieldErrors } from '@/lib/server/http';
 
 /** Bytes that mark binary files (images, archives) which are not a logger CSV, whatever their name. */
@@ -21,11 +19,9 @@ function looksBinary(bytes: Uint8Array): boolean {
  * that fails any check stores nothing and says which row and why.
  */
 export const POST: APIRoute = async ({ params, request, locals }) => {
-	const auth = await requireTeamRole(locals, params.teamId, 'member');
-	if (!auth.ok) return auth.response;
-	const id = parseUuid(params.runId);
-	const run = id && (await findRun(locals.db, auth.access.teamId, id));
-	if (!run) return problem(404, 'not_found', 'No such run');
+	const found = await requireRun(locals, params, 'member');
+	if (!found.ok) return found.response;
+	const { access, run } = found;
 	if (!(request.headers.get('content-type') ?? '').startsWith('multipart/form-data')) {
 		return problem(415, 'unsupported_media_type', 'Send the file as multipart/form-data');
 	}
@@ -43,14 +39,14 @@ export const POST: APIRoute = async ({ params, request, locals }) => {
 	const parsed = parseLoggerCsv(text, { time: mapping.data.timeColumn, volts: mapping.data.voltsColumn, amps: mapping.data.ampsColumn, timeUnit: mapping.data.timeUnit });
 	if (!parsed.ok) return problem(400, 'invalid_input', parsed.message, [{ path: parsed.row ? `row ${parsed.row}` : 'file', message: parsed.message }]);
 
-	const key = `teams/${auth.access.teamId}/runs/${run.id}/logger-${Date.now()}.csv`;
+	const key = `teams/${access.teamId}/runs/${run.id}/logger-${Date.now()}.csv`;
 	await locals.storage.put(key, bytes, 'text/csv');
 	try {
 		await locals.db.transaction().execute(async (trx) => {
 			const old = await trx.selectFrom('stored_file').select(['id', 'object_key']).where('run_id', '=', run.id).where('kind', '=', 'logger').execute();
 			await trx.deleteFrom('run_sample').where('run_id', '=', run.id).execute();
 			await trx.deleteFrom('stored_file').where('run_id', '=', run.id).where('kind', '=', 'logger').execute();
-			await trx.insertInto('stored_file').values({ team_id: auth.access.teamId, run_id: run.id, kind: 'logger', object_key: key, file_name: file.name.slice(0, 200), content_type: 'text/csv', size_bytes: bytes.byteLength }).execute();
+			await trx.insertInto('stored_file').values({ team_id: access.teamId, run_id: run.id, kind: 'logger', object_key: key, file_name: file.name.slice(0, 200), content_type: 'text/csv', size_bytes: bytes.byteLength }).execute();
 			for (let i = 0; i < parsed.samples.length; i += 1000) {
 				await trx
 					.insertInto('run_sample')

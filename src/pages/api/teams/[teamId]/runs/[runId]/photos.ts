@@ -1,8 +1,6 @@
 import type { APIRoute } from 'astro';
 import sharp from 'sharp';
-import { parseUuid } from '@/lib/schemas/ids';
-import { requireTeamRole } from '@/lib/server/authz';
-import { findRun } from '@/lib/server/db/runs';
+import { requireRun } from '@/lib/server/runs';
 import { problem } from '@/lib/server/http';
 
 export const MAX_PHOTO_BYTES = 10 * 1024 * 1024;
@@ -18,11 +16,9 @@ export function sniffImage(bytes: Uint8Array): 'image/jpeg' | 'image/png' | 'ima
 
 /** Adds a photo to a run: JPEG, PNG or WebP up to 10 MB, stored with a 320 px WebP thumbnail. */
 export const POST: APIRoute = async ({ params, request, locals }) => {
-	const auth = await requireTeamRole(locals, params.teamId, 'member');
-	if (!auth.ok) return auth.response;
-	const id = parseUuid(params.runId);
-	const run = id && (await findRun(locals.db, auth.access.teamId, id));
-	if (!run) return problem(404, 'not_found', 'No such run');
+	const found = await requireRun(locals, params, 'member');
+	if (!found.ok) return found.response;
+	const { access, run } = found;
 	if (!(request.headers.get('content-type') ?? '').startsWith('multipart/form-data')) return problem(415, 'unsupported_media_type', 'Send the photo as multipart/form-data');
 	if (Number(request.headers.get('content-length') ?? 0) > MAX_PHOTO_BYTES + 64 * 1024) return problem(413, 'invalid_input', 'Photos are limited to 10 MB');
 	const file = (await request.formData().catch(() => null))?.get('file');
@@ -37,13 +33,13 @@ export const POST: APIRoute = async ({ params, request, locals }) => {
 	} catch {
 		return problem(400, 'invalid_input', 'The image could not be read; it may be damaged', [{ path: 'file', message: 'Unreadable image' }]);
 	}
-	const base = `teams/${auth.access.teamId}/runs/${run.id}/photo-${Date.now()}`;
+	const base = `teams/${access.teamId}/runs/${run.id}/photo-${Date.now()}`;
 	const ext = type.split('/')[1];
 	await locals.storage.put(`${base}.${ext}`, bytes, type);
 	await locals.storage.put(`${base}-thumb.webp`, new Uint8Array(thumb), 'image/webp');
 	const ids = await locals.db.transaction().execute(async (trx) => {
-		const photo = await trx.insertInto('stored_file').values({ team_id: auth.access.teamId, run_id: run.id, kind: 'photo', object_key: `${base}.${ext}`, file_name: file.name.slice(0, 200), content_type: type, size_bytes: bytes.byteLength }).returning('id').executeTakeFirstOrThrow();
-		const t = await trx.insertInto('stored_file').values({ team_id: auth.access.teamId, run_id: run.id, kind: 'thumbnail', object_key: `${base}-thumb.webp`, file_name: `${file.name.slice(0, 190)} (thumbnail)`, content_type: 'image/webp', size_bytes: thumb.byteLength }).returning('id').executeTakeFirstOrThrow();
+		const photo = await trx.insertInto('stored_file').values({ team_id: access.teamId, run_id: run.id, kind: 'photo', object_key: `${base}.${ext}`, file_name: file.name.slice(0, 200), content_type: type, size_bytes: bytes.byteLength }).returning('id').executeTakeFirstOrThrow();
+		const t = await trx.insertInto('stored_file').values({ team_id: access.teamId, run_id: run.id, kind: 'thumbnail', object_key: `${base}-thumb.webp`, file_name: `${file.name.slice(0, 190)} (thumbnail)`, content_type: 'image/webp', size_bytes: thumb.byteLength }).returning('id').executeTakeFirstOrThrow();
 		return { photoId: photo.id, thumbnailId: t.id };
 	});
 	return Response.json(ids, { status: 201 });
@@ -51,11 +47,9 @@ export const POST: APIRoute = async ({ params, request, locals }) => {
 
 /** The run's photos (with their thumbnails). */
 export const GET: APIRoute = async ({ params, locals }) => {
-	const auth = await requireTeamRole(locals, params.teamId, 'viewer');
-	if (!auth.ok) return auth.response;
-	const id = parseUuid(params.runId);
-	const run = id && (await findRun(locals.db, auth.access.teamId, id));
-	if (!run) return problem(404, 'not_found', 'No such run');
+	const found = await requireRun(locals, params, 'viewer');
+	if (!found.ok) return found.response;
+	const { access, run } = found;
 	const files = await locals.db.selectFrom('stored_file').select(['id', 'kind', 'object_key', 'file_name']).where('run_id', '=', run.id).where('kind', 'in', ['photo', 'thumbnail']).orderBy('created_at').execute();
 	const photos = files.filter((f) => f.kind === 'photo').map((p) => ({ id: p.id, name: p.file_name, thumbnailId: files.find((f) => f.kind === 'thumbnail' && f.object_key === p.object_key.replace(/\.\w+$/, '-thumb.webp'))?.id ?? null }));
 	return Response.json(photos);
