@@ -16,3 +16,4 @@ export * from './diff';
 export * from './hints';
 export * from './run-analysis';
 export * from './checks';
+export * from './compare';

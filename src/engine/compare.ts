@@ -1,0 +1,68 @@
+import { outputLossDb } from './amplifier';
+import { banksCarryHours } from './budget';
+import { buildReport, DEFAULT_SCENARIO } from './report';
+import { solveNetwork } from './solve';
+import type { BuildDocument, Scenario } from './types';
+
+export interface PlanCandidate {
+	id: string;
+	name: string;
+	document: BuildDocument;
+	/** Total cost of the parts list, in the team's currency. */
+	cost: number;
+}
+
+export interface ComparisonColumn {
+	id: string;
+	name: string;
+	/** The lowest amplifier terminal voltage at burp and at sustained demand (V); null at a collapse. */
+	lowestAmplifierV: { burp: number | null; sustained: number | null };
+	/** Output at the weakest amplifier relative to the current build under burp (dB; + is louder). */
+	deltaDb: number | null;
+	/** Hours the banks carry the sustained deficit at the scenario's engine speed (null: no deficit). */
+	carryHours: number | null;
+	warnings: number;
+	safetyFindings: number;
+	cost: number;
+	/** dB gained per unit of money (null when free or not louder). */
+	dbPerMoney: number | null;
+}
+
+function lowest(doc: BuildDocument, scenario: Scenario, demand: number): number | null {
+	const s = solveNetwork(doc, { engineRpm: scenario.engineRpm, demand, conductorTempC: scenario.conductorTempC });
+	if (s.status === 'collapse' || s.amplifiers.length === 0) return null;
+	return Math.min(...s.amplifiers.map((a) => a.terminalV));
+}
+
+/**
+ * The current build and each plan side by side: the lowest amplifier voltage at burp and at
+ * sustained demand, the weakest amplifier's output relative to the current build (an unregulated
+ * amplifier follows V², so ΔL = 20·log10(V_plan/V_now) while below its rated voltage), how long the
+ * banks carry the music deficit, warnings, cost and dB per unit of money. Every figure is the same
+ * engine run the build page shows for that document.
+ */
+export function comparePlans(current: BuildDocument, plans: PlanCandidate[], scenarioIn: Partial<Scenario> = {}): ComparisonColumn[] {
+	const scenario: Scenario = { ...DEFAULT_SCENARIO, ...scenarioIn };
+	const column = (id: string, name: string, doc: BuildDocument, cost: number, baseBurp: number | null): ComparisonColumn => {
+		const report = buildReport(doc, scenario, { burpRun: false });
+		const burp = lowest(doc, scenario, scenario.burpDemand);
+		const sustained = lowest(doc, scenario, scenario.sustainedDemand);
+		const weakest = report.ok ? report.amplifiers.reduce((w, a) => (a.burpTerminalV < w.burpTerminalV ? a : w), report.amplifiers[0]!) : null;
+		const ampDoc = weakest ? doc.amplifiers.find((a) => a.id === weakest.id) ?? null : null;
+		const deltaDb = burp !== null && baseBurp !== null && ampDoc ? outputLossDb(ampDoc, burp) - outputLossDb(ampDoc, baseBurp) : null;
+		const bankDraw = report.ok ? report.sustained.banks.reduce((s, b) => s + b.currentA, 0) : 0;
+		return {
+			id,
+			name,
+			lowestAmplifierV: { burp, sustained },
+			deltaDb,
+			carryHours: bankDraw > 0.5 ? banksCarryHours(doc.banks, bankDraw, scenario.cutoffV) : null,
+			warnings: report.ok ? report.warnings.length : 0,
+			safetyFindings: report.ok ? report.warnings.filter((w) => w.safety).length : 0,
+			cost,
+			dbPerMoney: deltaDb !== null && deltaDb > 0 && cost > 0 ? deltaDb / cost : null,
+		};
+	};
+	const baseBurp = lowest(current, scenario, scenario.burpDemand);
+	return [column('current', 'Current build', current, 0, baseBurp), ...plans.map((p) => column(p.id, p.name, p.document, p.cost, baseBurp))];
+}

@@ -1,0 +1,40 @@
+import { describe, expect, it } from 'vitest';
+import { marlinBuild } from '../../db/demo/builds';
+import { voltageRatioDb } from '../../src/engine/amplifier';
+import { comparePlans } from '../../src/engine/compare';
+import { upgradeHints } from '../../src/engine/hints';
+import { buildReport } from '../../src/engine/report';
+import { solveNetwork } from '../../src/engine/solve';
+
+const AT = { engineRpm: 1500, demand: 1, conductorTempC: 25 };
+const lowestAt = (doc: typeof marlinBuild, demand: number) => Math.min(...solveNetwork(doc, { ...AT, demand }).amplifiers.map((a) => a.terminalV));
+
+describe('comparePlans', () => {
+	const [first, second] = upgradeHints(marlinBuild, AT);
+	const plans = [
+		{ id: 'p1', name: first!.description, document: first!.document, cost: 400 },
+		{ id: 'p2', name: second!.description, document: second!.document, cost: 250 },
+	];
+	const columns = comparePlans(marlinBuild, plans, { engineRpm: 1500, conductorTempC: 25 });
+
+	it('puts the current build first and each plan after it', () => {
+		expect(columns.map((c) => c.id)).toEqual(['current', 'p1', 'p2']);
+		expect(columns[0]!.deltaDb).toBeCloseTo(0, 12);
+	});
+
+	it('gives the numbers of separate engine runs of each document', () => {
+		for (const [i, doc] of [marlinBuild, plans[0]!.document, plans[1]!.document].entries()) {
+			expect(columns[i]!.lowestAmplifierV.burp).toBeCloseTo(lowestAt(doc, 1), 9);
+			expect(columns[i]!.lowestAmplifierV.sustained).toBeCloseTo(lowestAt(doc, 1 / 8), 9);
+			const r = buildReport(doc, { engineRpm: 1500, conductorTempC: 25 }, { burpRun: false });
+			expect(columns[i]!.warnings).toBe(r.ok ? r.warnings.length : -1);
+		}
+	});
+
+	it('expresses the gain as 20·log10 of the voltage ratio below the rated voltage, and per unit of money', () => {
+		const p1 = columns[1]!;
+		const expected = voltageRatioDb(p1.lowestAmplifierV.burp!, columns[0]!.lowestAmplifierV.burp!);
+		expect(p1.deltaDb).toBeCloseTo(expected, 9);
+		expect(p1.dbPerMoney).toBeCloseTo(expected / 400, 12);
+	});
+});
