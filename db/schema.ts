@@ -15,6 +15,8 @@ export interface TeamTable {
 	reminder_days: Generated<number>;
 	/** Distance within which a battery cable's fuse must sit, for the pre-event checks (m). */
 	fuse_distance_m: Generated<number>;
+	/** ISO 4217 code that plan prices are in. */
+	currency: Generated<string>;
 	last_digest_at: Timestamp | null;
 	created_at: DefaultTimestamp;
 }
@@ -204,7 +206,37 @@ export interface CheckSignoffTable {
 	note: Generated<string>;
 }
 
+export interface PlanTable {
+	id: Generated<string>;
+	vehicle_id: string;
+	name: string;
+	notes: Generated<string>;
+	base_revision_id: string | null;
+	schema_version: number;
+	/** A build document, validated before it is written. */
+	document: ColumnType<unknown, string, string>;
+	/** Bumped on every save; a save naming an older version is refused (409). */
+	version: Generated<number>;
+	created_by: string | null;
+	installed_revision_id: string | null;
+	installed_at: Timestamp | null;
+	created_at: DefaultTimestamp;
+	updated_at: DefaultTimestamp;
+}
+
+export interface PlanPartTable {
+	plan_id: string;
+	position: number;
+	item: string;
+	quantity: number;
+	/** Price of one, in minor units (cents) of the team's currency. bigint arrives as a string. */
+	unit_price_minor: ColumnType<string, number, number>;
+	link: Generated<string>;
+}
+
 export interface Database {
+	plan: PlanTable;
+	plan_part: PlanPartTable;
 	check_item: CheckItemTable;
 	check_signoff: CheckSignoffTable;
 	notification_sent: NotificationSentTable;

@@ -5,6 +5,7 @@ import * as createBuilds from './2026_12_01_140000_create_builds_and_revisions';
 import * as createEvents from './2026_12_01_150000_create_events_and_runs';
 import * as createNotifications from './2026_12_01_160000_create_notifications';
 import * as createChecks from './2026_12_01_170000_create_pre_event_checks';
+import * as createPlans from './2026_12_01_180000_create_plans';
 
 /**
  * Every migration, by name, in the order they apply. Listed explicitly (rather than read from the
@@ -18,4 +19,5 @@ export const migrations: Record<string, Migration> = {
 	'2026_12_01_150000_create_events_and_runs': createEvents,
 	'2026_12_01_160000_create_notifications': createNotifications,
 	'2026_12_01_170000_create_pre_event_checks': createChecks,
+	'2026_12_01_180000_create_plans': createPlans,
 };

@@ -1,7 +1,7 @@
 import { outputLossDb } from './amplifier';
 import { banksCarryHours } from './budget';
 import { buildReport, DEFAULT_SCENARIO } from './report';
-import { solveNetwork } from './solve';
+import { type NetworkSolution, solveNetwork } from './solve';
 import type { BuildDocument, Scenario } from './types';
 
 export interface PlanCandidate {
@@ -21,11 +21,25 @@ export interface ComparisonColumn {
 	deltaDb: number | null;
 	/** Hours the banks carry the sustained deficit at the scenario's engine speed (null: no deficit). */
 	carryHours: number | null;
+	/** The voltage the system settles at (strongest source terminals) under burp and sustained demand. */
+	busV: { burp: number | null; sustained: number | null };
+	/** Each amplifier's terminal voltage under burp and sustained demand. */
+	amplifiers: { id: string; label: string; burpV: number; sustainedV: number }[];
+	/** The fixed-voltage budget: surplus and burp carry time at each supply voltage. */
+	budget: { voltageV: number; sustainedSurplusA: number; burpSurplusA: number; burpCarrySeconds: number | null }[];
 	warnings: number;
+	/** Findings raised against cables (drop, cmil per amp, capacity, fusing). */
+	cableWarnings: string[];
 	safetyFindings: number;
 	cost: number;
 	/** dB gained per unit of money (null when free or not louder). */
 	dbPerMoney: number | null;
+}
+
+/** The strongest source's terminal voltage: what the system settles at. Null at a collapse. */
+function settled(s: NetworkSolution): number | null {
+	if (s.status === 'collapse') return null;
+	return Math.max(0, ...s.banks.map((b) => b.terminalV), ...s.alternators.filter((a) => a.mode !== 'off').map((a) => a.terminalV));
 }
 
 function lowest(doc: BuildDocument, scenario: Scenario, demand: number): number | null {
@@ -57,7 +71,11 @@ export function comparePlans(current: BuildDocument, plans: PlanCandidate[], sce
 			lowestAmplifierV: { burp, sustained },
 			deltaDb,
 			carryHours: bankDraw > 0.5 ? banksCarryHours(doc.banks, bankDraw, scenario.cutoffV) : null,
+			busV: report.ok ? { burp: settled(report.burp), sustained: settled(report.sustained) } : { burp: null, sustained: null },
+			amplifiers: report.ok ? report.amplifiers.map((a) => ({ id: a.id, label: a.label, burpV: a.burpTerminalV, sustainedV: a.sustainedTerminalV })) : [],
+			budget: report.ok ? report.budget.map((r) => ({ voltageV: r.voltageV, sustainedSurplusA: r.sustainedSurplusA, burpSurplusA: r.burpSurplusA, burpCarrySeconds: r.burpCarrySeconds })) : [],
 			warnings: report.ok ? report.warnings.length : 0,
+			cableWarnings: report.ok ? report.warnings.filter((w) => w.element.kind === 'cable' && w.severity !== 'info').map((w) => w.message) : [],
 			safetyFindings: report.ok ? report.warnings.filter((w) => w.safety).length : 0,
 			cost,
 			dbPerMoney: deltaDb !== null && deltaDb > 0 && cost > 0 ? deltaDb / cost : null,

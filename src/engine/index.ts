@@ -17,3 +17,4 @@ export * from './hints';
 export * from './run-analysis';
 export * from './checks';
 export * from './compare';
+export * from './merge';

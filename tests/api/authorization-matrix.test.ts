@@ -4,6 +4,7 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { pebbleBuild } from '../../db/demo/builds';
 import type { AppUser } from '../../src/lib/server/auth';
 import { appendRevision, insertVehicleWithBuild } from '../../src/lib/server/db/builds';
+import { insertPlan } from '../../src/lib/server/db/plans';
 import { hashToken } from '../../src/lib/server/tokens';
 import { callEndpoint, type EndpointModule, jsonRequest } from '../helpers/container';
 import { addMember, localsFor, makeTeam, makeUser, memoryStorage } from '../helpers/fixtures';
@@ -29,10 +30,11 @@ interface World {
 	eventId: string;
 	runId: string;
 	fileId: string;
+	planId: string;
 }
 
 interface Case {
-	method: 'GET' | 'POST' | 'PATCH' | 'DELETE';
+	method: 'GET' | 'POST' | 'PUT' | 'PATCH' | 'DELETE';
 	params: (w: World) => Record<string, string>;
 	body?: (w: World) => unknown;
 	query?: (w: World) => string;
@@ -47,6 +49,7 @@ const captainOnly = (ok: number): Expect => ({ anonymous: 401, viewer: 403, memb
 const memberWrite = (ok: number): Expect => ({ anonymous: 401, viewer: 403, member: ok, captain: ok, outsider: 404 });
 const vehicleScoped = (w: World) => ({ teamId: w.teamId, vehicleId: w.vehicleId });
 const revisionScoped = (w: World) => ({ teamId: w.teamId, vehicleId: w.vehicleId, revisionId: w.revisionId });
+const planScoped = (w: World) => ({ teamId: w.teamId, vehicleId: w.vehicleId, planId: w.planId });
 
 const MATRIX: Record<string, Case[]> = {
 	'teams/index.ts': [
@@ -89,6 +92,17 @@ const MATRIX: Record<string, Case[]> = {
 	'teams/[teamId]/vehicles/[vehicleId]/revisions/[revisionId]/spice.ts': [{ method: 'GET', params: revisionScoped, expect: read }],
 	'teams/[teamId]/vehicles/[vehicleId]/revisions/[revisionId]/document.json.ts': [{ method: 'GET', params: revisionScoped, expect: read }],
 	'teams/[teamId]/vehicles/[vehicleId]/revisions/[revisionId]/restore.ts': [{ method: 'POST', params: revisionScoped, body: (w) => ({ parentId: w.revisionId }), expect: memberWrite(201) }],
+	'teams/[teamId]/vehicles/[vehicleId]/plans/index.ts': [
+		{ method: 'GET', params: vehicleScoped, expect: read },
+		{ method: 'POST', params: vehicleScoped, body: () => ({ name: 'Matrix plan' }), expect: memberWrite(201) },
+	],
+	'teams/[teamId]/vehicles/[vehicleId]/plans/compare.ts': [{ method: 'GET', params: vehicleScoped, query: (w) => `?plans=${w.planId}`, expect: read }],
+	'teams/[teamId]/vehicles/[vehicleId]/plans/[planId]/index.ts': [
+		{ method: 'GET', params: planScoped, expect: read },
+		{ method: 'PUT', params: planScoped, body: () => ({ version: 1, name: 'Renamed plan', notes: '', document: pebbleBuild, parts: [{ item: 'Fuse', quantity: 1, unitPrice: 12.5 }] }), expect: memberWrite(200) },
+		{ method: 'DELETE', params: planScoped, expect: memberWrite(204) },
+	],
+	'teams/[teamId]/vehicles/[vehicleId]/plans/[planId]/install.ts': [{ method: 'POST', params: planScoped, body: (w) => ({ parentId: w.revisionId }), expect: memberWrite(201) }],
 	'teams/[teamId]/events/index.ts': [
 		{ method: 'GET', params: teamScoped, expect: read },
 		{ method: 'POST', params: teamScoped, body: () => ({ name: 'Meet', startsOn: '2026-05-01', endsOn: '2026-05-01' }), expect: memberWrite(201) },
@@ -194,7 +208,8 @@ describe('authorization matrix', () => {
 		const run = await t.db.insertInto('run').values({ vehicle_id: vehicle.id, event_id: ev.id, revision_id: saved.revision.id, ran_at: new Date() }).returning('id').executeTakeFirstOrThrow();
 		const file = await t.db.insertInto('stored_file').values({ team_id: teamId, run_id: run.id, kind: 'logger', object_key: `matrix/${run.id}.csv`, file_name: 'log.csv', content_type: 'text/csv', size_bytes: 4 }).returning('id').executeTakeFirstOrThrow();
 		await storage.put(`matrix/${run.id}.csv`, new TextEncoder().encode('t,v\n'), 'text/csv');
-		return { teamId, teamName, users, targetId: target.id, invitationId: inv.id, invitationToken, vehicleId: vehicle.id, revisionId: saved.revision.id, eventId: ev.id, runId: run.id, fileId: file.id };
+		const planId = await insertPlan(t.db, { vehicleId: vehicle.id, name: 'Matrix plan', notes: '', baseRevisionId: saved.revision.id, document: pebbleBuild, createdBy: users.member.id });
+		return { teamId, teamName, users, targetId: target.id, invitationId: inv.id, invitationToken, vehicleId: vehicle.id, revisionId: saved.revision.id, eventId: ev.id, runId: run.id, fileId: file.id, planId };
 	}
 
 	it('has an entry for every route file and every exported method', () => {

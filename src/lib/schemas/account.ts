@@ -31,8 +31,10 @@ export const renameTeamSchema = z
 	.object({
 		name: teamNameSchema.optional(),
 		reminderDays: z.number({ error: 'Days must be a number' }).int('Whole days').min(0, 'From 0 days').max(60, 'At most 60 days').optional(),
+		/** ISO 4217 code plan prices are in (prices are not converted when it changes). */
+		currency: z.string().trim().toUpperCase().regex(/^[A-Z]{3}$/, 'Use a three-letter currency code such as EUR').optional(),
 	})
-	.refine((v) => v.name !== undefined || v.reminderDays !== undefined, 'Nothing to change');
+	.refine((v) => v.name !== undefined || v.reminderDays !== undefined || v.currency !== undefined, 'Nothing to change');
 export const deleteTeamSchema = z.object({ confirmName: z.string({ error: 'Type the team name to confirm' }) });
 
 export const newInvitationSchema = z.object({ email: emailSchema, role: roleSchema });

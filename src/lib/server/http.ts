@@ -89,3 +89,10 @@ export async function readJson<S extends z.ZodType>(request: Request, schema: S)
 	}
 	return { ok: true, data: parsed.data };
 }
+
+/** Validates a URL's query parameters: 400 with field errors when invalid. */
+export function readQuery<S extends z.ZodType>(url: URL, schema: S): ReadResult<z.infer<S>> {
+	const parsed = schema.safeParse(Object.fromEntries(url.searchParams));
+	if (!parsed.success) return { ok: false, response: problem(400, 'invalid_input', 'Some query parameters need attention', toFieldErrors(parsed.error)) };
+	return { ok: true, data: parsed.data };
+}

@@ -2,6 +2,7 @@ import type { Role } from '../../../db/schema';
 import { parseUuid } from '../schemas/ids';
 import { type TeamAccess, requireTeamRole } from './authz';
 import { findBuildForVehicle, findRevision, findVehicle } from './db/builds';
+import { findPlan } from './db/plans';
 import { problem } from './http';
 
 export interface VehicleAccess {
@@ -33,4 +34,14 @@ export async function requireRevision(locals: Pick<App.Locals, 'db' | 'user'>, p
 	const revision = id && (await findRevision(locals.db, found.value.build.id, id));
 	if (!revision) return { ok: false as const, response: problem(404, 'not_found', 'No such revision') };
 	return { ok: true as const, value: { ...found.value, revision } };
+}
+
+/** requireVehicle, then the plan named in the URL (a plan of another vehicle is a 404). */
+export async function requirePlan(locals: Pick<App.Locals, 'db' | 'user'>, params: Record<string, string | undefined>, min: Role) {
+	const found = await requireVehicle(locals, params, min);
+	if (!found.ok) return found;
+	const id = parseUuid(params.planId);
+	const plan = id && (await findPlan(locals.db, found.value.vehicle.id, id));
+	if (!plan) return { ok: false as const, response: problem(404, 'not_found', 'No such plan') };
+	return { ok: true as const, value: { ...found.value, plan } };
 }

@@ -62,6 +62,8 @@ export type SaveResult = { ok: true; revision: RevisionRow } | { ok: false; reas
 export async function appendRevision(
 	db: Db,
 	p: { buildId: string; parentId: string | null; document: BuildDocument; message: string; authorId: string; restoredFromId?: string | null },
+	/** Further writes that belong with the new revision (same transaction). */
+	after?: (trx: Db, revision: RevisionRow) => Promise<void>,
 ): Promise<SaveResult> {
 	return db.transaction().execute(async (trx): Promise<SaveResult> => {
 		const build = await trx.selectFrom('build').select(['id', 'head_revision_id']).where('id', '=', p.buildId).forUpdate().executeTakeFirstOrThrow();
@@ -82,6 +84,7 @@ export async function appendRevision(
 			.returningAll()
 			.executeTakeFirstOrThrow();
 		await trx.updateTable('build').set({ head_revision_id: revision.id }).where('id', '=', p.buildId).execute();
+		if (after) await after(trx, revision);
 		return { ok: true, revision };
 	});
 }

@@ -7,7 +7,8 @@ import { problem, readJson } from '@/lib/server/http';
 export const GET: APIRoute = async ({ params, locals }) => {
 	const auth = await requireTeamRole(locals, params.teamId, 'viewer');
 	if (!auth.ok) return auth.response;
-	return Response.json({ id: auth.access.teamId, name: auth.access.teamName, role: auth.access.role });
+	const team = await locals.db.selectFrom('team').select(['currency', 'reminder_days', 'fuse_distance_m']).where('id', '=', auth.access.teamId).executeTakeFirstOrThrow();
+	return Response.json({ id: auth.access.teamId, name: auth.access.teamName, role: auth.access.role, currency: team.currency, reminderDays: team.reminder_days, fuseDistanceM: team.fuse_distance_m });
 };
 
 export const PATCH: APIRoute = async ({ params, request, locals }) => {
@@ -16,6 +17,7 @@ export const PATCH: APIRoute = async ({ params, request, locals }) => {
 	const body = await readJson(request, renameTeamSchema);
 	if (!body.ok) return body.response;
 	if (body.data.name !== undefined) await renameTeam(locals.db, auth.access.teamId, body.data.name);
+	if (body.data.currency !== undefined) await locals.db.updateTable('team').set({ currency: body.data.currency }).where('id', '=', auth.access.teamId).execute();
 	if (body.data.reminderDays !== undefined) await locals.db.updateTable('team').set({ reminder_days: body.data.reminderDays }).where('id', '=', auth.access.teamId).execute();
 	return new Response(null, { status: 204 });
 };

@@ -1,0 +1,177 @@
+import { type Kysely, sql } from 'kysely';
+import type { Database } from '../../../../db/schema';
+import type { BuildDocument } from '@/engine/types';
+import type { PlanPartInput, UpdatePlanInput } from '@/lib/schemas/plans';
+import { appendRevision, type SaveResult } from './builds';
+
+type Db = Kysely<Database>;
+
+export interface PlanPart {
+	item: string;
+	quantity: number;
+	/** Per unit, in the team's currency. */
+	unitPrice: number;
+	link: string;
+}
+
+export interface PlanSummary {
+	id: string;
+	name: string;
+	notes: string;
+	baseRevisionId: string | null;
+	baseRevisionNumber: number | null;
+	partCount: number;
+	/** Sum of quantity × unit price, in the team's currency. */
+	total: number;
+	authorName: string | null;
+	createdAt: string;
+	updatedAt: string;
+	installedRevisionNumber: number | null;
+	installedAt: string | null;
+}
+
+export interface PlanDto extends PlanSummary {
+	version: number;
+	document: BuildDocument;
+	parts: PlanPart[];
+}
+
+export const toMinor = (price: number) => Math.round(price * 100);
+export const fromMinor = (minor: string | number) => Number(minor) / 100;
+
+/** Total of a parts list in minor units, so sums are exact. */
+export function partsTotalMinor(parts: Pick<PlanPart, 'quantity' | 'unitPrice'>[]): number {
+	return parts.reduce((s, p) => s + p.quantity * toMinor(p.unitPrice), 0);
+}
+
+function planQuery(db: Db) {
+	return db
+		.selectFrom('plan as p')
+		.leftJoin('revision as base', 'base.id', 'p.base_revision_id')
+		.leftJoin('revision as inst', 'inst.id', 'p.installed_revision_id')
+		.leftJoin('User as u', 'u.id', 'p.created_by')
+		.select([
+			'p.id',
+			'p.name',
+			'p.notes',
+			'p.base_revision_id',
+			'base.number as base_number',
+			'inst.number as installed_number',
+			'p.installed_at',
+			'p.created_at',
+			'p.updated_at',
+			'p.version',
+			'u.name as author_name',
+		])
+		.select((eb) => [
+			eb.selectFrom('plan_part as pp').whereRef('pp.plan_id', '=', 'p.id').select((e) => e.fn.countAll<string>().as('c')).as('part_count'),
+			eb
+				.selectFrom('plan_part as pp')
+				.whereRef('pp.plan_id', '=', 'p.id')
+				.select(sql<string>`coalesce(sum(pp.quantity * pp.unit_price_minor), 0)`.as('s'))
+				.as('total_minor'),
+		]);
+}
+
+type PlanRow = Awaited<ReturnType<ReturnType<typeof planQuery>['executeTakeFirstOrThrow']>>;
+
+function toSummary(r: PlanRow): PlanSummary {
+	return {
+		id: r.id,
+		name: r.name,
+		notes: r.notes,
+		baseRevisionId: r.base_revision_id,
+		baseRevisionNumber: r.base_number,
+		partCount: Number(r.part_count ?? 0),
+		total: fromMinor(r.total_minor ?? 0),
+		authorName: r.author_name,
+		createdAt: r.created_at.toISOString(),
+		updatedAt: r.updated_at.toISOString(),
+		installedRevisionNumber: r.installed_number,
+		installedAt: r.installed_at ? r.installed_at.toISOString() : null,
+	};
+}
+
+export async function listPlans(db: Db, vehicleId: string): Promise<PlanSummary[]> {
+	const rows = await planQuery(db).where('p.vehicle_id', '=', vehicleId).orderBy('p.created_at').orderBy('p.id').execute();
+	return rows.map(toSummary);
+}
+
+export async function findPlan(db: Db, vehicleId: string, planId: string): Promise<PlanDto | undefined> {
+	const row = await planQuery(db).select('p.document').where('p.vehicle_id', '=', vehicleId).where('p.id', '=', planId).executeTakeFirst();
+	if (!row) return undefined;
+	const parts = await db.selectFrom('plan_part').selectAll().where('plan_id', '=', planId).orderBy('position').execute();
+	return {
+		...toSummary(row),
+		version: row.version,
+		document: row.document as BuildDocument,
+		parts: parts.map((p) => ({ item: p.item, quantity: p.quantity, unitPrice: fromMinor(p.unit_price_minor), link: p.link })),
+	};
+}
+
+async function writeParts(trx: Db, planId: string, parts: PlanPartInput[]) {
+	await trx.deleteFrom('plan_part').where('plan_id', '=', planId).execute();
+	if (parts.length) {
+		await trx
+			.insertInto('plan_part')
+			.values(parts.map((p, position) => ({ plan_id: planId, position, item: p.item, quantity: p.quantity, unit_price_minor: toMinor(p.unitPrice), link: p.link })))
+			.execute();
+	}
+}
+
+/** Creates a plan with its parts, in one transaction. */
+export async function insertPlan(
+	db: Db,
+	p: { vehicleId: string; name: string; notes: string; baseRevisionId: string | null; document: BuildDocument; createdBy: string | null; parts?: PlanPartInput[] },
+): Promise<string> {
+	return db.transaction().execute(async (trx) => {
+		const row = await trx
+			.insertInto('plan')
+			.values({
+				vehicle_id: p.vehicleId,
+				name: p.name,
+				notes: p.notes,
+				base_revision_id: p.baseRevisionId,
+				schema_version: p.document.schemaVersion,
+				document: JSON.stringify(p.document),
+				created_by: p.createdBy,
+			})
+			.returning('id')
+			.executeTakeFirstOrThrow();
+		await writeParts(trx, row.id, p.parts ?? []);
+		return row.id;
+	});
+}
+
+export type UpdatePlanResult = { ok: true } | { ok: false; reason: 'missing' } | { ok: false; reason: 'stale'; version: number };
+
+/** Replaces a plan's name, notes, document and parts in one transaction, when `version` is current. */
+export async function updatePlan(db: Db, vehicleId: string, planId: string, input: UpdatePlanInput): Promise<UpdatePlanResult> {
+	return db.transaction().execute(async (trx): Promise<UpdatePlanResult> => {
+		const row = await trx.selectFrom('plan').select(['id', 'version']).where('id', '=', planId).where('vehicle_id', '=', vehicleId).forUpdate().executeTakeFirst();
+		if (!row) return { ok: false, reason: 'missing' };
+		if (row.version !== input.version) return { ok: false, reason: 'stale', version: row.version };
+		await trx
+			.updateTable('plan')
+			.set({ name: input.name, notes: input.notes, document: JSON.stringify(input.document), schema_version: input.document.schemaVersion, version: row.version + 1, updated_at: new Date() })
+			.where('id', '=', planId)
+			.execute();
+		await writeParts(trx, planId, input.parts);
+		return { ok: true };
+	});
+}
+
+export async function deletePlan(db: Db, vehicleId: string, planId: string): Promise<boolean> {
+	const r = await db.deleteFrom('plan').where('id', '=', planId).where('vehicle_id', '=', vehicleId).executeTakeFirst();
+	return Number(r.numDeletedRows) > 0;
+}
+
+/**
+ * Installs a plan: its document becomes a new revision on top of `parentId` (still the head, or
+ * the save is stale), and the plan records which revision it became — one transaction.
+ */
+export function installPlan(db: Db, p: { buildId: string; planId: string; parentId: string | null; document: BuildDocument; message: string; authorId: string }): Promise<SaveResult> {
+	return appendRevision(db, { buildId: p.buildId, parentId: p.parentId, document: p.document, message: p.message, authorId: p.authorId }, async (trx, revision) => {
+		await trx.updateTable('plan').set({ installed_revision_id: revision.id, installed_at: new Date() }).where('id', '=', p.planId).execute();
+	});
+}

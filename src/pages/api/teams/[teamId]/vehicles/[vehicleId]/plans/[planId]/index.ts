@@ -1,0 +1,42 @@
+import type { APIRoute } from 'astro';
+import { checkTopology } from '@/engine/topology';
+import { deletePlan, findPlan, updatePlan } from '@/lib/server/db/plans';
+import { problem, readJson } from '@/lib/server/http';
+import { updatePlanSchema } from '@/lib/schemas/plans';
+import { requirePlan } from '@/lib/server/vehicle-access';
+
+export const GET: APIRoute = async ({ params, locals }) => {
+	const found = await requirePlan(locals, params, 'viewer');
+	if (!found.ok) return found.response;
+	return Response.json(found.value.plan);
+};
+
+/** Saves the whole plan (name, notes, document, parts) when the editor's version is still current. */
+export const PUT: APIRoute = async ({ params, request, locals }) => {
+	const found = await requirePlan(locals, params, 'member');
+	if (!found.ok) return found.response;
+	const body = await readJson(request, updatePlanSchema);
+	if (!body.ok) return body.response;
+	const issues = checkTopology(body.data.document);
+	if (issues.length) {
+		return problem(400, 'invalid_input', 'The network cannot be solved as drawn', issues.map((i) => ({ path: `document.${i.path}`, message: i.message })));
+	}
+	const { vehicle, plan } = found.value;
+	const result = await updatePlan(locals.db, vehicle.id, plan.id, body.data);
+	if (!result.ok && result.reason === 'missing') return problem(404, 'not_found', 'No such plan');
+	if (!result.ok) {
+		const current = await findPlan(locals.db, vehicle.id, plan.id);
+		return new Response(
+			JSON.stringify({ type: 'about:blank', title: 'Conflict', status: 409, code: 'conflict', detail: 'Someone saved this plan after you opened it. Your changes are kept: compare and save again.', current, yours: body.data }),
+			{ status: 409, headers: { 'content-type': 'application/problem+json' } },
+		);
+	}
+	return Response.json(await findPlan(locals.db, vehicle.id, plan.id));
+};
+
+export const DELETE: APIRoute = async ({ params, locals }) => {
+	const found = await requirePlan(locals, params, 'member');
+	if (!found.ok) return found.response;
+	await deletePlan(locals.db, found.value.vehicle.id, found.value.plan.id);
+	return new Response(null, { status: 204 });
+};

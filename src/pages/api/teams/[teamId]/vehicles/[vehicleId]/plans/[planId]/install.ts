@@ -1,0 +1,75 @@
+import type { APIRoute } from 'astro';
+import { mergePlan } from '@/engine/merge';
+import { checkTopology } from '@/engine/topology';
+import { findHeadRevision, findRevision, type RevisionDto } from '@/lib/server/db/builds';
+import { installPlan } from '@/lib/server/db/plans';
+import { problem, readJson } from '@/lib/server/http';
+import { installPlanSchema } from '@/lib/schemas/plans';
+import { requirePlan } from '@/lib/server/vehicle-access';
+
+/**
+ * The plan's document becomes the build's next revision, with a message naming the plan. The body
+ * names the head the installer saw; if someone saved since, 409 with the head (nothing written).
+ * A plan started from an older revision is merged: its changes since that revision are applied to
+ * the head; a part both changed is a conflict (409 naming it).
+ */
+export const POST: APIRoute = async ({ params, request, locals }) => {
+	const found = await requirePlan(locals, params, 'member');
+	if (!found.ok) return found.response;
+	const body = await readJson(request, installPlanSchema);
+	if (!body.ok) return body.response;
+	const { build, plan, access } = found.value;
+	const head = await findHeadRevision(locals.db, build.id);
+	if ((head?.id ?? null) !== body.data.parentId) return stale(head);
+	// The plan's changes since its base go on top of the head, keeping what others saved since.
+	let document = plan.document;
+	if (head && plan.baseRevisionId && plan.baseRevisionId !== head.id) {
+		const base = await findRevision(locals.db, build.id, plan.baseRevisionId);
+		const merged = base ? mergePlan(base.document, plan.document, head.document) : null;
+		if (merged && !merged.ok) {
+			return problem(
+				409,
+				'conflict',
+				`The plan and revision ${head.number} both changed ${merged.conflicts.map((c) => c.label).join(', ')}. Start a new plan from revision ${head.number}, or edit this one to match.`,
+				merged.conflicts.map((c) => ({
+					path: `${c.group}.${c.id}`,
+					message: `${c.label}: ${c.plan} in the plan, ${c.head} in revision ${head.number}`,
+				})),
+			);
+		}
+		if (merged) document = merged.document;
+	}
+	const issues = checkTopology(document);
+	if (issues.length)
+		return problem(
+			400,
+			'invalid_input',
+			'The result cannot be solved as drawn; fix the plan in its editor first',
+			issues.map((i) => ({ path: `document.${i.path}`, message: i.message })),
+		);
+	const message = body.data.message || `Installed plan “${plan.name}”`;
+	const result = await installPlan(locals.db, {
+		buildId: build.id,
+		planId: plan.id,
+		parentId: body.data.parentId,
+		document,
+		message,
+		authorId: access.userId,
+	});
+	if (!result.ok) return stale(await findHeadRevision(locals.db, build.id));
+	return Response.json((await findRevision(locals.db, build.id, result.revision.id)) as RevisionDto, { status: 201 });
+};
+
+function stale(head: RevisionDto | undefined) {
+	return new Response(
+		JSON.stringify({
+			type: 'about:blank',
+			title: 'Conflict',
+			status: 409,
+			code: 'conflict',
+			detail: `Revision ${head?.number ?? '?'} was saved after you looked. Compare the plan with it, then install again.`,
+			head: head ?? null,
+		}),
+		{ status: 409, headers: { 'content-type': 'application/problem+json' } },
+	);
+}

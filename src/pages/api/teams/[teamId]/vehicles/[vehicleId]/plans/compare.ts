@@ -1,0 +1,32 @@
+import type { APIRoute } from 'astro';
+import { comparePlans } from '@/engine/compare';
+import { findHeadRevision } from '@/lib/server/db/builds';
+import { findPlan, partsTotalMinor } from '@/lib/server/db/plans';
+import { problem, readQuery } from '@/lib/server/http';
+import { compareQuerySchema } from '@/lib/schemas/plans';
+import { requireVehicle } from '@/lib/server/vehicle-access';
+
+/** The build's current revision and up to three plans side by side (?plans=a,b,c), computed on the server. */
+export const GET: APIRoute = async ({ params, url, locals }) => {
+	const found = await requireVehicle(locals, params, 'viewer');
+	if (!found.ok) return found.response;
+	const query = readQuery(url, compareQuerySchema);
+	if (!query.ok) return query.response;
+	const { build, vehicle, access } = found.value;
+	const head = await findHeadRevision(locals.db, build.id);
+	if (!head) return problem(409, 'conflict', 'The build has no revision to compare with yet');
+	const plans = [];
+	for (const id of new Set(query.data.plans)) {
+		const plan = await findPlan(locals.db, vehicle.id, id);
+		if (!plan) return problem(404, 'not_found', 'No such plan', [{ path: 'plans', message: `${id} is not a plan of this vehicle` }]);
+		plans.push(plan);
+	}
+	const team = await locals.db.selectFrom('team').select('currency').where('id', '=', access.teamId).executeTakeFirstOrThrow();
+	const scenario = { ...(query.data.engineRpm !== undefined && { engineRpm: query.data.engineRpm }), ...(query.data.conductorTempC !== undefined && { conductorTempC: query.data.conductorTempC }) };
+	const columns = comparePlans(
+		head.document,
+		plans.map((p) => ({ id: p.id, name: p.name, document: p.document, cost: partsTotalMinor(p.parts) / 100 })),
+		scenario,
+	);
+	return Response.json({ currency: team.currency, head: { id: head.id, number: head.number, message: head.message }, columns });
+};
