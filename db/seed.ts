@@ -11,6 +11,7 @@ import { hashPassword } from '../src/lib/server/passwords';
 import { DEFAULT_CLUSTER, ensureCluster } from './cluster';
 import { migrateToLatest } from './migrator';
 import { DEMO_BUILDS, DEMO_HISTORIES } from './demo/builds';
+import { DEMO_PLANS } from './demo/plans';
 import { DEMO_EVENTS, DEMO_RUNS, demoTrace } from './demo/runs';
 import type { Storage } from '../src/lib/server/storage';
 import type { Database } from './schema';
@@ -135,6 +136,18 @@ export async function seedDemo(db: Kysely<Database>, storage?: Storage): Promise
 					await trx.insertInto('stored_file').values({ team_id: team.id, run_id: run.id, kind: 'logger', object_key: key, file_name: 'logger.csv', content_type: 'text/csv', size_bytes: csv.length }).execute();
 				}
 			}
+		}
+		for (const p of DEMO_PLANS) {
+			const vehicle = await trx.selectFrom('vehicle as v').innerJoin('build as b', 'b.vehicle_id', 'v.id').select(['v.id', 'b.head_revision_id']).where('v.team_id', '=', team.id).where('v.name', '=', p.vehicle).executeTakeFirstOrThrow();
+			const plan = await trx
+				.insertInto('plan')
+				.values({ vehicle_id: vehicle.id, name: p.name, notes: p.notes, base_revision_id: vehicle.head_revision_id, schema_version: p.document.schemaVersion, document: JSON.stringify(p.document), created_by: userIds[p.author]! })
+				.returning('id')
+				.executeTakeFirstOrThrow();
+			await trx
+				.insertInto('plan_part')
+				.values(p.parts.map((part, position) => ({ plan_id: plan.id, position, item: part.item, quantity: part.quantity, unit_price_minor: Math.round(part.unitPrice * 100), link: part.link })))
+				.execute();
 		}
 		await trx
 			.insertInto('check_item')

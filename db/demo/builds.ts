@@ -173,7 +173,7 @@ export const oldOakBuild: BuildDocument = {
 		bank({ id: 'rear', label: 'Rear wall bank', positive: 'rear_pos', negative: 'rear_neg', chemistry: 'lfp', cellsPerUnit: 5, unitCapacityAh: 120, unitResistanceOhm: 0.0022, stringsInParallel: 4, stateOfCharge: 0.8 }),
 	],
 	amplifiers: [1, 2, 3, 4].map((i) =>
-		amp({ id: `amp${i}`, label: `Amplifier ${i}`, positive: `amp${i}_pos`, negative: `amp${i}_neg`, ratedPowerW: 3000, efficiency: 0.8 }),
+		amp({ id: `amp${i}`, label: `Amplifier ${i}`, positive: `amp${i}_pos`, negative: `amp${i}_neg`, ratedPowerW: 3000, ratedVoltageV: 18, efficiency: 0.8 }),
 	),
 	loads: [{ id: 'vehicle', label: 'Vehicle electrics', positive: 'front_pos', negative: 'chassis', currentA: 35 }],
 	cables: [

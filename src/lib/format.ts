@@ -72,3 +72,12 @@ export const GROUP_NAMES: Record<string, string> = {
 	loads: 'Steady load',
 	cables: 'Cable',
 };
+
+/** A price in the team's currency (ISO 4217 code), e.g. "$1,234.50" or "€86.35". */
+export function formatMoney(x: number, currency: string): string {
+	try {
+		return new Intl.NumberFormat('en', { style: 'currency', currency, minimumFractionDigits: 2, maximumFractionDigits: 2 }).format(x);
+	} catch {
+		return `${x.toFixed(2)} ${currency}`;
+	}
+}

@@ -39,7 +39,11 @@ export async function openBrowser(): Promise<Browser> {
 		if (msg.type() === 'error') problems.push(`console: ${msg.text()}`);
 	});
 	page.on('pageerror', (error) => problems.push(`page error: ${error.message}`));
-	page.on('requestfailed', (req) => problems.push(`request failed: ${req.url()} ${req.failure()?.errorText ?? ''}`));
+	page.on('requestfailed', (req) => {
+		// A navigation or reload cancels what the old page was still loading: not a fault.
+		if (req.failure()?.errorText === 'net::ERR_ABORTED') return;
+		problems.push(`request failed: ${req.url()} ${req.failure()?.errorText ?? ''}`);
+	});
 	mkdirSync(SCREENSHOT_DIR, { recursive: true });
 	return {
 		context,

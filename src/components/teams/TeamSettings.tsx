@@ -15,6 +15,7 @@ export interface TeamSettingsProps {
 	myUserId: string;
 	initialMembers: MemberDto[];
 	reminderDays: number;
+	currency: string;
 }
 
 const ROLES: Role[] = ['captain', 'member', 'viewer'];
@@ -32,7 +33,7 @@ export function TeamSettings(props: TeamSettingsProps) {
 	);
 }
 
-export function TeamSettingsView({ teamId, teamName, myRole, myUserId, initialMembers, reminderDays }: TeamSettingsProps) {
+export function TeamSettingsView({ teamId, teamName, myRole, myUserId, initialMembers, reminderDays, currency }: TeamSettingsProps) {
 	const captain = myRole === 'captain';
 	return (
 		<div className="flex flex-col gap-10">
@@ -41,6 +42,7 @@ export function TeamSettingsView({ teamId, teamName, myRole, myUserId, initialMe
 			{captain && <PendingSection teamId={teamId} />}
 			{captain && <TeamNameSection teamId={teamId} teamName={teamName} />}
 			{captain && <ReminderSection teamId={teamId} initialDays={reminderDays} />}
+			{captain && <CurrencySection teamId={teamId} initial={currency} />}
 			<LeaveOrDeleteSection teamId={teamId} teamName={teamName} captain={captain} myUserId={myUserId} />
 		</div>
 	);
@@ -296,6 +298,35 @@ function LeaveOrDeleteSection({ teamId, teamName, captain, myUserId }: { teamId:
 				)}
 				<ErrorNote error={error} />
 			</div>
+		</section>
+	);
+}
+
+function CurrencySection({ teamId, initial }: { teamId: string; initial: string }) {
+	const [code, setCode] = useState(initial);
+	const [state, setState] = useState<{ busy: boolean; note: string | null; error: string | null }>({ busy: false, note: null, error: null });
+	return (
+		<section aria-labelledby="currency-heading">
+			<h2 id="currency-heading" className="text-xl font-bold">Plan prices</h2>
+			<p className="text-sm text-ink-soft">The currency plan parts are priced in. Changing it relabels the prices; it does not convert them.</p>
+			<form
+				noValidate
+				className="mt-3 flex flex-wrap items-end gap-3"
+				onSubmit={async (e) => {
+					e.preventDefault();
+					setState({ busy: true, note: null, error: null });
+					try {
+						await sendJson(`/api/teams/${teamId}`, 'PATCH', { currency: code });
+						setState({ busy: false, note: `Plan prices are in ${code.trim().toUpperCase()}.`, error: null });
+					} catch (err) {
+						setState({ busy: false, note: null, error: err instanceof ApiError ? (err.byField().currency ?? err.message) : 'Could not save' });
+					}
+				}}
+			>
+				<Field label="Currency code" value={code} maxLength={3} onChange={(e) => setCode(e.target.value)} error={state.error ?? undefined} className="w-48" hint="Three letters, e.g. USD, EUR, GBP" />
+				<Button type="submit" variant="secondary" busy={state.busy}>Save</Button>
+				{state.note && <span role="status" className="text-sm text-teal">✓ {state.note}</span>}
+			</form>
 		</section>
 	);
 }
