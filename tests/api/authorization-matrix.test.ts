@@ -5,6 +5,7 @@ import { pebbleBuild } from '../../db/demo/builds';
 import type { AppUser } from '../../src/lib/server/auth';
 import { appendRevision, insertVehicleWithBuild } from '../../src/lib/server/db/builds';
 import { insertPlan } from '../../src/lib/server/db/plans';
+import { exportTeam } from '../../src/lib/server/team-backup';
 import { hashToken } from '../../src/lib/server/tokens';
 import { callEndpoint, type EndpointModule, jsonRequest } from '../helpers/container';
 import { addMember, localsFor, makeTeam, makeUser, memoryStorage } from '../helpers/fixtures';
@@ -39,9 +40,13 @@ interface Case {
 	body?: (w: World) => unknown;
 	query?: (w: World) => string;
 	/** A request of its own (multipart uploads); otherwise JSON from `body`. */
-	request?: (w: World) => Request;
+	request?: (w: World) => Request | Promise<Request>;
 	expect: Expect;
 }
+
+const storage = memoryStorage();
+let currentDb: TestDb['db'] | undefined;
+const matrixDb = () => currentDb!;
 
 const teamScoped = (w: World) => ({ teamId: w.teamId });
 const read: Expect = { anonymous: 401, viewer: 200, member: 200, captain: 200, outsider: 404 };
@@ -55,6 +60,20 @@ const MATRIX: Record<string, Case[]> = {
 	'teams/index.ts': [
 		{ method: 'GET', params: () => ({}), expect: { anonymous: 401, viewer: 200, member: 200, captain: 200, outsider: 200 } },
 		{ method: 'POST', params: () => ({}), body: () => ({ name: 'Another' }), expect: { anonymous: 401, viewer: 201, member: 201, captain: 201, outsider: 201 } },
+	],
+	'teams/[teamId]/export.ts': [{ method: 'GET', params: teamScoped, expect: read }],
+	// Anyone signed in may restore a backup they hold: it becomes a new team with them as captain.
+	'teams/import.ts': [
+		{
+			method: 'POST',
+			params: () => ({}),
+			request: async (w) => {
+				const form = new FormData();
+				form.set('file', new Blob([JSON.stringify(await exportTeam(matrixDb(), storage, w.teamId))]), 'backup.json');
+				return new Request('http://localhost/x', { method: 'POST', body: form });
+			},
+			expect: { anonymous: 401, viewer: 201, member: 201, captain: 201, outsider: 201 },
+		},
 	],
 	'teams/[teamId].ts': [
 		{ method: 'GET', params: teamScoped, expect: read },
@@ -178,9 +197,9 @@ const moduleFor = (file: string) => modules[`../../src/pages/api/${file}`]!;
 
 describe('authorization matrix', () => {
 	let t: TestDb;
-	const storage = memoryStorage();
 	beforeAll(async () => {
 		t = await createTestDb();
+		currentDb = t.db;
 	});
 	afterAll(async () => t?.drop());
 
@@ -232,7 +251,7 @@ describe('authorization matrix', () => {
 		const res = await callEndpoint(moduleFor(file), {
 			locals: localsFor(t.db, user, undefined, storage),
 			params: c.params(w),
-			request: c.request?.(w) ?? jsonRequest(`/x${c.query?.(w) ?? ''}`, method, c.body?.(w) ?? (method === 'GET' ? undefined : {})),
+			request: (await c.request?.(w)) ?? jsonRequest(`/x${c.query?.(w) ?? ''}`, method, c.body?.(w) ?? (method === 'GET' ? undefined : {})),
 		});
 		expect(res.status).toBe(c.expect[caller]);
 		if (res.status >= 400) expect(res.headers.get('content-type')).toBe('application/problem+json');

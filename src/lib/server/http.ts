@@ -16,6 +16,8 @@ export type ErrorCode =
 	| 'email_mismatch'
 	| 'last_captain'
 	| 'confirmation_mismatch'
+	| 'invalid_backup'
+	| 'unsupported_version'
 	| 'internal';
 
 export interface FieldError {
@@ -32,6 +34,7 @@ const titles: Record<number, string> = {
 	410: 'Gone',
 	413: 'Content Too Large',
 	415: 'Unsupported Media Type',
+	422: 'Unprocessable Content',
 	429: 'Too Many Requests',
 	500: 'Internal Server Error',
 	503: 'Service Unavailable',

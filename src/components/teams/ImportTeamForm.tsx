@@ -1,0 +1,99 @@
+import { useState } from 'react';
+import { Button, Field, FormMessage } from '../ui/Field';
+
+interface ImportSummary {
+	teamId: string;
+	name: string;
+	members: number;
+	invitations: number;
+	vehicles: number;
+	revisions: number;
+	plans: number;
+	events: number;
+	runs: number;
+	files: number;
+}
+
+/** Restores a team backup file as a new team, with upload progress and the server's reason when it refuses. */
+export function ImportTeamForm() {
+	const [file, setFile] = useState<File | null>(null);
+	const [name, setName] = useState('');
+	const [progress, setProgress] = useState<number | null>(null);
+	const [error, setError] = useState<string | null>(null);
+	const [done, setDone] = useState<ImportSummary | null>(null);
+
+	function send(form: FormData): Promise<ImportSummary> {
+		return new Promise((resolve, reject) => {
+			const xhr = new XMLHttpRequest();
+			xhr.open('POST', '/api/teams/import');
+			xhr.setRequestHeader('accept', 'application/json');
+			xhr.upload.onprogress = (e) => e.lengthComputable && setProgress(Math.round((100 * e.loaded) / e.total));
+			xhr.upload.onload = () => setProgress(100);
+			xhr.onload = () => {
+				let body: { detail?: string } & Partial<ImportSummary> = {};
+				try {
+					body = JSON.parse(xhr.responseText);
+				} catch {
+					// not JSON
+				}
+				if (xhr.status < 300) return resolve(body as ImportSummary);
+				reject(new Error(body.detail ?? `The import failed (${xhr.status}).`));
+			};
+			xhr.onerror = () => reject(new Error('The upload was interrupted; nothing was imported.'));
+			xhr.send(form);
+		});
+	}
+
+	return (
+		<form
+			aria-label="Restore a team from a backup"
+			className="flex flex-col gap-3"
+			onSubmit={async (e) => {
+				e.preventDefault();
+				if (!file) return setError('Choose the backup file first.');
+				const form = new FormData();
+				form.set('file', file);
+				if (name.trim()) form.set('name', name.trim());
+				setError(null);
+				setDone(null);
+				setProgress(0);
+				try {
+					setDone(await send(form));
+				} catch (err) {
+					setError(err instanceof Error ? err.message : 'The import failed.');
+				} finally {
+					setProgress(null);
+				}
+			}}
+		>
+			<div className="flex flex-wrap items-end gap-3">
+				<div className="flex flex-col gap-1">
+					<label htmlFor="backup-file" className="text-sm font-semibold">
+						Backup file
+					</label>
+					<input id="backup-file" type="file" accept="application/json,.json" onChange={(e) => setFile(e.target.files?.[0] ?? null)} className="rounded-md border border-hairline bg-card px-3 py-1.5 text-sm" />
+				</div>
+				<Field label="Name for the restored team (optional)" value={name} onChange={(e) => setName(e.target.value)} maxLength={80} className="min-w-64" />
+				<Button type="submit" variant="secondary" busy={progress !== null} disabled={!file}>
+					Restore as a new team
+				</Button>
+			</div>
+			{progress !== null && (
+				<div role="progressbar" aria-label="Uploading the backup" aria-valuenow={progress} aria-valuemin={0} aria-valuemax={100} className="h-2 w-full max-w-md overflow-hidden rounded bg-paper">
+					<div className="h-full bg-copper transition-all" style={{ width: `${progress}%` }} />
+				</div>
+			)}
+			{progress === 100 && <p role="status" className="text-sm text-ink-soft">Checking and writing the team…</p>}
+			{error && <FormMessage tone="error">{error}</FormMessage>}
+			{done && (
+				<FormMessage tone="ok">
+					“{done.name}” is restored: {done.vehicles} vehicles, {done.revisions} revisions, {done.plans} plans, {done.events} events, {done.runs} runs, {done.files} files. {done.members} member{done.members === 1 ? '' : 's'} joined
+					{done.invitations > 0 && `; ${done.invitations} without an account here are invited (resend their invitations from the team page)`}.{' '}
+					<a className="font-semibold underline" href={`/teams/${done.teamId}`}>
+						Open the team
+					</a>
+				</FormMessage>
+			)}
+		</form>
+	);
+}

@@ -1,0 +1,120 @@
+import { z } from 'zod';
+import { buildDocumentSchema } from './build-document';
+
+/**
+ * A whole team as one file. Records refer to each other by keys local to the file (`v1`, `v1.r3`,
+ * `e2`, `run4`, `item1`), never by database ids, so the same team exported from two installations
+ * gives the same file. `checksum` is the SHA-256 of JSON.stringify(team), so a damaged or edited
+ * file is refused before anything is written.
+ */
+export const BACKUP_FORMAT = 'sagwise-team-backup';
+export const BACKUP_VERSION = 1;
+
+const iso = z.iso.datetime({ offset: true });
+const day = z.iso.date();
+const key = z.string().min(1).max(40);
+const email = z.string().email().max(320);
+const role = z.enum(['captain', 'member', 'viewer']);
+const num = z.number().nullable();
+
+export const backupFileSchema = z.object({
+	key,
+	kind: z.enum(['logger', 'photo', 'thumbnail']),
+	/** The last part of the object key (a photo and its thumbnail are paired by it). */
+	objectName: z.string().min(1).max(300),
+	fileName: z.string().max(300),
+	contentType: z.string().max(120),
+	sizeBytes: z.number().int().min(0),
+	createdAt: iso,
+	/** The bytes, base64. */
+	data: z.base64(),
+});
+
+export const teamBackupContentSchema = z.object({
+	name: z.string().min(1).max(80),
+	reminderDays: z.number().int().min(0).max(60),
+	fuseDistanceM: z.number().positive().max(3),
+	currency: z.string().regex(/^[A-Z]{3}$/),
+	createdAt: iso,
+	members: z.array(z.object({ email, name: z.string().nullable(), role })),
+	checkItems: z.array(z.object({ key, label: z.string().min(1).max(200), createdAt: iso })),
+	vehicles: z.array(
+		z.object({
+			key,
+			name: z.string().min(1).max(80),
+			description: z.string(),
+			competitionClass: z.string(),
+			notes: z.string(),
+			archivedAt: iso.nullable(),
+			ownerEmail: email.nullable(),
+			createdAt: iso,
+			headRevision: z.number().int().positive().nullable(),
+			revisions: z.array(
+				z.object({
+					number: z.number().int().positive(),
+					parent: z.number().int().positive().nullable(),
+					restoredFrom: z.number().int().positive().nullable(),
+					message: z.string(),
+					authorEmail: email.nullable(),
+					createdAt: iso,
+					document: buildDocumentSchema,
+				}),
+			),
+			plans: z.array(
+				z.object({
+					name: z.string().min(1).max(120),
+					notes: z.string(),
+					baseRevision: z.number().int().positive().nullable(),
+					installedRevision: z.number().int().positive().nullable(),
+					installedAt: iso.nullable(),
+					version: z.number().int().min(1),
+					createdByEmail: email.nullable(),
+					createdAt: iso,
+					updatedAt: iso,
+					document: buildDocumentSchema,
+					parts: z.array(z.object({ item: z.string().min(1).max(200), quantity: z.number().int().min(1), unitPriceMinor: z.number().int().min(0), link: z.string() })),
+				}),
+			),
+		}),
+	),
+	events: z.array(z.object({ key, name: z.string().min(1), startsOn: day, endsOn: day, place: z.string(), format: z.string(), notes: z.string(), createdAt: iso })),
+	runs: z.array(
+		z.object({
+			key,
+			vehicle: key,
+			event: key.nullable(),
+			revision: z.number().int().positive().nullable(),
+			ranAt: iso,
+			scoreDb: num,
+			frequencyHz: num,
+			restingV: num,
+			minV: num,
+			ambientC: num,
+			notes: z.string(),
+			authorEmail: email.nullable(),
+			createdAt: iso,
+			/** Logger samples as [seconds, volts, amps]. */
+			samples: z.array(z.tuple([z.number(), z.number(), z.number()])),
+			files: z.array(backupFileSchema),
+		}),
+	),
+	signoffs: z.array(z.object({ event: key, vehicle: key, item: z.string().min(1).max(200), signedByEmail: email.nullable(), signedAt: iso, note: z.string() })),
+});
+export type TeamBackupContent = z.infer<typeof teamBackupContentSchema>;
+
+/** The envelope, read first: format and version decide whether the rest is read at all. */
+export const backupEnvelopeSchema = z.object({
+	format: z.literal(BACKUP_FORMAT),
+	version: z.number().int().min(1),
+	exportedAt: iso,
+	checksum: z.string().regex(/^[0-9a-f]{64}$/),
+	team: z.unknown(),
+});
+
+export interface TeamBackup {
+	format: typeof BACKUP_FORMAT;
+	version: typeof BACKUP_VERSION;
+	exportedAt: string;
+	checksum: string;
+	team: TeamBackupContent;
+}

@@ -1,0 +1,402 @@
+import { createHash, randomBytes } from 'node:crypto';
+import type { Kysely } from 'kysely';
+import type { Database, Role } from '../../../db/schema';
+import type { BuildDocument } from '@/engine/types';
+import { BACKUP_FORMAT, BACKUP_VERSION, backupEnvelopeSchema, type TeamBackup, type TeamBackupContent, teamBackupContentSchema } from '@/lib/schemas/team-backup';
+import type { Storage } from './storage';
+import { hashToken } from './tokens';
+
+type Db = Kysely<Database>;
+
+const iso = (d: Date) => d.toISOString();
+const checksumOf = (team: unknown) => createHash('sha256').update(JSON.stringify(team)).digest('hex');
+const lastSegment = (key: string) => key.slice(key.lastIndexOf('/') + 1);
+
+/**
+ * Reads a whole team into one backup: members by e-mail and role, manual check items, vehicles
+ * with every revision and plan, events, runs with their logger samples and files (bytes from
+ * storage), and check sign-offs. Ordered deterministically so equal teams give equal files.
+ */
+export async function exportTeam(db: Db, storage: Storage, teamId: string): Promise<TeamBackup> {
+	const team = await db.selectFrom('team').selectAll().where('id', '=', teamId).executeTakeFirstOrThrow();
+	const users = new Map((await db.selectFrom('User').select(['id', 'email']).execute()).map((u) => [u.id, u.email]));
+	const emailOf = (id: string | null) => (id ? (users.get(id) ?? null) : null);
+
+	const members = await db
+		.selectFrom('membership as m')
+		.innerJoin('User as u', 'u.id', 'm.user_id')
+		.select(['u.email', 'u.name', 'm.role'])
+		.where('m.team_id', '=', teamId)
+		.orderBy('u.email')
+		.execute();
+	const items = await db.selectFrom('check_item').selectAll().where('team_id', '=', teamId).orderBy('created_at').orderBy('label').orderBy('id').execute();
+	const itemKey = new Map(items.map((it, i) => [`manual:${it.id}`, `manual:item${i + 1}`]));
+
+	const vehicles = await db
+		.selectFrom('vehicle as v')
+		.innerJoin('build as b', 'b.vehicle_id', 'v.id')
+		.selectAll('v')
+		.select(['b.id as build_id', 'b.head_revision_id'])
+		.where('v.team_id', '=', teamId)
+		.orderBy('v.created_at')
+		.orderBy('v.name')
+		.orderBy('v.id')
+		.execute();
+	const vehicleKey = new Map(vehicles.map((v, i) => [v.id, `v${i + 1}`]));
+	const revisionNumber = new Map<string, number>();
+	const outVehicles: TeamBackupContent['vehicles'] = [];
+	for (const v of vehicles) {
+		const revisions = await db.selectFrom('revision').selectAll().where('build_id', '=', v.build_id).orderBy('number').execute();
+		for (const r of revisions) revisionNumber.set(r.id, r.number);
+		const num = (id: string | null) => (id ? (revisionNumber.get(id) ?? null) : null);
+		const plans = await db.selectFrom('plan').selectAll().where('vehicle_id', '=', v.id).orderBy('created_at').orderBy('name').orderBy('id').execute();
+		const parts = plans.length ? await db.selectFrom('plan_part').selectAll().where('plan_id', 'in', plans.map((p) => p.id)).orderBy('position').execute() : [];
+		outVehicles.push({
+			key: vehicleKey.get(v.id)!,
+			name: v.name,
+			description: v.description,
+			competitionClass: v.competition_class,
+			notes: v.notes,
+			archivedAt: v.archived_at ? iso(v.archived_at) : null,
+			ownerEmail: emailOf(v.owner_id),
+			createdAt: iso(v.created_at),
+			headRevision: num(v.head_revision_id),
+			revisions: revisions.map((r) => ({
+				number: r.number,
+				parent: num(r.parent_id),
+				restoredFrom: num(r.restored_from_id),
+				message: r.message,
+				authorEmail: emailOf(r.author_id),
+				createdAt: iso(r.created_at),
+				document: r.document as BuildDocument,
+			})),
+			plans: plans.map((p) => ({
+				name: p.name,
+				notes: p.notes,
+				baseRevision: num(p.base_revision_id),
+				installedRevision: num(p.installed_revision_id),
+				installedAt: p.installed_at ? iso(p.installed_at) : null,
+				version: p.version,
+				createdByEmail: emailOf(p.created_by),
+				createdAt: iso(p.created_at),
+				updatedAt: iso(p.updated_at),
+				document: p.document as BuildDocument,
+				parts: parts.filter((x) => x.plan_id === p.id).map((x) => ({ item: x.item, quantity: x.quantity, unitPriceMinor: Number(x.unit_price_minor), link: x.link })),
+			})),
+		});
+	}
+
+	const events = await db.selectFrom('event').selectAll().where('team_id', '=', teamId).orderBy('starts_on').orderBy('name').orderBy('created_at').orderBy('id').execute();
+	const eventKey = new Map(events.map((e, i) => [e.id, `e${i + 1}`]));
+
+	const runs = vehicles.length
+		? await db.selectFrom('run').selectAll().where('vehicle_id', 'in', vehicles.map((v) => v.id)).orderBy('ran_at').orderBy('created_at').orderBy('id').execute()
+		: [];
+	const outRuns: TeamBackupContent['runs'] = [];
+	for (const [i, r] of runs.entries()) {
+		const samples = await db.selectFrom('run_sample').select(['t_s', 'volts', 'amps']).where('run_id', '=', r.id).orderBy('seq').execute();
+		const files = await db.selectFrom('stored_file').selectAll().where('run_id', '=', r.id).orderBy('created_at').orderBy('kind').orderBy('object_key').execute();
+		const outFiles: TeamBackupContent['runs'][number]['files'] = [];
+		for (const [j, f] of files.entries()) {
+			const bytes = await storage.get(f.object_key);
+			if (!bytes) throw new Error(`The stored file ${f.file_name} (${f.object_key}) is missing from storage`);
+			outFiles.push({
+				key: `run${i + 1}.f${j + 1}`,
+				kind: f.kind,
+				objectName: lastSegment(f.object_key),
+				fileName: f.file_name,
+				contentType: f.content_type,
+				sizeBytes: f.size_bytes,
+				createdAt: iso(f.created_at),
+				data: Buffer.from(bytes).toString('base64'),
+			});
+		}
+		outRuns.push({
+			key: `run${i + 1}`,
+			vehicle: vehicleKey.get(r.vehicle_id)!,
+			event: r.event_id ? (eventKey.get(r.event_id) ?? null) : null,
+			revision: r.revision_id ? (revisionNumber.get(r.revision_id) ?? null) : null,
+			ranAt: iso(r.ran_at),
+			scoreDb: r.score_db,
+			frequencyHz: r.frequency_hz,
+			restingV: r.resting_v,
+			minV: r.min_v,
+			ambientC: r.ambient_c,
+			notes: r.notes,
+			authorEmail: emailOf(r.author_id),
+			createdAt: iso(r.created_at),
+			samples: samples.map((s) => [s.t_s, s.volts, s.amps] as [number, number, number]),
+			files: outFiles,
+		});
+	}
+
+	const signoffs = events.length
+		? await db.selectFrom('check_signoff').selectAll().where('event_id', 'in', events.map((e) => e.id)).orderBy('signed_at').orderBy('item_key').execute()
+		: [];
+	const content: TeamBackupContent = {
+		name: team.name,
+		reminderDays: team.reminder_days,
+		fuseDistanceM: team.fuse_distance_m,
+		currency: team.currency,
+		createdAt: iso(team.created_at),
+		members: members.map((m) => ({ email: m.email, name: m.name, role: m.role })),
+		checkItems: items.map((it, i) => ({ key: `item${i + 1}`, label: it.label, createdAt: iso(it.created_at) })),
+		vehicles: outVehicles,
+		events: events.map((e) => ({ key: eventKey.get(e.id)!, name: e.name, startsOn: e.starts_on, endsOn: e.ends_on, place: e.place, format: e.format, notes: e.notes, createdAt: iso(e.created_at) })),
+		runs: outRuns,
+		signoffs: signoffs
+			.filter((s) => vehicleKey.has(s.vehicle_id))
+			.map((s) => ({ event: eventKey.get(s.event_id)!, vehicle: vehicleKey.get(s.vehicle_id)!, item: itemKey.get(s.item_key) ?? s.item_key, signedByEmail: emailOf(s.signed_by), signedAt: iso(s.signed_at), note: s.note })),
+	};
+	return { format: BACKUP_FORMAT, version: BACKUP_VERSION, exportedAt: new Date().toISOString(), checksum: checksumOf(content), team: content };
+}
+
+export type ParseBackupResult = { ok: true; backup: TeamBackup } | { ok: false; code: 'invalid_backup' | 'unsupported_version'; detail: string; errors?: { path: string; message: string }[] };
+
+/** Checks a backup file before anything is written: JSON, format, version, checksum, then every record. */
+export function parseBackup(text: string): ParseBackupResult {
+	let raw: unknown;
+	try {
+		raw = JSON.parse(text);
+	} catch {
+		return { ok: false, code: 'invalid_backup', detail: 'This file is not a team backup: it is not valid JSON (it may be cut short or damaged).' };
+	}
+	const envelope = backupEnvelopeSchema.safeParse(raw);
+	if (!envelope.success) {
+		return { ok: false, code: 'invalid_backup', detail: 'This file is not a team backup from this product.', errors: envelope.error.issues.slice(0, 10).map((i) => ({ path: i.path.join('.'), message: i.message })) };
+	}
+	if (envelope.data.version > BACKUP_VERSION) {
+		return { ok: false, code: 'unsupported_version', detail: `This backup was written by a newer version of the product (format ${envelope.data.version}; this installation reads up to ${BACKUP_VERSION}). Update this installation, then import it again.` };
+	}
+	if (checksumOf(envelope.data.team) !== envelope.data.checksum) {
+		return { ok: false, code: 'invalid_backup', detail: 'This backup is damaged or was edited: its checksum does not match its contents. Nothing was imported.' };
+	}
+	const team = teamBackupContentSchema.safeParse(envelope.data.team);
+	if (!team.success) {
+		return { ok: false, code: 'invalid_backup', detail: 'This backup has records that cannot be read.', errors: team.error.issues.slice(0, 10).map((i) => ({ path: `team.${i.path.join('.')}`, message: i.message })) };
+	}
+	const problems = crossCheck(team.data);
+	if (problems.length) return { ok: false, code: 'invalid_backup', detail: 'This backup refers to records it does not contain.', errors: problems.slice(0, 10) };
+	return { ok: true, backup: { ...envelope.data, format: BACKUP_FORMAT, version: BACKUP_VERSION, team: team.data } };
+}
+
+/** References inside the file must resolve: vehicles, events, revision numbers, check items. */
+function crossCheck(t: TeamBackupContent): { path: string; message: string }[] {
+	const out: { path: string; message: string }[] = [];
+	const vehicles = new Map(t.vehicles.map((v) => [v.key, new Set(v.revisions.map((r) => r.number))]));
+	const events = new Set(t.events.map((e) => e.key));
+	const items = new Set(t.checkItems.map((i) => `manual:${i.key}`));
+	t.vehicles.forEach((v, i) => {
+		const nums = vehicles.get(v.key)!;
+		const ref = (n: number | null, path: string) => n !== null && !nums.has(n) && out.push({ path, message: `No revision ${n} in this vehicle` });
+		ref(v.headRevision, `team.vehicles.${i}.headRevision`);
+		v.revisions.forEach((r, j) => {
+			ref(r.parent, `team.vehicles.${i}.revisions.${j}.parent`);
+			ref(r.restoredFrom, `team.vehicles.${i}.revisions.${j}.restoredFrom`);
+		});
+		v.plans.forEach((p, j) => {
+			ref(p.baseRevision, `team.vehicles.${i}.plans.${j}.baseRevision`);
+			ref(p.installedRevision, `team.vehicles.${i}.plans.${j}.installedRevision`);
+		});
+	});
+	t.runs.forEach((r, i) => {
+		const nums = vehicles.get(r.vehicle);
+		if (!nums) out.push({ path: `team.runs.${i}.vehicle`, message: `No vehicle ${r.vehicle}` });
+		if (r.event && !events.has(r.event)) out.push({ path: `team.runs.${i}.event`, message: `No event ${r.event}` });
+		if (nums && r.revision !== null && !nums.has(r.revision)) out.push({ path: `team.runs.${i}.revision`, message: `No revision ${r.revision}` });
+		r.files.forEach((f, j) => Buffer.from(f.data, 'base64').byteLength !== f.sizeBytes && out.push({ path: `team.runs.${i}.files.${j}`, message: 'Size does not match the bytes' }));
+	});
+	t.signoffs.forEach((s, i) => {
+		if (!events.has(s.event) || !vehicles.has(s.vehicle)) out.push({ path: `team.signoffs.${i}`, message: 'Refers to a missing event or vehicle' });
+		if (s.item.startsWith('manual:') && !items.has(s.item)) out.push({ path: `team.signoffs.${i}.item`, message: `No check item ${s.item}` });
+	});
+	return out;
+}
+
+export interface ImportSummary {
+	teamId: string;
+	name: string;
+	members: number;
+	invitations: number;
+	vehicles: number;
+	revisions: number;
+	plans: number;
+	events: number;
+	runs: number;
+	files: number;
+}
+
+/**
+ * Writes a parsed backup as a new team, all in one transaction; files go to storage first and are
+ * removed again if the transaction fails, so a failed import leaves nothing behind. The importer
+ * becomes captain. Members with an account here join with their role; the others get a pending
+ * invitation (sent from the team page). Authors, owners and sign-offs map to accounts by e-mail.
+ */
+export async function importTeam(db: Db, storage: Storage, backup: TeamBackup, importer: { id: string }, name?: string): Promise<ImportSummary> {
+	const t = backup.team;
+	const emails = [...new Set([...t.members.map((m) => m.email.toLowerCase())])];
+	const accounts = new Map(
+		(await db.selectFrom('User').select(['id', 'email']).execute()).filter((u) => u.email).map((u) => [u.email!.toLowerCase(), u.id] as const),
+	);
+	const userOf = (email: string | null) => (email ? (accounts.get(email.toLowerCase()) ?? null) : null);
+	const written: string[] = [];
+	try {
+		return await db.transaction().execute(async (trx) => {
+			const team = await trx
+				.insertInto('team')
+				.values({ name: name ?? t.name, reminder_days: t.reminderDays, fuse_distance_m: t.fuseDistanceM, currency: t.currency, created_at: t.createdAt })
+				.returning(['id', 'name'])
+				.executeTakeFirstOrThrow();
+			let members = 0;
+			let invitations = 0;
+			const roles = new Map<string, Role>(t.members.map((m) => [m.email.toLowerCase(), m.role]));
+			const joined = new Set<string>();
+			for (const email of emails) {
+				const userId = accounts.get(email);
+				if (userId) {
+					await trx.insertInto('membership').values({ team_id: team.id, user_id: userId, role: userId === importer.id ? 'captain' : roles.get(email)! }).execute();
+					joined.add(userId);
+					members++;
+				} else {
+					await trx
+						.insertInto('invitation')
+						.values({ team_id: team.id, email, role: roles.get(email)!, token_hash: hashToken(randomBytes(32).toString('base64url')), invited_by: importer.id, expires_at: new Date(Date.now() + 7 * 86_400_000) })
+						.execute();
+					invitations++;
+				}
+			}
+			if (!joined.has(importer.id)) {
+				await trx.insertInto('membership').values({ team_id: team.id, user_id: importer.id, role: 'captain' }).execute();
+				members++;
+			}
+
+			const itemIds = new Map<string, string>();
+			for (const it of t.checkItems) {
+				const row = await trx.insertInto('check_item').values({ team_id: team.id, label: it.label, created_at: it.createdAt }).returning('id').executeTakeFirstOrThrow();
+				itemIds.set(`manual:${it.key}`, `manual:${row.id}`);
+			}
+
+			const vehicleIds = new Map<string, string>();
+			const revisionIds = new Map<string, string>(); // `${vehicleKey}#${number}` → id
+			let revisions = 0;
+			let plans = 0;
+			for (const v of t.vehicles) {
+				const vehicle = await trx
+					.insertInto('vehicle')
+					.values({ team_id: team.id, name: v.name, description: v.description, competition_class: v.competitionClass, notes: v.notes, archived_at: v.archivedAt, owner_id: userOf(v.ownerEmail), created_at: v.createdAt })
+					.returning('id')
+					.executeTakeFirstOrThrow();
+				vehicleIds.set(v.key, vehicle.id);
+				const build = await trx.insertInto('build').values({ vehicle_id: vehicle.id }).returning('id').executeTakeFirstOrThrow();
+				const rev = (n: number | null) => (n === null ? null : revisionIds.get(`${v.key}#${n}`)!);
+				// Parents and restore sources always have lower numbers, so number order resolves them.
+				for (const r of [...v.revisions].sort((a, b) => a.number - b.number)) {
+					const row = await trx
+						.insertInto('revision')
+						.values({
+							build_id: build.id,
+							parent_id: rev(r.parent),
+							number: r.number,
+							schema_version: r.document.schemaVersion,
+							document: JSON.stringify(r.document),
+							message: r.message,
+							author_id: userOf(r.authorEmail),
+							restored_from_id: rev(r.restoredFrom),
+							created_at: r.createdAt,
+						})
+						.returning('id')
+						.executeTakeFirstOrThrow();
+					revisionIds.set(`${v.key}#${r.number}`, row.id);
+					revisions++;
+				}
+				await trx.updateTable('build').set({ head_revision_id: rev(v.headRevision) }).where('id', '=', build.id).execute();
+				for (const p of v.plans) {
+					const row = await trx
+						.insertInto('plan')
+						.values({
+							vehicle_id: vehicle.id,
+							name: p.name,
+							notes: p.notes,
+							base_revision_id: rev(p.baseRevision),
+							schema_version: p.document.schemaVersion,
+							document: JSON.stringify(p.document),
+							version: p.version,
+							created_by: userOf(p.createdByEmail),
+							installed_revision_id: rev(p.installedRevision),
+							installed_at: p.installedAt,
+							created_at: p.createdAt,
+							updated_at: p.updatedAt,
+						})
+						.returning('id')
+						.executeTakeFirstOrThrow();
+					if (p.parts.length) {
+						await trx
+							.insertInto('plan_part')
+							.values(p.parts.map((x, position) => ({ plan_id: row.id, position, item: x.item, quantity: x.quantity, unit_price_minor: x.unitPriceMinor, link: x.link })))
+							.execute();
+					}
+					plans++;
+				}
+			}
+
+			const eventIds = new Map<string, string>();
+			for (const e of t.events) {
+				const row = await trx
+					.insertInto('event')
+					.values({ team_id: team.id, name: e.name, starts_on: e.startsOn, ends_on: e.endsOn, place: e.place, format: e.format, notes: e.notes, created_at: e.createdAt })
+					.returning('id')
+					.executeTakeFirstOrThrow();
+				eventIds.set(e.key, row.id);
+			}
+
+			let files = 0;
+			for (const r of t.runs) {
+				const run = await trx
+					.insertInto('run')
+					.values({
+						vehicle_id: vehicleIds.get(r.vehicle)!,
+						event_id: r.event ? eventIds.get(r.event)! : null,
+						revision_id: r.revision === null ? null : revisionIds.get(`${r.vehicle}#${r.revision}`)!,
+						ran_at: r.ranAt,
+						score_db: r.scoreDb,
+						frequency_hz: r.frequencyHz,
+						resting_v: r.restingV,
+						min_v: r.minV,
+						ambient_c: r.ambientC,
+						notes: r.notes,
+						author_id: userOf(r.authorEmail),
+						created_at: r.createdAt,
+					})
+					.returning('id')
+					.executeTakeFirstOrThrow();
+				for (let i = 0; i < r.samples.length; i += 5000) {
+					await trx
+						.insertInto('run_sample')
+						.values(r.samples.slice(i, i + 5000).map(([tS, volts, amps], j) => ({ run_id: run.id, seq: i + j, t_s: tS, volts, amps })))
+						.execute();
+				}
+				for (const f of r.files) {
+					const objectKey = `teams/${team.id}/runs/${run.id}/${f.objectName}`;
+					await storage.put(objectKey, new Uint8Array(Buffer.from(f.data, 'base64')), f.contentType);
+					written.push(objectKey);
+					await trx
+						.insertInto('stored_file')
+						.values({ team_id: team.id, run_id: run.id, kind: f.kind, object_key: objectKey, file_name: f.fileName, content_type: f.contentType, size_bytes: f.sizeBytes, created_at: f.createdAt })
+						.execute();
+					files++;
+				}
+			}
+
+			for (const s of t.signoffs) {
+				await trx
+					.insertInto('check_signoff')
+					.values({ event_id: eventIds.get(s.event)!, vehicle_id: vehicleIds.get(s.vehicle)!, item_key: itemIds.get(s.item) ?? s.item, signed_by: userOf(s.signedByEmail), signed_at: s.signedAt, note: s.note })
+					.execute();
+			}
+			return { teamId: team.id, name: team.name, members, invitations, vehicles: t.vehicles.length, revisions, plans, events: t.events.length, runs: t.runs.length, files };
+		});
+	} catch (e) {
+		await Promise.all(written.map((k) => storage.remove(k).catch(() => undefined)));
+		throw e;
+	}
+}
