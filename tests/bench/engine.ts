@@ -8,6 +8,10 @@ import { DEMO_BUILDS } from '../../db/demo/builds';
 import { buildReport, DEFAULT_SCENARIO } from '../../src/engine/report';
 import { runBurp } from '../../src/engine/burp';
 import { solveNetwork } from '../../src/engine/solve';
+import { comparePlans } from '../../src/engine/compare';
+import { upgradeHints } from '../../src/engine/hints';
+import { mergePlan } from '../../src/engine/merge';
+import { DEMO_PLANS } from '../../db/demo/plans';
 import { forty, synthetic200 } from './fixtures';
 
 const bench = new Bench({ time: 1500, warmupTime: 300, retainSamples: true });
@@ -21,6 +25,12 @@ bench.add(`editor recompute (report, no time-stepping): ${fortyCables.cables.len
 bench.add(`editor deferred burp: ${fortyCables.cables.length} cables`, () => void runBurp(fortyCables, { engineRpm: 1500, demand: 1, conductorTempC: 25, durationS: 10, stepS: 0.01 }));
 const big = synthetic200();
 const bigCheck = solveNetwork(big, { engineRpm: 1500, demand: 1, conductorTempC: 25 });
+// The plans page: the current build and three plans, answered by the compare route (target < 50 ms).
+const oakPlans = DEMO_PLANS.map((p, i) => ({ id: String(i), name: p.name, document: p.document, cost: 1000 }));
+bench.add('plan comparison: Old Oak and three plans', () => void comparePlans(DEMO_BUILDS['Old Oak'], [...oakPlans, { ...oakPlans[0]!, id: '2' }]));
+bench.add('upgrade hints: Old Oak', () => void upgradeHints(DEMO_BUILDS['Old Oak'], { engineRpm: 1500, demand: 1, conductorTempC: 25 }));
+bench.add('plan merge onto a newer head: Old Oak', () => void mergePlan(DEMO_BUILDS['Old Oak'], DEMO_PLANS[1]!.document, DEMO_PLANS[0]!.document));
+
 bench.add(`one network solve: synthetic ${big.cables.length} cables / ${big.nodes.length} nodes`, () => void solveNetwork(big, { engineRpm: 1500, demand: 1, conductorTempC: 25 }));
 bench.add(`report, no time-stepping: synthetic ${big.cables.length} cables`, () => void buildReport(big, {}, { burpRun: false }));
 
