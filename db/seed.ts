@@ -141,7 +141,7 @@ export async function seedDemo(db: Kysely<Database>, storage?: Storage): Promise
 			const vehicle = await trx.selectFrom('vehicle as v').innerJoin('build as b', 'b.vehicle_id', 'v.id').select(['v.id', 'b.head_revision_id']).where('v.team_id', '=', team.id).where('v.name', '=', p.vehicle).executeTakeFirstOrThrow();
 			const plan = await trx
 				.insertInto('plan')
-				.values({ vehicle_id: vehicle.id, name: p.name, notes: p.notes, base_revision_id: vehicle.head_revision_id, schema_version: p.document.schemaVersion, document: JSON.stringify(p.document), created_by: userIds[p.author]! })
+				.values({ vehicle_id: vehicle.id, name: p.name, notes: p.notes, base_revision_id: vehicle.head_revision_id, schema_version: p.document.schemaVersion, document: JSON.stringify(p.document), created_by: userIds[p.author]!, created_at: day(p.daysAgo), updated_at: day(p.daysAgo) })
 				.returning('id')
 				.executeTakeFirstOrThrow();
 			await trx

@@ -8,6 +8,7 @@ export interface DemoPlan {
 	name: string;
 	notes: string;
 	author: number;
+	daysAgo: number;
 	document: BuildDocument;
 	parts: PlanPartInput[];
 }
@@ -24,6 +25,7 @@ export const DEMO_PLANS: DemoPlan[] = [
 		name: 'Third alternator on a new bracket',
 		notes: 'Needs the custom bracket and a longer belt; check the belt wrap before ordering.',
 		author: 0,
+		daysAgo: 12,
 		document: change(oldOakBuild, (d) => {
 			d.nodes.push({ id: 'alt3_pos', label: 'Alternator 3 B+', kind: 'alternator' });
 			d.alternators.push({ ...structuredClone(d.alternators[0]!), id: 'alt3', label: 'Alternator 3', positive: 'alt3_pos' });
@@ -44,6 +46,7 @@ export const DEMO_PLANS: DemoPlan[] = [
 		name: 'Two more rear strings and 2/0 amplifier wiring',
 		notes: 'Rear wall has room for two more modules; the 1/0 amplifier leads run warm after long sessions.',
 		author: 1,
+		daysAgo: 5,
 		document: change(oldOakBuild, (d) => {
 			d.banks.find((b) => b.id === 'rear')!.stringsInParallel = 6;
 			for (const c of d.cables) if (/^amp\d_(feed|gnd)$/.test(c.id)) c.size = { kind: 'awg', awg: '2/0' };
