@@ -1,17 +1,11 @@
 import { afterAll, describe, expect, inject, it } from 'vitest';
 import { DEMO_PASSWORD, DEMO_TEAM_NAME, DEMO_USERS } from '../../db/seed';
-import { type Browser, openBrowser } from '../helpers/browser';
+import { type Browser, openBrowser, signInToTeam } from '../helpers/browser';
 
 const appUrl = inject('appUrl');
 
 async function signInAndOpen(b: Browser, email: string, vehicle: string) {
-	await b.page.goto(`${appUrl}/sign-in?callbackUrl=/teams`);
-	await b.page.waitForSelector('astro-island:not([ssr])', { state: 'attached' });
-	await b.page.getByLabel('E-mail').fill(email);
-	await b.page.getByLabel('Password').fill(DEMO_PASSWORD);
-	await b.page.getByRole('button', { name: 'Sign in' }).click();
-	await b.page.waitForURL(`${appUrl}/teams`);
-	await b.page.getByRole('link', { name: new RegExp(DEMO_TEAM_NAME) }).click();
+	await signInToTeam(b, appUrl, email, DEMO_PASSWORD, DEMO_TEAM_NAME);
 	await b.page.getByRole('link', { name: vehicle, exact: true }).click();
 	await b.page.waitForSelector('astro-island[component-export="BuildWorkspace"]:not([ssr])', { state: 'attached' });
 	await b.page.getByRole('heading', { name: 'Cables: current, drop and protection' }).waitFor();

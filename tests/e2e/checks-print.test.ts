@@ -2,7 +2,7 @@ import { writeFileSync } from 'node:fs';
 import path from 'node:path';
 import { afterAll, describe, expect, inject, it } from 'vitest';
 import { DEMO_PASSWORD, DEMO_TEAM_NAME, DEMO_USERS } from '../../db/seed';
-import { type Browser, openBrowser, SCREENSHOT_DIR } from '../helpers/browser';
+import { type Browser, openBrowser, SCREENSHOT_DIR, signInToTeam } from '../helpers/browser';
 
 const appUrl = inject('appUrl');
 
@@ -13,13 +13,7 @@ describe('pre-event checklist in chromium', () => {
 	it('a member opens the next event’s checks, signs off a manual item and prints the sheet to PDF', async () => {
 		b = await openBrowser();
 		const { page } = b;
-		await page.goto(`${appUrl}/sign-in?callbackUrl=/teams`);
-		await page.waitForSelector('astro-island:not([ssr])', { state: 'attached' });
-		await page.getByLabel('E-mail').fill(DEMO_USERS[1].email);
-		await page.getByLabel('Password').fill(DEMO_PASSWORD);
-		await page.getByRole('button', { name: 'Sign in' }).click();
-		await page.waitForURL(`${appUrl}/teams`);
-		await page.getByRole('link', { name: new RegExp(DEMO_TEAM_NAME) }).click();
+		await signInToTeam(b, appUrl, DEMO_USERS[1].email, DEMO_PASSWORD, DEMO_TEAM_NAME);
 		await page.getByRole('link', { name: 'Events', exact: true }).click();
 		await page.getByRole('link', { name: 'Pre-event checks' }).first().click();
 		await page.getByRole('navigation', { name: 'Vehicles' }).getByRole('link', { name: 'Marlin' }).click();

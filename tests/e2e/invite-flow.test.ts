@@ -1,6 +1,6 @@
 import { afterAll, describe, expect, inject, it } from 'vitest';
 import { DEMO_PASSWORD, DEMO_TEAM_NAME, DEMO_USERS } from '../../db/seed';
-import { type Browser, openBrowser } from '../helpers/browser';
+import { type Browser, openBrowser, signInToTeam } from '../helpers/browser';
 
 const appUrl = inject('appUrl');
 const ready = (b: Browser) => b.page.waitForSelector('astro-island:not([ssr])', { state: 'attached' });
@@ -17,13 +17,7 @@ describe('inviting a new member, in chromium', () => {
 		// The captain signs in and invites.
 		const cap = await openBrowser();
 		opened.push(cap);
-		await cap.page.goto(`${appUrl}/sign-in?callbackUrl=/teams`);
-		await ready(cap);
-		await cap.page.getByLabel('E-mail').fill(DEMO_USERS[0].email);
-		await cap.page.getByLabel('Password').fill(DEMO_PASSWORD);
-		await cap.page.getByRole('button', { name: 'Sign in' }).click();
-		await cap.page.waitForURL(`${appUrl}/teams`);
-		await cap.page.getByRole('link', { name: new RegExp(DEMO_TEAM_NAME) }).click();
+		await signInToTeam(cap, appUrl, DEMO_USERS[0].email, DEMO_PASSWORD, DEMO_TEAM_NAME);
 		await cap.page.getByRole('link', { name: /Members & settings/ }).click();
 		await ready(cap);
 		await cap.page.getByRole('textbox', { name: 'E-mail' }).fill(invitee);

@@ -1,19 +1,11 @@
 import { afterAll, describe, expect, inject, it } from 'vitest';
 import { DEMO_PASSWORD, DEMO_TEAM_NAME, DEMO_USERS } from '../../db/seed';
 import { DEMO_PLANS } from '../../db/demo/plans';
-import { type Browser, openBrowser } from '../helpers/browser';
+import { type Browser, openBrowser, signInToTeam } from '../helpers/browser';
 
 const appUrl = inject('appUrl');
 
-async function signIn(b: Browser, email: string) {
-	await b.page.goto(`${appUrl}/sign-in?callbackUrl=/teams`);
-	await b.page.waitForSelector('astro-island:not([ssr])', { state: 'attached' });
-	await b.page.getByLabel('E-mail').fill(email);
-	await b.page.getByLabel('Password').fill(DEMO_PASSWORD);
-	await b.page.getByRole('button', { name: 'Sign in' }).click();
-	await b.page.waitForURL(`${appUrl}/teams`);
-	await b.page.getByRole('link', { name: new RegExp(DEMO_TEAM_NAME) }).click();
-}
+const signIn = (b: Browser, email: string) => signInToTeam(b, appUrl, email, DEMO_PASSWORD, DEMO_TEAM_NAME);
 
 describe('upgrade plans in chromium', () => {
 	const opened: Browser[] = [];
@@ -45,6 +37,7 @@ describe('upgrade plans in chromium', () => {
 		b.page.once('dialog', (d) => void d.accept());
 		await table.getByRole('button', { name: 'Install as next revision' }).first().click();
 		await b.page.getByText(`“${first!.name}” is now revision 4 of the build.`).waitFor();
+		await table.getByText('✓ installed as r4').waitFor();
 		await expect(table.getByText('✓ installed as r4').count()).resolves.toBe(1);
 
 		await b.page.getByRole('link', { name: 'See the history' }).click();
@@ -75,13 +68,37 @@ describe('upgrade plans in chromium', () => {
 		await expect(b.page.getByRole('button', { name: 'Save plan' }).isDisabled()).resolves.toBe(true);
 		await b.page.getByLabel('Unit price 5').fill('2.50');
 		await expect(b.page.getByTestId('parts-total').textContent()).resolves.toBe('$1,597.60');
+		// A reload before saving loses nothing: the draft comes back from this browser.
+		const leave = (d: import('playwright-core').Dialog) => void d.accept();
+		b.page.on('dialog', leave);
+		await b.page.reload();
+		b.page.off('dialog', leave);
+		await b.page.waitForSelector('astro-island[component-export="PlanWorkspace"]:not([ssr])', { state: 'attached' });
+		await b.page.getByText('Your unsaved changes to this plan from this browser are back.').waitFor();
+		await expect(b.page.getByLabel('Unit price 5').inputValue()).resolves.toBe('2.50');
 		await b.page.getByRole('button', { name: 'Save plan' }).click();
 		await b.page.getByText('Plan saved.').waitFor();
 		await b.page.reload();
+		await expect(b.page.getByText(/unsaved changes/).count()).resolves.toBe(0);
 		await b.page.waitForSelector('astro-island[component-export="PlanWorkspace"]:not([ssr])', { state: 'attached' });
 		await expect(b.page.getByLabel('Item 5').inputValue()).resolves.toBe('Terminal covers');
 		await b.page.getByRole('heading', { name: 'What the plan changes' }).waitFor();
 		await b.screenshot('plan-editor');
+	});
+
+	it('a member starts a plan from the current revision and lands in its editor', async () => {
+		const b = await openBrowser();
+		opened.push(b);
+		await signIn(b, DEMO_USERS[1].email);
+		await b.page.getByRole('link', { name: 'Marlin', exact: true }).click();
+		await b.page.getByRole('link', { name: 'Plans', exact: true }).click();
+		await b.page.waitForSelector('astro-island[component-export="PlansBoard"]:not([ssr])', { state: 'attached' });
+		await b.page.getByText('No plans yet.', { exact: false }).waitFor();
+		await b.page.getByLabel('New plan').fill('Third AGM string');
+		await b.page.getByRole('button', { name: 'Start the plan' }).click();
+		await b.page.waitForSelector('astro-island[component-export="PlanWorkspace"]:not([ssr])', { state: 'attached' });
+		await expect(b.page.getByRole('heading', { level: 1 }).textContent()).resolves.toBe('Plan: Third AGM string');
+		await b.page.getByText(/Nothing yet: the plan is the same as revision 3/).waitFor();
 		expect(b.problems).toEqual([]);
 	});
 });

@@ -3,7 +3,7 @@ import { tmpdir } from 'node:os';
 import path from 'node:path';
 import { afterAll, describe, expect, inject, it } from 'vitest';
 import { DEMO_PASSWORD, DEMO_TEAM_NAME, DEMO_USERS } from '../../db/seed';
-import { type Browser, openBrowser } from '../helpers/browser';
+import { type Browser, openBrowser, signInToTeam } from '../helpers/browser';
 import { HAND_CSV } from '../helpers/logger-fixtures';
 
 const appUrl = inject('appUrl');
@@ -15,13 +15,7 @@ describe('logging a run in chromium', () => {
 	it('member logs a run with a logger file, sees the chart and the analysis, and the comparison gains the point', async () => {
 		b = await openBrowser();
 		const p = b.page;
-		await p.goto(`${appUrl}/sign-in?callbackUrl=/teams`);
-		await p.waitForSelector('astro-island:not([ssr])', { state: 'attached' });
-		await p.getByLabel('E-mail').fill(DEMO_USERS[1].email);
-		await p.getByLabel('Password').fill(DEMO_PASSWORD);
-		await p.getByRole('button', { name: 'Sign in' }).click();
-		await p.waitForURL(`${appUrl}/teams`);
-		await p.getByRole('link', { name: new RegExp(DEMO_TEAM_NAME) }).click();
+		await signInToTeam(b, appUrl, DEMO_USERS[1].email, DEMO_PASSWORD, DEMO_TEAM_NAME);
 		await p.getByRole('link', { name: 'Pebble', exact: true }).click();
 		await p.getByRole('link', { name: 'Runs', exact: true }).click();
 		await p.waitForSelector('astro-island[component-export="VehicleRuns"]:not([ssr])', { state: 'attached' });

@@ -39,6 +39,31 @@ interface PartDraft {
 	link: string;
 }
 
+interface StoredPlanDraft {
+	version: number;
+	name: string;
+	notes: string;
+	document: BuildDocument;
+	parts: PartDraft[];
+}
+const draftKey = (planId: string) => `sagwise.plan-draft.${planId}`;
+function loadPlanDraft(planId: string): StoredPlanDraft | null {
+	try {
+		const raw = window.localStorage.getItem(draftKey(planId));
+		return raw ? (JSON.parse(raw) as StoredPlanDraft) : null;
+	} catch {
+		return null;
+	}
+}
+function storePlanDraft(planId: string, d: StoredPlanDraft | null) {
+	try {
+		if (d) window.localStorage.setItem(draftKey(planId), JSON.stringify(d));
+		else window.localStorage.removeItem(draftKey(planId));
+	} catch {
+		// storage full or disabled: the draft still lives in memory
+	}
+}
+
 const toDraft = (p: PlanDto['parts'][number]): PartDraft => ({ item: p.item, quantity: String(p.quantity), unitPrice: p.unitPrice.toFixed(2), link: p.link });
 const fromDraft = (p: PartDraft) => ({ item: p.item, quantity: Number(p.quantity), unitPrice: Number(p.unitPrice), link: p.link });
 
@@ -67,6 +92,26 @@ function PlanWorkspaceView({ teamId, vehicleId, canEdit, currency, plan: initial
 	const changes = useMemo(() => (baseDocument ? diffBuilds(baseDocument, draft) : []), [baseDocument, draft]);
 	const total = parts.reduce((s, p) => s + (Number.isFinite(Number(p.quantity)) && Number.isFinite(Number(p.unitPrice)) ? Math.round(Number(p.unitPrice) * 100) * Number(p.quantity) : 0), 0) / 100;
 
+	// Unsaved edits live in this browser until saved, so a reload or a crash loses nothing.
+	const [restored, setRestored] = useState<string | null>(null);
+	const [baseVersion, setBaseVersion] = useState(plan.version);
+	useEffect(() => {
+		if (!canEdit) return;
+		const stored = loadPlanDraft(plan.id);
+		if (!stored) return;
+		if (JSON.stringify({ name: stored.name, notes: stored.notes, document: stored.document, parts: stored.parts }) === JSON.stringify(saved)) return storePlanDraft(plan.id, null);
+		setName(stored.name);
+		setNotes(stored.notes);
+		setDraft(stored.document);
+		setParts(stored.parts);
+		setBaseVersion(stored.version);
+		setRestored(stored.version === plan.version ? 'Your unsaved changes to this plan from this browser are back.' : 'Your unsaved changes are back, but someone saved the plan since; saving will ask before replacing theirs.');
+		// eslint-disable-next-line react-hooks/exhaustive-deps
+	}, []);
+	useEffect(() => {
+		if (canEdit && dirty) storePlanDraft(plan.id, { version: baseVersion, name, notes, document: draft, parts });
+	}, [canEdit, dirty, plan.id, baseVersion, name, notes, draft, parts]);
+
 	// Warn before leaving with unsaved changes.
 	useEffect(() => {
 		if (!dirty) return;
@@ -75,10 +120,13 @@ function PlanWorkspaceView({ teamId, vehicleId, canEdit, currency, plan: initial
 		return () => window.removeEventListener('beforeunload', warn);
 	}, [dirty]);
 
-	async function save(version = plan.version) {
+	async function save(version = baseVersion) {
 		setState({ busy: 'save', error: null, ok: null, serverErrors: {} });
 		try {
 			const next = await sendJson<PlanDto>(`/api/teams/${teamId}/vehicles/${vehicleId}/plans/${plan.id}`, 'PUT', { version, name, notes, document: draft, parts: parts.map(fromDraft) });
+			storePlanDraft(plan.id, null);
+			setRestored(null);
+			setBaseVersion(next.version);
 			setPlan(next);
 			setParts(next.parts.map(toDraft));
 			setState({ busy: null, error: null, ok: 'Plan saved.', serverErrors: {} });
@@ -155,6 +203,7 @@ function PlanWorkspaceView({ teamId, vehicleId, canEdit, currency, plan: initial
 						</Button>
 					</div>
 				)}
+				{restored && <FormMessage tone="info">{restored}</FormMessage>}
 				{state.ok && <FormMessage tone="ok">{state.ok}</FormMessage>}
 				{state.error && <FormMessage tone="error">{state.error}</FormMessage>}
 			</section>

@@ -1,18 +1,7 @@
 import { useState } from 'react';
+import type { ImportSummary } from '@/lib/server/team-backup';
 import { Button, Field, FormMessage } from '../ui/Field';
 
-interface ImportSummary {
-	teamId: string;
-	name: string;
-	members: number;
-	invitations: number;
-	vehicles: number;
-	revisions: number;
-	plans: number;
-	events: number;
-	runs: number;
-	files: number;
-}
 
 /** Restores a team backup file as a new team, with upload progress and the server's reason when it refuses. */
 export function ImportTeamForm() {

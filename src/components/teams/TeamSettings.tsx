@@ -303,40 +303,60 @@ function LeaveOrDeleteSection({ teamId, teamName, captain, myUserId }: { teamId:
 }
 
 function CurrencySection({ teamId, initial }: { teamId: string; initial: string }) {
-	const [code, setCode] = useState(initial);
-	const [state, setState] = useState<{ busy: boolean; note: string | null; error: string | null }>({ busy: false, note: null, error: null });
 	return (
-		<section aria-labelledby="currency-heading">
-			<h2 id="currency-heading" className="text-xl font-bold">Plan prices</h2>
-			<p className="text-sm text-ink-soft">The currency plan parts are priced in. Changing it relabels the prices; it does not convert them.</p>
-			<form
-				noValidate
-				className="mt-3 flex flex-wrap items-end gap-3"
-				onSubmit={async (e) => {
-					e.preventDefault();
-					setState({ busy: true, note: null, error: null });
-					try {
-						await sendJson(`/api/teams/${teamId}`, 'PATCH', { currency: code });
-						setState({ busy: false, note: `Plan prices are in ${code.trim().toUpperCase()}.`, error: null });
-					} catch (err) {
-						setState({ busy: false, note: null, error: err instanceof ApiError ? (err.byField().currency ?? err.message) : 'Could not save' });
-					}
-				}}
-			>
-				<Field label="Currency code" value={code} maxLength={3} onChange={(e) => setCode(e.target.value)} error={state.error ?? undefined} className="w-48" hint="Three letters, e.g. USD, EUR, GBP" />
-				<Button type="submit" variant="secondary" busy={state.busy}>Save</Button>
-				{state.note && <span role="status" className="text-sm text-teal">✓ {state.note}</span>}
-			</form>
-		</section>
+		<TeamSettingForm
+			teamId={teamId}
+			id="currency"
+			title="Plan prices"
+			description="The currency plan parts are priced in. Changing it relabels the prices; it does not convert them."
+			label="Currency code"
+			hint="Three letters, e.g. USD, EUR, GBP"
+			initial={initial}
+			maxLength={3}
+			field="currency"
+			toBody={(v) => ({ currency: v })}
+			saved={(v) => `Plan prices are in ${v.trim().toUpperCase()}.`}
+		/>
 	);
 }
 
 function ReminderSection({ teamId, initialDays }: { teamId: string; initialDays: number }) {
-	const [days, setDays] = useState(String(initialDays));
+	return (
+		<TeamSettingForm
+			teamId={teamId}
+			id="reminder"
+			title="Event reminders"
+			label="Days before an event"
+			inputMode="numeric"
+			initial={String(initialDays)}
+			field="reminderDays"
+			toBody={(v) => ({ reminderDays: Number(v) })}
+			saved={(v) => `Members get a reminder ${v} days before each event.`}
+		/>
+	);
+}
+
+/** One team setting: a field, a save button, the server's verdict beside it. */
+function TeamSettingForm(p: {
+	teamId: string;
+	id: string;
+	title: string;
+	description?: string;
+	label: string;
+	hint?: string;
+	initial: string;
+	maxLength?: number;
+	inputMode?: 'numeric';
+	field: string;
+	toBody: (value: string) => Record<string, unknown>;
+	saved: (value: string) => string;
+}) {
+	const [value, setValue] = useState(p.initial);
 	const [state, setState] = useState<{ busy: boolean; note: string | null; error: string | null }>({ busy: false, note: null, error: null });
 	return (
-		<section aria-labelledby="reminder-heading">
-			<h2 id="reminder-heading" className="text-xl font-bold">Event reminders</h2>
+		<section aria-labelledby={`${p.id}-heading`}>
+			<h2 id={`${p.id}-heading`} className="text-xl font-bold">{p.title}</h2>
+			{p.description && <p className="text-sm text-ink-soft">{p.description}</p>}
 			<form
 				noValidate
 				className="mt-3 flex flex-wrap items-end gap-3"
@@ -344,14 +364,14 @@ function ReminderSection({ teamId, initialDays }: { teamId: string; initialDays:
 					e.preventDefault();
 					setState({ busy: true, note: null, error: null });
 					try {
-						await sendJson(`/api/teams/${teamId}`, 'PATCH', { reminderDays: Number(days) });
-						setState({ busy: false, note: `Members get a reminder ${days} days before each event.`, error: null });
+						await sendJson(`/api/teams/${p.teamId}`, 'PATCH', p.toBody(value));
+						setState({ busy: false, note: p.saved(value), error: null });
 					} catch (err) {
-						setState({ busy: false, note: null, error: err instanceof ApiError ? (err.byField().reminderDays ?? err.message) : 'Could not save' });
+						setState({ busy: false, note: null, error: err instanceof ApiError ? (err.byField()[p.field] ?? err.message) : 'Could not save' });
 					}
 				}}
 			>
-				<Field label="Days before an event" inputMode="numeric" value={days} onChange={(e) => setDays(e.target.value)} error={state.error ?? undefined} className="w-48" />
+				<Field label={p.label} inputMode={p.inputMode} maxLength={p.maxLength} value={value} onChange={(e) => setValue(e.target.value)} error={state.error ?? undefined} hint={p.hint} className="w-48" />
 				<Button type="submit" variant="secondary" busy={state.busy}>Save</Button>
 				{state.note && <span role="status" className="text-sm text-teal">✓ {state.note}</span>}
 			</form>

@@ -99,3 +99,11 @@ export function readQuery<S extends z.ZodType>(url: URL, schema: S): ReadResult<
 	if (!parsed.success) return { ok: false, response: problem(400, 'invalid_input', 'Some query parameters need attention', toFieldErrors(parsed.error)) };
 	return { ok: true, data: parsed.data };
 }
+
+/** A 409 problem that carries what the client needs to merge (the current state, its own input). */
+export function conflict(detail: string, extra: Record<string, unknown>): Response {
+	return new Response(JSON.stringify({ type: 'about:blank', title: 'Conflict', status: 409, code: 'conflict', detail, ...extra }), {
+		status: 409,
+		headers: { 'content-type': 'application/problem+json' },
+	});
+}

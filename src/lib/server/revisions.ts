@@ -1,5 +1,5 @@
 import { appendRevision, findHeadRevision, findRevision, type RevisionDto } from './db/builds';
-import { problem } from './http';
+import { conflict, problem } from './http';
 import type { BuildDocument } from '@/engine/types';
 
 /**
@@ -13,18 +13,10 @@ export async function saveRevision(
 	const result = await appendRevision(db, p);
 	if (!result.ok) {
 		const head = await findHeadRevision(db, p.buildId);
-		return new Response(
-			JSON.stringify({
-				type: 'about:blank',
-				title: 'Conflict',
-				status: 409,
-				code: 'conflict',
-				detail: `Someone saved revision ${head?.number ?? '?'} of this build after you started. Your changes are kept: compare and save again.`,
-				head: head ?? null,
-				yours: { parentId: p.parentId, message: p.message, document: p.document },
-			}),
-			{ status: 409, headers: { 'content-type': 'application/problem+json' } },
-		);
+		return conflict(`Someone saved revision ${head?.number ?? '?'} of this build after you started. Your changes are kept: compare and save again.`, {
+			head: head ?? null,
+			yours: { parentId: p.parentId, message: p.message, document: p.document },
+		});
 	}
 	const saved = (await findRevision(db, p.buildId, result.revision.id)) as RevisionDto;
 	return Response.json(saved, { status: 201 });

@@ -1,7 +1,7 @@
 import type { APIRoute } from 'astro';
 import { checkTopology } from '@/engine/topology';
 import { deletePlan, findPlan, updatePlan } from '@/lib/server/db/plans';
-import { problem, readJson } from '@/lib/server/http';
+import { conflict, problem, readJson } from '@/lib/server/http';
 import { updatePlanSchema } from '@/lib/schemas/plans';
 import { requirePlan } from '@/lib/server/vehicle-access';
 
@@ -26,10 +26,7 @@ export const PUT: APIRoute = async ({ params, request, locals }) => {
 	if (!result.ok && result.reason === 'missing') return problem(404, 'not_found', 'No such plan');
 	if (!result.ok) {
 		const current = await findPlan(locals.db, vehicle.id, plan.id);
-		return new Response(
-			JSON.stringify({ type: 'about:blank', title: 'Conflict', status: 409, code: 'conflict', detail: 'Someone saved this plan after you opened it. Your changes are kept: compare and save again.', current, yours: body.data }),
-			{ status: 409, headers: { 'content-type': 'application/problem+json' } },
-		);
+		return conflict('Someone saved this plan after you opened it. Your changes are kept: compare and save again.', { current, yours: body.data });
 	}
 	return Response.json(await findPlan(locals.db, vehicle.id, plan.id));
 };

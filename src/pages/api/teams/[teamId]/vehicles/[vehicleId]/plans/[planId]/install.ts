@@ -3,7 +3,7 @@ import { mergePlan } from '@/engine/merge';
 import { checkTopology } from '@/engine/topology';
 import { findHeadRevision, findRevision, type RevisionDto } from '@/lib/server/db/builds';
 import { installPlan } from '@/lib/server/db/plans';
-import { problem, readJson } from '@/lib/server/http';
+import { conflict, problem, readJson } from '@/lib/server/http';
 import { installPlanSchema } from '@/lib/schemas/plans';
 import { requirePlan } from '@/lib/server/vehicle-access';
 
@@ -61,15 +61,5 @@ export const POST: APIRoute = async ({ params, request, locals }) => {
 };
 
 function stale(head: RevisionDto | undefined) {
-	return new Response(
-		JSON.stringify({
-			type: 'about:blank',
-			title: 'Conflict',
-			status: 409,
-			code: 'conflict',
-			detail: `Revision ${head?.number ?? '?'} was saved after you looked. Compare the plan with it, then install again.`,
-			head: head ?? null,
-		}),
-		{ status: 409, headers: { 'content-type': 'application/problem+json' } },
-	);
+	return conflict(`Revision ${head?.number ?? '?'} was saved after you looked. Compare the plan with it, then install again.`, { head: head ?? null });
 }
