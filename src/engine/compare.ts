@@ -1,5 +1,6 @@
 import { outputLossDb } from './amplifier';
 import { banksCarryHours } from './budget';
+import { runBurp } from './burp';
 import { buildReport, DEFAULT_SCENARIO } from './report';
 import { type NetworkSolution, solveNetwork } from './solve';
 import type { BuildDocument, Scenario } from './types';
@@ -23,8 +24,11 @@ export interface ComparisonColumn {
 	carryHours: number | null;
 	/** The voltage the system settles at (strongest source terminals) under burp and sustained demand. */
 	busV: { burp: number | null; sustained: number | null };
-	/** Each amplifier's terminal voltage under burp and sustained demand. */
-	amplifiers: { id: string; label: string; burpV: number; sustainedV: number }[];
+	/**
+	 * Each amplifier's terminal voltage under burp and sustained demand, and the lowest it reaches
+	 * during the scenario's time-stepped burp as the banks discharge (null after a collapse).
+	 */
+	amplifiers: { id: string; label: string; burpV: number; sustainedV: number; burpRunMinV: number | null }[];
 	/** The fixed-voltage budget: surplus and burp carry time at each supply voltage. */
 	budget: { voltageV: number; sustainedSurplusA: number; burpSurplusA: number; burpCarrySeconds: number | null }[];
 	warnings: number;
@@ -59,6 +63,11 @@ export function comparePlans(current: BuildDocument, plans: PlanCandidate[], sce
 	const scenario: Scenario = { ...DEFAULT_SCENARIO, ...scenarioIn };
 	const column = (id: string, name: string, doc: BuildDocument, cost: number, baseBurp: number | null): ComparisonColumn => {
 		const report = buildReport(doc, scenario, { burpRun: false });
+		const run = report.ok ? runBurp(doc, { engineRpm: scenario.engineRpm, demand: scenario.burpDemand, conductorTempC: scenario.conductorTempC, durationS: scenario.burpSeconds, stepS: scenario.burpStepS }) : null;
+		const runMin = (id: string) => {
+			const v = run?.amplifierMinV[id];
+			return v !== undefined && Number.isFinite(v) && run!.collapsedAtS === null ? v : null;
+		};
 		const burp = lowest(doc, scenario, scenario.burpDemand);
 		const sustained = lowest(doc, scenario, scenario.sustainedDemand);
 		const weakest = report.ok ? report.amplifiers.reduce((w, a) => (a.burpTerminalV < w.burpTerminalV ? a : w), report.amplifiers[0]!) : null;
@@ -72,7 +81,7 @@ export function comparePlans(current: BuildDocument, plans: PlanCandidate[], sce
 			deltaDb,
 			carryHours: bankDraw > 0.5 ? banksCarryHours(doc.banks, bankDraw, scenario.cutoffV) : null,
 			busV: report.ok ? { burp: settled(report.burp), sustained: settled(report.sustained) } : { burp: null, sustained: null },
-			amplifiers: report.ok ? report.amplifiers.map((a) => ({ id: a.id, label: a.label, burpV: a.burpTerminalV, sustainedV: a.sustainedTerminalV })) : [],
+			amplifiers: report.ok ? report.amplifiers.map((a) => ({ id: a.id, label: a.label, burpV: a.burpTerminalV, sustainedV: a.sustainedTerminalV, burpRunMinV: runMin(a.id) })) : [],
 			budget: report.ok ? report.budget.map((r) => ({ voltageV: r.voltageV, sustainedSurplusA: r.sustainedSurplusA, burpSurplusA: r.burpSurplusA, burpCarrySeconds: r.burpCarrySeconds })) : [],
 			warnings: report.ok ? report.warnings.length : 0,
 			cableWarnings: report.ok ? report.warnings.filter((w) => w.element.kind === 'cable' && w.severity !== 'info').map((w) => w.message) : [],

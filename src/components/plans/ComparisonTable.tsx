@@ -97,10 +97,20 @@ export function ComparisonTable({ data, canInstall, installing, installed, onIns
 						<Row label="Lowest amplifier, burp">{columns.map((c) => cell(c.id, volts(c.lowestAmplifierV.burp), c.lowestAmplifierV.burp === null ? 'text-brick' : ''))}</Row>
 						<Row label="Lowest amplifier, music">{columns.map((c) => cell(c.id, volts(c.lowestAmplifierV.sustained)))}</Row>
 						{ampIds.map(([id, label]) => (
-							<Row key={id} label={label} hint="terminals under burp">
+							<Row key={id} label={label} hint="terminals under burp · lowest during the time-stepped burp">
 								{columns.map((c) => {
 									const a = c.amplifiers.find((x) => x.id === id);
-									return cell(c.id, a ? `${fmt(a.burpV)} V` : 'not fitted', a ? '' : 'text-ink-soft');
+									return cell(
+										c.id,
+										a ? (
+											<>
+												{fmt(a.burpV)} V <span className="text-ink-soft">· {a.burpRunMinV === null ? 'collapse' : `${fmt(a.burpRunMinV)} V`}</span>
+											</>
+										) : (
+											'not fitted'
+										),
+										a ? '' : 'text-ink-soft',
+									);
 								})}
 							</Row>
 						))}
