@@ -370,7 +370,7 @@ function WarningList({ warnings }: { warnings: ReportWarning[] }) {
 		<ul className="flex flex-col gap-1">
 			{warnings.map((w, i) => (
 				<li key={i} className={`text-xs ${w.severity === 'danger' ? 'text-brick' : 'text-ink'}`}>
-					<span aria-hidden="true">{w.severity === 'danger' ? '⛔ ' : '⚠ '}</span>
+					<span aria-hidden="true">{w.severity === 'danger' ? '✕ ' : '⚠ '}</span>
 					<span className="sr-only">{w.severity === 'danger' ? 'Safety finding: ' : 'Warning: '}</span>
 					{w.message}
 				</li>
