@@ -2,7 +2,8 @@
  * Build documents of the demo vehicles. Invented for the demo scenario: every figure here is made
  * up to look like a plausible street, mid and extreme build, not taken from any real product.
  */
-import type { Alternator, Amplifier, BatteryBank, BuildDocument, Cable, CableSize, Fuse, Material, SteadyLoad } from '../../src/engine/types';
+import { alternatorWithDefaults, amplifierWithDefaults, bankWithDefaults } from '../../src/engine/defaults';
+import type { BuildDocument, Cable, CableSize, Fuse, Material, SteadyLoad } from '../../src/engine/types';
 
 const awg = (size: (CableSize & { kind: 'awg' })['awg']): CableSize => ({ kind: 'awg', awg: size });
 const FT = 0.3048;
@@ -24,31 +25,9 @@ function cable(id: string, label: string, from: string, to: string, size: CableS
 
 const fuse = (ratingA: number, end: Fuse['end'], distanceIn: number): Fuse => ({ ratingA, end, distanceM: distanceIn * 0.0254 });
 
-function bank(b: Partial<BatteryBank> & Pick<BatteryBank, 'id' | 'label' | 'positive' | 'negative' | 'chemistry' | 'unitCapacityAh' | 'unitResistanceOhm'>): BatteryBank {
-	return {
-		cellsPerUnit: b.chemistry === 'lfp' ? 4 : 6,
-		unitsInSeries: 1,
-		stringsInParallel: 1,
-		ratedHours: 20,
-		stateOfCharge: 0.9,
-		peukertK: null,
-		absorptionV: null,
-		floatV: null,
-		maxChargeC: null,
-		location: 'trunk',
-		secured: true,
-		vented: false,
-		...b,
-	};
-}
-
-function alternator(a: Partial<Alternator> & Pick<Alternator, 'id' | 'label' | 'positive' | 'negative' | 'ratedHotA' | 'setPointV'>): Alternator {
-	return { curve: [], curveIsCold: false, hotFactor: 0.8, pulleyRatio: 2.6, sourceResistanceOhm: 1e-4, ...a };
-}
-
-function amp(a: Partial<Amplifier> & Pick<Amplifier, 'id' | 'label' | 'positive' | 'negative' | 'ratedPowerW'>): Amplifier {
-	return { ratedVoltageV: 14.4, efficiency: 0.8, quantity: 1, regulated: false, ...a };
-}
+const bank = bankWithDefaults;
+const alternator = alternatorWithDefaults;
+const amp = amplifierWithDefaults;
 
 const load = (l: SteadyLoad): SteadyLoad => l;
 

@@ -18,3 +18,4 @@ export * from './run-analysis';
 export * from './checks';
 export * from './compare';
 export * from './merge';
+export * from './defaults';

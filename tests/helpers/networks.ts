@@ -1,32 +1,22 @@
 /** Small builders for test networks, and a seeded generator of random vehicle-like networks. */
 import type { Alternator, Amplifier, BatteryBank, BuildDocument, BuildNode, Cable, CableSize, SteadyLoad } from '../../src/engine/types';
 import { AWG_SIZES, MATERIALS } from '../../src/engine/types';
+import { amplifierWithDefaults, bankWithDefaults } from '../../src/engine/defaults';
 
 export const node = (id: string, kind: BuildNode['kind'] = 'junction'): BuildNode => ({ id, label: id, kind });
 
 export function bank(id: string, positive: string, negative: string, over: Partial<BatteryBank> = {}): BatteryBank {
-	return {
+	return bankWithDefaults({
 		id,
 		label: id,
 		positive,
 		negative,
 		chemistry: 'agm',
-		cellsPerUnit: 6,
-		unitsInSeries: 1,
-		stringsInParallel: 1,
 		unitCapacityAh: 100,
-		ratedHours: 20,
 		unitResistanceOhm: 0.005,
 		stateOfCharge: 0.875, // AGM table: 12.7 V rested
-		peukertK: null,
-		absorptionV: null,
-		floatV: null,
-		maxChargeC: null,
-		location: 'trunk',
-		secured: true,
-		vented: false,
 		...over,
-	};
+	});
 }
 
 /** An alternator with a flat output limit (A) at any speed. */
@@ -49,7 +39,7 @@ export function alternator(id: string, positive: string, negative: string, limit
 
 /** A constant-power load of `inputW` at demand 1 (efficiency 1, so input = rated). */
 export function amp(id: string, positive: string, negative: string, inputW: number, over: Partial<Amplifier> = {}): Amplifier {
-	return { id, label: id, positive, negative, ratedPowerW: inputW, ratedVoltageV: 14.4, efficiency: 1, quantity: 1, regulated: false, ...over };
+	return amplifierWithDefaults({ id, label: id, positive, negative, ratedPowerW: inputW, efficiency: 1, ...over });
 }
 
 export const steady = (id: string, positive: string, negative: string, currentA: number): SteadyLoad => ({ id, label: id, positive, negative, currentA });

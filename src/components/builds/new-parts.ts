@@ -1,3 +1,4 @@
+import { alternatorWithDefaults, amplifierWithDefaults, bankWithDefaults } from '@/engine/defaults';
 import type { Alternator, Amplifier, BatteryBank, BuildDocument, BuildNode, Cable, SteadyLoad } from '@/engine/types';
 
 /** An id not yet used in the document: `${prefix}-1`, `${prefix}-2`, … */
@@ -24,53 +25,14 @@ export const newCable = (doc: BuildDocument): Cable => ({
 	insulationC: 105,
 });
 
-export const newBank = (doc: BuildDocument): BatteryBank => ({
-	id: freshId(doc, 'bank'),
-	label: 'New bank',
-	positive: firstOf(doc, 'battery'),
-	negative: chassisOf(doc),
-	chemistry: 'agm',
-	cellsPerUnit: 6,
-	unitsInSeries: 1,
-	stringsInParallel: 1,
-	unitCapacityAh: 100,
-	ratedHours: 20,
-	unitResistanceOhm: 0.004,
-	stateOfCharge: 0.9,
-	peukertK: null,
-	absorptionV: null,
-	floatV: null,
-	maxChargeC: null,
-	location: 'trunk',
-	secured: true,
-	vented: false,
-});
+export const newBank = (doc: BuildDocument): BatteryBank =>
+	bankWithDefaults({ id: freshId(doc, 'bank'), label: 'New bank', positive: firstOf(doc, 'battery'), negative: chassisOf(doc), chemistry: 'agm', unitCapacityAh: 100, unitResistanceOhm: 0.004 });
 
-export const newAlternator = (doc: BuildDocument): Alternator => ({
-	id: freshId(doc, 'alt'),
-	label: 'New alternator',
-	positive: firstOf(doc, 'alternator'),
-	negative: chassisOf(doc),
-	ratedHotA: 200,
-	curve: [],
-	curveIsCold: false,
-	hotFactor: 0.8,
-	pulleyRatio: 2.6,
-	setPointV: 14.4,
-	sourceResistanceOhm: 1e-4,
-});
+export const newAlternator = (doc: BuildDocument): Alternator =>
+	alternatorWithDefaults({ id: freshId(doc, 'alt'), label: 'New alternator', positive: firstOf(doc, 'alternator'), negative: chassisOf(doc), ratedHotA: 200, setPointV: 14.4 });
 
-export const newAmplifier = (doc: BuildDocument): Amplifier => ({
-	id: freshId(doc, 'amp'),
-	label: 'New amplifier',
-	positive: firstOf(doc, 'amplifier'),
-	negative: chassisOf(doc),
-	ratedPowerW: 1000,
-	ratedVoltageV: 14.4,
-	efficiency: 0.8,
-	quantity: 1,
-	regulated: false,
-});
+export const newAmplifier = (doc: BuildDocument): Amplifier =>
+	amplifierWithDefaults({ id: freshId(doc, 'amp'), label: 'New amplifier', positive: firstOf(doc, 'amplifier'), negative: chassisOf(doc), ratedPowerW: 1000 });
 
 export const newLoad = (doc: BuildDocument): SteadyLoad => ({ id: freshId(doc, 'load'), label: 'New load', positive: firstOf(doc, 'battery'), negative: chassisOf(doc), currentA: 10 });
 
@@ -86,7 +48,7 @@ export function starterDocument(): BuildDocument {
 		],
 		alternators: [],
 		banks: [{ ...newBank({ schemaVersion: 1, nodes: [], alternators: [], banks: [], amplifiers: [], loads: [], cables: [] }), id: 'battery', label: 'Battery', positive: 'batt_pos', negative: 'chassis', location: 'engine_bay' }],
-		amplifiers: [{ id: 'amp', label: 'Amplifier', positive: 'amp_pos', negative: 'amp_neg', ratedPowerW: 1000, ratedVoltageV: 14.4, efficiency: 0.8, quantity: 1, regulated: false }],
+		amplifiers: [amplifierWithDefaults({ id: 'amp', label: 'Amplifier', positive: 'amp_pos', negative: 'amp_neg', ratedPowerW: 1000 })],
 		loads: [],
 		cables: [
 			{ id: 'feed', label: 'Amplifier feed', from: 'batt_pos', to: 'amp_pos', size: { kind: 'awg', awg: '4' }, material: 'copper', lengthM: 5, parallelRuns: 1, fuses: [{ ratingA: 100, end: 'from', distanceM: 0.2 }], insulationC: 105 },
