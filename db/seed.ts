@@ -7,6 +7,7 @@ import path from 'node:path';
 import { fileURLToPath } from 'node:url';
 import type { Kysely } from 'kysely';
 import { createDb } from '../src/lib/server/db/client';
+import { measurementColumns } from '../src/lib/server/db/runs';
 import { hashPassword } from '../src/lib/server/passwords';
 import { DEFAULT_CLUSTER, ensureCluster } from './cluster';
 import { migrateToLatest } from './migrator';
@@ -116,12 +117,7 @@ export async function seedDemo(db: Kysely<Database>, storage?: Storage): Promise
 					event_id: r.event ? eventIds.get(r.event)! : null,
 					revision_id: rev?.id ?? null,
 					ran_at: ranAt,
-					score_db: r.scoreDb,
-					frequency_hz: r.frequencyHz,
-					resting_v: r.restingV,
-					min_v: r.minV,
-					ambient_c: r.ambientC,
-					notes: r.notes,
+					...measurementColumns(r),
 					author_id: userIds[1]!,
 				})
 				.returning('id')

@@ -3,6 +3,7 @@ import type { Kysely } from 'kysely';
 import type { Database, Role } from '../../../db/schema';
 import type { BuildDocument } from '@/engine/types';
 import { BACKUP_FORMAT, BACKUP_VERSION, backupEnvelopeSchema, type TeamBackup, type TeamBackupContent, teamBackupContentSchema } from '@/lib/schemas/team-backup';
+import { measurementColumns, measurementsOf } from './db/runs';
 import type { Storage } from './storage';
 import { hashToken } from './tokens';
 
@@ -117,12 +118,7 @@ export async function exportTeam(db: Db, storage: Storage, teamId: string): Prom
 			event: r.event_id ? (eventKey.get(r.event_id) ?? null) : null,
 			revision: r.revision_id ? (revisionNumber.get(r.revision_id) ?? null) : null,
 			ranAt: iso(r.ran_at),
-			scoreDb: r.score_db,
-			frequencyHz: r.frequency_hz,
-			restingV: r.resting_v,
-			minV: r.min_v,
-			ambientC: r.ambient_c,
-			notes: r.notes,
+			...measurementsOf(r),
 			authorEmail: emailOf(r.author_id),
 			createdAt: iso(r.created_at),
 			samples: samples.map((s) => [s.t_s, s.volts, s.amps] as [number, number, number]),
@@ -358,12 +354,7 @@ export async function importTeam(db: Db, storage: Storage, backup: TeamBackup, i
 						event_id: r.event ? eventIds.get(r.event)! : null,
 						revision_id: r.revision === null ? null : revisionIds.get(`${r.vehicle}#${r.revision}`)!,
 						ran_at: r.ranAt,
-						score_db: r.scoreDb,
-						frequency_hz: r.frequencyHz,
-						resting_v: r.restingV,
-						min_v: r.minV,
-						ambient_c: r.ambientC,
-						notes: r.notes,
+						...measurementColumns(r),
 						author_id: userOf(r.authorEmail),
 						created_at: r.createdAt,
 					})

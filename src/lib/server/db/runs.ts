@@ -13,7 +13,32 @@ export interface EventDto {
 	notes: string;
 }
 
-export interface RunDto {
+/** What a run measured, as the API and the backup file name it. */
+export interface RunMeasurements {
+	scoreDb: number | null;
+	frequencyHz: number | null;
+	restingV: number | null;
+	minV: number | null;
+	ambientC: number | null;
+	notes: string;
+}
+
+type MeasurementColumns = { score_db: number | null; frequency_hz: number | null; resting_v: number | null; min_v: number | null; ambient_c: number | null; notes: string };
+
+const MEASUREMENT_COLUMNS = { scoreDb: 'score_db', frequencyHz: 'frequency_hz', restingV: 'resting_v', minV: 'min_v', ambientC: 'ambient_c', notes: 'notes' } as const;
+
+/** The run table's columns for the measurements given (absent ones are left out, for partial updates). */
+export function measurementColumns(m: Partial<RunMeasurements>): Partial<MeasurementColumns> {
+	const out: Record<string, unknown> = {};
+	for (const [field, column] of Object.entries(MEASUREMENT_COLUMNS)) if (m[field as keyof RunMeasurements] !== undefined) out[column] = m[field as keyof RunMeasurements];
+	return out as Partial<MeasurementColumns>;
+}
+
+export function measurementsOf(r: MeasurementColumns): RunMeasurements {
+	return { scoreDb: r.score_db, frequencyHz: r.frequency_hz, restingV: r.resting_v, minV: r.min_v, ambientC: r.ambient_c, notes: r.notes };
+}
+
+export interface RunDto extends RunMeasurements {
 	id: string;
 	vehicleId: string;
 	vehicleName: string;
@@ -22,12 +47,6 @@ export interface RunDto {
 	revisionId: string | null;
 	revisionNumber: number | null;
 	ranAt: string;
-	scoreDb: number | null;
-	frequencyHz: number | null;
-	restingV: number | null;
-	minV: number | null;
-	ambientC: number | null;
-	notes: string;
 	hasLogger: boolean;
 }
 
@@ -64,12 +83,7 @@ function toRunDto(r: RunRow): RunDto {
 		revisionId: r.revision_id,
 		revisionNumber: r.revision_number,
 		ranAt: r.ran_at.toISOString(),
-		scoreDb: r.score_db,
-		frequencyHz: r.frequency_hz,
-		restingV: r.resting_v,
-		minV: r.min_v,
-		ambientC: r.ambient_c,
-		notes: r.notes,
+		...measurementsOf(r),
 		hasLogger: Boolean(r.has_logger),
 	};
 }

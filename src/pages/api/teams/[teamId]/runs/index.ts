@@ -2,7 +2,7 @@ import type { APIRoute } from 'astro';
 import { newRunSchema } from '@/lib/schemas/events';
 import { parseUuid } from '@/lib/schemas/ids';
 import { requireTeamRole } from '@/lib/server/authz';
-import { findRun, findRuns } from '@/lib/server/db/runs';
+import { findRun, findRuns, measurementColumns } from '@/lib/server/db/runs';
 import { problem, readJson } from '@/lib/server/http';
 import { resolveRunLinks } from '@/lib/server/runs';
 
@@ -30,12 +30,7 @@ export const POST: APIRoute = async ({ params, request, locals }) => {
 			event_id: r.eventId,
 			revision_id: links.revisionId ?? null,
 			ran_at: r.ranAt,
-			score_db: r.scoreDb,
-			frequency_hz: r.frequencyHz,
-			resting_v: r.restingV,
-			min_v: r.minV,
-			ambient_c: r.ambientC,
-			notes: r.notes,
+			...measurementColumns(r),
 			author_id: auth.access.userId,
 		})
 		.returning('id')

@@ -3,7 +3,7 @@ import { analyseRun } from '@/engine/run-analysis';
 import { updateRunSchema } from '@/lib/schemas/events';
 import { parseUuid } from '@/lib/schemas/ids';
 import { requireTeamRole } from '@/lib/server/authz';
-import { findRun, findSamples } from '@/lib/server/db/runs';
+import { findRun, findSamples, measurementColumns } from '@/lib/server/db/runs';
 import { problem, readJson } from '@/lib/server/http';
 import { resolveRunLinks } from '@/lib/server/runs';
 
@@ -38,12 +38,7 @@ export const PATCH: APIRoute = async ({ params, request, locals }) => {
 			...(r.eventId !== undefined ? { event_id: r.eventId } : {}),
 			...(r.ranAt ? { ran_at: r.ranAt } : {}),
 			revision_id: links.revisionId ?? null,
-			...(r.scoreDb !== undefined ? { score_db: r.scoreDb } : {}),
-			...(r.frequencyHz !== undefined ? { frequency_hz: r.frequencyHz } : {}),
-			...(r.restingV !== undefined ? { resting_v: r.restingV } : {}),
-			...(r.minV !== undefined ? { min_v: r.minV } : {}),
-			...(r.ambientC !== undefined ? { ambient_c: r.ambientC } : {}),
-			...(r.notes !== undefined ? { notes: r.notes } : {}),
+			...measurementColumns(r),
 		})
 		.where('id', '=', run.id)
 		.execute();

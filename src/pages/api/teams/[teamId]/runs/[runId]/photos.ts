@@ -49,7 +49,7 @@ export const POST: APIRoute = async ({ params, request, locals }) => {
 export const GET: APIRoute = async ({ params, locals }) => {
 	const found = await requireRun(locals, params, 'viewer');
 	if (!found.ok) return found.response;
-	const { access, run } = found;
+	const { run } = found;
 	const files = await locals.db.selectFrom('stored_file').select(['id', 'kind', 'object_key', 'file_name']).where('run_id', '=', run.id).where('kind', 'in', ['photo', 'thumbnail']).orderBy('created_at').execute();
 	const photos = files.filter((f) => f.kind === 'photo').map((p) => ({ id: p.id, name: p.file_name, thumbnailId: files.find((f) => f.kind === 'thumbnail' && f.object_key === p.object_key.replace(/\.\w+$/, '-thumb.webp'))?.id ?? null }));
 	return Response.json(photos);
