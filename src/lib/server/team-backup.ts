@@ -1,5 +1,5 @@
 import { createHash, randomBytes } from 'node:crypto';
-import type { Kysely } from 'kysely';
+import { type Kysely, sql } from 'kysely';
 import type { Database, Role } from '../../../db/schema';
 import type { BuildDocument } from '@/engine/types';
 import { BACKUP_FORMAT, BACKUP_VERSION, backupEnvelopeSchema, type TeamBackup, type TeamBackupContent, teamBackupContentSchema } from '@/lib/schemas/team-backup';
@@ -231,9 +231,15 @@ export interface ImportSummary {
 export async function importTeam(db: Db, storage: Storage, backup: TeamBackup, importer: { id: string }, name?: string): Promise<ImportSummary> {
 	const t = backup.team;
 	const emails = [...new Set([...t.members.map((m) => m.email.toLowerCase())])];
-	const accounts = new Map(
-		(await db.selectFrom('User').select(['id', 'email']).execute()).filter((u) => u.email).map((u) => [u.email!.toLowerCase(), u.id] as const),
-	);
+	// Only the accounts the file names: members, owners, authors and sign-offs.
+	const named = new Set([
+		...emails,
+		...t.vehicles.flatMap((v) => [v.ownerEmail, ...v.revisions.map((r) => r.authorEmail), ...v.plans.map((p) => p.createdByEmail)]),
+		...t.runs.map((r) => r.authorEmail),
+		...t.signoffs.map((s) => s.signedByEmail),
+	].filter((e): e is string => e !== null).map((e) => e.toLowerCase()));
+	const found = named.size ? await db.selectFrom('User').select(['id', 'email']).where(sql<string>`lower(email)`, 'in', [...named]).execute() : [];
+	const accounts = new Map(found.map((u) => [u.email!.toLowerCase(), u.id] as const));
 	const userOf = (email: string | null) => (email ? (accounts.get(email.toLowerCase()) ?? null) : null);
 	const written: string[] = [];
 	try {
