@@ -139,6 +139,20 @@ describe('upgrade plans', () => {
 		expect((await findHeadRevision(t.db, buildId))!.id).toBe(now.id);
 	});
 
+	it('refuses a nameless plan and a starting revision of another vehicle, naming the field', async () => {
+		const before = (await (await call(plans, 'GET')).json()).length;
+		const nameless = await call(plans, 'POST', {}, { name: '   ' });
+		expect(nameless.status).toBe(400);
+		expect((await nameless.json()).errors).toEqual([{ path: 'name', message: 'Give the plan a name' }]);
+		const other = await insertVehicleWithBuild(t.db, { teamId, name: 'Third car', description: '', competitionClass: '', notes: '', ownerId: null });
+		const saved = await appendRevision(t.db, { buildId: other.buildId, parentId: null, document: marlinBuild, message: 'Elsewhere', authorId: member.id });
+		if (!saved.ok) throw new Error('revision');
+		const foreign = await call(plans, 'POST', {}, { name: 'Borrowed', fromRevisionId: saved.revision.id });
+		expect(foreign.status).toBe(400);
+		expect((await foreign.json()).errors).toEqual([{ path: 'fromRevisionId', message: 'No such revision for this vehicle' }]);
+		expect((await (await call(plans, 'GET')).json()).length).toBe(before);
+	});
+
 	it('answers 404 for a plan of another vehicle', async () => {
 		const list = await (await call(plans, 'GET')).json();
 		const other = await insertVehicleWithBuild(t.db, { teamId, name: 'Other car', description: '', competitionClass: '', notes: '', ownerId: null });

@@ -181,6 +181,11 @@ describe('team backup', () => {
 
 		const notOurs = await upload(JSON.stringify({ hello: 'world' }), captain);
 		expect(notOurs.status).toBe(400);
+		const asJson = await callEndpoint(importRoute, { locals: localsFor(t.db, captain, undefined, storage), request: jsonRequest('/x', 'POST', JSON.parse(backupText)) });
+		expect(asJson.status).toBe(415);
+		const noFile = await callEndpoint(importRoute, { locals: localsFor(t.db, captain, undefined, storage), request: new Request('http://localhost/x', { method: 'POST', body: new FormData() }) });
+		expect(noFile.status).toBe(400);
+		expect((await noFile.json()).errors).toEqual([{ path: 'file', message: 'No file' }]);
 		expect(await counts()).toEqual(start);
 	});
 

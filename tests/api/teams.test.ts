@@ -43,6 +43,17 @@ describe('team routes', () => {
 		expect(list.map((x: { id: string }) => x.id)).toContain(body.id);
 	});
 
+	it('sets the plan currency: a code is upper-cased and kept, anything else is refused beside the field', async () => {
+		const founder = await makeUser(t.db);
+		const { id: teamId } = await (await as(founder).call(teams, 'POST', {}, { name: 'Currency Crew' })).json();
+		expect((await as(founder).call(team, 'PATCH', { teamId }, { currency: 'eur' })).status).toBe(204);
+		expect(await (await as(founder).call(team, 'GET', { teamId })).json()).toMatchObject({ currency: 'EUR' });
+		const bad = await as(founder).call(team, 'PATCH', { teamId }, { currency: 'EURO' });
+		expect(bad.status).toBe(400);
+		expect((await bad.json()).errors).toEqual([{ path: 'currency', message: 'Use a three-letter currency code such as EUR' }]);
+		expect(await (await as(founder).call(team, 'GET', { teamId })).json()).toMatchObject({ currency: 'EUR' });
+	});
+
 	it('invites by e-mail; the invitee follows the mailed link once and joins with the role', async () => {
 		const captain = await makeUser(t.db, 'cap.one@sagwise.test', 'Cap One');
 		const teamId = await makeTeam(t.db, 'Invite Team');
