@@ -57,21 +57,6 @@ export function ComparisonTable({ data, canInstall, installing, installed, onIns
 		[lows],
 	);
 
-	const Row = ({ label, hint, children }: { label: string; hint?: string; children: React.ReactNode }) => (
-		<tr className="border-t border-hairline">
-			<th scope="row" className="bg-paper/60 px-3 py-2 text-left font-semibold">
-				{label}
-				{hint && <span className="block text-xs font-normal text-ink-soft">{hint}</span>}
-			</th>
-			{children}
-		</tr>
-	);
-	const cell = (key: string, content: React.ReactNode, tone = '') => (
-		<td key={key} className={`num px-3 py-2 text-right ${tone}`}>
-			{content}
-		</td>
-	);
-
 	return (
 		<div className="flex flex-col gap-4">
 			<div className="overflow-x-auto rounded-md border border-hairline bg-card">
@@ -179,6 +164,26 @@ export function ComparisonTable({ data, canInstall, installing, installed, onIns
 				installation.
 			</p>
 		</div>
+	);
+}
+
+function Row({ label, hint, children }: { label: string; hint?: string; children: React.ReactNode }) {
+	return (
+		<tr className="border-t border-hairline">
+			<th scope="row" className="bg-paper/60 px-3 py-2 text-left font-semibold">
+				{label}
+				{hint && <span className="block text-xs font-normal text-ink-soft">{hint}</span>}
+			</th>
+			{children}
+		</tr>
+	);
+}
+
+function cell(key: string, content: React.ReactNode, tone = '') {
+	return (
+		<td key={key} className={`num px-3 py-2 text-right ${tone}`}>
+			{content}
+		</td>
 	);
 }
 
