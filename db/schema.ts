@@ -37,6 +37,8 @@ export interface VehicleTable {
 	notes: Generated<string>;
 	archived_at: Timestamp | null;
 	owner_id: string | null;
+	/** The owner's address as recorded in a restored backup (never a live account). */
+	imported_by: string | null;
 	created_at: DefaultTimestamp;
 }
 
@@ -57,6 +59,8 @@ export interface RevisionTable {
 	document: ColumnType<unknown, string, never>;
 	message: string;
 	author_id: string | null;
+	/** The author as recorded in a restored backup (never a live account). */
+	imported_by: string | null;
 	restored_from_id: string | null;
 	created_at: DefaultTimestamp;
 }
@@ -72,6 +76,8 @@ export interface UserTable {
 	passwordHash: string | null;
 	unitSystem: Generated<'imperial' | 'metric'>;
 	createdAt: DefaultTimestamp;
+	/** Bumped by a password reset or a first e-mail sign-in: sessions issued under an older version end. */
+	sessionVersion: Generated<number>;
 }
 
 export interface AccountTable {
@@ -133,6 +139,14 @@ export interface PasswordResetTable {
 	used_at: Timestamp | null;
 }
 
+export interface RateEventTable {
+	id: Generated<number>;
+	kind: 'reset_mail' | 'link_mail' | 'sign_up';
+	email: string;
+	client: string;
+	created_at: DefaultTimestamp;
+}
+
 export interface SignInAttemptTable {
 	id: Generated<number>;
 	email: string;
@@ -167,6 +181,8 @@ export interface RunTable {
 	ambient_c: number | null;
 	notes: Generated<string>;
 	author_id: string | null;
+	/** As recorded in a restored backup (never a live account of this installation). */
+	imported_by: string | null;
 	created_at: DefaultTimestamp;
 }
 
@@ -202,6 +218,8 @@ export interface CheckSignoffTable {
 	vehicle_id: string;
 	item_key: string;
 	signed_by: string | null;
+	/** As recorded in a restored backup (never a live account of this installation). */
+	imported_by: string | null;
 	signed_at: DefaultTimestamp;
 	note: Generated<string>;
 }
@@ -218,6 +236,8 @@ export interface PlanTable {
 	/** Bumped on every save; a save naming an older version is refused (409). */
 	version: Generated<number>;
 	created_by: string | null;
+	/** As recorded in a restored backup (never a live account of this installation). */
+	imported_by: string | null;
 	installed_revision_id: string | null;
 	installed_at: Timestamp | null;
 	created_at: DefaultTimestamp;
@@ -256,6 +276,7 @@ export interface Database {
 	invitation: InvitationTable;
 	password_reset: PasswordResetTable;
 	sign_in_attempt: SignInAttemptTable;
+	rate_event: RateEventTable;
 }
 
 export type UserRow = Selectable<UserTable>;

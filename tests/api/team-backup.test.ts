@@ -6,6 +6,7 @@ import { DEMO_USERS, seedDemo } from '../../db/seed';
 import type { AppUser } from '../../src/lib/server/auth';
 import { appendRevision, findHeadRevision } from '../../src/lib/server/db/builds';
 import type { Storage } from '../../src/lib/server/storage';
+import { makeThumbnail } from '../../src/lib/server/file-content';
 import * as exportRoute from '../../src/pages/api/teams/[teamId]/export';
 import * as importRoute from '../../src/pages/api/teams/import';
 import { callEndpoint, jsonRequest } from '../helpers/container';
@@ -23,6 +24,8 @@ type Row = Record<string, unknown>;
 async function snapshot(db: Kysely<Database>, storage: Storage, teamId: string) {
 	const users = new Map((await db.selectFrom('User').select(['id', 'email']).execute()).map((u) => [u.id, u.email]));
 	const user = (id: unknown) => (id ? (users.get(id as string) ?? `unknown user`) : null);
+	// A person as the team records them: a live account here, or the address a restored backup recorded.
+	const person = (id: unknown, importedBy: string | null) => user(id) ?? importedBy;
 	const team = await db.selectFrom('team').selectAll().where('id', '=', teamId).executeTakeFirstOrThrow();
 	const vehicles = await db.selectFrom('vehicle').selectAll().where('team_id', '=', teamId).execute();
 	const vName = new Map(vehicles.map((v) => [v.id, v.name]));
@@ -45,26 +48,32 @@ async function snapshot(db: Kysely<Database>, storage: Storage, teamId: string) 
 	const fileRows = [];
 	for (const { id, team_id, run_id, object_key, ...f } of files) {
 		const bytes = await storage.get(object_key);
-		fileRows.push({ ...f, run: runName.get(run_id!), object: object_key.slice(object_key.lastIndexOf('/') + 1), sha256: bytes ? createHash('sha256').update(bytes).digest('hex') : 'missing' });
+		// Object names are made by the server on import; what must survive is the kind and the photo-thumbnail pairing.
+		fileRows.push({ ...f, run: runName.get(run_id!), object: object_key.slice(object_key.lastIndexOf('/') + 1).replace(/^(photo|logger)-[^.]+?(-thumb)?\./, '$1$2.'), sha256: bytes ? createHash('sha256').update(bytes).digest('hex') : 'missing' });
 	}
 	const { id, name, last_digest_at, ...teamRest } = team;
 	return {
 		team: teamRest,
-		members: sorted((await db.selectFrom('membership').selectAll().where('team_id', '=', teamId).execute()).map(({ team_id, user_id, created_at, ...m }) => ({ ...m, user: user(user_id) }))),
-		vehicles: sorted(vehicles.map(({ id, team_id, owner_id, ...v }) => ({ ...v, owner: user(owner_id) }))),
+		// Members and invitations together: a restored team invites everyone but its importer.
+		people: sorted([
+			...(await db.selectFrom('membership').selectAll().where('team_id', '=', teamId).execute()).map(({ user_id, role }) => ({ email: user(user_id), role })),
+			...(await db.selectFrom('invitation').selectAll().where('team_id', '=', teamId).where('accepted_at', 'is', null).where('revoked_at', 'is', null).execute()).map(({ email, role }) => ({ email, role })),
+		]),
+		vehicles: sorted(vehicles.map(({ id, team_id, owner_id, imported_by, ...v }) => ({ ...v, owner: person(owner_id, imported_by) }))),
 		builds: sorted(builds.map((b) => ({ vehicle: vName.get(b.vehicle_id), head: rev(b.head_revision_id), created: typeof b.created_at }))),
-		revisions: sorted(revisions.map(({ id, build_id, parent_id, restored_from_id, author_id, ...r }) => ({ ...r, vehicle: buildVehicle.get(build_id), parent: rev(parent_id), restoredFrom: rev(restored_from_id), author: user(author_id) }))),
-		plans: sorted(plans.map(({ id, vehicle_id, base_revision_id, installed_revision_id, created_by, ...p }) => ({ ...p, vehicle: vName.get(vehicle_id), base: rev(base_revision_id), installed: rev(installed_revision_id), by: user(created_by) }))),
+		revisions: sorted(revisions.map(({ id, build_id, parent_id, restored_from_id, author_id, imported_by, ...r }) => ({ ...r, vehicle: buildVehicle.get(build_id), parent: rev(parent_id), restoredFrom: rev(restored_from_id), author: person(author_id, imported_by) }))),
+		plans: sorted(plans.map(({ id, vehicle_id, base_revision_id, installed_revision_id, created_by, imported_by, ...p }) => ({ ...p, vehicle: vName.get(vehicle_id), base: rev(base_revision_id), installed: rev(installed_revision_id), by: person(created_by, imported_by) }))),
 		parts: sorted((await db.selectFrom('plan_part').selectAll().where('plan_id', 'in', plans.length ? plans.map((p) => p.id) : ['00000000-0000-0000-0000-000000000000']).execute()).map(({ plan_id, ...x }) => ({ ...x, plan: pName.get(plan_id) }))),
 		events: sorted(events.map(({ id, team_id, ...e }) => e)),
-		runs: sorted(runs.map(({ id, vehicle_id, event_id, revision_id, author_id, ...r }) => ({ ...r, vehicle: vName.get(vehicle_id), event: event_id ? eName.get(event_id) : null, revision: rev(revision_id), author: user(author_id) }))),
+		runs: sorted(runs.map(({ id, vehicle_id, event_id, revision_id, author_id, imported_by, ...r }) => ({ ...r, vehicle: vName.get(vehicle_id), event: event_id ? eName.get(event_id) : null, revision: rev(revision_id), author: person(author_id, imported_by) }))),
 		samples: sorted((await db.selectFrom('run_sample').selectAll().where('run_id', 'in', runs.map((r) => r.id)).execute()).map(({ run_id, ...s }) => ({ ...s, run: runName.get(run_id) }))),
 		files: sorted(fileRows),
 		items: sorted(items.map(({ id, team_id, ...i }) => i)),
-		signoffs: sorted((await db.selectFrom('check_signoff').selectAll().where('vehicle_id', 'in', vIds).execute()).map(({ event_id, vehicle_id, item_key, signed_by, ...s }) => ({ ...s, event: eName.get(event_id), vehicle: vName.get(vehicle_id), item: itemName.get(item_key) ?? item_key, by: user(signed_by) }))),
+		signoffs: sorted((await db.selectFrom('check_signoff').selectAll().where('vehicle_id', 'in', vIds).execute()).map(({ event_id, vehicle_id, item_key, signed_by, imported_by, ...s }) => ({ ...s, event: eName.get(event_id), vehicle: vName.get(vehicle_id), item: itemName.get(item_key) ?? item_key, by: person(signed_by, imported_by) }))),
 	};
 }
 
+let THUMB: Uint8Array;
 const PNG = Buffer.from('iVBORw0KGgoAAAANSUhEUgAAAAEAAAABCAYAAAAfFcSJAAAADUlEQVR42mP8z8BQDwAEhQGAhKmMIQAAAABJRU5ErkJggg==', 'base64');
 
 describe('team backup', () => {
@@ -77,6 +86,7 @@ describe('team backup', () => {
 
 	beforeAll(async () => {
 		t = await createTestDb();
+		THUMB = await makeThumbnail(new Uint8Array(PNG));
 		teamId = await seedDemo(t.db, storage);
 		const byEmail = async (email: string) => {
 			const u = await t.db.selectFrom('User').select(['id', 'email', 'name']).where('email', '=', email).executeTakeFirstOrThrow();
@@ -95,10 +105,10 @@ describe('team backup', () => {
 		const run = await t.db.selectFrom('run').select('id').where('vehicle_id', '=', oak.id).executeTakeFirstOrThrow();
 		const base = `teams/${teamId}/runs/${run.id}/photo-1`;
 		await storage.put(`${base}.png`, new Uint8Array(PNG), 'image/png');
-		await storage.put(`${base}-thumb.webp`, new Uint8Array([1, 2, 3, 4]), 'image/webp');
+		await storage.put(`${base}-thumb.webp`, THUMB, 'image/webp');
 		await t.db.insertInto('stored_file').values([
 			{ team_id: teamId, run_id: run.id, kind: 'photo', object_key: `${base}.png`, file_name: 'lanes.png', content_type: 'image/png', size_bytes: PNG.byteLength },
-			{ team_id: teamId, run_id: run.id, kind: 'thumbnail', object_key: `${base}-thumb.webp`, file_name: 'lanes.png (thumbnail)', content_type: 'image/webp', size_bytes: 4 },
+			{ team_id: teamId, run_id: run.id, kind: 'thumbnail', object_key: `${base}-thumb.webp`, file_name: 'lanes.png (thumbnail)', content_type: 'image/webp', size_bytes: THUMB.byteLength },
 		]).execute();
 		const event = await t.db.selectFrom('event').select('id').where('team_id', '=', teamId).orderBy('starts_on', 'desc').executeTakeFirstOrThrow();
 		const item = await t.db.selectFrom('check_item').select('id').where('team_id', '=', teamId).executeTakeFirstOrThrow();
@@ -131,7 +141,7 @@ describe('team backup', () => {
 		const res = await upload(backupText, captain, 'Harbour Street (restored)');
 		expect(res.status).toBe(201);
 		const summary = await res.json();
-		expect(summary).toMatchObject({ name: 'Harbour Street (restored)', members: 3, invitations: 0, vehicles: 3, plans: 2 });
+		expect(summary).toMatchObject({ name: 'Harbour Street (restored)', members: 1, invitations: 2, vehicles: 3, plans: 2 });
 		const before = await snapshot(t.db, storage, teamId);
 		const after = await snapshot(t.db, storage, summary.teamId);
 		expect(after).toEqual(before);
@@ -199,6 +209,8 @@ describe('team backup', () => {
 			},
 			get: storage.get,
 			remove: storage.remove,
+			list: storage.list,
+			ping: storage.ping,
 		};
 		const res = await upload(backupText, captain, 'Half', failing);
 		expect(res.status).toBe(500);

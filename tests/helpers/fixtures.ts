@@ -44,6 +44,8 @@ export function memoryStorage(): Storage & { objects: Map<string, Uint8Array> } 
 		put: async (key, body) => void objects.set(key, body),
 		get: async (key) => objects.get(key) ?? null,
 		remove: async (key) => void objects.delete(key),
+		list: async (prefix) => [...objects.keys()].filter((k) => k.startsWith(prefix)).map((key) => ({ key, lastModified: null })),
+		ping: async () => {},
 	};
 }
 

@@ -76,8 +76,9 @@ export function ImportTeamForm() {
 			{error && <FormMessage tone="error">{error}</FormMessage>}
 			{done && (
 				<FormMessage tone="ok">
-					“{done.name}” is restored: {done.vehicles} vehicles, {done.revisions} revisions, {done.plans} plans, {done.events} events, {done.runs} runs, {done.files} files. {done.members} member{done.members === 1 ? '' : 's'} joined
-					{done.invitations > 0 && `; ${done.invitations} without an account here are invited (resend their invitations from the team page)`}.{' '}
+					“{done.name}” is restored: {done.vehicles} vehicles, {done.revisions} revisions, {done.plans} plans, {done.events} events, {done.runs} runs, {done.files} files. You are its captain
+					{done.invitations > 0 && `; the ${done.invitations} other ${done.invitations === 1 ? 'person' : 'people'} in the file ${done.invitations === 1 ? 'has' : 'have'} a pending invitation (send it from the team page; each joins by accepting it)`}
+					. Authors and sign-offs show as recorded in the file.{' '}
 					<a className="font-semibold underline" href={`/teams/${done.teamId}`}>
 						Open the team
 					</a>

@@ -41,13 +41,13 @@ export async function loadChecklist(db: App.Locals['db'], teamId: string, eventI
 	const signoffs = await db
 		.selectFrom('check_signoff as s')
 		.leftJoin('User as u', 'u.id', 's.signed_by')
-		.select(['s.item_key', 's.signed_at', 's.note', 'u.name', 'u.email'])
+		.select(['s.item_key', 's.signed_at', 's.note', 's.imported_by', 'u.name', 'u.email'])
 		.where('s.event_id', '=', event.id)
 		.where('s.vehicle_id', '=', vehicle.id)
 		.execute();
 	const signoffOf = (key: string) => {
 		const s = signoffs.find((x) => x.item_key === key);
-		return s ? { by: s.name ?? s.email, at: s.signed_at.toISOString(), note: s.note } : null;
+		return s ? { by: s.name ?? s.email ?? (s.imported_by ? `imported: ${s.imported_by}` : 'a former member'), at: s.signed_at.toISOString(), note: s.note } : null;
 	};
 	const computed = revision
 		? computedChecks(buildReport(revision.document as BuildDocument, { fuseDistanceM: team.fuse_distance_m }, { burpRun: false }))

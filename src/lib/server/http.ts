@@ -1,4 +1,5 @@
 import type { z } from 'zod';
+import { BodyTooLargeError, MAX_JSON_BYTES, readBytes } from './body';
 
 export type ErrorCode =
 	| 'invalid_input'
@@ -18,6 +19,8 @@ export type ErrorCode =
 	| 'confirmation_mismatch'
 	| 'invalid_backup'
 	| 'unsupported_version'
+	| 'too_large'
+	| 'storage_unavailable'
 	| 'internal';
 
 export interface FieldError {
@@ -72,15 +75,16 @@ export function toFieldErrors(error: z.ZodError): FieldError[] {
 export type ReadResult<T> = { ok: true; data: T } | { ok: false; response: Response };
 
 /** Reads a JSON body and validates it: 415 when not JSON, 400 with field errors when invalid. */
-export async function readJson<S extends z.ZodType>(request: Request, schema: S): Promise<ReadResult<z.infer<S>>> {
+export async function readJson<S extends z.ZodType>(request: Request, schema: S, limit = MAX_JSON_BYTES): Promise<ReadResult<z.infer<S>>> {
 	const type = request.headers.get('content-type') ?? '';
 	if (!type.toLowerCase().startsWith('application/json')) {
 		return { ok: false, response: problem(415, 'unsupported_media_type', 'Send the body as application/json') };
 	}
 	let raw: unknown;
 	try {
-		raw = await request.json();
-	} catch {
+		raw = JSON.parse(new TextDecoder('utf-8', { fatal: true }).decode(await readBytes(request, limit)));
+	} catch (error) {
+		if (error instanceof BodyTooLargeError) return { ok: false, response: problem(413, 'too_large', `The body is larger than ${Math.round(limit / 1024)} KB`) };
 		return { ok: false, response: problem(400, 'invalid_input', 'The body is not valid JSON') };
 	}
 	const parsed = schema.safeParse(raw);
@@ -106,4 +110,11 @@ export function conflict(detail: string, extra: Record<string, unknown>): Respon
 		status: 409,
 		headers: { 'content-type': 'application/problem+json' },
 	});
+}
+
+/** 503 while an outside service (the database, the file store) is down: nothing was changed, try again. */
+export function unavailable(service: 'database' | 'storage'): Response {
+	return service === 'database'
+		? problem(503, 'database_unavailable', 'The database is not answering right now. Nothing was changed; try again in a moment.', undefined, { 'retry-after': '5', 'cache-control': 'no-store' })
+		: problem(503, 'storage_unavailable', 'The file store is not answering right now. Nothing was changed; try again in a moment.', undefined, { 'retry-after': '5', 'cache-control': 'no-store' });
 }

@@ -71,7 +71,7 @@ export async function sendRevisionDigests(db: Db, mailer: Mailer, config: Server
 				.innerJoin('build as b', 'b.id', 'r.build_id')
 				.innerJoin('vehicle as v', 'v.id', 'b.vehicle_id')
 				.leftJoin('User as u', 'u.id', 'r.author_id')
-				.select(['v.name as vehicle', 'r.number', 'r.message', 'u.name as author'])
+				.select(['v.name as vehicle', 'r.number', 'r.message', 'u.name as author', 'r.imported_by'])
 				.where('v.team_id', '=', team.id)
 				.where('r.created_at', '>', since)
 				.where('r.created_at', '<=', now)
@@ -80,7 +80,7 @@ export async function sendRevisionDigests(db: Db, mailer: Mailer, config: Server
 			await trx.updateTable('team').set({ last_digest_at: now }).where('id', '=', team.id).execute();
 			if (revisions.length === 0) return 0;
 			const captains = await trx.selectFrom('membership as m').innerJoin('User as u', 'u.id', 'm.user_id').select('u.email').where('m.team_id', '=', team.id).where('m.role', '=', 'captain').execute();
-			const lines = revisions.map((r) => `${r.vehicle} r${r.number}: ${r.message} (${r.author ?? 'someone'})`);
+			const lines = revisions.map((r) => `${r.vehicle} r${r.number}: ${r.message} (${r.author ?? (r.imported_by ? `imported: ${r.imported_by}` : 'someone')})`);
 			const url = `${config.publicUrl}/teams/${team.id}`;
 			for (const c of captains) {
 				await mailer.send({

@@ -1,10 +1,11 @@
-import { createHash, randomBytes } from 'node:crypto';
-import { type Kysely, sql } from 'kysely';
+import { createHash, randomBytes, randomUUID } from 'node:crypto';
+import type { Kysely } from 'kysely';
 import type { Database, Role } from '../../../db/schema';
 import type { BuildDocument } from '@/engine/types';
 import { BACKUP_FORMAT, BACKUP_VERSION, backupEnvelopeSchema, type TeamBackup, type TeamBackupContent, teamBackupContentSchema } from '@/lib/schemas/team-backup';
 import { measurementColumns, measurementsOf } from './db/runs';
 import type { Storage } from './storage';
+import { checkLoggerFile, checkPhoto, checkThumbnail } from './file-content';
 import { hashToken } from './tokens';
 
 type Db = Kysely<Database>;
@@ -59,7 +60,7 @@ export async function exportTeam(db: Db, storage: Storage, teamId: string): Prom
 			competitionClass: v.competition_class,
 			notes: v.notes,
 			archivedAt: v.archived_at ? iso(v.archived_at) : null,
-			ownerEmail: emailOf(v.owner_id),
+			ownerEmail: emailOf(v.owner_id) ?? v.imported_by,
 			createdAt: iso(v.created_at),
 			headRevision: num(v.head_revision_id),
 			revisions: revisions.map((r) => ({
@@ -67,7 +68,7 @@ export async function exportTeam(db: Db, storage: Storage, teamId: string): Prom
 				parent: num(r.parent_id),
 				restoredFrom: num(r.restored_from_id),
 				message: r.message,
-				authorEmail: emailOf(r.author_id),
+				authorEmail: emailOf(r.author_id) ?? r.imported_by,
 				createdAt: iso(r.created_at),
 				document: r.document as BuildDocument,
 			})),
@@ -78,7 +79,7 @@ export async function exportTeam(db: Db, storage: Storage, teamId: string): Prom
 				installedRevision: num(p.installed_revision_id),
 				installedAt: p.installed_at ? iso(p.installed_at) : null,
 				version: p.version,
-				createdByEmail: emailOf(p.created_by),
+				createdByEmail: emailOf(p.created_by) ?? p.imported_by,
 				createdAt: iso(p.created_at),
 				updatedAt: iso(p.updated_at),
 				document: p.document as BuildDocument,
@@ -119,7 +120,7 @@ export async function exportTeam(db: Db, storage: Storage, teamId: string): Prom
 			revision: r.revision_id ? (revisionNumber.get(r.revision_id) ?? null) : null,
 			ranAt: iso(r.ran_at),
 			...measurementsOf(r),
-			authorEmail: emailOf(r.author_id),
+			authorEmail: emailOf(r.author_id) ?? r.imported_by,
 			createdAt: iso(r.created_at),
 			samples: samples.map((s) => [s.t_s, s.volts, s.amps] as [number, number, number]),
 			files: outFiles,
@@ -142,7 +143,7 @@ export async function exportTeam(db: Db, storage: Storage, teamId: string): Prom
 		runs: outRuns,
 		signoffs: signoffs
 			.filter((s) => vehicleKey.has(s.vehicle_id))
-			.map((s) => ({ event: eventKey.get(s.event_id)!, vehicle: vehicleKey.get(s.vehicle_id)!, item: itemKey.get(s.item_key) ?? s.item_key, signedByEmail: emailOf(s.signed_by), signedAt: iso(s.signed_at), note: s.note })),
+			.map((s) => ({ event: eventKey.get(s.event_id)!, vehicle: vehicleKey.get(s.vehicle_id)!, item: itemKey.get(s.item_key) ?? s.item_key, signedByEmail: emailOf(s.signed_by) ?? s.imported_by, signedAt: iso(s.signed_at), note: s.note })),
 	};
 	return { format: BACKUP_FORMAT, version: BACKUP_VERSION, exportedAt: new Date().toISOString(), checksum: checksumOf(content), team: content };
 }
@@ -220,27 +221,85 @@ export interface ImportSummary {
 	events: number;
 	runs: number;
 	files: number;
+	/** Photos whose metadata (EXIF, GPS, XMP) was removed on the way in. */
+	photosCleaned: number;
+}
+
+interface PreparedFile {
+	kind: 'logger' | 'photo' | 'thumbnail';
+	fileName: string;
+	contentType: string;
+	bytes: Uint8Array;
+	createdAt: string;
+	/** Its index among the run's files in the backup. */
+	sourceIndex: number;
+	/** The photo this thumbnail belongs to, by its index in the run's files (thumbnails only). */
+	pairedWith: number | null;
+}
+
+export type PrepareFilesResult = { ok: true; files: PreparedFile[][]; photosCleaned: number } | { ok: false; errors: { path: string; message: string }[] };
+
+const stem = (objectName: string) => objectName.replace(/\.[^.]*$/, '');
+
+/**
+ * Checks every file of a backup by its content, exactly as an upload is checked, before anything is
+ * written: photos must be JPEG, PNG or WebP (their metadata is removed), thumbnails WebP, logger
+ * files CSV text. The file's own type, object name and size are never trusted; the object name is
+ * used only to pair a thumbnail with its photo inside one run.
+ */
+export async function prepareBackupFiles(t: TeamBackupContent): Promise<PrepareFilesResult> {
+	const errors: { path: string; message: string }[] = [];
+	const out: PreparedFile[][] = [];
+	let photosCleaned = 0;
+	for (const [i, r] of t.runs.entries()) {
+		const files: PreparedFile[] = [];
+		const photoByStem = new Map<string, number>();
+		r.files.forEach((f, j) => f.kind === 'photo' && photoByStem.set(stem(f.objectName), j));
+		for (const [j, f] of r.files.entries()) {
+			const path = `team.runs.${i}.files.${j}`;
+			const bytes = new Uint8Array(Buffer.from(f.data, 'base64'));
+			const base = { fileName: f.fileName.slice(0, 200), createdAt: f.createdAt, sourceIndex: j, pairedWith: null };
+			if (f.kind === 'photo') {
+				const checked = await checkPhoto(bytes);
+				if (!checked.ok) errors.push({ path, message: `Photo "${f.fileName}": ${checked.message}` });
+				else {
+					if (checked.stripped) photosCleaned++;
+					files.push({ ...base, kind: 'photo', contentType: checked.type, bytes: checked.bytes });
+				}
+			} else if (f.kind === 'thumbnail') {
+				const checked = await checkThumbnail(bytes);
+				const photo = photoByStem.get(stem(f.objectName).replace(/-thumb$/, ''));
+				if (!checked.ok) errors.push({ path, message: `Thumbnail "${f.fileName}": ${checked.message}` });
+				else if (photo === undefined) errors.push({ path, message: `Thumbnail "${f.fileName}" belongs to no photo of this run` });
+				else files.push({ ...base, kind: 'thumbnail', contentType: 'image/webp', bytes, pairedWith: photo });
+			} else {
+				const checked = checkLoggerFile(bytes);
+				if (!checked.ok) errors.push({ path, message: `Logger file "${f.fileName}": ${checked.message}` });
+				else files.push({ ...base, kind: 'logger', contentType: 'text/csv', bytes });
+			}
+			if (errors.length >= 10) return { ok: false, errors };
+		}
+		out.push(files);
+	}
+	return errors.length ? { ok: false, errors } : { ok: true, files: out, photosCleaned };
 }
 
 /**
  * Writes a parsed backup as a new team, all in one transaction; files go to storage first and are
- * removed again if the transaction fails, so a failed import leaves nothing behind. The importer
- * becomes captain. Members with an account here join with their role; the others get a pending
- * invitation (sent from the team page). Authors, owners and sign-offs map to accounts by e-mail.
+ * removed again if the transaction fails, so a failed import leaves nothing behind (a crash in
+ * between leaves objects without rows, which `npm run jobs` removes). The file is untrusted input:
+ * the importer becomes captain and is the only member; everyone else the file names becomes a
+ * pending invitation, whether or not they have an account here (so the answer reveals nothing
+ * about who does). Authors, owners and sign-offs are kept as recorded in the file, never mapped to
+ * a live account. Every object key is made here, inside the new team's prefix.
  */
-export async function importTeam(db: Db, storage: Storage, backup: TeamBackup, importer: { id: string }, name?: string): Promise<ImportSummary> {
+export async function importTeam(db: Db, storage: Storage, backup: TeamBackup, importer: { id: string; email: string }, name: string | undefined, prepared: PrepareFilesResult & { ok: true }): Promise<ImportSummary> {
 	const t = backup.team;
-	const emails = [...new Set([...t.members.map((m) => m.email.toLowerCase())])];
-	// Only the accounts the file names: members, owners, authors and sign-offs.
-	const named = new Set([
-		...emails,
-		...t.vehicles.flatMap((v) => [v.ownerEmail, ...v.revisions.map((r) => r.authorEmail), ...v.plans.map((p) => p.createdByEmail)]),
-		...t.runs.map((r) => r.authorEmail),
-		...t.signoffs.map((s) => s.signedByEmail),
-	].filter((e): e is string => e !== null).map((e) => e.toLowerCase()));
-	const found = named.size ? await db.selectFrom('User').select(['id', 'email']).where(sql<string>`lower(email)`, 'in', [...named]).execute() : [];
-	const accounts = new Map(found.map((u) => [u.email!.toLowerCase(), u.id] as const));
-	const userOf = (email: string | null) => (email ? (accounts.get(email.toLowerCase()) ?? null) : null);
+	const importerEmail = importer.email.toLowerCase();
+	const roles = new Map<string, Role>();
+	for (const m of t.members) roles.set(m.email.toLowerCase(), m.role);
+	roles.delete(importerEmail);
+	const recorded = (email: string | null) => (email ? email.toLowerCase() : null);
 	const written: string[] = [];
 	try {
 		return await db.transaction().execute(async (trx) => {
@@ -249,27 +308,12 @@ export async function importTeam(db: Db, storage: Storage, backup: TeamBackup, i
 				.values({ name: name ?? t.name, reminder_days: t.reminderDays, fuse_distance_m: t.fuseDistanceM, currency: t.currency, created_at: t.createdAt })
 				.returning(['id', 'name'])
 				.executeTakeFirstOrThrow();
-			let members = 0;
-			let invitations = 0;
-			const roles = new Map<string, Role>(t.members.map((m) => [m.email.toLowerCase(), m.role]));
-			const joined = new Set<string>();
-			for (const email of emails) {
-				const userId = accounts.get(email);
-				if (userId) {
-					await trx.insertInto('membership').values({ team_id: team.id, user_id: userId, role: userId === importer.id ? 'captain' : roles.get(email)! }).execute();
-					joined.add(userId);
-					members++;
-				} else {
-					await trx
-						.insertInto('invitation')
-						.values({ team_id: team.id, email, role: roles.get(email)!, token_hash: hashToken(randomBytes(32).toString('base64url')), invited_by: importer.id, expires_at: new Date(Date.now() + 7 * 86_400_000) })
-						.execute();
-					invitations++;
-				}
-			}
-			if (!joined.has(importer.id)) {
-				await trx.insertInto('membership').values({ team_id: team.id, user_id: importer.id, role: 'captain' }).execute();
-				members++;
+			await trx.insertInto('membership').values({ team_id: team.id, user_id: importer.id, role: 'captain' }).execute();
+			for (const [email, role] of roles) {
+				await trx
+					.insertInto('invitation')
+					.values({ team_id: team.id, email, role, token_hash: hashToken(randomBytes(32).toString('base64url')), invited_by: importer.id, expires_at: new Date(Date.now() + 7 * 86_400_000) })
+					.execute();
 			}
 
 			const itemIds = new Map<string, string>();
@@ -285,7 +329,7 @@ export async function importTeam(db: Db, storage: Storage, backup: TeamBackup, i
 			for (const v of t.vehicles) {
 				const vehicle = await trx
 					.insertInto('vehicle')
-					.values({ team_id: team.id, name: v.name, description: v.description, competition_class: v.competitionClass, notes: v.notes, archived_at: v.archivedAt, owner_id: userOf(v.ownerEmail), created_at: v.createdAt })
+					.values({ team_id: team.id, name: v.name, description: v.description, competition_class: v.competitionClass, notes: v.notes, archived_at: v.archivedAt, owner_id: null, imported_by: recorded(v.ownerEmail), created_at: v.createdAt })
 					.returning('id')
 					.executeTakeFirstOrThrow();
 				vehicleIds.set(v.key, vehicle.id);
@@ -302,7 +346,8 @@ export async function importTeam(db: Db, storage: Storage, backup: TeamBackup, i
 							schema_version: r.document.schemaVersion,
 							document: JSON.stringify(r.document),
 							message: r.message,
-							author_id: userOf(r.authorEmail),
+							author_id: null,
+							imported_by: recorded(r.authorEmail),
 							restored_from_id: rev(r.restoredFrom),
 							created_at: r.createdAt,
 						})
@@ -323,7 +368,8 @@ export async function importTeam(db: Db, storage: Storage, backup: TeamBackup, i
 							schema_version: p.document.schemaVersion,
 							document: JSON.stringify(p.document),
 							version: p.version,
-							created_by: userOf(p.createdByEmail),
+							created_by: null,
+							imported_by: recorded(p.createdByEmail),
 							installed_revision_id: rev(p.installedRevision),
 							installed_at: p.installedAt,
 							created_at: p.createdAt,
@@ -352,7 +398,7 @@ export async function importTeam(db: Db, storage: Storage, backup: TeamBackup, i
 			}
 
 			let files = 0;
-			for (const r of t.runs) {
+			for (const [i, r] of t.runs.entries()) {
 				const run = await trx
 					.insertInto('run')
 					.values({
@@ -361,24 +407,38 @@ export async function importTeam(db: Db, storage: Storage, backup: TeamBackup, i
 						revision_id: r.revision === null ? null : revisionIds.get(`${r.vehicle}#${r.revision}`)!,
 						ran_at: r.ranAt,
 						...measurementColumns(r),
-						author_id: userOf(r.authorEmail),
+						author_id: null,
+						imported_by: recorded(r.authorEmail),
 						created_at: r.createdAt,
 					})
 					.returning('id')
 					.executeTakeFirstOrThrow();
-				for (let i = 0; i < r.samples.length; i += 5000) {
+				for (let k = 0; k < r.samples.length; k += 5000) {
 					await trx
 						.insertInto('run_sample')
-						.values(r.samples.slice(i, i + 5000).map(([tS, volts, amps], j) => ({ run_id: run.id, seq: i + j, t_s: tS, volts, amps })))
+						.values(r.samples.slice(k, k + 5000).map(([tS, volts, amps], j) => ({ run_id: run.id, seq: k + j, t_s: tS, volts, amps })))
 						.execute();
 				}
-				for (const f of r.files) {
-					const objectKey = `teams/${team.id}/runs/${run.id}/${f.objectName}`;
-					await storage.put(objectKey, new Uint8Array(Buffer.from(f.data, 'base64')), f.contentType);
+				// Photos first, so each thumbnail takes its photo's new name.
+				const runFiles = [...(prepared.files[i] ?? [])].sort((a, b) => Number(a.kind === 'thumbnail') - Number(b.kind === 'thumbnail'));
+				const photoBase = new Map<number, string>();
+				for (const f of runFiles) {
+					let objectKey: string;
+					if (f.kind === 'photo') {
+						const base = `teams/${team.id}/runs/${run.id}/photo-${randomUUID()}`;
+						photoBase.set(f.sourceIndex, base);
+						objectKey = `${base}.${f.contentType.split('/')[1]}`;
+					} else if (f.kind === 'thumbnail') {
+						const base = photoBase.get(f.pairedWith!) ?? `teams/${team.id}/runs/${run.id}/photo-${randomUUID()}`;
+						objectKey = `${base}-thumb.webp`;
+					} else {
+						objectKey = `teams/${team.id}/runs/${run.id}/logger-${randomUUID()}.csv`;
+					}
 					written.push(objectKey);
+					await storage.put(objectKey, f.bytes, f.contentType);
 					await trx
 						.insertInto('stored_file')
-						.values({ team_id: team.id, run_id: run.id, kind: f.kind, object_key: objectKey, file_name: f.fileName, content_type: f.contentType, size_bytes: f.sizeBytes, created_at: f.createdAt })
+						.values({ team_id: team.id, run_id: run.id, kind: f.kind, object_key: objectKey, file_name: f.fileName, content_type: f.contentType, size_bytes: f.bytes.byteLength, created_at: f.createdAt })
 						.execute();
 					files++;
 				}
@@ -387,10 +447,10 @@ export async function importTeam(db: Db, storage: Storage, backup: TeamBackup, i
 			for (const s of t.signoffs) {
 				await trx
 					.insertInto('check_signoff')
-					.values({ event_id: eventIds.get(s.event)!, vehicle_id: vehicleIds.get(s.vehicle)!, item_key: itemIds.get(s.item) ?? s.item, signed_by: userOf(s.signedByEmail), signed_at: s.signedAt, note: s.note })
+					.values({ event_id: eventIds.get(s.event)!, vehicle_id: vehicleIds.get(s.vehicle)!, item_key: itemIds.get(s.item) ?? s.item, signed_by: null, imported_by: recorded(s.signedByEmail), signed_at: s.signedAt, note: s.note })
 					.execute();
 			}
-			return { teamId: team.id, name: team.name, members, invitations, vehicles: t.vehicles.length, revisions, plans, events: t.events.length, runs: t.runs.length, files };
+			return { teamId: team.id, name: team.name, members: 1, invitations: roles.size, vehicles: t.vehicles.length, revisions, plans, events: t.events.length, runs: t.runs.length, files, photosCleaned: prepared.photosCleaned };
 		});
 	} catch (e) {
 		await Promise.all(written.map((k) => storage.remove(k).catch(() => undefined)));

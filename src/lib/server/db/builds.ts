@@ -27,14 +27,17 @@ export function findBuildForVehicle(db: Db, vehicleId: string) {
 	return db.selectFrom('build').selectAll().where('vehicle_id', '=', vehicleId).executeTakeFirst();
 }
 
-const summaryColumns = ['r.id', 'r.number', 'r.parent_id', 'r.message', 'r.created_at', 'r.schema_version', 'u.name as author_name', 'src.number as restored_number'] as const;
+const summaryColumns = ['r.id', 'r.number', 'r.parent_id', 'r.message', 'r.created_at', 'r.schema_version', 'u.name as author_name', 'r.imported_by', 'src.number as restored_number'] as const;
+
+/** A live account's name, or the name a restored backup recorded (never mistaken for a live account). */
+export const shownAuthor = (name: string | null, importedBy: string | null): string | null => name ?? (importedBy ? `imported: ${importedBy}` : null);
 
 function baseRevisionQuery(db: Db) {
 	return db.selectFrom('revision as r').leftJoin('User as u', 'u.id', 'r.author_id').leftJoin('revision as src', 'src.id', 'r.restored_from_id');
 }
 
-function toSummary(r: { id: string; number: number; parent_id: string | null; message: string; created_at: Date; author_name: string | null; restored_number: number | null }): RevisionSummary {
-	return { id: r.id, number: r.number, parentId: r.parent_id, message: r.message, authorName: r.author_name, createdAt: r.created_at.toISOString(), restoredFromNumber: r.restored_number };
+function toSummary(r: { id: string; number: number; parent_id: string | null; message: string; created_at: Date; author_name: string | null; imported_by: string | null; restored_number: number | null }): RevisionSummary {
+	return { id: r.id, number: r.number, parentId: r.parent_id, message: r.message, authorName: shownAuthor(r.author_name, r.imported_by), createdAt: r.created_at.toISOString(), restoredFromNumber: r.restored_number };
 }
 
 export async function listRevisions(db: Db, buildId: string): Promise<RevisionSummary[]> {

@@ -8,9 +8,22 @@ pg.types.setTypeParser(pg.types.builtins.INT8, (value) => Number(value));
 pg.types.setTypeParser(pg.types.builtins.DATE, (value) => value);
 
 export function createDb(connectionString: string, max = 10): Kysely<Database> {
-	const pool = new pg.Pool({ connectionString, max, connectionTimeoutMillis: 3000 });
+	const pool = new pg.Pool({
+		connectionString,
+		max,
+		connectionTimeoutMillis: 3000,
+		// A query the server never answers (a frozen host, a half-open socket) must not hold a request forever.
+		query_timeout: 30_000,
+		keepAlive: true,
+	});
 	// An idle client whose server went away emits 'error'; without a listener that kills the process.
 	// The next query gets a fresh connection (or fails and answers 503 where it is asked).
 	pool.on('error', (error) => console.error('database pool: idle client error:', error.message));
+	// A client checked out of the pool has no listener of the pool's: when the server stops in the
+	// middle of a query, the client emits 'error' as well as failing the query, and an 'error' event
+	// without a listener ends the process. The query's own rejection is what the request answers.
+	pool.on('connect', (client) => {
+		client.on('error', (error) => console.error('database client error:', error.message));
+	});
 	return new Kysely<Database>({ dialect: new PostgresDialect({ pool }) });
 }

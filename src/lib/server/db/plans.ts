@@ -2,7 +2,7 @@ import { type Kysely, sql } from 'kysely';
 import type { Database } from '../../../../db/schema';
 import type { BuildDocument } from '@/engine/types';
 import type { PlanPartInput, UpdatePlanInput } from '@/lib/schemas/plans';
-import { appendRevision, type SaveResult } from './builds';
+import { appendRevision, type SaveResult, shownAuthor } from './builds';
 
 type Db = Kysely<Database>;
 
@@ -62,6 +62,7 @@ function planQuery(db: Db) {
 			'p.updated_at',
 			'p.version',
 			'u.name as author_name',
+			'p.imported_by',
 		])
 		.select((eb) => [
 			eb.selectFrom('plan_part as pp').whereRef('pp.plan_id', '=', 'p.id').select((e) => e.fn.countAll<string>().as('c')).as('part_count'),
@@ -84,7 +85,7 @@ function toSummary(r: PlanRow): PlanSummary {
 		baseRevisionNumber: r.base_number,
 		partCount: Number(r.part_count ?? 0),
 		total: fromMinor(r.total_minor ?? 0),
-		authorName: r.author_name,
+		authorName: shownAuthor(r.author_name, r.imported_by),
 		createdAt: r.created_at.toISOString(),
 		updatedAt: r.updated_at.toISOString(),
 		installedRevisionNumber: r.installed_number,

@@ -4,14 +4,9 @@ import { loggerMappingSchema } from '@/lib/schemas/events';
 import { MAX_LOGGER_BYTES, parseLoggerCsv } from '@/lib/logger-csv';
 import { requireRun } from '@/lib/server/runs';
 import { problem, toFieldErrors } from '@/lib/server/http';
-
-/** Bytes that mark binary files (images, archives) which are not a logger CSV, whatever their name. */
-function looksBinary(bytes: Uint8Array): boolean {
-	const head = bytes.subarray(0, 8);
-	const sig = (...b: number[]) => b.every((x, i) => head[i] === x);
-	if (sig(0xff, 0xd8, 0xff) || sig(0x89, 0x50, 0x4e, 0x47) || sig(0x52, 0x49, 0x46, 0x46) || sig(0x50, 0x4b, 0x03, 0x04) || sig(0x47, 0x49, 0x46)) return true;
-	return bytes.subarray(0, 4096).includes(0);
-}
+import { readMultipart } from '@/lib/server/body';
+import { checkLoggerFile } from '@/lib/server/file-content';
+import { randomUUID } from 'node:crypto';
 
 /**
  * Uploads a logger file (multipart: `file` plus the column mapping). The file is checked by its
@@ -22,27 +17,28 @@ export const POST: APIRoute = async ({ params, request, locals }) => {
 	const found = await requireRun(locals, params, 'member');
 	if (!found.ok) return found.response;
 	const { access, run } = found;
-	if (!(request.headers.get('content-type') ?? '').startsWith('multipart/form-data')) {
-		return problem(415, 'unsupported_media_type', 'Send the file as multipart/form-data');
-	}
-	const declared = Number(request.headers.get('content-length') ?? 0);
-	if (declared > MAX_LOGGER_BYTES + 64 * 1024) return problem(413, 'invalid_input', `Logger files are limited to ${MAX_LOGGER_BYTES / 1024 / 1024} MB`);
-	const form = await request.formData().catch(() => null);
-	const file = form?.get('file');
-	if (!form || !(file instanceof File)) return problem(400, 'invalid_input', 'Attach the logger file', [{ path: 'file', message: 'No file' }]);
-	if (file.size > MAX_LOGGER_BYTES) return problem(413, 'invalid_input', `Logger files are limited to ${MAX_LOGGER_BYTES / 1024 / 1024} MB`);
+	const read = await readMultipart(request, MAX_LOGGER_BYTES + 64 * 1024, `Logger files are limited to ${MAX_LOGGER_BYTES / 1024 / 1024} MB`);
+	if (!read.ok) return read.response;
+	const form = read.data;
+	const file = form.get('file');
+	if (!(file instanceof File)) return problem(400, 'invalid_input', 'Attach the logger file', [{ path: 'file', message: 'No file' }]);
+	if (file.size > MAX_LOGGER_BYTES) return problem(413, 'too_large', `Logger files are limited to ${MAX_LOGGER_BYTES / 1024 / 1024} MB`);
 	const mapping = loggerMappingSchema.safeParse(Object.fromEntries([...form.entries()].filter(([, v]) => typeof v === 'string')));
 	if (!mapping.success) return problem(400, 'invalid_input', 'Map the columns of the file', toFieldErrors(mapping.error));
 	const bytes = new Uint8Array(await file.arrayBuffer());
-	if (looksBinary(bytes)) return problem(400, 'invalid_input', 'This is not a CSV text file (it looks like an image or an archive).', [{ path: 'file', message: 'Not a CSV file' }]);
-	const text = new TextDecoder('utf-8', { fatal: false }).decode(bytes);
+	const checked = checkLoggerFile(bytes);
+	if (!checked.ok) return problem(400, 'invalid_input', checked.message, [{ path: 'file', message: 'Not a CSV file' }]);
+	const text = checked.text;
 	const parsed = parseLoggerCsv(text, { time: mapping.data.timeColumn, volts: mapping.data.voltsColumn, amps: mapping.data.ampsColumn, timeUnit: mapping.data.timeUnit });
 	if (!parsed.ok) return problem(400, 'invalid_input', parsed.message, [{ path: parsed.row ? `row ${parsed.row}` : 'file', message: parsed.message }]);
 
-	const key = `teams/${access.teamId}/runs/${run.id}/logger-${Date.now()}.csv`;
+	const key = `teams/${access.teamId}/runs/${run.id}/logger-${randomUUID()}.csv`;
 	await locals.storage.put(key, bytes, 'text/csv');
 	try {
-		await locals.db.transaction().execute(async (trx) => {
+		const outcome = await locals.db.transaction().execute(async (trx) => {
+			// One upload per run at a time: a second one waits for none and is told to retry.
+			const locked = await trx.selectFrom('run').select('id').where('id', '=', run.id).forUpdate().skipLocked().executeTakeFirst();
+			if (!locked) return 'busy' as const;
 			const old = await trx.selectFrom('stored_file').select(['id', 'object_key']).where('run_id', '=', run.id).where('kind', '=', 'logger').execute();
 			await trx.deleteFrom('run_sample').where('run_id', '=', run.id).execute();
 			await trx.deleteFrom('stored_file').where('run_id', '=', run.id).where('kind', '=', 'logger').execute();
@@ -54,9 +50,12 @@ export const POST: APIRoute = async ({ params, request, locals }) => {
 					.execute();
 			}
 			return old;
-		}).then(async (old) => {
-			for (const f of old) await locals.storage.remove(f.object_key).catch(() => undefined);
 		});
+		if (outcome === 'busy') {
+			await locals.storage.remove(key).catch(() => undefined);
+			return problem(409, 'conflict', 'Another logger file is being uploaded to this run right now. Wait for it to finish, then try again.');
+		}
+		for (const f of outcome) await locals.storage.remove(f.object_key).catch(() => undefined);
 	} catch (error) {
 		await locals.storage.remove(key).catch(() => undefined);
 		throw error;

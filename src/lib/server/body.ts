@@ -1,0 +1,67 @@
+import { problem, type ReadResult } from './http';
+
+/** The largest JSON body any route takes (a 2,000-part build document fits with room to spare). */
+export const MAX_JSON_BYTES = 2 * 1024 * 1024;
+
+export class BodyTooLargeError extends Error {
+	override readonly name = 'BodyTooLargeError';
+	constructor(readonly limit: number) {
+		super(`The request body is larger than ${limit} bytes`);
+	}
+}
+
+/**
+ * Reads a request body into memory, but never more than `limit` bytes: a declared length above it
+ * is refused before a byte is read, and a body without a length (chunked) is cut off as soon as it
+ * passes the limit, so a huge upload never sits in the server's memory.
+ */
+export async function readBytes(request: Request, limit: number): Promise<Uint8Array> {
+	const declared = request.headers.get('content-length');
+	if (declared !== null && Number(declared) > limit) {
+		await request.body?.cancel().catch(() => undefined);
+		throw new BodyTooLargeError(limit);
+	}
+	if (!request.body) return new Uint8Array(0);
+	const reader = request.body.getReader();
+	const chunks: Uint8Array[] = [];
+	let total = 0;
+	for (;;) {
+		const { done, value } = await reader.read();
+		if (done) break;
+		total += value.byteLength;
+		if (total > limit) {
+			await reader.cancel().catch(() => undefined);
+			throw new BodyTooLargeError(limit);
+		}
+		chunks.push(value);
+	}
+	const out = new Uint8Array(total);
+	let offset = 0;
+	for (const c of chunks) {
+		out.set(c, offset);
+		offset += c.byteLength;
+	}
+	return out;
+}
+
+const sizeLabel = (bytes: number) => (bytes >= 1024 * 1024 ? `${Math.round(bytes / 1024 / 1024)} MB` : `${Math.round(bytes / 1024)} KB`);
+
+/** A multipart form read within a limit: 415 when not multipart, 413 past the limit, 400 when malformed. */
+export async function readMultipart(request: Request, limit: number, tooLarge?: string): Promise<ReadResult<FormData>> {
+	const type = request.headers.get('content-type') ?? '';
+	if (!type.toLowerCase().startsWith('multipart/form-data')) return { ok: false, response: problem(415, 'unsupported_media_type', 'Send the file as multipart/form-data') };
+	let bytes: Uint8Array;
+	try {
+		bytes = await readBytes(request, limit);
+	} catch (error) {
+		if (error instanceof BodyTooLargeError) return { ok: false, response: problem(413, 'too_large', tooLarge ?? `The upload is larger than ${sizeLabel(limit)}`) };
+		return { ok: false, response: problem(400, 'invalid_input', 'The upload was cut short', [{ path: 'file', message: 'Incomplete upload' }]) };
+	}
+	try {
+		return { ok: true, data: await new Response(bytes, { headers: { 'content-type': type } }).formData() };
+	} catch {
+		return { ok: false, response: problem(400, 'invalid_input', 'The upload is not a readable multipart form', [{ path: 'file', message: 'Malformed form data' }]) };
+	}
+}
+
+export { sizeLabel };
