@@ -2,9 +2,14 @@ import { getSession } from 'auth-astro/server';
 import { defineMiddleware, sequence } from 'astro:middleware';
 import { toAppUser } from '@/lib/server/auth';
 import { db } from '@/lib/server/db/index';
-import { problem } from '@/lib/server/http';
-import { recordSignInAttempt, signInLimited } from '@/lib/server/rate-limit';
+import { problem, unavailable } from '@/lib/server/http';
+import { signInLimited } from '@/lib/server/rate-limit';
+import { runWithRequest } from '@/lib/server/request-context';
+import { securityHeaders } from '@/lib/server/security-headers';
 import { config, mailer, storage } from '@/lib/server/services';
+import { isDatabaseUnavailable, isStorageUnavailable } from '@/lib/server/unavailable';
+
+type Context = Parameters<Parameters<typeof defineMiddleware>[0]>[0];
 
 const attachServices = defineMiddleware((context, next) => {
 	context.locals.db = db;
@@ -15,7 +20,7 @@ const attachServices = defineMiddleware((context, next) => {
 	return next();
 });
 
-function clientOf(context: Parameters<Parameters<typeof defineMiddleware>[0]>[0]): string {
+function clientOf(context: Context): string {
 	try {
 		return context.clientAddress;
 	} catch {
@@ -23,28 +28,66 @@ function clientOf(context: Parameters<Parameters<typeof defineMiddleware>[0]>[0]
 	}
 }
 
-/** Password sign-in goes through Auth.js; this counts failures in PostgreSQL and refuses with 429. */
+/** The path as routing sees it: doubled and trailing slashes folded, case ignored. */
+export const normalPath = (pathname: string) => pathname.replace(/\/{2,}/g, '/').replace(/(.)\/+$/, '$1').toLowerCase();
+
+/**
+ * The outermost layer: security headers on every answer, the client's address for code that runs
+ * inside libraries, and a 503 problem (not an HTML 500) while the database or the file store is
+ * down; any other failure of an API route answers a problem too.
+ */
+const guardResponses = defineMiddleware(async (context, next) => {
+	const https = context.url.protocol === 'https:';
+	const api = normalPath(context.url.pathname).startsWith('/api/');
+	// `//api/...` is no route of ours: refuse it plainly rather than let it reach a page.
+	if (/\/\//.test(context.url.pathname)) return securityHeaders(problem(404, 'not_found', 'No such page'), https);
+	let response: Response;
+	try {
+		response = await runWithRequest({ client: clientOf(context) }, () => next());
+	} catch (error) {
+		if (isDatabaseUnavailable(error)) response = unavailable('database');
+		else if (isStorageUnavailable(error)) response = unavailable('storage');
+		else if (api) {
+			console.error(`${context.request.method} ${context.url.pathname} failed:`, error);
+			response = problem(500, 'internal', 'Something went wrong on our side. Nothing may have been saved; try again.');
+		} else throw error;
+		if (response.status === 503) console.error(`${context.request.method} ${context.url.pathname}: ${(error as Error).message}`);
+	}
+	return securityHeaders(response, https);
+});
+
+async function emailOfBody(request: Request): Promise<string> {
+	const type = (request.headers.get('content-type') ?? '').toLowerCase();
+	try {
+		if (type.includes('application/json')) {
+			const body = (await request.clone().json()) as { email?: unknown };
+			return typeof body?.email === 'string' ? body.email.trim().toLowerCase() : '';
+		}
+		const form = await request.clone().formData();
+		return String(form.get('email') ?? '').trim().toLowerCase();
+	} catch {
+		return '';
+	}
+}
+
+/**
+ * Password sign-in goes through Auth.js, whose `authorize` counts every attempt (whatever the path
+ * spelling or body type that reached it). This answers 429 up front for a limited address or
+ * client, so a blocked caller gets a clear status instead of a redirect.
+ */
 const limitPasswordSignIn = defineMiddleware(async (context, next) => {
-	if (context.request.method !== 'POST' || context.url.pathname !== '/api/auth/callback/credentials') return next();
-	const form = await context.request.clone().formData().catch(() => null);
-	const email = String(form?.get('email') ?? '').trim().toLowerCase();
-	const client = clientOf(context);
-	if (email && (await signInLimited(context.locals.db, email, client))) {
+	if (context.request.method !== 'POST' || normalPath(context.url.pathname) !== '/api/auth/callback/credentials') return next();
+	const email = await emailOfBody(context.request);
+	if (await signInLimited(context.locals.db, email || '(none)', clientOf(context))) {
 		return problem(429, 'rate_limited', 'Too many failed sign-in attempts. Wait a minute and try again.', undefined, { 'retry-after': '60' });
 	}
-	const response = await next();
-	if (email) {
-		// Auth.js answers a failed password with a redirect (or JSON url) carrying ?error=.
-		const location = response.headers.get('location') ?? (response.headers.get('content-type')?.includes('json') ? ((await response.clone().json()) as { url?: string }).url : '') ?? '';
-		await recordSignInAttempt(context.locals.db, email, client, !/[?&]error=/.test(location));
-	}
-	return response;
+	return next();
 });
 
 const SKIP_SESSION = [/^\/_astro\//, /^\/api\/auth\//, /^\/api\/health$/, /^\/favicon/, /^\/robots\.txt$/];
 
 const attachUser = defineMiddleware(async (context, next) => {
-	if (!SKIP_SESSION.some((re) => re.test(context.url.pathname))) {
+	if (!SKIP_SESSION.some((re) => re.test(normalPath(context.url.pathname)))) {
 		context.locals.user = toAppUser(await getSession(context.request));
 	}
 	return next();
@@ -54,10 +97,10 @@ const APP_PAGES = [/^\/teams(\/|$)/, /^\/account(\/|$)/];
 
 /** Anonymous visitors of app pages go to the sign-in page and come back afterwards. */
 const guardPages = defineMiddleware((context, next) => {
-	if (!context.locals.user && APP_PAGES.some((re) => re.test(context.url.pathname))) {
+	if (!context.locals.user && APP_PAGES.some((re) => re.test(normalPath(context.url.pathname)))) {
 		return context.redirect(`/sign-in?callbackUrl=${encodeURIComponent(context.url.pathname + context.url.search)}`);
 	}
 	return next();
 });
 
-export const onRequest = sequence(attachServices, limitPasswordSignIn, attachUser, guardPages);
+export const onRequest = sequence(attachServices, guardResponses, limitPasswordSignIn, attachUser, guardPages);

@@ -83,7 +83,9 @@ async function main() {
 		S3_ENDPOINT: s3Endpoint,
 		...(devOutbox ? { SAGWISE_DEV_OUTBOX: devOutbox } : {}),
 	};
-	const server = spawn(process.execPath, ['dist/server/entry.mjs'], { env, stdio: ['ignore', 'inherit', 'inherit'] });
+	// The HTTP front (body limits, proxy trust) around the built app. Its stdin is a pipe from this
+	// process: if this process dies, even by SIGKILL, the pipe closes and the server stops too.
+	const server = spawn(process.execPath, ['--import', 'tsx', 'src/cli/serve.ts'], { env: { ...env, SAGWISE_EXIT_WITH_PARENT: '1' }, stdio: ['pipe', 'inherit', 'inherit'] });
 	cleanups.unshift(
 		() =>
 			new Promise<void>((resolve) => {
@@ -135,6 +137,7 @@ async function shutdown(code = 0) {
 
 process.on('SIGINT', () => void shutdown(0));
 process.on('SIGTERM', () => void shutdown(0));
+process.on('SIGHUP', () => void shutdown(0));
 
 main().catch(async (error) => {
 	console.error(error instanceof ClusterError ? `[sagwise] ${error.message}` : error);

@@ -19,6 +19,15 @@ const num = (x: number) => x.toPrecision(15);
  * simulator a starting point (a constant-power load has two solutions; SPICE needs a hint near the
  * high-voltage one).
  */
+/**
+ * Text safe inside a SPICE comment: every line break, vertical space and other control character
+ * becomes a space, so a name can never end the comment and start a netlist line of its own
+ * (`.control`, `.include`, a shell escape).
+ */
+export function spiceComment(text: string): string {
+	return text.replace(/[\u0000-\u001f\u007f-\u009f\u2028\u2029]/g, ' ');
+}
+
 export function toSpiceNetlist(
 	doc: BuildDocument,
 	conditions: SolveConditions,
@@ -30,8 +39,8 @@ export function toSpiceNetlist(
 	for (const [id, i] of net.index) nodeNames[id] = i < 0 ? '0' : `n${i + 1}`;
 	const name = (i: number) => (i < 0 ? '0' : `n${i + 1}`);
 	const v = (p: number, n: number) => (n < 0 ? `V(${name(p)})` : `(V(${name(p)})-V(${name(n)}))`);
-	const lines: string[] = [`* ${opts.title ?? 'Sagwise build'} — DC operating point`];
-	lines.push(`* nodes: ${Object.entries(nodeNames).map(([id, n]) => `${n}=${id}`).join(' ')}`);
+	const lines: string[] = [`* ${spiceComment(opts.title ?? 'Sagwise build')} — DC operating point`];
+	lines.push(`* nodes: ${spiceComment(Object.entries(nodeNames).map(([id, n]) => `${n}=${id}`).join(' '))}`);
 	const cableDevices: Record<string, string> = {};
 	net.cables.forEach((c, i) => {
 		const dev = `rc${i + 1}`;

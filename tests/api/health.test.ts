@@ -2,6 +2,7 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import * as healthEndpoint from '../../src/pages/api/health';
 import { createDb } from '../../src/lib/server/db/client';
 import { callEndpoint } from '../helpers/container';
+import { memoryStorage } from '../helpers/fixtures';
 import { createTestDb, type TestDb } from '../helpers/test-db';
 
 describe('GET /api/health', () => {
@@ -15,7 +16,7 @@ describe('GET /api/health', () => {
 	});
 
 	it('reports the version and a real database round trip when the database answers', async () => {
-		const response = await callEndpoint(healthEndpoint, { locals: { db: testDb.db }, request: new Request('http://localhost/api/health') });
+		const response = await callEndpoint(healthEndpoint, { locals: { db: testDb.db, storage: memoryStorage() }, request: new Request('http://localhost/api/health') });
 		expect(response.status).toBe(200);
 		const body = await response.json();
 		expect(body.status).toBe('ok');
@@ -28,7 +29,7 @@ describe('GET /api/health', () => {
 		// Nothing listens on port 1 on loopback.
 		const deadDb = createDb('postgres://postgres@127.0.0.1:1/none', 1);
 		try {
-			const response = await callEndpoint(healthEndpoint, { locals: { db: deadDb }, request: new Request('http://localhost/api/health') });
+			const response = await callEndpoint(healthEndpoint, { locals: { db: deadDb, storage: memoryStorage() }, request: new Request('http://localhost/api/health') });
 			expect(response.status).toBe(503);
 			expect(response.headers.get('content-type')).toBe('application/problem+json');
 			expect(await response.json()).toMatchObject({ status: 503, code: 'database_unavailable' });

@@ -40,7 +40,7 @@ export default async function setup(project: TestProject) {
 	const appUrl = `http://127.0.0.1:${PORT}`;
 	const smtp = await startSmtpFake({ port: 0, dir: `.data/test-outbox/${name}` });
 	const s3 = await startS3Fake({ port: 0, dir: `.data/test-s3/${name}`, bucket: 'sagwise-files' });
-	const server: ChildProcess = spawn(process.execPath, ['dist/server/entry.mjs'], {
+	const server: ChildProcess = spawn(process.execPath, ['--import', 'tsx', 'src/cli/serve.ts'], {
 		env: {
 			...process.env,
 			HOST: '127.0.0.1',

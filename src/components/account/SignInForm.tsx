@@ -43,7 +43,8 @@ export function SignInForm({ callbackUrl, initialError }: SignInFormProps) {
 	}
 
 	return (
-		<form onSubmit={submit} noValidate className="flex flex-col gap-4" aria-label="Sign in">
+		<form method="post" onSubmit={submit} noValidate className="flex flex-col gap-4" aria-label="Sign in">
+			<input type="hidden" name="mode" value={mode} />
 			<div role="radiogroup" aria-label="How to sign in" className="grid grid-cols-2 gap-1 rounded-md border border-hairline bg-paper p-1 text-sm">
 				{(['password', 'link'] as const).map((m) => (
 					<button

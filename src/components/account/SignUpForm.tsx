@@ -9,12 +9,14 @@ export interface SignUpFormProps {
 	callbackUrl: string;
 	/** Prefilled (and fixed) when signing up from an invitation. */
 	email?: string;
+	/** What the server said about a form posted before the script ran. */
+	initial?: { name?: string; email?: string; errors?: Record<string, string>; message?: string | null };
 }
 
-export function SignUpForm({ callbackUrl, email: invitedEmail }: SignUpFormProps) {
-	const [values, setValues] = useState({ name: '', email: invitedEmail ?? '', password: '' });
-	const [errors, setErrors] = useState<Record<string, string>>({});
-	const [message, setMessage] = useState<string | null>(null);
+export function SignUpForm({ callbackUrl, email: invitedEmail, initial }: SignUpFormProps) {
+	const [values, setValues] = useState({ name: initial?.name ?? '', email: invitedEmail ?? initial?.email ?? '', password: '' });
+	const [errors, setErrors] = useState<Record<string, string>>(initial?.errors ?? {});
+	const [message, setMessage] = useState<string | null>(initial?.message ?? null);
 	const [busy, setBusy] = useState(false);
 	const set = (key: keyof typeof values) => (e: React.ChangeEvent<HTMLInputElement>) => setValues((v) => ({ ...v, [key]: e.target.value }));
 
@@ -41,7 +43,7 @@ export function SignUpForm({ callbackUrl, email: invitedEmail }: SignUpFormProps
 	}
 
 	return (
-		<form onSubmit={submit} noValidate className="flex flex-col gap-4" aria-label="Create an account">
+		<form method="post" onSubmit={submit} noValidate className="flex flex-col gap-4" aria-label="Create an account">
 			<Field label="Your name" name="name" autoComplete="name" value={values.name} onChange={set('name')} error={errors.name} required />
 			<Field label="E-mail" name="email" type="email" autoComplete="email" value={values.email} onChange={set('email')} readOnly={Boolean(invitedEmail)} error={errors.email} hint={invitedEmail ? 'The address the invitation was sent to' : undefined} required />
 			<Field label="Password" name="password" type="password" autoComplete="new-password" value={values.password} onChange={set('password')} error={errors.password} hint="At least 10 characters" required />

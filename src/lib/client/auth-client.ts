@@ -21,7 +21,9 @@ async function post(path: string, fields: Record<string, string>): Promise<SignI
 	}
 	if (!res.ok) return { ok: false, reason: 'error', message: `Sign-in failed (${res.status}). Try again.` };
 	const { url } = (await res.json()) as { url: string };
-	const error = new URL(url, window.location.origin).searchParams.get('error');
+	const params = new URL(url, window.location.origin).searchParams;
+	const error = params.get('error');
+	if (params.get('code') === 'rate_limited') return { ok: false, reason: 'rate_limited', message: 'Too many failed sign-in attempts. Wait a minute and try again.' };
 	if (error === 'CredentialsSignin') return { ok: false, reason: 'invalid', message: 'Wrong e-mail address or password.' };
 	if (error) return { ok: false, reason: 'error', message: 'Sign-in did not work. Try again.' };
 	return { ok: true, url };

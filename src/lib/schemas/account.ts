@@ -1,4 +1,5 @@
 import { z } from 'zod';
+import { lineText, notesText } from './text';
 
 export const emailSchema = z
 	.string({ error: 'Enter your e-mail address' })
@@ -12,7 +13,7 @@ export const passwordSchema = z
 	.max(200, 'Keep it under 200 characters');
 
 export const signUpSchema = z.object({
-	name: z.string().trim().min(1, 'Tell the team your name').max(80, 'Keep it under 80 characters'),
+	name: lineText(80, { required: 'Tell the team your name' }),
 	email: emailSchema,
 	password: passwordSchema,
 });
@@ -25,7 +26,7 @@ export const passwordResetConfirmSchema = z.object({ token: z.string().min(20, '
 
 export const roleSchema = z.enum(['captain', 'member', 'viewer'], { error: 'Role is captain, member or viewer' });
 
-export const teamNameSchema = z.string().trim().min(1, 'Give the team a name').max(80, 'Keep it under 80 characters');
+export const teamNameSchema = lineText(80, { required: 'Give the team a name' });
 export const newTeamSchema = z.object({ name: teamNameSchema });
 export const renameTeamSchema = z
 	.object({

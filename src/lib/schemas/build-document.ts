@@ -1,4 +1,5 @@
 import { z } from 'zod';
+import { lineText, notesText } from './text';
 import { checkTopology } from '@/engine/topology';
 import { AWG_SIZES, type BuildDocument, CHEMISTRIES, MATERIALS, NODE_KINDS } from '@/engine/types';
 
@@ -8,7 +9,7 @@ const id = z
 	.min(1, 'Give it an id')
 	.max(64, 'Keep ids to 64 characters')
 	.regex(/^[A-Za-z0-9_.-]+$/, 'Use letters, digits, dots, dashes and underscores only');
-const label = z.string().trim().min(1, 'Give it a name').max(80, 'Keep names to 80 characters');
+const label = lineText(80, { required: 'Give it a name', maxMessage: 'Keep names to 80 characters' });
 /** zod 4 numbers already refuse NaN and ±Infinity; these add the physical ranges. */
 const positive = (what: string) => z.number({ error: `${what} must be a number` }).positive(`${what} must be more than zero`);
 const nonNegative = (what: string) => z.number({ error: `${what} must be a number` }).min(0, `${what} cannot be negative`);

@@ -1,15 +1,15 @@
 import { z } from 'zod';
+import { lineText, notesText } from './text';
 
 const day = z.string().regex(/^\d{4}-\d{2}-\d{2}$/, 'Use a date like 2026-06-14');
-const text = (max: number) => z.string().trim().max(max, `Keep it under ${max} characters`);
 
 export const eventFieldsSchema = z.object({
-	name: z.string().trim().min(1, 'Give the event a name').max(120, 'Keep it under 120 characters'),
+	name: lineText(120, { required: 'Give the event a name' }),
 	startsOn: day,
 	endsOn: day,
-	place: text(200).default(''),
-	format: text(120).default(''),
-	notes: text(2000).default(''),
+	place: lineText(200).default(''),
+	format: lineText(120).default(''),
+	notes: notesText(2000).default(''),
 });
 export const newEventSchema = eventFieldsSchema.refine((e) => e.endsOn >= e.startsOn, { path: ['endsOn'], message: 'The event cannot end before it starts' });
 export const updateEventSchema = eventFieldsSchema.partial();
@@ -27,14 +27,14 @@ export const runFieldsSchema = z.object({
 	restingV: optionalNumber(0, 30, 'Resting voltage'),
 	minV: optionalNumber(0, 30, 'Minimum voltage'),
 	ambientC: optionalNumber(-40, 70, 'Ambient temperature'),
-	notes: text(2000).default(''),
+	notes: notesText(2000).default(''),
 });
 export const newRunSchema = runFieldsSchema;
 export const updateRunSchema = runFieldsSchema.partial().omit({ vehicleId: true });
 
 export const loggerMappingSchema = z.object({
-	timeColumn: z.string().trim().min(1, 'Choose the time column').max(100),
-	voltsColumn: z.string().trim().min(1, 'Choose the voltage column').max(100),
-	ampsColumn: z.string().trim().min(1, 'Choose the current column').max(100),
+	timeColumn: lineText(100, { required: 'Choose the time column' }),
+	voltsColumn: lineText(100, { required: 'Choose the voltage column' }),
+	ampsColumn: lineText(100, { required: 'Choose the current column' }),
 	timeUnit: z.enum(['s', 'ms']).default('s'),
 });

@@ -1,18 +1,19 @@
 import { z } from 'zod';
+import { lineText, notesText } from './text';
 import { buildDocumentSchema } from './build-document';
 
-export const planNameSchema = z.string().trim().min(1, 'Give the plan a name').max(120, 'Keep the name under 120 characters');
+export const planNameSchema = lineText(120, { required: 'Give the plan a name', maxMessage: 'Keep the name under 120 characters' });
 
 /** One line of a plan's parts list. The price is per unit, in the team's currency (e.g. 129.95). */
 export const planPartSchema = z.object({
-	item: z.string().trim().min(1, 'Say what the part is').max(200, 'Keep it under 200 characters'),
+	item: lineText(200, { required: 'Say what the part is' }),
 	quantity: z.number({ error: 'Quantity is a whole number' }).int('Quantity is a whole number').min(1, 'At least 1').max(10000, 'At most 10 000'),
 	unitPrice: z
 		.number({ error: 'Price is a number' })
 		.min(0, 'Price cannot be negative')
 		.max(1_000_000_000, 'Price is too large')
 		.refine((v) => Math.abs(Math.round(v * 100) - v * 100) < 1e-6, 'Prices have at most two decimals'),
-	link: z.string().trim().max(500, 'Keep the link under 500 characters').default(''),
+	link: lineText(500, { maxMessage: 'Keep the link under 500 characters' }).default(''),
 });
 export type PlanPartInput = z.infer<typeof planPartSchema>;
 
@@ -20,14 +21,14 @@ export const newPlanSchema = z.object({
 	name: planNameSchema,
 	/** The revision the plan starts from; the build's head when left out. */
 	fromRevisionId: z.uuid({ error: 'fromRevisionId must be a revision id' }).optional(),
-	notes: z.string().trim().max(2000).default(''),
+	notes: notesText(2000).default(''),
 });
 
 export const updatePlanSchema = z.object({
 	/** The version the editor loaded; a save on top of a newer one is refused with 409. */
 	version: z.number().int().min(1),
 	name: planNameSchema,
-	notes: z.string().trim().max(2000, 'Keep the notes under 2000 characters'),
+	notes: notesText(2000, { maxMessage: 'Keep the notes under 2000 characters' }),
 	document: buildDocumentSchema,
 	parts: z.array(planPartSchema).max(200, 'At most 200 parts per plan'),
 });
@@ -36,7 +37,7 @@ export type UpdatePlanInput = z.infer<typeof updatePlanSchema>;
 export const installPlanSchema = z.object({
 	/** The build's head when the captain pressed install; a stale head answers 409. */
 	parentId: z.uuid().nullable(),
-	message: z.string().trim().max(500).optional(),
+	message: notesText(500).optional(),
 });
 
 export const compareQuerySchema = z.object({

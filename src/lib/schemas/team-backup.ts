@@ -36,15 +36,15 @@ export const teamBackupContentSchema = z.object({
 	fuseDistanceM: z.number().positive().max(3),
 	currency: z.string().regex(/^[A-Z]{3}$/),
 	createdAt: iso,
-	members: z.array(z.object({ email, name: z.string().nullable(), role })),
-	checkItems: z.array(z.object({ key, label: z.string().min(1).max(200), createdAt: iso })),
+	members: z.array(z.object({ email, name: z.string().max(200).nullable(), role })).max(500),
+	checkItems: z.array(z.object({ key, label: z.string().min(1).max(200), createdAt: iso })).max(500),
 	vehicles: z.array(
 		z.object({
 			key,
 			name: z.string().min(1).max(80),
-			description: z.string(),
-			competitionClass: z.string(),
-			notes: z.string(),
+			description: z.string().max(200),
+			competitionClass: z.string().max(80),
+			notes: z.string().max(2000),
 			archivedAt: iso.nullable(),
 			ownerEmail: email.nullable(),
 			createdAt: iso,
@@ -54,7 +54,7 @@ export const teamBackupContentSchema = z.object({
 					number: z.number().int().positive(),
 					parent: z.number().int().positive().nullable(),
 					restoredFrom: z.number().int().positive().nullable(),
-					message: z.string(),
+					message: z.string().max(500),
 					authorEmail: email.nullable(),
 					createdAt: iso,
 					document: buildDocumentSchema,
@@ -63,7 +63,7 @@ export const teamBackupContentSchema = z.object({
 			plans: z.array(
 				z.object({
 					name: z.string().min(1).max(120),
-					notes: z.string(),
+					notes: z.string().max(2000),
 					baseRevision: z.number().int().positive().nullable(),
 					installedRevision: z.number().int().positive().nullable(),
 					installedAt: iso.nullable(),
@@ -72,12 +72,12 @@ export const teamBackupContentSchema = z.object({
 					createdAt: iso,
 					updatedAt: iso,
 					document: buildDocumentSchema,
-					parts: z.array(z.object({ item: z.string().min(1).max(200), quantity: z.number().int().min(1), unitPriceMinor: z.number().int().min(0), link: z.string() })),
+					parts: z.array(z.object({ item: z.string().min(1).max(200), quantity: z.number().int().min(1), unitPriceMinor: z.number().int().min(0), link: z.string().max(500) })).max(200),
 				}),
 			),
 		}),
 	),
-	events: z.array(z.object({ key, name: z.string().min(1), startsOn: day, endsOn: day, place: z.string(), format: z.string(), notes: z.string(), createdAt: iso })),
+	events: z.array(z.object({ key, name: z.string().min(1).max(120), startsOn: day, endsOn: day, place: z.string().max(200), format: z.string().max(120), notes: z.string().max(2000), createdAt: iso })),
 	runs: z.array(
 		z.object({
 			key,
@@ -90,7 +90,7 @@ export const teamBackupContentSchema = z.object({
 			restingV: num,
 			minV: num,
 			ambientC: num,
-			notes: z.string(),
+			notes: z.string().max(2000),
 			authorEmail: email.nullable(),
 			createdAt: iso,
 			/** Logger samples as [seconds, volts, amps]. */
@@ -98,7 +98,7 @@ export const teamBackupContentSchema = z.object({
 			files: z.array(backupFileSchema),
 		}),
 	),
-	signoffs: z.array(z.object({ event: key, vehicle: key, item: z.string().min(1).max(200), signedByEmail: email.nullable(), signedAt: iso, note: z.string() })),
+	signoffs: z.array(z.object({ event: key, vehicle: key, item: z.string().min(1).max(200), signedByEmail: email.nullable(), signedAt: iso, note: z.string().max(500) })),
 });
 export type TeamBackupContent = z.infer<typeof teamBackupContentSchema>;
 

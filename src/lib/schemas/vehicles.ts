@@ -1,19 +1,19 @@
 import { z } from 'zod';
+import { lineText, notesText } from './text';
 import { buildDocumentSchema } from './build-document';
 
-const text = (max: number) => z.string().trim().max(max, `Keep it under ${max} characters`);
 
 export const vehicleFieldsSchema = z.object({
-	name: z.string().trim().min(1, 'Give the vehicle a name').max(80, 'Keep it under 80 characters'),
-	description: text(200).default(''),
-	competitionClass: text(80).default(''),
-	notes: text(2000).default(''),
+	name: lineText(80, { required: 'Give the vehicle a name' }),
+	description: lineText(200).default(''),
+	competitionClass: lineText(80).default(''),
+	notes: notesText(2000).default(''),
 	ownerId: z.string().max(64).nullable().default(null),
 });
 export const newVehicleSchema = vehicleFieldsSchema;
 export const updateVehicleSchema = vehicleFieldsSchema.partial().extend({ archived: z.boolean().optional() });
 
-export const revisionMessageSchema = z.string().trim().min(1, 'Say what changed and why').max(500, 'Keep the message under 500 characters');
+export const revisionMessageSchema = notesText(500, { required: 'Say what changed and why', maxMessage: 'Keep the message under 500 characters' });
 
 export const newRevisionSchema = z.object({
 	/** The revision the draft started from; null only for a build's first revision. */

@@ -58,7 +58,7 @@ export async function readMultipart(request: Request, limit: number, tooLarge?: 
 		return { ok: false, response: problem(400, 'invalid_input', 'The upload was cut short', [{ path: 'file', message: 'Incomplete upload' }]) };
 	}
 	try {
-		return { ok: true, data: await new Response(bytes, { headers: { 'content-type': type } }).formData() };
+		return { ok: true, data: await new Response(bytes as unknown as BodyInit, { headers: { 'content-type': type } }).formData() };
 	} catch {
 		return { ok: false, response: problem(400, 'invalid_input', 'The upload is not a readable multipart form', [{ path: 'file', message: 'Malformed form data' }]) };
 	}

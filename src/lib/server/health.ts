@@ -1,15 +1,47 @@
 import { type Kysely, sql } from 'kysely';
 import type { Database } from '../../../db/schema';
+import type { Storage } from './storage';
 
-export interface HealthReport {
-	status: 'ok';
-	version: string;
-	database: { status: 'ok'; latencyMs: number; serverVersion: string };
+export interface ServiceHealth {
+	status: 'ok' | 'down';
+	latencyMs: number;
+	detail?: string;
 }
 
-/** One real round trip: asks the server for its version and times it. Throws when unreachable. */
+export interface HealthReport {
+	status: 'ok' | 'degraded';
+	version: string;
+	database: ServiceHealth & { serverVersion?: string };
+	storage: ServiceHealth;
+}
+
+const HEALTH_TIMEOUT_MS = 3000;
+
+function withDeadline<T>(work: Promise<T>, ms: number, what: string): Promise<T> {
+	let timer: NodeJS.Timeout;
+	return Promise.race([work, new Promise<T>((_, reject) => (timer = setTimeout(() => reject(new Error(`${what} did not answer within ${ms} ms`)), ms)))]).finally(() => clearTimeout(timer));
+}
+
+const ms = (since: number) => Math.round((performance.now() - since) * 10) / 10;
+
+/** One real round trip: asks the server for its version and times it. */
 export async function checkDatabase(db: Kysely<Database>): Promise<HealthReport['database']> {
 	const started = performance.now();
-	const { rows } = await sql<{ version: string }>`select current_setting('server_version') as version`.execute(db);
-	return { status: 'ok', latencyMs: Math.round((performance.now() - started) * 10) / 10, serverVersion: rows[0]?.version ?? '' };
+	try {
+		const { rows } = await withDeadline(sql<{ version: string }>`select current_setting('server_version') as version`.execute(db), HEALTH_TIMEOUT_MS, 'the database');
+		return { status: 'ok', latencyMs: ms(started), serverVersion: rows[0]?.version ?? '' };
+	} catch (error) {
+		return { status: 'down', latencyMs: ms(started), detail: (error as Error).message };
+	}
+}
+
+/** One round trip to the file store (the bucket exists and answers). */
+export async function checkStorage(storage: Storage): Promise<ServiceHealth> {
+	const started = performance.now();
+	try {
+		await withDeadline(storage.ping(), HEALTH_TIMEOUT_MS, 'the file store');
+		return { status: 'ok', latencyMs: ms(started) };
+	} catch (error) {
+		return { status: 'down', latencyMs: ms(started), detail: (error as Error).message };
+	}
 }

@@ -28,3 +28,16 @@ export async function verifyPassword(password: string, stored: string | null): P
 	const actual = await scrypt(password, Buffer.from(salt, 'base64url'), Number(n), Number(r), Number(p));
 	return actual.length === expected.length && timingSafeEqual(actual, expected);
 }
+
+let dummyHash: Promise<string> | undefined;
+
+/**
+ * Checks a password against a stored hash, or against a throwaway hash when there is none, so an
+ * unknown address takes as long to refuse as a wrong password for a known one.
+ */
+export async function verifyPasswordOrDummy(password: string, stored: string | null): Promise<boolean> {
+	if (stored) return verifyPassword(password, stored);
+	dummyHash ??= hashPassword('no account has this password');
+	await verifyPassword(password, await dummyHash);
+	return false;
+}

@@ -1,4 +1,4 @@
-import type { Kysely } from 'kysely';
+import { type Kysely, sql } from 'kysely';
 import type { Database } from '../../../db/schema';
 import { countRecentFailures, recordSignInAttempt } from './db/users';
 
@@ -17,3 +17,33 @@ export async function signInLimited(db: Kysely<Database>, email: string, client:
 }
 
 export { recordSignInAttempt };
+
+export type RateKind = 'reset_mail' | 'link_mail' | 'sign_up';
+
+/**
+ * Mails and sign-ups anyone can trigger, limited per address and per client over a window, in
+ * PostgreSQL so every app instance counts the same. Unknown addresses count like known ones, so
+ * the limit tells nothing about who has an account.
+ */
+export const RATE_LIMITS: Record<RateKind, { windowMs: number; perEmail: number; perClient: number }> = {
+	reset_mail: { windowMs: 15 * 60_000, perEmail: 3, perClient: 10 },
+	link_mail: { windowMs: 15 * 60_000, perEmail: 5, perClient: 20 },
+	sign_up: { windowMs: 60 * 60_000, perEmail: 3, perClient: 10 },
+};
+
+/**
+ * Counts this action and says whether it may go ahead: one row per try (refused tries count too,
+ * so hammering never opens the window early).
+ */
+export async function takeRateSlot(db: Kysely<Database>, kind: RateKind, email: string, client: string): Promise<boolean> {
+	const limit = RATE_LIMITS[kind];
+	const since = sql<boolean>`created_at > now() - make_interval(secs => ${limit.windowMs / 1000})`;
+	const { byEmail, byClient } = (await db
+		.selectNoFrom((eb) => [
+			eb.selectFrom('rate_event').select((e) => e.fn.countAll<number>().as('n')).where('kind', '=', kind).where('email', '=', email.toLowerCase()).where(since).as('byEmail'),
+			eb.selectFrom('rate_event').select((e) => e.fn.countAll<number>().as('n')).where('kind', '=', kind).where('client', '=', client).where(since).as('byClient'),
+		])
+		.executeTakeFirstOrThrow()) as { byEmail: number; byClient: number };
+	await db.insertInto('rate_event').values({ kind, email: email.toLowerCase(), client }).execute();
+	return Number(byEmail) < limit.perEmail && Number(byClient) < limit.perClient;
+}

@@ -3,6 +3,7 @@ import type { Kysely } from 'kysely';
 import type { Database, Role } from '../../../db/schema';
 import type { BuildDocument } from '@/engine/types';
 import { BACKUP_FORMAT, BACKUP_VERSION, backupEnvelopeSchema, type TeamBackup, type TeamBackupContent, teamBackupContentSchema } from '@/lib/schemas/team-backup';
+import { findControlCharacter, NOTES_MESSAGE } from '@/lib/schemas/text';
 import { measurementColumns, measurementsOf } from './db/runs';
 import type { Storage } from './storage';
 import { checkLoggerFile, checkPhoto, checkThumbnail } from './file-content';
@@ -172,6 +173,8 @@ export function parseBackup(text: string): ParseBackupResult {
 	if (!team.success) {
 		return { ok: false, code: 'invalid_backup', detail: 'This backup has records that cannot be read.', errors: team.error.issues.slice(0, 10).map((i) => ({ path: `team.${i.path.join('.')}`, message: i.message })) };
 	}
+	const control = findControlCharacter(team.data);
+	if (control !== null) return { ok: false, code: 'invalid_backup', detail: 'This backup has text with control characters in it, which no field takes. Nothing was imported.', errors: [{ path: `team.${control}`, message: NOTES_MESSAGE }] };
 	const problems = crossCheck(team.data);
 	if (problems.length) return { ok: false, code: 'invalid_backup', detail: 'This backup refers to records it does not contain.', errors: problems.slice(0, 10) };
 	return { ok: true, backup: { ...envelope.data, format: BACKUP_FORMAT, version: BACKUP_VERSION, team: team.data } };

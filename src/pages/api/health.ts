@@ -1,18 +1,18 @@
 import type { APIRoute } from 'astro';
-import { checkDatabase, type HealthReport } from '@/lib/server/health';
-import { problem } from '@/lib/server/http';
+import { checkDatabase, checkStorage, type HealthReport } from '@/lib/server/health';
 import { APP_VERSION } from '@/lib/version';
 
+/**
+ * The database and the file store, each asked once with a deadline: 200 when both answer, 503
+ * (with which one is down) otherwise, so a load balancer takes a broken instance out.
+ */
 export const GET: APIRoute = async ({ locals }) => {
-	try {
-		const database = await checkDatabase(locals.db);
-		const body: HealthReport = { status: 'ok', version: APP_VERSION, database };
-		return Response.json(body, { headers: { 'cache-control': 'no-store' } });
-	} catch (error) {
-		console.error('health: database check failed', error);
-		return problem(503, 'database_unavailable', 'The database did not answer', undefined, {
-			'cache-control': 'no-store',
-			'retry-after': '5',
-		});
-	}
+	const [database, storage] = await Promise.all([checkDatabase(locals.db), checkStorage(locals.storage)]);
+	const ok = database.status === 'ok' && storage.status === 'ok';
+	const body: HealthReport = { status: ok ? 'ok' : 'degraded', version: APP_VERSION, database, storage };
+	if (!ok) console.error(`health: ${[database.status === 'down' && `database (${database.detail})`, storage.status === 'down' && `storage (${storage.detail})`].filter(Boolean).join(', ')} down`);
+	return new Response(JSON.stringify(ok ? body : { ...body, health: body.status, type: 'about:blank', title: 'Service Unavailable', status: 503, code: database.status === 'down' ? 'database_unavailable' : 'storage_unavailable', detail: 'A service the app needs is not answering' }), {
+		status: ok ? 200 : 503,
+		headers: { 'content-type': ok ? 'application/json' : 'application/problem+json', 'cache-control': 'no-store', ...(ok ? {} : { 'retry-after': '5' }) },
+	});
 };

@@ -61,3 +61,44 @@ export async function countRecentFailures(db: Db, by: { email?: string; client?:
 	const { n } = await q.executeTakeFirstOrThrow();
 	return Number(n);
 }
+
+// ---- sessions and confirmed addresses
+
+/** The account's session version (null when the account is gone). */
+export async function sessionVersionOf(db: Db, userId: string): Promise<number | null> {
+	const row = await db.selectFrom('User').select('sessionVersion').where('id', '=', userId).executeTakeFirst();
+	return row ? row.sessionVersion : null;
+}
+
+/** Ends every session of the account (they are checked against this version on each request). */
+export async function endSessions(db: Db, userId: string): Promise<void> {
+	await db.updateTable('User').set((eb) => ({ sessionVersion: eb('sessionVersion', '+', 1) })).where('id', '=', userId).execute();
+}
+
+/**
+ * On the first proof that the owner reads this address (an e-mailed link): a password set before
+ * the address was ever confirmed is dropped and its sessions end.
+ */
+export async function dropUnconfirmedPassword(db: Db, userId: string): Promise<boolean> {
+	const res = await db
+		.updateTable('User')
+		.set((eb) => ({ passwordHash: null, sessionVersion: eb('sessionVersion', '+', 1) }))
+		.where('id', '=', userId)
+		.where('emailVerified', 'is', null)
+		.where('passwordHash', 'is not', null)
+		.executeTakeFirst();
+	return Number(res.numUpdatedRows) > 0;
+}
+
+/**
+ * A completed password reset: the new password, the address confirmed (the link came by mail),
+ * every older session ended and every other open reset link of the account spent.
+ */
+export async function completePasswordReset(db: Db, userId: string, passwordHash: string): Promise<void> {
+	await db
+		.updateTable('User')
+		.set((eb) => ({ passwordHash, emailVerified: eb.fn.coalesce('emailVerified', sql<Date>`now()`), sessionVersion: eb('sessionVersion', '+', 1) }))
+		.where('id', '=', userId)
+		.execute();
+	await db.updateTable('password_reset').set({ used_at: new Date() }).where('user_id', '=', userId).where('used_at', 'is', null).execute();
+}

@@ -2,7 +2,7 @@ import type { APIRoute } from 'astro';
 import { z } from 'zod';
 import { teamNameSchema } from '@/lib/schemas/account';
 import { readMultipart } from '@/lib/server/body';
-import { problem, toFieldErrors, unavailable } from '@/lib/server/http';
+import { problem, unavailable, validated } from '@/lib/server/http';
 import { importTeam, parseBackup, prepareBackupFiles } from '@/lib/server/team-backup';
 import { isDatabaseUnavailable, isStorageUnavailable } from '@/lib/server/unavailable';
 
@@ -23,8 +23,8 @@ export const POST: APIRoute = async ({ request, locals }) => {
 	const file = form.get('file');
 	if (!(file instanceof File)) return problem(400, 'invalid_input', 'Attach the backup file', [{ path: 'file', message: 'No file' }]);
 	if (file.size > MAX_BACKUP_BYTES) return problem(413, 'too_large', 'Backups are limited to 200 MB');
-	const fields = formSchema.safeParse({ name: form.get('name') ?? undefined });
-	if (!fields.success) return problem(400, 'invalid_input', 'Some fields need attention', toFieldErrors(fields.error));
+	const fields = validated(formSchema, { name: form.get('name') ?? undefined }, 'Some fields need attention');
+	if (!fields.ok) return fields.response;
 	const parsed = parseBackup(await file.text());
 	if (!parsed.ok) return problem(parsed.code === 'unsupported_version' ? 422 : 400, parsed.code, parsed.detail, parsed.errors ?? [{ path: 'file', message: parsed.detail }]);
 	const prepared = await prepareBackupFiles(parsed.backup.team);

@@ -1,18 +1,22 @@
 import type { APIRoute } from 'astro';
 import { passwordResetConfirmSchema } from '@/lib/schemas/account';
-import { consumePasswordReset, updatePassword } from '@/lib/server/db/users';
+import { completePasswordReset, consumePasswordReset } from '@/lib/server/db/users';
 import { problem, readJson } from '@/lib/server/http';
 import { hashPassword } from '@/lib/server/passwords';
 import { hashToken } from '@/lib/server/tokens';
 
-/** Sets a new password with a reset token: single use, expiring; both writes in one transaction. */
+/**
+ * Sets a new password with a reset token: single use, expiring, in one transaction. The reset ends
+ * every older session of the account (someone who knew the old password is signed out) and spends
+ * every other open reset link, and confirms the address, since the link came by mail.
+ */
 export const POST: APIRoute = async ({ request, locals }) => {
 	const body = await readJson(request, passwordResetConfirmSchema);
 	if (!body.ok) return body.response;
 	const passwordHash = await hashPassword(body.data.password);
 	const result = await locals.db.transaction().execute(async (trx) => {
 		const consumed = await consumePasswordReset(trx, hashToken(body.data.token));
-		if (consumed.ok) await updatePassword(trx, consumed.userId, passwordHash);
+		if (consumed.ok) await completePasswordReset(trx, consumed.userId, passwordHash);
 		return consumed;
 	});
 	if (!result.ok) {

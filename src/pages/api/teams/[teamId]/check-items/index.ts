@@ -1,9 +1,10 @@
 import type { APIRoute } from 'astro';
 import { z } from 'zod';
+import { lineText } from '@/lib/schemas/text';
 import { requireTeamRole } from '@/lib/server/authz';
 import { readJson } from '@/lib/server/http';
 
-const newItemSchema = z.object({ label: z.string().trim().min(1, 'Say what to check').max(200, 'Keep it under 200 characters') });
+const newItemSchema = z.object({ label: lineText(200, { required: 'Say what to check' }) });
 
 export const GET: APIRoute = async ({ params, locals }) => {
 	const auth = await requireTeamRole(locals, params.teamId, 'viewer');

@@ -1,19 +1,20 @@
 import type { APIRoute } from 'astro';
 import { z } from 'zod';
+import { lineText, notesText } from '@/lib/schemas/text';
 import { parseUuid } from '@/lib/schemas/ids';
 import { requireTeamRole } from '@/lib/server/authz';
 import { loadChecklist } from '@/lib/server/checks';
-import { problem, readJson, toFieldErrors } from '@/lib/server/http';
+import { problem, readJson, readQuery } from '@/lib/server/http';
 
 const vehicleQuery = z.object({ vehicleId: z.uuid({ error: 'Choose a vehicle' }) });
-const signoffSchema = z.object({ vehicleId: z.uuid(), itemKey: z.string().min(1).max(100), note: z.string().trim().max(500).default(''), signed: z.boolean() });
+const signoffSchema = z.object({ vehicleId: z.uuid(), itemKey: lineText(100, { required: 'Name the item' }), note: notesText(500).default(''), signed: z.boolean() });
 
 /** The vehicle's pre-event checklist for the event. */
 export const GET: APIRoute = async ({ params, locals, url }) => {
 	const auth = await requireTeamRole(locals, params.teamId, 'viewer');
 	if (!auth.ok) return auth.response;
-	const q = vehicleQuery.safeParse(Object.fromEntries(url.searchParams));
-	if (!q.success) return problem(400, 'invalid_input', 'Choose a vehicle', toFieldErrors(q.error));
+	const q = readQuery(url, vehicleQuery);
+	if (!q.ok) return q.response;
 	const eventId = parseUuid(params.eventId);
 	const list = eventId && (await loadChecklist(locals.db, auth.access.teamId, eventId, q.data.vehicleId));
 	if (!list) return problem(404, 'not_found', 'No such event or vehicle');

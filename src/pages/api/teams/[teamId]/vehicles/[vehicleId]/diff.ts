@@ -2,7 +2,7 @@ import type { APIRoute } from 'astro';
 import { z } from 'zod';
 import { diffBuilds } from '@/engine/diff';
 import { findRevision } from '@/lib/server/db/builds';
-import { problem, toFieldErrors } from '@/lib/server/http';
+import { problem, readQuery } from '@/lib/server/http';
 import { requireVehicle } from '@/lib/server/vehicle-access';
 
 const query = z.object({ from: z.uuid({ error: 'from must be a revision id' }), to: z.uuid({ error: 'to must be a revision id' }) });
@@ -11,8 +11,8 @@ const query = z.object({ from: z.uuid({ error: 'from must be a revision id' }), 
 export const GET: APIRoute = async ({ params, locals, url }) => {
 	const found = await requireVehicle(locals, params, 'viewer');
 	if (!found.ok) return found.response;
-	const q = query.safeParse(Object.fromEntries(url.searchParams));
-	if (!q.success) return problem(400, 'invalid_input', 'Give two revisions to compare', toFieldErrors(q.error));
+	const q = readQuery(url, query);
+	if (!q.ok) return q.response;
 	const [a, b] = await Promise.all([findRevision(locals.db, found.value.build.id, q.data.from), findRevision(locals.db, found.value.build.id, q.data.to)]);
 	if (!a || !b) return problem(404, 'not_found', 'No such revision');
 	return Response.json({ from: { id: a.id, number: a.number }, to: { id: b.id, number: b.number }, changes: diffBuilds(a.document, b.document) });

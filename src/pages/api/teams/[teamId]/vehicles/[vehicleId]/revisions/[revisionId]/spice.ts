@@ -2,7 +2,7 @@ import type { APIRoute } from 'astro';
 import { DEFAULT_SCENARIO } from '@/engine/report';
 import { toSpiceNetlist } from '@/engine/spice';
 import { scenarioQuerySchema } from '@/lib/schemas/vehicles';
-import { problem, toFieldErrors } from '@/lib/server/http';
+import { readQuery } from '@/lib/server/http';
 import { requireRevision } from '@/lib/server/vehicle-access';
 
 /** The revision as a SPICE netlist (DC operating point at burp demand), for any circuit simulator. */
@@ -10,8 +10,8 @@ export const GET: APIRoute = async ({ params, locals, url }) => {
 	const found = await requireRevision(locals, params, 'viewer');
 	if (!found.ok) return found.response;
 	const { revision } = found.value;
-	const q = scenarioQuerySchema.safeParse(Object.fromEntries(url.searchParams));
-	if (!q.success) return problem(400, 'invalid_input', 'Some scenario settings need attention', toFieldErrors(q.error));
+	const q = readQuery(url, scenarioQuerySchema);
+	if (!q.ok) return q.response;
 	const conditions = {
 		engineRpm: q.data.engineRpm ?? DEFAULT_SCENARIO.engineRpm,
 		demand: q.data.burpDemand ?? DEFAULT_SCENARIO.burpDemand,

@@ -1,0 +1,122 @@
+/**
+ * The HTTP front of the built app (`npm run serve`; `npm start` runs it too). It wraps the Astro
+ * standalone handler with what has to happen before Astro sees a request:
+ * - bodies are bounded while they stream: a declared length past the route's limit is refused
+ *   with 413 before a byte is read, and a body without a length is cut off at the limit, so a huge
+ *   upload never sits in memory;
+ * - the client's address comes from the socket, and from X-Forwarded-For only when the request
+ *   arrives from a proxy named in TRUST_PROXY (otherwise forwarded headers are dropped);
+ * - doubled slashes in a path answer 404 plainly.
+ */
+import http from 'node:http';
+import { isIP } from 'node:net';
+import path from 'node:path';
+import { pathToFileURL } from 'node:url';
+import { bodyLimitFor } from '../lib/server/body-limits';
+
+type Handler = (req: http.IncomingMessage, res: http.ServerResponse) => void;
+
+const problemBody = (status: number, code: string, detail: string) =>
+	JSON.stringify({ type: 'about:blank', title: status === 413 ? 'Content Too Large' : 'Not Found', status, code, detail });
+
+function refuse(res: http.ServerResponse, status: number, code: string, detail: string) {
+	if (res.headersSent) return;
+	res.writeHead(status, { 'content-type': 'application/problem+json', connection: 'close', 'x-content-type-options': 'nosniff', 'cache-control': 'no-store' });
+	res.end(problemBody(status, code, detail));
+}
+
+/** Which proxies may tell us the client's address: a list of addresses, or `loopback`. */
+export function parseTrustedProxies(setting: string | undefined): (address: string) => boolean {
+	const entries = (setting ?? '').split(',').map((s) => s.trim()).filter(Boolean);
+	if (entries.length === 0 || entries.includes('false')) return () => false;
+	const plain = (a: string) => a.replace(/^::ffff:/, '');
+	return (address) => {
+		const a = plain(address);
+		return entries.some((e) => (e === 'loopback' ? a === '127.0.0.1' || a === '::1' || a.startsWith('127.') : plain(e) === a));
+	};
+}
+
+/** The client's address: the socket's, or behind trusted proxies the nearest untrusted forwarded one. */
+export function clientAddress(req: http.IncomingMessage, trusted: (a: string) => boolean): string {
+	const socket = req.socket.remoteAddress ?? 'unknown';
+	if (!trusted(socket)) return socket;
+	const forwarded = String(req.headers['x-forwarded-for'] ?? '')
+		.split(',')
+		.map((s) => s.trim())
+		.filter((s) => isIP(s.replace(/^::ffff:/, '')) !== 0);
+	for (let i = forwarded.length - 1; i >= 0; i--) if (!trusted(forwarded[i]!)) return forwarded[i]!;
+	return forwarded[0] ?? socket;
+}
+
+export function createFront(astro: Handler, env: Record<string, string | undefined> = process.env): Handler {
+	const trusted = parseTrustedProxies(env.TRUST_PROXY);
+	return (req, res) => {
+		const pathname = (req.url ?? '/').split('?')[0]!;
+		if (pathname.includes('//')) return refuse(res, 404, 'not_found', 'No such page');
+
+		const fromProxy = trusted(req.socket.remoteAddress ?? '');
+		const client = clientAddress(req, trusted);
+		req.headers['x-forwarded-for'] = client;
+		if (!fromProxy) {
+			delete req.headers['x-forwarded-host'];
+			delete req.headers['x-forwarded-proto'];
+			delete req.headers['x-forwarded-port'];
+		}
+
+		const method = req.method ?? 'GET';
+		if (method !== 'GET' && method !== 'HEAD') {
+			const limit = bodyLimitFor(method, pathname);
+			const detail = `The request body is larger than this address takes (${Math.round(limit / 1024)} KB).`;
+			const declared = req.headers['content-length'];
+			if (declared !== undefined && Number(declared) > limit) return refuse(res, 413, 'too_large', detail);
+			let seen = 0;
+			let cut = false;
+			// Astro reads `req.body` when it is an async iterable: hand it a counted view of the stream.
+			(req as unknown as { body: AsyncIterable<Buffer> }).body = (async function* () {
+				for await (const chunk of req.iterator({ destroyOnReturn: false }) as AsyncIterable<Buffer>) {
+					seen += chunk.length;
+					if (seen > limit) {
+						cut = true;
+						refuse(res, 413, 'too_large', detail);
+						// Whatever the route answers next has nowhere to go.
+						res.writeHead = (() => res) as typeof res.writeHead;
+						res.write = (() => true) as typeof res.write;
+						res.end = (() => res) as typeof res.end;
+						throw new Error('request body past its limit');
+					}
+					yield chunk;
+				}
+			})();
+			res.once('finish', () => {
+				if (cut) setImmediate(() => req.socket.destroy());
+			});
+		}
+		astro(req, res);
+	};
+}
+
+async function main() {
+	process.env.ASTRO_NODE_AUTOSTART = 'disabled';
+	const entry = (await import(pathToFileURL(path.resolve(process.env.SAGWISE_DIST ?? 'dist', 'server/entry.mjs')).href)) as { handler: Handler };
+	const host = process.env.HOST ?? '127.0.0.1';
+	const port = Number(process.env.PORT ?? 4321);
+	const server = http.createServer(createFront(entry.handler));
+	server.headersTimeout = 30_000;
+	server.requestTimeout = 15 * 60_000;
+	server.listen(port, host, () => console.log(`[sagwise] serving on http://${host}:${port}`));
+	const stop = () => {
+		server.close(() => process.exit(0));
+		server.closeAllConnections?.();
+		setTimeout(() => process.exit(0), 3000).unref();
+	};
+	process.on('SIGTERM', stop);
+	process.on('SIGINT', stop);
+	if (process.env.SAGWISE_EXIT_WITH_PARENT === '1') {
+		// The start command holds our stdin open; when it goes away (however it died), so do we.
+		process.stdin.on('close', stop);
+		process.stdin.on('end', stop);
+		process.stdin.resume();
+	}
+}
+
+if (import.meta.url === pathToFileURL(process.argv[1] ?? '').href) await main();
