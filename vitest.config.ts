@@ -21,7 +21,7 @@ export default getViteConfig({
 				extends: true,
 				test: {
 					name: 'integration',
-					include: ['tests/db/**/*.test.ts', 'tests/api/**/*.test.ts', 'tests/spice/**/*.test.ts'],
+					include: ['tests/db/**/*.test.ts', 'tests/api/**/*.test.ts', 'tests/spice/**/*.test.ts', 'tests/security/*.test.ts'],
 					globalSetup: [pgSetup],
 					testTimeout: 30_000,
 					hookTimeout: 60_000,
@@ -31,7 +31,7 @@ export default getViteConfig({
 				extends: true,
 				test: {
 					name: 'browser',
-					include: ['tests/e2e/**/*.test.ts'],
+					include: ['tests/e2e/**/*.test.ts', 'tests/security/server/**/*.test.ts'],
 					globalSetup: [pgSetup, 'tests/helpers/app-global-setup.ts'],
 					testTimeout: 60_000,
 					hookTimeout: 180_000,

@@ -150,10 +150,11 @@ export async function ensureCluster(opts: ClusterOptions): Promise<Cluster> {
 	return { url, started };
 }
 
-export function stopCluster(opts: ClusterOptions): boolean {
+/** Stops the server: `fast` rolls back open work and closes cleanly; `immediate` is a crash (tests of faults). */
+export function stopCluster(opts: ClusterOptions, mode: 'fast' | 'immediate' = 'fast'): boolean {
 	if (!isRunning(opts)) return false;
 	const bin = findServerBin();
-	run(path.join(bin, 'pg_ctl'), ['-D', paths(opts.dir).data, '-m', 'fast', '-w', 'stop']);
+	run(path.join(bin, 'pg_ctl'), ['-D', paths(opts.dir).data, '-m', mode, '-w', 'stop']);
 	return true;
 }
 

@@ -1,11 +1,14 @@
 /**
- * `npm run jobs`: event reminders and the captains' revision digest, for a scheduler (cron, a
- * systemd timer) to call — hourly is plenty. Safe to run twice and on several machines at once.
+ * `npm run jobs`: event reminders, the captains' revision digest and the sweep of stored files no
+ * row points at, for a scheduler (cron, a systemd timer) to call — hourly is plenty. Safe to run
+ * twice and on several machines at once. `npm run jobs -- reminders|digest|sweep` runs one.
  */
 import { createDb } from '../lib/server/db/client';
 import { sendEventReminders, sendRevisionDigests } from '../lib/server/jobs';
 import { readConfig } from '../lib/server/config';
 import { createSmtpMailer } from '../lib/server/mail';
+import { sweepOrphanObjects } from '../lib/server/object-cleanup';
+import { createS3Storage } from '../lib/server/storage';
 import { DEFAULT_CLUSTER, ensureCluster } from '../../db/cluster';
 
 const config = readConfig();
@@ -16,6 +19,7 @@ try {
 	const which = process.argv[2] ?? 'all';
 	if (which === 'all' || which === 'reminders') console.log(`event reminders sent: ${await sendEventReminders(db, mailer, config)}`);
 	if (which === 'all' || which === 'digest') console.log(`revision digests sent: ${await sendRevisionDigests(db, mailer, config)}`);
+	if (which === 'all' || which === 'sweep') console.log(`stored files without a row removed: ${await sweepOrphanObjects(db, createS3Storage(config.s3))}`);
 } catch (error) {
 	console.error(error);
 	process.exitCode = 1;

@@ -1,4 +1,4 @@
-import { type ChildProcess, spawn, spawnSync } from 'node:child_process';
+import { spawnSync } from 'node:child_process';
 import { existsSync } from 'node:fs';
 import { sql } from 'kysely';
 import type { TestProject } from 'vitest/node';
@@ -8,6 +8,7 @@ import { buildIsStale } from '../../src/cli/build-state';
 import { startSmtpFake } from '../../src/cli/smtp-fake';
 import { startS3Fake } from '../../src/cli/s3-fake';
 import { createDb } from '../../src/lib/server/db/client';
+import { startAppServer } from './app-server';
 import { CHROMIUM_PATH } from './browser';
 import { TEST_CLUSTER } from './pg-global-setup';
 
@@ -40,38 +41,18 @@ export default async function setup(project: TestProject) {
 	const appUrl = `http://127.0.0.1:${PORT}`;
 	const smtp = await startSmtpFake({ port: 0, dir: `.data/test-outbox/${name}` });
 	const s3 = await startS3Fake({ port: 0, dir: `.data/test-s3/${name}`, bucket: 'sagwise-files' });
-	const server: ChildProcess = spawn(process.execPath, ['--import', 'tsx', 'src/cli/serve.ts'], {
-		env: {
-			...process.env,
-			HOST: '127.0.0.1',
-			PORT: String(PORT),
-			DATABASE_URL: cluster.url(name),
-			AUTH_SECRET: 'test-secret-not-for-production-0123456789',
-			AUTH_TRUST_HOST: 'true',
-			PUBLIC_URL: appUrl,
-			SMTP_URL: `smtp://127.0.0.1:${smtp.port}`,
-			SAGWISE_DEV_OUTBOX: smtp.dir,
-			S3_ENDPOINT: s3.endpoint,
-			S3_BUCKET: 'sagwise-files',
-		},
-		stdio: ['ignore', 'ignore', 'inherit'],
+	const server = await startAppServer(PORT, {
+		DATABASE_URL: cluster.url(name),
+		SMTP_URL: `smtp://127.0.0.1:${smtp.port}`,
+		SAGWISE_DEV_OUTBOX: smtp.dir,
+		S3_ENDPOINT: s3.endpoint,
+		S3_BUCKET: 'sagwise-files',
 	});
-	const deadline = Date.now() + 30_000;
-	for (;;) {
-		try {
-			if ((await fetch(`${appUrl}/api/health`)).ok) break;
-		} catch {
-			// not up yet
-		}
-		if (Date.now() > deadline || server.exitCode !== null) throw new Error('the test server did not start');
-		await new Promise((r) => setTimeout(r, 150));
-	}
 	project.provide('appUrl', appUrl);
 	project.provide('outboxDir', smtp.dir);
 
 	return async () => {
-		server.kill('SIGTERM');
-		await new Promise((r) => server.once('exit', r));
+		await server.stop();
 		await smtp.close();
 		await s3.close();
 		await sql`drop database if exists ${sql.id(name)} with (force)`.execute(admin);

@@ -1,4 +1,5 @@
 import type { APIRoute } from 'astro';
+import { removeTeamObjects } from '@/lib/server/object-cleanup';
 import { deleteTeamSchema, renameTeamSchema } from '@/lib/schemas/account';
 import { requireTeamRole } from '@/lib/server/authz';
 import { deleteTeam, renameTeam } from '@/lib/server/db/teams';
@@ -32,5 +33,6 @@ export const DELETE: APIRoute = async ({ params, request, locals }) => {
 		return problem(400, 'confirmation_mismatch', 'Type the team name exactly to delete it', [{ path: 'confirmName', message: 'Does not match the team name' }]);
 	}
 	await deleteTeam(locals.db, auth.access.teamId);
+	await removeTeamObjects(locals.storage, auth.access.teamId);
 	return new Response(null, { status: 204 });
 };

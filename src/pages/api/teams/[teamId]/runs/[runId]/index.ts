@@ -1,4 +1,6 @@
 import type { APIRoute } from 'astro';
+import { objectKeysOfRun } from '@/lib/server/db/files';
+import { removeObjects } from '@/lib/server/object-cleanup';
 import { analyseRun } from '@/engine/run-analysis';
 import { updateRunSchema } from '@/lib/schemas/events';
 import { parseUuid } from '@/lib/schemas/ids';
@@ -51,8 +53,10 @@ export const DELETE: APIRoute = async ({ params, locals }) => {
 	if (!auth.ok) return auth.response;
 	const run = await load(locals, auth.access.teamId, params.runId);
 	if (!run) return problem(404, 'not_found', 'No such run');
-	const files = await locals.db.selectFrom('stored_file').select('object_key').where('run_id', '=', run.id).execute();
-	for (const f of files) await locals.storage.remove(f.object_key);
+	// Rows first, files after: a store that fails now leaves objects without rows (swept later),
+	// never rows without their files.
+	const keys = await objectKeysOfRun(locals.db, run.id);
 	await locals.db.deleteFrom('run').where('id', '=', run.id).execute();
+	await removeObjects(locals.storage, keys);
 	return new Response(null, { status: 204 });
 };

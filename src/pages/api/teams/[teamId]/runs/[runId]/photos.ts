@@ -17,7 +17,7 @@ export const POST: APIRoute = async ({ params, request, locals }) => {
 	if (!form.ok) return form.response;
 	const file = form.data.get('file');
 	if (!(file instanceof File)) return problem(400, 'invalid_input', 'Attach a photo', [{ path: 'file', message: 'No file' }]);
-	if (file.size > MAX_PHOTO_BYTES) return problem(413, 'invalid_input', 'Photos are limited to 10 MB');
+	if (file.size > MAX_PHOTO_BYTES) return problem(413, 'too_large', 'Photos are limited to 10 MB');
 	const checked = await checkPhoto(new Uint8Array(await file.arrayBuffer()));
 	if (!checked.ok) return problem(400, 'invalid_input', checked.message === 'Not a JPEG, PNG or WebP image' ? 'Photos must be JPEG, PNG or WebP images' : checked.message, [{ path: 'file', message: checked.message }]);
 	const thumb = await makeThumbnail(checked.bytes);
