@@ -41,3 +41,58 @@ export async function startAppServer(port: number, env: Record<string, string>):
 		},
 	};
 }
+
+export interface IsolatedApp {
+	server: AppServer;
+	dbUrl: string;
+	outboxDir: string;
+	close: () => Promise<void>;
+}
+
+/**
+ * A server of a test's own, on a seeded copy of the migrated template in the test cluster, with
+ * its own mail and file fakes: for tests whose counters (sign-in limits) or faults must not touch
+ * the shared test server.
+ */
+export async function startIsolatedApp(port: number, env: Record<string, string> = {}): Promise<IsolatedApp> {
+	const { mkdtempSync } = await import('node:fs');
+	const { tmpdir } = await import('node:os');
+	const path = await import('node:path');
+	const { sql } = await import('kysely');
+	const { ensureCluster } = await import('../../db/cluster');
+	const { seedDemo } = await import('../../db/seed');
+	const { startSmtpFake } = await import('../../src/cli/smtp-fake');
+	const { startS3Fake } = await import('../../src/cli/s3-fake');
+	const { createDb } = await import('../../src/lib/server/db/client');
+	const { TEST_CLUSTER } = await import('./pg-global-setup');
+	const cluster = await ensureCluster(TEST_CLUSTER);
+	const name = `iso_${port}_${Date.now()}`;
+	const admin = createDb(cluster.url(), 1);
+	await sql`create database ${sql.id(name)} template ${sql.id(`sagwise_template_${process.env.SAGWISE_TEST_RUN}`)}`.execute(admin);
+	const db = createDb(cluster.url(name), 1);
+	await seedDemo(db);
+	await db.destroy();
+	const outboxDir = mkdtempSync(path.join(tmpdir(), 'sagwise-iso-mail-'));
+	const smtp = await startSmtpFake({ port: 0, dir: outboxDir });
+	const s3 = await startS3Fake({ port: 0, dir: mkdtempSync(path.join(tmpdir(), 'sagwise-iso-s3-')), bucket: 'sagwise-files' });
+	const server = await startAppServer(port, {
+		DATABASE_URL: cluster.url(name),
+		SMTP_URL: `smtp://127.0.0.1:${smtp.port}`,
+		SAGWISE_DEV_OUTBOX: outboxDir,
+		S3_ENDPOINT: s3.endpoint,
+		S3_BUCKET: 'sagwise-files',
+		...env,
+	});
+	return {
+		server,
+		dbUrl: cluster.url(name),
+		outboxDir,
+		close: async () => {
+			await server.stop();
+			await smtp.close();
+			await s3.close();
+			await sql`drop database if exists ${sql.id(name)} with (force)`.execute(admin);
+			await admin.destroy();
+		},
+	};
+}
