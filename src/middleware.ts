@@ -51,10 +51,21 @@ const guardResponses = defineMiddleware(async (context, next) => {
 			console.error(`${context.request.method} ${context.url.pathname} failed:`, error);
 			response = problem(500, 'internal', 'Something went wrong on our side. Nothing may have been saved; try again.');
 		} else throw error;
-		if (response.status === 503) console.error(`${context.request.method} ${context.url.pathname}: ${(error as Error).message}`);
+		if (response.status === 503) {
+			console.error(`${context.request.method} ${context.url.pathname}: ${(error as Error).message}`);
+			if (!api && (context.request.headers.get('accept') ?? '').includes('text/html')) response = unavailablePage(response);
+		}
 	}
 	return securityHeaders(response, https);
 });
+
+/** A person opening a page while a service is down gets a page that says so, not JSON. */
+function unavailablePage(problemResponse: Response): Response {
+	const html = `<!doctype html><html lang="en"><head><meta charset="utf-8"><meta name="viewport" content="width=device-width, initial-scale=1"><title>Sagwise is catching its breath</title></head><body><main><h1>Sagwise cannot reach its data right now</h1><p>The database or the file store is not answering. Nothing you saved before is lost. Try again in a moment: <a href="">reload this page</a>.</p></main></body></html>`;
+	const headers = new Headers(problemResponse.headers);
+	headers.set('content-type', 'text/html; charset=utf-8');
+	return new Response(html, { status: 503, headers });
+}
 
 async function emailOfBody(request: Request): Promise<string> {
 	const type = (request.headers.get('content-type') ?? '').toLowerCase();

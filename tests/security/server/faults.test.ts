@@ -114,6 +114,11 @@ describe('faults: the database and the file store go away under load', () => {
 		expect(healthDown.status).toBe(503);
 		expect(healthDown.headers.get('content-type')).toBe('application/problem+json');
 		expect((await healthDown.json()).database.status).toBe('down');
+		// A person opening a page meanwhile is told so in a page, with the status that fits.
+		const page = await member.fetch(`/teams/${teamId}`, { headers: { accept: 'text/html' } });
+		expect(page.status).toBe(503);
+		expect(page.headers.get('content-type')).toMatch(/text\/html/);
+		expect(await page.text()).toMatch(/cannot reach its data/);
 		phase = 'restarting';
 		await ensureCluster(CLUSTER);
 		phase = 'back';
