@@ -89,7 +89,8 @@ async function main() {
 	cleanups.unshift(
 		() =>
 			new Promise<void>((resolve) => {
-				if (server.exitCode !== null) return resolve();
+				// Killed by a signal, a child has no exit code but a signal code; either way it is gone.
+				if (server.exitCode !== null || server.signalCode !== null) return resolve();
 				server.once('exit', () => resolve());
 				server.kill('SIGTERM');
 			}),
@@ -127,7 +128,8 @@ async function shutdown(code = 0) {
 	log('stopping…');
 	for (const cleanup of cleanups) {
 		try {
-			await cleanup();
+			// A service that will not close in time must not keep its siblings' ports taken.
+			await Promise.race([cleanup(), new Promise((resolve) => setTimeout(resolve, 5000).unref())]);
 		} catch (error) {
 			console.error(error);
 		}
