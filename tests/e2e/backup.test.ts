@@ -24,7 +24,7 @@ describe('team backup in chromium', () => {
 		await form.getByRole('button', { name: 'Restore as a new team' }).click();
 		const done = form.getByRole('status').filter({ hasText: 'is restored' });
 		await done.waitFor();
-		await expect(done.textContent()).resolves.toMatch(/“Backup drill” is restored: 3 vehicles, \d+ revisions, \d+ plans, 5 events, \d+ runs, \d+ files\. You are its captain; the 2 other people in the file have a pending invitation/);
+		await expect(done.textContent()).resolves.toMatch(/“Backup drill” is restored: 3 vehicles, \d+ revisions, \d+ plans, 5 events, \d+ runs, \d+ files?\. You are its captain; the \d+ other people in the file have a pending invitation/);
 		await b.screenshot('team-restored');
 		await form.getByRole('link', { name: 'Open the team' }).click();
 		await page.getByRole('heading', { name: 'Backup drill' }).waitFor();

@@ -4,6 +4,8 @@ import { Button, Field, FormMessage } from '../ui/Field';
 
 
 /** Restores a team backup file as a new team, with upload progress and the server's reason when it refuses. */
+const count = (n: number, noun: string) => `${n} ${noun}${n === 1 ? '' : 's'}`;
+
 export function ImportTeamForm() {
 	const [file, setFile] = useState<File | null>(null);
 	const [name, setName] = useState('');
@@ -76,7 +78,7 @@ export function ImportTeamForm() {
 			{error && <FormMessage tone="error">{error}</FormMessage>}
 			{done && (
 				<FormMessage tone="ok">
-					“{done.name}” is restored: {done.vehicles} vehicles, {done.revisions} revisions, {done.plans} plans, {done.events} events, {done.runs} runs, {done.files} files. You are its captain
+					“{done.name}” is restored: {count(done.vehicles, 'vehicle')}, {count(done.revisions, 'revision')}, {count(done.plans, 'plan')}, {count(done.events, 'event')}, {count(done.runs, 'run')}, {count(done.files, 'file')}. You are its captain
 					{done.invitations > 0 && `; the ${done.invitations} other ${done.invitations === 1 ? 'person' : 'people'} in the file ${done.invitations === 1 ? 'has' : 'have'} a pending invitation (send it from the team page; each joins by accepting it)`}
 					. Authors and sign-offs show as recorded in the file.{' '}
 					<a className="font-semibold underline" href={`/teams/${done.teamId}`}>
