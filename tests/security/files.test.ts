@@ -24,7 +24,7 @@ describe('stored files: served safely, stripped of metadata, removed with what o
 	};
 	const upload = (team: string, run: string, bytes: Uint8Array, name: string) => {
 		const form = new FormData();
-		form.set('file', new Blob([bytes]), name);
+		form.set('file', new Blob([bytes as Uint8Array<ArrayBuffer>]), name);
 		return callEndpoint(photos, { locals: localsFor(t.db, captain, undefined, storage), params: { teamId: team, runId: run }, request: new Request('http://localhost/x', { method: 'POST', body: form }) });
 	};
 

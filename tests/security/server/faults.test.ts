@@ -79,7 +79,7 @@ describe('faults: the database and the file store go away under load', () => {
 		member.fetch(`/api/teams/${teamId}/events`, { method: 'POST', headers: { 'content-type': 'application/json' }, body: JSON.stringify({ name: `Load event ${n}`, startsOn: '2027-03-01', endsOn: '2027-03-01' }) });
 	const postPhoto = () => {
 		const form = new FormData();
-		form.set('file', new Blob([photo], { type: 'image/jpeg' }), 'lanes.jpg');
+		form.set('file', new Blob([photo as Uint8Array<ArrayBuffer>], { type: 'image/jpeg' }), 'lanes.jpg');
 		return member.fetch(`/api/teams/${teamId}/runs/${runId}/photos`, { method: 'POST', body: form });
 	};
 
