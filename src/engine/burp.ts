@@ -1,5 +1,5 @@
 import { bankPeukertK, bankThevenin, chargeAcceptanceA, peukertEffectiveCurrentA } from './battery';
-import { chargeResistanceOhm, compileNetwork, type CompiledNetwork, solveCompiled } from './network';
+import { compileNetwork, type CompiledNetwork, solveCompiled } from './network';
 import { describeSolution } from './solve';
 import type { BuildDocument } from './types';
 
@@ -28,7 +28,7 @@ function updateBanks(net: CompiledNetwork, doc: BuildDocument, soc: Record<strin
 		const th = bankThevenin(bank, soc[bank.id]!);
 		compiled.ocvV = th.ocvV;
 		compiled.chargeAcceptanceA = chargeAcceptanceA(bank, soc[bank.id]!);
-		compiled.chargeResistanceOhm = chargeResistanceOhm(bank, th.ocvV, th.resistanceOhm, compiled.chargeAcceptanceA);
+		compiled.chargeResistanceOhm = th.resistanceOhm;
 	});
 }
 

@@ -76,12 +76,26 @@ export function resistivityAt(material: Material, tempC: number): number {
 	return m.resistivity20 * (1 + m.alpha20 * (tempC - 20));
 }
 
-/** Resistance per metre of one run (Ω/m) at the given conductor temperature. */
-export function resistancePerMetre(size: CableSize, material: Material, tempC = 20): number {
+/**
+ * Lay (stranding) increment of resistance: the strands of a stranded conductor run helically, so
+ * each is longer than the cable. ASTM B8 (concentric-lay-stranded copper conductors) takes the
+ * increment of resistance and mass as 2 % for sizes up to 2000 kcmil (value from memory); NEC
+ * Chapter 9 Table 8's stranded copper figures sit 1.8–2.2 % above the solid formula for 8 AWG–4/0,
+ * which agrees. Every vehicle power cable is stranded, so every cable carries it.
+ */
+export const STRANDING_FACTOR = 1.02;
+
+/** Resistance per metre of a solid conductor of the same cross-section: ρ(T)/A (Ω/m). */
+export function solidResistancePerMetre(size: CableSize, material: Material, tempC = 20): number {
 	return resistivityAt(material, tempC) / cableAreaMm2(size);
 }
 
-/** Resistance of a whole cable (Ω): ρ(T)·L / (A·runs), runs in parallel. */
+/** Resistance per metre of one stranded run (Ω/m): ρ(T)·k_lay/A at the given conductor temperature. */
+export function resistancePerMetre(size: CableSize, material: Material, tempC = 20): number {
+	return solidResistancePerMetre(size, material, tempC) * STRANDING_FACTOR;
+}
+
+/** Resistance of a whole cable (Ω): ρ(T)·k_lay·L / (A·runs), runs in parallel. */
 export function cableResistanceOhm(cable: Pick<Cable, 'size' | 'material' | 'lengthM' | 'parallelRuns'>, tempC = 20): number {
 	return (resistancePerMetre(cable.size, cable.material, tempC) * cable.lengthM) / cable.parallelRuns;
 }

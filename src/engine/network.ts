@@ -1,6 +1,6 @@
 import { amplifierInputPowerW } from './amplifier';
 import { alternatorLimitA } from './alternator';
-import { bankChargeTargets, bankThevenin, cellsInSeries, chargeAcceptanceA } from './battery';
+import { bankThevenin, chargeAcceptanceA } from './battery';
 import { cableResistanceOhm } from './conductors';
 import { solveDense } from './linear';
 import type { BuildDocument } from './types';
@@ -61,7 +61,11 @@ export function compileNetwork(doc: BuildDocument, conditions: SolveConditions):
 			n: at(b.negative),
 			ocvV: th.ocvV,
 			resistanceOhm: th.resistanceOhm,
-			chargeResistanceOhm: chargeResistanceOhm(b, th.ocvV, th.resistanceOhm, acceptA),
+			// A charging bank presents its own internal resistance (one Thevenin source and resistance
+			// whichever way the current flows); its charge acceptance is a limit on the current, not a
+			// steeper slope, so two banks at different states of charge exchange the Millman current
+			// their resistances allow, up to what the charging one accepts.
+			chargeResistanceOhm: th.resistanceOhm,
 			chargeAcceptanceA: acceptA,
 		};
 	});
@@ -89,26 +93,18 @@ export function compileNetwork(doc: BuildDocument, conditions: SolveConditions):
 	};
 }
 
-/**
- * Charging behaves as a rising surface voltage: the bank takes (v − V_oc)/R_charge, with R_charge
- * chosen so that at its absorption voltage it takes exactly its charge acceptance — a bank never
- * shows more charging current than it accepts while the regulator stays within its targets.
- * Never below the discharge resistance; at least 50 mV per cell of headroom is assumed.
- */
-export function chargeResistanceOhm(bank: BuildDocument['banks'][number], ocvV: number, resistanceOhm: number, acceptanceA: number): number {
-	const headroomV = Math.max(bankChargeTargets(bank).absorptionV - ocvV, 0.05 * cellsInSeries(bank));
-	return Math.max(resistanceOhm, headroomV / Math.max(acceptanceA, 1e-6));
-}
-
 const volt = (v: Float64Array, i: number) => (i < 0 ? 0 : v[i]!);
 
 /**
  * Current out of a bank's positive terminal at terminal voltage v, and its derivative dI/dv:
- * (V_oc − v)/R discharging, (V_oc − v)/R_charge charging.
+ * (V_oc − v)/R discharging; charging (V_oc − v)/R_charge until the bank takes its charge
+ * acceptance, then exactly that (a limit, like an alternator's).
  */
 export function bankCurrent(b: CompiledNetwork['banks'][number], v: number): [number, number] {
-	const r = v <= b.ocvV ? b.resistanceOhm : b.chargeResistanceOhm;
-	return [(b.ocvV - v) / r, -1 / r];
+	if (v <= b.ocvV) return [(b.ocvV - v) / b.resistanceOhm, -1 / b.resistanceOhm];
+	const i = (b.ocvV - v) / b.chargeResistanceOhm;
+	if (-i >= b.chargeAcceptanceA) return [-b.chargeAcceptanceA, 0];
+	return [i, -1 / b.chargeResistanceOhm];
 }
 
 /** Current out of an alternator: a voltage source at its set point until its limit, never negative. */
@@ -203,7 +199,12 @@ function coContent(net: CompiledNetwork, v: Float64Array, lambda: number, floorV
 	for (const c of net.cables) e += 0.5 * c.g * (volt(v, c.p) - volt(v, c.n)) ** 2;
 	for (const b of net.banks) {
 		const x = volt(v, b.p) - volt(v, b.n);
-		e += (x - b.ocvV) ** 2 / (2 * (x <= b.ocvV ? b.resistanceOhm : b.chargeResistanceOhm));
+		if (x <= b.ocvV) e += (x - b.ocvV) ** 2 / (2 * b.resistanceOhm);
+		else {
+			// Charging: quadratic up to the acceptance knee, linear past it (the current is capped).
+			const knee = b.ocvV + b.chargeResistanceOhm * b.chargeAcceptanceA;
+			e += x < knee ? (x - b.ocvV) ** 2 / (2 * b.chargeResistanceOhm) : (b.chargeResistanceOhm * b.chargeAcceptanceA ** 2) / 2 + b.chargeAcceptanceA * (x - knee);
+		}
 	}
 	for (const a of net.alternators) {
 		if (a.limitA <= 0) continue;

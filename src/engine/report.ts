@@ -44,7 +44,8 @@ export type WarningCode =
 	| 'set_point_above_vehicle'
 	| 'sustained_deficit'
 	| 'bank_not_secured'
-	| 'flooded_unvented';
+	| 'flooded_unvented'
+	| 'bank_charge_limited';
 
 export interface ReportWarning {
 	code: WarningCode;
@@ -101,6 +102,10 @@ export interface BankReport {
 	maxChargeV: number;
 	sustainedCurrentA: number;
 	burpCurrentA: number;
+	/** Charge acceptance at its state of charge (A). */
+	chargeAcceptanceA: number;
+	/** True when, under sustained music, it takes all it accepts: charging is limited by the bank. */
+	sustainedChargeLimited: boolean;
 }
 
 export interface AlternatorReport {
@@ -269,6 +274,10 @@ export function buildReport(doc: BuildDocument, scenarioIn: Partial<Scenario> = 
 		if (bank.chemistry === 'flooded' && bank.location === 'cabin' && !bank.vented) {
 			warn({ code: 'flooded_unvented', severity: 'danger', element: el, safety: true, message: `"${bank.label}" is flooded lead-acid inside the cabin without venting: charging gives off hydrogen.` });
 		}
+		const charging = sustained.banks[i]!;
+		if (sustained.status === 'ok' && charging.chargeLimited) {
+			warn({ code: 'bank_charge_limited', severity: 'info', element: el, safety: false, message: `"${bank.label}" takes ${fmt(charging.chargeAcceptanceA, 0)} A under sustained music, all it accepts at this state of charge: it charges as fast as it can, and more alternator current would not fill it sooner.` });
+		}
 		return {
 			id: bank.id,
 			label: bank.label,
@@ -280,6 +289,8 @@ export function buildReport(doc: BuildDocument, scenarioIn: Partial<Scenario> = 
 			maxChargeV: targets.maxV,
 			sustainedCurrentA: sustained.banks[i]!.currentA,
 			burpCurrentA: burp.banks[i]!.currentA,
+			chargeAcceptanceA: charging.chargeAcceptanceA,
+			sustainedChargeLimited: sustained.status === 'ok' && charging.chargeLimited,
 		};
 	});
 

@@ -48,9 +48,9 @@ export function toSpiceNetlist(
 		lines.push(`${dev} ${name(c.p)} ${name(c.n)} ${num(c.resistanceOhm)}`);
 	});
 	net.banks.forEach((b, i) => {
-		// Current into the positive node: max((Voc−v)/R, (Voc−v)/Rcharge).
+		// Current into the positive node: (Voc−v)/R either way, charging capped at the acceptance.
 		const x = v(b.p, b.n);
-		lines.push(`bbank${i + 1} ${name(b.n)} ${name(b.p)} I=max((${num(b.ocvV)}-${x})/${num(b.resistanceOhm)}, (${num(b.ocvV)}-${x})/${num(b.chargeResistanceOhm)})`);
+		lines.push(`bbank${i + 1} ${name(b.n)} ${name(b.p)} I=max((${num(b.ocvV)}-${x})/${num(b.resistanceOhm)}, ${num(-b.chargeAcceptanceA)})`);
 	});
 	net.alternators.forEach((a, i) => {
 		if (a.limitA <= 0) return;

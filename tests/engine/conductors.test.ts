@@ -11,10 +11,15 @@ import {
 	requiredCmilPerAmp,
 	resistancePerMetre,
 	resistivityAt,
+	solidResistancePerMetre,
+	STRANDING_FACTOR,
 } from '../../src/engine/conductors';
 import type { AwgSize, Material } from '../../src/engine/types';
 
 const FT = 0.3048;
+/** The solid-formula figure (ρ/A), as the wire tables print it. */
+const solidOhmPerKft = (awg: AwgSize, material: Material, tempC = 20) => solidResistancePerMetre({ kind: 'awg', awg }, material, tempC) * 1000 * FT;
+/** What the engine uses for a stranded cable (with the lay increment). */
 const ohmPerKft = (awg: AwgSize, material: Material, tempC = 20) => resistancePerMetre({ kind: 'awg', awg }, material, tempC) * 1000 * FT;
 
 describe('awgDiameterIn', () => {
@@ -113,15 +118,17 @@ describe('resistancePerMetre', () => {
 		['3/0', 0.06182, 0.10134, 0.09828, 0.09599],
 		['4/0', 0.04901, 0.08035, 0.07792, 0.07611],
 	] as const)('gives %s AWG in copper, aluminium and CCA', (awg, cu, al, cca10, cca15) => {
-		expect(ohmPerKft(awg, 'copper')).toBeCloseTo(cu, 4);
-		expect(ohmPerKft(awg, 'aluminium')).toBeCloseTo(al, 4);
-		expect(ohmPerKft(awg, 'cca10')).toBeCloseTo(cca10, 4);
-		expect(ohmPerKft(awg, 'cca15')).toBeCloseTo(cca15, 4);
+		expect(solidOhmPerKft(awg, 'copper')).toBeCloseTo(cu, 4);
+		expect(solidOhmPerKft(awg, 'aluminium')).toBeCloseTo(al, 4);
+		expect(solidOhmPerKft(awg, 'cca10')).toBeCloseTo(cca10, 4);
+		expect(solidOhmPerKft(awg, 'cca15')).toBeCloseTo(cca15, 4);
+		// Stranded: the ASTM B8 lay increment on top.
+		expect(ohmPerKft(awg, 'copper') / solidOhmPerKft(awg, 'copper')).toBeCloseTo(STRANDING_FACTOR, 12);
 	});
 
 	// NEC (NFPA 70) Chapter 9 Table 8, DC resistance at 75 °C, stranded uncoated copper and
-	// aluminium, Ω/kft (two web reproductions). Our solid-equivalent value sits about 2 % lower:
-	// the stranding (lay) allowance of the table, which we do not model.
+	// aluminium, Ω/kft (two web reproductions). With the lay increment the engine's copper is within
+	// 1 % of every figure from 8 AWG to 4/0; the solid formula alone sits about 2 % low.
 	it.each([
 		['8', 0.778, 1.28],
 		['6', 0.491, 0.808],
@@ -132,13 +139,11 @@ describe('resistancePerMetre', () => {
 		['2/0', 0.0967, 0.159],
 		['3/0', 0.0766, 0.126],
 		['4/0', 0.0608, 0.1],
-	] as const)('sits within the stranding allowance of NEC Table 8 for %s AWG at 75 °C', (awg, cu, al) => {
-		const cuRatio = cu / ohmPerKft(awg, 'copper', 75);
-		expect(cuRatio).toBeGreaterThan(1.012);
-		expect(cuRatio).toBeLessThan(1.028);
-		const alRatio = al / ohmPerKft(awg, 'aluminium', 75);
-		expect(alRatio).toBeGreaterThan(1.0);
-		expect(alRatio).toBeLessThan(1.035);
+	] as const)('is within 1 %% of NEC Table 8 for %s AWG stranded at 75 °C', (awg, cu, al) => {
+		expect(Math.abs(ohmPerKft(awg, 'copper', 75) / cu - 1)).toBeLessThan(0.01);
+		expect(cu / solidOhmPerKft(awg, 'copper', 75)).toBeGreaterThan(1.012);
+		// Aluminium 1350 at the 61 % IACS minimum: within 2 % of the table.
+		expect(Math.abs(ohmPerKft(awg, 'aluminium', 75) / al - 1)).toBeLessThan(0.02);
 	});
 
 	// IEC 60228 class 5 (flexible) copper, maximum resistance at 20 °C, Ω/km (reproductions agree).
@@ -163,8 +168,9 @@ describe('cableResistanceOhm', () => {
 	it('divides by parallel runs and scales with length (Ohm’s law, R = ρL/A)', () => {
 		const one = cableResistanceOhm({ size: { kind: 'awg', awg: '1/0' }, material: 'copper', lengthM: 20 * FT, parallelRuns: 1 });
 		const two = cableResistanceOhm({ size: { kind: 'awg', awg: '1/0' }, material: 'copper', lengthM: 20 * FT, parallelRuns: 2 });
-		// Worked example: 1/0 copper, 20 ft loop at 20 °C = 1.9650 mΩ (0.09825 Ω/kft × 20 ft).
-		expect(one * 1000).toBeCloseTo(1.965, 3);
+		// Worked example: 1/0 copper, 20 ft loop at 20 °C = 1.9650 mΩ solid (0.09825 Ω/kft × 20 ft),
+		// times the lay increment for stranded cable.
+		expect(one * 1000).toBeCloseTo(1.965 * STRANDING_FACTOR, 3);
 		expect(two).toBeCloseTo(one / 2, 12);
 	});
 

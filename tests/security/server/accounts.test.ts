@@ -90,6 +90,13 @@ describe('accounts cannot be taken over, and sign-in limits cannot be dodged', (
 		expect(mailsTo(linkTarget)).toBe(5);
 	});
 
+	it('limits sign-ups per address', async () => {
+		const email = `signups.${Date.now()}@sagwise.test`;
+		const statuses: number[] = [];
+		for (let i = 0; i < 4; i++) statuses.push((await signUp(new HttpSession(base), email, 'a long enough password')).status);
+		expect(statuses).toEqual([201, 409, 409, 429]);
+	});
+
 	it('counts password attempts per account whatever the path spelling or body type: after ten failures even the right password is refused', async () => {
 		const email = DEMO_USERS[1].email;
 		const variants: ((s: HttpSession, password: string) => Promise<Response>)[] = [
