@@ -1,4 +1,4 @@
-import { amplifierInputPowerW } from './amplifier';
+import { type AmplifierDraw, amplifierDraw, amplifierDrawCoContent, amplifierDrawCurrent } from './amplifier';
 import { alternatorLimitA } from './alternator';
 import { bankThevenin, chargeAcceptanceA } from './battery';
 import { cableResistanceOhm } from './conductors';
@@ -35,7 +35,8 @@ export interface CompiledNetwork {
 	cables: Array<TwoTerminal & { id: string; g: number; resistanceOhm: number }>;
 	banks: Array<TwoTerminal & { id: string; ocvV: number; resistanceOhm: number; chargeResistanceOhm: number; chargeAcceptanceA: number }>;
 	alternators: Array<TwoTerminal & { id: string; setPointV: number; resistanceOhm: number; limitA: number }>;
-	amplifiers: Array<TwoTerminal & { id: string; powerW: number }>;
+	/** `powerW` is the input power at and below the rated voltage; `draw` how it grows above. */
+	amplifiers: Array<TwoTerminal & { id: string; powerW: number; draw: AmplifierDraw }>;
 	loads: Array<TwoTerminal & { id: string; currentA: number }>;
 	/** Highest source voltage: the scale for initial guesses and collapse checks. */
 	nominalV: number;
@@ -87,7 +88,10 @@ export function compileNetwork(doc: BuildDocument, conditions: SolveConditions):
 		}),
 		banks,
 		alternators,
-		amplifiers: doc.amplifiers.map((a) => ({ id: a.id, p: at(a.positive), n: at(a.negative), powerW: amplifierInputPowerW(a, conditions.demand) })),
+		amplifiers: doc.amplifiers.map((a) => {
+			const draw = amplifierDraw(a, conditions.demand);
+			return { id: a.id, p: at(a.positive), n: at(a.negative), powerW: draw.powerW, draw };
+		}),
 		loads: doc.loads.map((l) => ({ id: l.id, p: at(l.positive), n: at(l.negative), currentA: l.currentA })),
 		nominalV,
 	};
@@ -160,9 +164,9 @@ function assemble(net: CompiledNetwork, v: Float64Array, lambda: number, out: As
 	for (const a of net.amplifiers) {
 		const vpn = volt(v, a.p) - volt(v, a.n);
 		minAmpV = Math.min(minAmpV, vpn);
-		const p = lambda * a.powerW;
-		if (p === 0) continue;
-		stamp(a.p, a.n, p / vpn, -p / (vpn * vpn));
+		if (a.powerW === 0) continue;
+		const [i, di] = amplifierDrawCurrent(a.draw, vpn, lambda);
+		stamp(a.p, a.n, i, di);
 	}
 	for (const l of net.loads) stamp(l.p, l.n, l.currentA, 0);
 	out.minAmpV = minAmpV;
@@ -215,10 +219,9 @@ function coContent(net: CompiledNetwork, v: Float64Array, lambda: number, floorV
 	}
 	for (const a of net.amplifiers) {
 		const x = volt(v, a.p) - volt(v, a.n);
-		const p = lambda * a.powerW;
-		if (p === 0) continue;
+		if (lambda * a.powerW === 0) continue;
 		if (x < floorV) return Number.POSITIVE_INFINITY;
-		e += p * Math.log(x);
+		e += amplifierDrawCoContent(a.draw, x, lambda);
 	}
 	for (const l of net.loads) e += l.currentA * (volt(v, l.p) - volt(v, l.n));
 	return e;

@@ -89,6 +89,12 @@ export interface AmplifierReport {
 	burpOutputLossDb: number;
 	/** Lowest terminal voltage during the time-stepped burp (V); null without it. */
 	burpRunMinV: number | null;
+	/**
+	 * Which output model applies: `regulated` holds its rating at any voltage; `unregulated` follows
+	 * (V/V_rated)² on both sides of its rated voltage, up to `maxOutputW` when one is stated.
+	 */
+	outputModel: 'regulated' | 'unregulated';
+	maxOutputW: number | null;
 }
 
 export interface BankReport {
@@ -254,6 +260,8 @@ export function buildReport(doc: BuildDocument, scenarioIn: Partial<Scenario> = 
 			burpOutputW: availableOutputW(amp, b.terminalV),
 			burpOutputLossDb: outputLossDb(amp, b.terminalV),
 			burpRunMinV: burpRun ? burpRun.amplifierMinV[amp.id]! : null,
+			outputModel: amp.regulated ? 'regulated' : 'unregulated',
+			maxOutputW: amp.regulated ? null : (amp.maxOutputW ?? null),
 		};
 	});
 

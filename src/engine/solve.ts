@@ -1,3 +1,4 @@
+import { amplifierDrawCurrent } from './amplifier';
 import { alternatorCurrent, bankCurrent, compileNetwork, type CompiledNetwork, type RawSolution, type SolveConditions, solveCompiled } from './network';
 import type { BuildDocument } from './types';
 
@@ -94,8 +95,8 @@ export function describeSolution(net: CompiledNetwork, raw: RawSolution): Networ
 	const alternators = alternatorsRaw.map((a) => ({ ...a, share: totalOut > 0 ? a.currentA / totalOut : 0 }));
 	const amplifiers = net.amplifiers.map((a) => {
 		const terminalV = v(a.p) - v(a.n);
-		const inputPowerW = a.powerW * raw.lambda;
-		return { id: a.id, terminalV, currentA: inputPowerW / terminalV, inputPowerW };
+		const [currentA] = amplifierDrawCurrent(a.draw, terminalV, raw.lambda);
+		return { id: a.id, terminalV, currentA, inputPowerW: currentA * terminalV };
 	});
 	const loads = net.loads.map((l) => ({ id: l.id, terminalV: v(l.p) - v(l.n), currentA: l.currentA }));
 	const sourcesW = banks.reduce((s, b) => s + b.currentA * b.terminalV, 0) + alternators.reduce((s, a) => s + a.currentA * a.terminalV, 0);

@@ -58,7 +58,17 @@ export function toSpiceNetlist(
 		lines.push(`balt${i + 1} ${name(a.n)} ${name(a.p)} I=min(max((${num(a.setPointV)}-${x})/${num(a.resistanceOhm)}, 0), ${num(a.limitA)})`);
 	});
 	net.amplifiers.forEach((a, i) => {
-		if (a.powerW > 0) lines.push(`bamp${i + 1} ${name(a.p)} ${name(a.n)} I=${num(a.powerW)}/${v(a.p, a.n)}`);
+		if (a.powerW <= 0) return;
+		// Constant power up to the rated voltage; above it an unregulated amplifier's draw grows as
+		// V² (I = P·V/V_rated²) until its stated maximum (constant power again): max(P/V, min(…)).
+		const x = v(a.p, a.n);
+		const constant = `${num(a.powerW)}/${x}`;
+		if (!Number.isFinite(a.draw.ratedVoltageV)) lines.push(`bamp${i + 1} ${name(a.p)} ${name(a.n)} I=${constant}`);
+		else {
+			const growing = `${num(a.powerW / a.draw.ratedVoltageV ** 2)}*${x}`;
+			const rising = Number.isFinite(a.draw.maxPowerW) ? `min(${growing}, ${num(a.draw.maxPowerW)}/${x})` : growing;
+			lines.push(`bamp${i + 1} ${name(a.p)} ${name(a.n)} I=max(${constant}, ${rising})`);
+		}
 	});
 	net.loads.forEach((l, i) => lines.push(`iload${i + 1} ${name(l.p)} ${name(l.n)} DC ${num(l.currentA)}`));
 	// The engine's gmin, so both solve the same equations.

@@ -122,6 +122,11 @@ export interface Amplifier {
 	quantity: number;
 	/** Regulated supplies hold their output when the voltage sags; most competition amplifiers are not. */
 	regulated: boolean;
+	/**
+	 * Most an unregulated amplifier gives however high the supply (W per unit), e.g. from a bench
+	 * measurement; null or absent: its output keeps following (V/V_rated)².
+	 */
+	maxOutputW?: number | null;
 }
 
 export interface SteadyLoad {

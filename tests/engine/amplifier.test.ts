@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { amplifierCurrentA, amplifierInputPowerW, availableOutputW, outputLossDb, powerRatioDb, unregulatedOutputW, voltageRatioDb } from '../../src/engine/amplifier';
+import { amplifierCurrentA, amplifierDraw, amplifierDrawCurrent, amplifierInputPowerW, availableOutputW, outputLossDb, powerRatioDb, unregulatedOutputW, voltageRatioDb } from '../../src/engine/amplifier';
 
 // CEA-2006 rates mobile amplifiers at 14.4 V. Worked example (computed from I = P/(V·η) and P ∝ V²):
 // 2000 W rated at 14.4 V, η = 0.80, unregulated, driven to clipping.
@@ -61,11 +61,32 @@ describe('level changes', () => {
 });
 
 describe('availableOutputW and outputLossDb', () => {
-	it('follows V² below the rated voltage and holds the rating above it', () => {
+	// An unregulated (fixed-ratio converter) amplifier's rails follow the supply, so its clipping
+	// power goes as P_rated·(V/V_rated)² on both sides of the rated voltage: 2000 W at 14.4 V →
+	// 2000·(12/14.4)² = 1388.9 W at 12 V (−1.584 dB) and 2000·(16/14.4)² = 2469.1 W at 16 V (+0.915 dB).
+	it('follows V² on both sides of the rated voltage', () => {
 		expect(availableOutputW(amp, 12)).toBeCloseTo(1388.9, 1);
-		expect(availableOutputW(amp, 16)).toBe(2000);
+		expect(availableOutputW(amp, 16)).toBeCloseTo(2469.1, 1);
 		expect(outputLossDb(amp, 12)).toBeCloseTo(-1.584, 3);
-		expect(outputLossDb(amp, 16)).toBe(0);
+		expect(outputLossDb(amp, 16)).toBeCloseTo(0.915, 3);
+	});
+
+	it('stops at a stated maximum output', () => {
+		expect(availableOutputW({ ...amp, maxOutputW: 2200 }, 16)).toBe(2200);
+		expect(availableOutputW({ ...amp, maxOutputW: 2200 }, 12)).toBeCloseTo(1388.9, 1);
+	});
+
+	// Draw: constant input power up to the rated voltage (conservative for cables), then the input
+	// follows the output: I = P_in·V/V_rated² (P_in = P_rated/η). 2000 W, η 0.8 → 2500 W input;
+	// at 12.6 V: 2500/12.6 = 198.41 A; at 16 V: 2500·16/14.4² = 192.90 A (vs 156.25 A at constant power).
+	it('draws more current above its rated voltage, as its output grows', () => {
+		const d = amplifierDraw({ ...amp, efficiency: 0.8, quantity: 1 }, 1);
+		expect(amplifierDrawCurrent(d, 12.6)[0]).toBeCloseTo(198.41, 2);
+		expect(amplifierDrawCurrent(d, 16)[0]).toBeCloseTo(192.9, 2);
+		const capped = amplifierDraw({ ...amp, efficiency: 0.8, quantity: 1, maxOutputW: 2200 }, 1);
+		expect(amplifierDrawCurrent(capped, 16)[0]).toBeCloseTo(2750 / 16, 6);
+		const regulated = amplifierDraw({ ...amp, efficiency: 0.8, quantity: 1, regulated: true }, 1);
+		expect(amplifierDrawCurrent(regulated, 16)[0]).toBeCloseTo(2500 / 16, 6);
 	});
 
 	it('loses nothing on a regulated supply', () => {

@@ -66,6 +66,8 @@ describe('solveNetwork: constant-power load through a loop (closed form)', () =>
 	])('at %f V source puts the amplifier at %f V drawing %f A', (vs, vAmp, amps) => {
 		const d = loop({ amp: 2500 });
 		d.alternators[0]!.setPointV = vs;
+		// WE3 is the constant-power load: a regulated amplifier, whatever the supply.
+		d.amplifiers[0]!.regulated = true;
 		// WE3 takes R = 1.965 mΩ, the solid-formula loop: shorten the runs by the lay factor to match.
 		for (const c of d.cables) c.lengthM /= STRANDING_FACTOR;
 		const s = solveNetwork(d, AT);
@@ -303,7 +305,34 @@ describe('solveNetwork: two banks joined by a cable, no load (Millman’s theore
 		expect(s.banks[0]!.currentA).toBeCloseTo(accept, 3);
 		expect(s.banks[1]!.chargeLimited).toBe(true);
 		const r = buildReport(d, { engineRpm: 0, sustainedDemand: 0 });
+		if (!r.ok) throw new Error('topology');
 		expect(r.warnings.find((w) => w.code === 'bank_charge_limited')?.element).toEqual({ kind: 'bank', id: 'low' });
 		expect(r.banks[1]!.sustainedChargeLimited).toBe(true);
+	});
+});
+
+describe('solveNetwork: an unregulated amplifier above its rated voltage', () => {
+	// Rated 1000 W at 12.6 V, η 1, on a stiff 14.4 V bus: its rails follow the supply, so it gives
+	// 1000·(14.4/12.6)² = 1306.1 W and draws 1306.1/14.4 = 90.70 A, not the 1000/14.4 = 69.44 A a
+	// constant-power model would size its cable and fuse for.
+	const bus = (over: Parameters<typeof amp>[4] = {}) =>
+		doc({
+			nodes: [node('gnd', 'chassis'), node('bus', 'block')],
+			alternators: [alternator('alt', 'bus', 'gnd', 5000, { setPointV: 14.4, sourceResistanceOhm: 1e-6 })],
+			amplifiers: [amp('a', 'bus', 'gnd', 1000, { ratedVoltageV: 12.6, ...over })],
+		});
+
+	it('draws the current its grown output needs', () => {
+		const s = solveNetwork(bus(), AT);
+		expect(s.amplifiers[0]!.currentA).toBeCloseTo(90.7, 1);
+		const r = buildReport(bus(), { engineRpm: 1000 });
+		if (!r.ok) throw new Error('topology');
+		expect(r.amplifiers[0]!.burpOutputW).toBeCloseTo(1306.1, 0);
+		expect(r.amplifiers[0]!.outputModel).toBe('unregulated');
+	});
+
+	it('stops growing at a stated maximum output, and a regulated one stays at its rating', () => {
+		expect(solveNetwork(bus({ maxOutputW: 1100 }), AT).amplifiers[0]!.currentA).toBeCloseTo(1100 / 14.4, 2);
+		expect(solveNetwork(bus({ regulated: true }), AT).amplifiers[0]!.currentA).toBeCloseTo(1000 / 14.4, 2);
 	});
 });

@@ -107,6 +107,7 @@ export function amplifierColumns(nodes: Opt): PartColumn<Amplifier>[] {
 		{ id: 'eff', header: 'Efficiency', unit: '%', errorPath: 'efficiency', cell: { kind: 'number', get: (a) => a.efficiency * 100, set: (a, v) => ({ ...a, efficiency: num(v) / 100 }) } },
 		{ id: 'qty', header: 'Quantity', errorPath: 'quantity', cell: { kind: 'number', get: (a) => a.quantity, set: (a, v) => ({ ...a, quantity: num(v) }) } },
 		{ id: 'regulated', header: 'Regulated supply', errorPath: 'regulated', cell: { kind: 'checkbox', get: (a) => a.regulated, set: (a, v) => ({ ...a, regulated: v }) } },
+		{ id: 'maxout', header: 'Most it gives (bench)', unit: 'W', errorPath: 'maxOutputW', cell: { kind: 'number', get: (a) => a.maxOutputW ?? null, set: (a, v) => ({ ...a, maxOutputW: v }), blankAllowed: true } },
 	];
 }
 

@@ -90,6 +90,7 @@ export const amplifierSchema = z.object({
 	efficiency: positive('Efficiency').max(1, 'Efficiency is at most 1 (100 %)'),
 	quantity: z.number().int('Quantity is a whole number').min(1, 'At least one').max(50, 'At most 50'),
 	regulated: z.boolean(),
+	maxOutputW: positive('Maximum output').max(200000, 'Maximum output above 200 kW per amplifier').nullable().optional(),
 });
 
 export const steadyLoadSchema = z.object({ ...twoTerminal, currentA: nonNegative('Current').max(1000, 'Current above 1000 A') });
