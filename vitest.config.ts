@@ -14,6 +14,7 @@ export default getViteConfig({
 				extends: true,
 				test: {
 					name: 'unit',
+					setupFiles: ['tests/helpers/fast-check-setup.ts'],
 					include: ['tests/engine/**/*.test.ts', 'tests/lib/**/*.test.{ts,tsx}', 'tests/components/**/*.test.tsx'],
 				},
 			},

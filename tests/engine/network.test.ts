@@ -248,6 +248,9 @@ describe('solveNetwork: laws on generated networks (fast-check)', () => {
 		);
 	});
 
+	// Stated for what it means at a collapse: there the reported voltages belong to the largest
+	// demand that still solves, so a stronger bank may carry more demand at a slightly lower
+	// voltage. The law: the solvable demand never falls, and voltages never fall where both solve.
 	it('never lowers an amplifier’s voltage when a bank gains a parallel string (engine off, burp)', () => {
 		fc.assert(
 			fc.property(seeds, fc.nat(), (seed, pick) => {
@@ -256,7 +259,8 @@ describe('solveNetwork: laws on generated networks (fast-check)', () => {
 				const more = structuredClone(d);
 				more.banks[pick % more.banks.length]!.stringsInParallel += 1;
 				const after = solveNetwork(more, AT);
-				before.amplifiers.forEach((a, i) => expect(after.amplifiers[i]!.terminalV).toBeGreaterThanOrEqual(a.terminalV - 1e-9));
+				expect(after.solvedDemandFraction).toBeGreaterThanOrEqual(before.solvedDemandFraction - 1e-9);
+				if (before.status === 'ok' && after.status === 'ok') before.amplifiers.forEach((a, i) => expect(after.amplifiers[i]!.terminalV).toBeGreaterThanOrEqual(a.terminalV - 1e-9));
 			}),
 			{ numRuns: 60 },
 		);
