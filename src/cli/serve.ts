@@ -19,10 +19,22 @@ type Handler = (req: http.IncomingMessage, res: http.ServerResponse) => void;
 const problemBody = (status: number, code: string, detail: string) =>
 	JSON.stringify({ type: 'about:blank', title: status === 413 ? 'Content Too Large' : 'Not Found', status, code, detail });
 
+/** How long a refused upload's connection stays open, its bytes thrown away, so the client reads the answer. */
+const LINGER_MS = 2000;
+
 function refuse(res: http.ServerResponse, status: number, code: string, detail: string) {
 	if (res.headersSent) return;
-	res.writeHead(status, { 'content-type': 'application/problem+json', connection: 'close', 'x-content-type-options': 'nosniff', 'cache-control': 'no-store' });
+	const req = res.req;
+	res.writeHead(status, { 'content-type': 'application/problem+json', 'x-content-type-options': 'nosniff', 'cache-control': 'no-store' });
 	res.end(problemBody(status, code, detail));
+	// Closing at once while the client is still sending makes its system reset the connection and
+	// drop our answer unread. Linger instead: discard what still comes (nothing is kept, memory stays
+	// flat), then close.
+	if (req && !req.complete) {
+		req.on('data', () => undefined);
+		req.resume();
+		setTimeout(() => req.socket.destroy(), LINGER_MS).unref();
+	}
 }
 
 /** Which proxies may tell us the client's address: a list of addresses, or `loopback`. */
@@ -70,13 +82,11 @@ export function createFront(astro: Handler, env: Record<string, string | undefin
 			const declared = req.headers['content-length'];
 			if (declared !== undefined && Number(declared) > limit) return refuse(res, 413, 'too_large', detail);
 			let seen = 0;
-			let cut = false;
 			// Astro reads `req.body` when it is an async iterable: hand it a counted view of the stream.
 			(req as unknown as { body: AsyncIterable<Buffer> }).body = (async function* () {
 				for await (const chunk of req.iterator({ destroyOnReturn: false }) as AsyncIterable<Buffer>) {
 					seen += chunk.length;
 					if (seen > limit) {
-						cut = true;
 						refuse(res, 413, 'too_large', detail);
 						// Whatever the route answers next has nowhere to go.
 						res.writeHead = (() => res) as typeof res.writeHead;
@@ -87,9 +97,6 @@ export function createFront(astro: Handler, env: Record<string, string | undefin
 					yield chunk;
 				}
 			})();
-			res.once('finish', () => {
-				if (cut) setImmediate(() => req.socket.destroy());
-			});
 		}
 		astro(req, res);
 	};
