@@ -224,7 +224,7 @@ export function BuildWorkspaceView({ teamId, vehicleId, vehicleName, canEdit, he
 						))}
 					</ol>
 				)}
-				<a href={`/teams/${teamId}/vehicles/${vehicleId}/history`} className="mt-2 inline-block text-sm font-semibold text-copper underline">
+				<a href={`/teams/${teamId}/vehicles/${vehicleId}/history`} className="mt-2 inline-block text-sm font-semibold text-copper-dark underline">
 					Full history with changes
 				</a>
 			</section>

@@ -146,7 +146,7 @@ export function Workbench({ draft, errors, units, canEdit, onChange, subject = '
 										<td className="px-3 py-1.5 text-right">{fmt(r.sustainedDemandA, 0)} <Unit>A</Unit></td>
 										<td className="px-3 py-1.5 text-right">{fmt(r.burpDemandA, 0)} <Unit>A</Unit></td>
 										<td className="px-3 py-1.5 text-right text-teal">{fmt(r.alternatorSupplyA, 0)} <Unit>A</Unit></td>
-										<td className={`px-3 py-1.5 text-right ${r.sustainedSurplusA < 0 ? 'text-amber' : 'text-teal'}`}>
+										<td className={`px-3 py-1.5 text-right ${r.sustainedSurplusA < 0 ? 'text-amber-text' : 'text-teal'}`}>
 											{r.sustainedSurplusA < 0 ? '▼ ' : '▲ '}
 											{fmt(r.sustainedSurplusA, 0)} <Unit>A</Unit>
 										</td>
@@ -182,7 +182,7 @@ export function Workbench({ draft, errors, units, canEdit, onChange, subject = '
 										<td className="px-3 py-1.5 font-sans font-semibold">{a.label}</td>
 										<td className="px-3 py-1.5 text-right">{fmt(a.sustainedTerminalV)} <Unit>V</Unit></td>
 										<td className="px-3 py-1.5 text-right">{fmt(a.burpTerminalV)} <Unit>V</Unit></td>
-										<td className={`px-3 py-1.5 text-right ${a.burpDropV > scenario.dropTargetV ? 'text-amber' : ''}`}>{a.burpDropV > scenario.dropTargetV ? '⚠ ' : ''}{fmt(a.burpDropV)} <Unit>V</Unit></td>
+										<td className={`px-3 py-1.5 text-right ${a.burpDropV > scenario.dropTargetV ? 'text-amber-text' : ''}`}>{a.burpDropV > scenario.dropTargetV ? '⚠ ' : ''}{fmt(a.burpDropV)} <Unit>V</Unit></td>
 										<td className="px-3 py-1.5 text-right">{fmt(a.burpCurrentA, 0)} <Unit>A</Unit></td>
 										<td className="px-3 py-1.5 text-right">{fmt(a.burpOutputW, 0)} <Unit>W</Unit></td>
 										<td className="px-3 py-1.5 text-right">{fmt(a.burpOutputLossDb)} <Unit>dB</Unit></td>
@@ -221,7 +221,7 @@ export function Workbench({ draft, errors, units, canEdit, onChange, subject = '
 											<td className="num px-3 py-1.5 text-right">{fmt(Math.abs(c.burp.currentA), 0)} <Unit>A</Unit></td>
 											<td className="num px-3 py-1.5 text-right" data-testid={`drop-${c.id}`}>{fmt(Math.abs(c.burp.dropV), 3)} <Unit>V</Unit></td>
 											<td className="num px-3 py-1.5 text-right">{fmt(c.burp.lossW, 0)} <Unit>W</Unit></td>
-											<td className={`num px-3 py-1.5 text-right ${c.cmilPerAmp < c.requiredCmilPerAmp ? 'text-amber' : ''}`}>
+											<td className={`num px-3 py-1.5 text-right ${c.cmilPerAmp < c.requiredCmilPerAmp ? 'text-amber-text' : ''}`}>
 												{Number.isFinite(c.cmilPerAmp) ? fmt(c.cmilPerAmp, 0) : '—'} <Unit>({fmt(c.requiredCmilPerAmp, 0)})</Unit>
 											</td>
 											<td className="num px-3 py-1.5 text-right">{c.ampacity ? `${fmt(c.ampacity.currentA, 0)}` : '—'} <Unit>A</Unit></td>
@@ -346,10 +346,10 @@ function Readouts({ report }: { report: Extract<ReturnType<typeof buildReport>, 
 	const items = [
 		{ label: 'System settles at, burp', value: report.burp.status === 'collapse' ? 'collapse' : fmt(bus), unit: report.burp.status === 'collapse' ? '' : 'V', tone: 'text-teal' },
 		{ label: 'Lowest amplifier, burp', value: report.burp.status === 'collapse' ? 'collapse' : fmt(minBurp), unit: report.burp.status === 'collapse' ? '' : 'V', tone: report.burp.status === 'collapse' ? 'text-brick' : 'text-ink' },
-		{ label: 'Worst output loss', value: fmt(worstDb), unit: 'dB', tone: worstDb < -1 ? 'text-amber' : 'text-ink' },
+		{ label: 'Worst output loss', value: fmt(worstDb), unit: 'dB', tone: worstDb < -1 ? 'text-amber-text' : 'text-ink' },
 		{ label: 'Alternators carry', value: fmt(altShare * 100, 0), unit: '% of the burp', tone: 'text-teal' },
-		{ label: 'Banks during music', value: bankDraw > 0.5 ? `▼ ${fmt(bankDraw, 0)}` : `▲ ${fmt(-bankDraw, 0)}`, unit: bankDraw > 0.5 ? 'A out' : 'A in', tone: bankDraw > 0.5 ? 'text-amber' : 'text-teal' },
-		{ label: 'Cable loss, burp', value: fmt(report.burp.power.cableLossW, 0), unit: 'W', tone: 'text-copper' },
+		{ label: 'Banks during music', value: bankDraw > 0.5 ? `▼ ${fmt(bankDraw, 0)}` : `▲ ${fmt(-bankDraw, 0)}`, unit: bankDraw > 0.5 ? 'A out' : 'A in', tone: bankDraw > 0.5 ? 'text-amber-text' : 'text-teal' },
+		{ label: 'Cable loss, burp', value: fmt(report.burp.power.cableLossW, 0), unit: 'W', tone: 'text-copper-dark' },
 	];
 	return (
 		<section aria-label="Key figures" className="grid gap-3 sm:grid-cols-3 lg:grid-cols-6">

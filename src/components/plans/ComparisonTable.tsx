@@ -110,7 +110,7 @@ export function ComparisonTable({ data, canInstall, installing, installed, onIns
 							<Row key={v} label={`Music surplus at ${fmt(v, 1)} V`} hint={vi === 0 ? 'alternators minus demand; − is drawn from the banks' : undefined}>
 								{columns.map((c) => {
 									const b = c.budget[vi];
-									return cell(c.id, b ? `${signed(b.sustainedSurplusA, 0)} A` : '—', b && b.sustainedSurplusA < 0 ? 'text-amber' : 'text-teal');
+									return cell(c.id, b ? `${signed(b.sustainedSurplusA, 0)} A` : '—', b && b.sustainedSurplusA < 0 ? 'text-amber-text' : 'text-teal');
 								})}
 							</Row>
 						))}
@@ -121,7 +121,7 @@ export function ComparisonTable({ data, canInstall, installing, installed, onIns
 										<span className="text-teal">✓ none</span>
 									) : (
 										<details>
-											<summary className="cursor-pointer text-amber">⚠ {c.cableWarnings.length}</summary>
+											<summary className="cursor-pointer text-amber-text">⚠ {c.cableWarnings.length}</summary>
 											<ul className="mt-1 text-left text-xs">
 												{c.cableWarnings.map((w, i) => (
 													<li key={i}>{w}</li>

@@ -102,7 +102,7 @@ function PlansBoardView({ teamId, vehicleId, canEdit, currency, head: initialHea
 												/>
 											</td>
 											<td className="px-3 py-2">
-												<a href={`/teams/${teamId}/vehicles/${vehicleId}/plans/${p.id}`} className="font-semibold text-copper underline">
+												<a href={`/teams/${teamId}/vehicles/${vehicleId}/plans/${p.id}`} className="font-semibold text-copper-dark underline">
 													{p.name}
 												</a>
 												{p.notes && <p className="text-xs text-ink-soft">{p.notes}</p>}

@@ -71,7 +71,7 @@ export function ImportTeamForm() {
 			</div>
 			{progress !== null && (
 				<div role="progressbar" aria-label="Uploading the backup" aria-valuenow={progress} aria-valuemin={0} aria-valuemax={100} className="h-2 w-full max-w-md overflow-hidden rounded bg-paper">
-					<div className="h-full bg-copper transition-all" style={{ width: `${progress}%` }} />
+					<div className="h-full bg-copper-deep transition-all" style={{ width: `${progress}%` }} />
 				</div>
 			)}
 			{progress === 100 && <p role="status" className="text-sm text-ink-soft">Checking and writing the team…</p>}

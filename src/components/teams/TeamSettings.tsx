@@ -199,7 +199,7 @@ function PendingSection({ teamId }: { teamId: string }) {
 						<li key={inv.id} className="flex flex-wrap items-center gap-3 px-4 py-3 text-sm">
 							<span className="font-semibold">{inv.email}</span>
 							<span className="rounded bg-paper px-2 py-0.5 capitalize">{inv.role}</span>
-							<span className={inv.expired ? 'text-amber' : 'text-ink-soft'}>
+							<span className={inv.expired ? 'text-amber-text' : 'text-ink-soft'}>
 								{inv.expired ? '⏱ expired' : `expires ${formatDistanceToNow(new Date(inv.expiresAt), { addSuffix: true })}`}
 							</span>
 							<span className="flex-1" />

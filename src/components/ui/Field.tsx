@@ -49,7 +49,7 @@ export function FormMessage({ tone, children }: { tone: 'error' | 'ok' | 'info';
 
 export function Button({ children, variant = 'primary', busy, className = '', ...rest }: React.ButtonHTMLAttributes<HTMLButtonElement> & { variant?: 'primary' | 'secondary' | 'danger'; busy?: boolean }) {
 	const styles = {
-		primary: 'bg-copper text-white hover:bg-copper-dark',
+		primary: 'bg-copper-deep text-white hover:bg-copper-dark',
 		secondary: 'border border-hairline bg-card text-ink hover:border-copper',
 		danger: 'bg-brick text-white hover:bg-brick/90',
 	}[variant];
