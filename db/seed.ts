@@ -15,7 +15,7 @@ import { DEMO_BUILDS, DEMO_HISTORIES } from './demo/builds';
 import { DEMO_PLANS } from './demo/plans';
 import { DEMO_EVENTS, DEMO_RUNS, demoTrace } from './demo/runs';
 import type { Storage } from '../src/lib/server/storage';
-import type { Database } from './schema';
+import type { Database } from '../src/lib/server/db/schema';
 
 export const DEMO_TEAM_NAME = 'Harbour Street Sag Club';
 

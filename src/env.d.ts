@@ -2,7 +2,7 @@
 
 declare namespace App {
 	interface Locals {
-		db: import('kysely').Kysely<import('../db/schema').Database>;
+		db: import('kysely').Kysely<import('./lib/server/db/schema').Database>;
 		user: import('./lib/server/auth').AppUser | null;
 		mailer: import('./lib/server/mail').Mailer;
 		config: import('./lib/server/config').ServerConfig;

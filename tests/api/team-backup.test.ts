@@ -1,7 +1,7 @@
 import { createHash } from 'node:crypto';
 import type { Kysely } from 'kysely';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import type { Database } from '../../db/schema';
+import type { Database } from '../../src/lib/server/db/schema';
 import { DEMO_USERS, seedDemo } from '../../db/seed';
 import type { AppUser } from '../../src/lib/server/auth';
 import { appendRevision, findHeadRevision } from '../../src/lib/server/db/builds';

@@ -1,6 +1,6 @@
 import { randomUUID } from 'node:crypto';
 import type { Kysely } from 'kysely';
-import type { Database, Role } from '../../db/schema';
+import type { Database, Role } from '../../src/lib/server/db/schema';
 import type { AppUser } from '../../src/lib/server/auth';
 import type { ServerConfig } from '../../src/lib/server/config';
 import type { Mailer } from '../../src/lib/server/mail';

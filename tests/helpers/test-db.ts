@@ -1,6 +1,6 @@
 import { type Kysely, sql } from 'kysely';
 import { inject } from 'vitest';
-import type { Database } from '../../db/schema';
+import type { Database } from '../../src/lib/server/db/schema';
 import { createDb } from '../../src/lib/server/db/client';
 
 export interface TestDb {

@@ -1,5 +1,5 @@
 import type { Kysely } from 'kysely';
-import type { Database } from '../../../db/schema';
+import type { Database } from '@/lib/server/db/schema';
 import type { SignUpInput } from '../schemas/account';
 import { insertUser } from './db/users';
 import { type FieldError, problem } from './http';

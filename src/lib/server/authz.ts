@@ -1,4 +1,4 @@
-import type { Role } from '../../../db/schema';
+import type { Role } from '@/lib/server/db/schema';
 import { parseUuid } from '../schemas/ids';
 import { findMembership } from './db/teams';
 import { problem } from './http';

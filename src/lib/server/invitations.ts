@@ -1,4 +1,4 @@
-import type { InvitationRow } from '../../../db/schema';
+import type { InvitationRow } from '@/lib/server/db/schema';
 import type { TeamAccess } from './authz';
 import { findInvitationByTokenHash } from './db/teams';
 import { invitationMail } from './mail-templates';

@@ -1,6 +1,6 @@
 import { addDays, format } from 'date-fns';
 import { type Kysely, sql } from 'kysely';
-import type { Database } from '../../../db/schema';
+import type { Database } from '@/lib/server/db/schema';
 import type { ServerConfig } from './config';
 import type { Mailer } from './mail';
 

@@ -1,5 +1,5 @@
 import type { AstroGlobal } from 'astro';
-import type { Role } from '../../../db/schema';
+import type { Role } from '@/lib/server/db/schema';
 import { parseUuid } from '../schemas/ids';
 import { type TeamAccess, requireTeamRole } from './authz';
 import { findBuildForVehicle, findVehicle } from './db/builds';

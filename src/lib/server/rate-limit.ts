@@ -1,5 +1,5 @@
 import { type Kysely, sql } from 'kysely';
-import type { Database } from '../../../db/schema';
+import type { Database } from '@/lib/server/db/schema';
 import { countRecentFailures, recordSignInAttempt } from './db/users';
 
 export const SIGN_IN_WINDOW_MS = 60_000;

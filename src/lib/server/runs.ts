@@ -2,7 +2,7 @@ import type { z } from 'zod';
 import type { runFieldsSchema } from '../schemas/events';
 import { findVehicle } from './db/builds';
 import { findEvent, revisionBelongsTo, revisionInForce } from './db/runs';
-import type { Role } from '../../../db/schema';
+import type { Role } from '@/lib/server/db/schema';
 import { parseUuid } from '../schemas/ids';
 import { requireTeamRole } from './authz';
 import { findRun } from './db/runs';

@@ -1,6 +1,6 @@
 import { createHash, randomBytes, randomUUID } from 'node:crypto';
 import type { Kysely } from 'kysely';
-import type { Database, Role } from '../../../db/schema';
+import type { Database, Role } from '@/lib/server/db/schema';
 import type { BuildDocument } from '@/engine/types';
 import { BACKUP_FORMAT, BACKUP_VERSION, backupEnvelopeSchema, type TeamBackup, type TeamBackupContent, teamBackupContentSchema } from '@/lib/schemas/team-backup';
 import { findControlCharacter, NOTES_MESSAGE } from '@/lib/schemas/text';

@@ -1,4 +1,4 @@
-import type { Role } from '../../../db/schema';
+import type { Role } from '@/lib/server/db/schema';
 import { parseUuid } from '../schemas/ids';
 import { type TeamAccess, requireTeamRole } from './authz';
 import { findBuildForVehicle, findRevision, findVehicle } from './db/builds';

@@ -1,4 +1,4 @@
-import type { VehicleRow } from '../../../db/schema';
+import type { VehicleRow } from '@/lib/server/db/schema';
 
 export interface VehicleDto {
 	id: string;

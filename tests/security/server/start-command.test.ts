@@ -31,7 +31,7 @@ describe('npm start when its server is killed', () => {
 		await sql`create database ${sql.id(dbName)} template ${sql.id(`sagwise_template_${process.env.SAGWISE_TEST_RUN}`)}`.execute(admin);
 		await admin.destroy();
 
-		start = spawn(process.execPath, ['--import', 'tsx', 'src/cli/start.ts'], {
+		start = spawn(process.execPath, ['--import', 'tsx', 'cli/start.ts'], {
 			env: { ...process.env, PORT: String(PORTS.app), DATABASE_URL: cluster.url(dbName), SAGWISE_SMTP_PORT: String(PORTS.smtp), SAGWISE_S3_PORT: String(PORTS.s3), AUTH_SECRET: 'test-secret-not-for-production-0123456789' },
 			stdio: ['ignore', 'pipe', 'pipe'],
 		});

@@ -1,5 +1,5 @@
 import type { Kysely } from 'kysely';
-import type { Database, RevisionRow } from '../../../../db/schema';
+import type { Database, RevisionRow } from '@/lib/server/db/schema';
 import type { BuildDocument } from '@/engine/types';
 
 type Db = Kysely<Database>;

@@ -1,6 +1,6 @@
 import { Kysely, PostgresDialect } from 'kysely';
 import pg from 'pg';
-import type { Database } from '../../../../db/schema';
+import type { Database } from '@/lib/server/db/schema';
 
 // bigint counts come back as numbers; double precision is already a number, timestamps a Date.
 pg.types.setTypeParser(pg.types.builtins.INT8, (value) => Number(value));

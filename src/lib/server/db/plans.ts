@@ -1,5 +1,5 @@
 import { type Kysely, sql } from 'kysely';
-import type { Database } from '../../../../db/schema';
+import type { Database } from '@/lib/server/db/schema';
 import type { BuildDocument } from '@/engine/types';
 import type { PlanPartInput, UpdatePlanInput } from '@/lib/schemas/plans';
 import { appendRevision, type SaveResult, shownAuthor } from './builds';

@@ -1,5 +1,5 @@
 import { type Kysely, sql } from 'kysely';
-import type { Database, InvitationRow, Role } from '../../../../db/schema';
+import type { Database, InvitationRow, Role } from '@/lib/server/db/schema';
 
 type Db = Kysely<Database>;
 

@@ -1,6 +1,6 @@
 import { randomUUID } from 'node:crypto';
 import { type Kysely, sql } from 'kysely';
-import type { Database, UserRow } from '../../../../db/schema';
+import type { Database, UserRow } from '@/lib/server/db/schema';
 
 type Db = Kysely<Database>;
 

@@ -12,7 +12,7 @@ import http from 'node:http';
 import { isIP } from 'node:net';
 import path from 'node:path';
 import { pathToFileURL } from 'node:url';
-import { bodyLimitFor } from '../lib/server/body-limits';
+import { bodyLimitFor } from '../src/lib/server/body-limits';
 
 type Handler = (req: http.IncomingMessage, res: http.ServerResponse) => void;
 

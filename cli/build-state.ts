@@ -1,7 +1,7 @@
 import { existsSync, readdirSync, statSync } from 'node:fs';
 import path from 'node:path';
 
-const SOURCES = ['src', 'db', 'public', 'astro.config.mjs', 'auth.config.ts', 'package-lock.json', 'tsconfig.json'];
+const SOURCES = ['src', 'db', 'cli', 'public', 'astro.config.mjs', 'auth.config.ts', 'package-lock.json', 'tsconfig.json'];
 
 function newestMtime(entry: string): number {
 	if (!existsSync(entry)) return 0;
