@@ -7,7 +7,7 @@ import path from 'node:path';
 import { fileURLToPath } from 'node:url';
 import type { Kysely } from 'kysely';
 import { createDb } from '../src/lib/server/db/client';
-import { measurementColumns } from '../src/lib/server/db/runs';
+import { measurementColumns } from '../src/lib/schemas/run-measurements';
 import { hashPassword } from '../src/lib/server/passwords';
 import { DEFAULT_CLUSTER, ensureCluster } from './cluster';
 import { migrateToLatest } from './migrator';

@@ -1,5 +1,4 @@
-import { M_PER_FT, M_PER_IN, type UnitSystem } from '@/engine/units';
-import { MM2_PER_CMIL } from '@/engine/conductors';
+import { M_PER_FT, M_PER_IN, MM2_PER_CMIL, type UnitSystem } from '@/engine';
 
 export type { UnitSystem };
 

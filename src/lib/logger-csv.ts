@@ -1,5 +1,5 @@
 import Papa from 'papaparse';
-import type { Sample } from '@/engine/run-analysis';
+import type { Sample } from '@/engine';
 
 export interface ColumnMapping {
 	time: string;

@@ -1,7 +1,8 @@
 import { format } from 'date-fns';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { pebbleBuild } from '../../db/demo/builds';
-import { appendRevision, insertVehicleWithBuild } from '../../src/lib/server/db/builds';
+import { appendRevision } from '../../src/lib/server/db/builds';
+import { insertVehicleWithBuild } from '../../src/lib/server/db/vehicles';
 import { sendEventReminders, sendRevisionDigests } from '../../src/lib/server/jobs';
 import { addMember, makeTeam, makeUser, TEST_CONFIG } from '../helpers/fixtures';
 import { startTestMail, type TestMail } from '../helpers/mail';

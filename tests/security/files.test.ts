@@ -1,7 +1,7 @@
 import sharp from 'sharp';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import type { AppUser } from '../../src/lib/server/auth';
-import { insertVehicleWithBuild } from '../../src/lib/server/db/builds';
+import { insertVehicleWithBuild } from '../../src/lib/server/db/vehicles';
 import { sweepOrphanObjects } from '../../src/lib/server/object-cleanup';
 import * as team from '../../src/pages/api/teams/[teamId]';
 import * as file from '../../src/pages/api/teams/[teamId]/files/[fileId]';

@@ -1,28 +1,27 @@
 import { useState } from 'react';
 import { passwordResetConfirmSchema, passwordResetRequestSchema } from '@/lib/schemas/account';
-import { ApiError, postJson } from '@/lib/client/api-client';
+import { ApiError } from '@/lib/client/api-client';
+import { useConfirmPasswordReset, useRequestPasswordReset } from '@/lib/client/queries/account';
+import { withQueryClient } from '@/lib/client/query-client';
 import { fieldErrors } from '@/lib/client/form-errors';
-import { Button, Field, FormMessage } from '../ui/Field';
+import { Button, Field, FormMessage } from '@/components/ui/Field';
 
-export function ForgotPasswordForm() {
+export const ForgotPasswordForm = withQueryClient(function ForgotPasswordForm() {
+	const request = useRequestPasswordReset();
 	const [email, setEmail] = useState('');
 	const [error, setError] = useState<string | undefined>();
 	const [sent, setSent] = useState(false);
-	const [busy, setBusy] = useState(false);
 
 	async function submit(event: React.FormEvent) {
 		event.preventDefault();
 		const parsed = passwordResetRequestSchema.safeParse({ email });
 		if (!parsed.success) return setError(fieldErrors(parsed.error).email);
 		setError(undefined);
-		setBusy(true);
 		try {
-			await postJson('/api/account/password-reset', parsed.data);
+			await request.mutateAsync(parsed.data);
 			setSent(true);
 		} catch (e) {
 			setError(e instanceof ApiError ? e.message : 'Could not reach the server.');
-		} finally {
-			setBusy(false);
 		}
 	}
 
@@ -30,32 +29,29 @@ export function ForgotPasswordForm() {
 	return (
 		<form onSubmit={submit} noValidate className="flex flex-col gap-4" aria-label="Reset the password">
 			<Field label="E-mail" type="email" name="email" autoComplete="email" value={email} onChange={(e) => setEmail(e.target.value)} error={error} required />
-			<Button type="submit" busy={busy}>
+			<Button type="submit" busy={request.isPending}>
 				Send a reset link
 			</Button>
 		</form>
 	);
-}
+});
 
-export function ResetPasswordForm({ token }: { token: string }) {
+export const ResetPasswordForm = withQueryClient(function ResetPasswordForm({ token }: { token: string }) {
+	const confirm = useConfirmPasswordReset();
 	const [password, setPassword] = useState('');
 	const [error, setError] = useState<string | undefined>();
 	const [message, setMessage] = useState<{ tone: 'error' | 'ok'; text: string } | null>(null);
-	const [busy, setBusy] = useState(false);
 
 	async function submit(event: React.FormEvent) {
 		event.preventDefault();
 		const parsed = passwordResetConfirmSchema.safeParse({ token, password });
 		if (!parsed.success) return setError(fieldErrors(parsed.error).password ?? fieldErrors(parsed.error).token);
 		setError(undefined);
-		setBusy(true);
 		try {
-			await postJson('/api/account/password-reset/confirm', parsed.data);
+			await confirm.mutateAsync(parsed.data);
 			setMessage({ tone: 'ok', text: 'Your password is changed. Sign in with the new one.' });
 		} catch (e) {
 			setMessage({ tone: 'error', text: e instanceof ApiError ? e.message : 'Could not reach the server.' });
-		} finally {
-			setBusy(false);
 		}
 	}
 
@@ -67,9 +63,9 @@ export function ResetPasswordForm({ token }: { token: string }) {
 					{message.text} {message.tone === 'ok' && <a href="/sign-in" className="font-semibold underline">Sign in</a>}
 				</FormMessage>
 			)}
-			<Button type="submit" busy={busy} disabled={message?.tone === 'ok'}>
+			<Button type="submit" busy={confirm.isPending} disabled={message?.tone === 'ok'}>
 				Set the new password
 			</Button>
 		</form>
 	);
-}
+});

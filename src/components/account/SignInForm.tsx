@@ -2,7 +2,7 @@ import { useState } from 'react';
 import { emailSchema, signInSchema } from '@/lib/schemas/account';
 import { requestSignInLink, signInWithPassword } from '@/lib/client/auth-client';
 import { fieldErrors } from '@/lib/client/form-errors';
-import { Button, Field, FormMessage } from '../ui/Field';
+import { Button, Field, FormMessage } from '@/components/ui/Field';
 
 export interface SignInFormProps {
 	callbackUrl: string;

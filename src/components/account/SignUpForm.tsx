@@ -1,9 +1,11 @@
 import { useState } from 'react';
 import { signUpSchema } from '@/lib/schemas/account';
-import { ApiError, postJson } from '@/lib/client/api-client';
+import { ApiError } from '@/lib/client/api-client';
+import { useSignUp } from '@/lib/client/queries/account';
+import { withQueryClient } from '@/lib/client/query-client';
 import { signInWithPassword } from '@/lib/client/auth-client';
 import { fieldErrors } from '@/lib/client/form-errors';
-import { Button, Field, FormMessage } from '../ui/Field';
+import { Button, Field, FormMessage } from '@/components/ui/Field';
 
 export interface SignUpFormProps {
 	callbackUrl: string;
@@ -13,11 +15,12 @@ export interface SignUpFormProps {
 	initial?: { name?: string; email?: string; errors?: Record<string, string>; message?: string | null };
 }
 
-export function SignUpForm({ callbackUrl, email: invitedEmail, initial }: SignUpFormProps) {
+export const SignUpForm = withQueryClient(function SignUpForm({ callbackUrl, email: invitedEmail, initial }: SignUpFormProps) {
+	const signUp = useSignUp();
+	const [signingIn, setSigningIn] = useState(false);
 	const [values, setValues] = useState({ name: initial?.name ?? '', email: invitedEmail ?? initial?.email ?? '', password: '' });
 	const [errors, setErrors] = useState<Record<string, string>>(initial?.errors ?? {});
 	const [message, setMessage] = useState<string | null>(initial?.message ?? null);
-	const [busy, setBusy] = useState(false);
 	const set = (key: keyof typeof values) => (e: React.ChangeEvent<HTMLInputElement>) => setValues((v) => ({ ...v, [key]: e.target.value }));
 
 	async function submit(event: React.FormEvent) {
@@ -26,19 +29,20 @@ export function SignUpForm({ callbackUrl, email: invitedEmail, initial }: SignUp
 		const parsed = signUpSchema.safeParse(values);
 		if (!parsed.success) return setErrors(fieldErrors(parsed.error));
 		setErrors({});
-		setBusy(true);
 		try {
-			await postJson('/api/account/sign-up', parsed.data);
+			await signUp.mutateAsync(parsed.data);
+			setSigningIn(true);
 			const outcome = await signInWithPassword(parsed.data.email, parsed.data.password, callbackUrl);
 			if (outcome.ok) window.location.href = outcome.url;
-			else setMessage(outcome.message);
+			else {
+				setSigningIn(false);
+				setMessage(outcome.message);
+			}
 		} catch (error) {
 			if (error instanceof ApiError) {
 				setErrors(error.byField());
 				setMessage(error.message);
 			} else setMessage('Could not reach the server. Check the connection and try again.');
-		} finally {
-			setBusy(false);
 		}
 	}
 
@@ -48,9 +52,9 @@ export function SignUpForm({ callbackUrl, email: invitedEmail, initial }: SignUp
 			<Field label="E-mail" name="email" type="email" autoComplete="email" value={values.email} onChange={set('email')} readOnly={Boolean(invitedEmail)} error={errors.email} hint={invitedEmail ? 'The address the invitation was sent to' : undefined} required />
 			<Field label="Password" name="password" type="password" autoComplete="new-password" value={values.password} onChange={set('password')} error={errors.password} hint="At least 10 characters" required />
 			{message && <FormMessage tone="error">{message}</FormMessage>}
-			<Button type="submit" busy={busy}>
+			<Button type="submit" busy={signUp.isPending || signingIn}>
 				Create the account
 			</Button>
 		</form>
 	);
-}
+});

@@ -1,14 +1,15 @@
-import { QueryClientProvider, useQuery, useQueryClient } from '@tanstack/react-query';
+import { QueryClientProvider, useQuery } from '@tanstack/react-query';
 import { formatDistanceToNow } from 'date-fns';
 import { useEffect, useMemo, useState } from 'react';
-import { diffBuilds } from '@/engine/diff';
-import type { BuildDocument } from '@/engine/types';
+import { diffBuilds } from '@/engine';
+import type { BuildDocument } from '@/engine';
 import { parseBuildDocument } from '@/lib/schemas/build-document';
-import { ApiError, postJson, sendJson } from '@/lib/client/api-client';
+import { ApiError } from '@/lib/client/api-client';
+import { useSetUnits } from '@/lib/client/queries/account';
 import { getQueryClient } from '@/lib/client/query-client';
-import { buildKeys, type RevisionDto, type RevisionSummary, revisionsQueryOptions } from '@/lib/client/queries/builds';
+import { fetchHeadRevision, type RevisionDto, type RevisionSummary, revisionsQueryOptions, useSaveRevision } from '@/lib/client/queries/builds';
 import { fieldName, formatFieldValue, GROUP_NAMES, type UnitSystem } from '@/lib/format';
-import { Button, FormMessage } from '../ui/Field';
+import { Button, FormMessage } from '@/components/ui/Field';
 import { clearDraft, loadDraft, storeDraft } from './draft-store';
 import { starterDocument } from './new-parts';
 import { validateDraft, Workbench } from './Workbench';
@@ -32,7 +33,8 @@ export function BuildWorkspace(props: BuildWorkspaceProps) {
 }
 
 export function BuildWorkspaceView({ teamId, vehicleId, vehicleName, canEdit, head: initialHead, revisions: initialRevisions, units: initialUnits }: BuildWorkspaceProps) {
-	const qc = useQueryClient();
+	const saveRevision = useSaveRevision(teamId, vehicleId);
+	const setUnitsOnAccount = useSetUnits();
 	const [head, setHead] = useState<RevisionDto | null>(initialHead);
 	const baseDoc = head?.document ?? starterDocument();
 	const [draft, setDraft] = useState<BuildDocument>(baseDoc);
@@ -68,7 +70,7 @@ export function BuildWorkspaceView({ teamId, vehicleId, vehicleName, canEdit, he
 	async function save(parentId: string | null) {
 		setSaveState({ busy: true, error: null, ok: null, conflict: null });
 		try {
-			const saved = await postJson<RevisionDto>(`/api/teams/${teamId}/vehicles/${vehicleId}/revisions`, { parentId, message, document: draft });
+			const saved = await saveRevision.mutateAsync({ parentId, message, document: draft });
 			clearDraft(vehicleId);
 			setHead(saved);
 			setBaseId(saved.id);
@@ -76,13 +78,10 @@ export function BuildWorkspaceView({ teamId, vehicleId, vehicleName, canEdit, he
 			setMessage('');
 			setRestored(null);
 			setSaveState({ busy: false, error: null, ok: `Saved as revision ${saved.number}.`, conflict: null });
-			await qc.invalidateQueries({ queryKey: buildKeys.revisions(vehicleId) });
 		} catch (e) {
 			if (e instanceof ApiError && e.status === 409) {
-				const res = await fetch(`/api/teams/${teamId}/vehicles/${vehicleId}`);
-				const vehicle = (await res.json()) as { headRevisionId: string };
-				const theirs = await (await fetch(`/api/teams/${teamId}/vehicles/${vehicleId}/revisions/${vehicle.headRevisionId}`)).json();
-				setSaveState({ busy: false, error: e.message, ok: null, conflict: theirs as RevisionDto });
+				const theirs = await fetchHeadRevision(teamId, vehicleId).catch(() => null);
+				setSaveState({ busy: false, error: e.message, ok: null, conflict: theirs });
 			} else {
 				setSaveState({ busy: false, error: e instanceof ApiError ? e.message : 'Could not reach the server; your draft is kept in this browser.', ok: null, conflict: null });
 			}
@@ -91,7 +90,7 @@ export function BuildWorkspaceView({ teamId, vehicleId, vehicleName, canEdit, he
 
 	async function saveUnits(next: UnitSystem) {
 		setUnits(next);
-		await sendJson('/api/account/preferences', 'PATCH', { unitSystem: next }).catch(() => undefined);
+		setUnitsOnAccount.mutate(next);
 	}
 
 

@@ -1,8 +1,7 @@
 import { CategoryScale, Chart as ChartJS, Filler, Legend, LinearScale, LineElement, PointElement, Tooltip } from 'chart.js';
 import { useMemo } from 'react';
 import { Line } from 'react-chartjs-2';
-import type { BudgetRow } from '@/engine/budget';
-import type { BurpRun } from '@/engine/burp';
+import type { BudgetRow, BurpRun } from '@/engine';
 import { toBudgetChartData, toBurpChartData } from './chart-data';
 
 ChartJS.register(CategoryScale, LinearScale, PointElement, LineElement, Filler, Tooltip, Legend);

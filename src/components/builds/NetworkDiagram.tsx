@@ -1,6 +1,6 @@
 import { useMemo } from 'react';
-import { cableAreaMm2 } from '@/engine/conductors';
-import type { BuildDocument, NodeKind } from '@/engine/types';
+import { cableAreaMm2 } from '@/engine';
+import type { BuildDocument, NodeKind } from '@/engine';
 
 const COLUMN: Record<NodeKind, number> = { alternator: 0, junction: 0, battery: 1, block: 2, amplifier: 3, chassis: 4 };
 const W = 880;

@@ -1,14 +1,16 @@
 import { useState } from 'react';
 import { newVehicleSchema } from '@/lib/schemas/vehicles';
-import { ApiError, postJson } from '@/lib/client/api-client';
+import { ApiError } from '@/lib/client/api-client';
+import { useCreateVehicle } from '@/lib/client/queries/builds';
+import { withQueryClient } from '@/lib/client/query-client';
 import { fieldErrors } from '@/lib/client/form-errors';
-import { Button, Field } from '../ui/Field';
+import { Button, Field } from '@/components/ui/Field';
 
-export function NewVehicleForm({ teamId }: { teamId: string }) {
+export const NewVehicleForm = withQueryClient(function NewVehicleForm({ teamId }: { teamId: string }) {
+	const create = useCreateVehicle(teamId);
 	const [open, setOpen] = useState(false);
 	const [values, setValues] = useState({ name: '', description: '', competitionClass: '' });
 	const [errors, setErrors] = useState<Record<string, string>>({});
-	const [busy, setBusy] = useState(false);
 	if (!open)
 		return (
 			<Button variant="secondary" onClick={() => setOpen(true)}>
@@ -25,22 +27,20 @@ export function NewVehicleForm({ teamId }: { teamId: string }) {
 				e.preventDefault();
 				const parsed = newVehicleSchema.safeParse(values);
 				if (!parsed.success) return setErrors(fieldErrors(parsed.error));
-				setBusy(true);
 				try {
-					const v = await postJson<{ id: string }>(`/api/teams/${teamId}/vehicles`, parsed.data);
+					const v = await create.mutateAsync(parsed.data);
 					window.location.href = `/teams/${teamId}/vehicles/${v.id}`;
 				} catch (err) {
 					setErrors(err instanceof ApiError ? { name: err.message, ...err.byField() } : { name: 'Could not reach the server' });
-					setBusy(false);
 				}
 			}}
 		>
 			<Field label="Name" value={values.name} onChange={set('name')} error={errors.name} />
 			<Field label="Year, make and model" value={values.description} onChange={set('description')} error={errors.description} />
 			<Field label="Competition class" value={values.competitionClass} onChange={set('competitionClass')} error={errors.competitionClass} />
-			<Button type="submit" busy={busy}>
+			<Button type="submit" busy={create.isPending || create.isSuccess}>
 				Add the vehicle
 			</Button>
 		</form>
 	);
-}
+});

@@ -1,9 +1,11 @@
 import { useState } from 'react';
 import { updateVehicleSchema } from '@/lib/schemas/vehicles';
-import { ApiError, sendJson } from '@/lib/client/api-client';
+import { ApiError } from '@/lib/client/api-client';
+import { useUpdateVehicle } from '@/lib/client/queries/builds';
+import { withQueryClient } from '@/lib/client/query-client';
 import { fieldErrors } from '@/lib/client/form-errors';
-import type { VehicleDto } from '@/lib/server/vehicles-dto';
-import { Button, Field, FormMessage } from '../ui/Field';
+import type { VehicleDto } from '@/lib/schemas/vehicles';
+import { Button, Field, FormMessage } from '@/components/ui/Field';
 
 export interface VehicleDetailsFormProps {
 	teamId: string;
@@ -12,22 +14,22 @@ export interface VehicleDetailsFormProps {
 }
 
 /** Name, description, class, notes and owner of a vehicle; archiving keeps its history readable. */
-export function VehicleDetailsForm({ teamId, vehicle, members }: VehicleDetailsFormProps) {
+export const VehicleDetailsForm = withQueryClient(function VehicleDetailsForm({ teamId, vehicle, members }: VehicleDetailsFormProps) {
+	const update = useUpdateVehicle(teamId, vehicle.id);
 	const [open, setOpen] = useState(false);
 	const [values, setValues] = useState({ name: vehicle.name, description: vehicle.description, competitionClass: vehicle.competitionClass, notes: vehicle.notes, ownerId: vehicle.ownerId });
 	const [errors, setErrors] = useState<Record<string, string>>({});
-	const [state, setState] = useState<{ busy: boolean; message: string | null; tone: 'ok' | 'error' }>({ busy: false, message: null, tone: 'ok' });
-	const url = `/api/teams/${teamId}/vehicles/${vehicle.id}`;
+	const [state, setState] = useState<{ message: string | null; tone: 'ok' | 'error' }>({ message: null, tone: 'ok' });
 
-	async function patch(body: unknown, reload = false) {
-		setState({ busy: true, message: null, tone: 'ok' });
+	async function patch(body: Parameters<typeof update.mutateAsync>[0], reload = false) {
+		setState({ message: null, tone: 'ok' });
 		try {
-			await sendJson(url, 'PATCH', body);
+			await update.mutateAsync(body);
 			if (reload) window.location.reload();
-			else setState({ busy: false, message: 'Saved.', tone: 'ok' });
+			else setState({ message: 'Saved.', tone: 'ok' });
 		} catch (e) {
 			if (e instanceof ApiError) setErrors(e.byField());
-			setState({ busy: false, message: e instanceof ApiError ? e.message : 'Could not reach the server.', tone: 'error' });
+			setState({ message: e instanceof ApiError ? e.message : 'Could not reach the server.', tone: 'error' });
 		}
 	}
 
@@ -71,7 +73,7 @@ export function VehicleDetailsForm({ teamId, vehicle, members }: VehicleDetailsF
 			</div>
 			<Field label="Notes" value={values.notes} onChange={set('notes')} error={errors.notes} />
 			<div className="flex flex-wrap items-center gap-3">
-				<Button type="submit" busy={state.busy}>
+				<Button type="submit" busy={update.isPending}>
 					Save details
 				</Button>
 				<Button type="button" variant="secondary" onClick={() => void patch({ archived: !vehicle.archived }, true)}>
@@ -84,4 +86,4 @@ export function VehicleDetailsForm({ teamId, vehicle, members }: VehicleDetailsF
 			{state.message && <FormMessage tone={state.tone}>{state.message}</FormMessage>}
 		</form>
 	);
-}
+});

@@ -1,12 +1,9 @@
 import { useDeferredValue, useMemo, useState } from 'react';
-import { runBurp } from '@/engine/burp';
-import { upgradeHints } from '@/engine/hints';
-import { buildReport, DEFAULT_SCENARIO, type ReportWarning } from '@/engine/report';
-import { checkTopology } from '@/engine/topology';
-import type { BuildDocument, Scenario } from '@/engine/types';
+import { buildReport, checkTopology, DEFAULT_SCENARIO, type ReportWarning, runBurp, upgradeHints } from '@/engine';
+import type { BuildDocument, Scenario } from '@/engine';
 import { buildDocumentSchema } from '@/lib/schemas/build-document';
 import { fmt, lengthUnit, toLengthDisplay, type UnitSystem } from '@/lib/format';
-import { FormMessage } from '../ui/Field';
+import { FormMessage } from '@/components/ui/Field';
 import { BudgetChart, BurpChart } from './Charts';
 import { alternatorColumns, amplifierColumns, bankColumns, cableColumns, loadColumns, nodeColumns } from './editor-columns';
 import { NetworkDiagram } from './NetworkDiagram';

@@ -1,5 +1,4 @@
-import type { BudgetRow } from '@/engine/budget';
-import type { BurpRun } from '@/engine/burp';
+import type { BudgetRow, BurpRun } from '@/engine';
 
 /** Token colours (the @theme palette), for Chart.js which cannot read CSS variables. */
 export const CHART_COLOURS = { copper: '#b8652a', teal: '#137c82', amber: '#c98a0b', brick: '#b3261e', ink: '#1d262e', soft: '#55616b' };

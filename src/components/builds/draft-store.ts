@@ -1,4 +1,4 @@
-import type { BuildDocument } from '@/engine/types';
+import type { BuildDocument } from '@/engine';
 
 export interface StoredDraft {
 	baseRevisionId: string | null;

@@ -1,6 +1,4 @@
-import { AWG_SIZES, type Alternator, type Amplifier, type BatteryBank, type BuildNode, type Cable, CHEMISTRIES, MATERIALS, NODE_KINDS, type SteadyLoad } from '@/engine/types';
-import { MATERIAL_PROPS } from '@/engine/conductors';
-import { CHEMISTRY_PROPS } from '@/engine/battery';
+import { type Alternator, type Amplifier, AWG_SIZES, type BatteryBank, type BuildNode, type Cable, CHEMISTRIES, CHEMISTRY_PROPS, MATERIAL_PROPS, MATERIALS, NODE_KINDS, type SteadyLoad } from '@/engine';
 import { fromLengthDisplay, fromShortDisplay, lengthUnit, shortUnit, toLengthDisplay, toShortDisplay, type UnitSystem } from '@/lib/format';
 import type { PartColumn } from './PartTable';
 

@@ -1,5 +1,5 @@
-import { alternatorWithDefaults, amplifierWithDefaults, bankWithDefaults } from '@/engine/defaults';
-import type { Alternator, Amplifier, BatteryBank, BuildDocument, BuildNode, Cable, SteadyLoad } from '@/engine/types';
+import { alternatorWithDefaults, amplifierWithDefaults, bankWithDefaults } from '@/engine';
+import type { Alternator, Amplifier, BatteryBank, BuildDocument, BuildNode, Cable, SteadyLoad } from '@/engine';
 
 /** An id not yet used in the document: `${prefix}-1`, `${prefix}-2`, … */
 export function freshId(doc: BuildDocument, prefix: string): string {

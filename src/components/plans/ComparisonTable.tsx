@@ -3,8 +3,8 @@ import { useMemo } from 'react';
 import { Bar } from 'react-chartjs-2';
 import type { ComparisonColumn, ComparisonDto } from '@/lib/client/queries/plans';
 import { fmt, formatMoney } from '@/lib/format';
-import { CHART_COLOURS } from '../builds/chart-data';
-import { Button } from '../ui/Field';
+import { CHART_COLOURS } from '@/components/builds/chart-data';
+import { Button } from '@/components/ui/Field';
 
 ChartJS.register(CategoryScale, LinearScale, BarElement, Tooltip, Legend);
 

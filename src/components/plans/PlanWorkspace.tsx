@@ -1,15 +1,15 @@
-import { QueryClientProvider, useQueryClient } from '@tanstack/react-query';
+import { QueryClientProvider } from '@tanstack/react-query';
 import { useEffect, useMemo, useState } from 'react';
-import { diffBuilds } from '@/engine/diff';
-import type { BuildDocument } from '@/engine/types';
-import { ApiError, postJson, sendJson } from '@/lib/client/api-client';
+import { diffBuilds } from '@/engine';
+import type { BuildDocument } from '@/engine';
+import { ApiError } from '@/lib/client/api-client';
 import { getQueryClient } from '@/lib/client/query-client';
-import { planKeys, type PlanDto } from '@/lib/client/queries/plans';
+import { fetchPlan, type PlanDto, useDeletePlan, useInstallPlan, useSavePlan } from '@/lib/client/queries/plans';
 import type { RevisionDto } from '@/lib/client/queries/builds';
 import { fieldName, formatFieldValue, formatMoney, GROUP_NAMES, type UnitSystem } from '@/lib/format';
 import { planPartSchema } from '@/lib/schemas/plans';
-import { Button, FormMessage } from '../ui/Field';
-import { validateDraft, Workbench } from '../builds/Workbench';
+import { Button, FormMessage } from '@/components/ui/Field';
+import { validateDraft, Workbench } from '@/components/builds/Workbench';
 
 export interface PlanWorkspaceProps {
 	teamId: string;
@@ -68,7 +68,9 @@ const toDraft = (p: PlanDto['parts'][number]): PartDraft => ({ item: p.item, qua
 const fromDraft = (p: PartDraft) => ({ item: p.item, quantity: Number(p.quantity), unitPrice: Number(p.unitPrice), link: p.link });
 
 function PlanWorkspaceView({ teamId, vehicleId, canEdit, currency, plan: initialPlan, baseDocument, head, units }: PlanWorkspaceProps) {
-	const qc = useQueryClient();
+	const savePlan = useSavePlan(teamId, vehicleId, initialPlan.id);
+	const installPlan = useInstallPlan(teamId, vehicleId);
+	const deletePlan = useDeletePlan(teamId, vehicleId);
 	const [plan, setPlan] = useState(initialPlan);
 	const [name, setName] = useState(plan.name);
 	const [notes, setNotes] = useState(plan.notes);
@@ -123,19 +125,18 @@ function PlanWorkspaceView({ teamId, vehicleId, canEdit, currency, plan: initial
 	async function save(version = baseVersion) {
 		setState({ busy: 'save', error: null, ok: null, serverErrors: {} });
 		try {
-			const next = await sendJson<PlanDto>(`/api/teams/${teamId}/vehicles/${vehicleId}/plans/${plan.id}`, 'PUT', { version, name, notes, document: draft, parts: parts.map(fromDraft) });
+			const next = await savePlan.mutateAsync({ version, name, notes, document: draft, parts: parts.map(fromDraft) });
 			storePlanDraft(plan.id, null);
 			setRestored(null);
 			setBaseVersion(next.version);
 			setPlan(next);
 			setParts(next.parts.map(toDraft));
 			setState({ busy: null, error: null, ok: 'Plan saved.', serverErrors: {} });
-			await qc.invalidateQueries({ queryKey: planKeys.all });
 			return true;
 		} catch (e) {
 			if (e instanceof ApiError && e.status === 409) {
 				// Someone saved the plan meanwhile: keep ours, offer to save it on top.
-				const current = await fetch(`/api/teams/${teamId}/vehicles/${vehicleId}/plans/${plan.id}`).then((r) => r.json() as Promise<PlanDto>);
+				const current = await fetchPlan(teamId, vehicleId, plan.id);
 				setState({ busy: null, error: `${e.message}`, ok: null, serverErrors: {} });
 				if (window.confirm('Someone else saved this plan while you edited. Save your version on top of theirs?')) return save(current.version);
 				return false;
@@ -151,7 +152,7 @@ function PlanWorkspaceView({ teamId, vehicleId, canEdit, currency, plan: initial
 		if (dirty && !(await save())) return;
 		setState((s) => ({ ...s, busy: 'install', error: null, ok: null }));
 		try {
-			const revision = await postJson<RevisionDto>(`/api/teams/${teamId}/vehicles/${vehicleId}/plans/${plan.id}/install`, { parentId: head.id });
+			const revision = await installPlan.mutateAsync({ planId: plan.id, parentId: head.id });
 			window.location.assign(`/teams/${teamId}/vehicles/${vehicleId}/history#r${revision.number}`);
 		} catch (e) {
 			setState((s) => ({ ...s, busy: null, error: e instanceof ApiError ? e.message : 'Could not reach the server; nothing was installed.' }));
@@ -162,7 +163,7 @@ function PlanWorkspaceView({ teamId, vehicleId, canEdit, currency, plan: initial
 		if (!window.confirm(`Delete the plan “${plan.name}” and its parts list? The build is not touched.`)) return;
 		setState((s) => ({ ...s, busy: 'delete', error: null }));
 		try {
-			await sendJson(`/api/teams/${teamId}/vehicles/${vehicleId}/plans/${plan.id}`, 'DELETE');
+			await deletePlan.mutateAsync(plan.id);
 			window.location.assign(`/teams/${teamId}/vehicles/${vehicleId}/plans`);
 		} catch (e) {
 			setState((s) => ({ ...s, busy: null, error: e instanceof ApiError ? e.message : 'Could not reach the server.' }));

@@ -1,12 +1,12 @@
-import { QueryClientProvider, useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
+import { QueryClientProvider, useQuery, useQueryClient } from '@tanstack/react-query';
 import { formatDistanceToNow } from 'date-fns';
 import { useEffect, useState } from 'react';
-import { ApiError, postJson } from '@/lib/client/api-client';
+import { ApiError } from '@/lib/client/api-client';
 import { getQueryClient } from '@/lib/client/query-client';
 import { buildKeys, type RevisionDto, type RevisionSummary } from '@/lib/client/queries/builds';
-import { compareQueryOptions, planKeys, plansQueryOptions, type PlanDto, type PlanSummary } from '@/lib/client/queries/plans';
+import { compareQueryOptions, planKeys, plansQueryOptions, type PlanSummary, useCreatePlan, useInstallPlan } from '@/lib/client/queries/plans';
 import { formatMoney } from '@/lib/format';
-import { Button, Field, FormMessage } from '../ui/Field';
+import { Button, Field, FormMessage } from '@/components/ui/Field';
 import { ComparisonTable } from './ComparisonTable';
 
 export interface PlansBoardProps {
@@ -50,14 +50,20 @@ function PlansBoardView({ teamId, vehicleId, canEdit, currency, head: initialHea
 
 	const toggle = (id: string) => setSelected((s) => (s.includes(id) ? s.filter((x) => x !== id) : s.length >= MAX_COMPARED ? s : [...s, id]));
 
-	const install = useMutation({
-		mutationFn: (plan: { id: string; name: string }) => postJson<RevisionDto>(`/api/teams/${teamId}/vehicles/${vehicleId}/plans/${plan.id}/install`, { parentId: head?.id ?? null }),
-		onSuccess: async (revision, plan) => {
-			setHead({ id: revision.id, number: revision.number, message: revision.message });
-			setInstalled(`“${plan.name}” is now revision ${revision.number} of the build.`);
-			await Promise.all([qc.invalidateQueries({ queryKey: planKeys.all }), qc.invalidateQueries({ queryKey: buildKeys.revisions(vehicleId) })]);
-		},
-	});
+	const installPlan = useInstallPlan(teamId, vehicleId);
+	const install = {
+		...installPlan,
+		mutate: (plan: { id: string; name: string }) =>
+			installPlan.mutate(
+				{ planId: plan.id, parentId: head?.id ?? null },
+				{
+					onSuccess: (revision) => {
+						setHead({ id: revision.id, number: revision.number, message: revision.message });
+						setInstalled(`“${plan.name}” is now revision ${revision.number} of the build.`);
+					},
+				},
+			),
+	};
 
 	return (
 		<div className="flex flex-col gap-8">
@@ -171,7 +177,7 @@ function PlansBoardView({ teamId, vehicleId, canEdit, currency, head: initialHea
 						<ComparisonTable
 							data={comparison.data}
 							canInstall={canEdit}
-							installing={install.isPending ? (install.variables?.id ?? null) : null}
+							installing={install.isPending ? (install.variables?.planId ?? null) : null}
 							installed={new Map(plans.data.filter((p) => p.installedRevisionNumber).map((p) => [p.id, p.installedRevisionNumber!]))}
 							onInstall={(col) => install.mutate({ id: col.id, name: col.name })}
 						/>
@@ -185,10 +191,8 @@ function PlansBoardView({ teamId, vehicleId, canEdit, currency, head: initialHea
 function NewPlanForm({ teamId, vehicleId, revisions, headId }: { teamId: string; vehicleId: string; revisions: RevisionSummary[]; headId: string | null }) {
 	const [name, setName] = useState('');
 	const [from, setFrom] = useState(headId ?? '');
-	const create = useMutation({
-		mutationFn: () => postJson<PlanDto>(`/api/teams/${teamId}/vehicles/${vehicleId}/plans`, { name, ...(from && { fromRevisionId: from }) }),
-		onSuccess: (plan) => window.location.assign(`/teams/${teamId}/vehicles/${vehicleId}/plans/${plan.id}`),
-	});
+	const createPlan = useCreatePlan(teamId, vehicleId);
+	const create = { ...createPlan, mutate: () => createPlan.mutate({ name, ...(from && { fromRevisionId: from }) }, { onSuccess: (plan) => window.location.assign(`/teams/${teamId}/vehicles/${vehicleId}/plans/${plan.id}`) }) };
 	const errors = create.error instanceof ApiError ? create.error.byField() : {};
 	if (revisions.length === 0) return <FormMessage tone="info">Save a first revision of the build; plans start from one.</FormMessage>;
 	return (

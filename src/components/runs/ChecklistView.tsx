@@ -1,21 +1,24 @@
 import { useState } from 'react';
 import { format } from 'date-fns';
-import { ApiError, postJson } from '@/lib/client/api-client';
-import type { Checklist } from '@/lib/server/checks';
-import { Button, Field, FormMessage } from '../ui/Field';
+import { ApiError } from '@/lib/client/api-client';
+import { useAddCheckItem, useSignOff } from '@/lib/client/queries/checks';
+import { withQueryClient } from '@/lib/client/query-client';
+import type { Checklist } from '@/lib/schemas/checks';
+import { Button, Field, FormMessage } from '@/components/ui/Field';
 
 const ICON = { pass: { mark: '✓', word: 'passes', cls: 'text-teal' }, fail: { mark: '✕', word: 'fails', cls: 'text-brick' }, open: { mark: '○', word: 'to check', cls: 'text-ink-soft' } } as const;
 
 /** The pre-event checklist: computed items with their reasons, manual items, sign-offs; prints cleanly. */
-export function ChecklistView({ teamId, initial, canSign }: { teamId: string; initial: Checklist; canSign: boolean }) {
+export const ChecklistView = withQueryClient(function ChecklistView({ teamId, initial, canSign }: { teamId: string; initial: Checklist; canSign: boolean }) {
 	const [list, setList] = useState(initial);
+	const signOff = useSignOff(teamId, initial.eventId);
+	const addItem = useAddCheckItem(teamId);
 	const [error, setError] = useState<string | null>(null);
 	const [newItem, setNewItem] = useState('');
-	const url = `/api/teams/${teamId}/events/${list.eventId}/checks`;
 	async function sign(itemKey: string, signed: boolean) {
 		setError(null);
 		try {
-			setList(await postJson<Checklist>(url, { vehicleId: list.vehicleId, itemKey, signed }));
+			setList(await signOff.mutateAsync({ vehicleId: list.vehicleId, itemKey, signed }));
 		} catch (e) {
 			setError(e instanceof ApiError ? e.message : 'Could not reach the server');
 		}
@@ -60,7 +63,7 @@ export function ChecklistView({ teamId, initial, canSign }: { teamId: string; in
 					onSubmit={async (e) => {
 						e.preventDefault();
 						try {
-							await postJson(`/api/teams/${teamId}/check-items`, { label: newItem });
+							await addItem.mutateAsync(newItem);
 							window.location.reload();
 						} catch (err) {
 							setError(err instanceof ApiError ? (err.byField().label ?? err.message) : 'Could not reach the server');
@@ -68,10 +71,10 @@ export function ChecklistView({ teamId, initial, canSign }: { teamId: string; in
 					}}
 				>
 					<Field label="Add a manual item to every checklist of the team" value={newItem} onChange={(e) => setNewItem(e.target.value)} className="min-w-96" />
-					<Button type="submit" variant="secondary">Add the item</Button>
+					<Button type="submit" variant="secondary" busy={addItem.isPending}>Add the item</Button>
 				</form>
 			)}
 			<p className="text-xs text-ink-soft">Sagwise computes these items from the build as entered; they are estimates, not an inspection. Event rules, the inspectors and local codes decide.</p>
 		</div>
 	);
-}
+});

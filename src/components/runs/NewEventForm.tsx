@@ -1,13 +1,15 @@
 import { useState } from 'react';
 import { newEventSchema } from '@/lib/schemas/events';
-import { ApiError, postJson } from '@/lib/client/api-client';
+import { ApiError } from '@/lib/client/api-client';
+import { useCreateEvent } from '@/lib/client/queries/checks';
+import { withQueryClient } from '@/lib/client/query-client';
 import { fieldErrors } from '@/lib/client/form-errors';
-import { Button, Field } from '../ui/Field';
+import { Button, Field } from '@/components/ui/Field';
 
-export function NewEventForm({ teamId }: { teamId: string }) {
+export const NewEventForm = withQueryClient(function NewEventForm({ teamId }: { teamId: string }) {
+	const create = useCreateEvent(teamId);
 	const [values, setValues] = useState({ name: '', startsOn: '', endsOn: '', place: '', format: '' });
 	const [errors, setErrors] = useState<Record<string, string>>({});
-	const [busy, setBusy] = useState(false);
 	const set = (k: keyof typeof values) => (e: React.ChangeEvent<HTMLInputElement>) => setValues((v) => ({ ...v, [k]: e.target.value, ...(k === 'startsOn' && !v.endsOn ? { endsOn: e.target.value } : {}) }));
 	return (
 		<form
@@ -18,13 +20,11 @@ export function NewEventForm({ teamId }: { teamId: string }) {
 				e.preventDefault();
 				const parsed = newEventSchema.safeParse(values);
 				if (!parsed.success) return setErrors(fieldErrors(parsed.error));
-				setBusy(true);
 				try {
-					await postJson(`/api/teams/${teamId}/events`, parsed.data);
+					await create.mutateAsync(parsed.data);
 					window.location.reload();
 				} catch (err) {
 					setErrors(err instanceof ApiError ? { name: err.message, ...err.byField() } : { name: 'Could not reach the server' });
-					setBusy(false);
 				}
 			}}
 		>
@@ -33,7 +33,7 @@ export function NewEventForm({ teamId }: { teamId: string }) {
 			<Field label="To" type="date" value={values.endsOn} onChange={set('endsOn')} error={errors.endsOn} />
 			<Field label="Place" value={values.place} onChange={set('place')} error={errors.place} />
 			<Field label="Format or class" value={values.format} onChange={set('format')} error={errors.format} />
-			<Button type="submit" busy={busy}>Add the event</Button>
+			<Button type="submit" busy={create.isPending || create.isSuccess}>Add the event</Button>
 		</form>
 	);
-}
+});

@@ -1,8 +1,8 @@
 import { Chart as ChartJS, Legend, LinearScale, LineElement, PointElement, Tooltip } from 'chart.js';
 import { useMemo } from 'react';
 import { Scatter } from 'react-chartjs-2';
-import type { Sample } from '@/engine/run-analysis';
-import type { RunDto } from '@/lib/server/db/runs';
+import type { Sample } from '@/engine';
+import type { RunDto } from '@/lib/schemas/runs';
 import { toSamplesChartData, toScoresOverTime, toScoreVsVoltage } from './run-chart-data';
 
 ChartJS.register(LinearScale, PointElement, LineElement, Tooltip, Legend);

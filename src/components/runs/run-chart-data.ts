@@ -1,7 +1,7 @@
-import type { Sample } from '@/engine/run-analysis';
-import { voltageRatioDb } from '@/engine/amplifier';
-import type { RunDto } from '@/lib/server/db/runs';
-import { CHART_COLOURS } from '../builds/chart-data';
+import type { Sample } from '@/engine';
+import { voltageRatioDb } from '@/engine';
+import type { RunDto } from '@/lib/schemas/runs';
+import { CHART_COLOURS } from '@/components/builds/chart-data';
 
 /** Volts and amps over time, thinned to at most ~400 points. */
 export function toSamplesChartData(samples: Sample[]) {

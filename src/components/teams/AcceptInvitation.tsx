@@ -1,27 +1,16 @@
-import { useState } from 'react';
-import { ApiError, postJson } from '@/lib/client/api-client';
-import { Button, FormMessage } from '../ui/Field';
+import { Button, FormMessage } from '@/components/ui/Field';
+import { ApiError } from '@/lib/client/api-client';
+import { useAcceptInvitation } from '@/lib/client/queries/teams';
+import { withQueryClient } from '@/lib/client/query-client';
 
-export function AcceptInvitation({ token, teamName }: { token: string; teamName: string }) {
-	const [busy, setBusy] = useState(false);
-	const [error, setError] = useState<string | null>(null);
-	async function accept() {
-		setBusy(true);
-		setError(null);
-		try {
-			const { teamId } = await postJson<{ teamId: string }>(`/api/invitations/${token}/accept`);
-			window.location.href = `/teams/${teamId}`;
-		} catch (e) {
-			setError(e instanceof ApiError ? e.message : 'Could not reach the server.');
-			setBusy(false);
-		}
-	}
+export const AcceptInvitation = withQueryClient(function AcceptInvitation({ token, teamName }: { token: string; teamName: string }) {
+	const accept = useAcceptInvitation(token);
 	return (
 		<div className="flex flex-col gap-3">
-			<Button onClick={accept} busy={busy}>
+			<Button onClick={() => accept.mutate(undefined, { onSuccess: ({ teamId }) => window.location.assign(`/teams/${teamId}`) })} busy={accept.isPending || accept.isSuccess}>
 				Join {teamName}
 			</Button>
-			{error && <FormMessage tone="error">{error}</FormMessage>}
+			{accept.isError && <FormMessage tone="error">{accept.error instanceof ApiError ? accept.error.message : 'Could not reach the server.'}</FormMessage>}
 		</div>
 	);
-}
+});

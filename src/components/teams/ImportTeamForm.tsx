@@ -1,39 +1,20 @@
 import { useState } from 'react';
-import type { ImportSummary } from '@/lib/server/team-backup';
-import { Button, Field, FormMessage } from '../ui/Field';
+import { useImportTeam } from '@/lib/client/queries/teams';
+import { withQueryClient } from '@/lib/client/query-client';
+import type { ImportSummary } from '@/lib/schemas/teams';
+import { Button, Field, FormMessage } from '@/components/ui/Field';
 
 
 /** Restores a team backup file as a new team, with upload progress and the server's reason when it refuses. */
 const count = (n: number, noun: string) => `${n} ${noun}${n === 1 ? '' : 's'}`;
 
-export function ImportTeamForm() {
+export const ImportTeamForm = withQueryClient(function ImportTeamForm() {
+	const importTeam = useImportTeam();
 	const [file, setFile] = useState<File | null>(null);
 	const [name, setName] = useState('');
 	const [progress, setProgress] = useState<number | null>(null);
 	const [error, setError] = useState<string | null>(null);
 	const [done, setDone] = useState<ImportSummary | null>(null);
-
-	function send(form: FormData): Promise<ImportSummary> {
-		return new Promise((resolve, reject) => {
-			const xhr = new XMLHttpRequest();
-			xhr.open('POST', '/api/teams/import');
-			xhr.setRequestHeader('accept', 'application/json');
-			xhr.upload.onprogress = (e) => e.lengthComputable && setProgress(Math.round((100 * e.loaded) / e.total));
-			xhr.upload.onload = () => setProgress(100);
-			xhr.onload = () => {
-				let body: { detail?: string } & Partial<ImportSummary> = {};
-				try {
-					body = JSON.parse(xhr.responseText);
-				} catch {
-					// not JSON
-				}
-				if (xhr.status < 300) return resolve(body as ImportSummary);
-				reject(new Error(body.detail ?? `The import failed (${xhr.status}).`));
-			};
-			xhr.onerror = () => reject(new Error('The upload was interrupted; nothing was imported.'));
-			xhr.send(form);
-		});
-	}
 
 	return (
 		<form
@@ -42,14 +23,11 @@ export function ImportTeamForm() {
 			onSubmit={async (e) => {
 				e.preventDefault();
 				if (!file) return setError('Choose the backup file first.');
-				const form = new FormData();
-				form.set('file', file);
-				if (name.trim()) form.set('name', name.trim());
 				setError(null);
 				setDone(null);
 				setProgress(0);
 				try {
-					setDone(await send(form));
+					setDone(await importTeam.mutateAsync({ file, name, onProgress: setProgress }));
 				} catch (err) {
 					setError(err instanceof Error ? err.message : 'The import failed.');
 				} finally {
@@ -88,4 +66,4 @@ export function ImportTeamForm() {
 			)}
 		</form>
 	);
-}
+});

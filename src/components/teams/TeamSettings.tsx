@@ -2,11 +2,11 @@ import { QueryClientProvider, useQuery } from '@tanstack/react-query';
 import { formatDistanceToNow } from 'date-fns';
 import { useState } from 'react';
 import { newInvitationSchema, teamNameSchema } from '@/lib/schemas/account';
-import { ApiError, sendJson } from '@/lib/client/api-client';
+import { ApiError } from '@/lib/client/api-client';
 import { fieldErrors } from '@/lib/client/form-errors';
 import { getQueryClient } from '@/lib/client/query-client';
-import { invitationsQueryOptions, type MemberDto, membersQueryOptions, type Role, useInvitationAction, useInvite, useMemberAction } from '@/lib/client/queries/teams';
-import { Button, Field, FormMessage } from '../ui/Field';
+import { invitationsQueryOptions, type MemberDto, membersQueryOptions, type Role, useDeleteTeam, useInvitationAction, useInvite, useMemberAction, useUpdateTeam } from '@/lib/client/queries/teams';
+import { Button, Field, FormMessage } from '@/components/ui/Field';
 
 export interface TeamSettingsProps {
 	teamId: string;
@@ -223,20 +223,13 @@ function PendingSection({ teamId }: { teamId: string }) {
 function TeamNameSection({ teamId, teamName }: { teamId: string; teamName: string }) {
 	const [name, setName] = useState(teamName);
 	const [error, setError] = useState<string | undefined>();
-	const [state, setState] = useState<'idle' | 'busy' | 'saved'>('idle');
-	async function submit(event: React.FormEvent) {
+	const update = useUpdateTeam(teamId);
+	function submit(event: React.FormEvent) {
 		event.preventDefault();
 		const parsed = teamNameSchema.safeParse(name);
 		if (!parsed.success) return setError(parsed.error.issues[0]!.message);
 		setError(undefined);
-		setState('busy');
-		try {
-			await sendJson(`/api/teams/${teamId}`, 'PATCH', { name: parsed.data });
-			setState('saved');
-		} catch (e) {
-			setError(e instanceof ApiError ? e.message : 'Could not save');
-			setState('idle');
-		}
+		update.mutate({ name: parsed.data }, { onError: (e) => setError(e instanceof ApiError ? e.message : 'Could not save') });
 	}
 	return (
 		<section aria-labelledby="name-heading">
@@ -244,11 +237,11 @@ function TeamNameSection({ teamId, teamName }: { teamId: string; teamName: strin
 				Team name
 			</h2>
 			<form onSubmit={submit} noValidate className="mt-3 flex flex-wrap items-end gap-3">
-				<Field label="Name" value={name} onChange={(e) => { setName(e.target.value); setState('idle'); }} error={error} className="min-w-64" />
-				<Button type="submit" variant="secondary" busy={state === 'busy'}>
+				<Field label="Name" value={name} onChange={(e) => { setName(e.target.value); update.reset(); }} error={error} className="min-w-64" />
+				<Button type="submit" variant="secondary" busy={update.isPending}>
 					Rename
 				</Button>
-				{state === 'saved' && <span role="status" className="text-sm text-teal">✓ Saved</span>}
+				{update.isSuccess && <span role="status" className="text-sm text-teal">✓ Saved</span>}
 			</form>
 		</section>
 	);
@@ -256,20 +249,11 @@ function TeamNameSection({ teamId, teamName }: { teamId: string; teamName: strin
 
 function LeaveOrDeleteSection({ teamId, teamName, captain, myUserId }: { teamId: string; teamName: string; captain: boolean; myUserId: string }) {
 	const [confirmName, setConfirmName] = useState('');
-	const [error, setError] = useState<unknown>(null);
-	const [busy, setBusy] = useState(false);
-	async function run(fn: () => Promise<unknown>) {
-		setBusy(true);
-		setError(null);
-		try {
-			await fn();
-			window.location.href = '/teams';
-		} catch (e) {
-			setError(e);
-		} finally {
-			setBusy(false);
-		}
-	}
+	const leave = useMemberAction(teamId);
+	const remove = useDeleteTeam(teamId);
+	const toTeams = { onSuccess: () => window.location.assign('/teams') };
+	const busy = leave.isPending || remove.isPending;
+	const error = leave.error ?? remove.error;
 	return (
 		<section aria-labelledby="danger-heading" className="rounded-md border border-brick/40 p-4">
 			<h2 id="danger-heading" className="text-xl font-bold text-brick">
@@ -277,7 +261,7 @@ function LeaveOrDeleteSection({ teamId, teamName, captain, myUserId }: { teamId:
 			</h2>
 			<div className="mt-3 flex flex-col gap-4">
 				<div className="flex flex-wrap items-center gap-3">
-					<Button variant="secondary" busy={busy} onClick={() => window.confirm(`Leave ${teamName}?`) && run(() => sendJson(`/api/teams/${teamId}/members/${myUserId}`, 'DELETE'))}>
+					<Button variant="secondary" busy={busy} onClick={() => window.confirm(`Leave ${teamName}?`) && leave.mutate({ userId: myUserId, role: null }, toTeams)}>
 						Leave the team
 					</Button>
 					<span className="text-sm text-ink-soft">The last captain cannot leave; make someone else captain first.</span>
@@ -287,7 +271,7 @@ function LeaveOrDeleteSection({ teamId, teamName, captain, myUserId }: { teamId:
 						className="flex flex-wrap items-end gap-3"
 						onSubmit={(e) => {
 							e.preventDefault();
-							void run(() => sendJson(`/api/teams/${teamId}`, 'DELETE', { confirmName }));
+							remove.mutate(confirmName, toTeams);
 						}}
 					>
 						<Field label={`Type “${teamName}” to delete the team and all its data`} value={confirmName} onChange={(e) => setConfirmName(e.target.value)} className="min-w-72" />
@@ -348,11 +332,13 @@ function TeamSettingForm(p: {
 	maxLength?: number;
 	inputMode?: 'numeric';
 	field: string;
-	toBody: (value: string) => Record<string, unknown>;
+	toBody: (value: string) => { currency?: string; reminderDays?: number };
 	saved: (value: string) => string;
 }) {
 	const [value, setValue] = useState(p.initial);
-	const [state, setState] = useState<{ busy: boolean; note: string | null; error: string | null }>({ busy: false, note: null, error: null });
+	const update = useUpdateTeam(p.teamId);
+	const [note, setNote] = useState<string | null>(null);
+	const error = update.error instanceof ApiError ? (update.error.byField()[p.field] ?? update.error.message) : update.error ? 'Could not save' : undefined;
 	return (
 		<section aria-labelledby={`${p.id}-heading`}>
 			<h2 id={`${p.id}-heading`} className="text-xl font-bold">{p.title}</h2>
@@ -360,20 +346,15 @@ function TeamSettingForm(p: {
 			<form
 				noValidate
 				className="mt-3 flex flex-wrap items-end gap-3"
-				onSubmit={async (e) => {
+				onSubmit={(e) => {
 					e.preventDefault();
-					setState({ busy: true, note: null, error: null });
-					try {
-						await sendJson(`/api/teams/${p.teamId}`, 'PATCH', p.toBody(value));
-						setState({ busy: false, note: p.saved(value), error: null });
-					} catch (err) {
-						setState({ busy: false, note: null, error: err instanceof ApiError ? (err.byField()[p.field] ?? err.message) : 'Could not save' });
-					}
+					setNote(null);
+					update.mutate(p.toBody(value), { onSuccess: () => setNote(p.saved(value)) });
 				}}
 			>
-				<Field label={p.label} inputMode={p.inputMode} maxLength={p.maxLength} value={value} onChange={(e) => setValue(e.target.value)} error={state.error ?? undefined} hint={p.hint} className="w-48" />
-				<Button type="submit" variant="secondary" busy={state.busy}>Save</Button>
-				{state.note && <span role="status" className="text-sm text-teal">✓ {state.note}</span>}
+				<Field label={p.label} inputMode={p.inputMode} maxLength={p.maxLength} value={value} onChange={(e) => setValue(e.target.value)} error={error} hint={p.hint} className="w-48" />
+				<Button type="submit" variant="secondary" busy={update.isPending}>Save</Button>
+				{note && <span role="status" className="text-sm text-teal">✓ {note}</span>}
 			</form>
 		</section>
 	);

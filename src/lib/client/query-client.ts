@@ -1,4 +1,5 @@
-import { QueryClient } from '@tanstack/react-query';
+import { QueryClient, QueryClientProvider } from '@tanstack/react-query';
+import { type ComponentType, createElement } from 'react';
 import { ApiError } from './api-client';
 
 function makeQueryClient(): QueryClient {
@@ -19,4 +20,13 @@ let browserClient: QueryClient | undefined;
 export function getQueryClient(): QueryClient {
 	if (typeof window === 'undefined') return makeQueryClient();
 	return (browserClient ??= makeQueryClient());
+}
+
+/** An island with the shared query client around it (islands mount alone, each needs the provider). */
+export function withQueryClient<P extends object>(Island: ComponentType<P>): ComponentType<P> {
+	function WithQueryClient(props: P) {
+		return createElement(QueryClientProvider, { client: getQueryClient() }, createElement(Island, props));
+	}
+	WithQueryClient.displayName = `WithQueryClient(${Island.displayName ?? Island.name})`;
+	return WithQueryClient;
 }

@@ -1,7 +1,6 @@
 import { z } from 'zod';
 import { lineText, notesText } from './text';
-import { checkTopology } from '@/engine/topology';
-import { AWG_SIZES, type BuildDocument, CHEMISTRIES, MATERIALS, NODE_KINDS } from '@/engine/types';
+import { AWG_SIZES, type BuildDocument, checkTopology, CHEMISTRIES, MATERIALS, NODE_KINDS } from '@/engine';
 
 const id = z
 	.string()

@@ -1,5 +1,6 @@
 import { z } from 'zod';
 import { lineText, notesText } from './text';
+import type { BuildDocument } from '@/engine';
 import { buildDocumentSchema } from './build-document';
 
 export const planNameSchema = lineText(120, { required: 'Give the plan a name', maxMessage: 'Keep the name under 120 characters' });
@@ -48,3 +49,31 @@ export const compareQuerySchema = z.object({
 	engineRpm: z.coerce.number().min(0).max(10000).optional(),
 	conductorTempC: z.coerce.number().min(-40).max(150).optional(),
 });
+
+/** One line of a plan's parts list as the browser sees it (price per unit, in the team's currency). */
+export const planPartDtoSchema = z.object({ item: z.string(), quantity: z.number().int(), unitPrice: z.number(), link: z.string() });
+export type PlanPart = z.infer<typeof planPartDtoSchema>;
+
+export const planSummarySchema = z.object({
+	id: z.uuid(),
+	name: z.string(),
+	notes: z.string(),
+	baseRevisionId: z.uuid().nullable(),
+	baseRevisionNumber: z.number().int().nullable(),
+	partCount: z.number().int(),
+	/** Sum of quantity × unit price, in the team's currency. */
+	total: z.number(),
+	authorName: z.string().nullable(),
+	createdAt: z.string(),
+	updatedAt: z.string(),
+	installedRevisionNumber: z.number().int().nullable(),
+	installedAt: z.string().nullable(),
+});
+export type PlanSummary = z.infer<typeof planSummarySchema>;
+
+export const planDtoSchema = planSummarySchema.extend({
+	version: z.number().int(),
+	document: z.custom<BuildDocument>(),
+	parts: z.array(planPartDtoSchema),
+});
+export type PlanDto = z.infer<typeof planDtoSchema>;

@@ -1,5 +1,6 @@
 import { z } from 'zod';
 import { buildDocumentSchema } from './build-document';
+import { measurementNumbersShape } from './run-measurements';
 
 /**
  * A whole team as one file. Records refer to each other by keys local to the file (`v1`, `v1.r3`,
@@ -15,7 +16,6 @@ const day = z.iso.date();
 const key = z.string().min(1).max(40);
 const email = z.string().email().max(320);
 const role = z.enum(['captain', 'member', 'viewer']);
-const num = z.number().nullable();
 
 export const backupFileSchema = z.object({
 	key,
@@ -85,11 +85,7 @@ export const teamBackupContentSchema = z.object({
 			event: key.nullable(),
 			revision: z.number().int().positive().nullable(),
 			ranAt: iso,
-			scoreDb: num,
-			frequencyHz: num,
-			restingV: num,
-			minV: num,
-			ambientC: num,
+			...measurementNumbersShape,
 			notes: z.string().max(2000),
 			authorEmail: email.nullable(),
 			createdAt: iso,

@@ -1,7 +1,7 @@
 import { z } from 'zod';
 import { lineText, notesText } from './text';
+import type { BuildDocument } from '@/engine';
 import { buildDocumentSchema } from './build-document';
-
 
 export const vehicleFieldsSchema = z.object({
 	name: lineText(80, { required: 'Give the vehicle a name' }),
@@ -43,3 +43,39 @@ export const scenarioQuerySchema = z.object({
 	burpStepS: numberParam(0.001, 1).optional(),
 	fuseDistanceM: numberParam(0.01, 3).optional(),
 });
+
+/** A vehicle as the browser sees it. */
+export const vehicleDtoSchema = z.object({
+	id: z.uuid(),
+	name: z.string(),
+	description: z.string(),
+	competitionClass: z.string(),
+	notes: z.string(),
+	ownerId: z.string().nullable(),
+	archived: z.boolean(),
+	createdAt: z.string(),
+	headRevisionId: z.uuid().nullable(),
+});
+export type VehicleDto = z.infer<typeof vehicleDtoSchema>;
+
+/** A revision in a build's history, without its document. */
+export const revisionSummarySchema = z.object({
+	id: z.uuid(),
+	number: z.number().int(),
+	parentId: z.uuid().nullable(),
+	message: z.string(),
+	authorName: z.string().nullable(),
+	createdAt: z.string(),
+	restoredFromNumber: z.number().int().nullable(),
+});
+export type RevisionSummary = z.infer<typeof revisionSummarySchema>;
+
+/** A revision with its (already validated) build document. */
+export const revisionDtoSchema = revisionSummarySchema.extend({
+	schemaVersion: z.number().int(),
+	document: z.custom<BuildDocument>(),
+});
+export type RevisionDto = z.infer<typeof revisionDtoSchema>;
+
+/** `?archived=true` lists the archived vehicles; anything else the ones in use. */
+export const vehicleListQuerySchema = z.object({ archived: z.string().optional().transform((s) => s === 'true') });

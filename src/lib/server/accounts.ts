@@ -1,6 +1,6 @@
 import type { Kysely } from 'kysely';
 import type { Database } from '@/lib/server/db/schema';
-import type { SignUpInput } from '../schemas/account';
+import type { SignUpInput } from '@/lib/schemas/account';
 import { insertUser } from './db/users';
 import { type FieldError, problem } from './http';
 import { hashPassword } from './passwords';

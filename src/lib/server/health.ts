@@ -1,4 +1,5 @@
-import { type Kysely, sql } from 'kysely';
+import type { Kysely } from 'kysely';
+import { serverVersion } from '@/lib/server/db/client';
 import type { Database } from '@/lib/server/db/schema';
 import type { Storage } from './storage';
 
@@ -28,8 +29,8 @@ const ms = (since: number) => Math.round((performance.now() - since) * 10) / 10;
 export async function checkDatabase(db: Kysely<Database>): Promise<HealthReport['database']> {
 	const started = performance.now();
 	try {
-		const { rows } = await withDeadline(sql<{ version: string }>`select current_setting('server_version') as version`.execute(db), HEALTH_TIMEOUT_MS, 'the database');
-		return { status: 'ok', latencyMs: ms(started), serverVersion: rows[0]?.version ?? '' };
+		const version = await withDeadline(serverVersion(db), HEALTH_TIMEOUT_MS, 'the database');
+		return { status: 'ok', latencyMs: ms(started), serverVersion: version };
 	} catch (error) {
 		return { status: 'down', latencyMs: ms(started), detail: (error as Error).message };
 	}

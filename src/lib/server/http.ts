@@ -1,5 +1,5 @@
 import type { z } from 'zod';
-import { findControlCharacter, NOTES_MESSAGE } from '../schemas/text';
+import { findControlCharacter, NOTES_MESSAGE } from '@/lib/schemas/text';
 import { BodyTooLargeError, MAX_JSON_BYTES, readBytes } from './body';
 
 export type ErrorCode =
@@ -60,8 +60,10 @@ export function problem(
 	detail: string,
 	errors?: FieldError[],
 	headers: Record<string, string> = {},
+	/** Extension members (RFC 9457 §3.2), e.g. the current state a 409 carries. */
+	members: Record<string, unknown> = {},
 ): Response {
-	const body: ProblemBody = { type: 'about:blank', title: titles[status] ?? 'Error', status, code, detail, errors };
+	const body: ProblemBody = { ...members, type: 'about:blank', title: titles[status] ?? 'Error', status, code, detail, errors };
 	return new Response(JSON.stringify(body), {
 		status,
 		headers: { 'content-type': 'application/problem+json', ...headers },
@@ -111,10 +113,7 @@ export function readQuery<S extends z.ZodType>(url: URL, schema: S): ReadResult<
 
 /** A 409 problem that carries what the client needs to merge (the current state, its own input). */
 export function conflict(detail: string, extra: Record<string, unknown>): Response {
-	return new Response(JSON.stringify({ type: 'about:blank', title: 'Conflict', status: 409, code: 'conflict', detail, ...extra }), {
-		status: 409,
-		headers: { 'content-type': 'application/problem+json' },
-	});
+	return problem(409, 'conflict', detail, undefined, {}, extra);
 }
 
 /** 503 while an outside service (the database, the file store) is down: nothing was changed, try again. */

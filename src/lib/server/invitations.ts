@@ -1,5 +1,5 @@
 import type { InvitationRow } from '@/lib/server/db/schema';
-import type { TeamAccess } from './authz';
+import type { TeamAccess } from '@/lib/server/access';
 import { findInvitationByTokenHash } from './db/teams';
 import { invitationMail } from './mail-templates';
 import { hashToken } from './tokens';

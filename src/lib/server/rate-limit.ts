@@ -1,6 +1,6 @@
-import { type Kysely, sql } from 'kysely';
+import type { Kysely } from 'kysely';
 import type { Database } from '@/lib/server/db/schema';
-import { countRecentFailures, recordSignInAttempt } from './db/users';
+import { countRateEvents, countRecentFailures, recordRateEvent, recordSignInAttempt } from '@/lib/server/db/users';
 
 export const SIGN_IN_WINDOW_MS = 60_000;
 /** Failed password attempts allowed per address, and per client, within the window. */
@@ -37,13 +37,7 @@ export const RATE_LIMITS: Record<RateKind, { windowMs: number; perEmail: number;
  */
 export async function takeRateSlot(db: Kysely<Database>, kind: RateKind, email: string, client: string): Promise<boolean> {
 	const limit = RATE_LIMITS[kind];
-	const since = sql<boolean>`created_at > now() - make_interval(secs => ${limit.windowMs / 1000})`;
-	const { byEmail, byClient } = (await db
-		.selectNoFrom((eb) => [
-			eb.selectFrom('rate_event').select((e) => e.fn.countAll<number>().as('n')).where('kind', '=', kind).where('email', '=', email.toLowerCase()).where(since).as('byEmail'),
-			eb.selectFrom('rate_event').select((e) => e.fn.countAll<number>().as('n')).where('kind', '=', kind).where('client', '=', client).where(since).as('byClient'),
-		])
-		.executeTakeFirstOrThrow()) as { byEmail: number; byClient: number };
-	await db.insertInto('rate_event').values({ kind, email: email.toLowerCase(), client }).execute();
-	return Number(byEmail) < limit.perEmail && Number(byClient) < limit.perClient;
+	const { byEmail, byClient } = await countRateEvents(db, kind, email, client, limit.windowMs);
+	await recordRateEvent(db, kind, email, client);
+	return byEmail < limit.perEmail && byClient < limit.perClient;
 }

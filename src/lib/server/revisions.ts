@@ -1,6 +1,7 @@
-import { appendRevision, findHeadRevision, findRevision, type RevisionDto } from './db/builds';
+import type { RevisionDto } from '@/lib/schemas/vehicles';
+import { appendRevision, findHeadRevision, findRevision } from '@/lib/server/db/builds';
 import { conflict, problem } from './http';
-import type { BuildDocument } from '@/engine/types';
+import type { BuildDocument } from '@/engine';
 
 /**
  * Saves a revision, answering 201 with it, or 409 when someone saved first: the body carries the

@@ -1,13 +1,15 @@
 import { createHash, randomBytes, randomUUID } from 'node:crypto';
 import type { Kysely } from 'kysely';
-import type { Database, Role } from '@/lib/server/db/schema';
-import type { BuildDocument } from '@/engine/types';
+import type { BuildDocument } from '@/engine';
+import { type ImportedFile, insertTeamFromBackup, readTeamForBackup } from '@/lib/server/db/backup';
+import type { Database } from '@/lib/server/db/schema';
+import { measurementsOf } from '@/lib/schemas/run-measurements';
+import type { ImportSummary } from '@/lib/schemas/teams';
 import { BACKUP_FORMAT, BACKUP_VERSION, backupEnvelopeSchema, type TeamBackup, type TeamBackupContent, teamBackupContentSchema } from '@/lib/schemas/team-backup';
 import { findControlCharacter, NOTES_MESSAGE } from '@/lib/schemas/text';
-import { measurementColumns, measurementsOf } from './db/runs';
-import type { Storage } from './storage';
-import { checkLoggerFile, checkPhoto, checkThumbnail } from './file-content';
-import { hashToken } from './tokens';
+import { checkLoggerFile, checkPhoto, checkThumbnail } from '@/lib/server/file-content';
+import type { Storage } from '@/lib/server/storage';
+import { hashToken } from '@/lib/server/tokens';
 
 type Db = Kysely<Database>;
 
@@ -21,40 +23,17 @@ const lastSegment = (key: string) => key.slice(key.lastIndexOf('/') + 1);
  * storage), and check sign-offs. Ordered deterministically so equal teams give equal files.
  */
 export async function exportTeam(db: Db, storage: Storage, teamId: string): Promise<TeamBackup> {
-	const team = await db.selectFrom('team').selectAll().where('id', '=', teamId).executeTakeFirstOrThrow();
-	const users = new Map((await db.selectFrom('User').select(['id', 'email']).execute()).map((u) => [u.id, u.email]));
-	const emailOf = (id: string | null) => (id ? (users.get(id) ?? null) : null);
-
-	const members = await db
-		.selectFrom('membership as m')
-		.innerJoin('User as u', 'u.id', 'm.user_id')
-		.select(['u.email', 'u.name', 'm.role'])
-		.where('m.team_id', '=', teamId)
-		.orderBy('u.email')
-		.execute();
-	const items = await db.selectFrom('check_item').selectAll().where('team_id', '=', teamId).orderBy('created_at').orderBy('label').orderBy('id').execute();
+	const rows = await readTeamForBackup(db, teamId);
+	const { team, members, items, vehicles, events, runs, signoffs } = rows;
+	const emailOf = (id: string | null) => (id ? (rows.emails.get(id) ?? null) : null);
 	const itemKey = new Map(items.map((it, i) => [`manual:${it.id}`, `manual:item${i + 1}`]));
-
-	const vehicles = await db
-		.selectFrom('vehicle as v')
-		.innerJoin('build as b', 'b.vehicle_id', 'v.id')
-		.selectAll('v')
-		.select(['b.id as build_id', 'b.head_revision_id'])
-		.where('v.team_id', '=', teamId)
-		.orderBy('v.created_at')
-		.orderBy('v.name')
-		.orderBy('v.id')
-		.execute();
 	const vehicleKey = new Map(vehicles.map((v, i) => [v.id, `v${i + 1}`]));
 	const revisionNumber = new Map<string, number>();
-	const outVehicles: TeamBackupContent['vehicles'] = [];
-	for (const v of vehicles) {
-		const revisions = await db.selectFrom('revision').selectAll().where('build_id', '=', v.build_id).orderBy('number').execute();
-		for (const r of revisions) revisionNumber.set(r.id, r.number);
-		const num = (id: string | null) => (id ? (revisionNumber.get(id) ?? null) : null);
-		const plans = await db.selectFrom('plan').selectAll().where('vehicle_id', '=', v.id).orderBy('created_at').orderBy('name').orderBy('id').execute();
-		const parts = plans.length ? await db.selectFrom('plan_part').selectAll().where('plan_id', 'in', plans.map((p) => p.id)).orderBy('position').execute() : [];
-		outVehicles.push({
+	for (const r of rows.revisions) revisionNumber.set(r.id, r.number);
+	const num = (id: string | null) => (id ? (revisionNumber.get(id) ?? null) : null);
+	const outVehicles: TeamBackupContent['vehicles'] = vehicles.map((v) => {
+		const plans = rows.plans.filter((p) => p.vehicle_id === v.id);
+		return {
 			key: vehicleKey.get(v.id)!,
 			name: v.name,
 			description: v.description,
@@ -64,15 +43,17 @@ export async function exportTeam(db: Db, storage: Storage, teamId: string): Prom
 			ownerEmail: emailOf(v.owner_id) ?? v.imported_by,
 			createdAt: iso(v.created_at),
 			headRevision: num(v.head_revision_id),
-			revisions: revisions.map((r) => ({
-				number: r.number,
-				parent: num(r.parent_id),
-				restoredFrom: num(r.restored_from_id),
-				message: r.message,
-				authorEmail: emailOf(r.author_id) ?? r.imported_by,
-				createdAt: iso(r.created_at),
-				document: r.document as BuildDocument,
-			})),
+			revisions: rows.revisions
+				.filter((r) => r.build_id === v.build_id)
+				.map((r) => ({
+					number: r.number,
+					parent: num(r.parent_id),
+					restoredFrom: num(r.restored_from_id),
+					message: r.message,
+					authorEmail: emailOf(r.author_id) ?? r.imported_by,
+					createdAt: iso(r.created_at),
+					document: r.document as BuildDocument,
+				})),
 			plans: plans.map((p) => ({
 				name: p.name,
 				notes: p.notes,
@@ -84,23 +65,16 @@ export async function exportTeam(db: Db, storage: Storage, teamId: string): Prom
 				createdAt: iso(p.created_at),
 				updatedAt: iso(p.updated_at),
 				document: p.document as BuildDocument,
-				parts: parts.filter((x) => x.plan_id === p.id).map((x) => ({ item: x.item, quantity: x.quantity, unitPriceMinor: Number(x.unit_price_minor), link: x.link })),
+				parts: rows.parts.filter((x) => x.plan_id === p.id).map((x) => ({ item: x.item, quantity: x.quantity, unitPriceMinor: Number(x.unit_price_minor), link: x.link })),
 			})),
-		});
-	}
+		};
+	});
 
-	const events = await db.selectFrom('event').selectAll().where('team_id', '=', teamId).orderBy('starts_on').orderBy('name').orderBy('created_at').orderBy('id').execute();
 	const eventKey = new Map(events.map((e, i) => [e.id, `e${i + 1}`]));
-
-	const runs = vehicles.length
-		? await db.selectFrom('run').selectAll().where('vehicle_id', 'in', vehicles.map((v) => v.id)).orderBy('ran_at').orderBy('created_at').orderBy('id').execute()
-		: [];
 	const outRuns: TeamBackupContent['runs'] = [];
 	for (const [i, r] of runs.entries()) {
-		const samples = await db.selectFrom('run_sample').select(['t_s', 'volts', 'amps']).where('run_id', '=', r.id).orderBy('seq').execute();
-		const files = await db.selectFrom('stored_file').selectAll().where('run_id', '=', r.id).orderBy('created_at').orderBy('kind').orderBy('object_key').execute();
 		const outFiles: TeamBackupContent['runs'][number]['files'] = [];
-		for (const [j, f] of files.entries()) {
+		for (const [j, f] of (rows.filesByRun.get(r.id) ?? []).entries()) {
 			const bytes = await storage.get(f.object_key);
 			if (!bytes) throw new Error(`The stored file ${f.file_name} (${f.object_key}) is missing from storage`);
 			outFiles.push({
@@ -123,14 +97,11 @@ export async function exportTeam(db: Db, storage: Storage, teamId: string): Prom
 			...measurementsOf(r),
 			authorEmail: emailOf(r.author_id) ?? r.imported_by,
 			createdAt: iso(r.created_at),
-			samples: samples.map((s) => [s.t_s, s.volts, s.amps] as [number, number, number]),
+			samples: (rows.samplesByRun.get(r.id) ?? []).map((x) => [x.t_s, x.volts, x.amps] as [number, number, number]),
 			files: outFiles,
 		});
 	}
 
-	const signoffs = events.length
-		? await db.selectFrom('check_signoff').selectAll().where('event_id', 'in', events.map((e) => e.id)).orderBy('signed_at').orderBy('item_key').execute()
-		: [];
 	const content: TeamBackupContent = {
 		name: team.name,
 		reminderDays: team.reminder_days,
@@ -213,34 +184,7 @@ function crossCheck(t: TeamBackupContent): { path: string; message: string }[] {
 	return out;
 }
 
-export interface ImportSummary {
-	teamId: string;
-	name: string;
-	members: number;
-	invitations: number;
-	vehicles: number;
-	revisions: number;
-	plans: number;
-	events: number;
-	runs: number;
-	files: number;
-	/** Photos whose metadata (EXIF, GPS, XMP) was removed on the way in. */
-	photosCleaned: number;
-}
-
-interface PreparedFile {
-	kind: 'logger' | 'photo' | 'thumbnail';
-	fileName: string;
-	contentType: string;
-	bytes: Uint8Array;
-	createdAt: string;
-	/** Its index among the run's files in the backup. */
-	sourceIndex: number;
-	/** The photo this thumbnail belongs to, by its index in the run's files (thumbnails only). */
-	pairedWith: number | null;
-}
-
-export type PrepareFilesResult = { ok: true; files: PreparedFile[][]; photosCleaned: number } | { ok: false; errors: { path: string; message: string }[] };
+export type PrepareFilesResult = { ok: true; files: ImportedFile[][]; photosCleaned: number } | { ok: false; errors: { path: string; message: string }[] };
 
 const stem = (objectName: string) => objectName.replace(/\.[^.]*$/, '');
 
@@ -252,10 +196,10 @@ const stem = (objectName: string) => objectName.replace(/\.[^.]*$/, '');
  */
 export async function prepareBackupFiles(t: TeamBackupContent): Promise<PrepareFilesResult> {
 	const errors: { path: string; message: string }[] = [];
-	const out: PreparedFile[][] = [];
+	const out: ImportedFile[][] = [];
 	let photosCleaned = 0;
 	for (const [i, r] of t.runs.entries()) {
-		const files: PreparedFile[] = [];
+		const files: ImportedFile[] = [];
 		const photoByStem = new Map<string, number>();
 		r.files.forEach((f, j) => f.kind === 'photo' && photoByStem.set(stem(f.objectName), j));
 		for (const [j, f] of r.files.entries()) {
@@ -297,164 +241,25 @@ export async function prepareBackupFiles(t: TeamBackupContent): Promise<PrepareF
  * a live account. Every object key is made here, inside the new team's prefix.
  */
 export async function importTeam(db: Db, storage: Storage, backup: TeamBackup, importer: { id: string; email: string }, name: string | undefined, prepared: PrepareFilesResult & { ok: true }): Promise<ImportSummary> {
-	const t = backup.team;
-	const importerEmail = importer.email.toLowerCase();
-	const roles = new Map<string, Role>();
-	for (const m of t.members) roles.set(m.email.toLowerCase(), m.role);
-	roles.delete(importerEmail);
-	const recorded = (email: string | null) => (email ? email.toLowerCase() : null);
 	const written: string[] = [];
 	try {
-		return await db.transaction().execute(async (trx) => {
-			const team = await trx
-				.insertInto('team')
-				.values({ name: name ?? t.name, reminder_days: t.reminderDays, fuse_distance_m: t.fuseDistanceM, currency: t.currency, created_at: t.createdAt })
-				.returning(['id', 'name'])
-				.executeTakeFirstOrThrow();
-			await trx.insertInto('membership').values({ team_id: team.id, user_id: importer.id, role: 'captain' }).execute();
-			for (const [email, role] of roles) {
-				await trx
-					.insertInto('invitation')
-					.values({ team_id: team.id, email, role, token_hash: hashToken(randomBytes(32).toString('base64url')), invited_by: importer.id, expires_at: new Date(Date.now() + 7 * 86_400_000) })
-					.execute();
+		const counts = await insertTeamFromBackup(db, backup.team, { importer, name, files: prepared.files, invitationTokenHash: () => hashToken(randomBytes(32).toString('base64url')) }, async (teamId, runId, f, photoBase) => {
+			let objectKey: string;
+			if (f.kind === 'photo') {
+				const base = `teams/${teamId}/runs/${runId}/photo-${randomUUID()}`;
+				photoBase.set(f.sourceIndex, base);
+				objectKey = `${base}.${f.contentType.split('/')[1]}`;
+			} else if (f.kind === 'thumbnail') {
+				const base = photoBase.get(f.pairedWith!) ?? `teams/${teamId}/runs/${runId}/photo-${randomUUID()}`;
+				objectKey = `${base}-thumb.webp`;
+			} else {
+				objectKey = `teams/${teamId}/runs/${runId}/logger-${randomUUID()}.csv`;
 			}
-
-			const itemIds = new Map<string, string>();
-			for (const it of t.checkItems) {
-				const row = await trx.insertInto('check_item').values({ team_id: team.id, label: it.label, created_at: it.createdAt }).returning('id').executeTakeFirstOrThrow();
-				itemIds.set(`manual:${it.key}`, `manual:${row.id}`);
-			}
-
-			const vehicleIds = new Map<string, string>();
-			const revisionIds = new Map<string, string>(); // `${vehicleKey}#${number}` → id
-			let revisions = 0;
-			let plans = 0;
-			for (const v of t.vehicles) {
-				const vehicle = await trx
-					.insertInto('vehicle')
-					.values({ team_id: team.id, name: v.name, description: v.description, competition_class: v.competitionClass, notes: v.notes, archived_at: v.archivedAt, owner_id: null, imported_by: recorded(v.ownerEmail), created_at: v.createdAt })
-					.returning('id')
-					.executeTakeFirstOrThrow();
-				vehicleIds.set(v.key, vehicle.id);
-				const build = await trx.insertInto('build').values({ vehicle_id: vehicle.id }).returning('id').executeTakeFirstOrThrow();
-				const rev = (n: number | null) => (n === null ? null : revisionIds.get(`${v.key}#${n}`)!);
-				// Parents and restore sources always have lower numbers, so number order resolves them.
-				for (const r of [...v.revisions].sort((a, b) => a.number - b.number)) {
-					const row = await trx
-						.insertInto('revision')
-						.values({
-							build_id: build.id,
-							parent_id: rev(r.parent),
-							number: r.number,
-							schema_version: r.document.schemaVersion,
-							document: JSON.stringify(r.document),
-							message: r.message,
-							author_id: null,
-							imported_by: recorded(r.authorEmail),
-							restored_from_id: rev(r.restoredFrom),
-							created_at: r.createdAt,
-						})
-						.returning('id')
-						.executeTakeFirstOrThrow();
-					revisionIds.set(`${v.key}#${r.number}`, row.id);
-					revisions++;
-				}
-				await trx.updateTable('build').set({ head_revision_id: rev(v.headRevision) }).where('id', '=', build.id).execute();
-				for (const p of v.plans) {
-					const row = await trx
-						.insertInto('plan')
-						.values({
-							vehicle_id: vehicle.id,
-							name: p.name,
-							notes: p.notes,
-							base_revision_id: rev(p.baseRevision),
-							schema_version: p.document.schemaVersion,
-							document: JSON.stringify(p.document),
-							version: p.version,
-							created_by: null,
-							imported_by: recorded(p.createdByEmail),
-							installed_revision_id: rev(p.installedRevision),
-							installed_at: p.installedAt,
-							created_at: p.createdAt,
-							updated_at: p.updatedAt,
-						})
-						.returning('id')
-						.executeTakeFirstOrThrow();
-					if (p.parts.length) {
-						await trx
-							.insertInto('plan_part')
-							.values(p.parts.map((x, position) => ({ plan_id: row.id, position, item: x.item, quantity: x.quantity, unit_price_minor: x.unitPriceMinor, link: x.link })))
-							.execute();
-					}
-					plans++;
-				}
-			}
-
-			const eventIds = new Map<string, string>();
-			for (const e of t.events) {
-				const row = await trx
-					.insertInto('event')
-					.values({ team_id: team.id, name: e.name, starts_on: e.startsOn, ends_on: e.endsOn, place: e.place, format: e.format, notes: e.notes, created_at: e.createdAt })
-					.returning('id')
-					.executeTakeFirstOrThrow();
-				eventIds.set(e.key, row.id);
-			}
-
-			let files = 0;
-			for (const [i, r] of t.runs.entries()) {
-				const run = await trx
-					.insertInto('run')
-					.values({
-						vehicle_id: vehicleIds.get(r.vehicle)!,
-						event_id: r.event ? eventIds.get(r.event)! : null,
-						revision_id: r.revision === null ? null : revisionIds.get(`${r.vehicle}#${r.revision}`)!,
-						ran_at: r.ranAt,
-						...measurementColumns(r),
-						author_id: null,
-						imported_by: recorded(r.authorEmail),
-						created_at: r.createdAt,
-					})
-					.returning('id')
-					.executeTakeFirstOrThrow();
-				for (let k = 0; k < r.samples.length; k += 5000) {
-					await trx
-						.insertInto('run_sample')
-						.values(r.samples.slice(k, k + 5000).map(([tS, volts, amps], j) => ({ run_id: run.id, seq: k + j, t_s: tS, volts, amps })))
-						.execute();
-				}
-				// Photos first, so each thumbnail takes its photo's new name.
-				const runFiles = [...(prepared.files[i] ?? [])].sort((a, b) => Number(a.kind === 'thumbnail') - Number(b.kind === 'thumbnail'));
-				const photoBase = new Map<number, string>();
-				for (const f of runFiles) {
-					let objectKey: string;
-					if (f.kind === 'photo') {
-						const base = `teams/${team.id}/runs/${run.id}/photo-${randomUUID()}`;
-						photoBase.set(f.sourceIndex, base);
-						objectKey = `${base}.${f.contentType.split('/')[1]}`;
-					} else if (f.kind === 'thumbnail') {
-						const base = photoBase.get(f.pairedWith!) ?? `teams/${team.id}/runs/${run.id}/photo-${randomUUID()}`;
-						objectKey = `${base}-thumb.webp`;
-					} else {
-						objectKey = `teams/${team.id}/runs/${run.id}/logger-${randomUUID()}.csv`;
-					}
-					written.push(objectKey);
-					await storage.put(objectKey, f.bytes, f.contentType);
-					await trx
-						.insertInto('stored_file')
-						.values({ team_id: team.id, run_id: run.id, kind: f.kind, object_key: objectKey, file_name: f.fileName, content_type: f.contentType, size_bytes: f.bytes.byteLength, created_at: f.createdAt })
-						.execute();
-					files++;
-				}
-			}
-
-			for (const s of t.signoffs) {
-				await trx
-					.insertInto('check_signoff')
-					.values({ event_id: eventIds.get(s.event)!, vehicle_id: vehicleIds.get(s.vehicle)!, item_key: itemIds.get(s.item) ?? s.item, signed_by: null, imported_by: recorded(s.signedByEmail), signed_at: s.signedAt, note: s.note })
-					.execute();
-			}
-			return { teamId: team.id, name: team.name, members: 1, invitations: roles.size, vehicles: t.vehicles.length, revisions, plans, events: t.events.length, runs: t.runs.length, files, photosCleaned: prepared.photosCleaned };
+			written.push(objectKey);
+			await storage.put(objectKey, f.bytes, f.contentType);
+			return objectKey;
 		});
+		return { ...counts, photosCleaned: prepared.photosCleaned };
 	} catch (e) {
 		await Promise.all(written.map((k) => storage.remove(k).catch(() => undefined)));
 		throw e;

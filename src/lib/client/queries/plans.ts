@@ -1,7 +1,9 @@
-import { queryOptions } from '@tanstack/react-query';
-import type { ComparisonColumn } from '@/engine/compare';
-import type { PlanDto, PlanSummary } from '@/lib/server/db/plans';
-import { getJson } from '../api-client';
+import { queryOptions, useMutation, useQueryClient } from '@tanstack/react-query';
+import type { ComparisonColumn } from '@/engine';
+import type { PlanDto, PlanSummary, UpdatePlanInput } from '@/lib/schemas/plans';
+import type { RevisionDto } from '@/lib/schemas/vehicles';
+import { api, getJson } from '@/lib/client/api-client';
+import { buildKeys } from './builds';
 
 export type { PlanDto, PlanSummary, ComparisonColumn };
 
@@ -29,3 +31,34 @@ export const compareQueryOptions = (teamId: string, vehicleId: string, ids: stri
 		queryFn: ({ signal }) => getJson<ComparisonDto>(`/api/teams/${teamId}/vehicles/${vehicleId}/plans/compare?plans=${ids.join(',')}&engineRpm=${engineRpm}`, { signal }),
 		enabled: ids.length > 0,
 	});
+
+export function useCreatePlan(teamId: string, vehicleId: string) {
+	return useMutation({ mutationFn: (input: { name: string; fromRevisionId?: string }) => api<PlanDto>(`/api/teams/${teamId}/vehicles/${vehicleId}/plans`, { json: input }) });
+}
+
+/** Saves a plan on top of `version`; a 409 means someone saved it meanwhile (see `fetchPlan`). */
+export function useSavePlan(teamId: string, vehicleId: string, planId: string) {
+	const qc = useQueryClient();
+	return useMutation({
+		mutationFn: (input: UpdatePlanInput) => api<PlanDto>(`/api/teams/${teamId}/vehicles/${vehicleId}/plans/${planId}`, { method: 'PUT', json: input }),
+		onSuccess: () => qc.invalidateQueries({ queryKey: planKeys.all }),
+	});
+}
+
+export const fetchPlan = (teamId: string, vehicleId: string, planId: string) => api<PlanDto>(`/api/teams/${teamId}/vehicles/${vehicleId}/plans/${planId}`);
+
+export function useInstallPlan(teamId: string, vehicleId: string) {
+	const qc = useQueryClient();
+	return useMutation({
+		mutationFn: ({ planId, parentId }: { planId: string; parentId: string | null }) => api<RevisionDto>(`/api/teams/${teamId}/vehicles/${vehicleId}/plans/${planId}/install`, { json: { parentId } }),
+		onSuccess: () => Promise.all([qc.invalidateQueries({ queryKey: planKeys.all }), qc.invalidateQueries({ queryKey: buildKeys.revisions(vehicleId) })]),
+	});
+}
+
+export function useDeletePlan(teamId: string, vehicleId: string) {
+	const qc = useQueryClient();
+	return useMutation({
+		mutationFn: (planId: string) => api(`/api/teams/${teamId}/vehicles/${vehicleId}/plans/${planId}`, { method: 'DELETE' }),
+		onSuccess: () => qc.invalidateQueries({ queryKey: planKeys.all }),
+	});
+}

@@ -1,27 +1,9 @@
 import type { Kysely } from 'kysely';
 import type { Database, RevisionRow } from '@/lib/server/db/schema';
-import type { BuildDocument } from '@/engine/types';
+import type { BuildDocument } from '@/engine';
+import type { RevisionDto, RevisionSummary } from '@/lib/schemas/vehicles';
 
 type Db = Kysely<Database>;
-
-export interface RevisionSummary {
-	id: string;
-	number: number;
-	parentId: string | null;
-	message: string;
-	authorName: string | null;
-	createdAt: string;
-	restoredFromNumber: number | null;
-}
-
-export interface RevisionDto extends RevisionSummary {
-	schemaVersion: number;
-	document: BuildDocument;
-}
-
-export function findVehicle(db: Db, teamId: string, vehicleId: string) {
-	return db.selectFrom('vehicle').selectAll().where('team_id', '=', teamId).where('id', '=', vehicleId).executeTakeFirst();
-}
 
 export function findBuildForVehicle(db: Db, vehicleId: string) {
 	return db.selectFrom('build').selectAll().where('vehicle_id', '=', vehicleId).executeTakeFirst();
@@ -92,18 +74,27 @@ export async function appendRevision(
 	});
 }
 
-/** Creates a vehicle with its (empty) build, in one transaction. */
-export async function insertVehicleWithBuild(
-	db: Db,
-	v: { teamId: string; name: string; description: string; competitionClass: string; notes: string; ownerId: string | null },
-) {
-	return db.transaction().execute(async (trx) => {
-		const vehicle = await trx
-			.insertInto('vehicle')
-			.values({ team_id: v.teamId, name: v.name, description: v.description, competition_class: v.competitionClass, notes: v.notes, owner_id: v.ownerId })
-			.returningAll()
-			.executeTakeFirstOrThrow();
-		const build = await trx.insertInto('build').values({ vehicle_id: vehicle.id }).returning('id').executeTakeFirstOrThrow();
-		return { vehicle, buildId: build.id };
-	});
+/** The revision of a vehicle's build that was the newest at a moment (the configuration in force). */
+export async function revisionInForce(db: Db, vehicleId: string, at: Date): Promise<string | null> {
+	const row = await db
+		.selectFrom('revision as r')
+		.innerJoin('build as b', 'b.id', 'r.build_id')
+		.select('r.id')
+		.where('b.vehicle_id', '=', vehicleId)
+		.where('r.created_at', '<=', at)
+		.orderBy('r.created_at', 'desc')
+		.limit(1)
+		.executeTakeFirst();
+	return row?.id ?? null;
+}
+
+export async function revisionBelongsTo(db: Db, vehicleId: string, revisionId: string): Promise<boolean> {
+	const row = await db.selectFrom('revision as r').innerJoin('build as b', 'b.id', 'r.build_id').select('r.id').where('b.vehicle_id', '=', vehicleId).where('r.id', '=', revisionId).executeTakeFirst();
+	return Boolean(row);
+}
+
+/** Every revision of a build with its document, newest first, in one query (the history page). */
+export async function listRevisionsWithDocuments(db: Db, buildId: string): Promise<RevisionDto[]> {
+	const rows = await baseRevisionQuery(db).select([...summaryColumns, 'r.document']).where('r.build_id', '=', buildId).orderBy('r.number', 'desc').execute();
+	return rows.map((r) => ({ ...toSummary(r), schemaVersion: r.schema_version, document: r.document as BuildDocument }));
 }

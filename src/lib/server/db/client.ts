@@ -1,4 +1,4 @@
-import { Kysely, PostgresDialect } from 'kysely';
+import { Kysely, PostgresDialect, sql } from 'kysely';
 import pg from 'pg';
 import type { Database } from '@/lib/server/db/schema';
 
@@ -26,4 +26,10 @@ export function createDb(connectionString: string, max = 10): Kysely<Database> {
 		client.on('error', (error) => console.error('database client error:', error.message));
 	});
 	return new Kysely<Database>({ dialect: new PostgresDialect({ pool }) });
+}
+
+/** The server's version, read in one round trip (the health check). */
+export async function serverVersion(db: Kysely<Database>): Promise<string> {
+	const { rows } = await sql<{ version: string }>`select current_setting('server_version') as version`.execute(db);
+	return rows[0]?.version ?? '';
 }

@@ -1,40 +1,10 @@
 import { type Kysely, sql } from 'kysely';
 import type { Database } from '@/lib/server/db/schema';
-import type { BuildDocument } from '@/engine/types';
-import type { PlanPartInput, UpdatePlanInput } from '@/lib/schemas/plans';
+import type { BuildDocument } from '@/engine';
+import type { PlanDto, PlanPart, PlanPartInput, PlanSummary, UpdatePlanInput } from '@/lib/schemas/plans';
 import { appendRevision, type SaveResult, shownAuthor } from './builds';
 
 type Db = Kysely<Database>;
-
-export interface PlanPart {
-	item: string;
-	quantity: number;
-	/** Per unit, in the team's currency. */
-	unitPrice: number;
-	link: string;
-}
-
-export interface PlanSummary {
-	id: string;
-	name: string;
-	notes: string;
-	baseRevisionId: string | null;
-	baseRevisionNumber: number | null;
-	partCount: number;
-	/** Sum of quantity × unit price, in the team's currency. */
-	total: number;
-	authorName: string | null;
-	createdAt: string;
-	updatedAt: string;
-	installedRevisionNumber: number | null;
-	installedAt: string | null;
-}
-
-export interface PlanDto extends PlanSummary {
-	version: number;
-	document: BuildDocument;
-	parts: PlanPart[];
-}
 
 export const toMinor = (price: number) => Math.round(price * 100);
 export const fromMinor = (minor: string | number) => Number(minor) / 100;
@@ -175,4 +145,10 @@ export function installPlan(db: Db, p: { buildId: string; planId: string; parent
 	return appendRevision(db, { buildId: p.buildId, parentId: p.parentId, document: p.document, message: p.message, authorId: p.authorId }, async (trx, revision) => {
 		await trx.updateTable('plan').set({ installed_revision_id: revision.id, installed_at: new Date() }).where('id', '=', p.planId).execute();
 	});
+}
+
+/** The vehicle's plans that were installed, by the revision they made. */
+export async function findInstalledPlans(db: Db, vehicleId: string): Promise<Map<string, { id: string; name: string }>> {
+	const rows = await db.selectFrom('plan').select(['id', 'name', 'installed_revision_id']).where('vehicle_id', '=', vehicleId).where('installed_revision_id', 'is not', null).execute();
+	return new Map(rows.map((p) => [p.installed_revision_id!, { id: p.id, name: p.name }]));
 }

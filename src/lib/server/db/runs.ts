@@ -1,63 +1,9 @@
 import type { Kysely } from 'kysely';
 import type { Database } from '@/lib/server/db/schema';
+import { measurementColumns, measurementsOf, type RunMeasurements } from '@/lib/schemas/run-measurements';
+import type { RunDto, RunSample } from '@/lib/schemas/runs';
 
 type Db = Kysely<Database>;
-
-export interface EventDto {
-	id: string;
-	name: string;
-	startsOn: string;
-	endsOn: string;
-	place: string;
-	format: string;
-	notes: string;
-}
-
-/** What a run measured, as the API and the backup file name it. */
-export interface RunMeasurements {
-	scoreDb: number | null;
-	frequencyHz: number | null;
-	restingV: number | null;
-	minV: number | null;
-	ambientC: number | null;
-	notes: string;
-}
-
-type MeasurementColumns = { score_db: number | null; frequency_hz: number | null; resting_v: number | null; min_v: number | null; ambient_c: number | null; notes: string };
-
-const MEASUREMENT_COLUMNS = { scoreDb: 'score_db', frequencyHz: 'frequency_hz', restingV: 'resting_v', minV: 'min_v', ambientC: 'ambient_c', notes: 'notes' } as const;
-
-/** The run table's columns for the measurements given (absent ones are left out, for partial updates). */
-export function measurementColumns(m: Partial<RunMeasurements>): Partial<MeasurementColumns> {
-	const out: Record<string, unknown> = {};
-	for (const [field, column] of Object.entries(MEASUREMENT_COLUMNS)) if (m[field as keyof RunMeasurements] !== undefined) out[column] = m[field as keyof RunMeasurements];
-	return out as Partial<MeasurementColumns>;
-}
-
-export function measurementsOf(r: MeasurementColumns): RunMeasurements {
-	return { scoreDb: r.score_db, frequencyHz: r.frequency_hz, restingV: r.resting_v, minV: r.min_v, ambientC: r.ambient_c, notes: r.notes };
-}
-
-export interface RunDto extends RunMeasurements {
-	id: string;
-	vehicleId: string;
-	vehicleName: string;
-	eventId: string | null;
-	eventName: string | null;
-	revisionId: string | null;
-	revisionNumber: number | null;
-	ranAt: string;
-	hasLogger: boolean;
-}
-
-export async function findEvents(db: Db, teamId: string): Promise<EventDto[]> {
-	const rows = await db.selectFrom('event').selectAll().where('team_id', '=', teamId).orderBy('starts_on').execute();
-	return rows.map((e) => ({ id: e.id, name: e.name, startsOn: e.starts_on, endsOn: e.ends_on, place: e.place, format: e.format, notes: e.notes }));
-}
-
-export function findEvent(db: Db, teamId: string, eventId: string) {
-	return db.selectFrom('event').selectAll().where('team_id', '=', teamId).where('id', '=', eventId).executeTakeFirst();
-}
 
 function runQuery(db: Db, teamId: string) {
 	return db
@@ -100,26 +46,69 @@ export async function findRun(db: Db, teamId: string, runId: string): Promise<Ru
 	return r && toRunDto(r);
 }
 
-/** The revision of a vehicle's build that was the newest at a moment (the configuration in force). */
-export async function revisionInForce(db: Db, vehicleId: string, at: Date): Promise<string | null> {
+export async function insertRun(
+	db: Db,
+	r: Partial<RunMeasurements> & { vehicleId: string; eventId: string | null; revisionId: string | null; ranAt: string; authorId: string },
+): Promise<string> {
 	const row = await db
-		.selectFrom('revision as r')
-		.innerJoin('build as b', 'b.id', 'r.build_id')
-		.select('r.id')
-		.where('b.vehicle_id', '=', vehicleId)
-		.where('r.created_at', '<=', at)
-		.orderBy('r.created_at', 'desc')
-		.limit(1)
-		.executeTakeFirst();
-	return row?.id ?? null;
+		.insertInto('run')
+		.values({ vehicle_id: r.vehicleId, event_id: r.eventId, revision_id: r.revisionId, ran_at: r.ranAt, ...measurementColumns(r), author_id: r.authorId })
+		.returning('id')
+		.executeTakeFirstOrThrow();
+	return row.id;
 }
 
-export async function revisionBelongsTo(db: Db, vehicleId: string, revisionId: string): Promise<boolean> {
-	const row = await db.selectFrom('revision as r').innerJoin('build as b', 'b.id', 'r.build_id').select('r.id').where('b.vehicle_id', '=', vehicleId).where('r.id', '=', revisionId).executeTakeFirst();
-	return Boolean(row);
+/** Changes a run's links and measurements; fields left out stay as they are. */
+export async function updateRun(db: Db, runId: string, r: Partial<RunMeasurements> & { eventId?: string | null; ranAt?: string; revisionId: string | null }): Promise<void> {
+	await db
+		.updateTable('run')
+		.set({
+			...(r.eventId !== undefined ? { event_id: r.eventId } : {}),
+			...(r.ranAt ? { ran_at: r.ranAt } : {}),
+			revision_id: r.revisionId,
+			...measurementColumns(r),
+		})
+		.where('id', '=', runId)
+		.execute();
 }
 
-export async function findSamples(db: Db, runId: string) {
+/** Deletes a run; its samples and file rows go with it (ON DELETE CASCADE). */
+export async function deleteRun(db: Db, runId: string): Promise<void> {
+	await db.deleteFrom('run').where('id', '=', runId).execute();
+}
+
+export async function findSamples(db: Db, runId: string): Promise<RunSample[]> {
 	const rows = await db.selectFrom('run_sample').select(['t_s', 'volts', 'amps']).where('run_id', '=', runId).orderBy('seq').execute();
 	return rows.map((r) => ({ tS: r.t_s, volts: r.volts, amps: r.amps }));
+}
+
+export type ReplaceLoggerResult = { ok: true; replacedKeys: string[] } | { ok: false; reason: 'busy' };
+
+/**
+ * Puts a new logger file in place of a run's old one, in one transaction: the run row is locked
+ * (a second upload at the same time is told it is busy), the old samples and file row go, the new
+ * ones come in. Answers the object keys of the replaced files, for the caller to remove from storage.
+ */
+export async function replaceLoggerData(
+	db: Db,
+	p: { teamId: string; runId: string; objectKey: string; fileName: string; sizeBytes: number; samples: RunSample[] },
+): Promise<ReplaceLoggerResult> {
+	return db.transaction().execute(async (trx): Promise<ReplaceLoggerResult> => {
+		const locked = await trx.selectFrom('run').select('id').where('id', '=', p.runId).forUpdate().skipLocked().executeTakeFirst();
+		if (!locked) return { ok: false, reason: 'busy' };
+		const old = await trx.selectFrom('stored_file').select('object_key').where('run_id', '=', p.runId).where('kind', '=', 'logger').execute();
+		await trx.deleteFrom('run_sample').where('run_id', '=', p.runId).execute();
+		await trx.deleteFrom('stored_file').where('run_id', '=', p.runId).where('kind', '=', 'logger').execute();
+		await trx
+			.insertInto('stored_file')
+			.values({ team_id: p.teamId, run_id: p.runId, kind: 'logger', object_key: p.objectKey, file_name: p.fileName, content_type: 'text/csv', size_bytes: p.sizeBytes })
+			.execute();
+		for (let i = 0; i < p.samples.length; i += 1000) {
+			await trx
+				.insertInto('run_sample')
+				.values(p.samples.slice(i, i + 1000).map((s, j) => ({ run_id: p.runId, seq: i + j, t_s: s.tS, volts: s.volts, amps: s.amps })))
+				.execute();
+		}
+		return { ok: true, replacedKeys: old.map((f) => f.object_key) };
+	});
 }

@@ -3,6 +3,8 @@
  * Measured quantities are double precision in SI units; build documents are JSONB.
  */
 import type { ColumnType, Generated, Insertable, Selectable, Updateable } from 'kysely';
+import type { RunNumberColumns } from '@/lib/schemas/run-measurements';
+import type { Role } from '@/lib/schemas/teams';
 
 type Timestamp = ColumnType<Date, Date | string, Date | string>;
 /** A timestamp the database fills in by default. */
@@ -65,7 +67,7 @@ export interface RevisionTable {
 	created_at: DefaultTimestamp;
 }
 
-export type Role = 'captain' | 'member' | 'viewer';
+export type { Role } from '@/lib/schemas/teams';
 
 export interface UserTable {
 	id: string;
@@ -168,17 +170,13 @@ export interface EventTable {
 	created_at: DefaultTimestamp;
 }
 
-export interface RunTable {
+/** The measured numbers' columns come from their one definition (src/lib/schemas/run-measurements.ts). */
+export interface RunTable extends RunNumberColumns {
 	id: Generated<string>;
 	vehicle_id: string;
 	event_id: string | null;
 	revision_id: string | null;
 	ran_at: Timestamp;
-	score_db: number | null;
-	frequency_hz: number | null;
-	resting_v: number | null;
-	min_v: number | null;
-	ambient_c: number | null;
 	notes: Generated<string>;
 	author_id: string | null;
 	/** As recorded in a restored backup (never a live account of this installation). */

@@ -1,15 +1,8 @@
 import { type Kysely, sql } from 'kysely';
 import type { Database, InvitationRow, Role } from '@/lib/server/db/schema';
+import type { InvitationDto, MemberDto, TeamSettingsDto, TeamSummary } from '@/lib/schemas/teams';
 
 type Db = Kysely<Database>;
-
-export interface TeamSummary {
-	id: string;
-	name: string;
-	role: Role;
-	members: number;
-	vehicles: number;
-}
 
 export async function findTeamsForUser(db: Db, userId: string): Promise<TeamSummary[]> {
 	const rows = await db
@@ -51,14 +44,6 @@ export async function renameTeam(db: Db, teamId: string, name: string): Promise<
 
 export async function deleteTeam(db: Db, teamId: string): Promise<void> {
 	await db.deleteFrom('team').where('id', '=', teamId).execute();
-}
-
-export interface MemberDto {
-	userId: string;
-	name: string | null;
-	email: string;
-	role: Role;
-	joinedAt: string;
 }
 
 export async function findMembers(db: Db, teamId: string): Promise<MemberDto[]> {
@@ -106,17 +91,6 @@ export async function removeMember(db: Db, teamId: string, userId: string): Prom
 // ---- invitations
 
 export const INVITATION_TTL_MS = 7 * 24 * 3600 * 1000;
-
-export interface InvitationDto {
-	id: string;
-	email: string;
-	role: Role;
-	invitedBy: string | null;
-	createdAt: string;
-	lastSentAt: string;
-	expiresAt: string;
-	expired: boolean;
-}
 
 export function toInvitationDto(r: InvitationRow & { inviter_name?: string | null }): InvitationDto {
 	return {
@@ -233,4 +207,27 @@ export async function acceptInvitation(db: Db, tokenHash: string, user: { id: st
 		await trx.updateTable('invitation').set({ accepted_at: new Date(), accepted_by: user.id }).where('id', '=', inv.id).execute();
 		return { ok: true, teamId: inv.team_id, role: existing && rank[existing.role] > rank[inv.role] ? existing.role : inv.role };
 	});
+}
+
+// ---- settings
+
+/** The team's settings as its members see them (name and role from the caller's access). */
+export async function findTeamSettings(db: Db, access: { teamId: string; teamName: string; role: Role }): Promise<TeamSettingsDto> {
+	const team = await db.selectFrom('team').select(['currency', 'reminder_days', 'fuse_distance_m']).where('id', '=', access.teamId).executeTakeFirstOrThrow();
+	return { id: access.teamId, name: access.teamName, role: access.role, currency: team.currency, reminderDays: team.reminder_days, fuseDistanceM: team.fuse_distance_m };
+}
+
+export async function updateTeamSettings(db: Db, teamId: string, s: { currency?: string; reminderDays?: number }): Promise<void> {
+	const set = { ...(s.currency !== undefined && { currency: s.currency }), ...(s.reminderDays !== undefined && { reminder_days: s.reminderDays }) };
+	if (Object.keys(set).length) await db.updateTable('team').set(set).where('id', '=', teamId).execute();
+}
+
+/** The ISO 4217 code the team's plan prices are in. */
+export async function findTeamCurrency(db: Db, teamId: string): Promise<string> {
+	return (await db.selectFrom('team').select('currency').where('id', '=', teamId).executeTakeFirstOrThrow()).currency;
+}
+
+/** The distance within which a battery cable's fuse must sit, for the pre-event checks (m). */
+export async function findTeamFuseDistance(db: Db, teamId: string): Promise<number> {
+	return (await db.selectFrom('team').select('fuse_distance_m').where('id', '=', teamId).executeTakeFirstOrThrow()).fuse_distance_m;
 }

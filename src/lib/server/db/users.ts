@@ -1,6 +1,6 @@
 import { randomUUID } from 'node:crypto';
 import { type Kysely, sql } from 'kysely';
-import type { Database, UserRow } from '@/lib/server/db/schema';
+import type { Database, RateEventTable, UserRow } from '@/lib/server/db/schema';
 
 type Db = Kysely<Database>;
 
@@ -101,4 +101,37 @@ export async function completePasswordReset(db: Db, userId: string, passwordHash
 		.where('id', '=', userId)
 		.execute();
 	await db.updateTable('password_reset').set({ used_at: new Date() }).where('user_id', '=', userId).where('used_at', 'is', null).execute();
+}
+
+export async function setUnitSystem(db: Db, userId: string, unitSystem: 'imperial' | 'metric'): Promise<void> {
+	await db.updateTable('User').set({ unitSystem }).where('id', '=', userId).execute();
+}
+
+/** How many times this kind of action was tried for an address, and from a client, within the window. */
+export async function countRateEvents(db: Db, kind: RateEventTable['kind'], email: string, client: string, windowMs: number): Promise<{ byEmail: number; byClient: number }> {
+	const since = sql<boolean>`created_at > now() - make_interval(secs => ${windowMs / 1000})`;
+	const row = (await db
+		.selectNoFrom((eb) => [
+			eb.selectFrom('rate_event').select((e) => e.fn.countAll<number>().as('n')).where('kind', '=', kind).where('email', '=', email.toLowerCase()).where(since).as('byEmail'),
+			eb.selectFrom('rate_event').select((e) => e.fn.countAll<number>().as('n')).where('kind', '=', kind).where('client', '=', client).where(since).as('byClient'),
+		])
+		.executeTakeFirstOrThrow()) as { byEmail: number; byClient: number };
+	return { byEmail: Number(row.byEmail), byClient: Number(row.byClient) };
+}
+
+export async function recordRateEvent(db: Db, kind: RateEventTable['kind'], email: string, client: string): Promise<void> {
+	await db.insertInto('rate_event').values({ kind, email: email.toLowerCase(), client }).execute();
+}
+
+
+/**
+ * Sets a new password with a reset token, in one transaction: the token is spent (single use,
+ * expiring), every older session ends, every other open reset link is spent, the address is confirmed.
+ */
+export function resetPassword(db: Db, tokenHash: string, passwordHash: string): Promise<ConsumeResult> {
+	return db.transaction().execute(async (trx) => {
+		const consumed = await consumePasswordReset(trx, tokenHash);
+		if (consumed.ok) await completePasswordReset(trx, consumed.userId, passwordHash);
+		return consumed;
+	});
 }

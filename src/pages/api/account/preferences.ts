@@ -1,5 +1,6 @@
 import type { APIRoute } from 'astro';
 import { z } from 'zod';
+import { setUnitSystem } from '@/lib/server/db/users';
 import { problem, readJson } from '@/lib/server/http';
 
 const preferencesSchema = z.object({ unitSystem: z.enum(['imperial', 'metric'], { error: 'Units are imperial or metric' }) });
@@ -9,6 +10,6 @@ export const PATCH: APIRoute = async ({ request, locals }) => {
 	if (!locals.user) return problem(401, 'unauthenticated', 'Sign in first');
 	const body = await readJson(request, preferencesSchema);
 	if (!body.ok) return body.response;
-	await locals.db.updateTable('User').set({ unitSystem: body.data.unitSystem }).where('id', '=', locals.user.id).execute();
+	await setUnitSystem(locals.db, locals.user.id, body.data.unitSystem);
 	return new Response(null, { status: 204 });
 };

@@ -1,6 +1,6 @@
 import type { APIRoute } from 'astro';
 import { passwordResetConfirmSchema } from '@/lib/schemas/account';
-import { completePasswordReset, consumePasswordReset } from '@/lib/server/db/users';
+import { resetPassword } from '@/lib/server/db/users';
 import { problem, readJson } from '@/lib/server/http';
 import { hashPassword } from '@/lib/server/passwords';
 import { hashToken } from '@/lib/server/tokens';
@@ -14,11 +14,7 @@ export const POST: APIRoute = async ({ request, locals }) => {
 	const body = await readJson(request, passwordResetConfirmSchema);
 	if (!body.ok) return body.response;
 	const passwordHash = await hashPassword(body.data.password);
-	const result = await locals.db.transaction().execute(async (trx) => {
-		const consumed = await consumePasswordReset(trx, hashToken(body.data.token));
-		if (consumed.ok) await completePasswordReset(trx, consumed.userId, passwordHash);
-		return consumed;
-	});
+	const result = await resetPassword(locals.db, hashToken(body.data.token), passwordHash);
 	if (!result.ok) {
 		if (result.reason === 'expired') return problem(410, 'token_expired', 'This reset link has expired. Ask for a new one.');
 		if (result.reason === 'used') return problem(410, 'token_used', 'This reset link was already used. Ask for a new one.');

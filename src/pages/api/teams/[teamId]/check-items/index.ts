@@ -1,7 +1,8 @@
 import type { APIRoute } from 'astro';
 import { z } from 'zod';
 import { lineText } from '@/lib/schemas/text';
-import { requireTeamRole } from '@/lib/server/authz';
+import { requireTeamRole } from '@/lib/server/access';
+import { findCheckItems, insertCheckItem } from '@/lib/server/db/checks';
 import { readJson } from '@/lib/server/http';
 
 const newItemSchema = z.object({ label: lineText(200, { required: 'Say what to check' }) });
@@ -9,7 +10,7 @@ const newItemSchema = z.object({ label: lineText(200, { required: 'Say what to c
 export const GET: APIRoute = async ({ params, locals }) => {
 	const auth = await requireTeamRole(locals, params.teamId, 'viewer');
 	if (!auth.ok) return auth.response;
-	return Response.json(await locals.db.selectFrom('check_item').select(['id', 'label']).where('team_id', '=', auth.access.teamId).orderBy('created_at').execute());
+	return Response.json(await findCheckItems(locals.db, auth.value.teamId));
 };
 
 /** Adds a manual item to every pre-event checklist of the team. */
@@ -18,6 +19,6 @@ export const POST: APIRoute = async ({ params, request, locals }) => {
 	if (!auth.ok) return auth.response;
 	const body = await readJson(request, newItemSchema);
 	if (!body.ok) return body.response;
-	const row = await locals.db.insertInto('check_item').values({ team_id: auth.access.teamId, label: body.data.label }).returning(['id', 'label']).executeTakeFirstOrThrow();
+	const row = await insertCheckItem(locals.db, auth.value.teamId, body.data.label);
 	return Response.json(row, { status: 201 });
 };

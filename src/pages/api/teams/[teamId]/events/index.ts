@@ -1,13 +1,13 @@
 import type { APIRoute } from 'astro';
 import { newEventSchema } from '@/lib/schemas/events';
-import { requireTeamRole } from '@/lib/server/authz';
-import { findEvents } from '@/lib/server/db/runs';
+import { requireTeamRole } from '@/lib/server/access';
+import { findEvents, insertEvent } from '@/lib/server/db/events';
 import { readJson } from '@/lib/server/http';
 
 export const GET: APIRoute = async ({ params, locals }) => {
 	const auth = await requireTeamRole(locals, params.teamId, 'viewer');
 	if (!auth.ok) return auth.response;
-	return Response.json(await findEvents(locals.db, auth.access.teamId));
+	return Response.json(await findEvents(locals.db, auth.value.teamId));
 };
 
 export const POST: APIRoute = async ({ params, request, locals }) => {
@@ -16,10 +16,6 @@ export const POST: APIRoute = async ({ params, request, locals }) => {
 	const body = await readJson(request, newEventSchema);
 	if (!body.ok) return body.response;
 	const e = body.data;
-	const row = await locals.db
-		.insertInto('event')
-		.values({ team_id: auth.access.teamId, name: e.name, starts_on: e.startsOn, ends_on: e.endsOn, place: e.place, format: e.format, notes: e.notes })
-		.returning('id')
-		.executeTakeFirstOrThrow();
-	return Response.json({ id: row.id, ...e }, { status: 201 });
+	const id = await insertEvent(locals.db, auth.value.teamId, e);
+	return Response.json({ id, ...e }, { status: 201 });
 };

@@ -1,6 +1,7 @@
 import type { APIRoute } from 'astro';
 import { parseUuid } from '@/lib/schemas/ids';
-import { requireTeamRole } from '@/lib/server/authz';
+import { requireTeamRole } from '@/lib/server/access';
+import { findTeamFile } from '@/lib/server/db/files';
 import { problem } from '@/lib/server/http';
 import { sniffImage } from '@/lib/server/file-content';
 
@@ -20,7 +21,7 @@ export const GET: APIRoute = async ({ params, locals }) => {
 	const auth = await requireTeamRole(locals, params.teamId, 'viewer');
 	if (!auth.ok) return auth.response;
 	const id = parseUuid(params.fileId);
-	const file = id && (await locals.db.selectFrom('stored_file').selectAll().where('team_id', '=', auth.access.teamId).where('id', '=', id).executeTakeFirst());
+	const file = id && (await findTeamFile(locals.db, auth.value.teamId, id));
 	if (!file) return problem(404, 'not_found', 'No such file');
 	const body = await locals.storage.get(file.object_key);
 	if (!body) return problem(404, 'not_found', 'The file is missing from storage');

@@ -1,6 +1,6 @@
 import type { APIRoute } from 'astro';
 import { changeRoleSchema } from '@/lib/schemas/account';
-import { requireTeamRole } from '@/lib/server/authz';
+import { requireTeamRole } from '@/lib/server/access';
 import { changeRole, type MembershipChange, removeMember } from '@/lib/server/db/teams';
 import { problem, readJson } from '@/lib/server/http';
 
@@ -16,7 +16,7 @@ export const PATCH: APIRoute = async ({ params, request, locals }) => {
 	if (!auth.ok) return auth.response;
 	const body = await readJson(request, changeRoleSchema);
 	if (!body.ok) return body.response;
-	return answer(await changeRole(locals.db, auth.access.teamId, params.userId ?? '', body.data.role));
+	return answer(await changeRole(locals.db, auth.value.teamId, params.userId ?? '', body.data.role));
 };
 
 /** Removes a member (captains), or leaves the team (anyone, for themselves). */
@@ -24,5 +24,5 @@ export const DELETE: APIRoute = async ({ params, locals }) => {
 	const self = locals.user && params.userId === locals.user.id;
 	const auth = await requireTeamRole(locals, params.teamId, self ? 'viewer' : 'captain');
 	if (!auth.ok) return auth.response;
-	return answer(await removeMember(locals.db, auth.access.teamId, params.userId ?? ''));
+	return answer(await removeMember(locals.db, auth.value.teamId, params.userId ?? ''));
 };

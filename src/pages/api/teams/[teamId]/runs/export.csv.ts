@@ -1,29 +1,28 @@
 import type { APIRoute } from 'astro';
 import Papa from 'papaparse';
-import { parseUuid } from '@/lib/schemas/ids';
-import { requireTeamRole } from '@/lib/server/authz';
+import { runListQuerySchema } from '@/lib/schemas/runs';
+import { RUN_MEASUREMENTS, MEASUREMENT_FIELDS } from '@/lib/schemas/run-measurements';
+import { readQuery } from '@/lib/server/http';
+import { requireTeamRole } from '@/lib/server/access';
 import { findRuns } from '@/lib/server/db/runs';
 
 /** The team's runs (or one vehicle's) as CSV. */
 export const GET: APIRoute = async ({ params, locals, url }) => {
 	const auth = await requireTeamRole(locals, params.teamId, 'viewer');
 	if (!auth.ok) return auth.response;
-	const vehicleId = parseUuid(url.searchParams.get('vehicleId')) ?? undefined;
-	const runs = await findRuns(locals.db, auth.access.teamId, { vehicleId });
+	const query = readQuery(url, runListQuerySchema);
+	if (!query.ok) return query.response;
+	const runs = await findRuns(locals.db, auth.value.teamId, query.data);
 	const csv = Papa.unparse(
 		runs.map((r) => ({
 			ran_at: r.ranAt,
 			vehicle: r.vehicleName,
 			event: r.eventName ?? '',
 			revision: r.revisionNumber ?? '',
-			score_db: r.scoreDb ?? '',
-			frequency_hz: r.frequencyHz ?? '',
-			resting_v: r.restingV ?? '',
-			min_v: r.minV ?? '',
-			ambient_c: r.ambientC ?? '',
+			...Object.fromEntries(MEASUREMENT_FIELDS.map((f) => [RUN_MEASUREMENTS[f].column, r[f] ?? ''])),
 			notes: r.notes,
 		})),
-		{ columns: ['ran_at', 'vehicle', 'event', 'revision', 'score_db', 'frequency_hz', 'resting_v', 'min_v', 'ambient_c', 'notes'], escapeFormulae: true },
+		{ columns: ['ran_at', 'vehicle', 'event', 'revision', ...MEASUREMENT_FIELDS.map((f) => RUN_MEASUREMENTS[f].column), 'notes'], escapeFormulae: true },
 	);
 	return new Response(csv, { headers: { 'content-type': 'text/csv; charset=utf-8', 'content-disposition': 'attachment; filename="runs.csv"' } });
 };

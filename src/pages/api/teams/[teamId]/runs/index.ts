@@ -1,17 +1,15 @@
 import type { APIRoute } from 'astro';
-import { newRunSchema } from '@/lib/schemas/events';
-import { parseUuid } from '@/lib/schemas/ids';
-import { requireTeamRole } from '@/lib/server/authz';
-import { findRun, findRuns, measurementColumns } from '@/lib/server/db/runs';
-import { problem, readJson } from '@/lib/server/http';
-import { resolveRunLinks } from '@/lib/server/runs';
+import { newRunSchema, runListQuerySchema } from '@/lib/schemas/runs';
+import { requireTeamRole, resolveRunLinks } from '@/lib/server/access';
+import { findRun, findRuns, insertRun } from '@/lib/server/db/runs';
+import { problem, readJson, readQuery } from '@/lib/server/http';
 
 export const GET: APIRoute = async ({ params, locals, url }) => {
 	const auth = await requireTeamRole(locals, params.teamId, 'viewer');
 	if (!auth.ok) return auth.response;
-	const vehicleId = parseUuid(url.searchParams.get('vehicleId')) ?? undefined;
-	const eventId = parseUuid(url.searchParams.get('eventId')) ?? undefined;
-	return Response.json(await findRuns(locals.db, auth.access.teamId, { vehicleId, eventId }));
+	const query = readQuery(url, runListQuerySchema);
+	if (!query.ok) return query.response;
+	return Response.json(await findRuns(locals.db, auth.value.teamId, query.data));
 };
 
 /** Logs a run; the revision in force at its time is linked unless one is given. */
@@ -21,19 +19,8 @@ export const POST: APIRoute = async ({ params, request, locals }) => {
 	const body = await readJson(request, newRunSchema);
 	if (!body.ok) return body.response;
 	const r = body.data;
-	const links = await resolveRunLinks(locals.db, auth.access.teamId, r.vehicleId, r);
+	const links = await resolveRunLinks(locals.db, auth.value.teamId, r.vehicleId, r);
 	if (!links.ok) return problem(400, 'invalid_input', 'Some links need attention', links.errors);
-	const row = await locals.db
-		.insertInto('run')
-		.values({
-			vehicle_id: r.vehicleId,
-			event_id: r.eventId,
-			revision_id: links.revisionId ?? null,
-			ran_at: r.ranAt,
-			...measurementColumns(r),
-			author_id: auth.access.userId,
-		})
-		.returning('id')
-		.executeTakeFirstOrThrow();
-	return Response.json(await findRun(locals.db, auth.access.teamId, row.id), { status: 201 });
+	const id = await insertRun(locals.db, { ...r, revisionId: links.revisionId ?? null, authorId: auth.value.userId });
+	return Response.json(await findRun(locals.db, auth.value.teamId, id), { status: 201 });
 };

@@ -1,6 +1,7 @@
 import { randomUUID } from 'node:crypto';
 import type { APIRoute } from 'astro';
-import { requireRun } from '@/lib/server/runs';
+import { requireRun } from '@/lib/server/access';
+import { findRunPhotos, insertPhotoPair } from '@/lib/server/db/files';
 import { problem } from '@/lib/server/http';
 import { readMultipart } from '@/lib/server/body';
 import { checkPhoto, makeThumbnail, MAX_PHOTO_BYTES } from '@/lib/server/file-content';
@@ -12,7 +13,7 @@ import { checkPhoto, makeThumbnail, MAX_PHOTO_BYTES } from '@/lib/server/file-co
 export const POST: APIRoute = async ({ params, request, locals }) => {
 	const found = await requireRun(locals, params, 'member');
 	if (!found.ok) return found.response;
-	const { access, run } = found;
+	const { access, run } = found.value;
 	const form = await readMultipart(request, MAX_PHOTO_BYTES + 64 * 1024, 'Photos are limited to 10 MB');
 	if (!form.ok) return form.response;
 	const file = form.data.get('file');
@@ -28,10 +29,12 @@ export const POST: APIRoute = async ({ params, request, locals }) => {
 	try {
 		await locals.storage.put(keys[0]!, checked.bytes, checked.type);
 		await locals.storage.put(keys[1]!, thumb, 'image/webp');
-		const ids = await locals.db.transaction().execute(async (trx) => {
-			const photo = await trx.insertInto('stored_file').values({ team_id: access.teamId, run_id: run.id, kind: 'photo', object_key: keys[0]!, file_name: name, content_type: checked.type, size_bytes: checked.bytes.byteLength }).returning('id').executeTakeFirstOrThrow();
-			const t = await trx.insertInto('stored_file').values({ team_id: access.teamId, run_id: run.id, kind: 'thumbnail', object_key: keys[1]!, file_name: `${name.slice(0, 190)} (thumbnail)`, content_type: 'image/webp', size_bytes: thumb.byteLength }).returning('id').executeTakeFirstOrThrow();
-			return { photoId: photo.id, thumbnailId: t.id };
+		const ids = await insertPhotoPair(locals.db, {
+			teamId: access.teamId,
+			runId: run.id,
+			fileName: name,
+			photo: { objectKey: keys[0]!, contentType: checked.type, sizeBytes: checked.bytes.byteLength },
+			thumbnail: { objectKey: keys[1]!, sizeBytes: thumb.byteLength },
 		});
 		return Response.json({ ...ids, metadataRemoved: checked.stripped }, { status: 201 });
 	} catch (error) {
@@ -44,8 +47,7 @@ export const POST: APIRoute = async ({ params, request, locals }) => {
 export const GET: APIRoute = async ({ params, locals }) => {
 	const found = await requireRun(locals, params, 'viewer');
 	if (!found.ok) return found.response;
-	const { run } = found;
-	const files = await locals.db.selectFrom('stored_file').select(['id', 'kind', 'object_key', 'file_name']).where('run_id', '=', run.id).where('kind', 'in', ['photo', 'thumbnail']).orderBy('created_at').execute();
-	const photos = files.filter((f) => f.kind === 'photo').map((p) => ({ id: p.id, name: p.file_name, thumbnailId: files.find((f) => f.kind === 'thumbnail' && f.object_key === p.object_key.replace(/\.\w+$/, '-thumb.webp'))?.id ?? null }));
+	const { run } = found.value;
+	const photos = await findRunPhotos(locals.db, run.id);
 	return Response.json(photos);
 };

@@ -1,9 +1,9 @@
 import type { APIRoute } from 'astro';
 import { z } from 'zod';
-import { diffBuilds } from '@/engine/diff';
+import { diffBuilds } from '@/engine';
 import { findRevision } from '@/lib/server/db/builds';
 import { problem, readQuery } from '@/lib/server/http';
-import { requireVehicle } from '@/lib/server/vehicle-access';
+import { requireVehicle } from '@/lib/server/access';
 
 const query = z.object({ from: z.uuid({ error: 'from must be a revision id' }), to: z.uuid({ error: 'to must be a revision id' }) });
 

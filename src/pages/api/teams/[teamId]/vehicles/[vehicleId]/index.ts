@@ -2,8 +2,8 @@ import type { APIRoute } from 'astro';
 import { updateVehicleSchema } from '@/lib/schemas/vehicles';
 import { findMembers } from '@/lib/server/db/teams';
 import { problem, readJson } from '@/lib/server/http';
-import { requireVehicle } from '@/lib/server/vehicle-access';
-import { toVehicleDto } from '@/lib/server/vehicles-dto';
+import { requireVehicle } from '@/lib/server/access';
+import { toVehicleDto, updateVehicle } from '@/lib/server/db/vehicles';
 
 export const GET: APIRoute = async ({ params, locals }) => {
 	const found = await requireVehicle(locals, params, 'viewer');
@@ -17,20 +17,10 @@ export const PATCH: APIRoute = async ({ params, request, locals }) => {
 	if (!found.ok) return found.response;
 	const body = await readJson(request, updateVehicleSchema);
 	if (!body.ok) return body.response;
-	const { archived, competitionClass, ownerId, ...rest } = body.data;
+	const { ownerId } = body.data;
 	if (ownerId && !(await findMembers(locals.db, found.value.access.teamId)).some((m) => m.userId === ownerId)) {
 		return problem(400, 'invalid_input', 'The owner must be a member of the team', [{ path: 'ownerId', message: 'Not a member of this team' }]);
 	}
-	const row = await locals.db
-		.updateTable('vehicle')
-		.set({
-			...rest,
-			...(competitionClass !== undefined ? { competition_class: competitionClass } : {}),
-			...(ownerId !== undefined ? { owner_id: ownerId } : {}),
-			...(archived !== undefined ? { archived_at: archived ? new Date() : null } : {}),
-		})
-		.where('id', '=', found.value.vehicle.id)
-		.returningAll()
-		.executeTakeFirstOrThrow();
+	const row = await updateVehicle(locals.db, found.value.vehicle.id, body.data);
 	return Response.json(toVehicleDto(row, found.value.build.head_revision_id));
 };

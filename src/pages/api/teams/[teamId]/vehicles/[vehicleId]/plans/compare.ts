@@ -1,10 +1,11 @@
 import type { APIRoute } from 'astro';
-import { comparePlans } from '@/engine/compare';
+import { comparePlans } from '@/engine';
 import { findHeadRevision } from '@/lib/server/db/builds';
 import { findPlan, partsTotalMinor } from '@/lib/server/db/plans';
+import { findTeamCurrency } from '@/lib/server/db/teams';
 import { problem, readQuery } from '@/lib/server/http';
 import { compareQuerySchema } from '@/lib/schemas/plans';
-import { requireVehicle } from '@/lib/server/vehicle-access';
+import { requireVehicle } from '@/lib/server/access';
 
 /** The build's current revision and up to three plans side by side (?plans=a,b,c), computed on the server. */
 export const GET: APIRoute = async ({ params, url, locals }) => {
@@ -21,12 +22,12 @@ export const GET: APIRoute = async ({ params, url, locals }) => {
 		if (!plan) return problem(404, 'not_found', 'No such plan', [{ path: 'plans', message: `${id} is not a plan of this vehicle` }]);
 		plans.push(plan);
 	}
-	const team = await locals.db.selectFrom('team').select('currency').where('id', '=', access.teamId).executeTakeFirstOrThrow();
+	const currency = await findTeamCurrency(locals.db, access.teamId);
 	const scenario = { ...(query.data.engineRpm !== undefined && { engineRpm: query.data.engineRpm }), ...(query.data.conductorTempC !== undefined && { conductorTempC: query.data.conductorTempC }) };
 	const columns = comparePlans(
 		head.document,
 		plans.map((p) => ({ id: p.id, name: p.name, document: p.document, cost: partsTotalMinor(p.parts) / 100 })),
 		scenario,
 	);
-	return Response.json({ currency: team.currency, head: { id: head.id, number: head.number, message: head.message }, columns });
+	return Response.json({ currency, head: { id: head.id, number: head.number, message: head.message }, columns });
 };

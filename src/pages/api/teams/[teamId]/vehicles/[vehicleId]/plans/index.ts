@@ -3,7 +3,7 @@ import { findHeadRevision, findRevision } from '@/lib/server/db/builds';
 import { findPlan, insertPlan, listPlans } from '@/lib/server/db/plans';
 import { problem, readJson } from '@/lib/server/http';
 import { newPlanSchema } from '@/lib/schemas/plans';
-import { requireVehicle } from '@/lib/server/vehicle-access';
+import { requireVehicle } from '@/lib/server/access';
 
 export const GET: APIRoute = async ({ params, locals }) => {
 	const found = await requireVehicle(locals, params, 'viewer');

@@ -1,10 +1,10 @@
 import type { APIRoute } from 'astro';
 import { newRevisionSchema } from '@/lib/schemas/vehicles';
-import { checkTopology } from '@/engine/topology';
+import { checkTopology } from '@/engine';
 import { listRevisions } from '@/lib/server/db/builds';
 import { problem, readJson } from '@/lib/server/http';
 import { saveRevision } from '@/lib/server/revisions';
-import { requireVehicle } from '@/lib/server/vehicle-access';
+import { requireVehicle } from '@/lib/server/access';
 
 export const GET: APIRoute = async ({ params, locals }) => {
 	const found = await requireVehicle(locals, params, 'viewer');

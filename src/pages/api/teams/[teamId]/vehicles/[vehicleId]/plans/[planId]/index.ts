@@ -1,9 +1,9 @@
 import type { APIRoute } from 'astro';
-import { checkTopology } from '@/engine/topology';
+import { checkTopology } from '@/engine';
 import { deletePlan, findPlan, updatePlan } from '@/lib/server/db/plans';
 import { conflict, problem, readJson } from '@/lib/server/http';
 import { updatePlanSchema } from '@/lib/schemas/plans';
-import { requirePlan } from '@/lib/server/vehicle-access';
+import { requirePlan } from '@/lib/server/access';
 
 export const GET: APIRoute = async ({ params, locals }) => {
 	const found = await requirePlan(locals, params, 'viewer');

@@ -1,11 +1,11 @@
 import type { APIRoute } from 'astro';
-import { mergePlan } from '@/engine/merge';
-import { checkTopology } from '@/engine/topology';
-import { findHeadRevision, findRevision, type RevisionDto } from '@/lib/server/db/builds';
+import { checkTopology, mergePlan } from '@/engine';
+import type { RevisionDto } from '@/lib/schemas/vehicles';
+import { findHeadRevision, findRevision } from '@/lib/server/db/builds';
 import { installPlan } from '@/lib/server/db/plans';
 import { conflict, problem, readJson } from '@/lib/server/http';
 import { installPlanSchema } from '@/lib/schemas/plans';
-import { requirePlan } from '@/lib/server/vehicle-access';
+import { requirePlan } from '@/lib/server/access';
 
 /**
  * The plan's document becomes the build's next revision, with a message naming the plan. The body

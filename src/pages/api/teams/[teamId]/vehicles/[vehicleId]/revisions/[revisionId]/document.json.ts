@@ -1,5 +1,5 @@
 import type { APIRoute } from 'astro';
-import { requireRevision } from '@/lib/server/vehicle-access';
+import { requireRevision } from '@/lib/server/access';
 
 /** The revision's build document as a versioned JSON file, to keep or to load elsewhere. */
 export const GET: APIRoute = async ({ params, locals }) => {

@@ -2,7 +2,7 @@ import type { APIRoute } from 'astro';
 import { parseUuid } from '@/lib/schemas/ids';
 import { findRevision } from '@/lib/server/db/builds';
 import { problem } from '@/lib/server/http';
-import { requireVehicle } from '@/lib/server/vehicle-access';
+import { requireVehicle } from '@/lib/server/access';
 
 /** One revision with its build document. */
 export const GET: APIRoute = async ({ params, locals }) => {

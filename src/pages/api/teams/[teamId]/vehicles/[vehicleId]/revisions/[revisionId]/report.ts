@@ -1,8 +1,8 @@
 import type { APIRoute } from 'astro';
-import { buildReport } from '@/engine/report';
+import { buildReport } from '@/engine';
 import { scenarioQuerySchema } from '@/lib/schemas/vehicles';
 import { readQuery } from '@/lib/server/http';
-import { requireRevision } from '@/lib/server/vehicle-access';
+import { requireRevision } from '@/lib/server/access';
 
 /** The power-budget report of a saved revision, computed on the server by the shared engine. */
 export const GET: APIRoute = async ({ params, locals, url }) => {

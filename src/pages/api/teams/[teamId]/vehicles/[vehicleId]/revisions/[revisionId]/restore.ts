@@ -4,7 +4,7 @@ import { restoreRevisionSchema } from '@/lib/schemas/vehicles';
 import { findRevision } from '@/lib/server/db/builds';
 import { problem, readJson } from '@/lib/server/http';
 import { saveRevision } from '@/lib/server/revisions';
-import { requireVehicle } from '@/lib/server/vehicle-access';
+import { requireVehicle } from '@/lib/server/access';
 
 /** Restores an old revision as a new one on top of the head (history is never rewritten). */
 export const POST: APIRoute = async ({ params, request, locals }) => {

@@ -1,9 +1,8 @@
 import type { APIRoute } from 'astro';
-import { DEFAULT_SCENARIO } from '@/engine/report';
-import { toSpiceNetlist } from '@/engine/spice';
+import { DEFAULT_SCENARIO, toSpiceNetlist } from '@/engine';
 import { scenarioQuerySchema } from '@/lib/schemas/vehicles';
 import { readQuery } from '@/lib/server/http';
-import { requireRevision } from '@/lib/server/vehicle-access';
+import { requireRevision } from '@/lib/server/access';
 
 /** The revision as a SPICE netlist (DC operating point at burp demand), for any circuit simulator. */
 export const GET: APIRoute = async ({ params, locals, url }) => {

@@ -1,0 +1,41 @@
+import { buildReport, computedChecks, type BuildDocument } from '@/engine';
+import type { Checklist } from '@/lib/schemas/checks';
+import { findRevision, revisionInForce } from '@/lib/server/db/builds';
+import { findCheckItems, findSignoffs, findVehicleWithBuild } from '@/lib/server/db/checks';
+import { findEvent } from '@/lib/server/db/events';
+import { findTeamFuseDistance } from '@/lib/server/db/teams';
+
+/**
+ * The pre-event checklist of a vehicle for an event: items computed from the revision in force on
+ * the event's first day (the newest one when the event is ahead), the team's manual items, and who
+ * signed off what.
+ */
+export async function loadChecklist(db: App.Locals['db'], teamId: string, eventId: string, vehicleId: string): Promise<Checklist | null> {
+	const [event, vehicle] = await Promise.all([findEvent(db, teamId, eventId), findVehicleWithBuild(db, teamId, vehicleId)]);
+	if (!event || !vehicle) return null;
+	const fuseDistanceM = await findTeamFuseDistance(db, teamId);
+	const at = new Date(`${event.starts_on}T23:59:59Z`);
+	const revisionId = (await revisionInForce(db, vehicle.id, at > new Date() ? new Date() : at)) ?? null;
+	const revision = revisionId ? await findRevision(db, vehicle.build_id, revisionId) : undefined;
+	const [signoffs, manual] = await Promise.all([findSignoffs(db, event.id, vehicle.id), findCheckItems(db, teamId)]);
+	const signoffOf = (key: string) => {
+		const s = signoffs.find((x) => x.item_key === key);
+		return s ? { by: s.name ?? s.email ?? (s.imported_by ? `imported: ${s.imported_by}` : 'a former member'), at: s.signed_at.toISOString(), note: s.note } : null;
+	};
+	const computed = revision
+		? computedChecks(buildReport(revision.document as BuildDocument, { fuseDistanceM }, { burpRun: false }))
+		: [{ key: 'has_build', label: 'The vehicle has a saved build', status: 'fail' as const, reasons: ['No revision of the build existed by the event.'] }];
+	return {
+		eventId: event.id,
+		eventName: event.name,
+		startsOn: event.starts_on,
+		vehicleId: vehicle.id,
+		vehicleName: vehicle.name,
+		revision: revision ? { id: revision.id, number: revision.number } : null,
+		fuseDistanceM,
+		items: [
+			...computed.map((c) => ({ ...c, kind: 'computed' as const, signoff: signoffOf(c.key) })),
+			...manual.map((m) => ({ key: `manual:${m.id}`, label: m.label, kind: 'manual' as const, status: 'open' as const, reasons: [], signoff: signoffOf(`manual:${m.id}`) })),
+		],
+	};
+}

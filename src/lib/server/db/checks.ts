@@ -1,0 +1,49 @@
+import type { Kysely } from 'kysely';
+import type { Database } from '@/lib/server/db/schema';
+import type { CheckItemDto } from '@/lib/schemas/teams';
+
+type Db = Kysely<Database>;
+
+/** The team's manual check items, oldest first. */
+export function findCheckItems(db: Db, teamId: string): Promise<CheckItemDto[]> {
+	return db.selectFrom('check_item').select(['id', 'label']).where('team_id', '=', teamId).orderBy('created_at').execute();
+}
+
+export function insertCheckItem(db: Db, teamId: string, label: string): Promise<CheckItemDto> {
+	return db.insertInto('check_item').values({ team_id: teamId, label }).returning(['id', 'label']).executeTakeFirstOrThrow();
+}
+
+/** A vehicle of the team with its build's id (what a checklist is computed from). */
+export function findVehicleWithBuild(db: Db, teamId: string, vehicleId: string) {
+	return db
+		.selectFrom('vehicle as v')
+		.innerJoin('build as b', 'b.vehicle_id', 'v.id')
+		.select(['v.id', 'v.name', 'b.id as build_id'])
+		.where('v.team_id', '=', teamId)
+		.where('v.id', '=', vehicleId)
+		.executeTakeFirst();
+}
+
+/** Who signed off which item of a vehicle's checklist for an event. */
+export function findSignoffs(db: Db, eventId: string, vehicleId: string) {
+	return db
+		.selectFrom('check_signoff as s')
+		.leftJoin('User as u', 'u.id', 's.signed_by')
+		.select(['s.item_key', 's.signed_at', 's.note', 's.imported_by', 'u.name', 'u.email'])
+		.where('s.event_id', '=', eventId)
+		.where('s.vehicle_id', '=', vehicleId)
+		.execute();
+}
+
+/** Signs an item off (again: the newest sign-off replaces the older one). */
+export async function upsertSignoff(db: Db, s: { eventId: string; vehicleId: string; itemKey: string; signedBy: string; note: string }): Promise<void> {
+	await db
+		.insertInto('check_signoff')
+		.values({ event_id: s.eventId, vehicle_id: s.vehicleId, item_key: s.itemKey, signed_by: s.signedBy, note: s.note })
+		.onConflict((oc) => oc.columns(['event_id', 'vehicle_id', 'item_key']).doUpdateSet({ signed_by: s.signedBy, signed_at: new Date(), note: s.note }))
+		.execute();
+}
+
+export async function removeSignoff(db: Db, s: { eventId: string; vehicleId: string; itemKey: string }): Promise<void> {
+	await db.deleteFrom('check_signoff').where('event_id', '=', s.eventId).where('vehicle_id', '=', s.vehicleId).where('item_key', '=', s.itemKey).execute();
+}
