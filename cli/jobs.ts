@@ -4,7 +4,7 @@
  * twice and on several machines at once. `npm run jobs -- reminders|digest|sweep` runs one.
  */
 import { createDb } from '../src/lib/server/db/client';
-import { sendEventReminders, sendRevisionDigests } from '../src/lib/server/jobs';
+import { sendEventReminders, sendRevisionDigests } from '../src/lib/server/reminders';
 import { readConfig } from '../src/lib/server/config';
 import { createSmtpMailer } from '../src/lib/server/mail';
 import { sweepOrphanObjects } from '../src/lib/server/object-cleanup';

@@ -1,7 +1,4 @@
-import type { BuildDocument } from './types';
-
-export const COMPONENT_GROUPS = ['nodes', 'alternators', 'banks', 'amplifiers', 'loads', 'cables'] as const;
-export type ComponentGroup = (typeof COMPONENT_GROUPS)[number];
+import { type BuildDocument, PART_GROUPS, type PartGroup } from './types';
 
 export interface FieldChange {
 	/** Dotted path inside the component, e.g. `size.awg` or `fuses.0.ratingA`. */
@@ -11,7 +8,7 @@ export interface FieldChange {
 }
 
 export interface ComponentChange {
-	group: ComponentGroup;
+	group: PartGroup;
 	id: string;
 	label: string;
 	kind: 'added' | 'removed' | 'changed';
@@ -38,7 +35,7 @@ function flatten(value: unknown, prefix = '', out: Record<string, Scalar> = {}):
  */
 export function diffBuilds(before: BuildDocument, after: BuildDocument): ComponentChange[] {
 	const changes: ComponentChange[] = [];
-	for (const group of COMPONENT_GROUPS) {
+	for (const group of PART_GROUPS) {
 		const a = new Map<string, { id: string; label: string }>(before[group].map((x) => [x.id, x]));
 		const b = new Map<string, { id: string; label: string }>(after[group].map((x) => [x.id, x]));
 		for (const [id, item] of a) {

@@ -1,8 +1,7 @@
-import { COMPONENT_GROUPS, type ComponentGroup } from './diff';
-import type { BuildDocument } from './types';
+import { type BuildDocument, PART_GROUPS, type PartGroup } from './types';
 
 export interface MergeConflict {
-	group: ComponentGroup;
+	group: PartGroup;
 	id: string;
 	label: string;
 	/** What each side did to the component since the plan's base. */
@@ -23,7 +22,7 @@ const same = (a: unknown, b: unknown) => JSON.stringify(a) === JSON.stringify(b)
 export function mergePlan(base: BuildDocument, plan: BuildDocument, head: BuildDocument): MergeResult {
 	const conflicts: MergeConflict[] = [];
 	const merged = { ...head } as BuildDocument;
-	for (const group of COMPONENT_GROUPS) {
+	for (const group of PART_GROUPS) {
 		type Part = BuildDocument[typeof group][number];
 		const byId = (list: readonly Part[]) => new Map(list.map((p) => [p.id, p] as const));
 		const b = byId(base[group]);

@@ -25,6 +25,7 @@ const num = (x: number) => x.toPrecision(15);
  * (`.control`, `.include`, a shell escape).
  */
 export function spiceComment(text: string): string {
+	// eslint-disable-next-line no-control-regex -- matching control characters is the point
 	return text.replace(/[\u0000-\u001f\u007f-\u009f\u2028\u2029]/g, ' ');
 }
 

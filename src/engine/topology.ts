@@ -1,4 +1,4 @@
-import type { BuildDocument } from './types';
+import { type BuildDocument, TERMINAL_PART_GROUPS } from './types';
 
 export interface TopologyIssue {
 	code: 'no_chassis' | 'several_chassis' | 'unknown_node' | 'same_terminals' | 'not_connected' | 'no_source' | 'duplicate_id';
@@ -25,7 +25,6 @@ function union(parent: Map<string, string>, a: string, b: string) {
 	if (ra !== rb) parent.set(ra, rb);
 }
 
-const TWO_TERMINAL = ['alternators', 'banks', 'amplifiers', 'loads'] as const;
 
 /**
  * Checks that a build is a network the engine can solve: one chassis node; every reference names
@@ -46,7 +45,7 @@ export function checkTopology(doc: BuildDocument): TopologyIssue[] {
 		ids.add(n.id);
 	});
 	const partIds = new Set<string>();
-	for (const group of [...TWO_TERMINAL, 'cables'] as const) {
+	for (const group of [...TERMINAL_PART_GROUPS, 'cables'] as const) {
 		doc[group].forEach((part, i) => {
 			if (partIds.has(part.id)) issues.push({ code: 'duplicate_id', path: `${group}.${i}.id`, message: `Id "${part.id}" is used twice.` });
 			partIds.add(part.id);
@@ -55,7 +54,7 @@ export function checkTopology(doc: BuildDocument): TopologyIssue[] {
 	const check = (path: string, nodeId: string) => {
 		if (!ids.has(nodeId)) issues.push({ code: 'unknown_node', path, message: `No node named "${nodeId}".` });
 	};
-	for (const group of TWO_TERMINAL) {
+	for (const group of TERMINAL_PART_GROUPS) {
 		doc[group].forEach((part, i) => {
 			check(`${group}.${i}.positive`, part.positive);
 			check(`${group}.${i}.negative`, part.negative);

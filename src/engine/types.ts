@@ -137,6 +137,16 @@ export interface SteadyLoad {
 	currentA: number;
 }
 
+/**
+ * The part groups of a build document, listed once: the diff, the merge, the topology check, the
+ * document schema and the editor all read this list.
+ */
+export const PART_GROUPS = ['nodes', 'alternators', 'banks', 'amplifiers', 'loads', 'cables'] as const;
+export type PartGroup = (typeof PART_GROUPS)[number];
+
+/** The groups whose parts connect a positive and a negative node (cables join any two nodes). */
+export const TERMINAL_PART_GROUPS = ['alternators', 'banks', 'amplifiers', 'loads'] as const satisfies readonly PartGroup[];
+
 export interface BuildDocument {
 	schemaVersion: 1;
 	nodes: BuildNode[];

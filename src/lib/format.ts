@@ -1,4 +1,4 @@
-import { M_PER_FT, M_PER_IN, MM2_PER_CMIL, type UnitSystem } from '@/engine';
+import { M_PER_FT, M_PER_IN, MM2_PER_CMIL, type PartGroup, type UnitSystem } from '@/engine';
 
 export type { UnitSystem };
 
@@ -63,7 +63,7 @@ export function fieldName(field: string): string {
 	return field.replace(/([A-Z])/g, ' $1').toLowerCase();
 }
 
-export const GROUP_NAMES: Record<string, string> = {
+export const GROUP_NAMES: Record<PartGroup, string> = {
 	nodes: 'Node',
 	alternators: 'Alternator',
 	banks: 'Bank',

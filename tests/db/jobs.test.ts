@@ -3,7 +3,7 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { pebbleBuild } from '../../db/demo/builds';
 import { appendRevision } from '../../src/lib/server/db/builds';
 import { insertVehicleWithBuild } from '../../src/lib/server/db/vehicles';
-import { sendEventReminders, sendRevisionDigests } from '../../src/lib/server/jobs';
+import { sendEventReminders, sendRevisionDigests } from '../../src/lib/server/reminders';
 import { addMember, makeTeam, makeUser, TEST_CONFIG } from '../helpers/fixtures';
 import { startTestMail, type TestMail } from '../helpers/mail';
 import { createTestDb, type TestDb } from '../helpers/test-db';

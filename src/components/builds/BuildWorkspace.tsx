@@ -5,12 +5,12 @@ import { diffBuilds } from '@/engine';
 import type { BuildDocument } from '@/engine';
 import { parseBuildDocument } from '@/lib/schemas/build-document';
 import { ApiError } from '@/lib/client/api-client';
+import { buildDrafts } from '@/lib/client/draft-store';
 import { useSetUnits } from '@/lib/client/queries/account';
 import { getQueryClient } from '@/lib/client/query-client';
 import { fetchHeadRevision, type RevisionDto, type RevisionSummary, revisionsQueryOptions, useSaveRevision } from '@/lib/client/queries/builds';
 import { fieldName, formatFieldValue, GROUP_NAMES, type UnitSystem } from '@/lib/format';
 import { Button, FormMessage } from '@/components/ui/Field';
-import { clearDraft, loadDraft, storeDraft } from './draft-store';
 import { starterDocument } from './new-parts';
 import { validateDraft, Workbench } from './Workbench';
 
@@ -48,19 +48,19 @@ export function BuildWorkspaceView({ teamId, vehicleId, vehicleName, canEdit, he
 	// Bring back an unsaved draft from this browser.
 	useEffect(() => {
 		if (!canEdit) return;
-		const stored = loadDraft(vehicleId);
+		const stored = buildDrafts.load(vehicleId);
 		if (stored && JSON.stringify(stored.document) !== JSON.stringify(baseDoc)) {
 			setDraft(stored.document);
 			setMessage(stored.message);
 			setBaseId(stored.baseRevisionId);
 			setRestored(stored.baseRevisionId === (initialHead?.id ?? null) ? 'Your unsaved changes from this browser are back.' : 'Your unsaved changes are back, but they were based on an older revision; saving will ask you to compare.');
 		}
-		// eslint-disable-next-line react-hooks/exhaustive-deps
+		// eslint-disable-next-line react-hooks/exhaustive-deps -- once, on mount: what changes later is the member's own editing
 	}, []);
 
 	const dirty = JSON.stringify(draft) !== JSON.stringify(baseDoc) || baseId !== (head?.id ?? null);
 	useEffect(() => {
-		if (canEdit && dirty) storeDraft(vehicleId, { baseRevisionId: baseId, document: draft, message });
+		if (canEdit && dirty) buildDrafts.store(vehicleId, { baseRevisionId: baseId, document: draft, message });
 	}, [canEdit, dirty, vehicleId, baseId, draft, message]);
 
 	const errors = useMemo(() => validateDraft(draft), [draft]);
@@ -71,7 +71,7 @@ export function BuildWorkspaceView({ teamId, vehicleId, vehicleName, canEdit, he
 		setSaveState({ busy: true, error: null, ok: null, conflict: null });
 		try {
 			const saved = await saveRevision.mutateAsync({ parentId, message, document: draft });
-			clearDraft(vehicleId);
+			buildDrafts.clear(vehicleId);
 			setHead(saved);
 			setBaseId(saved.id);
 			setDraft(saved.document);
@@ -167,7 +167,7 @@ export function BuildWorkspaceView({ teamId, vehicleId, vehicleName, canEdit, he
 								variant="secondary"
 								onClick={() => {
 									if (!window.confirm('Throw away the unsaved changes?')) return;
-									clearDraft(vehicleId);
+									buildDrafts.clear(vehicleId);
 									setDraft(baseDoc);
 									setBaseId(head?.id ?? null);
 									setRestored(null);
@@ -191,7 +191,7 @@ export function BuildWorkspaceView({ teamId, vehicleId, vehicleName, canEdit, he
 							void save(saveState.conflict!.id);
 						}}
 						onTakeTheirs={() => {
-							clearDraft(vehicleId);
+							buildDrafts.clear(vehicleId);
 							setHead(saveState.conflict);
 							setBaseId(saveState.conflict!.id);
 							setDraft(saveState.conflict!.document);

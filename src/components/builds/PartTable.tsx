@@ -24,7 +24,7 @@ function NumberInput({ value, onChange, label, invalid, step, readOnly }: { valu
 		if (parsed !== value && !(parsed !== null && value !== null && Math.abs(parsed - value) < 1e-9 * Math.max(1, Math.abs(value)))) {
 			setText(value === null || Number.isNaN(value) ? '' : String(Number(value.toPrecision(8))));
 		}
-		// eslint-disable-next-line react-hooks/exhaustive-deps
+		// eslint-disable-next-line react-hooks/exhaustive-deps -- follows the value from outside only; the text being typed must not reset it
 	}, [value]);
 	return (
 		<input

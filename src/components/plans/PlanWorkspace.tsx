@@ -4,8 +4,8 @@ import { diffBuilds } from '@/engine';
 import type { BuildDocument } from '@/engine';
 import { ApiError } from '@/lib/client/api-client';
 import { getQueryClient } from '@/lib/client/query-client';
+import { planDrafts } from '@/lib/client/draft-store';
 import { fetchPlan, type PlanDto, useDeletePlan, useInstallPlan, useSavePlan } from '@/lib/client/queries/plans';
-import type { RevisionDto } from '@/lib/client/queries/builds';
 import { fieldName, formatFieldValue, formatMoney, GROUP_NAMES, type UnitSystem } from '@/lib/format';
 import { planPartSchema } from '@/lib/schemas/plans';
 import { Button, FormMessage } from '@/components/ui/Field';
@@ -37,31 +37,6 @@ interface PartDraft {
 	quantity: string;
 	unitPrice: string;
 	link: string;
-}
-
-interface StoredPlanDraft {
-	version: number;
-	name: string;
-	notes: string;
-	document: BuildDocument;
-	parts: PartDraft[];
-}
-const draftKey = (planId: string) => `sagwise.plan-draft.${planId}`;
-function loadPlanDraft(planId: string): StoredPlanDraft | null {
-	try {
-		const raw = window.localStorage.getItem(draftKey(planId));
-		return raw ? (JSON.parse(raw) as StoredPlanDraft) : null;
-	} catch {
-		return null;
-	}
-}
-function storePlanDraft(planId: string, d: StoredPlanDraft | null) {
-	try {
-		if (d) window.localStorage.setItem(draftKey(planId), JSON.stringify(d));
-		else window.localStorage.removeItem(draftKey(planId));
-	} catch {
-		// storage full or disabled: the draft still lives in memory
-	}
 }
 
 const toDraft = (p: PlanDto['parts'][number]): PartDraft => ({ item: p.item, quantity: String(p.quantity), unitPrice: p.unitPrice.toFixed(2), link: p.link });
@@ -99,19 +74,19 @@ function PlanWorkspaceView({ teamId, vehicleId, canEdit, currency, plan: initial
 	const [baseVersion, setBaseVersion] = useState(plan.version);
 	useEffect(() => {
 		if (!canEdit) return;
-		const stored = loadPlanDraft(plan.id);
+		const stored = planDrafts.load(plan.id);
 		if (!stored) return;
-		if (JSON.stringify({ name: stored.name, notes: stored.notes, document: stored.document, parts: stored.parts }) === JSON.stringify(saved)) return storePlanDraft(plan.id, null);
+		if (JSON.stringify({ name: stored.name, notes: stored.notes, document: stored.document, parts: stored.parts }) === JSON.stringify(saved)) return planDrafts.clear(plan.id);
 		setName(stored.name);
 		setNotes(stored.notes);
 		setDraft(stored.document);
 		setParts(stored.parts);
 		setBaseVersion(stored.version);
 		setRestored(stored.version === plan.version ? 'Your unsaved changes to this plan from this browser are back.' : 'Your unsaved changes are back, but someone saved the plan since; saving will ask before replacing theirs.');
-		// eslint-disable-next-line react-hooks/exhaustive-deps
+		// eslint-disable-next-line react-hooks/exhaustive-deps -- once, on mount: what changes later is the member's own editing
 	}, []);
 	useEffect(() => {
-		if (canEdit && dirty) storePlanDraft(plan.id, { version: baseVersion, name, notes, document: draft, parts });
+		if (canEdit && dirty) planDrafts.store(plan.id, { version: baseVersion, name, notes, document: draft, parts });
 	}, [canEdit, dirty, plan.id, baseVersion, name, notes, draft, parts]);
 
 	// Warn before leaving with unsaved changes.
@@ -126,7 +101,7 @@ function PlanWorkspaceView({ teamId, vehicleId, canEdit, currency, plan: initial
 		setState({ busy: 'save', error: null, ok: null, serverErrors: {} });
 		try {
 			const next = await savePlan.mutateAsync({ version, name, notes, document: draft, parts: parts.map(fromDraft) });
-			storePlanDraft(plan.id, null);
+			planDrafts.clear(plan.id);
 			setRestored(null);
 			setBaseVersion(next.version);
 			setPlan(next);

@@ -1,10 +1,10 @@
-import { QueryClientProvider, useQuery, useQueryClient } from '@tanstack/react-query';
+import { QueryClientProvider, useQuery } from '@tanstack/react-query';
 import { formatDistanceToNow } from 'date-fns';
 import { useEffect, useState } from 'react';
 import { ApiError } from '@/lib/client/api-client';
 import { getQueryClient } from '@/lib/client/query-client';
-import { buildKeys, type RevisionDto, type RevisionSummary } from '@/lib/client/queries/builds';
-import { compareQueryOptions, planKeys, plansQueryOptions, type PlanSummary, useCreatePlan, useInstallPlan } from '@/lib/client/queries/plans';
+import type { RevisionSummary } from '@/lib/client/queries/builds';
+import { compareQueryOptions, plansQueryOptions, type PlanSummary, useCreatePlan, useInstallPlan } from '@/lib/client/queries/plans';
 import { formatMoney } from '@/lib/format';
 import { Button, Field, FormMessage } from '@/components/ui/Field';
 import { ComparisonTable } from './ComparisonTable';
@@ -32,7 +32,6 @@ export function PlansBoard(props: PlansBoardProps) {
 const MAX_COMPARED = 3;
 
 function PlansBoardView({ teamId, vehicleId, canEdit, currency, head: initialHead, revisions, plans: initialPlans, initialCompare }: PlansBoardProps) {
-	const qc = useQueryClient();
 	const plans = useQuery({ ...plansQueryOptions(teamId, vehicleId), initialData: initialPlans });
 	const [head, setHead] = useState(initialHead);
 	const [selected, setSelected] = useState<string[]>(initialCompare.filter((id) => initialPlans.some((p) => p.id === id)).slice(0, MAX_COMPARED));

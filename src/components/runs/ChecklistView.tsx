@@ -1,9 +1,9 @@
 import { useState } from 'react';
 import { format } from 'date-fns';
 import { ApiError } from '@/lib/client/api-client';
-import { useAddCheckItem, useSignOff } from '@/lib/client/queries/checks';
+import { useAddCheckItem, useSignOff } from '@/lib/client/queries/checklist';
 import { withQueryClient } from '@/lib/client/query-client';
-import type { Checklist } from '@/lib/schemas/checks';
+import type { Checklist } from '@/lib/schemas/checklist';
 import { Button, Field, FormMessage } from '@/components/ui/Field';
 
 const ICON = { pass: { mark: '✓', word: 'passes', cls: 'text-teal' }, fail: { mark: '✕', word: 'fails', cls: 'text-brick' }, open: { mark: '○', word: 'to check', cls: 'text-ink-soft' } } as const;

@@ -1,7 +1,7 @@
 import { useState } from 'react';
 import { newEventSchema } from '@/lib/schemas/events';
 import { ApiError } from '@/lib/client/api-client';
-import { useCreateEvent } from '@/lib/client/queries/checks';
+import { useCreateEvent } from '@/lib/client/queries/events';
 import { withQueryClient } from '@/lib/client/query-client';
 import { fieldErrors } from '@/lib/client/form-errors';
 import { Button, Field } from '@/components/ui/Field';

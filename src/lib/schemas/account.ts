@@ -1,5 +1,5 @@
 import { z } from 'zod';
-import { lineText, notesText } from './text';
+import { lineText } from './text';
 
 export const emailSchema = z
 	.string({ error: 'Enter your e-mail address' })

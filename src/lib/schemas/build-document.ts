@@ -1,6 +1,6 @@
 import { z } from 'zod';
-import { lineText, notesText } from './text';
-import { AWG_SIZES, type BuildDocument, checkTopology, CHEMISTRIES, MATERIALS, NODE_KINDS } from '@/engine';
+import { lineText } from './text';
+import { AWG_SIZES, type BuildDocument, checkTopology, CHEMISTRIES, MATERIALS, NODE_KINDS, TERMINAL_PART_GROUPS } from '@/engine';
 
 const id = z
 	.string()
@@ -108,7 +108,7 @@ function checkReferences(doc: z.infer<typeof looseBuildSchema>, ctx: z.Refinemen
 		if (!nodes.has(nodeId)) ctx.addIssue({ code: 'custom', path, message: `No node named "${nodeId}"` });
 	};
 	const parts = new Set<string>();
-	for (const group of ['alternators', 'banks', 'amplifiers', 'loads'] as const) {
+	for (const group of TERMINAL_PART_GROUPS) {
 		doc[group].forEach((p, i) => {
 			ref([group, i, 'positive'], p.positive);
 			ref([group, i, 'negative'], p.negative);

@@ -1,7 +1,7 @@
 import { buildReport, computedChecks, type BuildDocument } from '@/engine';
-import type { Checklist } from '@/lib/schemas/checks';
+import type { Checklist } from '@/lib/schemas/checklist';
 import { findRevision, revisionInForce } from '@/lib/server/db/builds';
-import { findCheckItems, findSignoffs, findVehicleWithBuild } from '@/lib/server/db/checks';
+import { findCheckItems, findSignoffs, findVehicleWithBuild } from '@/lib/server/db/checklists';
 import { findEvent } from '@/lib/server/db/events';
 import { findTeamFuseDistance } from '@/lib/server/db/teams';
 

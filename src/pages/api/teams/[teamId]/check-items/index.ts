@@ -2,7 +2,7 @@ import type { APIRoute } from 'astro';
 import { z } from 'zod';
 import { lineText } from '@/lib/schemas/text';
 import { requireTeamRole } from '@/lib/server/access';
-import { findCheckItems, insertCheckItem } from '@/lib/server/db/checks';
+import { findCheckItems, insertCheckItem } from '@/lib/server/db/checklists';
 import { readJson } from '@/lib/server/http';
 
 const newItemSchema = z.object({ label: lineText(200, { required: 'Say what to check' }) });

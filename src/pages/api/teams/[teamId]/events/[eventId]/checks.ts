@@ -4,7 +4,7 @@ import { lineText, notesText } from '@/lib/schemas/text';
 import { parseUuid } from '@/lib/schemas/ids';
 import { requireTeamRole } from '@/lib/server/access';
 import { loadChecklist } from '@/lib/server/checklist';
-import { removeSignoff, upsertSignoff } from '@/lib/server/db/checks';
+import { removeSignoff, upsertSignoff } from '@/lib/server/db/checklists';
 import { problem, readJson, readQuery } from '@/lib/server/http';
 
 const vehicleQuery = z.object({ vehicleId: z.uuid({ error: 'Choose a vehicle' }) });

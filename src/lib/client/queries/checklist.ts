@@ -1,5 +1,5 @@
 import { useMutation } from '@tanstack/react-query';
-import type { Checklist } from '@/lib/schemas/checks';
+import type { Checklist } from '@/lib/schemas/checklist';
 import type { CheckItemDto } from '@/lib/schemas/teams';
 import { api } from '@/lib/client/api-client';
 
@@ -12,10 +12,4 @@ export function useSignOff(teamId: string, eventId: string) {
 
 export function useAddCheckItem(teamId: string) {
 	return useMutation({ mutationFn: (label: string) => api<CheckItemDto>(`/api/teams/${teamId}/check-items`, { json: { label } }) });
-}
-
-export function useCreateEvent(teamId: string) {
-	return useMutation({
-		mutationFn: (input: { name: string; startsOn: string; endsOn: string; place: string; format: string; notes: string }) => api<{ id: string }>(`/api/teams/${teamId}/events`, { json: input }),
-	});
 }

@@ -1,0 +1,68 @@
+import type { ReactNode } from 'react';
+
+/** One column of a results table: its heading, how a row fills it, and how it lines up. */
+export interface ResultColumn<Row> {
+	key: string;
+	header: ReactNode;
+	cell: (row: Row) => ReactNode;
+	align?: 'left' | 'right';
+	/** Extra classes for a row's cell (a colour for a figure out of bounds, say). */
+	tone?: (row: Row) => string;
+	/** Figures in tabular digits (the default); text columns set false. */
+	numeric?: boolean;
+}
+
+/**
+ * The read-only table every analysis section uses (budget, amplifiers, cables): one look, one
+ * set of header semantics, horizontal scroll on narrow screens instead of a page that scrolls.
+ */
+export function ResultTable<Row>({
+	rows,
+	rowKey,
+	columns,
+	caption,
+	label,
+	rowProps,
+	className = '',
+}: {
+	rows: Row[];
+	rowKey: (row: Row) => string | number;
+	columns: ResultColumn<Row>[];
+	caption?: string;
+	label?: string;
+	rowProps?: (row: Row) => Record<string, string>;
+	className?: string;
+}) {
+	return (
+		<div className={`overflow-x-auto rounded-md border border-hairline bg-card ${className}`}>
+			<table className="w-full text-sm" aria-label={label}>
+				{caption && <caption className="sr-only">{caption}</caption>}
+				<thead className="bg-paper text-xs text-ink-soft">
+					<tr>
+						{columns.map((c) => (
+							<th key={c.key} scope="col" className={`px-3 py-2 ${c.align === 'right' ? 'text-right' : 'text-left'}`}>
+								{c.header}
+							</th>
+						))}
+					</tr>
+				</thead>
+				<tbody>
+					{rows.map((row) => (
+						<tr key={rowKey(row)} className="border-t border-hairline align-top" {...rowProps?.(row)}>
+							{columns.map((c) => (
+								<td key={c.key} className={`px-3 py-1.5 ${c.align === 'right' ? 'text-right' : ''} ${c.numeric === false ? '' : 'num'} ${c.tone?.(row) ?? ''}`}>
+									{c.cell(row)}
+								</td>
+							))}
+						</tr>
+					))}
+				</tbody>
+			</table>
+		</div>
+	);
+}
+
+/** A unit beside a figure, lighter than the figure. */
+export function Unit({ children }: { children: ReactNode }) {
+	return <span className="text-xs font-light text-ink-soft">{children}</span>;
+}
