@@ -7,7 +7,11 @@ import { KyselyAdapter } from '@auth/kysely-adapter';
 import { defineConfig } from 'auth-astro';
 import { signInSchema } from './src/lib/schemas/account';
 import { db } from './src/lib/server/db/index';
-import { dropUnconfirmedPassword, findUserByEmail, sessionVersionOf } from './src/lib/server/db/users';
+import {
+	dropUnconfirmedPassword,
+	findUserByEmail,
+	sessionVersionOf,
+} from './src/lib/server/db/users';
 import { signInLinkMail } from './src/lib/server/mail-templates';
 import { verifyPasswordOrDummy } from './src/lib/server/passwords';
 import { recordSignInAttempt, signInLimited, takeRateSlot } from './src/lib/server/rate-limit';
@@ -32,7 +36,10 @@ export default defineConfig({
 	pages: { signIn: '/sign-in', verifyRequest: '/sign-in/check-mail', error: '/sign-in' },
 	providers: [
 		Credentials({
-			credentials: { email: { label: 'E-mail' }, password: { label: 'Password', type: 'password' } },
+			credentials: {
+				email: { label: 'E-mail' },
+				password: { label: 'Password', type: 'password' },
+			},
 			// Every attempt that reaches the provider counts here, whatever path spelling or body
 			// type carried it; an unknown address costs the same hashing time as a known one.
 			async authorize(raw) {
@@ -78,7 +85,8 @@ export default defineConfig({
 			// session issued under an older one ends here.
 			try {
 				const current = await sessionVersionOf(db, token.uid);
-				if (current === null || current !== (typeof token.sv === 'number' ? token.sv : 0)) return null;
+				if (current === null || current !== (typeof token.sv === 'number' ? token.sv : 0))
+					return null;
 			} catch (error) {
 				// While the database is down nothing can be read anyway; keep the session rather than
 				// signing everyone out.
@@ -87,7 +95,8 @@ export default defineConfig({
 			return token;
 		},
 		session({ session, token }) {
-			if (session.user && typeof token.uid === 'string') (session.user as { id?: string }).id = token.uid;
+			if (session.user && typeof token.uid === 'string')
+				(session.user as { id?: string }).id = token.uid;
 			return session;
 		},
 	},

@@ -13,8 +13,19 @@ export default tseslint.config(
 	{
 		languageOptions: { globals: { ...globals.node, ...globals.browser } },
 		rules: {
-			'@typescript-eslint/no-unused-vars': ['error', { argsIgnorePattern: '^_', varsIgnorePattern: '^_', caughtErrors: 'none', ignoreRestSiblings: true }],
-			'@typescript-eslint/consistent-type-imports': ['error', { fixStyle: 'inline-type-imports', disallowTypeAnnotations: false }],
+			'@typescript-eslint/no-unused-vars': [
+				'error',
+				{
+					argsIgnorePattern: '^_',
+					varsIgnorePattern: '^_',
+					caughtErrors: 'none',
+					ignoreRestSiblings: true,
+				},
+			],
+			'@typescript-eslint/consistent-type-imports': [
+				'error',
+				{ fixStyle: 'inline-type-imports', disallowTypeAnnotations: false },
+			],
 		},
 	},
 	{
@@ -29,17 +40,39 @@ export default tseslint.config(
 	},
 	{
 		// Only the data layer writes SQL; routes, pages and other server code call it.
-		files: ['src/pages/**', 'src/components/**', 'src/lib/client/**', 'src/lib/schemas/**', 'src/engine/**'],
+		files: [
+			'src/pages/**',
+			'src/components/**',
+			'src/lib/client/**',
+			'src/lib/schemas/**',
+			'src/engine/**',
+		],
 		rules: {
 			'no-restricted-syntax': [
 				'error',
-				{ selector: "CallExpression[callee.property.name=/^(selectFrom|insertInto|updateTable|deleteFrom)$/]", message: 'Queries live in src/lib/server/db/<aggregate>.ts' },
+				{
+					selector:
+						'CallExpression[callee.property.name=/^(selectFrom|insertInto|updateTable|deleteFrom)$/]',
+					message: 'Queries live in src/lib/server/db/<aggregate>.ts',
+				},
 			],
 		},
 	},
 	{
 		// Islands and the browser data layer see the contract (src/lib/schemas), never server code.
 		files: ['src/components/**', 'src/lib/client/**'],
-		rules: { 'no-restricted-imports': ['error', { patterns: [{ group: ['@/lib/server/*', '**/lib/server/*'], message: 'Islands import DTOs from @/lib/schemas' }] }] },
+		rules: {
+			'no-restricted-imports': [
+				'error',
+				{
+					patterns: [
+						{
+							group: ['@/lib/server/*', '**/lib/server/*'],
+							message: 'Islands import DTOs from @/lib/schemas',
+						},
+					],
+				},
+			],
+		},
 	},
 );

@@ -15,14 +15,23 @@ export default getViteConfig({
 				test: {
 					name: 'unit',
 					setupFiles: ['tests/helpers/fast-check-setup.ts'],
-					include: ['tests/engine/**/*.test.ts', 'tests/lib/**/*.test.{ts,tsx}', 'tests/components/**/*.test.tsx'],
+					include: [
+						'tests/engine/**/*.test.ts',
+						'tests/lib/**/*.test.{ts,tsx}',
+						'tests/components/**/*.test.tsx',
+					],
 				},
 			},
 			{
 				extends: true,
 				test: {
 					name: 'integration',
-					include: ['tests/db/**/*.test.ts', 'tests/api/**/*.test.ts', 'tests/spice/**/*.test.ts', 'tests/security/*.test.ts'],
+					include: [
+						'tests/db/**/*.test.ts',
+						'tests/api/**/*.test.ts',
+						'tests/spice/**/*.test.ts',
+						'tests/security/*.test.ts',
+					],
 					globalSetup: [pgSetup],
 					testTimeout: 30_000,
 					hookTimeout: 60_000,

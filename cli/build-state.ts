@@ -1,14 +1,24 @@
 import { existsSync, readdirSync, statSync } from 'node:fs';
 import path from 'node:path';
 
-const SOURCES = ['src', 'db', 'cli', 'public', 'astro.config.mjs', 'auth.config.ts', 'package-lock.json', 'tsconfig.json'];
+const SOURCES = [
+	'src',
+	'db',
+	'cli',
+	'public',
+	'astro.config.mjs',
+	'auth.config.ts',
+	'package-lock.json',
+	'tsconfig.json',
+];
 
 function newestMtime(entry: string): number {
 	if (!existsSync(entry)) return 0;
 	const stat = statSync(entry);
 	if (!stat.isDirectory()) return stat.mtimeMs;
 	let newest = stat.mtimeMs;
-	for (const child of readdirSync(entry)) newest = Math.max(newest, newestMtime(path.join(entry, child)));
+	for (const child of readdirSync(entry))
+		newest = Math.max(newest, newestMtime(path.join(entry, child)));
 	return newest;
 }
 

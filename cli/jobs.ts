@@ -12,14 +12,20 @@ import { createS3Storage } from '../src/lib/server/storage';
 import { DEFAULT_CLUSTER, ensureCluster } from '../db/cluster';
 
 const config = readConfig();
-const url = process.env.DATABASE_URL ?? (await ensureCluster(DEFAULT_CLUSTER)).url(DEFAULT_CLUSTER.database);
+const url =
+	process.env.DATABASE_URL ?? (await ensureCluster(DEFAULT_CLUSTER)).url(DEFAULT_CLUSTER.database);
 const db = createDb(url, 2);
 const mailer = createSmtpMailer(config.smtpUrl, config.mailFrom);
 try {
 	const which = process.argv[2] ?? 'all';
-	if (which === 'all' || which === 'reminders') console.log(`event reminders sent: ${await sendEventReminders(db, mailer, config)}`);
-	if (which === 'all' || which === 'digest') console.log(`revision digests sent: ${await sendRevisionDigests(db, mailer, config)}`);
-	if (which === 'all' || which === 'sweep') console.log(`stored files without a row removed: ${await sweepOrphanObjects(db, createS3Storage(config.s3))}`);
+	if (which === 'all' || which === 'reminders')
+		console.log(`event reminders sent: ${await sendEventReminders(db, mailer, config)}`);
+	if (which === 'all' || which === 'digest')
+		console.log(`revision digests sent: ${await sendRevisionDigests(db, mailer, config)}`);
+	if (which === 'all' || which === 'sweep')
+		console.log(
+			`stored files without a row removed: ${await sweepOrphanObjects(db, createS3Storage(config.s3))}`,
+		);
 } catch (error) {
 	console.error(error);
 	process.exitCode = 1;

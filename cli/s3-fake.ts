@@ -7,9 +7,19 @@ export interface S3Fake {
 	close: () => Promise<void>;
 }
 
-export async function startS3Fake(opts: { port: number; dir: string; bucket: string }): Promise<S3Fake> {
+export async function startS3Fake(opts: {
+	port: number;
+	dir: string;
+	bucket: string;
+}): Promise<S3Fake> {
 	mkdirSync(opts.dir, { recursive: true });
-	const server = new S3rver({ address: '127.0.0.1', port: opts.port, directory: opts.dir, silent: true, configureBuckets: [{ name: opts.bucket, configs: [] }] });
+	const server = new S3rver({
+		address: '127.0.0.1',
+		port: opts.port,
+		directory: opts.dir,
+		silent: true,
+		configureBuckets: [{ name: opts.bucket, configs: [] }],
+	});
 	const address = (await server.run()) as { port: number } | [string, number];
 	const port = Array.isArray(address) ? address[1] : address.port;
 	return { endpoint: `http://127.0.0.1:${port}`, close: () => server.close() };

@@ -17,7 +17,13 @@ import { bodyLimitFor } from '../src/lib/server/body-limits';
 type Handler = (req: http.IncomingMessage, res: http.ServerResponse) => void;
 
 const problemBody = (status: number, code: string, detail: string) =>
-	JSON.stringify({ type: 'about:blank', title: status === 413 ? 'Content Too Large' : 'Not Found', status, code, detail });
+	JSON.stringify({
+		type: 'about:blank',
+		title: status === 413 ? 'Content Too Large' : 'Not Found',
+		status,
+		code,
+		detail,
+	});
 
 /** How long a refused upload's connection stays open, its bytes thrown away, so the client reads the answer. */
 const LINGER_MS = 2000;
@@ -25,7 +31,11 @@ const LINGER_MS = 2000;
 function refuse(res: http.ServerResponse, status: number, code: string, detail: string) {
 	if (res.headersSent) return;
 	const req = res.req;
-	res.writeHead(status, { 'content-type': 'application/problem+json', 'x-content-type-options': 'nosniff', 'cache-control': 'no-store' });
+	res.writeHead(status, {
+		'content-type': 'application/problem+json',
+		'x-content-type-options': 'nosniff',
+		'cache-control': 'no-store',
+	});
 	res.end(problemBody(status, code, detail));
 	// Closing at once while the client is still sending makes its system reset the connection and
 	// drop our answer unread. Linger instead: discard what still comes (nothing is kept, memory stays
@@ -39,12 +49,17 @@ function refuse(res: http.ServerResponse, status: number, code: string, detail: 
 
 /** Which proxies may tell us the client's address: a list of addresses, or `loopback`. */
 export function parseTrustedProxies(setting: string | undefined): (address: string) => boolean {
-	const entries = (setting ?? '').split(',').map((s) => s.trim()).filter(Boolean);
+	const entries = (setting ?? '')
+		.split(',')
+		.map((s) => s.trim())
+		.filter(Boolean);
 	if (entries.length === 0 || entries.includes('false')) return () => false;
 	const plain = (a: string) => a.replace(/^::ffff:/, '');
 	return (address) => {
 		const a = plain(address);
-		return entries.some((e) => (e === 'loopback' ? a === '127.0.0.1' || a === '::1' || a.startsWith('127.') : plain(e) === a));
+		return entries.some((e) =>
+			e === 'loopback' ? a === '127.0.0.1' || a === '::1' || a.startsWith('127.') : plain(e) === a,
+		);
 	};
 }
 
@@ -60,7 +75,10 @@ export function clientAddress(req: http.IncomingMessage, trusted: (a: string) =>
 	return forwarded[0] ?? socket;
 }
 
-export function createFront(astro: Handler, env: Record<string, string | undefined> = process.env): Handler {
+export function createFront(
+	astro: Handler,
+	env: Record<string, string | undefined> = process.env,
+): Handler {
 	const trusted = parseTrustedProxies(env.TRUST_PROXY);
 	return (req, res) => {
 		const pathname = (req.url ?? '/').split('?')[0]!;
@@ -80,11 +98,14 @@ export function createFront(astro: Handler, env: Record<string, string | undefin
 			const limit = bodyLimitFor(method, pathname);
 			const detail = `The request body is larger than this address takes (${Math.round(limit / 1024)} KB).`;
 			const declared = req.headers['content-length'];
-			if (declared !== undefined && Number(declared) > limit) return refuse(res, 413, 'too_large', detail);
+			if (declared !== undefined && Number(declared) > limit)
+				return refuse(res, 413, 'too_large', detail);
 			let seen = 0;
 			// Astro reads `req.body` when it is an async iterable: hand it a counted view of the stream.
 			(req as unknown as { body: AsyncIterable<Buffer> }).body = (async function* () {
-				for await (const chunk of req.iterator({ destroyOnReturn: false }) as AsyncIterable<Buffer>) {
+				for await (const chunk of req.iterator({
+					destroyOnReturn: false,
+				}) as AsyncIterable<Buffer>) {
 					seen += chunk.length;
 					if (seen > limit) {
 						refuse(res, 413, 'too_large', detail);
@@ -104,7 +125,9 @@ export function createFront(astro: Handler, env: Record<string, string | undefin
 
 async function main() {
 	process.env.ASTRO_NODE_AUTOSTART = 'disabled';
-	const entry = (await import(pathToFileURL(path.resolve(process.env.SAGWISE_DIST ?? 'dist', 'server/entry.mjs')).href)) as { handler: Handler };
+	const entry = (await import(
+		pathToFileURL(path.resolve(process.env.SAGWISE_DIST ?? 'dist', 'server/entry.mjs')).href
+	)) as { handler: Handler };
 	const host = process.env.HOST ?? '127.0.0.1';
 	const port = Number(process.env.PORT ?? 4321);
 	const server = http.createServer(createFront(entry.handler));

@@ -16,7 +16,11 @@ export interface SmtpFake {
 	close: () => Promise<void>;
 }
 
-export async function startSmtpFake(opts: { port: number; dir: string; host?: string }): Promise<SmtpFake> {
+export async function startSmtpFake(opts: {
+	port: number;
+	dir: string;
+	host?: string;
+}): Promise<SmtpFake> {
 	mkdirSync(opts.dir, { recursive: true });
 	const server = new SMTPServer({
 		authOptional: true,
@@ -29,7 +33,9 @@ export async function startSmtpFake(opts: { port: number; dir: string; host?: st
 					const id = `${receivedAt.getTime()}-${randomBytes(4).toString('hex')}`;
 					const stored: StoredMail = {
 						id,
-						from: mail.from?.text ?? String(session.envelope.mailFrom && session.envelope.mailFrom.address),
+						from:
+							mail.from?.text ??
+							String(session.envelope.mailFrom && session.envelope.mailFrom.address),
 						to: session.envelope.rcptTo.map((r) => r.address.toLowerCase()),
 						subject: mail.subject ?? '',
 						text: mail.text ?? '',
@@ -48,5 +54,9 @@ export async function startSmtpFake(opts: { port: number; dir: string; host?: st
 	});
 	const address = server.server.address();
 	const port = typeof address === 'object' && address ? address.port : opts.port;
-	return { port, dir: opts.dir, close: () => new Promise((resolve) => server.close(() => resolve())) };
+	return {
+		port,
+		dir: opts.dir,
+		close: () => new Promise((resolve) => server.close(() => resolve())),
+	};
 }

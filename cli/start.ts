@@ -29,7 +29,9 @@ async function main() {
 	if (!databaseUrl) {
 		const cluster = await ensureCluster(DEFAULT_CLUSTER);
 		databaseUrl = cluster.url(DEFAULT_CLUSTER.database);
-		log(`PostgreSQL ${cluster.started ? 'started' : 'already running'} on 127.0.0.1:${DEFAULT_CLUSTER.port} (data in ${DEFAULT_CLUSTER.dir})`);
+		log(
+			`PostgreSQL ${cluster.started ? 'started' : 'already running'} on 127.0.0.1:${DEFAULT_CLUSTER.port} (data in ${DEFAULT_CLUSTER.dir})`,
+		);
 		if (cluster.started) cleanups.push(() => void stopCluster(DEFAULT_CLUSTER));
 	} else {
 		log('using DATABASE_URL; the embedded cluster is not started');
@@ -37,7 +39,11 @@ async function main() {
 
 	let s3Endpoint = process.env.S3_ENDPOINT;
 	if (s3Endpoint === undefined) {
-		const s3 = await startS3Fake({ port: Number(process.env.SAGWISE_S3_PORT ?? 4569), dir: '.data/s3', bucket: process.env.S3_BUCKET ?? 'sagwise-files' });
+		const s3 = await startS3Fake({
+			port: Number(process.env.SAGWISE_S3_PORT ?? 4569),
+			dir: '.data/s3',
+			bucket: process.env.S3_BUCKET ?? 'sagwise-files',
+		});
 		cleanups.push(() => s3.close());
 		s3Endpoint = s3.endpoint;
 		log(`S3 fake on ${s3.endpoint}: files in .data/s3`);
@@ -62,7 +68,9 @@ async function main() {
 		cleanups.push(() => fake.close());
 		smtpUrl = `smtp://127.0.0.1:${fake.port}`;
 		devOutbox = fake.dir;
-		log(`SMTP fake on 127.0.0.1:${fake.port}: mail lands in ${fake.dir}, shown at ${publicUrl}/dev/outbox`);
+		log(
+			`SMTP fake on 127.0.0.1:${fake.port}: mail lands in ${fake.dir}, shown at ${publicUrl}/dev/outbox`,
+		);
 	}
 
 	if (buildIsStale()) {
@@ -85,7 +93,10 @@ async function main() {
 	};
 	// The HTTP front (body limits, proxy trust) around the built app. Its stdin is a pipe from this
 	// process: if this process dies, even by SIGKILL, the pipe closes and the server stops too.
-	const server = spawn(process.execPath, ['--import', 'tsx', 'cli/serve.ts'], { env: { ...env, SAGWISE_EXIT_WITH_PARENT: '1' }, stdio: ['pipe', 'inherit', 'inherit'] });
+	const server = spawn(process.execPath, ['--import', 'tsx', 'cli/serve.ts'], {
+		env: { ...env, SAGWISE_EXIT_WITH_PARENT: '1' },
+		stdio: ['pipe', 'inherit', 'inherit'],
+	});
 	cleanups.unshift(
 		() =>
 			new Promise<void>((resolve) => {
@@ -103,7 +114,9 @@ async function main() {
 	});
 	await waitForHealth(`${publicUrl}/api/health`);
 	log(`ready in ${((performance.now() - t0) / 1000).toFixed(1)} s → ${publicUrl}`);
-	log(`demo sign-in: ${DEMO_USERS.map((u) => `${u.email} (${u.role})`).join(', ')}; password ${DEMO_PASSWORD}`);
+	log(
+		`demo sign-in: ${DEMO_USERS.map((u) => `${u.email} (${u.role})`).join(', ')}; password ${DEMO_PASSWORD}`,
+	);
 	log('Ctrl-C stops the server and the services it started.');
 }
 

@@ -58,7 +58,12 @@ function run(bin: string, args: string[], opts: { allowFail?: boolean } = {}) {
 
 function paths(dir: string) {
 	const abs = path.resolve(dir);
-	return { abs, data: path.join(abs, 'data'), run: path.join(abs, 'run'), log: path.join(abs, 'server.log') };
+	return {
+		abs,
+		data: path.join(abs, 'data'),
+		run: path.join(abs, 'run'),
+		log: path.join(abs, 'server.log'),
+	};
 }
 
 function prepareDir(dir: string) {
@@ -99,7 +104,9 @@ async function waitForConnections(url: string, timeoutMs = 20_000): Promise<void
 			await new Promise((r) => setTimeout(r, 200));
 		}
 	}
-	throw new ClusterError(`PostgreSQL did not accept connections within ${timeoutMs} ms: ${String(lastError)}`);
+	throw new ClusterError(
+		`PostgreSQL did not accept connections within ${timeoutMs} ms: ${String(lastError)}`,
+	);
 }
 
 /** Creates `database` when it does not exist yet. */
@@ -108,7 +115,8 @@ export async function ensureDatabase(adminUrl: string, database: string): Promis
 	await client.connect();
 	try {
 		const found = await client.query('select 1 from pg_database where datname = $1', [database]);
-		if (found.rowCount === 0) await client.query(`create database "${database.replaceAll('"', '""')}"`);
+		if (found.rowCount === 0)
+			await client.query(`create database "${database.replaceAll('"', '""')}"`);
 	} finally {
 		await client.end();
 	}
@@ -123,7 +131,14 @@ export async function ensureCluster(opts: ClusterOptions): Promise<Cluster> {
 	if (!existsSync(path.join(p.data, 'PG_VERSION'))) {
 		prepareDir(p.abs);
 		run(path.join(bin, 'initdb'), [
-			'-D', p.data, '-U', 'postgres', '--auth=trust', '-E', 'UTF8', '--locale=C.UTF-8',
+			'-D',
+			p.data,
+			'-U',
+			'postgres',
+			'--auth=trust',
+			'-E',
+			'UTF8',
+			'--locale=C.UTF-8',
 		]);
 	}
 	if (!isRunning(opts)) {
@@ -132,14 +147,23 @@ export async function ensureCluster(opts: ClusterOptions): Promise<Cluster> {
 		if (isRoot) execFileSync('chown', ['postgres:postgres', p.run]);
 		try {
 			run(path.join(bin, 'pg_ctl'), [
-				'-D', p.data, '-l', p.log, '-w', '-t', '30',
-				'-o', `-p ${opts.port} -k ${p.run} -c listen_addresses=127.0.0.1 -c fsync=off`,
+				'-D',
+				p.data,
+				'-l',
+				p.log,
+				'-w',
+				'-t',
+				'30',
+				'-o',
+				`-p ${opts.port} -k ${p.run} -c listen_addresses=127.0.0.1 -c fsync=off`,
 				'start',
 			]);
 		} catch (error) {
 			const log = existsSync(p.log) ? readFileSync(p.log, 'utf8') : '';
 			if (/Address already in use/.test(log.slice(-2000))) {
-				throw new ClusterError(`Port ${opts.port} on 127.0.0.1 is taken by another server: stop it, or choose another port (SAGWISE_PG_PORT for npm start, SAGWISE_TEST_PG_PORT for the tests).`);
+				throw new ClusterError(
+					`Port ${opts.port} on 127.0.0.1 is taken by another server: stop it, or choose another port (SAGWISE_PG_PORT for npm start, SAGWISE_TEST_PG_PORT for the tests).`,
+				);
 			}
 			throw error;
 		}
@@ -169,7 +193,9 @@ if (process.argv[1] && fileURLToPath(import.meta.url) === path.resolve(process.a
 	try {
 		if (command === 'start') {
 			const cluster = await ensureCluster(DEFAULT_CLUSTER);
-			console.log(`${cluster.started ? 'started' : 'already running'}: ${cluster.url(DEFAULT_CLUSTER.database)}`);
+			console.log(
+				`${cluster.started ? 'started' : 'already running'}: ${cluster.url(DEFAULT_CLUSTER.database)}`,
+			);
 		} else if (command === 'stop') {
 			console.log(stopCluster(DEFAULT_CLUSTER) ? 'stopped' : 'not running');
 		} else if (command === 'status') {

@@ -3,7 +3,8 @@ import { createDb } from '../src/lib/server/db/client';
 import { DEFAULT_CLUSTER, ensureCluster } from './cluster';
 import { migrateToLatest } from './migrator';
 
-const url = process.env.DATABASE_URL ?? (await ensureCluster(DEFAULT_CLUSTER)).url(DEFAULT_CLUSTER.database);
+const url =
+	process.env.DATABASE_URL ?? (await ensureCluster(DEFAULT_CLUSTER)).url(DEFAULT_CLUSTER.database);
 const db = createDb(url, 1);
 try {
 	await migrateToLatest(db, console.log);

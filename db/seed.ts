@@ -58,16 +58,29 @@ const isoDay = (d: Date) => d.toISOString().slice(0, 10);
 export async function seedDemo(db: Kysely<Database>, storage?: Storage): Promise<string> {
 	const passwordHash = await hashPassword(DEMO_PASSWORD);
 	return db.transaction().execute(async (trx) => {
-		const team = await trx.insertInto('team').values({ name: DEMO_TEAM_NAME }).returning('id').executeTakeFirstOrThrow();
+		const team = await trx
+			.insertInto('team')
+			.values({ name: DEMO_TEAM_NAME })
+			.returning('id')
+			.executeTakeFirstOrThrow();
 		const userIds: string[] = [];
 		for (const u of DEMO_USERS) {
 			const user = await trx
 				.insertInto('User')
-				.values({ id: randomUUID(), email: u.email, name: u.name, passwordHash, emailVerified: new Date() })
+				.values({
+					id: randomUUID(),
+					email: u.email,
+					name: u.name,
+					passwordHash,
+					emailVerified: new Date(),
+				})
 				.returning('id')
 				.executeTakeFirstOrThrow();
 			userIds.push(user.id);
-			await trx.insertInto('membership').values({ team_id: team.id, user_id: user.id, role: u.role }).execute();
+			await trx
+				.insertInto('membership')
+				.values({ team_id: team.id, user_id: user.id, role: u.role })
+				.execute();
 		}
 		for (const [i, v] of DEMO_VEHICLES.entries()) {
 			const vehicle = await trx
@@ -75,7 +88,11 @@ export async function seedDemo(db: Kysely<Database>, storage?: Storage): Promise
 				.values({ ...v, team_id: team.id, owner_id: userIds[i % 2]! })
 				.returning('id')
 				.executeTakeFirstOrThrow();
-			const build = await trx.insertInto('build').values({ vehicle_id: vehicle.id }).returning('id').executeTakeFirstOrThrow();
+			const build = await trx
+				.insertInto('build')
+				.values({ vehicle_id: vehicle.id })
+				.returning('id')
+				.executeTakeFirstOrThrow();
 			let parentId: string | null = null;
 			for (const [n, r] of DEMO_HISTORIES[v.name].entries()) {
 				const rev: { id: string } = await trx
@@ -94,22 +111,46 @@ export async function seedDemo(db: Kysely<Database>, storage?: Storage): Promise
 					.executeTakeFirstOrThrow();
 				parentId = rev.id;
 			}
-			await trx.updateTable('build').set({ head_revision_id: parentId }).where('id', '=', build.id).execute();
+			await trx
+				.updateTable('build')
+				.set({ head_revision_id: parentId })
+				.where('id', '=', build.id)
+				.execute();
 			void DEMO_BUILDS;
 		}
 		const eventIds = new Map<string, string>();
 		for (const e of DEMO_EVENTS) {
 			const row = await trx
 				.insertInto('event')
-				.values({ team_id: team.id, name: e.name, starts_on: isoDay(day(e.daysAgo)), ends_on: isoDay(day(e.daysAgo - (e.days - 1))), place: e.place, format: e.format })
+				.values({
+					team_id: team.id,
+					name: e.name,
+					starts_on: isoDay(day(e.daysAgo)),
+					ends_on: isoDay(day(e.daysAgo - (e.days - 1))),
+					place: e.place,
+					format: e.format,
+				})
 				.returning('id')
 				.executeTakeFirstOrThrow();
 			eventIds.set(e.key, row.id);
 		}
 		for (const r of DEMO_RUNS) {
-			const vehicle = await trx.selectFrom('vehicle as v').innerJoin('build as b', 'b.vehicle_id', 'v.id').select(['v.id', 'b.id as build_id']).where('v.team_id', '=', team.id).where('v.name', '=', r.vehicle).executeTakeFirstOrThrow();
+			const vehicle = await trx
+				.selectFrom('vehicle as v')
+				.innerJoin('build as b', 'b.vehicle_id', 'v.id')
+				.select(['v.id', 'b.id as build_id'])
+				.where('v.team_id', '=', team.id)
+				.where('v.name', '=', r.vehicle)
+				.executeTakeFirstOrThrow();
 			const ranAt = new Date(day(r.daysAgo).getTime() + 14 * 3600_000);
-			const rev = await trx.selectFrom('revision').select('id').where('build_id', '=', vehicle.build_id).where('created_at', '<=', ranAt).orderBy('created_at', 'desc').limit(1).executeTakeFirst();
+			const rev = await trx
+				.selectFrom('revision')
+				.select('id')
+				.where('build_id', '=', vehicle.build_id)
+				.where('created_at', '<=', ranAt)
+				.orderBy('created_at', 'desc')
+				.limit(1)
+				.executeTakeFirst();
 			const run = await trx
 				.insertInto('run')
 				.values({
@@ -124,30 +165,80 @@ export async function seedDemo(db: Kysely<Database>, storage?: Storage): Promise
 				.executeTakeFirstOrThrow();
 			if (r.logger) {
 				const trace = demoTrace(r.logger);
-				await trx.insertInto('run_sample').values(trace.map((s, i) => ({ run_id: run.id, seq: i, t_s: s.tS, volts: s.volts, amps: s.amps }))).execute();
+				await trx
+					.insertInto('run_sample')
+					.values(
+						trace.map((s, i) => ({
+							run_id: run.id,
+							seq: i,
+							t_s: s.tS,
+							volts: s.volts,
+							amps: s.amps,
+						})),
+					)
+					.execute();
 				if (storage) {
 					const csv = `time_s,volts,amps\n${trace.map((s) => `${s.tS},${s.volts},${s.amps}`).join('\n')}\n`;
 					const key = `teams/${team.id}/runs/${run.id}/logger-demo.csv`;
 					await storage.put(key, new TextEncoder().encode(csv), 'text/csv');
-					await trx.insertInto('stored_file').values({ team_id: team.id, run_id: run.id, kind: 'logger', object_key: key, file_name: 'logger.csv', content_type: 'text/csv', size_bytes: csv.length }).execute();
+					await trx
+						.insertInto('stored_file')
+						.values({
+							team_id: team.id,
+							run_id: run.id,
+							kind: 'logger',
+							object_key: key,
+							file_name: 'logger.csv',
+							content_type: 'text/csv',
+							size_bytes: csv.length,
+						})
+						.execute();
 				}
 			}
 		}
 		for (const p of DEMO_PLANS) {
-			const vehicle = await trx.selectFrom('vehicle as v').innerJoin('build as b', 'b.vehicle_id', 'v.id').select(['v.id', 'b.head_revision_id']).where('v.team_id', '=', team.id).where('v.name', '=', p.vehicle).executeTakeFirstOrThrow();
+			const vehicle = await trx
+				.selectFrom('vehicle as v')
+				.innerJoin('build as b', 'b.vehicle_id', 'v.id')
+				.select(['v.id', 'b.head_revision_id'])
+				.where('v.team_id', '=', team.id)
+				.where('v.name', '=', p.vehicle)
+				.executeTakeFirstOrThrow();
 			const plan = await trx
 				.insertInto('plan')
-				.values({ vehicle_id: vehicle.id, name: p.name, notes: p.notes, base_revision_id: vehicle.head_revision_id, schema_version: p.document.schemaVersion, document: JSON.stringify(p.document), created_by: userIds[p.author]!, created_at: day(p.daysAgo), updated_at: day(p.daysAgo) })
+				.values({
+					vehicle_id: vehicle.id,
+					name: p.name,
+					notes: p.notes,
+					base_revision_id: vehicle.head_revision_id,
+					schema_version: p.document.schemaVersion,
+					document: JSON.stringify(p.document),
+					created_by: userIds[p.author]!,
+					created_at: day(p.daysAgo),
+					updated_at: day(p.daysAgo),
+				})
 				.returning('id')
 				.executeTakeFirstOrThrow();
 			await trx
 				.insertInto('plan_part')
-				.values(p.parts.map((part, position) => ({ plan_id: plan.id, position, item: part.item, quantity: part.quantity, unit_price_minor: Math.round(part.unitPrice * 100), link: part.link })))
+				.values(
+					p.parts.map((part, position) => ({
+						plan_id: plan.id,
+						position,
+						item: part.item,
+						quantity: part.quantity,
+						unit_price_minor: Math.round(part.unitPrice * 100),
+						link: part.link,
+					})),
+				)
 				.execute();
 		}
 		await trx
 			.insertInto('check_item')
-			.values([{ team_id: team.id, label: 'Battery hold-downs torqued and terminal covers on' }, { team_id: team.id, label: 'Main fuse holders closed, spare fuses in the kit' }])
+			.values([
+				{ team_id: team.id, label: 'Battery hold-downs torqued and terminal covers on' },
+				{ team_id: team.id, label: 'Main fuse holders closed, spare fuses in the kit' },
+			])
 			.execute();
 		return team.id;
 	});
@@ -155,18 +246,25 @@ export async function seedDemo(db: Kysely<Database>, storage?: Storage): Promise
 
 /** Seeds only an empty database (no team yet); returns whether it seeded. */
 export async function seedIfEmpty(db: Kysely<Database>, storage?: Storage): Promise<boolean> {
-	const { count } = await db.selectFrom('team').select((eb) => eb.fn.countAll<number>().as('count')).executeTakeFirstOrThrow();
+	const { count } = await db
+		.selectFrom('team')
+		.select((eb) => eb.fn.countAll<number>().as('count'))
+		.executeTakeFirstOrThrow();
 	if (Number(count) > 0) return false;
 	await seedDemo(db, storage);
 	return true;
 }
 
 if (process.argv[1] && fileURLToPath(import.meta.url) === path.resolve(process.argv[1])) {
-	const url = process.env.DATABASE_URL ?? (await ensureCluster(DEFAULT_CLUSTER)).url(DEFAULT_CLUSTER.database);
+	const url =
+		process.env.DATABASE_URL ??
+		(await ensureCluster(DEFAULT_CLUSTER)).url(DEFAULT_CLUSTER.database);
 	const db = createDb(url, 1);
 	try {
 		await migrateToLatest(db);
-		console.log((await seedIfEmpty(db)) ? 'demo data written' : 'database already has data; nothing written');
+		console.log(
+			(await seedIfEmpty(db)) ? 'demo data written' : 'database already has data; nothing written',
+		);
 	} finally {
 		await db.destroy();
 	}

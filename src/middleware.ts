@@ -29,7 +29,11 @@ function clientOf(context: Context): string {
 }
 
 /** The path as routing sees it: doubled and trailing slashes folded, case ignored. */
-export const normalPath = (pathname: string) => pathname.replace(/\/{2,}/g, '/').replace(/(.)\/+$/, '$1').toLowerCase();
+export const normalPath = (pathname: string) =>
+	pathname
+		.replace(/\/{2,}/g, '/')
+		.replace(/(.)\/+$/, '$1')
+		.toLowerCase();
 
 /**
  * The outermost layer: security headers on every answer, the client's address for code that runs
@@ -40,7 +44,8 @@ const guardResponses = defineMiddleware(async (context, next) => {
 	const https = context.url.protocol === 'https:';
 	const api = normalPath(context.url.pathname).startsWith('/api/');
 	// `//api/...` is no route of ours: refuse it plainly rather than let it reach a page.
-	if (/\/\//.test(context.url.pathname)) return securityHeaders(problem(404, 'not_found', 'No such page'), https);
+	if (/\/\//.test(context.url.pathname))
+		return securityHeaders(problem(404, 'not_found', 'No such page'), https);
 	let response: Response;
 	try {
 		response = await runWithRequest({ client: clientOf(context) }, () => next());
@@ -49,11 +54,18 @@ const guardResponses = defineMiddleware(async (context, next) => {
 		else if (isStorageUnavailable(error)) response = unavailable('storage');
 		else if (api) {
 			console.error(`${context.request.method} ${context.url.pathname} failed:`, error);
-			response = problem(500, 'internal', 'Something went wrong on our side. Nothing may have been saved; try again.');
+			response = problem(
+				500,
+				'internal',
+				'Something went wrong on our side. Nothing may have been saved; try again.',
+			);
 		} else throw error;
 		if (response.status === 503) {
-			console.error(`${context.request.method} ${context.url.pathname}: ${(error as Error).message}`);
-			if (!api && (context.request.headers.get('accept') ?? '').includes('text/html')) response = unavailablePage(response);
+			console.error(
+				`${context.request.method} ${context.url.pathname}: ${(error as Error).message}`,
+			);
+			if (!api && (context.request.headers.get('accept') ?? '').includes('text/html'))
+				response = unavailablePage(response);
 		}
 	}
 	return securityHeaders(response, https);
@@ -75,7 +87,9 @@ async function emailOfBody(request: Request): Promise<string> {
 			return typeof body?.email === 'string' ? body.email.trim().toLowerCase() : '';
 		}
 		const form = await request.clone().formData();
-		return String(form.get('email') ?? '').trim().toLowerCase();
+		return String(form.get('email') ?? '')
+			.trim()
+			.toLowerCase();
 	} catch {
 		return '';
 	}
@@ -87,15 +101,31 @@ async function emailOfBody(request: Request): Promise<string> {
  * client, so a blocked caller gets a clear status instead of a redirect.
  */
 const limitPasswordSignIn = defineMiddleware(async (context, next) => {
-	if (context.request.method !== 'POST' || normalPath(context.url.pathname) !== '/api/auth/callback/credentials') return next();
+	if (
+		context.request.method !== 'POST' ||
+		normalPath(context.url.pathname) !== '/api/auth/callback/credentials'
+	)
+		return next();
 	const email = await emailOfBody(context.request);
 	if (await signInLimited(context.locals.db, email || '(none)', clientOf(context))) {
-		return problem(429, 'rate_limited', 'Too many failed sign-in attempts. Wait a minute and try again.', undefined, { 'retry-after': '60' });
+		return problem(
+			429,
+			'rate_limited',
+			'Too many failed sign-in attempts. Wait a minute and try again.',
+			undefined,
+			{ 'retry-after': '60' },
+		);
 	}
 	return next();
 });
 
-const SKIP_SESSION = [/^\/_astro\//, /^\/api\/auth\//, /^\/api\/health$/, /^\/favicon/, /^\/robots\.txt$/];
+const SKIP_SESSION = [
+	/^\/_astro\//,
+	/^\/api\/auth\//,
+	/^\/api\/health$/,
+	/^\/favicon/,
+	/^\/robots\.txt$/,
+];
 
 const attachUser = defineMiddleware(async (context, next) => {
 	if (!SKIP_SESSION.some((re) => re.test(normalPath(context.url.pathname)))) {
@@ -109,9 +139,17 @@ const APP_PAGES = [/^\/teams(\/|$)/, /^\/account(\/|$)/];
 /** Anonymous visitors of app pages go to the sign-in page and come back afterwards. */
 const guardPages = defineMiddleware((context, next) => {
 	if (!context.locals.user && APP_PAGES.some((re) => re.test(normalPath(context.url.pathname)))) {
-		return context.redirect(`/sign-in?callbackUrl=${encodeURIComponent(context.url.pathname + context.url.search)}`);
+		return context.redirect(
+			`/sign-in?callbackUrl=${encodeURIComponent(context.url.pathname + context.url.search)}`,
+		);
 	}
 	return next();
 });
 
-export const onRequest = sequence(attachServices, guardResponses, limitPasswordSignIn, attachUser, guardPages);
+export const onRequest = sequence(
+	attachServices,
+	guardResponses,
+	limitPasswordSignIn,
+	attachUser,
+	guardPages,
+);

@@ -12,11 +12,46 @@ export interface DemoEvent {
 }
 
 export const DEMO_EVENTS: DemoEvent[] = [
-	{ key: 'thaw', name: 'Thaw Out Meet', daysAgo: 140, days: 1, place: 'North lot, fairground', format: 'SPL, single burp' },
-	{ key: 'river', name: 'Riverside Bass Day', daysAgo: 95, days: 2, place: 'River park', format: 'SPL and SQ' },
-	{ key: 'summer', name: 'Midsummer Decibel Drag', daysAgo: 50, days: 1, place: 'Old airfield', format: 'SPL, three runs' },
-	{ key: 'finals', name: 'Season Finals', daysAgo: 12, days: 2, place: 'Exhibition hall car park', format: 'SPL finals' },
-	{ key: 'winter', name: 'Winter Open', daysAgo: -21, days: 1, place: 'Indoor arena', format: 'SPL' },
+	{
+		key: 'thaw',
+		name: 'Thaw Out Meet',
+		daysAgo: 140,
+		days: 1,
+		place: 'North lot, fairground',
+		format: 'SPL, single burp',
+	},
+	{
+		key: 'river',
+		name: 'Riverside Bass Day',
+		daysAgo: 95,
+		days: 2,
+		place: 'River park',
+		format: 'SPL and SQ',
+	},
+	{
+		key: 'summer',
+		name: 'Midsummer Decibel Drag',
+		daysAgo: 50,
+		days: 1,
+		place: 'Old airfield',
+		format: 'SPL, three runs',
+	},
+	{
+		key: 'finals',
+		name: 'Season Finals',
+		daysAgo: 12,
+		days: 2,
+		place: 'Exhibition hall car park',
+		format: 'SPL finals',
+	},
+	{
+		key: 'winter',
+		name: 'Winter Open',
+		daysAgo: -21,
+		days: 1,
+		place: 'Indoor arena',
+		format: 'SPL',
+	},
 ];
 
 export interface DemoRun {
@@ -34,20 +69,126 @@ export interface DemoRun {
 }
 
 export const DEMO_RUNS: DemoRun[] = [
-	{ vehicle: 'Pebble', event: 'thaw', daysAgo: 140, scoreDb: 138.4, frequencyHz: 42, restingV: 12.7, minV: 11.1, ambientC: 9, notes: 'Kit wiring, warm feed afterwards.' },
-	{ vehicle: 'Pebble', event: 'river', daysAgo: 95, scoreDb: 139.6, frequencyHz: 42, restingV: 12.8, minV: 11.5, ambientC: 21, notes: 'After the 4 AWG run.', logger: { ocvV: 12.8, resistanceOhm: 0.0105, peakA: 125, seconds: 4 } },
-	{ vehicle: 'Pebble', event: 'summer', daysAgo: 50, scoreDb: 140.1, frequencyHz: 41, restingV: 13.9, minV: 11.8, ambientC: 27, notes: 'Engine running, big three done.' },
-	{ vehicle: 'Marlin', event: 'thaw', daysAgo: 140, scoreDb: 146.2, frequencyHz: 38, restingV: 12.8, minV: 11.0, ambientC: 9, notes: 'Front AGM only.' },
-	{ vehicle: 'Marlin', event: 'river', daysAgo: 95, scoreDb: 147.9, frequencyHz: 38, restingV: 12.9, minV: 11.6, ambientC: 22, notes: 'Rear bank in.', logger: { ocvV: 12.9, resistanceOhm: 0.0024, peakA: 560, seconds: 5 } },
-	{ vehicle: 'Marlin', event: 'summer', daysAgo: 50, scoreDb: 148.6, frequencyHz: 37, restingV: 14.1, minV: 11.9, ambientC: 29, notes: 'Engine at fast idle.' },
-	{ vehicle: 'Marlin', event: 'finals', daysAgo: 12, scoreDb: 148.3, frequencyHz: 37, restingV: 12.8, minV: 11.7, ambientC: 14, notes: 'Cold day; four-channel on.', logger: { ocvV: 12.8, resistanceOhm: 0.0022, peakA: 600, seconds: 5 } },
-	{ vehicle: 'Old Oak', event: 'river', daysAgo: 95, scoreDb: 153.8, frequencyHz: 33, restingV: 16.4, minV: 14.9, ambientC: 22, notes: 'One alternator.' },
-	{ vehicle: 'Old Oak', event: 'summer', daysAgo: 50, scoreDb: 155.2, frequencyHz: 33, restingV: 16.6, minV: 15.4, ambientC: 30, notes: 'Second alternator.', logger: { ocvV: 16.6, resistanceOhm: 0.0011, peakA: 980, seconds: 6 } },
-	{ vehicle: 'Old Oak', event: 'finals', daysAgo: 12, scoreDb: 155.9, frequencyHz: 32, restingV: 16.7, minV: 15.6, ambientC: 15, notes: 'Regulators at 17.8 V.' },
+	{
+		vehicle: 'Pebble',
+		event: 'thaw',
+		daysAgo: 140,
+		scoreDb: 138.4,
+		frequencyHz: 42,
+		restingV: 12.7,
+		minV: 11.1,
+		ambientC: 9,
+		notes: 'Kit wiring, warm feed afterwards.',
+	},
+	{
+		vehicle: 'Pebble',
+		event: 'river',
+		daysAgo: 95,
+		scoreDb: 139.6,
+		frequencyHz: 42,
+		restingV: 12.8,
+		minV: 11.5,
+		ambientC: 21,
+		notes: 'After the 4 AWG run.',
+		logger: { ocvV: 12.8, resistanceOhm: 0.0105, peakA: 125, seconds: 4 },
+	},
+	{
+		vehicle: 'Pebble',
+		event: 'summer',
+		daysAgo: 50,
+		scoreDb: 140.1,
+		frequencyHz: 41,
+		restingV: 13.9,
+		minV: 11.8,
+		ambientC: 27,
+		notes: 'Engine running, big three done.',
+	},
+	{
+		vehicle: 'Marlin',
+		event: 'thaw',
+		daysAgo: 140,
+		scoreDb: 146.2,
+		frequencyHz: 38,
+		restingV: 12.8,
+		minV: 11.0,
+		ambientC: 9,
+		notes: 'Front AGM only.',
+	},
+	{
+		vehicle: 'Marlin',
+		event: 'river',
+		daysAgo: 95,
+		scoreDb: 147.9,
+		frequencyHz: 38,
+		restingV: 12.9,
+		minV: 11.6,
+		ambientC: 22,
+		notes: 'Rear bank in.',
+		logger: { ocvV: 12.9, resistanceOhm: 0.0024, peakA: 560, seconds: 5 },
+	},
+	{
+		vehicle: 'Marlin',
+		event: 'summer',
+		daysAgo: 50,
+		scoreDb: 148.6,
+		frequencyHz: 37,
+		restingV: 14.1,
+		minV: 11.9,
+		ambientC: 29,
+		notes: 'Engine at fast idle.',
+	},
+	{
+		vehicle: 'Marlin',
+		event: 'finals',
+		daysAgo: 12,
+		scoreDb: 148.3,
+		frequencyHz: 37,
+		restingV: 12.8,
+		minV: 11.7,
+		ambientC: 14,
+		notes: 'Cold day; four-channel on.',
+		logger: { ocvV: 12.8, resistanceOhm: 0.0022, peakA: 600, seconds: 5 },
+	},
+	{
+		vehicle: 'Old Oak',
+		event: 'river',
+		daysAgo: 95,
+		scoreDb: 153.8,
+		frequencyHz: 33,
+		restingV: 16.4,
+		minV: 14.9,
+		ambientC: 22,
+		notes: 'One alternator.',
+	},
+	{
+		vehicle: 'Old Oak',
+		event: 'summer',
+		daysAgo: 50,
+		scoreDb: 155.2,
+		frequencyHz: 33,
+		restingV: 16.6,
+		minV: 15.4,
+		ambientC: 30,
+		notes: 'Second alternator.',
+		logger: { ocvV: 16.6, resistanceOhm: 0.0011, peakA: 980, seconds: 6 },
+	},
+	{
+		vehicle: 'Old Oak',
+		event: 'finals',
+		daysAgo: 12,
+		scoreDb: 155.9,
+		frequencyHz: 32,
+		restingV: 16.7,
+		minV: 15.6,
+		ambientC: 15,
+		notes: 'Regulators at 17.8 V.',
+	},
 ];
 
 /** A synthetic burp trace at 20 samples per second: current steps up, voltage sags through R. */
-export function demoTrace(l: NonNullable<DemoRun['logger']>): Array<{ tS: number; volts: number; amps: number }> {
+export function demoTrace(
+	l: NonNullable<DemoRun['logger']>,
+): Array<{ tS: number; volts: number; amps: number }> {
 	const out: Array<{ tS: number; volts: number; amps: number }> = [];
 	const n = l.seconds * 20;
 	for (let i = 0; i <= n; i++) {
@@ -56,7 +197,11 @@ export function demoTrace(l: NonNullable<DemoRun['logger']>): Array<{ tS: number
 		const ripple = 1 + 0.03 * Math.sin(i * 1.7);
 		const amps = Math.max(0, l.peakA * envelope * ripple);
 		const volts = l.ocvV - l.resistanceOhm * amps - 0.0004 * i * (envelope > 0.9 ? 1 : 0);
-		out.push({ tS: Math.round(t * 1000) / 1000, volts: Math.round(volts * 1000) / 1000, amps: Math.round(amps * 10) / 10 });
+		out.push({
+			tS: Math.round(t * 1000) / 1000,
+			volts: Math.round(volts * 1000) / 1000,
+			amps: Math.round(amps * 10) / 10,
+		});
 	}
 	return out;
 }

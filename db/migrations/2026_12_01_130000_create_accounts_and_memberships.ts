@@ -9,11 +9,21 @@ export async function up(db: Kysely<any>): Promise<void> {
 		.createTable('User')
 		.addColumn('id', 'text', (col) => col.primaryKey())
 		.addColumn('name', 'text')
-		.addColumn('email', 'text', (col) => col.notNull().unique().check(sql`email = lower(email) and position('@' in email) > 1`))
+		.addColumn('email', 'text', (col) =>
+			col
+				.notNull()
+				.unique()
+				.check(sql`email = lower(email) and position('@' in email) > 1`),
+		)
 		.addColumn('emailVerified', 'timestamptz')
 		.addColumn('image', 'text')
 		.addColumn('passwordHash', 'text')
-		.addColumn('unitSystem', 'text', (col) => col.notNull().defaultTo('imperial').check(sql`"unitSystem" in ('imperial', 'metric')`))
+		.addColumn('unitSystem', 'text', (col) =>
+			col
+				.notNull()
+				.defaultTo('imperial')
+				.check(sql`"unitSystem" in ('imperial', 'metric')`),
+		)
 		.addColumn('createdAt', 'timestamptz', (col) => col.notNull().defaultTo(sql`now()`))
 		.execute();
 
@@ -55,18 +65,26 @@ export async function up(db: Kysely<any>): Promise<void> {
 		.createTable('membership')
 		.addColumn('team_id', 'uuid', (col) => col.notNull().references('team.id').onDelete('cascade'))
 		.addColumn('user_id', 'text', (col) => col.notNull().references('User.id').onDelete('cascade'))
-		.addColumn('role', 'text', (col) => col.notNull().check(sql`role in ('captain', 'member', 'viewer')`))
+		.addColumn('role', 'text', (col) =>
+			col.notNull().check(sql`role in ('captain', 'member', 'viewer')`),
+		)
 		.addColumn('created_at', 'timestamptz', (col) => col.notNull().defaultTo(sql`now()`))
 		.addPrimaryKeyConstraint('membership_pk', ['team_id', 'user_id'])
 		.execute();
-	await db.schema.createIndex('membership_user_id_index').on('membership').column('user_id').execute();
+	await db.schema
+		.createIndex('membership_user_id_index')
+		.on('membership')
+		.column('user_id')
+		.execute();
 
 	await db.schema
 		.createTable('invitation')
 		.addColumn('id', 'uuid', (col) => col.primaryKey().defaultTo(sql`gen_random_uuid()`))
 		.addColumn('team_id', 'uuid', (col) => col.notNull().references('team.id').onDelete('cascade'))
 		.addColumn('email', 'text', (col) => col.notNull().check(sql`email = lower(email)`))
-		.addColumn('role', 'text', (col) => col.notNull().check(sql`role in ('captain', 'member', 'viewer')`))
+		.addColumn('role', 'text', (col) =>
+			col.notNull().check(sql`role in ('captain', 'member', 'viewer')`),
+		)
 		.addColumn('token_hash', 'text', (col) => col.notNull().unique())
 		.addColumn('invited_by', 'text', (col) => col.references('User.id').onDelete('set null'))
 		.addColumn('created_at', 'timestamptz', (col) => col.notNull().defaultTo(sql`now()`))
@@ -78,7 +96,9 @@ export async function up(db: Kysely<any>): Promise<void> {
 		.addCheckConstraint('invitation_one_outcome', sql`accepted_at is null or revoked_at is null`)
 		.execute();
 	// One open invitation per address and team.
-	await sql`create unique index invitation_open_unique on invitation (team_id, email) where accepted_at is null and revoked_at is null`.execute(db);
+	await sql`create unique index invitation_open_unique on invitation (team_id, email) where accepted_at is null and revoked_at is null`.execute(
+		db,
+	);
 
 	await db.schema
 		.createTable('password_reset')
@@ -98,12 +118,29 @@ export async function up(db: Kysely<any>): Promise<void> {
 		.addColumn('succeeded', 'boolean', (col) => col.notNull())
 		.addColumn('created_at', 'timestamptz', (col) => col.notNull().defaultTo(sql`now()`))
 		.execute();
-	await db.schema.createIndex('sign_in_attempt_email_index').on('sign_in_attempt').columns(['email', 'created_at']).execute();
-	await db.schema.createIndex('sign_in_attempt_client_index').on('sign_in_attempt').columns(['client', 'created_at']).execute();
+	await db.schema
+		.createIndex('sign_in_attempt_email_index')
+		.on('sign_in_attempt')
+		.columns(['email', 'created_at'])
+		.execute();
+	await db.schema
+		.createIndex('sign_in_attempt_client_index')
+		.on('sign_in_attempt')
+		.columns(['client', 'created_at'])
+		.execute();
 }
 
 export async function down(db: Kysely<any>): Promise<void> {
-	for (const table of ['sign_in_attempt', 'password_reset', 'invitation', 'membership', 'VerificationToken', 'Session', 'Account', 'User']) {
+	for (const table of [
+		'sign_in_attempt',
+		'password_reset',
+		'invitation',
+		'membership',
+		'VerificationToken',
+		'Session',
+		'Account',
+		'User',
+	]) {
 		await db.schema.dropTable(table).execute();
 	}
 }

@@ -6,7 +6,9 @@ export async function up(db: Kysely<any>): Promise<void> {
 		.createTable('event')
 		.addColumn('id', 'uuid', (col) => col.primaryKey().defaultTo(sql`gen_random_uuid()`))
 		.addColumn('team_id', 'uuid', (col) => col.notNull().references('team.id').onDelete('cascade'))
-		.addColumn('name', 'text', (col) => col.notNull().check(sql`length(trim(name)) between 1 and 120`))
+		.addColumn('name', 'text', (col) =>
+			col.notNull().check(sql`length(trim(name)) between 1 and 120`),
+		)
 		.addColumn('starts_on', 'date', (col) => col.notNull())
 		.addColumn('ends_on', 'date', (col) => col.notNull())
 		.addColumn('place', 'text', (col) => col.notNull().defaultTo(''))
@@ -15,12 +17,18 @@ export async function up(db: Kysely<any>): Promise<void> {
 		.addColumn('created_at', 'timestamptz', (col) => col.notNull().defaultTo(sql`now()`))
 		.addCheckConstraint('event_dates_ordered', sql`ends_on >= starts_on`)
 		.execute();
-	await db.schema.createIndex('event_team_starts_index').on('event').columns(['team_id', 'starts_on']).execute();
+	await db.schema
+		.createIndex('event_team_starts_index')
+		.on('event')
+		.columns(['team_id', 'starts_on'])
+		.execute();
 
 	await db.schema
 		.createTable('run')
 		.addColumn('id', 'uuid', (col) => col.primaryKey().defaultTo(sql`gen_random_uuid()`))
-		.addColumn('vehicle_id', 'uuid', (col) => col.notNull().references('vehicle.id').onDelete('cascade'))
+		.addColumn('vehicle_id', 'uuid', (col) =>
+			col.notNull().references('vehicle.id').onDelete('cascade'),
+		)
 		.addColumn('event_id', 'uuid', (col) => col.references('event.id').onDelete('set null'))
 		.addColumn('revision_id', 'uuid', (col) => col.references('revision.id'))
 		.addColumn('ran_at', 'timestamptz', (col) => col.notNull())
@@ -33,14 +41,20 @@ export async function up(db: Kysely<any>): Promise<void> {
 		.addColumn('author_id', 'text', (col) => col.references('User.id').onDelete('set null'))
 		.addColumn('created_at', 'timestamptz', (col) => col.notNull().defaultTo(sql`now()`))
 		.execute();
-	await db.schema.createIndex('run_vehicle_ran_index').on('run').columns(['vehicle_id', 'ran_at']).execute();
+	await db.schema
+		.createIndex('run_vehicle_ran_index')
+		.on('run')
+		.columns(['vehicle_id', 'ran_at'])
+		.execute();
 
 	await db.schema
 		.createTable('stored_file')
 		.addColumn('id', 'uuid', (col) => col.primaryKey().defaultTo(sql`gen_random_uuid()`))
 		.addColumn('team_id', 'uuid', (col) => col.notNull().references('team.id').onDelete('cascade'))
 		.addColumn('run_id', 'uuid', (col) => col.references('run.id').onDelete('cascade'))
-		.addColumn('kind', 'text', (col) => col.notNull().check(sql`kind in ('logger', 'photo', 'thumbnail')`))
+		.addColumn('kind', 'text', (col) =>
+			col.notNull().check(sql`kind in ('logger', 'photo', 'thumbnail')`),
+		)
 		.addColumn('object_key', 'text', (col) => col.notNull().unique())
 		.addColumn('file_name', 'text', (col) => col.notNull())
 		.addColumn('content_type', 'text', (col) => col.notNull())
@@ -60,5 +74,6 @@ export async function up(db: Kysely<any>): Promise<void> {
 }
 
 export async function down(db: Kysely<any>): Promise<void> {
-	for (const t of ['run_sample', 'stored_file', 'run', 'event']) await db.schema.dropTable(t).execute();
+	for (const t of ['run_sample', 'stored_file', 'run', 'event'])
+		await db.schema.dropTable(t).execute();
 }

@@ -7,29 +7,45 @@ import { type Kysely, sql } from 'kysely';
  * sign-offs restored from a backup, which never map to a live account of this installation.
  */
 export async function up(db: Kysely<any>): Promise<void> {
-	await db.schema.alterTable('User').addColumn('sessionVersion', 'integer', (col) => col.notNull().defaultTo(0)).execute();
+	await db.schema
+		.alterTable('User')
+		.addColumn('sessionVersion', 'integer', (col) => col.notNull().defaultTo(0))
+		.execute();
 
 	await db.schema
 		.createTable('rate_event')
 		.addColumn('id', 'bigserial', (col) => col.primaryKey())
-		.addColumn('kind', 'text', (col) => col.notNull().check(sql`kind in ('reset_mail', 'link_mail', 'sign_up')`))
+		.addColumn('kind', 'text', (col) =>
+			col.notNull().check(sql`kind in ('reset_mail', 'link_mail', 'sign_up')`),
+		)
 		.addColumn('email', 'text', (col) => col.notNull())
 		.addColumn('client', 'text', (col) => col.notNull())
 		.addColumn('created_at', 'timestamptz', (col) => col.notNull().defaultTo(sql`now()`))
 		.execute();
-	await db.schema.createIndex('rate_event_email_index').on('rate_event').columns(['kind', 'email', 'created_at']).execute();
-	await db.schema.createIndex('rate_event_client_index').on('rate_event').columns(['kind', 'client', 'created_at']).execute();
+	await db.schema
+		.createIndex('rate_event_email_index')
+		.on('rate_event')
+		.columns(['kind', 'email', 'created_at'])
+		.execute();
+	await db.schema
+		.createIndex('rate_event_client_index')
+		.on('rate_event')
+		.columns(['kind', 'client', 'created_at'])
+		.execute();
 
 	for (const table of ['vehicle', 'revision', 'plan', 'run', 'check_signoff']) {
 		await db.schema
 			.alterTable(table)
-			.addColumn('imported_by', 'text', (col) => col.check(sql`imported_by is null or length(imported_by) <= 320`))
+			.addColumn('imported_by', 'text', (col) =>
+				col.check(sql`imported_by is null or length(imported_by) <= 320`),
+			)
 			.execute();
 	}
 }
 
 export async function down(db: Kysely<any>): Promise<void> {
-	for (const table of ['vehicle', 'revision', 'plan', 'run', 'check_signoff']) await db.schema.alterTable(table).dropColumn('imported_by').execute();
+	for (const table of ['vehicle', 'revision', 'plan', 'run', 'check_signoff'])
+		await db.schema.alterTable(table).dropColumn('imported_by').execute();
 	await db.schema.dropTable('rate_event').execute();
 	await db.schema.alterTable('User').dropColumn('sessionVersion').execute();
 }

@@ -24,11 +24,13 @@ export function alternatorRpm(engineRpm: number, pulleyRatio: number): number {
 function interpolate(curve: readonly CurvePoint[], rpm: number): number {
 	if (curve.length === 0) return 0;
 	const sorted = [...curve].sort((a, b) => a.rpm - b.rpm);
-	if (rpm <= sorted[0]!.rpm) return sorted[0]!.rpm === 0 || rpm === sorted[0]!.rpm ? sorted[0]!.currentA : 0;
+	if (rpm <= sorted[0]!.rpm)
+		return sorted[0]!.rpm === 0 || rpm === sorted[0]!.rpm ? sorted[0]!.currentA : 0;
 	for (let i = 1; i < sorted.length; i++) {
 		const b = sorted[i]!;
 		const a = sorted[i - 1]!;
-		if (rpm <= b.rpm) return a.currentA + ((b.currentA - a.currentA) * (rpm - a.rpm)) / (b.rpm - a.rpm);
+		if (rpm <= b.rpm)
+			return a.currentA + ((b.currentA - a.currentA) * (rpm - a.rpm)) / (b.rpm - a.rpm);
 	}
 	return sorted[sorted.length - 1]!.currentA;
 }

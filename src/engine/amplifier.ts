@@ -5,7 +5,10 @@ import type { Amplifier } from './types';
  * P_in = d · P_rated · quantity / η, where d is the fraction of rated output (1 for a burp,
  * about 1/8 for sustained music).
  */
-export function amplifierInputPowerW(amp: Pick<Amplifier, 'ratedPowerW' | 'efficiency' | 'quantity'>, demand: number): number {
+export function amplifierInputPowerW(
+	amp: Pick<Amplifier, 'ratedPowerW' | 'efficiency' | 'quantity'>,
+	demand: number,
+): number {
 	return (demand * amp.ratedPowerW * amp.quantity) / amp.efficiency;
 }
 
@@ -22,7 +25,11 @@ export function amplifierCurrentA(
  * Output of an unregulated (fixed-ratio converter) amplifier at clipping: rails follow the supply,
  * so P(V) = P_rated · (V / V_rated)².
  */
-export function unregulatedOutputW(ratedPowerW: number, ratedVoltageV: number, voltageV: number): number {
+export function unregulatedOutputW(
+	ratedPowerW: number,
+	ratedVoltageV: number,
+	voltageV: number,
+): number {
 	return ratedPowerW * (voltageV / ratedVoltageV) ** 2;
 }
 
@@ -31,9 +38,15 @@ export function unregulatedOutputW(ratedPowerW: number, ratedVoltageV: number, v
  * unregulated one follows P_rated·(V/V_rated)² on both sides of its rated voltage, up to the
  * stated maximum output when one is given.
  */
-export function availableOutputW(amp: Pick<Amplifier, 'ratedPowerW' | 'ratedVoltageV' | 'regulated' | 'maxOutputW'>, voltageV: number): number {
+export function availableOutputW(
+	amp: Pick<Amplifier, 'ratedPowerW' | 'ratedVoltageV' | 'regulated' | 'maxOutputW'>,
+	voltageV: number,
+): number {
 	if (amp.regulated) return amp.ratedPowerW;
-	return Math.min(amp.maxOutputW ?? Number.POSITIVE_INFINITY, unregulatedOutputW(amp.ratedPowerW, amp.ratedVoltageV, voltageV));
+	return Math.min(
+		amp.maxOutputW ?? Number.POSITIVE_INFINITY,
+		unregulatedOutputW(amp.ratedPowerW, amp.ratedVoltageV, voltageV),
+	);
 }
 
 /**
@@ -53,11 +66,23 @@ export interface AmplifierDraw {
 	maxPowerW: number;
 }
 
-export function amplifierDraw(amp: Pick<Amplifier, 'ratedPowerW' | 'ratedVoltageV' | 'efficiency' | 'quantity' | 'regulated' | 'maxOutputW'>, demand: number): AmplifierDraw {
+export function amplifierDraw(
+	amp: Pick<
+		Amplifier,
+		'ratedPowerW' | 'ratedVoltageV' | 'efficiency' | 'quantity' | 'regulated' | 'maxOutputW'
+	>,
+	demand: number,
+): AmplifierDraw {
 	const powerW = amplifierInputPowerW(amp, demand);
-	if (amp.regulated) return { powerW, ratedVoltageV: Number.POSITIVE_INFINITY, maxPowerW: Number.POSITIVE_INFINITY };
+	if (amp.regulated)
+		return { powerW, ratedVoltageV: Number.POSITIVE_INFINITY, maxPowerW: Number.POSITIVE_INFINITY };
 	const cap = amp.maxOutputW ?? null;
-	return { powerW, ratedVoltageV: amp.ratedVoltageV, maxPowerW: cap === null ? Number.POSITIVE_INFINITY : Math.max(powerW, (powerW * cap) / amp.ratedPowerW) };
+	return {
+		powerW,
+		ratedVoltageV: amp.ratedVoltageV,
+		maxPowerW:
+			cap === null ? Number.POSITIVE_INFINITY : Math.max(powerW, (powerW * cap) / amp.ratedPowerW),
+	};
 }
 
 /** Current drawn at terminal voltage v (A) and dI/dv, for a draw scaled by λ. */
@@ -95,6 +120,9 @@ export function voltageRatioDb(v2: number, v1: number): number {
 }
 
 /** Output lost against the rating at a terminal voltage (dB, ≤ 0). */
-export function outputLossDb(amp: Pick<Amplifier, 'ratedPowerW' | 'ratedVoltageV' | 'regulated'>, voltageV: number): number {
+export function outputLossDb(
+	amp: Pick<Amplifier, 'ratedPowerW' | 'ratedVoltageV' | 'regulated'>,
+	voltageV: number,
+): number {
 	return powerRatioDb(availableOutputW(amp, voltageV), amp.ratedPowerW);
 }

@@ -34,7 +34,13 @@ export interface ChemistryProps {
 export const CHEMISTRY_PROPS: Record<Chemistry, ChemistryProps> = {
 	flooded: {
 		label: 'Flooded lead-acid',
-		ocvPerCell: [[0, 11.8 / 6], [0.25, 12.0 / 6], [0.5, 12.2 / 6], [0.75, 12.4 / 6], [1, 12.6 / 6]],
+		ocvPerCell: [
+			[0, 11.8 / 6],
+			[0.25, 12.0 / 6],
+			[0.5, 12.2 / 6],
+			[0.75, 12.4 / 6],
+			[1, 12.6 / 6],
+		],
 		absorptionPerCell: 2.4,
 		floatPerCell: 2.25,
 		maxChargePerCell: 2.45,
@@ -46,7 +52,13 @@ export const CHEMISTRY_PROPS: Record<Chemistry, ChemistryProps> = {
 	},
 	agm: {
 		label: 'AGM lead-acid',
-		ocvPerCell: [[0, 12.0 / 6], [0.25, 12.2 / 6], [0.5, 12.4 / 6], [0.75, 12.6 / 6], [1, 12.8 / 6]],
+		ocvPerCell: [
+			[0, 12.0 / 6],
+			[0.25, 12.2 / 6],
+			[0.5, 12.4 / 6],
+			[0.75, 12.6 / 6],
+			[1, 12.8 / 6],
+		],
 		absorptionPerCell: 2.4,
 		floatPerCell: 2.27,
 		maxChargePerCell: 2.45,
@@ -58,7 +70,15 @@ export const CHEMISTRY_PROPS: Record<Chemistry, ChemistryProps> = {
 	},
 	lfp: {
 		label: 'LiFePO4',
-		ocvPerCell: [[0, 2.9], [0.1, 3.2], [0.2, 3.25], [0.5, 3.29], [0.8, 3.32], [0.9, 3.34], [1, 3.4]],
+		ocvPerCell: [
+			[0, 2.9],
+			[0.1, 3.2],
+			[0.2, 3.25],
+			[0.5, 3.29],
+			[0.8, 3.32],
+			[0.9, 3.34],
+			[1, 3.4],
+		],
 		absorptionPerCell: 3.6,
 		floatPerCell: 3.375,
 		maxChargePerCell: 3.65,
@@ -96,7 +116,8 @@ export function socAtCellOcv(chemistry: Chemistry, volts: number): number {
 	return 1;
 }
 
-export const cellsInSeries = (bank: Pick<BatteryBank, 'cellsPerUnit' | 'unitsInSeries'>) => bank.cellsPerUnit * bank.unitsInSeries;
+export const cellsInSeries = (bank: Pick<BatteryBank, 'cellsPerUnit' | 'unitsInSeries'>) =>
+	bank.cellsPerUnit * bank.unitsInSeries;
 
 /** Thevenin equivalent of a bank: V_oc = Ns·V_cell(SOC), R = Ns·R_unit/Np, C = Np·C_unit. */
 export function bankThevenin(bank: BatteryBank, stateOfCharge = bank.stateOfCharge) {
@@ -115,7 +136,10 @@ export function bankChargeTargets(bank: BatteryBank) {
 	const props = CHEMISTRY_PROPS[bank.chemistry];
 	const cells = cellsInSeries(bank);
 	return {
-		absorptionV: bank.absorptionV !== null ? bank.absorptionV * bank.unitsInSeries : props.absorptionPerCell * cells,
+		absorptionV:
+			bank.absorptionV !== null
+				? bank.absorptionV * bank.unitsInSeries
+				: props.absorptionPerCell * cells,
 		floatV: bank.floatV !== null ? bank.floatV * bank.unitsInSeries : props.floatPerCell * cells,
 		maxV: props.maxChargePerCell * cells,
 	};
@@ -138,7 +162,12 @@ export function chargeAcceptanceA(bank: BatteryBank, stateOfCharge = bank.stateO
  * Peukert's law, I^k·t = const, referred to the rated capacity C at the rated time H:
  * t = H · (C / (I·H))^k hours to full discharge at a constant current I.
  */
-export function peukertHours(capacityAh: number, ratedHours: number, currentA: number, k: number): number {
+export function peukertHours(
+	capacityAh: number,
+	ratedHours: number,
+	currentA: number,
+	k: number,
+): number {
 	if (currentA <= 0) return Number.POSITIVE_INFINITY;
 	return ratedHours * (capacityAh / (currentA * ratedHours)) ** k;
 }
@@ -147,7 +176,12 @@ export function peukertHours(capacityAh: number, ratedHours: number, currentA: n
  * Peukert-effective current for coulomb counting: discharging at I removes charge as fast as
  * I_eff = I · (I / I_H)^(k−1), where I_H = C/H is the rated current. Equivalent to Peukert's law.
  */
-export function peukertEffectiveCurrentA(capacityAh: number, ratedHours: number, currentA: number, k: number): number {
+export function peukertEffectiveCurrentA(
+	capacityAh: number,
+	ratedHours: number,
+	currentA: number,
+	k: number,
+): number {
 	if (currentA <= 0) return currentA;
 	const ratedA = capacityAh / ratedHours;
 	return currentA * (currentA / ratedA) ** (k - 1);

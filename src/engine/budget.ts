@@ -1,6 +1,13 @@
 import { amplifierCurrentA } from './amplifier';
 import { alternatorLimitA } from './alternator';
-import { bankPeukertK, bankThevenin, CHEMISTRY_PROPS, cellsInSeries, peukertHours, socAtCellOcv } from './battery';
+import {
+	bankPeukertK,
+	bankThevenin,
+	CHEMISTRY_PROPS,
+	cellsInSeries,
+	peukertHours,
+	socAtCellOcv,
+} from './battery';
 import type { BatteryBank, BuildDocument } from './types';
 
 export interface BudgetRow {
@@ -22,7 +29,11 @@ export interface BudgetRow {
  * fraction is the state of charge above the point where V_oc(SOC) − I·R reaches the cut-off, and
  * the time for it follows Peukert's law, t = f · H · (C/(I·H))^k.
  */
-export function bankCarryHours(bank: BatteryBank, currentA: number, cutoffV: number | null): number {
+export function bankCarryHours(
+	bank: BatteryBank,
+	currentA: number,
+	cutoffV: number | null,
+): number {
 	if (currentA <= 0) return Number.POSITIVE_INFINITY;
 	const { resistanceOhm, capacityAh } = bankThevenin(bank);
 	const cells = cellsInSeries(bank);
@@ -37,7 +48,11 @@ export function bankCarryHours(bank: BatteryBank, currentA: number, cutoffV: num
  * conductance (1/R, as parallel Thevenin sources share a load), and the system is empty when the
  * first bank reaches its cut-off.
  */
-export function banksCarryHours(banks: BatteryBank[], deficitA: number, cutoffV: number | null): number | null {
+export function banksCarryHours(
+	banks: BatteryBank[],
+	deficitA: number,
+	cutoffV: number | null,
+): number | null {
 	if (deficitA <= 0) return null;
 	if (banks.length === 0) return 0;
 	const g = banks.map((b) => 1 / bankThevenin(b).resistanceOhm);
@@ -51,12 +66,22 @@ export function banksCarryHours(banks: BatteryBank[], deficitA: number, cutoffV:
  */
 export function fixedVoltageBudget(
 	doc: BuildDocument,
-	opts: { voltagesV: number[]; engineRpm: number; sustainedDemand: number; burpDemand: number; cutoffV: number | null },
+	opts: {
+		voltagesV: number[];
+		engineRpm: number;
+		sustainedDemand: number;
+		burpDemand: number;
+		cutoffV: number | null;
+	},
 ): BudgetRow[] {
 	const steadyA = doc.loads.reduce((s, l) => s + l.currentA, 0);
-	const alternatorSupplyA = doc.alternators.reduce((s, a) => s + alternatorLimitA(a, opts.engineRpm), 0);
+	const alternatorSupplyA = doc.alternators.reduce(
+		(s, a) => s + alternatorLimitA(a, opts.engineRpm),
+		0,
+	);
 	return opts.voltagesV.map((voltageV) => {
-		const ampsAt = (d: number) => doc.amplifiers.reduce((s, a) => s + amplifierCurrentA(a, d, voltageV), 0);
+		const ampsAt = (d: number) =>
+			doc.amplifiers.reduce((s, a) => s + amplifierCurrentA(a, d, voltageV), 0);
 		const sustainedDemandA = ampsAt(opts.sustainedDemand) + steadyA;
 		const burpDemandA = ampsAt(opts.burpDemand) + steadyA;
 		const sustainedSurplusA = alternatorSupplyA - sustainedDemandA;

@@ -40,16 +40,30 @@ function updateBanks(net: CompiledNetwork, doc: BuildDocument, soc: Record<strin
  */
 export function runBurp(
 	doc: BuildDocument,
-	opts: { engineRpm: number; demand: number; conductorTempC: number; durationS: number; stepS: number },
+	opts: {
+		engineRpm: number;
+		demand: number;
+		conductorTempC: number;
+		durationS: number;
+		stepS: number;
+	},
 ): BurpRun {
 	const steps = Math.max(1, Math.round(opts.durationS / opts.stepS));
-	const soc: Record<string, number> = Object.fromEntries(doc.banks.map((b) => [b.id, b.stateOfCharge]));
+	const soc: Record<string, number> = Object.fromEntries(
+		doc.banks.map((b) => [b.id, b.stateOfCharge]),
+	);
 	const startSoc = { ...soc };
-	const net = compileNetwork(doc, { engineRpm: opts.engineRpm, demand: opts.demand, conductorTempC: opts.conductorTempC });
+	const net = compileNetwork(doc, {
+		engineRpm: opts.engineRpm,
+		demand: opts.demand,
+		conductorTempC: opts.conductorTempC,
+	});
 	const timeS: number[] = [];
 	const minAmplifierV: number[] = [];
 	const bankV: Record<string, number[]> = Object.fromEntries(doc.banks.map((b) => [b.id, []]));
-	const amplifierMinV: Record<string, number> = Object.fromEntries(doc.amplifiers.map((a) => [a.id, Number.POSITIVE_INFINITY]));
+	const amplifierMinV: Record<string, number> = Object.fromEntries(
+		doc.amplifiers.map((a) => [a.id, Number.POSITIVE_INFINITY]),
+	);
 	const energyWh = { amplifiers: 0, banks: 0, alternators: 0, cableLoss: 0 };
 	let warm: Float64Array | undefined;
 	let collapsedAtS: number | null = null;
@@ -67,14 +81,20 @@ export function runBurp(
 			energyWh.amplifiers += (a.inputPowerW * opts.stepS) / 3600;
 		}
 		minAmplifierV.push(doc.amplifiers.length ? minV : Number.NaN);
-		for (const a of s.alternators) energyWh.alternators += (a.currentA * a.terminalV * opts.stepS) / 3600;
+		for (const a of s.alternators)
+			energyWh.alternators += (a.currentA * a.terminalV * opts.stepS) / 3600;
 		energyWh.cableLoss += (s.power.cableLossW * opts.stepS) / 3600;
 		s.banks.forEach((b, i) => {
 			const bank = doc.banks[i]!;
 			bankV[b.id]!.push(b.terminalV);
 			energyWh.banks += (b.currentA * b.terminalV * opts.stepS) / 3600;
 			const { capacityAh } = bankThevenin(bank);
-			const eff = peukertEffectiveCurrentA(capacityAh, bank.ratedHours, b.currentA, bankPeukertK(bank));
+			const eff = peukertEffectiveCurrentA(
+				capacityAh,
+				bank.ratedHours,
+				b.currentA,
+				bankPeukertK(bank),
+			);
 			soc[b.id] = Math.min(1, Math.max(0, soc[b.id]! - (eff * opts.stepS) / 3600 / capacityAh));
 		});
 		if (raw.collapsed) {
@@ -82,5 +102,16 @@ export function runBurp(
 			break;
 		}
 	}
-	return { durationS: opts.durationS, stepS: opts.stepS, timeS, minAmplifierV, bankV, amplifierMinV, energyWh, startSoc, endSoc: soc, collapsedAtS };
+	return {
+		durationS: opts.durationS,
+		stepS: opts.stepS,
+		timeS,
+		minAmplifierV,
+		bankV,
+		amplifierMinV,
+		energyWh,
+		startSoc,
+		endSoc: soc,
+		collapsedAtS,
+	};
 }

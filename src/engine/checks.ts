@@ -8,15 +8,52 @@ export interface ComputedCheck {
 	reasons: string[];
 }
 
-const CHECKS: Array<{ key: string; label: (r: Extract<BuildReport, { ok: true }>) => string; codes: WarningCode[] }> = [
-	{ key: 'battery_fusing', label: (r) => `Every cable leaving a battery is fused within ${Math.round(r.scenario.fuseDistanceM * 100)} cm of it`, codes: ['unfused_battery_cable', 'fuse_too_far'] },
-	{ key: 'fuse_sizes', label: () => 'No fuse is larger than what its cable may be protected with', codes: ['fuse_above_capacity', 'cable_too_small'] },
-	{ key: 'cable_capacity', label: () => 'No cable carries more than its current capacity', codes: ['over_capacity'] },
-	{ key: 'drops', label: (r) => `Drops stay within the ${r.scenario.dropTargetV.toFixed(2)} V target`, codes: ['drop_over_target', 'cable_drop_over_target'] },
-	{ key: 'charge_voltage', label: () => "Charging voltage stays within each bank chemistry's limit", codes: ['charge_voltage_high'] },
-	{ key: 'batteries_secured', label: () => 'Every battery bank is secured', codes: ['bank_not_secured'] },
-	{ key: 'venting', label: () => 'Flooded lead-acid batteries inside the cabin are vented', codes: ['flooded_unvented'] },
-	{ key: 'operating_point', label: () => 'The system has an operating point at burp demand (no voltage collapse)', codes: ['voltage_collapse'] },
+const CHECKS: Array<{
+	key: string;
+	label: (r: Extract<BuildReport, { ok: true }>) => string;
+	codes: WarningCode[];
+}> = [
+	{
+		key: 'battery_fusing',
+		label: (r) =>
+			`Every cable leaving a battery is fused within ${Math.round(r.scenario.fuseDistanceM * 100)} cm of it`,
+		codes: ['unfused_battery_cable', 'fuse_too_far'],
+	},
+	{
+		key: 'fuse_sizes',
+		label: () => 'No fuse is larger than what its cable may be protected with',
+		codes: ['fuse_above_capacity', 'cable_too_small'],
+	},
+	{
+		key: 'cable_capacity',
+		label: () => 'No cable carries more than its current capacity',
+		codes: ['over_capacity'],
+	},
+	{
+		key: 'drops',
+		label: (r) => `Drops stay within the ${r.scenario.dropTargetV.toFixed(2)} V target`,
+		codes: ['drop_over_target', 'cable_drop_over_target'],
+	},
+	{
+		key: 'charge_voltage',
+		label: () => "Charging voltage stays within each bank chemistry's limit",
+		codes: ['charge_voltage_high'],
+	},
+	{
+		key: 'batteries_secured',
+		label: () => 'Every battery bank is secured',
+		codes: ['bank_not_secured'],
+	},
+	{
+		key: 'venting',
+		label: () => 'Flooded lead-acid batteries inside the cabin are vented',
+		codes: ['flooded_unvented'],
+	},
+	{
+		key: 'operating_point',
+		label: () => 'The system has an operating point at burp demand (no voltage collapse)',
+		codes: ['voltage_collapse'],
+	},
 ];
 
 /**
@@ -25,10 +62,22 @@ const CHECKS: Array<{ key: string; label: (r: Extract<BuildReport, { ok: true }>
  */
 export function computedChecks(report: BuildReport): ComputedCheck[] {
 	if (!report.ok) {
-		return [{ key: 'solvable', label: 'The build is a network the engine can solve', status: 'fail', reasons: report.issues.map((i) => i.message) }];
+		return [
+			{
+				key: 'solvable',
+				label: 'The build is a network the engine can solve',
+				status: 'fail',
+				reasons: report.issues.map((i) => i.message),
+			},
+		];
 	}
 	return CHECKS.map((c) => {
 		const reasons = report.warnings.filter((w) => c.codes.includes(w.code)).map((w) => w.message);
-		return { key: c.key, label: c.label(report), status: reasons.length ? 'fail' : 'pass', reasons };
+		return {
+			key: c.key,
+			label: c.label(report),
+			status: reasons.length ? 'fail' : 'pass',
+			reasons,
+		};
 	});
 }

@@ -28,9 +28,20 @@ export interface ComparisonColumn {
 	 * Each amplifier's terminal voltage under burp and sustained demand, and the lowest it reaches
 	 * during the scenario's time-stepped burp as the banks discharge (null after a collapse).
 	 */
-	amplifiers: { id: string; label: string; burpV: number; sustainedV: number; burpRunMinV: number | null }[];
+	amplifiers: {
+		id: string;
+		label: string;
+		burpV: number;
+		sustainedV: number;
+		burpRunMinV: number | null;
+	}[];
 	/** The fixed-voltage budget: surplus and burp carry time at each supply voltage. */
-	budget: { voltageV: number; sustainedSurplusA: number; burpSurplusA: number; burpCarrySeconds: number | null }[];
+	budget: {
+		voltageV: number;
+		sustainedSurplusA: number;
+		burpSurplusA: number;
+		burpCarrySeconds: number | null;
+	}[];
 	warnings: number;
 	/** Findings raised against cables (drop, cmil per amp, capacity, fusing). */
 	cableWarnings: string[];
@@ -43,11 +54,19 @@ export interface ComparisonColumn {
 /** The strongest source's terminal voltage: what the system settles at. Null at a collapse. */
 function settled(s: NetworkSolution): number | null {
 	if (s.status === 'collapse') return null;
-	return Math.max(0, ...s.banks.map((b) => b.terminalV), ...s.alternators.filter((a) => a.mode !== 'off').map((a) => a.terminalV));
+	return Math.max(
+		0,
+		...s.banks.map((b) => b.terminalV),
+		...s.alternators.filter((a) => a.mode !== 'off').map((a) => a.terminalV),
+	);
 }
 
 function lowest(doc: BuildDocument, scenario: Scenario, demand: number): number | null {
-	const s = solveNetwork(doc, { engineRpm: scenario.engineRpm, demand, conductorTempC: scenario.conductorTempC });
+	const s = solveNetwork(doc, {
+		engineRpm: scenario.engineRpm,
+		demand,
+		conductorTempC: scenario.conductorTempC,
+	});
 	if (s.status === 'collapse' || s.amplifiers.length === 0) return null;
 	return Math.min(...s.amplifiers.map((a) => a.terminalV));
 }
@@ -59,20 +78,46 @@ function lowest(doc: BuildDocument, scenario: Scenario, demand: number): number 
  * banks carry the music deficit, warnings, cost and dB per unit of money. Every figure is the same
  * engine run the build page shows for that document.
  */
-export function comparePlans(current: BuildDocument, plans: PlanCandidate[], scenarioIn: Partial<Scenario> = {}): ComparisonColumn[] {
+export function comparePlans(
+	current: BuildDocument,
+	plans: PlanCandidate[],
+	scenarioIn: Partial<Scenario> = {},
+): ComparisonColumn[] {
 	const scenario: Scenario = { ...DEFAULT_SCENARIO, ...scenarioIn };
-	const column = (id: string, name: string, doc: BuildDocument, cost: number, baseBurp: number | null): ComparisonColumn => {
+	const column = (
+		id: string,
+		name: string,
+		doc: BuildDocument,
+		cost: number,
+		baseBurp: number | null,
+	): ComparisonColumn => {
 		const report = buildReport(doc, scenario, { burpRun: false });
-		const run = report.ok ? runBurp(doc, { engineRpm: scenario.engineRpm, demand: scenario.burpDemand, conductorTempC: scenario.conductorTempC, durationS: scenario.burpSeconds, stepS: scenario.burpStepS }) : null;
+		const run = report.ok
+			? runBurp(doc, {
+					engineRpm: scenario.engineRpm,
+					demand: scenario.burpDemand,
+					conductorTempC: scenario.conductorTempC,
+					durationS: scenario.burpSeconds,
+					stepS: scenario.burpStepS,
+				})
+			: null;
 		const runMin = (id: string) => {
 			const v = run?.amplifierMinV[id];
 			return v !== undefined && Number.isFinite(v) && run!.collapsedAtS === null ? v : null;
 		};
 		const burp = lowest(doc, scenario, scenario.burpDemand);
 		const sustained = lowest(doc, scenario, scenario.sustainedDemand);
-		const weakest = report.ok ? report.amplifiers.reduce((w, a) => (a.burpTerminalV < w.burpTerminalV ? a : w), report.amplifiers[0]!) : null;
-		const ampDoc = weakest ? doc.amplifiers.find((a) => a.id === weakest.id) ?? null : null;
-		const deltaDb = burp !== null && baseBurp !== null && ampDoc ? outputLossDb(ampDoc, burp) - outputLossDb(ampDoc, baseBurp) : null;
+		const weakest = report.ok
+			? report.amplifiers.reduce(
+					(w, a) => (a.burpTerminalV < w.burpTerminalV ? a : w),
+					report.amplifiers[0]!,
+				)
+			: null;
+		const ampDoc = weakest ? (doc.amplifiers.find((a) => a.id === weakest.id) ?? null) : null;
+		const deltaDb =
+			burp !== null && baseBurp !== null && ampDoc
+				? outputLossDb(ampDoc, burp) - outputLossDb(ampDoc, baseBurp)
+				: null;
 		const bankDraw = report.ok ? report.sustained.banks.reduce((s, b) => s + b.currentA, 0) : 0;
 		return {
 			id,
@@ -80,16 +125,40 @@ export function comparePlans(current: BuildDocument, plans: PlanCandidate[], sce
 			lowestAmplifierV: { burp, sustained },
 			deltaDb,
 			carryHours: bankDraw > 0.5 ? banksCarryHours(doc.banks, bankDraw, scenario.cutoffV) : null,
-			busV: report.ok ? { burp: settled(report.burp), sustained: settled(report.sustained) } : { burp: null, sustained: null },
-			amplifiers: report.ok ? report.amplifiers.map((a) => ({ id: a.id, label: a.label, burpV: a.burpTerminalV, sustainedV: a.sustainedTerminalV, burpRunMinV: runMin(a.id) })) : [],
-			budget: report.ok ? report.budget.map((r) => ({ voltageV: r.voltageV, sustainedSurplusA: r.sustainedSurplusA, burpSurplusA: r.burpSurplusA, burpCarrySeconds: r.burpCarrySeconds })) : [],
+			busV: report.ok
+				? { burp: settled(report.burp), sustained: settled(report.sustained) }
+				: { burp: null, sustained: null },
+			amplifiers: report.ok
+				? report.amplifiers.map((a) => ({
+						id: a.id,
+						label: a.label,
+						burpV: a.burpTerminalV,
+						sustainedV: a.sustainedTerminalV,
+						burpRunMinV: runMin(a.id),
+					}))
+				: [],
+			budget: report.ok
+				? report.budget.map((r) => ({
+						voltageV: r.voltageV,
+						sustainedSurplusA: r.sustainedSurplusA,
+						burpSurplusA: r.burpSurplusA,
+						burpCarrySeconds: r.burpCarrySeconds,
+					}))
+				: [],
 			warnings: report.ok ? report.warnings.length : 0,
-			cableWarnings: report.ok ? report.warnings.filter((w) => w.element.kind === 'cable' && w.severity !== 'info').map((w) => w.message) : [],
+			cableWarnings: report.ok
+				? report.warnings
+						.filter((w) => w.element.kind === 'cable' && w.severity !== 'info')
+						.map((w) => w.message)
+				: [],
 			safetyFindings: report.ok ? report.warnings.filter((w) => w.safety).length : 0,
 			cost,
 			dbPerMoney: deltaDb !== null && deltaDb > 0 && cost > 0 ? deltaDb / cost : null,
 		};
 	};
 	const baseBurp = lowest(current, scenario, scenario.burpDemand);
-	return [column('current', 'Current build', current, 0, baseBurp), ...plans.map((p) => column(p.id, p.name, p.document, p.cost, baseBurp))];
+	return [
+		column('current', 'Current build', current, 0, baseBurp),
+		...plans.map((p) => column(p.id, p.name, p.document, p.cost, baseBurp)),
+	];
 }

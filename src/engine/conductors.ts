@@ -64,7 +64,12 @@ const COPPER_RHO = 1 / 58; // 100 % IACS: 58 MS/m at 20 °C
  */
 export const MATERIAL_PROPS: Record<Material, MaterialProps> = {
 	copper: { label: 'Copper (OFC)', resistivity20: COPPER_RHO, alpha20: 0.00393, iacs: 1 },
-	tinned_copper: { label: 'Tinned copper', resistivity20: COPPER_RHO * 1.03, alpha20: 0.00393, iacs: 1 / 1.03 },
+	tinned_copper: {
+		label: 'Tinned copper',
+		resistivity20: COPPER_RHO * 1.03,
+		alpha20: 0.00393,
+		iacs: 1 / 1.03,
+	},
 	cca10: { label: 'CCA (10 % Cu)', resistivity20: COPPER_RHO / 0.629, alpha20: 0.004, iacs: 0.629 },
 	cca15: { label: 'CCA (15 % Cu)', resistivity20: COPPER_RHO / 0.644, alpha20: 0.004, iacs: 0.644 },
 	aluminium: { label: 'Aluminium', resistivity20: COPPER_RHO / 0.61, alpha20: 0.00403, iacs: 0.61 },
@@ -96,8 +101,13 @@ export function resistancePerMetre(size: CableSize, material: Material, tempC = 
 }
 
 /** Resistance of a whole cable (Ω): ρ(T)·k_lay·L / (A·runs), runs in parallel. */
-export function cableResistanceOhm(cable: Pick<Cable, 'size' | 'material' | 'lengthM' | 'parallelRuns'>, tempC = 20): number {
-	return (resistancePerMetre(cable.size, cable.material, tempC) * cable.lengthM) / cable.parallelRuns;
+export function cableResistanceOhm(
+	cable: Pick<Cable, 'size' | 'material' | 'lengthM' | 'parallelRuns'>,
+	tempC = 20,
+): number {
+	return (
+		(resistancePerMetre(cable.size, cable.material, tempC) * cable.lengthM) / cable.parallelRuns
+	);
 }
 
 /**
@@ -119,7 +129,10 @@ export function cmilPerAmp(size: CableSize, parallelRuns: number, currentA: numb
  * 33 CFR 183.425 Table 5 (8 AWG to 4/0).
  */
 export const AMPACITY_TABLE_TEMPS_C = [60, 75, 80, 90, 105, 125, 200] as const;
-export const AMPACITY_TABLE: Record<'8' | '6' | '4' | '2' | '1' | '1/0' | '2/0' | '3/0' | '4/0', readonly number[]> = {
+export const AMPACITY_TABLE: Record<
+	'8' | '6' | '4' | '2' | '1' | '1/0' | '2/0' | '3/0' | '4/0',
+	readonly number[]
+> = {
 	'8': [55, 65, 70, 70, 80, 90, 100],
 	'6': [80, 95, 100, 100, 120, 125, 135],
 	'4': [105, 125, 130, 135, 160, 170, 180],
@@ -146,7 +159,9 @@ export interface AmpacityEstimate {
  * scaled by √(ρ_Cu/ρ) so that they dissipate the same I²R per metre (an assumption of ours).
  * Parallel runs add (no bundling derate applied). Returns null below the 60 °C column.
  */
-export function ampacityEstimate(cable: Pick<Cable, 'size' | 'material' | 'parallelRuns' | 'insulationC'>): AmpacityEstimate | null {
+export function ampacityEstimate(
+	cable: Pick<Cable, 'size' | 'material' | 'parallelRuns' | 'insulationC'>,
+): AmpacityEstimate | null {
 	const col = [...AMPACITY_TABLE_TEMPS_C].reverse().findIndex((t) => t <= cable.insulationC);
 	if (col < 0) return null;
 	const colIndex = AMPACITY_TABLE_TEMPS_C.length - 1 - col;
@@ -159,7 +174,10 @@ export function ampacityEstimate(cable: Pick<Cable, 'size' | 'material' | 'paral
 	const area = cableAreaMm2(cable.size);
 	let copperA: number;
 	let basis: AmpacityEstimate['basis'];
-	const exact = cable.size.kind === 'awg' ? points.find((p) => p.awg === (cable.size as { awg: string }).awg) : undefined;
+	const exact =
+		cable.size.kind === 'awg'
+			? points.find((p) => p.awg === (cable.size as { awg: string }).awg)
+			: undefined;
 	if (exact) {
 		copperA = exact.amps;
 		basis = 'table';

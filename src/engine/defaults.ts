@@ -5,7 +5,19 @@ import type { Alternator, Amplifier, BatteryBank } from './types';
  * for the editor's new parts, the demo builds and the test networks. The values are ordinary
  * starting points (20 h capacity rating, 105 °C-class defaults elsewhere), not measurements.
  */
-export function bankWithDefaults(b: Partial<BatteryBank> & Pick<BatteryBank, 'id' | 'label' | 'positive' | 'negative' | 'chemistry' | 'unitCapacityAh' | 'unitResistanceOhm'>): BatteryBank {
+export function bankWithDefaults(
+	b: Partial<BatteryBank> &
+		Pick<
+			BatteryBank,
+			| 'id'
+			| 'label'
+			| 'positive'
+			| 'negative'
+			| 'chemistry'
+			| 'unitCapacityAh'
+			| 'unitResistanceOhm'
+		>,
+): BatteryBank {
 	return {
 		// A 12 V-class unit: six lead-acid cells or four LiFePO4 cells.
 		cellsPerUnit: b.chemistry === 'lfp' ? 4 : 6,
@@ -24,10 +36,22 @@ export function bankWithDefaults(b: Partial<BatteryBank> & Pick<BatteryBank, 'id
 	};
 }
 
-export function alternatorWithDefaults(a: Partial<Alternator> & Pick<Alternator, 'id' | 'label' | 'positive' | 'negative' | 'ratedHotA' | 'setPointV'>): Alternator {
-	return { curve: [], curveIsCold: false, hotFactor: 0.8, pulleyRatio: 2.6, sourceResistanceOhm: 1e-4, ...a };
+export function alternatorWithDefaults(
+	a: Partial<Alternator> &
+		Pick<Alternator, 'id' | 'label' | 'positive' | 'negative' | 'ratedHotA' | 'setPointV'>,
+): Alternator {
+	return {
+		curve: [],
+		curveIsCold: false,
+		hotFactor: 0.8,
+		pulleyRatio: 2.6,
+		sourceResistanceOhm: 1e-4,
+		...a,
+	};
 }
 
-export function amplifierWithDefaults(a: Partial<Amplifier> & Pick<Amplifier, 'id' | 'label' | 'positive' | 'negative' | 'ratedPowerW'>): Amplifier {
+export function amplifierWithDefaults(
+	a: Partial<Amplifier> & Pick<Amplifier, 'id' | 'label' | 'positive' | 'negative' | 'ratedPowerW'>,
+): Amplifier {
 	return { ratedVoltageV: 14.4, efficiency: 0.8, quantity: 1, regulated: false, ...a };
 }

@@ -17,9 +17,15 @@ export interface ComponentChange {
 
 type Scalar = string | number | boolean | null;
 
-function flatten(value: unknown, prefix = '', out: Record<string, Scalar> = {}): Record<string, Scalar> {
+function flatten(
+	value: unknown,
+	prefix = '',
+	out: Record<string, Scalar> = {},
+): Record<string, Scalar> {
 	if (value !== null && typeof value === 'object') {
-		const entries = Array.isArray(value) ? value.map((v, i) => [String(i), v] as const) : Object.entries(value);
+		const entries = Array.isArray(value)
+			? value.map((v, i) => [String(i), v] as const)
+			: Object.entries(value);
 		if (entries.length === 0) out[prefix] = Array.isArray(value) ? '[]' : '{}';
 		for (const [k, v] of entries) flatten(v, prefix ? `${prefix}.${k}` : k, out);
 	} else {
@@ -40,14 +46,18 @@ export function diffBuilds(before: BuildDocument, after: BuildDocument): Compone
 		const b = new Map<string, { id: string; label: string }>(after[group].map((x) => [x.id, x]));
 		for (const [id, item] of a) {
 			if (!b.has(id)) {
-				const fields = Object.entries(flatten(item)).filter(([f]) => f !== 'id').map(([field, v]) => ({ field, before: v, after: undefined }));
+				const fields = Object.entries(flatten(item))
+					.filter(([f]) => f !== 'id')
+					.map(([field, v]) => ({ field, before: v, after: undefined }));
 				changes.push({ group, id, label: item.label, kind: 'removed', fields });
 			}
 		}
 		for (const [id, item] of b) {
 			const old = a.get(id);
 			if (!old) {
-				const fields = Object.entries(flatten(item)).filter(([f]) => f !== 'id').map(([field, v]) => ({ field, before: undefined, after: v }));
+				const fields = Object.entries(flatten(item))
+					.filter(([f]) => f !== 'id')
+					.map(([field, v]) => ({ field, before: undefined, after: v }));
 				changes.push({ group, id, label: item.label, kind: 'added', fields });
 				continue;
 			}
@@ -55,8 +65,11 @@ export function diffBuilds(before: BuildDocument, after: BuildDocument): Compone
 			const fb = flatten(item);
 			const keys = [...new Set([...Object.keys(fa), ...Object.keys(fb)])].sort();
 			// An empty list turning into items (or back) shows as its items, not as "[] → —".
-			const emptyMarker = (k: string) => (fa[k] === '[]' && fb[k] === undefined) || (fb[k] === '[]' && fa[k] === undefined);
-			const fields = keys.filter((k) => fa[k] !== fb[k] && !emptyMarker(k)).map((k) => ({ field: k, before: fa[k], after: fb[k] }));
+			const emptyMarker = (k: string) =>
+				(fa[k] === '[]' && fb[k] === undefined) || (fb[k] === '[]' && fa[k] === undefined);
+			const fields = keys
+				.filter((k) => fa[k] !== fb[k] && !emptyMarker(k))
+				.map((k) => ({ field: k, before: fa[k], after: fb[k] }));
 			if (fields.length) changes.push({ group, id, label: item.label, kind: 'changed', fields });
 		}
 	}

@@ -5,8 +5,8 @@
  * practice, no published source).
  */
 export const STANDARD_FUSE_RATINGS_A = [
-	1, 2, 3, 5, 7.5, 10, 15, 20, 25, 30, 40, 50, 60, 70, 80, 100, 125, 150, 175, 200, 225, 250, 300, 350, 400, 500, 600,
-	750, 1000,
+	1, 2, 3, 5, 7.5, 10, 15, 20, 25, 30, 40, 50, 60, 70, 80, 100, 125, 150, 175, 200, 225, 250, 300,
+	350, 400, 500, 600, 750, 1000,
 ] as const;
 
 /**
@@ -28,10 +28,15 @@ export type FuseAdvice =
 export function adviseFuse(designCurrentA: number, ampacityA: number | null): FuseAdvice {
 	const recommended = STANDARD_FUSE_RATINGS_A.find((r) => r >= designCurrentA) ?? null;
 	if (ampacityA === null) {
-		return { status: 'unknown_capacity', recommendedA: recommended, message: 'No current capacity is known for this insulation rating.' };
+		return {
+			status: 'unknown_capacity',
+			recommendedA: recommended,
+			message: 'No current capacity is known for this insulation rating.',
+		};
 	}
 	const maxA = ampacityA * MAX_FUSE_FACTOR;
-	if (recommended !== null && recommended <= maxA) return { status: 'ok', recommendedA: recommended, maxA };
+	if (recommended !== null && recommended <= maxA)
+		return { status: 'ok', recommendedA: recommended, maxA };
 	return {
 		status: 'cable_too_small',
 		designCurrentA,

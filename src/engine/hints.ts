@@ -3,7 +3,9 @@ import { solveNetwork } from './solve';
 import { AWG_SIZES, type BuildDocument, type Cable, type CableSize } from './types';
 
 /** IEC 60228 nominal cross-sections (mm²) used for metric cables. */
-export const IEC_SIZES_MM2 = [1.5, 2.5, 4, 6, 10, 16, 25, 35, 50, 70, 95, 120, 150, 185, 240] as const;
+export const IEC_SIZES_MM2 = [
+	1.5, 2.5, 4, 6, 10, 16, 25, 35, 50, 70, 95, 120, 150, 185, 240,
+] as const;
 
 export interface UpgradeHint {
 	kind: 'upsize_cable' | 'add_bank' | 'raise_set_point' | 'second_alternator';
@@ -23,15 +25,22 @@ export function nextSize(cable: Cable): Pick<Cable, 'size' | 'parallelRuns'> {
 	const s = cable.size;
 	if (s.kind === 'awg') {
 		const i = AWG_SIZES.indexOf(s.awg);
-		return i < AWG_SIZES.length - 1 ? { size: { kind: 'awg', awg: AWG_SIZES[i + 1]! }, parallelRuns: cable.parallelRuns } : { size: s, parallelRuns: cable.parallelRuns + 1 };
+		return i < AWG_SIZES.length - 1
+			? { size: { kind: 'awg', awg: AWG_SIZES[i + 1]! }, parallelRuns: cable.parallelRuns }
+			: { size: s, parallelRuns: cable.parallelRuns + 1 };
 	}
 	const area = s.kind === 'mm2' ? s.mm2 : s.areaMm2;
 	const next = IEC_SIZES_MM2.find((x) => x > area * 1.0001);
 	const size: CableSize = next ? { kind: 'mm2', mm2: next } : s;
-	return next ? { size, parallelRuns: cable.parallelRuns } : { size, parallelRuns: cable.parallelRuns + 1 };
+	return next
+		? { size, parallelRuns: cable.parallelRuns }
+		: { size, parallelRuns: cable.parallelRuns + 1 };
 }
 
-function minAmpV(doc: BuildDocument, conditions: { engineRpm: number; demand: number; conductorTempC: number }): number {
+function minAmpV(
+	doc: BuildDocument,
+	conditions: { engineRpm: number; demand: number; conductorTempC: number },
+): number {
 	const s = solveNetwork(doc, conditions);
 	const v = Math.min(...s.amplifiers.map((a) => a.terminalV));
 	// A collapsed system has no operating point at this demand: count it as no voltage at all.
@@ -49,39 +58,79 @@ function freshId(doc: BuildDocument, base: string): string {
  * parallel), each regulator raised to the lowest absorption voltage of the banks it charges (never
  * past any bank's limit), and a second alternator like the first. Each is one network solve.
  */
-export function upgradeHints(doc: BuildDocument, conditions: { engineRpm: number; demand: number; conductorTempC: number }): UpgradeHint[] {
+export function upgradeHints(
+	doc: BuildDocument,
+	conditions: { engineRpm: number; demand: number; conductorTempC: number },
+): UpgradeHint[] {
 	if (doc.amplifiers.length === 0) return [];
 	const beforeV = minAmpV(doc, conditions);
 	const hints: UpgradeHint[] = [];
-	const consider = (kind: UpgradeHint['kind'], targetId: string, description: string, change: (d: BuildDocument) => void) => {
+	const consider = (
+		kind: UpgradeHint['kind'],
+		targetId: string,
+		description: string,
+		change: (d: BuildDocument) => void,
+	) => {
 		const next = structuredClone(doc);
 		change(next);
 		const afterV = minAmpV(next, conditions);
-		hints.push({ kind, targetId, description, beforeV, afterV, gainV: afterV - beforeV, document: next });
+		hints.push({
+			kind,
+			targetId,
+			description,
+			beforeV,
+			afterV,
+			gainV: afterV - beforeV,
+			document: next,
+		});
 	};
 	for (const cable of doc.cables) {
 		const up = nextSize(cable);
-		const label = up.size.kind === 'awg' ? `${up.size.awg} AWG` : up.size.kind === 'mm2' ? `${up.size.mm2} mm²` : 'a larger size';
-		const text = up.parallelRuns > cable.parallelRuns ? `Add a parallel run to "${cable.label}"` : `Upsize "${cable.label}" to ${label}`;
-		consider('upsize_cable', cable.id, text, (d) => Object.assign(d.cables.find((c) => c.id === cable.id)!, up));
+		const label =
+			up.size.kind === 'awg'
+				? `${up.size.awg} AWG`
+				: up.size.kind === 'mm2'
+					? `${up.size.mm2} mm²`
+					: 'a larger size';
+		const text =
+			up.parallelRuns > cable.parallelRuns
+				? `Add a parallel run to "${cable.label}"`
+				: `Upsize "${cable.label}" to ${label}`;
+		consider('upsize_cable', cable.id, text, (d) =>
+			Object.assign(
+				d.cables.find((c) => c.id === cable.id)!,
+				up,
+			),
+		);
 	}
 	for (const bank of doc.banks) {
 		consider('add_bank', bank.id, `Add a bank like "${bank.label}" beside it`, (d) => {
 			d.banks.find((b) => b.id === bank.id)!.stringsInParallel += 1;
 		});
 	}
-	const ceiling = doc.banks.length ? Math.min(...doc.banks.map((b) => bankChargeTargets(b).absorptionV)) : null;
+	const ceiling = doc.banks.length
+		? Math.min(...doc.banks.map((b) => bankChargeTargets(b).absorptionV))
+		: null;
 	for (const alt of doc.alternators) {
 		if (ceiling !== null && ceiling > alt.setPointV + 0.05) {
-			consider('raise_set_point', alt.id, `Raise "${alt.label}" to ${ceiling.toFixed(2)} V (the lowest bank absorption voltage)`, (d) => {
-				d.alternators.find((a) => a.id === alt.id)!.setPointV = ceiling;
-			});
+			consider(
+				'raise_set_point',
+				alt.id,
+				`Raise "${alt.label}" to ${ceiling.toFixed(2)} V (the lowest bank absorption voltage)`,
+				(d) => {
+					d.alternators.find((a) => a.id === alt.id)!.setPointV = ceiling;
+				},
+			);
 		}
 	}
 	const first = doc.alternators[0];
 	if (first) {
 		consider('second_alternator', first.id, `Add an alternator like "${first.label}"`, (d) => {
-			d.alternators.push({ ...structuredClone(first), id: freshId(d, first.id), label: `${first.label} (second)` });
+			d.alternators.push({
+				...structuredClone(first),
+				id: freshId(d, first.id),
+				label: `${first.label} (second)`,
+			});
 		});
 	}
 	return hints.sort((a, b) => b.gainV - a.gainV);

@@ -5,7 +5,13 @@ export * from './battery';
 export * from './alternator';
 export * from './fuses';
 export * from './topology';
-export { compileNetwork, solveCompiled, GMIN_S, type SolveConditions, type CompiledNetwork } from './network';
+export {
+	compileNetwork,
+	solveCompiled,
+	GMIN_S,
+	type SolveConditions,
+	type CompiledNetwork,
+} from './network';
 export * from './solve';
 export * from './budget';
 export * from './burp';

@@ -9,7 +9,8 @@ export interface MergeConflict {
 	head: 'changed' | 'removed' | 'added';
 }
 
-export type MergeResult = { ok: true; document: BuildDocument } | { ok: false; conflicts: MergeConflict[] };
+export type MergeResult =
+	{ ok: true; document: BuildDocument } | { ok: false; conflicts: MergeConflict[] };
 
 const same = (a: unknown, b: unknown) => JSON.stringify(a) === JSON.stringify(b);
 
@@ -19,7 +20,11 @@ const same = (a: unknown, b: unknown) => JSON.stringify(a) === JSON.stringify(b)
  * since that base are kept. A component both sides changed differently is a conflict, and nothing
  * is merged. Order follows the head, with the plan's new components after.
  */
-export function mergePlan(base: BuildDocument, plan: BuildDocument, head: BuildDocument): MergeResult {
+export function mergePlan(
+	base: BuildDocument,
+	plan: BuildDocument,
+	head: BuildDocument,
+): MergeResult {
 	const conflicts: MergeConflict[] = [];
 	const merged = { ...head } as BuildDocument;
 	for (const group of PART_GROUPS) {
@@ -29,7 +34,8 @@ export function mergePlan(base: BuildDocument, plan: BuildDocument, head: BuildD
 		const p = byId(plan[group]);
 		const h = byId(head[group]);
 		const out: Part[] = [];
-		const verdict = (side: Map<string, Part>, id: string) => (!b.has(id) ? 'added' : !side.has(id) ? 'removed' : 'changed') as MergeConflict['plan'];
+		const verdict = (side: Map<string, Part>, id: string) =>
+			(!b.has(id) ? 'added' : !side.has(id) ? 'removed' : 'changed') as MergeConflict['plan'];
 		for (const headPart of head[group]) {
 			const id = headPart.id;
 			const inBase = b.get(id);
@@ -41,14 +47,28 @@ export function mergePlan(base: BuildDocument, plan: BuildDocument, head: BuildD
 			} else if (!headTouched || same(inPlan, headPart)) {
 				if (inPlan) out.push(inPlan);
 			} else {
-				conflicts.push({ group, id, label: headPart.label || id, plan: verdict(p, id), head: verdict(h, id) });
+				conflicts.push({
+					group,
+					id,
+					label: headPart.label || id,
+					plan: verdict(p, id),
+					head: verdict(h, id),
+				});
 			}
 		}
 		for (const planPart of plan[group]) {
 			if (h.has(planPart.id)) continue;
 			const inBase = b.get(planPart.id);
-			if (!inBase) out.push(planPart); // new in the plan
-			else if (!same(inBase, planPart)) conflicts.push({ group, id: planPart.id, label: planPart.label || planPart.id, plan: 'changed', head: 'removed' });
+			if (!inBase)
+				out.push(planPart); // new in the plan
+			else if (!same(inBase, planPart))
+				conflicts.push({
+					group,
+					id: planPart.id,
+					label: planPart.label || planPart.id,
+					plan: 'changed',
+					head: 'removed',
+				});
 			// else: unchanged by the plan and removed in the head: stays removed.
 		}
 		(merged as unknown as Record<string, Part[]>)[group] = out;

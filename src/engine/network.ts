@@ -1,4 +1,9 @@
-import { type AmplifierDraw, amplifierDraw, amplifierDrawCoContent, amplifierDrawCurrent } from './amplifier';
+import {
+	type AmplifierDraw,
+	amplifierDraw,
+	amplifierDrawCoContent,
+	amplifierDrawCurrent,
+} from './amplifier';
 import { alternatorLimitA } from './alternator';
 import { bankThevenin, chargeAcceptanceA } from './battery';
 import { cableResistanceOhm } from './conductors';
@@ -33,8 +38,18 @@ export interface CompiledNetwork {
 	nodeIds: string[];
 	index: Map<string, number>;
 	cables: Array<TwoTerminal & { id: string; g: number; resistanceOhm: number }>;
-	banks: Array<TwoTerminal & { id: string; ocvV: number; resistanceOhm: number; chargeResistanceOhm: number; chargeAcceptanceA: number }>;
-	alternators: Array<TwoTerminal & { id: string; setPointV: number; resistanceOhm: number; limitA: number }>;
+	banks: Array<
+		TwoTerminal & {
+			id: string;
+			ocvV: number;
+			resistanceOhm: number;
+			chargeResistanceOhm: number;
+			chargeAcceptanceA: number;
+		}
+	>;
+	alternators: Array<
+		TwoTerminal & { id: string; setPointV: number; resistanceOhm: number; limitA: number }
+	>;
 	/** `powerW` is the input power at and below the rated voltage; `draw` how it grows above. */
 	amplifiers: Array<TwoTerminal & { id: string; powerW: number; draw: AmplifierDraw }>;
 	loads: Array<TwoTerminal & { id: string; currentA: number }>;
@@ -78,7 +93,11 @@ export function compileNetwork(doc: BuildDocument, conditions: SolveConditions):
 		resistanceOhm: a.sourceResistanceOhm,
 		limitA: alternatorLimitA(a, conditions.engineRpm),
 	}));
-	const nominalV = Math.max(1, ...banks.map((b) => b.ocvV), ...alternators.filter((a) => a.limitA > 0).map((a) => a.setPointV));
+	const nominalV = Math.max(
+		1,
+		...banks.map((b) => b.ocvV),
+		...alternators.filter((a) => a.limitA > 0).map((a) => a.setPointV),
+	);
 	return {
 		nodeIds,
 		index,
@@ -92,7 +111,12 @@ export function compileNetwork(doc: BuildDocument, conditions: SolveConditions):
 			const draw = amplifierDraw(a, conditions.demand);
 			return { id: a.id, p: at(a.positive), n: at(a.negative), powerW: draw.powerW, draw };
 		}),
-		loads: doc.loads.map((l) => ({ id: l.id, p: at(l.positive), n: at(l.negative), currentA: l.currentA })),
+		loads: doc.loads.map((l) => ({
+			id: l.id,
+			p: at(l.positive),
+			n: at(l.negative),
+			currentA: l.currentA,
+		})),
 		nominalV,
 	};
 }
@@ -112,7 +136,10 @@ export function bankCurrent(b: CompiledNetwork['banks'][number], v: number): [nu
 }
 
 /** Current out of an alternator: a voltage source at its set point until its limit, never negative. */
-export function alternatorCurrent(a: CompiledNetwork['alternators'][number], v: number): [number, number] {
+export function alternatorCurrent(
+	a: CompiledNetwork['alternators'][number],
+	v: number,
+): [number, number] {
 	if (a.limitA <= 0) return [0, 0];
 	const i = (a.setPointV - v) / a.resistanceOhm;
 	if (i <= 0) return [0, 0];
@@ -207,7 +234,11 @@ function coContent(net: CompiledNetwork, v: Float64Array, lambda: number, floorV
 		else {
 			// Charging: quadratic up to the acceptance knee, linear past it (the current is capped).
 			const knee = b.ocvV + b.chargeResistanceOhm * b.chargeAcceptanceA;
-			e += x < knee ? (x - b.ocvV) ** 2 / (2 * b.chargeResistanceOhm) : (b.chargeResistanceOhm * b.chargeAcceptanceA ** 2) / 2 + b.chargeAcceptanceA * (x - knee);
+			e +=
+				x < knee
+					? (x - b.ocvV) ** 2 / (2 * b.chargeResistanceOhm)
+					: (b.chargeResistanceOhm * b.chargeAcceptanceA ** 2) / 2 +
+						b.chargeAcceptanceA * (x - knee);
 		}
 	}
 	for (const a of net.alternators) {
@@ -215,7 +246,10 @@ function coContent(net: CompiledNetwork, v: Float64Array, lambda: number, floorV
 		const x = volt(v, a.p) - volt(v, a.n);
 		const knee = a.setPointV - a.resistanceOhm * a.limitA;
 		if (x >= a.setPointV) continue;
-		e += x > knee ? (x - a.setPointV) ** 2 / (2 * a.resistanceOhm) : (a.resistanceOhm * a.limitA ** 2) / 2 - a.limitA * (x - knee);
+		e +=
+			x > knee
+				? (x - a.setPointV) ** 2 / (2 * a.resistanceOhm)
+				: (a.resistanceOhm * a.limitA ** 2) / 2 - a.limitA * (x - knee);
 	}
 	for (const a of net.amplifiers) {
 		const x = volt(v, a.p) - volt(v, a.n);
@@ -240,14 +274,20 @@ function maxAbs(x: Float64Array): number {
 	return m;
 }
 
-function newton(net: CompiledNetwork, lambda: number, start: Float64Array, work: Assembled): NewtonResult {
+function newton(
+	net: CompiledNetwork,
+	lambda: number,
+	start: Float64Array,
+	work: Assembled,
+): NewtonResult {
 	const n = net.nodeIds.length;
 	let v = new Float64Array(start);
 	const trial = new Float64Array(n);
 	const floorV = 0.02 * net.nominalV;
 	for (let iter = 1; iter <= MAX_ITERATIONS; iter++) {
 		assemble(net, v, lambda, work);
-		if (lambda > 0 && work.minAmpV < floorV) return { ok: false, v, iterations: iter, residualA: Number.NaN };
+		if (lambda > 0 && work.minAmpV < floorV)
+			return { ok: false, v, iterations: iter, residualA: Number.NaN };
 		const residual = maxAbs(work.f);
 		if (residual < RESIDUAL_TOL_A) {
 			return { ok: isPositiveDefinite(work.j, n), v, iterations: iter, residualA: residual };
@@ -256,7 +296,8 @@ function newton(net: CompiledNetwork, lambda: number, start: Float64Array, work:
 		for (let i = 0; i < n; i++) step[i] = -work.f[i]!;
 		let slope = 0;
 		for (let i = 0; i < n; i++) slope += work.f[i]! * step[i]!; // directional derivative of the co-content
-		if (!solveDense(work.j, step, n)) return { ok: false, v, iterations: iter, residualA: residual };
+		if (!solveDense(work.j, step, n))
+			return { ok: false, v, iterations: iter, residualA: residual };
 		slope = 0;
 		for (let i = 0; i < n; i++) slope += work.f[i]! * step[i]!;
 		if (!(slope < 0)) return { ok: false, v, iterations: iter, residualA: residual };
@@ -285,7 +326,8 @@ function newton(net: CompiledNetwork, lambda: number, start: Float64Array, work:
 			}
 		} else if (lambda > 0) {
 			for (let i = 0; i < n; i++) trial[i] = v[i]! + step[i]!;
-			if (coContent(net, trial, lambda, floorV) === Number.POSITIVE_INFINITY) return { ok: false, v, iterations: iter, residualA: residual };
+			if (coContent(net, trial, lambda, floorV) === Number.POSITIVE_INFINITY)
+				return { ok: false, v, iterations: iter, residualA: residual };
 		}
 		const next = new Float64Array(n);
 		for (let i = 0; i < n; i++) next[i] = v[i]! + t * step[i]!;
@@ -363,7 +405,8 @@ export function solveCompiled(net: CompiledNetwork, start?: Float64Array): RawSo
 	};
 	if (start) {
 		const warm = attempt(1, start);
-		if (warm) return { v: warm.v, lambda: 1, collapsed: false, iterations, residualA: warm.residualA };
+		if (warm)
+			return { v: warm.v, lambda: 1, collapsed: false, iterations, residualA: warm.residualA };
 	}
 	const unloaded = newton(net, 0, new Float64Array(n).fill(net.nominalV * 0.5), work);
 	iterations += unloaded.iterations;
@@ -371,7 +414,10 @@ export function solveCompiled(net: CompiledNetwork, start?: Float64Array): RawSo
 	// The same network with every bank on its discharge resistance both ways has no soft charging
 	// side, so its stable point moves smoothly with demand; where banks end up discharging it is
 	// also the real network's solution, and a good start for it in any case.
-	const stiffBanks: CompiledNetwork = { ...net, banks: net.banks.map((b) => ({ ...b, chargeResistanceOhm: b.resistanceOhm })) };
+	const stiffBanks: CompiledNetwork = {
+		...net,
+		banks: net.banks.map((b) => ({ ...b, chargeResistanceOhm: b.resistanceOhm })),
+	};
 	const fromStiff = (lambda: number) => {
 		const guess = dischargeGuess(net, lambda);
 		if (!guess) return null;
@@ -387,7 +433,8 @@ export function solveCompiled(net: CompiledNetwork, start?: Float64Array): RawSo
 		return a ?? b;
 	};
 	const direct = best(1, unloaded.v);
-	if (direct) return { v: direct.v, lambda: 1, collapsed: false, iterations, residualA: direct.residualA };
+	if (direct)
+		return { v: direct.v, lambda: 1, collapsed: false, iterations, residualA: direct.residualA };
 
 	// No stable point at full demand: ramp the demand up from zero to find where it runs out.
 	let lambda = 0;

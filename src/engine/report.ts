@@ -3,7 +3,14 @@ import { alternatorLimitA } from './alternator';
 import { bankChargeTargets, bankThevenin, CHEMISTRY_PROPS } from './battery';
 import { type BudgetRow, fixedVoltageBudget } from './budget';
 import { type BurpRun, runBurp } from './burp';
-import { type AmpacityEstimate, ampacityEstimate, cableAreaMm2, cmilPerAmp, mm2ToCmil, requiredCmilPerAmp } from './conductors';
+import {
+	type AmpacityEstimate,
+	ampacityEstimate,
+	cableAreaMm2,
+	cmilPerAmp,
+	mm2ToCmil,
+	requiredCmilPerAmp,
+} from './conductors';
 import { adviseFuse, type FuseAdvice, MAX_FUSE_FACTOR } from './fuses';
 import { type NetworkSolution, solveNetwork } from './solve';
 import { checkTopology, type TopologyIssue } from './topology';
@@ -152,7 +159,11 @@ const fmt = (x: number, digits = 2) => x.toFixed(digits);
  * fuse advice, per-amplifier terminal voltages and output, and warnings with code, severity and
  * the element they concern. Deterministic; no I/O.
  */
-export function buildReport(doc: BuildDocument, scenarioIn: Partial<Scenario> = {}, opts: { burpRun?: boolean } = {}): BuildReport {
+export function buildReport(
+	doc: BuildDocument,
+	scenarioIn: Partial<Scenario> = {},
+	opts: { burpRun?: boolean } = {},
+): BuildReport {
 	const scenario: Scenario = { ...DEFAULT_SCENARIO, ...scenarioIn };
 	const issues = checkTopology(doc);
 	if (issues.length > 0) return { ok: false, issues };
@@ -165,11 +176,19 @@ export function buildReport(doc: BuildDocument, scenarioIn: Partial<Scenario> = 
 	const burpRun =
 		opts.burpRun === false
 			? null
-			: runBurp(doc, { ...base, demand: scenario.burpDemand, durationS: scenario.burpSeconds, stepS: scenario.burpStepS });
+			: runBurp(doc, {
+					...base,
+					demand: scenario.burpDemand,
+					durationS: scenario.burpSeconds,
+					stepS: scenario.burpStepS,
+				});
 	const warnings: ReportWarning[] = [];
 	const warn = (w: ReportWarning) => warnings.push(w);
 
-	for (const [name, s] of [['sustained music', sustained], ['burp', burp]] as const) {
+	for (const [name, s] of [
+		['sustained music', sustained],
+		['burp', burp],
+	] as const) {
 		if (s.status === 'collapse') {
 			warn({
 				code: 'voltage_collapse',
@@ -182,48 +201,105 @@ export function buildReport(doc: BuildDocument, scenarioIn: Partial<Scenario> = 
 	}
 
 	const bankPositives = new Set(doc.banks.map((b) => b.positive));
-	const nominalV = Math.max(1, ...doc.banks.map((b) => bankThevenin(b).ocvV), ...doc.alternators.map((a) => a.setPointV));
+	const nominalV = Math.max(
+		1,
+		...doc.banks.map((b) => bankThevenin(b).ocvV),
+		...doc.alternators.map((a) => a.setPointV),
+	);
 	const cables: CableReport[] = doc.cables.map((cable, i) => {
 		const sc = sustained.cables[i]!;
 		const bc = burp.cables[i]!;
 		// A fuse must pass the burp and 1.25 × the sustained current (common practice, no published source).
 		const designCurrentA = Math.max(Math.abs(bc.currentA), 1.25 * Math.abs(sc.currentA));
 		const ampacity = ampacityEstimate(cable);
-		const side = Math.max(Math.abs(burp.nodeVoltages[cable.from]!), Math.abs(burp.nodeVoltages[cable.to]!)) < 0.5 * nominalV ? 'return' : 'supply';
-		const fuseAdvice = side === 'supply' ? adviseFuse(designCurrentA, ampacity?.currentA ?? null) : null;
+		const side =
+			Math.max(Math.abs(burp.nodeVoltages[cable.from]!), Math.abs(burp.nodeVoltages[cable.to]!)) <
+			0.5 * nominalV
+				? 'return'
+				: 'supply';
+		const fuseAdvice =
+			side === 'supply' ? adviseFuse(designCurrentA, ampacity?.currentA ?? null) : null;
 		const offered = cmilPerAmp(cable.size, cable.parallelRuns, designCurrentA);
 		const required = requiredCmilPerAmp(cable.material);
 		const batteryEnds = (['from', 'to'] as const).filter((end) => bankPositives.has(cable[end]));
 		const el = { kind: 'cable' as const, id: cable.id };
 
 		if (Math.abs(bc.dropV) > scenario.dropTargetV) {
-			warn({ code: 'cable_drop_over_target', severity: 'warning', element: el, safety: false, message: `"${cable.label}" drops ${fmt(Math.abs(bc.dropV))} V under burp, over the ${fmt(scenario.dropTargetV)} V target.` });
+			warn({
+				code: 'cable_drop_over_target',
+				severity: 'warning',
+				element: el,
+				safety: false,
+				message: `"${cable.label}" drops ${fmt(Math.abs(bc.dropV))} V under burp, over the ${fmt(scenario.dropTargetV)} V target.`,
+			});
 		}
 		if (offered < required) {
-			warn({ code: 'cmil_below_rule', severity: 'warning', element: el, safety: false, message: `"${cable.label}" offers ${fmt(offered, 0)} cmil/A at ${fmt(designCurrentA, 0)} A; the rule of thumb for this material is ${fmt(required, 0)} cmil/A.` });
+			warn({
+				code: 'cmil_below_rule',
+				severity: 'warning',
+				element: el,
+				safety: false,
+				message: `"${cable.label}" offers ${fmt(offered, 0)} cmil/A at ${fmt(designCurrentA, 0)} A; the rule of thumb for this material is ${fmt(required, 0)} cmil/A.`,
+			});
 		}
 		if (ampacity && Math.abs(sc.currentA) > ampacity.currentA) {
-			warn({ code: 'over_capacity', severity: 'danger', element: el, safety: true, message: `"${cable.label}" carries ${fmt(Math.abs(sc.currentA), 0)} A sustained, above the ${fmt(ampacity.currentA, 0)} A it can carry continuously: it will overheat.` });
+			warn({
+				code: 'over_capacity',
+				severity: 'danger',
+				element: el,
+				safety: true,
+				message: `"${cable.label}" carries ${fmt(Math.abs(sc.currentA), 0)} A sustained, above the ${fmt(ampacity.currentA, 0)} A it can carry continuously: it will overheat.`,
+			});
 		}
 		for (const end of batteryEnds) {
 			const fuse = cable.fuses.find((f) => f.end === end);
 			const nodeLabel = doc.nodes.find((n) => n.id === cable[end])?.label ?? cable[end];
 			if (!fuse) {
-				warn({ code: 'unfused_battery_cable', severity: 'danger', element: el, safety: true, message: `"${cable.label}" leaves the battery positive at "${nodeLabel}" with no fuse at that end.` });
+				warn({
+					code: 'unfused_battery_cable',
+					severity: 'danger',
+					element: el,
+					safety: true,
+					message: `"${cable.label}" leaves the battery positive at "${nodeLabel}" with no fuse at that end.`,
+				});
 			} else if (fuse.distanceM > scenario.fuseDistanceM) {
-				warn({ code: 'fuse_too_far', severity: 'danger', element: el, safety: true, message: `The fuse on "${cable.label}" sits ${fmt(fuse.distanceM * 100, 0)} cm from the battery at "${nodeLabel}"; keep it within ${fmt(scenario.fuseDistanceM * 100, 0)} cm.` });
+				warn({
+					code: 'fuse_too_far',
+					severity: 'danger',
+					element: el,
+					safety: true,
+					message: `The fuse on "${cable.label}" sits ${fmt(fuse.distanceM * 100, 0)} cm from the battery at "${nodeLabel}"; keep it within ${fmt(scenario.fuseDistanceM * 100, 0)} cm.`,
+				});
 			}
 		}
 		for (const fuse of cable.fuses) {
 			if (ampacity && fuse.ratingA > ampacity.currentA * MAX_FUSE_FACTOR) {
-				warn({ code: 'fuse_above_capacity', severity: 'danger', element: el, safety: true, message: `The ${fmt(fuse.ratingA, 0)} A fuse on "${cable.label}" is above the ${fmt(ampacity.currentA * MAX_FUSE_FACTOR, 0)} A the cable may be protected with: it would not blow before the cable overheats.` });
+				warn({
+					code: 'fuse_above_capacity',
+					severity: 'danger',
+					element: el,
+					safety: true,
+					message: `The ${fmt(fuse.ratingA, 0)} A fuse on "${cable.label}" is above the ${fmt(ampacity.currentA * MAX_FUSE_FACTOR, 0)} A the cable may be protected with: it would not blow before the cable overheats.`,
+				});
 			}
 			if (fuse.ratingA < designCurrentA) {
-				warn({ code: 'fuse_below_demand', severity: 'warning', element: el, safety: false, message: `The ${fmt(fuse.ratingA, 0)} A fuse on "${cable.label}" is below the ${fmt(designCurrentA, 0)} A it carries under burp.` });
+				warn({
+					code: 'fuse_below_demand',
+					severity: 'warning',
+					element: el,
+					safety: false,
+					message: `The ${fmt(fuse.ratingA, 0)} A fuse on "${cable.label}" is below the ${fmt(designCurrentA, 0)} A it carries under burp.`,
+				});
 			}
 		}
 		if (fuseAdvice?.status === 'cable_too_small') {
-			warn({ code: 'cable_too_small', severity: 'danger', element: el, safety: true, message: `"${cable.label}": ${fuseAdvice.message}` });
+			warn({
+				code: 'cable_too_small',
+				severity: 'danger',
+				element: el,
+				safety: true,
+				message: `"${cable.label}": ${fuseAdvice.message}`,
+			});
 		}
 		return {
 			id: cable.id,
@@ -243,12 +319,23 @@ export function buildReport(doc: BuildDocument, scenarioIn: Partial<Scenario> = 
 		};
 	});
 
-	const strongest = (s: NetworkSolution) => Math.max(0, ...s.banks.map((b) => b.terminalV), ...s.alternators.filter((a) => a.mode !== 'off').map((a) => a.terminalV));
+	const strongest = (s: NetworkSolution) =>
+		Math.max(
+			0,
+			...s.banks.map((b) => b.terminalV),
+			...s.alternators.filter((a) => a.mode !== 'off').map((a) => a.terminalV),
+		);
 	const amplifiers: AmplifierReport[] = doc.amplifiers.map((amp, i) => {
 		const b = burp.amplifiers[i]!;
 		const dropV = strongest(burp) - b.terminalV;
 		if (dropV > scenario.dropTargetV) {
-			warn({ code: 'drop_over_target', severity: 'warning', element: { kind: 'amplifier', id: amp.id }, safety: false, message: `"${amp.label}" sees ${fmt(dropV)} V less than the strongest source under burp (target ${fmt(scenario.dropTargetV)} V): ${fmt(-outputLossDb(amp, b.terminalV))} dB below its rating.` });
+			warn({
+				code: 'drop_over_target',
+				severity: 'warning',
+				element: { kind: 'amplifier', id: amp.id },
+				safety: false,
+				message: `"${amp.label}" sees ${fmt(dropV)} V less than the strongest source under burp (target ${fmt(scenario.dropTargetV)} V): ${fmt(-outputLossDb(amp, b.terminalV))} dB below its rating.`,
+			});
 		}
 		return {
 			id: amp.id,
@@ -271,20 +358,50 @@ export function buildReport(doc: BuildDocument, scenarioIn: Partial<Scenario> = 
 		const el = { kind: 'bank' as const, id: bank.id };
 		for (const alt of doc.alternators) {
 			if (alt.setPointV > targets.maxV) {
-				warn({ code: 'charge_voltage_high', severity: 'danger', element: el, safety: true, message: `Regulator "${alt.label}" is set to ${fmt(alt.setPointV)} V, above the ${fmt(targets.maxV)} V limit of "${bank.label}" (${CHEMISTRY_PROPS[bank.chemistry].label}): it will be overcharged.` });
+				warn({
+					code: 'charge_voltage_high',
+					severity: 'danger',
+					element: el,
+					safety: true,
+					message: `Regulator "${alt.label}" is set to ${fmt(alt.setPointV)} V, above the ${fmt(targets.maxV)} V limit of "${bank.label}" (${CHEMISTRY_PROPS[bank.chemistry].label}): it will be overcharged.`,
+				});
 			} else if (alt.setPointV < targets.floatV) {
-				warn({ code: 'charge_voltage_low', severity: 'warning', element: el, safety: false, message: `Regulator "${alt.label}" is set to ${fmt(alt.setPointV)} V, below the ${fmt(targets.floatV)} V float voltage of "${bank.label}": it will never fill.` });
+				warn({
+					code: 'charge_voltage_low',
+					severity: 'warning',
+					element: el,
+					safety: false,
+					message: `Regulator "${alt.label}" is set to ${fmt(alt.setPointV)} V, below the ${fmt(targets.floatV)} V float voltage of "${bank.label}": it will never fill.`,
+				});
 			}
 		}
 		if (!bank.secured) {
-			warn({ code: 'bank_not_secured', severity: 'danger', element: el, safety: true, message: `"${bank.label}" is not marked as secured.` });
+			warn({
+				code: 'bank_not_secured',
+				severity: 'danger',
+				element: el,
+				safety: true,
+				message: `"${bank.label}" is not marked as secured.`,
+			});
 		}
 		if (bank.chemistry === 'flooded' && bank.location === 'cabin' && !bank.vented) {
-			warn({ code: 'flooded_unvented', severity: 'danger', element: el, safety: true, message: `"${bank.label}" is flooded lead-acid inside the cabin without venting: charging gives off hydrogen.` });
+			warn({
+				code: 'flooded_unvented',
+				severity: 'danger',
+				element: el,
+				safety: true,
+				message: `"${bank.label}" is flooded lead-acid inside the cabin without venting: charging gives off hydrogen.`,
+			});
 		}
 		const charging = sustained.banks[i]!;
 		if (sustained.status === 'ok' && charging.chargeLimited) {
-			warn({ code: 'bank_charge_limited', severity: 'info', element: el, safety: false, message: `"${bank.label}" takes ${fmt(charging.chargeAcceptanceA, 0)} A under sustained music, all it accepts at this state of charge: it charges as fast as it can, and more alternator current would not fill it sooner.` });
+			warn({
+				code: 'bank_charge_limited',
+				severity: 'info',
+				element: el,
+				safety: false,
+				message: `"${bank.label}" takes ${fmt(charging.chargeAcceptanceA, 0)} A under sustained music, all it accepts at this state of charge: it charges as fast as it can, and more alternator current would not fill it sooner.`,
+			});
 		}
 		return {
 			id: bank.id,
@@ -304,13 +421,25 @@ export function buildReport(doc: BuildDocument, scenarioIn: Partial<Scenario> = 
 
 	for (const alt of doc.alternators) {
 		if (alt.setPointV > VEHICLE_SET_POINT_LIMIT_V) {
-			warn({ code: 'set_point_above_vehicle', severity: 'warning', element: { kind: 'alternator', id: alt.id }, safety: true, message: `Regulator "${alt.label}" is set to ${fmt(alt.setPointV)} V: above about ${fmt(VEHICLE_SET_POINT_LIMIT_V, 1)} V the vehicle's own electronics may be damaged. Check what the vehicle was designed for.` });
+			warn({
+				code: 'set_point_above_vehicle',
+				severity: 'warning',
+				element: { kind: 'alternator', id: alt.id },
+				safety: true,
+				message: `Regulator "${alt.label}" is set to ${fmt(alt.setPointV)} V: above about ${fmt(VEHICLE_SET_POINT_LIMIT_V, 1)} V the vehicle's own electronics may be damaged. Check what the vehicle was designed for.`,
+			});
 		}
 	}
 
 	const sustainedBankDraw = sustained.banks.reduce((s, b) => s + b.currentA, 0);
 	if (sustained.status === 'ok' && sustainedBankDraw > 0.5) {
-		warn({ code: 'sustained_deficit', severity: 'warning', element: { kind: 'build', id: 'build' }, safety: false, message: `At ${scenario.engineRpm} rpm and sustained music the banks supply ${fmt(sustainedBankDraw, 0)} A: the alternators cannot keep up, so the banks run down.` });
+		warn({
+			code: 'sustained_deficit',
+			severity: 'warning',
+			element: { kind: 'build', id: 'build' },
+			safety: false,
+			message: `At ${scenario.engineRpm} rpm and sustained music the banks supply ${fmt(sustainedBankDraw, 0)} A: the alternators cannot keep up, so the banks run down.`,
+		});
 	}
 
 	const alternators: AlternatorReport[] = doc.alternators.map((alt, i) => ({
@@ -323,5 +452,17 @@ export function buildReport(doc: BuildDocument, scenarioIn: Partial<Scenario> = 
 		burpMode: burp.alternators[i]!.mode,
 	}));
 
-	return { ok: true, scenario, sustained, burp, budget, burpRun, cables, amplifiers, banks, alternators, warnings };
+	return {
+		ok: true,
+		scenario,
+		sustained,
+		burp,
+		budget,
+		burpRun,
+		cables,
+		amplifiers,
+		banks,
+		alternators,
+		warnings,
+	};
 }

@@ -54,7 +54,14 @@ export function analyseRun(samples: Sample[]): RunAnalysis {
 	}
 	// The slope needs the current to move: at least 0.5 A of spread across the run.
 	const slope = sxy / sxx; // dV/dI, negative for a sagging supply
-	const effective = Math.sqrt(sxx / n) > 0.5 ? { resistanceOhm: -slope, openCircuitV: meanV - slope * meanA, r2: syy > 0 ? (sxy * sxy) / (sxx * syy) : 1 } : null;
+	const effective =
+		Math.sqrt(sxx / n) > 0.5
+			? {
+					resistanceOhm: -slope,
+					openCircuitV: meanV - slope * meanA,
+					r2: syy > 0 ? (sxy * sxy) / (sxx * syy) : 1,
+				}
+			: null;
 	return {
 		samples: n,
 		durationS: samples[n - 1]!.tS - samples[0]!.tS,

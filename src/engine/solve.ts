@@ -1,5 +1,13 @@
 import { amplifierDrawCurrent } from './amplifier';
-import { alternatorCurrent, bankCurrent, compileNetwork, type CompiledNetwork, type RawSolution, type SolveConditions, solveCompiled } from './network';
+import {
+	alternatorCurrent,
+	bankCurrent,
+	compileNetwork,
+	type CompiledNetwork,
+	type RawSolution,
+	type SolveConditions,
+	solveCompiled,
+} from './network';
 import type { BuildDocument } from './types';
 
 export interface CableResult {
@@ -88,19 +96,33 @@ export function describeSolution(net: CompiledNetwork, raw: RawSolution): Networ
 	const alternatorsRaw = net.alternators.map((a) => {
 		const terminalV = v(a.p) - v(a.n);
 		const [currentA] = alternatorCurrent(a, terminalV);
-		const mode: AlternatorResult['mode'] = a.limitA <= 0 || currentA <= 0 ? 'off' : currentA >= a.limitA ? 'current' : 'voltage';
+		const mode: AlternatorResult['mode'] =
+			a.limitA <= 0 || currentA <= 0 ? 'off' : currentA >= a.limitA ? 'current' : 'voltage';
 		return { id: a.id, currentA, limitA: a.limitA, terminalV, mode, share: 0 };
 	});
-	const totalOut = alternatorsRaw.reduce((s, a) => s + a.currentA, 0) + banks.reduce((s, b) => s + Math.max(0, b.currentA), 0);
-	const alternators = alternatorsRaw.map((a) => ({ ...a, share: totalOut > 0 ? a.currentA / totalOut : 0 }));
+	const totalOut =
+		alternatorsRaw.reduce((s, a) => s + a.currentA, 0) +
+		banks.reduce((s, b) => s + Math.max(0, b.currentA), 0);
+	const alternators = alternatorsRaw.map((a) => ({
+		...a,
+		share: totalOut > 0 ? a.currentA / totalOut : 0,
+	}));
 	const amplifiers = net.amplifiers.map((a) => {
 		const terminalV = v(a.p) - v(a.n);
 		const [currentA] = amplifierDrawCurrent(a.draw, terminalV, raw.lambda);
 		return { id: a.id, terminalV, currentA, inputPowerW: currentA * terminalV };
 	});
-	const loads = net.loads.map((l) => ({ id: l.id, terminalV: v(l.p) - v(l.n), currentA: l.currentA }));
-	const sourcesW = banks.reduce((s, b) => s + b.currentA * b.terminalV, 0) + alternators.reduce((s, a) => s + a.currentA * a.terminalV, 0);
-	const loadsW = amplifiers.reduce((s, a) => s + a.inputPowerW, 0) + loads.reduce((s, l) => s + l.currentA * l.terminalV, 0);
+	const loads = net.loads.map((l) => ({
+		id: l.id,
+		terminalV: v(l.p) - v(l.n),
+		currentA: l.currentA,
+	}));
+	const sourcesW =
+		banks.reduce((s, b) => s + b.currentA * b.terminalV, 0) +
+		alternators.reduce((s, a) => s + a.currentA * a.terminalV, 0);
+	const loadsW =
+		amplifiers.reduce((s, a) => s + a.inputPowerW, 0) +
+		loads.reduce((s, l) => s + l.currentA * l.terminalV, 0);
 	const cableLossW = cables.reduce((s, c) => s + c.lossW, 0);
 	return {
 		status: raw.collapsed ? 'collapse' : 'ok',

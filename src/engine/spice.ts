@@ -41,7 +41,13 @@ export function toSpiceNetlist(
 	const name = (i: number) => (i < 0 ? '0' : `n${i + 1}`);
 	const v = (p: number, n: number) => (n < 0 ? `V(${name(p)})` : `(V(${name(p)})-V(${name(n)}))`);
 	const lines: string[] = [`* ${spiceComment(opts.title ?? 'Sagwise build')} — DC operating point`];
-	lines.push(`* nodes: ${spiceComment(Object.entries(nodeNames).map(([id, n]) => `${n}=${id}`).join(' '))}`);
+	lines.push(
+		`* nodes: ${spiceComment(
+			Object.entries(nodeNames)
+				.map(([id, n]) => `${n}=${id}`)
+				.join(' '),
+		)}`,
+	);
 	const cableDevices: Record<string, string> = {};
 	net.cables.forEach((c, i) => {
 		const dev = `rc${i + 1}`;
@@ -51,12 +57,16 @@ export function toSpiceNetlist(
 	net.banks.forEach((b, i) => {
 		// Current into the positive node: (Voc−v)/R either way, charging capped at the acceptance.
 		const x = v(b.p, b.n);
-		lines.push(`bbank${i + 1} ${name(b.n)} ${name(b.p)} I=max((${num(b.ocvV)}-${x})/${num(b.resistanceOhm)}, ${num(-b.chargeAcceptanceA)})`);
+		lines.push(
+			`bbank${i + 1} ${name(b.n)} ${name(b.p)} I=max((${num(b.ocvV)}-${x})/${num(b.resistanceOhm)}, ${num(-b.chargeAcceptanceA)})`,
+		);
 	});
 	net.alternators.forEach((a, i) => {
 		if (a.limitA <= 0) return;
 		const x = v(a.p, a.n);
-		lines.push(`balt${i + 1} ${name(a.n)} ${name(a.p)} I=min(max((${num(a.setPointV)}-${x})/${num(a.resistanceOhm)}, 0), ${num(a.limitA)})`);
+		lines.push(
+			`balt${i + 1} ${name(a.n)} ${name(a.p)} I=min(max((${num(a.setPointV)}-${x})/${num(a.resistanceOhm)}, 0), ${num(a.limitA)})`,
+		);
 	});
 	net.amplifiers.forEach((a, i) => {
 		if (a.powerW <= 0) return;
@@ -64,23 +74,36 @@ export function toSpiceNetlist(
 		// V² (I = P·V/V_rated²) until its stated maximum (constant power again): max(P/V, min(…)).
 		const x = v(a.p, a.n);
 		const constant = `${num(a.powerW)}/${x}`;
-		if (!Number.isFinite(a.draw.ratedVoltageV)) lines.push(`bamp${i + 1} ${name(a.p)} ${name(a.n)} I=${constant}`);
+		if (!Number.isFinite(a.draw.ratedVoltageV))
+			lines.push(`bamp${i + 1} ${name(a.p)} ${name(a.n)} I=${constant}`);
 		else {
 			const growing = `${num(a.powerW / a.draw.ratedVoltageV ** 2)}*${x}`;
-			const rising = Number.isFinite(a.draw.maxPowerW) ? `min(${growing}, ${num(a.draw.maxPowerW)}/${x})` : growing;
+			const rising = Number.isFinite(a.draw.maxPowerW)
+				? `min(${growing}, ${num(a.draw.maxPowerW)}/${x})`
+				: growing;
 			lines.push(`bamp${i + 1} ${name(a.p)} ${name(a.n)} I=max(${constant}, ${rising})`);
 		}
 	});
-	net.loads.forEach((l, i) => lines.push(`iload${i + 1} ${name(l.p)} ${name(l.n)} DC ${num(l.currentA)}`));
+	net.loads.forEach((l, i) =>
+		lines.push(`iload${i + 1} ${name(l.p)} ${name(l.n)} DC ${num(l.currentA)}`),
+	);
 	// The engine's gmin, so both solve the same equations.
 	net.nodeIds.forEach((_, i) => lines.push(`rgmin${i + 1} ${name(i)} 0 1e9`));
 	if (nodeset && Object.keys(nodeset).length > 0) {
-		lines.push(`.nodeset ${Object.entries(nodeset).filter(([id]) => nodeNames[id] !== '0').map(([id, x]) => `v(${nodeNames[id]})=${num(x)}`).join(' ')}`);
+		lines.push(
+			`.nodeset ${Object.entries(nodeset)
+				.filter(([id]) => nodeNames[id] !== '0')
+				.map(([id, x]) => `v(${nodeNames[id]})=${num(x)}`)
+				.join(' ')}`,
+		);
 	}
 	lines.push('.options reltol=1e-9 vntol=1e-12 abstol=1e-9 gmin=1e-15 itl1=500');
 	if (opts.control !== false) {
 		lines.push('.control', 'set numdgt=15', 'op');
-		const vec = [...net.nodeIds.map((_, i) => `v(${name(i)})`), ...Object.values(cableDevices).map((d) => `@${d}[i]`)];
+		const vec = [
+			...net.nodeIds.map((_, i) => `v(${name(i)})`),
+			...Object.values(cableDevices).map((d) => `@${d}[i]`),
+		];
 		lines.push(`print ${vec.join(' ')}`, '.endc');
 	} else {
 		lines.push('.op');
@@ -93,6 +116,9 @@ export function toSpiceNetlist(
  * A starting point for SPICE near the high-voltage solution: the node voltages of the same network
  * with no amplifier demand (positive side near the source voltages, ground side near 0 V).
  */
-export function spiceNodesetHint(doc: BuildDocument, conditions: SolveConditions): Record<string, number> {
+export function spiceNodesetHint(
+	doc: BuildDocument,
+	conditions: SolveConditions,
+): Record<string, number> {
 	return solveNetwork(doc, { ...conditions, demand: 0 }).nodeVoltages;
 }

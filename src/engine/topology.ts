@@ -1,7 +1,14 @@
 import { type BuildDocument, TERMINAL_PART_GROUPS } from './types';
 
 export interface TopologyIssue {
-	code: 'no_chassis' | 'several_chassis' | 'unknown_node' | 'same_terminals' | 'not_connected' | 'no_source' | 'duplicate_id';
+	code:
+		| 'no_chassis'
+		| 'several_chassis'
+		| 'unknown_node'
+		| 'same_terminals'
+		| 'not_connected'
+		| 'no_source'
+		| 'duplicate_id';
 	/** Path of the offending field, e.g. `cables.3.to`. */
 	path: string;
 	message: string;
@@ -25,7 +32,6 @@ function union(parent: Map<string, string>, a: string, b: string) {
 	if (ra !== rb) parent.set(ra, rb);
 }
 
-
 /**
  * Checks that a build is a network the engine can solve: one chassis node; every reference names
  * a node; every node reaches the chassis through cables, banks or alternators (amplifiers and
@@ -35,38 +41,67 @@ function union(parent: Map<string, string>, a: string, b: string) {
 export function checkTopology(doc: BuildDocument): TopologyIssue[] {
 	const issues: TopologyIssue[] = [];
 	const chassis = doc.nodes.filter((n) => n.kind === 'chassis');
-	if (chassis.length === 0) issues.push({ code: 'no_chassis', path: 'nodes', message: 'The build needs one chassis node (the 0 V reference).' });
+	if (chassis.length === 0)
+		issues.push({
+			code: 'no_chassis',
+			path: 'nodes',
+			message: 'The build needs one chassis node (the 0 V reference).',
+		});
 	if (chassis.length > 1) {
-		issues.push({ code: 'several_chassis', path: 'nodes', message: `Only one node can be the chassis; found ${chassis.map((n) => n.id).join(', ')}.` });
+		issues.push({
+			code: 'several_chassis',
+			path: 'nodes',
+			message: `Only one node can be the chassis; found ${chassis.map((n) => n.id).join(', ')}.`,
+		});
 	}
 	const ids = new Set<string>();
 	doc.nodes.forEach((n, i) => {
-		if (ids.has(n.id)) issues.push({ code: 'duplicate_id', path: `nodes.${i}.id`, message: `Node id "${n.id}" is used twice.` });
+		if (ids.has(n.id))
+			issues.push({
+				code: 'duplicate_id',
+				path: `nodes.${i}.id`,
+				message: `Node id "${n.id}" is used twice.`,
+			});
 		ids.add(n.id);
 	});
 	const partIds = new Set<string>();
 	for (const group of [...TERMINAL_PART_GROUPS, 'cables'] as const) {
 		doc[group].forEach((part, i) => {
-			if (partIds.has(part.id)) issues.push({ code: 'duplicate_id', path: `${group}.${i}.id`, message: `Id "${part.id}" is used twice.` });
+			if (partIds.has(part.id))
+				issues.push({
+					code: 'duplicate_id',
+					path: `${group}.${i}.id`,
+					message: `Id "${part.id}" is used twice.`,
+				});
 			partIds.add(part.id);
 		});
 	}
 	const check = (path: string, nodeId: string) => {
-		if (!ids.has(nodeId)) issues.push({ code: 'unknown_node', path, message: `No node named "${nodeId}".` });
+		if (!ids.has(nodeId))
+			issues.push({ code: 'unknown_node', path, message: `No node named "${nodeId}".` });
 	};
 	for (const group of TERMINAL_PART_GROUPS) {
 		doc[group].forEach((part, i) => {
 			check(`${group}.${i}.positive`, part.positive);
 			check(`${group}.${i}.negative`, part.negative);
 			if (part.positive === part.negative) {
-				issues.push({ code: 'same_terminals', path: `${group}.${i}.negative`, message: `"${part.label}" has both terminals on node "${part.positive}".` });
+				issues.push({
+					code: 'same_terminals',
+					path: `${group}.${i}.negative`,
+					message: `"${part.label}" has both terminals on node "${part.positive}".`,
+				});
 			}
 		});
 	}
 	doc.cables.forEach((c, i) => {
 		check(`cables.${i}.from`, c.from);
 		check(`cables.${i}.to`, c.to);
-		if (c.from === c.to) issues.push({ code: 'same_terminals', path: `cables.${i}.to`, message: `Cable "${c.label}" starts and ends on "${c.from}".` });
+		if (c.from === c.to)
+			issues.push({
+				code: 'same_terminals',
+				path: `cables.${i}.to`,
+				message: `Cable "${c.label}" starts and ends on "${c.from}".`,
+			});
 	});
 	if (issues.length > 0 || chassis.length !== 1) return issues;
 

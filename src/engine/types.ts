@@ -13,7 +13,14 @@ export type Material = (typeof MATERIALS)[number];
 export const CHEMISTRIES = ['flooded', 'agm', 'lfp'] as const;
 export type Chemistry = (typeof CHEMISTRIES)[number];
 
-export const NODE_KINDS = ['chassis', 'battery', 'block', 'amplifier', 'alternator', 'junction'] as const;
+export const NODE_KINDS = [
+	'chassis',
+	'battery',
+	'block',
+	'amplifier',
+	'alternator',
+	'junction',
+] as const;
 export type NodeKind = (typeof NODE_KINDS)[number];
 
 export interface BuildNode {
@@ -141,11 +148,23 @@ export interface SteadyLoad {
  * The part groups of a build document, listed once: the diff, the merge, the topology check, the
  * document schema and the editor all read this list.
  */
-export const PART_GROUPS = ['nodes', 'alternators', 'banks', 'amplifiers', 'loads', 'cables'] as const;
+export const PART_GROUPS = [
+	'nodes',
+	'alternators',
+	'banks',
+	'amplifiers',
+	'loads',
+	'cables',
+] as const;
 export type PartGroup = (typeof PART_GROUPS)[number];
 
 /** The groups whose parts connect a positive and a negative node (cables join any two nodes). */
-export const TERMINAL_PART_GROUPS = ['alternators', 'banks', 'amplifiers', 'loads'] as const satisfies readonly PartGroup[];
+export const TERMINAL_PART_GROUPS = [
+	'alternators',
+	'banks',
+	'amplifiers',
+	'loads',
+] as const satisfies readonly PartGroup[];
 
 export interface BuildDocument {
 	schemaVersion: 1;

@@ -5,11 +5,14 @@ export type { UnitSystem };
 /** Length in the user's units: feet or metres. */
 export const lengthUnit = (u: UnitSystem) => (u === 'imperial' ? 'ft' : 'm');
 export const toLengthDisplay = (m: number, u: UnitSystem) => (u === 'imperial' ? m / M_PER_FT : m);
-export const fromLengthDisplay = (x: number, u: UnitSystem) => (u === 'imperial' ? x * M_PER_FT : x);
+export const fromLengthDisplay = (x: number, u: UnitSystem) =>
+	u === 'imperial' ? x * M_PER_FT : x;
 /** Short distances (fuse to battery): inches or centimetres. */
 export const shortUnit = (u: UnitSystem) => (u === 'imperial' ? 'in' : 'cm');
-export const toShortDisplay = (m: number, u: UnitSystem) => (u === 'imperial' ? m / M_PER_IN : m * 100);
-export const fromShortDisplay = (x: number, u: UnitSystem) => (u === 'imperial' ? x * M_PER_IN : x / 100);
+export const toShortDisplay = (m: number, u: UnitSystem) =>
+	u === 'imperial' ? m / M_PER_IN : m * 100;
+export const fromShortDisplay = (x: number, u: UnitSystem) =>
+	u === 'imperial' ? x * M_PER_IN : x / 100;
 
 export function fmt(x: number | null | undefined, digits = 2): string {
 	if (x === null || x === undefined || !Number.isFinite(x)) return '—';
@@ -24,7 +27,8 @@ export function formatFieldValue(field: string, value: unknown, u: UnitSystem): 
 	const leaf = field.split('.').at(-1)!;
 	if (leaf === 'lengthM') return `${fmt(toLengthDisplay(value, u), 1)} ${lengthUnit(u)}`;
 	if (leaf === 'distanceM') return `${fmt(toShortDisplay(value, u), 0)} ${shortUnit(u)}`;
-	if (leaf === 'mm2' || leaf === 'areaMm2') return u === 'imperial' ? `${fmt(value / MM2_PER_CMIL, 0)} cmil` : `${fmt(value, 1)} mm²`;
+	if (leaf === 'mm2' || leaf === 'areaMm2')
+		return u === 'imperial' ? `${fmt(value / MM2_PER_CMIL, 0)} cmil` : `${fmt(value, 1)} mm²`;
 	if (leaf.endsWith('Ohm')) return `${fmt(value * 1000, 2)} mΩ`;
 	if (leaf.endsWith('V')) return `${fmt(value, 2)} V`;
 	if (leaf.endsWith('A')) return `${fmt(value, 0)} A`;
@@ -59,7 +63,8 @@ const FIELD_NAMES: Record<string, string> = {
 export function fieldName(field: string): string {
 	if (FIELD_NAMES[field]) return FIELD_NAMES[field];
 	const fuse = /^fuses\.(\d)\.(\w+)$/.exec(field);
-	if (fuse) return `fuse ${Number(fuse[1]) + 1} ${fuse[2] === 'ratingA' ? 'rating' : fuse[2] === 'distanceM' ? 'distance' : 'end'}`;
+	if (fuse)
+		return `fuse ${Number(fuse[1]) + 1} ${fuse[2] === 'ratingA' ? 'rating' : fuse[2] === 'distanceM' ? 'distance' : 'end'}`;
 	return field.replace(/([A-Z])/g, ' $1').toLowerCase();
 }
 
@@ -75,7 +80,12 @@ export const GROUP_NAMES: Record<PartGroup, string> = {
 /** A price in the team's currency (ISO 4217 code), e.g. "$1,234.50" or "€86.35". */
 export function formatMoney(x: number, currency: string): string {
 	try {
-		return new Intl.NumberFormat('en', { style: 'currency', currency, minimumFractionDigits: 2, maximumFractionDigits: 2 }).format(x);
+		return new Intl.NumberFormat('en', {
+			style: 'currency',
+			currency,
+			minimumFractionDigits: 2,
+			maximumFractionDigits: 2,
+		}).format(x);
 	} catch {
 		return `${x.toFixed(2)} ${currency}`;
 	}

@@ -23,12 +23,22 @@ describe('account routes', () => {
 	const call = (module: Parameters<typeof callEndpoint>[0], body: unknown, raw = false) =>
 		callEndpoint(module, {
 			locals: localsFor(t.db, null, mail.mailer),
-			request: raw ? new Request('http://localhost/x', { method: 'POST', body: String(body), headers: { 'content-type': 'text/plain' } }) : jsonRequest('/x', 'POST', body),
+			request: raw
+				? new Request('http://localhost/x', {
+						method: 'POST',
+						body: String(body),
+						headers: { 'content-type': 'text/plain' },
+					})
+				: jsonRequest('/x', 'POST', body),
 		});
 
 	describe('POST /api/account/sign-up', () => {
 		it('creates an account with a scrypt hash, never the password', async () => {
-			const res = await call(signUp, { name: 'Ada Volt', email: 'Ada@Sagwise.test', password: 'long enough password' });
+			const res = await call(signUp, {
+				name: 'Ada Volt',
+				email: 'Ada@Sagwise.test',
+				password: 'long enough password',
+			});
 			expect(res.status).toBe(201);
 			const row = await findUserByEmail(t.db, 'ada@sagwise.test');
 			expect(row?.passwordHash).toMatch(/^scrypt\$/);
@@ -38,7 +48,11 @@ describe('account routes', () => {
 		});
 
 		it('refuses an address that already has an account with 409 and the field', async () => {
-			const res = await call(signUp, { name: 'Again', email: 'ada@sagwise.test', password: 'another long password' });
+			const res = await call(signUp, {
+				name: 'Again',
+				email: 'ada@sagwise.test',
+				password: 'another long password',
+			});
 			expect(res.status).toBe(409);
 			const body = await res.json();
 			expect(body).toMatchObject({ code: 'email_taken', errors: [{ path: 'email' }] });
@@ -48,7 +62,11 @@ describe('account routes', () => {
 			const res = await call(signUp, { name: '', email: 'not-an-address', password: 'short' });
 			expect(res.status).toBe(400);
 			const body = await res.json();
-			expect(body.errors.map((e: { path: string }) => e.path).sort()).toEqual(['email', 'name', 'password']);
+			expect(body.errors.map((e: { path: string }) => e.path).sort()).toEqual([
+				'email',
+				'name',
+				'password',
+			]);
 			expect(await findUserByEmail(t.db, 'not-an-address')).toBeUndefined();
 		});
 
@@ -67,7 +85,9 @@ describe('account routes', () => {
 			expect(message.html).toContain('<a href=');
 			const token = new URL(linkIn(message, '/reset-password')).searchParams.get('token')!;
 
-			expect((await call(resetConfirm, { token, password: 'a brand new password' })).status).toBe(204);
+			expect((await call(resetConfirm, { token, password: 'a brand new password' })).status).toBe(
+				204,
+			);
 			const row = await findUserByEmail(t.db, user.email);
 			expect(await verifyPassword('a brand new password', row!.passwordHash)).toBe(true);
 
@@ -79,15 +99,24 @@ describe('account routes', () => {
 		it('refuses an expired link', async () => {
 			const user = await makeUser(t.db, 'late@sagwise.test');
 			await call(resetRequest, { email: user.email });
-			const token = new URL(linkIn(await mail.waitFor(user.email), '/reset-password')).searchParams.get('token')!;
-			await t.db.updateTable('password_reset').set({ expires_at: new Date(Date.now() - 1000) }).where('user_id', '=', user.id).execute();
+			const token = new URL(
+				linkIn(await mail.waitFor(user.email), '/reset-password'),
+			).searchParams.get('token')!;
+			await t.db
+				.updateTable('password_reset')
+				.set({ expires_at: new Date(Date.now() - 1000) })
+				.where('user_id', '=', user.id)
+				.execute();
 			const res = await call(resetConfirm, { token, password: 'a brand new password' });
 			expect(res.status).toBe(410);
 			expect((await res.json()).code).toBe('token_expired');
 		});
 
 		it('refuses an unknown link with 404', async () => {
-			const res = await call(resetConfirm, { token: 'x'.repeat(43), password: 'a brand new password' });
+			const res = await call(resetConfirm, {
+				token: 'x'.repeat(43),
+				password: 'a brand new password',
+			});
 			expect(res.status).toBe(404);
 		});
 

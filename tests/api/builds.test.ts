@@ -29,8 +29,19 @@ describe('vehicles, builds and revisions', () => {
 	});
 	afterAll(async () => t?.drop());
 
-	const call = (user: AppUser, module: Parameters<typeof callEndpoint>[0], method: string, params: Record<string, string>, body?: unknown, query = '') =>
-		callEndpoint(module, { locals: localsFor(t.db, user), params: { teamId, ...params }, request: jsonRequest(`/x${query}`, method, body) });
+	const call = (
+		user: AppUser,
+		module: Parameters<typeof callEndpoint>[0],
+		method: string,
+		params: Record<string, string>,
+		body?: unknown,
+		query = '',
+	) =>
+		callEndpoint(module, {
+			locals: localsFor(t.db, user),
+			params: { teamId, ...params },
+			request: jsonRequest(`/x${query}`, method, body),
+		});
 
 	async function newVehicle(name: string) {
 		const res = await call(member, vehicles, 'POST', {}, { name, description: 'Test car' });
@@ -40,96 +51,247 @@ describe('vehicles, builds and revisions', () => {
 
 	it('chains revisions: each names its parent and takes the next number, and the head follows', async () => {
 		const v = await newVehicle('Chain');
-		const r1 = await (await call(member, revisions, 'POST', { vehicleId: v.id }, { parentId: null, message: 'First', document: pebbleBuild })).json();
+		const r1 = await (
+			await call(
+				member,
+				revisions,
+				'POST',
+				{ vehicleId: v.id },
+				{ parentId: null, message: 'First', document: pebbleBuild },
+			)
+		).json();
 		const changed = structuredClone(pebbleBuild);
 		changed.cables.find((c) => c.id === 'run')!.size = { kind: 'awg', awg: '1/0' };
-		const res2 = await call(member, revisions, 'POST', { vehicleId: v.id }, { parentId: r1.id, message: 'Run to 1/0', document: changed });
+		const res2 = await call(
+			member,
+			revisions,
+			'POST',
+			{ vehicleId: v.id },
+			{ parentId: r1.id, message: 'Run to 1/0', document: changed },
+		);
 		expect(res2.status).toBe(201);
 		const r2 = await res2.json();
 		expect(r1.number).toBe(1);
-		expect(r2).toMatchObject({ number: 2, parentId: r1.id, authorName: 'Builder', message: 'Run to 1/0' });
+		expect(r2).toMatchObject({
+			number: 2,
+			parentId: r1.id,
+			authorName: 'Builder',
+			message: 'Run to 1/0',
+		});
 		expect(r2.document).toEqual(changed);
 		const list = await (await call(member, revisions, 'GET', { vehicleId: v.id })).json();
 		expect(list.map((r: { number: number }) => r.number)).toEqual([2, 1]);
-		expect((await (await call(member, vehicle, 'GET', { vehicleId: v.id })).json()).headRevisionId).toBe(r2.id);
+		expect(
+			(await (await call(member, vehicle, 'GET', { vehicleId: v.id })).json()).headRevisionId,
+		).toBe(r2.id);
 	});
 
 	it('answers 409 with both versions when someone saved on the same parent, and writes nothing', async () => {
 		const v = await newVehicle('Race');
-		const base = await (await call(member, revisions, 'POST', { vehicleId: v.id }, { parentId: null, message: 'Base', document: marlinBuild })).json();
+		const base = await (
+			await call(
+				member,
+				revisions,
+				'POST',
+				{ vehicleId: v.id },
+				{ parentId: null, message: 'Base', document: marlinBuild },
+			)
+		).json();
 		const theirs = structuredClone(marlinBuild);
 		theirs.banks[0]!.stateOfCharge = 0.5;
 		const mine = structuredClone(marlinBuild);
 		mine.alternators[0]!.setPointV = 14.4;
-		expect((await call(other, revisions, 'POST', { vehicleId: v.id }, { parentId: base.id, message: 'Theirs', document: theirs })).status).toBe(201);
-		const clash = await call(member, revisions, 'POST', { vehicleId: v.id }, { parentId: base.id, message: 'Mine', document: mine });
+		expect(
+			(
+				await call(
+					other,
+					revisions,
+					'POST',
+					{ vehicleId: v.id },
+					{ parentId: base.id, message: 'Theirs', document: theirs },
+				)
+			).status,
+		).toBe(201);
+		const clash = await call(
+			member,
+			revisions,
+			'POST',
+			{ vehicleId: v.id },
+			{ parentId: base.id, message: 'Mine', document: mine },
+		);
 		expect(clash.status).toBe(409);
 		const body = await clash.json();
 		expect(body.code).toBe('conflict');
 		expect(body.head).toMatchObject({ number: 2, message: 'Theirs' });
 		expect(body.head.document).toEqual(theirs);
 		expect(body.yours.document).toEqual(mine);
-		expect(await (await call(member, revisions, 'GET', { vehicleId: v.id })).json()).toHaveLength(2);
+		expect(await (await call(member, revisions, 'GET', { vehicleId: v.id })).json()).toHaveLength(
+			2,
+		);
 		// Saving on top of theirs goes through.
-		expect((await call(member, revisions, 'POST', { vehicleId: v.id }, { parentId: body.head.id, message: 'Mine, merged', document: mine })).status).toBe(201);
+		expect(
+			(
+				await call(
+					member,
+					revisions,
+					'POST',
+					{ vehicleId: v.id },
+					{ parentId: body.head.id, message: 'Mine, merged', document: mine },
+				)
+			).status,
+		).toBe(201);
 	});
 
 	it('refuses an invalid or unsolvable document with field paths, saving nothing', async () => {
 		const v = await newVehicle('Broken');
 		const bad = structuredClone(pebbleBuild) as unknown as { cables: Array<{ lengthM: number }> };
 		bad.cables[0]!.lengthM = -2;
-		const res = await call(member, revisions, 'POST', { vehicleId: v.id }, { parentId: null, message: 'Bad', document: bad });
+		const res = await call(
+			member,
+			revisions,
+			'POST',
+			{ vehicleId: v.id },
+			{ parentId: null, message: 'Bad', document: bad },
+		);
 		expect(res.status).toBe(400);
-		expect((await res.json()).errors.map((e: { path: string }) => e.path)).toContain('document.cables.0.lengthM');
+		expect((await res.json()).errors.map((e: { path: string }) => e.path)).toContain(
+			'document.cables.0.lengthM',
+		);
 		const floating = structuredClone(pebbleBuild);
 		floating.cables = floating.cables.filter((c) => c.id !== 'amp_gnd');
-		const res2 = await call(member, revisions, 'POST', { vehicleId: v.id }, { parentId: null, message: 'Floating', document: floating });
+		const res2 = await call(
+			member,
+			revisions,
+			'POST',
+			{ vehicleId: v.id },
+			{ parentId: null, message: 'Floating', document: floating },
+		);
 		expect(res2.status).toBe(400);
 		expect(await (await call(member, revisions, 'GET', { vehicleId: v.id })).json()).toEqual([]);
 	});
 
 	it('restores an old revision as a new one and diffs component by component', async () => {
 		const v = await newVehicle('Restore');
-		const r1 = await (await call(member, revisions, 'POST', { vehicleId: v.id }, { parentId: null, message: 'One', document: pebbleBuild })).json();
+		const r1 = await (
+			await call(
+				member,
+				revisions,
+				'POST',
+				{ vehicleId: v.id },
+				{ parentId: null, message: 'One', document: pebbleBuild },
+			)
+		).json();
 		const changed = structuredClone(pebbleBuild);
 		changed.cables.find((c) => c.id === 'run')!.size = { kind: 'awg', awg: '1/0' };
 		changed.amplifiers[0]!.ratedPowerW = 2000;
-		const r2 = await (await call(member, revisions, 'POST', { vehicleId: v.id }, { parentId: r1.id, message: 'Two', document: changed })).json();
+		const r2 = await (
+			await call(
+				member,
+				revisions,
+				'POST',
+				{ vehicleId: v.id },
+				{ parentId: r1.id, message: 'Two', document: changed },
+			)
+		).json();
 
-		const d = await (await call(member, diff, 'GET', { vehicleId: v.id }, undefined, `?from=${r1.id}&to=${r2.id}`)).json();
+		const d = await (
+			await call(member, diff, 'GET', { vehicleId: v.id }, undefined, `?from=${r1.id}&to=${r2.id}`)
+		).json();
 		expect(d.changes).toEqual([
-			{ group: 'amplifiers', id: 'mono', label: 'Mono amplifier', kind: 'changed', fields: [{ field: 'ratedPowerW', before: 1200, after: 2000 }] },
-			{ group: 'cables', id: 'run', label: 'Front-to-rear run', kind: 'changed', fields: [{ field: 'size.awg', before: '4', after: '1/0' }] },
+			{
+				group: 'amplifiers',
+				id: 'mono',
+				label: 'Mono amplifier',
+				kind: 'changed',
+				fields: [{ field: 'ratedPowerW', before: 1200, after: 2000 }],
+			},
+			{
+				group: 'cables',
+				id: 'run',
+				label: 'Front-to-rear run',
+				kind: 'changed',
+				fields: [{ field: 'size.awg', before: '4', after: '1/0' }],
+			},
 		]);
 
-		const res = await call(member, restore, 'POST', { vehicleId: v.id, revisionId: r1.id }, { parentId: r2.id });
+		const res = await call(
+			member,
+			restore,
+			'POST',
+			{ vehicleId: v.id, revisionId: r1.id },
+			{ parentId: r2.id },
+		);
 		expect(res.status).toBe(201);
 		const r3 = await res.json();
 		expect(r3).toMatchObject({ number: 3, parentId: r2.id, restoredFromNumber: 1 });
 		expect(r3.message).toMatch(/Restore revision 1/);
 		expect(r3.document).toEqual(pebbleBuild);
 		// A stale restore is refused like any stale save.
-		expect((await call(member, restore, 'POST', { vehicleId: v.id, revisionId: r1.id }, { parentId: r2.id })).status).toBe(409);
+		expect(
+			(
+				await call(
+					member,
+					restore,
+					'POST',
+					{ vehicleId: v.id, revisionId: r1.id },
+					{ parentId: r2.id },
+				)
+			).status,
+		).toBe(409);
 		// The database itself refuses to change a saved revision.
-		await expect(t.db.updateTable('revision').set({ message: 'rewritten' }).where('id', '=', r1.id).execute()).rejects.toThrow(/immutable/);
+		await expect(
+			t.db.updateTable('revision').set({ message: 'rewritten' }).where('id', '=', r1.id).execute(),
+		).rejects.toThrow(/immutable/);
 	});
 
 	it('computes the report route with the same numbers as the engine, under the scenario given', async () => {
 		const v = await newVehicle('Report');
-		const r1 = await (await call(member, revisions, 'POST', { vehicleId: v.id }, { parentId: null, message: 'One', document: marlinBuild })).json();
-		const res = await call(member, report, 'GET', { vehicleId: v.id, revisionId: r1.id }, undefined, '?engineRpm=900&voltagesV=12,14.4');
+		const r1 = await (
+			await call(
+				member,
+				revisions,
+				'POST',
+				{ vehicleId: v.id },
+				{ parentId: null, message: 'One', document: marlinBuild },
+			)
+		).json();
+		const res = await call(
+			member,
+			report,
+			'GET',
+			{ vehicleId: v.id, revisionId: r1.id },
+			undefined,
+			'?engineRpm=900&voltagesV=12,14.4',
+		);
 		expect(res.status).toBe(200);
 		const body = await res.json();
-		const expected = JSON.parse(JSON.stringify(buildReport(marlinBuild, { engineRpm: 900, voltagesV: [12, 14.4] })));
+		const expected = JSON.parse(
+			JSON.stringify(buildReport(marlinBuild, { engineRpm: 900, voltagesV: [12, 14.4] })),
+		);
 		expect(body.report).toEqual(expected);
-		const bad = await call(member, report, 'GET', { vehicleId: v.id, revisionId: r1.id }, undefined, '?engineRpm=-5');
+		const bad = await call(
+			member,
+			report,
+			'GET',
+			{ vehicleId: v.id, revisionId: r1.id },
+			undefined,
+			'?engineRpm=-5',
+		);
 		expect(bad.status).toBe(400);
 		expect((await bad.json()).errors[0].path).toBe('engineRpm');
 	});
 
 	it('exports a revision as a SPICE netlist', async () => {
 		const v = await newVehicle('Spice');
-		const r1 = await (await call(member, revisions, 'POST', { vehicleId: v.id }, { parentId: null, message: 'One', document: pebbleBuild })).json();
+		const r1 = await (
+			await call(
+				member,
+				revisions,
+				'POST',
+				{ vehicleId: v.id },
+				{ parentId: null, message: 'One', document: pebbleBuild },
+			)
+		).json();
 		const res = await call(member, spice, 'GET', { vehicleId: v.id, revisionId: r1.id });
 		expect(res.headers.get('content-type')).toMatch(/text\/plain/);
 		const text = await res.text();
@@ -140,22 +302,40 @@ describe('vehicles, builds and revisions', () => {
 
 	it('downloads a revision as its JSON build document, which uploads back as an equal revision', async () => {
 		const v = await newVehicle('Json');
-		const r1 = await (await call(member, revisions, 'POST', { vehicleId: v.id }, { parentId: null, message: 'One', document: marlinBuild })).json();
+		const r1 = await (
+			await call(
+				member,
+				revisions,
+				'POST',
+				{ vehicleId: v.id },
+				{ parentId: null, message: 'One', document: marlinBuild },
+			)
+		).json();
 		const res = await call(member, documentJson, 'GET', { vehicleId: v.id, revisionId: r1.id });
 		expect(res.headers.get('content-disposition')).toMatch(/Json-r1\.build\.json/);
 		const file = JSON.parse(await res.text());
 		expect(file).toEqual(marlinBuild);
-		const back = await call(member, revisions, 'POST', { vehicleId: v.id }, { parentId: r1.id, message: 'Loaded from file', document: file });
+		const back = await call(
+			member,
+			revisions,
+			'POST',
+			{ vehicleId: v.id },
+			{ parentId: r1.id, message: 'Loaded from file', document: file },
+		);
 		expect(back.status).toBe(201);
 		expect((await back.json()).document).toEqual(marlinBuild);
 	});
 
 	it('archives a vehicle and hides it from the default list', async () => {
 		const v = await newVehicle('Old');
-		expect((await call(member, vehicle, 'PATCH', { vehicleId: v.id }, { archived: true })).status).toBe(200);
+		expect(
+			(await call(member, vehicle, 'PATCH', { vehicleId: v.id }, { archived: true })).status,
+		).toBe(200);
 		const active = await (await call(member, vehicles, 'GET', {})).json();
 		expect(active.map((x: { id: string }) => x.id)).not.toContain(v.id);
-		const archived = await (await call(member, vehicles, 'GET', {}, undefined, '?archived=true')).json();
+		const archived = await (
+			await call(member, vehicles, 'GET', {}, undefined, '?archived=true')
+		).json();
 		expect(archived.map((x: { id: string }) => x.id)).toContain(v.id);
 	});
 });

@@ -16,7 +16,10 @@ describe('GET /api/health', () => {
 	});
 
 	it('reports the version and a real database round trip when the database answers', async () => {
-		const response = await callEndpoint(healthEndpoint, { locals: { db: testDb.db, storage: memoryStorage() }, request: new Request('http://localhost/api/health') });
+		const response = await callEndpoint(healthEndpoint, {
+			locals: { db: testDb.db, storage: memoryStorage() },
+			request: new Request('http://localhost/api/health'),
+		});
 		expect(response.status).toBe(200);
 		const body = await response.json();
 		expect(body.status).toBe('ok');
@@ -29,7 +32,10 @@ describe('GET /api/health', () => {
 		// Nothing listens on port 1 on loopback.
 		const deadDb = createDb('postgres://postgres@127.0.0.1:1/none', 1);
 		try {
-			const response = await callEndpoint(healthEndpoint, { locals: { db: deadDb, storage: memoryStorage() }, request: new Request('http://localhost/api/health') });
+			const response = await callEndpoint(healthEndpoint, {
+				locals: { db: deadDb, storage: memoryStorage() },
+				request: new Request('http://localhost/api/health'),
+			});
 			expect(response.status).toBe(503);
 			expect(response.headers.get('content-type')).toBe('application/problem+json');
 			expect(await response.json()).toMatchObject({ status: 503, code: 'database_unavailable' });

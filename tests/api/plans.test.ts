@@ -34,21 +34,53 @@ describe('upgrade plans', () => {
 		teamId = await makeTeam(t.db, 'Plan Team');
 		member = await makeUser(t.db, 'planner@sagwise.test', 'Planner');
 		await addMember(t.db, teamId, member, 'member');
-		const v = await insertVehicleWithBuild(t.db, { teamId, name: 'Plan car', description: '', competitionClass: '', notes: '', ownerId: null });
+		const v = await insertVehicleWithBuild(t.db, {
+			teamId,
+			name: 'Plan car',
+			description: '',
+			competitionClass: '',
+			notes: '',
+			ownerId: null,
+		});
 		vehicleId = v.vehicle.id;
 		buildId = v.buildId;
-		await appendRevision(t.db, { buildId, parentId: null, document: marlinBuild, message: 'As built', authorId: member.id });
+		await appendRevision(t.db, {
+			buildId,
+			parentId: null,
+			document: marlinBuild,
+			message: 'As built',
+			authorId: member.id,
+		});
 	});
 	afterAll(async () => t?.drop());
 
-	const call = (module: EndpointModule, method: string, params: Record<string, string> = {}, body?: unknown, query = '') =>
-		callEndpoint(module, { locals: localsFor(t.db, member), params: { teamId, vehicleId, ...params }, request: jsonRequest(`/x${query}`, method, body) });
+	const call = (
+		module: EndpointModule,
+		method: string,
+		params: Record<string, string> = {},
+		body?: unknown,
+		query = '',
+	) =>
+		callEndpoint(module, {
+			locals: localsFor(t.db, member),
+			params: { teamId, vehicleId, ...params },
+			request: jsonRequest(`/x${query}`, method, body),
+		});
 
-	async function newPlan(name: string, change: (d: BuildDocument) => BuildDocument, parts: unknown[]) {
+	async function newPlan(
+		name: string,
+		change: (d: BuildDocument) => BuildDocument,
+		parts: unknown[],
+	) {
 		const created = await call(plans, 'POST', {}, { name });
 		expect(created.status).toBe(201);
 		const p = await created.json();
-		const saved = await call(plan, 'PUT', { planId: p.id }, { version: p.version, name, notes: '', document: change(p.document), parts });
+		const saved = await call(
+			plan,
+			'PUT',
+			{ planId: p.id },
+			{ version: p.version, name, notes: '', document: change(p.document), parts },
+		);
 		expect(saved.status).toBe(200);
 		return saved.json();
 	}
@@ -69,7 +101,13 @@ describe('upgrade plans', () => {
 
 	it('refuses a save on top of a newer version with 409, keeping both', async () => {
 		const created = await (await call(plans, 'POST', {}, { name: 'Race' })).json();
-		const body = { version: created.version, name: 'Race', notes: 'first', document: created.document, parts: [] };
+		const body = {
+			version: created.version,
+			name: 'Race',
+			notes: 'first',
+			document: created.document,
+			parts: [],
+		};
 		expect((await call(plan, 'PUT', { planId: created.id }, body)).status).toBe(200);
 		const stale = await call(plan, 'PUT', { planId: created.id }, { ...body, notes: 'second' });
 		expect(stale.status).toBe(409);
@@ -80,7 +118,18 @@ describe('upgrade plans', () => {
 
 	it('answers field errors for a bad parts line and writes nothing', async () => {
 		const created = await (await call(plans, 'POST', {}, { name: 'Bad parts' })).json();
-		const res = await call(plan, 'PUT', { planId: created.id }, { version: 1, name: 'Bad parts', notes: '', document: created.document, parts: [{ item: 'Fuse', quantity: 0, unitPrice: 1.234 }] });
+		const res = await call(
+			plan,
+			'PUT',
+			{ planId: created.id },
+			{
+				version: 1,
+				name: 'Bad parts',
+				notes: '',
+				document: created.document,
+				parts: [{ item: 'Fuse', quantity: 0, unitPrice: 1.234 }],
+			},
+		);
 		expect(res.status).toBe(400);
 		const paths = (await res.json()).errors.map((e: { path: string }) => e.path);
 		expect(paths).toEqual(expect.arrayContaining(['parts.0.quantity', 'parts.0.unitPrice']));
@@ -93,10 +142,22 @@ describe('upgrade plans', () => {
 		const res = await call(compare, 'GET', {}, undefined, `?plans=${bigger.id}`);
 		expect(res.status).toBe(200);
 		const body = await res.json();
-		const expected = comparePlans(marlinBuild, [{ id: bigger.id, name: 'Bigger run', document: upsized(marlinBuild), cost: 86.35 }]);
+		const expected = comparePlans(marlinBuild, [
+			{ id: bigger.id, name: 'Bigger run', document: upsized(marlinBuild), cost: 86.35 },
+		]);
 		expect(body.columns).toEqual(JSON.parse(JSON.stringify(expected)));
 		expect(body.columns[1].deltaDb).toBeGreaterThan(0);
-		expect((await call(compare, 'GET', {}, undefined, `?plans=${[bigger.id, bigger.id, bigger.id, bigger.id].join(',')}`)).status).toBe(400);
+		expect(
+			(
+				await call(
+					compare,
+					'GET',
+					{},
+					undefined,
+					`?plans=${[bigger.id, bigger.id, bigger.id, bigger.id].join(',')}`,
+				)
+			).status,
+		).toBe(400);
 	});
 
 	it('installs a plan as the next revision with its changes and a message naming it', async () => {
@@ -104,7 +165,16 @@ describe('upgrade plans', () => {
 		const bigger = list.find((x: { name: string }) => x.name === 'Bigger run');
 		const before = (await findHeadRevision(t.db, buildId))!;
 		// Someone else's save first: the install naming the old head is refused and writes nothing.
-		const other = await call(revisions, 'POST', {}, { parentId: before.id, message: 'Loads tidied', document: { ...marlinBuild, loads: [{ ...marlinBuild.loads[0]!, currentA: 30 }] } });
+		const other = await call(
+			revisions,
+			'POST',
+			{},
+			{
+				parentId: before.id,
+				message: 'Loads tidied',
+				document: { ...marlinBuild, loads: [{ ...marlinBuild.loads[0]!, currentA: 30 }] },
+			},
+		);
 		expect(other.status).toBe(201);
 		const head = (await findHeadRevision(t.db, buildId))!;
 		const refused = await call(install, 'POST', { planId: bigger.id }, { parentId: before.id });
@@ -120,7 +190,13 @@ describe('upgrade plans', () => {
 		// The plan started from revision 1: its one change (the run's size) goes on top of the head,
 		// and the head's own change since (the loads) is kept.
 		expect(diffBuilds(head.document, revision.document)).toEqual([
-			{ group: 'cables', id: 'run', label: 'Front-to-rear run', kind: 'changed', fields: [{ field: 'size.awg', before: '1/0', after: '4/0' }] },
+			{
+				group: 'cables',
+				id: 'run',
+				label: 'Front-to-rear run',
+				kind: 'changed',
+				fields: [{ field: 'size.awg', before: '1/0', after: '4/0' }],
+			},
 		]);
 		expect(revision.document.loads[0].currentA).toBe(30);
 		const after = await (await call(plan, 'GET', { planId: bigger.id })).json();
@@ -128,15 +204,33 @@ describe('upgrade plans', () => {
 	});
 
 	it('refuses to install a plan whose part the head changed differently, naming it, and writes nothing', async () => {
-		const p = await newPlan('Heavier loads', (d) => ({ ...d, loads: [{ ...d.loads[0]!, currentA: 45 }] }), []);
+		const p = await newPlan(
+			'Heavier loads',
+			(d) => ({ ...d, loads: [{ ...d.loads[0]!, currentA: 45 }] }),
+			[],
+		);
 		const head = (await findHeadRevision(t.db, buildId))!;
-		const next = await call(revisions, 'POST', {}, { parentId: head.id, message: 'Loads measured', document: { ...head.document, loads: [{ ...head.document.loads[0]!, currentA: 33 }] } });
+		const next = await call(
+			revisions,
+			'POST',
+			{},
+			{
+				parentId: head.id,
+				message: 'Loads measured',
+				document: { ...head.document, loads: [{ ...head.document.loads[0]!, currentA: 33 }] },
+			},
+		);
 		const now = await next.json();
 		const res = await call(install, 'POST', { planId: p.id }, { parentId: now.id });
 		expect(res.status).toBe(409);
 		const body = await res.json();
 		expect(body.detail).toMatch(/Vehicle electrics/);
-		expect(body.errors).toEqual([{ path: 'loads.vehicle', message: expect.stringMatching(/changed in the plan, changed in revision/) }]);
+		expect(body.errors).toEqual([
+			{
+				path: 'loads.vehicle',
+				message: expect.stringMatching(/changed in the plan, changed in revision/),
+			},
+		]);
 		expect((await findHeadRevision(t.db, buildId))!.id).toBe(now.id);
 	});
 
@@ -144,20 +238,53 @@ describe('upgrade plans', () => {
 		const before = (await (await call(plans, 'GET')).json()).length;
 		const nameless = await call(plans, 'POST', {}, { name: '   ' });
 		expect(nameless.status).toBe(400);
-		expect((await nameless.json()).errors).toEqual([{ path: 'name', message: 'Give the plan a name' }]);
-		const other = await insertVehicleWithBuild(t.db, { teamId, name: 'Third car', description: '', competitionClass: '', notes: '', ownerId: null });
-		const saved = await appendRevision(t.db, { buildId: other.buildId, parentId: null, document: marlinBuild, message: 'Elsewhere', authorId: member.id });
+		expect((await nameless.json()).errors).toEqual([
+			{ path: 'name', message: 'Give the plan a name' },
+		]);
+		const other = await insertVehicleWithBuild(t.db, {
+			teamId,
+			name: 'Third car',
+			description: '',
+			competitionClass: '',
+			notes: '',
+			ownerId: null,
+		});
+		const saved = await appendRevision(t.db, {
+			buildId: other.buildId,
+			parentId: null,
+			document: marlinBuild,
+			message: 'Elsewhere',
+			authorId: member.id,
+		});
 		if (!saved.ok) throw new Error('revision');
-		const foreign = await call(plans, 'POST', {}, { name: 'Borrowed', fromRevisionId: saved.revision.id });
+		const foreign = await call(
+			plans,
+			'POST',
+			{},
+			{ name: 'Borrowed', fromRevisionId: saved.revision.id },
+		);
 		expect(foreign.status).toBe(400);
-		expect((await foreign.json()).errors).toEqual([{ path: 'fromRevisionId', message: 'No such revision for this vehicle' }]);
+		expect((await foreign.json()).errors).toEqual([
+			{ path: 'fromRevisionId', message: 'No such revision for this vehicle' },
+		]);
 		expect((await (await call(plans, 'GET')).json()).length).toBe(before);
 	});
 
 	it('answers 404 for a plan of another vehicle', async () => {
 		const list = await (await call(plans, 'GET')).json();
-		const other = await insertVehicleWithBuild(t.db, { teamId, name: 'Other car', description: '', competitionClass: '', notes: '', ownerId: null });
-		const res = await callEndpoint(plan, { locals: localsFor(t.db, member), params: { teamId, vehicleId: other.vehicle.id, planId: list[0].id }, request: jsonRequest('/x', 'GET') });
+		const other = await insertVehicleWithBuild(t.db, {
+			teamId,
+			name: 'Other car',
+			description: '',
+			competitionClass: '',
+			notes: '',
+			ownerId: null,
+		});
+		const res = await callEndpoint(plan, {
+			locals: localsFor(t.db, member),
+			params: { teamId, vehicleId: other.vehicle.id, planId: list[0].id },
+			request: jsonRequest('/x', 'GET'),
+		});
 		expect(res.status).toBe(404);
 	});
 });

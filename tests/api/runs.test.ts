@@ -29,18 +29,48 @@ describe('events, runs and logger uploads (PostgreSQL + the S3 fake)', () => {
 	let secondRevision: string;
 	beforeAll(async () => {
 		t = await createTestDb();
-		s3 = await startS3Fake({ port: 0, dir: mkdtempSync(path.join(tmpdir(), 'sagwise-s3-')), bucket: 'test-files' });
-		storage = createS3Storage({ endpoint: s3.endpoint, region: 'us-east-1', bucket: 'test-files', accessKeyId: 'S3RVER', secretAccessKey: 'S3RVER', forcePathStyle: true });
+		s3 = await startS3Fake({
+			port: 0,
+			dir: mkdtempSync(path.join(tmpdir(), 'sagwise-s3-')),
+			bucket: 'test-files',
+		});
+		storage = createS3Storage({
+			endpoint: s3.endpoint,
+			region: 'us-east-1',
+			bucket: 'test-files',
+			accessKeyId: 'S3RVER',
+			secretAccessKey: 'S3RVER',
+			forcePathStyle: true,
+		});
 		teamId = await makeTeam(t.db, 'Run Team');
 		member = await makeUser(t.db);
 		await addMember(t.db, teamId, member, 'member');
-		const v = await insertVehicleWithBuild(t.db, { teamId, name: 'Logger car', description: '', competitionClass: '', notes: '', ownerId: null });
+		const v = await insertVehicleWithBuild(t.db, {
+			teamId,
+			name: 'Logger car',
+			description: '',
+			competitionClass: '',
+			notes: '',
+			ownerId: null,
+		});
 		vehicleId = v.vehicle.id;
-		const r1 = await appendRevision(t.db, { buildId: v.buildId, parentId: null, document: pebbleBuild, message: 'One', authorId: member.id });
+		const r1 = await appendRevision(t.db, {
+			buildId: v.buildId,
+			parentId: null,
+			document: pebbleBuild,
+			message: 'One',
+			authorId: member.id,
+		});
 		if (!r1.ok) throw new Error('r1');
 		firstRevision = r1.revision.id;
 		await new Promise((r) => setTimeout(r, 20));
-		const r2 = await appendRevision(t.db, { buildId: v.buildId, parentId: r1.revision.id, document: pebbleBuild, message: 'Two', authorId: member.id });
+		const r2 = await appendRevision(t.db, {
+			buildId: v.buildId,
+			parentId: r1.revision.id,
+			document: pebbleBuild,
+			message: 'Two',
+			authorId: member.id,
+		});
 		if (!r2.ok) throw new Error('r2');
 		secondRevision = r2.revision.id;
 	});
@@ -50,27 +80,100 @@ describe('events, runs and logger uploads (PostgreSQL + the S3 fake)', () => {
 	});
 
 	const locals = () => localsFor(t.db, member, nullMailer, storage);
-	const call = (module: Parameters<typeof callEndpoint>[0], method: string, params: Record<string, string>, body?: unknown, query = '') =>
-		callEndpoint(module, { locals: locals(), params: { teamId, ...params }, request: jsonRequest(`/x${query}`, method, body) });
-	const upload = (runId: string, file: Blob | null, name: string, mapping: Record<string, string> = { timeColumn: 'time', voltsColumn: 'volts', ampsColumn: 'amps', timeUnit: 's' }) => {
+	const call = (
+		module: Parameters<typeof callEndpoint>[0],
+		method: string,
+		params: Record<string, string>,
+		body?: unknown,
+		query = '',
+	) =>
+		callEndpoint(module, {
+			locals: locals(),
+			params: { teamId, ...params },
+			request: jsonRequest(`/x${query}`, method, body),
+		});
+	const upload = (
+		runId: string,
+		file: Blob | null,
+		name: string,
+		mapping: Record<string, string> = {
+			timeColumn: 'time',
+			voltsColumn: 'volts',
+			ampsColumn: 'amps',
+			timeUnit: 's',
+		},
+	) => {
 		const form = new FormData();
 		if (file) form.set('file', file, name);
 		for (const [k, v] of Object.entries(mapping)) form.set(k, v);
-		return callEndpoint(logger, { locals: locals(), params: { teamId, runId }, request: new Request('http://localhost/x', { method: 'POST', body: form }) });
+		return callEndpoint(logger, {
+			locals: locals(),
+			params: { teamId, runId },
+			request: new Request('http://localhost/x', { method: 'POST', body: form }),
+		});
 	};
-	const newRun = async (ranAt: string) => (await (await call(runs, 'POST', {}, { vehicleId, ranAt, scoreDb: 142.3, restingV: 12.8, minV: 11.9 })).json()) as { id: string; revisionId: string };
-	const storedKeys = async (runId: string) => (await t.db.selectFrom('stored_file').select('object_key').where('run_id', '=', runId).execute()).map((r) => r.object_key);
-	const sampleCount = async (runId: string) => Number((await t.db.selectFrom('run_sample').select((eb) => eb.fn.countAll().as('n')).where('run_id', '=', runId).executeTakeFirstOrThrow()).n);
+	const newRun = async (ranAt: string) =>
+		(await (
+			await call(runs, 'POST', {}, { vehicleId, ranAt, scoreDb: 142.3, restingV: 12.8, minV: 11.9 })
+		).json()) as { id: string; revisionId: string };
+	const storedKeys = async (runId: string) =>
+		(
+			await t.db
+				.selectFrom('stored_file')
+				.select('object_key')
+				.where('run_id', '=', runId)
+				.execute()
+		).map((r) => r.object_key);
+	const sampleCount = async (runId: string) =>
+		Number(
+			(
+				await t.db
+					.selectFrom('run_sample')
+					.select((eb) => eb.fn.countAll().as('n'))
+					.where('run_id', '=', runId)
+					.executeTakeFirstOrThrow()
+			).n,
+		);
 
 	it('links a run to the revision in force at its time, and to an event of the team', async () => {
-		const ev = await (await call(events, 'POST', {}, { name: 'Spring meet', startsOn: '2026-04-11', endsOn: '2026-04-12' })).json();
-		const early = await (await call(runs, 'POST', {}, { vehicleId, eventId: ev.id, ranAt: new Date(Date.now() - 86_400_000).toISOString() })).json();
+		const ev = await (
+			await call(
+				events,
+				'POST',
+				{},
+				{ name: 'Spring meet', startsOn: '2026-04-11', endsOn: '2026-04-12' },
+			)
+		).json();
+		const early = await (
+			await call(
+				runs,
+				'POST',
+				{},
+				{ vehicleId, eventId: ev.id, ranAt: new Date(Date.now() - 86_400_000).toISOString() },
+			)
+		).json();
 		expect(early.revisionId).toBeNull(); // before the first revision existed
 		const now = await newRun(new Date().toISOString());
 		expect(now.revisionId).toBe(secondRevision);
-		const chosen = await (await call(runs, 'POST', {}, { vehicleId, ranAt: new Date().toISOString(), revisionId: firstRevision })).json();
+		const chosen = await (
+			await call(
+				runs,
+				'POST',
+				{},
+				{ vehicleId, ranAt: new Date().toISOString(), revisionId: firstRevision },
+			)
+		).json();
 		expect(chosen.revisionId).toBe(firstRevision);
-		const bad = await call(runs, 'POST', {}, { vehicleId, ranAt: new Date().toISOString(), eventId: '00000000-0000-4000-8000-000000000000' });
+		const bad = await call(
+			runs,
+			'POST',
+			{},
+			{
+				vehicleId,
+				ranAt: new Date().toISOString(),
+				eventId: '00000000-0000-4000-8000-000000000000',
+			},
+		);
 		expect(bad.status).toBe(400);
 		expect((await bad.json()).errors[0].path).toBe('eventId');
 	});
@@ -115,7 +218,9 @@ describe('events, runs and logger uploads (PostgreSQL + the S3 fake)', () => {
 
 	it('refuses a photo renamed to .csv (checked by content, not name)', async () => {
 		const r = await newRun(new Date().toISOString());
-		const png = new Uint8Array([0x89, 0x50, 0x4e, 0x47, 0x0d, 0x0a, 0x1a, 0x0a, 0, 0, 0, 13, 73, 72, 68, 82]);
+		const png = new Uint8Array([
+			0x89, 0x50, 0x4e, 0x47, 0x0d, 0x0a, 0x1a, 0x0a, 0, 0, 0, 13, 73, 72, 68, 82,
+		]);
 		const res = await upload(r.id, new Blob([png]), 'photo.csv');
 		expect(res.status).toBe(400);
 		expect((await res.json()).detail).toMatch(/not a CSV/);
@@ -123,11 +228,18 @@ describe('events, runs and logger uploads (PostgreSQL + the S3 fake)', () => {
 	});
 
 	it('exports runs as CSV, neutralising spreadsheet formulas in notes', async () => {
-		await call(runs, 'POST', {}, { vehicleId, ranAt: new Date().toISOString(), scoreDb: 150.1, notes: '=HYPERLINK("x")' });
+		await call(
+			runs,
+			'POST',
+			{},
+			{ vehicleId, ranAt: new Date().toISOString(), scoreDb: 150.1, notes: '=HYPERLINK("x")' },
+		);
 		const res = await call(exportCsv, 'GET', {}, undefined, `?vehicleId=${vehicleId}`);
 		expect(res.headers.get('content-type')).toMatch(/text\/csv/);
 		const text = await res.text();
-		expect(text.split(/\r?\n/)[0]).toBe('ran_at,vehicle,event,revision,score_db,frequency_hz,resting_v,min_v,ambient_c,notes');
+		expect(text.split(/\r?\n/)[0]).toBe(
+			'ran_at,vehicle,event,revision,score_db,frequency_hz,resting_v,min_v,ambient_c,notes',
+		);
 		expect(text).toContain('150.1');
 		expect(text).not.toMatch(/,=HYPERLINK/);
 	});
@@ -154,13 +266,37 @@ describe('run photos (PostgreSQL + the S3 fake)', async () => {
 	let runId: string;
 	beforeAll(async () => {
 		t = await createTestDb();
-		s3 = await startS3Fake({ port: 0, dir: mkdtempSync(path.join(tmpdir(), 'sagwise-s3p-')), bucket: 'photo-files' });
-		storage = createS3Storage({ endpoint: s3.endpoint, region: 'us-east-1', bucket: 'photo-files', accessKeyId: 'S3RVER', secretAccessKey: 'S3RVER', forcePathStyle: true });
+		s3 = await startS3Fake({
+			port: 0,
+			dir: mkdtempSync(path.join(tmpdir(), 'sagwise-s3p-')),
+			bucket: 'photo-files',
+		});
+		storage = createS3Storage({
+			endpoint: s3.endpoint,
+			region: 'us-east-1',
+			bucket: 'photo-files',
+			accessKeyId: 'S3RVER',
+			secretAccessKey: 'S3RVER',
+			forcePathStyle: true,
+		});
 		teamId = await makeTeam(t.db);
 		member = await makeUser(t.db);
 		await addMember(t.db, teamId, member, 'member');
-		const v = await insertVehicleWithBuild(t.db, { teamId, name: 'Photo car', description: '', competitionClass: '', notes: '', ownerId: null });
-		runId = (await t.db.insertInto('run').values({ vehicle_id: v.vehicle.id, ran_at: new Date() }).returning('id').executeTakeFirstOrThrow()).id;
+		const v = await insertVehicleWithBuild(t.db, {
+			teamId,
+			name: 'Photo car',
+			description: '',
+			competitionClass: '',
+			notes: '',
+			ownerId: null,
+		});
+		runId = (
+			await t.db
+				.insertInto('run')
+				.values({ vehicle_id: v.vehicle.id, ran_at: new Date() })
+				.returning('id')
+				.executeTakeFirstOrThrow()
+		).id;
 	});
 	afterAll(async () => {
 		await s3?.close();
@@ -169,15 +305,28 @@ describe('run photos (PostgreSQL + the S3 fake)', async () => {
 	const post = (blob: Blob, name: string) => {
 		const form = new FormData();
 		form.set('file', blob, name);
-		return callEndpoint(photos, { locals: localsFor(t.db, member, nullMailer, storage), params: { teamId, runId }, request: new Request('http://localhost/x', { method: 'POST', body: form }) });
+		return callEndpoint(photos, {
+			locals: localsFor(t.db, member, nullMailer, storage),
+			params: { teamId, runId },
+			request: new Request('http://localhost/x', { method: 'POST', body: form }),
+		});
 	};
 
 	it('stores a photo checked by content with a 320 px WebP thumbnail, and serves both', async () => {
-		const png = await sharp({ create: { width: 1200, height: 800, channels: 3, background: '#b8652a' } }).png().toBuffer();
+		const png = await sharp({
+			create: { width: 1200, height: 800, channels: 3, background: '#b8652a' },
+		})
+			.png()
+			.toBuffer();
 		const res = await post(new Blob([new Uint8Array(png)]), 'meter.jpg');
 		expect(res.status).toBe(201);
 		const { photoId, thumbnailId } = await res.json();
-		const get = (fileId: string) => callEndpoint(files, { locals: localsFor(t.db, member, nullMailer, storage), params: { teamId, fileId }, request: new Request('http://localhost/x') });
+		const get = (fileId: string) =>
+			callEndpoint(files, {
+				locals: localsFor(t.db, member, nullMailer, storage),
+				params: { teamId, fileId },
+				request: new Request('http://localhost/x'),
+			});
 		const original = await get(photoId);
 		expect(original.headers.get('content-type')).toBe('image/png');
 		expect(Buffer.from(await original.arrayBuffer()).equals(png)).toBe(true);
@@ -190,6 +339,13 @@ describe('run photos (PostgreSQL + the S3 fake)', async () => {
 		const res = await post(new Blob(['time,volts,amps\n0,1,2\n']), 'fake.jpg');
 		expect(res.status).toBe(400);
 		expect((await res.json()).detail).toMatch(/JPEG, PNG or WebP/);
-		expect(await t.db.selectFrom('stored_file').selectAll().where('run_id', '=', runId).where('file_name', '=', 'fake.jpg').execute()).toEqual([]);
+		expect(
+			await t.db
+				.selectFrom('stored_file')
+				.selectAll()
+				.where('run_id', '=', runId)
+				.where('file_name', '=', 'fake.jpg')
+				.execute(),
+		).toEqual([]);
 	});
 });

@@ -26,11 +26,27 @@ describe('team routes', () => {
 	});
 
 	const as = (user: AppUser | null) => ({
-		call: (module: Parameters<typeof callEndpoint>[0], method: string, params: Record<string, string>, body?: unknown) =>
-			callEndpoint(module, { locals: localsFor(t.db, user, mail.mailer), params, request: jsonRequest('/x', method, body) }),
+		call: (
+			module: Parameters<typeof callEndpoint>[0],
+			method: string,
+			params: Record<string, string>,
+			body?: unknown,
+		) =>
+			callEndpoint(module, {
+				locals: localsFor(t.db, user, mail.mailer),
+				params,
+				request: jsonRequest('/x', method, body),
+			}),
 	});
 	const roleOf = async (teamId: string, userId: string) =>
-		(await t.db.selectFrom('membership').select('role').where('team_id', '=', teamId).where('user_id', '=', userId).executeTakeFirst())?.role;
+		(
+			await t.db
+				.selectFrom('membership')
+				.select('role')
+				.where('team_id', '=', teamId)
+				.where('user_id', '=', userId)
+				.executeTakeFirst()
+		)?.role;
 
 	it('creates a team whose creator is captain', async () => {
 		const founder = await makeUser(t.db);
@@ -45,13 +61,23 @@ describe('team routes', () => {
 
 	it('sets the plan currency: a code is upper-cased and kept, anything else is refused beside the field', async () => {
 		const founder = await makeUser(t.db);
-		const { id: teamId } = await (await as(founder).call(teams, 'POST', {}, { name: 'Currency Crew' })).json();
-		expect((await as(founder).call(team, 'PATCH', { teamId }, { currency: 'eur' })).status).toBe(204);
-		expect(await (await as(founder).call(team, 'GET', { teamId })).json()).toMatchObject({ currency: 'EUR' });
+		const { id: teamId } = await (
+			await as(founder).call(teams, 'POST', {}, { name: 'Currency Crew' })
+		).json();
+		expect((await as(founder).call(team, 'PATCH', { teamId }, { currency: 'eur' })).status).toBe(
+			204,
+		);
+		expect(await (await as(founder).call(team, 'GET', { teamId })).json()).toMatchObject({
+			currency: 'EUR',
+		});
 		const bad = await as(founder).call(team, 'PATCH', { teamId }, { currency: 'EURO' });
 		expect(bad.status).toBe(400);
-		expect((await bad.json()).errors).toEqual([{ path: 'currency', message: 'Use a three-letter currency code such as EUR' }]);
-		expect(await (await as(founder).call(team, 'GET', { teamId })).json()).toMatchObject({ currency: 'EUR' });
+		expect((await bad.json()).errors).toEqual([
+			{ path: 'currency', message: 'Use a three-letter currency code such as EUR' },
+		]);
+		expect(await (await as(founder).call(team, 'GET', { teamId })).json()).toMatchObject({
+			currency: 'EUR',
+		});
 	});
 
 	it('invites by e-mail; the invitee follows the mailed link once and joins with the role', async () => {
@@ -59,7 +85,12 @@ describe('team routes', () => {
 		const teamId = await makeTeam(t.db, 'Invite Team');
 		await addMember(t.db, teamId, captain, 'captain');
 
-		const res = await as(captain).call(invitations, 'POST', { teamId }, { email: 'Newbie@Sagwise.test', role: 'member' });
+		const res = await as(captain).call(
+			invitations,
+			'POST',
+			{ teamId },
+			{ email: 'Newbie@Sagwise.test', role: 'member' },
+		);
 		expect(res.status).toBe(201);
 		const message = await mail.waitFor('newbie@sagwise.test');
 		expect(message.subject).toContain('Invite Team');
@@ -67,7 +98,9 @@ describe('team routes', () => {
 		const token = linkIn(message, '/invitations/').split('/invitations/')[1]!;
 
 		const pending = await (await as(captain).call(invitations, 'GET', { teamId })).json();
-		expect(pending).toEqual([expect.objectContaining({ email: 'newbie@sagwise.test', role: 'member', expired: false })]);
+		expect(pending).toEqual([
+			expect.objectContaining({ email: 'newbie@sagwise.test', role: 'member', expired: false }),
+		]);
 
 		const newbie = await makeUser(t.db, 'newbie@sagwise.test');
 		const joined = await as(newbie).call(accept, 'POST', { token });
@@ -84,15 +117,26 @@ describe('team routes', () => {
 		const captain = await makeUser(t.db);
 		const teamId = await makeTeam(t.db);
 		await addMember(t.db, teamId, captain, 'captain');
-		await as(captain).call(invitations, 'POST', { teamId }, { email: 'slow@sagwise.test', role: 'viewer' });
-		const token = linkIn(await mail.waitFor('slow@sagwise.test'), '/invitations/').split('/invitations/')[1]!;
+		await as(captain).call(
+			invitations,
+			'POST',
+			{ teamId },
+			{ email: 'slow@sagwise.test', role: 'viewer' },
+		);
+		const token = linkIn(await mail.waitFor('slow@sagwise.test'), '/invitations/').split(
+			'/invitations/',
+		)[1]!;
 
 		const stranger = await makeUser(t.db, 'stranger@sagwise.test');
 		const wrong = await as(stranger).call(accept, 'POST', { token });
 		expect(wrong.status).toBe(403);
 		expect((await wrong.json()).code).toBe('email_mismatch');
 
-		await t.db.updateTable('invitation').set({ expires_at: new Date(Date.now() - 1) }).where('email', '=', 'slow@sagwise.test').execute();
+		await t.db
+			.updateTable('invitation')
+			.set({ expires_at: new Date(Date.now() - 1) })
+			.where('email', '=', 'slow@sagwise.test')
+			.execute();
 		const slow = await makeUser(t.db, 'slow@sagwise.test');
 		const late = await as(slow).call(accept, 'POST', { token });
 		expect(late.status).toBe(410);
@@ -104,15 +148,31 @@ describe('team routes', () => {
 		const captain = await makeUser(t.db);
 		const teamId = await makeTeam(t.db);
 		await addMember(t.db, teamId, captain, 'captain');
-		const created = await (await as(captain).call(invitations, 'POST', { teamId }, { email: 'twice@sagwise.test', role: 'member' })).json();
-		const first = linkIn(await mail.waitFor('twice@sagwise.test'), '/invitations/').split('/invitations/')[1]!;
-		expect((await as(captain).call(resend, 'POST', { teamId, invitationId: created.id })).status).toBe(200);
-		const second = linkIn(await mail.waitFor('twice@sagwise.test', { after: 1 }), '/invitations/').split('/invitations/')[1]!;
+		const created = await (
+			await as(captain).call(
+				invitations,
+				'POST',
+				{ teamId },
+				{ email: 'twice@sagwise.test', role: 'member' },
+			)
+		).json();
+		const first = linkIn(await mail.waitFor('twice@sagwise.test'), '/invitations/').split(
+			'/invitations/',
+		)[1]!;
+		expect(
+			(await as(captain).call(resend, 'POST', { teamId, invitationId: created.id })).status,
+		).toBe(200);
+		const second = linkIn(
+			await mail.waitFor('twice@sagwise.test', { after: 1 }),
+			'/invitations/',
+		).split('/invitations/')[1]!;
 		expect(second).not.toBe(first);
 		const invitee = await makeUser(t.db, 'twice@sagwise.test');
 		expect((await as(invitee).call(accept, 'POST', { token: first })).status).toBe(404);
 
-		expect((await as(captain).call(invitation, 'DELETE', { teamId, invitationId: created.id })).status).toBe(204);
+		expect(
+			(await as(captain).call(invitation, 'DELETE', { teamId, invitationId: created.id })).status,
+		).toBe(204);
 		expect((await as(invitee).call(accept, 'POST', { token: second })).status).toBe(410);
 	});
 
@@ -123,10 +183,18 @@ describe('team routes', () => {
 		await addMember(t.db, teamId, captain, 'captain');
 		await addMember(t.db, teamId, other, 'viewer');
 
-		expect((await as(captain).call(member, 'PATCH', { teamId, userId: other.id }, { role: 'member' })).status).toBe(204);
+		expect(
+			(await as(captain).call(member, 'PATCH', { teamId, userId: other.id }, { role: 'member' }))
+				.status,
+		).toBe(204);
 		expect(await roleOf(teamId, other.id)).toBe('member');
 
-		const demote = await as(captain).call(member, 'PATCH', { teamId, userId: captain.id }, { role: 'member' });
+		const demote = await as(captain).call(
+			member,
+			'PATCH',
+			{ teamId, userId: captain.id },
+			{ role: 'member' },
+		);
 		expect(demote.status).toBe(409);
 		expect((await demote.json()).code).toBe('last_captain');
 		const leave = await as(captain).call(member, 'DELETE', { teamId, userId: captain.id });
@@ -135,7 +203,10 @@ describe('team routes', () => {
 
 		// With a second captain the first may step down.
 		await as(captain).call(member, 'PATCH', { teamId, userId: other.id }, { role: 'captain' });
-		expect((await as(captain).call(member, 'PATCH', { teamId, userId: captain.id }, { role: 'member' })).status).toBe(204);
+		expect(
+			(await as(captain).call(member, 'PATCH', { teamId, userId: captain.id }, { role: 'member' }))
+				.status,
+		).toBe(204);
 	});
 
 	it('lets anyone leave, but only captains remove others', async () => {
@@ -156,11 +227,17 @@ describe('team routes', () => {
 		const captain = await makeUser(t.db);
 		const teamId = await makeTeam(t.db, 'Doomed');
 		await addMember(t.db, teamId, captain, 'captain');
-		expect((await as(captain).call(team, 'PATCH', { teamId }, { name: 'Still Doomed' })).status).toBe(204);
+		expect(
+			(await as(captain).call(team, 'PATCH', { teamId }, { name: 'Still Doomed' })).status,
+		).toBe(204);
 		const wrong = await as(captain).call(team, 'DELETE', { teamId }, { confirmName: 'Doomed' });
 		expect(wrong.status).toBe(400);
 		expect((await wrong.json()).code).toBe('confirmation_mismatch');
-		expect((await as(captain).call(team, 'DELETE', { teamId }, { confirmName: 'Still Doomed' })).status).toBe(204);
-		expect(await t.db.selectFrom('team').where('id', '=', teamId).selectAll().executeTakeFirst()).toBeUndefined();
+		expect(
+			(await as(captain).call(team, 'DELETE', { teamId }, { confirmName: 'Still Doomed' })).status,
+		).toBe(204);
+		expect(
+			await t.db.selectFrom('team').where('id', '=', teamId).selectAll().executeTakeFirst(),
+		).toBeUndefined();
 	});
 });

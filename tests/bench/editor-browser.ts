@@ -46,10 +46,23 @@ try {
 	const cases = { '40-cable build': forty(), ...DEMO_BUILDS };
 	const rows = [];
 	for (const [name, doc] of Object.entries(cases)) {
-		const { times, burpMs } = await browser.page.evaluate(([d, n]) => (window as unknown as { sagwiseBench: (d: unknown, n: number) => { times: number[]; burpMs: number } }).sagwiseBench(d, n), [doc, 300] as const);
+		const { times, burpMs } = await browser.page.evaluate(
+			([d, n]) =>
+				(
+					window as unknown as {
+						sagwiseBench: (d: unknown, n: number) => { times: number[]; burpMs: number };
+					}
+				).sagwiseBench(d, n),
+			[doc, 300] as const,
+		);
 		const sorted = times.slice(20).sort((a, b) => a - b); // the first edits warm the JIT up
 		const q = (p: number) => sorted[Math.min(sorted.length - 1, Math.floor(p * sorted.length))]!;
-		rows.push({ case: `${name} (${doc.cables.length} cables)`, 'edit median ms': q(0.5).toFixed(3), 'edit p95 ms': q(0.95).toFixed(3), 'burp 10 s/10 ms ms': burpMs.toFixed(1) });
+		rows.push({
+			case: `${name} (${doc.cables.length} cables)`,
+			'edit median ms': q(0.5).toFixed(3),
+			'edit p95 ms': q(0.95).toFixed(3),
+			'burp 10 s/10 ms ms': burpMs.toFixed(1),
+		});
 	}
 	console.table(rows);
 	if (browser.problems.length) console.log('browser problems:', browser.problems);

@@ -17,30 +17,84 @@ import { forty, synthetic200 } from './fixtures';
 const bench = new Bench({ time: 1500, warmupTime: 300, retainSamples: true });
 for (const [name, d] of Object.entries(DEMO_BUILDS)) {
 	bench.add(`report, no time-stepping: ${name}`, () => void buildReport(d, {}, { burpRun: false }));
-	bench.add(`burp 10 s at 10 ms: ${name}`, () => void runBurp(d, { engineRpm: DEFAULT_SCENARIO.engineRpm, demand: 1, conductorTempC: 25, durationS: 10, stepS: 0.01 }));
+	bench.add(
+		`burp 10 s at 10 ms: ${name}`,
+		() =>
+			void runBurp(d, {
+				engineRpm: DEFAULT_SCENARIO.engineRpm,
+				demand: 1,
+				conductorTempC: 25,
+				durationS: 10,
+				stepS: 0.01,
+			}),
+	);
 	bench.add(`full report with burp: ${name}`, () => void buildReport(d));
 }
 const fortyCables = forty();
-bench.add(`editor recompute (report, no time-stepping): ${fortyCables.cables.length} cables`, () => void buildReport(fortyCables, {}, { burpRun: false }));
-bench.add(`editor deferred burp: ${fortyCables.cables.length} cables`, () => void runBurp(fortyCables, { engineRpm: 1500, demand: 1, conductorTempC: 25, durationS: 10, stepS: 0.01 }));
+bench.add(
+	`editor recompute (report, no time-stepping): ${fortyCables.cables.length} cables`,
+	() => void buildReport(fortyCables, {}, { burpRun: false }),
+);
+bench.add(
+	`editor deferred burp: ${fortyCables.cables.length} cables`,
+	() =>
+		void runBurp(fortyCables, {
+			engineRpm: 1500,
+			demand: 1,
+			conductorTempC: 25,
+			durationS: 10,
+			stepS: 0.01,
+		}),
+);
 const big = synthetic200();
 const bigCheck = solveNetwork(big, { engineRpm: 1500, demand: 1, conductorTempC: 25 });
 // The plans page: the current build and three plans, answered by the compare route; four 10 s
 // time-stepped burps dominate (target < 250 ms, shown behind a loading state).
-const oakPlans = DEMO_PLANS.map((p, i) => ({ id: String(i), name: p.name, document: p.document, cost: 1000 }));
-bench.add('plan comparison: Old Oak and three plans', () => void comparePlans(DEMO_BUILDS['Old Oak'], [...oakPlans, { ...oakPlans[0]!, id: '2' }]));
-bench.add('upgrade hints: Old Oak', () => void upgradeHints(DEMO_BUILDS['Old Oak'], { engineRpm: 1500, demand: 1, conductorTempC: 25 }));
-bench.add('plan merge onto a newer head: Old Oak', () => void mergePlan(DEMO_BUILDS['Old Oak'], DEMO_PLANS[1]!.document, DEMO_PLANS[0]!.document));
+const oakPlans = DEMO_PLANS.map((p, i) => ({
+	id: String(i),
+	name: p.name,
+	document: p.document,
+	cost: 1000,
+}));
+bench.add(
+	'plan comparison: Old Oak and three plans',
+	() => void comparePlans(DEMO_BUILDS['Old Oak'], [...oakPlans, { ...oakPlans[0]!, id: '2' }]),
+);
+bench.add(
+	'upgrade hints: Old Oak',
+	() =>
+		void upgradeHints(DEMO_BUILDS['Old Oak'], { engineRpm: 1500, demand: 1, conductorTempC: 25 }),
+);
+bench.add(
+	'plan merge onto a newer head: Old Oak',
+	() => void mergePlan(DEMO_BUILDS['Old Oak'], DEMO_PLANS[1]!.document, DEMO_PLANS[0]!.document),
+);
 
-bench.add(`one network solve: synthetic ${big.cables.length} cables / ${big.nodes.length} nodes`, () => void solveNetwork(big, { engineRpm: 1500, demand: 1, conductorTempC: 25 }));
-bench.add(`report, no time-stepping: synthetic ${big.cables.length} cables`, () => void buildReport(big, {}, { burpRun: false }));
+bench.add(
+	`one network solve: synthetic ${big.cables.length} cables / ${big.nodes.length} nodes`,
+	() => void solveNetwork(big, { engineRpm: 1500, demand: 1, conductorTempC: 25 }),
+);
+bench.add(
+	`report, no time-stepping: synthetic ${big.cables.length} cables`,
+	() => void buildReport(big, {}, { burpRun: false }),
+);
 
 await bench.run();
 const rows = bench.tasks.map((t) => {
-	const r = t.result as { latency?: { p50?: number; p99?: number; samples?: number[] }; samples?: number[] } | undefined;
+	const r = t.result as
+		| { latency?: { p50?: number; p99?: number; samples?: number[] }; samples?: number[] }
+		| undefined;
 	const samples = [...(r?.latency?.samples ?? r?.samples ?? [])].sort((a, b) => a - b);
-	const q = (p: number) => samples[Math.min(samples.length - 1, Math.floor(p * samples.length))] ?? Number.NaN;
-	return { case: t.name, 'median ms': q(0.5).toFixed(3), 'p95 ms': q(0.95).toFixed(3), runs: samples.length };
+	const q = (p: number) =>
+		samples[Math.min(samples.length - 1, Math.floor(p * samples.length))] ?? Number.NaN;
+	return {
+		case: t.name,
+		'median ms': q(0.5).toFixed(3),
+		'p95 ms': q(0.95).toFixed(3),
+		runs: samples.length,
+	};
 });
 console.table(rows);
-console.log(`synthetic network solved: ${bigCheck.status}, ${bigCheck.iterations} Newton iterations`);
+console.log(
+	`synthetic network solved: ${bigCheck.status}, ${bigCheck.iterations} Newton iterations`,
+);

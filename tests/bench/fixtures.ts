@@ -14,10 +14,13 @@ export function synthetic200(): BuildDocument {
 		i++;
 		const blk = `blk${i}`;
 		d.nodes.push(node(blk, 'block'), node(`a${i}p`, 'amplifier'), node(`a${i}n`, 'amplifier'));
-		d.cables.push(cable(`run${i}`, prev, blk, { kind: 'awg', awg: '4/0' }, 0.5, { parallelRuns: 2 }));
+		d.cables.push(
+			cable(`run${i}`, prev, blk, { kind: 'awg', awg: '4/0' }, 0.5, { parallelRuns: 2 }),
+		);
 		d.amplifiers.push(amp(`a${i}`, `a${i}p`, `a${i}n`, 40));
 		d.cables.push(cable(`f${i}`, blk, `a${i}p`, { kind: 'awg', awg: '8' }, 1));
-		if (d.cables.length < 200) d.cables.push(cable(`g${i}`, `a${i}n`, 'gnd', { kind: 'awg', awg: '8' }, 1));
+		if (d.cables.length < 200)
+			d.cables.push(cable(`g${i}`, `a${i}n`, 'gnd', { kind: 'awg', awg: '8' }, 1));
 		else d.cables.pop();
 		if (d.cables.length < 200 && i % 10 === 0) {
 			d.nodes.push(node(`b${i}`, 'battery'));
@@ -28,22 +31,37 @@ export function synthetic200(): BuildDocument {
 	}
 	while (d.cables.length > 200) d.cables.pop();
 	// Any amplifier left without a ground gets one in place of its feed count.
-	for (const a of d.amplifiers) if (!d.cables.some((c) => c.from === a.negative || c.to === a.negative)) d.amplifiers.splice(d.amplifiers.indexOf(a), 1);
-	d.nodes = d.nodes.filter((n) => n.kind === 'chassis' || d.cables.some((c) => c.from === n.id || c.to === n.id) || d.banks.some((b) => b.positive === n.id) || d.alternators.some((a) => a.positive === n.id));
+	for (const a of d.amplifiers)
+		if (!d.cables.some((c) => c.from === a.negative || c.to === a.negative))
+			d.amplifiers.splice(d.amplifiers.indexOf(a), 1);
+	d.nodes = d.nodes.filter(
+		(n) =>
+			n.kind === 'chassis' ||
+			d.cables.some((c) => c.from === n.id || c.to === n.id) ||
+			d.banks.some((b) => b.positive === n.id) ||
+			d.alternators.some((a) => a.positive === n.id),
+	);
 	return d;
 }
 
 /** A 40-cable build: the size the editor must recompute on every keystroke (target < 16 ms). */
 export function forty(): BuildDocument {
-	const d = doc({ nodes: [node('gnd', 'chassis'), node('alt'), node('bat', 'battery'), node('blk', 'block')] });
+	const d = doc({
+		nodes: [node('gnd', 'chassis'), node('alt'), node('bat', 'battery'), node('blk', 'block')],
+	});
 	d.alternators.push(alternator('alt', 'alt', 'gnd', 300));
 	d.banks.push(bank('front', 'bat', 'gnd', { stringsInParallel: 2 }));
-	d.cables.push(cable('charge', 'alt', 'bat', { kind: 'awg', awg: '1/0' }, 1), cable('run', 'bat', 'blk', { kind: 'awg', awg: '1/0' }, 5, { parallelRuns: 2 }));
+	d.cables.push(
+		cable('charge', 'alt', 'bat', { kind: 'awg', awg: '1/0' }, 1),
+		cable('run', 'bat', 'blk', { kind: 'awg', awg: '1/0' }, 5, { parallelRuns: 2 }),
+	);
 	for (let i = 1; d.cables.length < 40; i++) {
 		d.nodes.push(node(`p${i}`, 'amplifier'), node(`n${i}`, 'amplifier'));
 		d.amplifiers.push(amp(`a${i}`, `p${i}`, `n${i}`, 150));
-		d.cables.push(cable(`f${i}`, 'blk', `p${i}`, { kind: 'awg', awg: '4' }, 1.5), cable(`g${i}`, `n${i}`, 'gnd', { kind: 'awg', awg: '4' }, 1));
+		d.cables.push(
+			cable(`f${i}`, 'blk', `p${i}`, { kind: 'awg', awg: '4' }, 1.5),
+			cable(`g${i}`, `n${i}`, 'gnd', { kind: 'awg', awg: '4' }, 1),
+		);
 	}
 	return d;
 }
-

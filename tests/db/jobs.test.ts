@@ -37,7 +37,10 @@ describe('scheduled mail jobs', () => {
 				{ team_id: teamId, name: 'Past Meet', starts_on: inDays(-2), ends_on: inDays(-2) },
 			])
 			.execute();
-		const [first, second] = await Promise.all([sendEventReminders(t.db, mail.mailer, TEST_CONFIG), sendEventReminders(t.db, mail.mailer, TEST_CONFIG)]);
+		const [first, second] = await Promise.all([
+			sendEventReminders(t.db, mail.mailer, TEST_CONFIG),
+			sendEventReminders(t.db, mail.mailer, TEST_CONFIG),
+		]);
 		expect(first + second).toBe(2);
 		expect(await sendEventReminders(t.db, mail.mailer, TEST_CONFIG)).toBe(0);
 		await mail.waitFor('remind.a@sagwise.test');
@@ -54,8 +57,21 @@ describe('scheduled mail jobs', () => {
 		const member = await makeUser(t.db, 'digest.member@sagwise.test');
 		await addMember(t.db, teamId, captain, 'captain');
 		await addMember(t.db, teamId, member, 'member');
-		const { buildId } = await insertVehicleWithBuild(t.db, { teamId, name: 'Digest car', description: '', competitionClass: '', notes: '', ownerId: null });
-		await appendRevision(t.db, { buildId, parentId: null, document: pebbleBuild, message: 'New run cable', authorId: member.id });
+		const { buildId } = await insertVehicleWithBuild(t.db, {
+			teamId,
+			name: 'Digest car',
+			description: '',
+			competitionClass: '',
+			notes: '',
+			ownerId: null,
+		});
+		await appendRevision(t.db, {
+			buildId,
+			parentId: null,
+			document: pebbleBuild,
+			message: 'New run cable',
+			authorId: member.id,
+		});
 		expect(await sendRevisionDigests(t.db, mail.mailer, TEST_CONFIG)).toBeGreaterThanOrEqual(1);
 		const digest = await mail.waitFor('digest.captain@sagwise.test');
 		expect(digest.text).toMatch(/Digest car r1: New run cable/);

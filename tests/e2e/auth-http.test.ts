@@ -35,8 +35,16 @@ describe('sign-in against the running app (Auth.js)', () => {
 	it('signs in with a one-time e-mail link that works once', async () => {
 		const s = new HttpSession(appUrl);
 		const email = DEMO_USERS[1].email;
-		const body = new URLSearchParams({ email, csrfToken: await s.csrf(), callbackUrl: `${appUrl}/teams` });
-		const res = await s.fetch('/api/auth/signin/nodemailer', { method: 'POST', body, headers: { 'content-type': 'application/x-www-form-urlencoded' } });
+		const body = new URLSearchParams({
+			email,
+			csrfToken: await s.csrf(),
+			callbackUrl: `${appUrl}/teams`,
+		});
+		const res = await s.fetch('/api/auth/signin/nodemailer', {
+			method: 'POST',
+			body,
+			headers: { 'content-type': 'application/x-www-form-urlencoded' },
+		});
 		expect(res.status).toBe(302);
 		const mail = await waitForMail(outbox, email);
 		expect(mail.subject).toMatch(/sign-in link/);
@@ -59,6 +67,8 @@ describe('sign-in against the running app (Auth.js)', () => {
 		expect(statuses.slice(0, 10).every((x) => x === 302)).toBe(true);
 		expect(statuses[10]).toBe(429);
 		// Another address is not affected.
-		expect((await new HttpSession(appUrl).signInWithPassword(DEMO_USERS[2].email, DEMO_PASSWORD)).status).toBe(302);
+		expect(
+			(await new HttpSession(appUrl).signInWithPassword(DEMO_USERS[2].email, DEMO_PASSWORD)).status,
+		).toBe(302);
 	});
 });

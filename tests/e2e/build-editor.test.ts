@@ -7,11 +7,14 @@ const appUrl = inject('appUrl');
 async function signInAndOpen(b: Browser, email: string, vehicle: string) {
 	await signInToTeam(b, appUrl, email, DEMO_PASSWORD, DEMO_TEAM_NAME);
 	await b.page.getByRole('link', { name: vehicle, exact: true }).click();
-	await b.page.waitForSelector('astro-island[component-export="BuildWorkspace"]:not([ssr])', { state: 'attached' });
+	await b.page.waitForSelector('astro-island[component-export="BuildWorkspace"]:not([ssr])', {
+		state: 'attached',
+	});
 	await b.page.getByRole('heading', { name: 'Cables: current, drop and protection' }).waitFor();
 }
 
-const dropOf = async (b: Browser, cableId: string) => Number((await b.page.getByTestId(`drop-${cableId}`).textContent())!.replace(/[^\d.]/g, ''));
+const dropOf = async (b: Browser, cableId: string) =>
+	Number((await b.page.getByTestId(`drop-${cableId}`).textContent())!.replace(/[^\d.]/g, ''));
 
 describe('editing a build in chromium', () => {
 	const opened: Browser[] = [];
@@ -40,7 +43,9 @@ describe('editing a build in chromium', () => {
 		const entry = b.page.locator('[data-revision="4"]');
 		await entry.waitFor();
 		await expect(entry.textContent()).resolves.toMatch(/Front-to-rear run from 4 AWG CCA to 1\/0/);
-		await expect(entry.textContent()).resolves.toMatch(/Cable “Front-to-rear run”: size \(AWG\) 4 → 1\/0/);
+		await expect(entry.textContent()).resolves.toMatch(
+			/Cable “Front-to-rear run”: size \(AWG\) 4 → 1\/0/,
+		);
 		await b.screenshot('build-history');
 		expect(b.problems).toEqual([]);
 	});
@@ -52,7 +57,9 @@ describe('editing a build in chromium', () => {
 		await expect(b.page.getByRole('button', { name: 'Save revision' }).count()).resolves.toBe(0);
 		await expect(b.page.getByRole('button', { name: '+ Add' }).count()).resolves.toBe(0);
 		await expect(b.page.getByRole('button', { name: /^Remove / }).count()).resolves.toBe(0);
-		await expect(b.page.getByLabel('Front-to-rear run: Cable').getAttribute('readonly')).resolves.not.toBeNull();
+		await expect(
+			b.page.getByLabel('Front-to-rear run: Cable').getAttribute('readonly'),
+		).resolves.not.toBeNull();
 		await expect(b.page.getByLabel('Front-to-rear run: Size').isDisabled()).resolves.toBe(true);
 		await b.screenshot('build-viewer');
 

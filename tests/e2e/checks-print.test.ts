@@ -16,8 +16,13 @@ describe('pre-event checklist in chromium', () => {
 		await signInToTeam(b, appUrl, DEMO_USERS[1].email, DEMO_PASSWORD, DEMO_TEAM_NAME);
 		await page.getByRole('link', { name: 'Events', exact: true }).click();
 		await page.getByRole('link', { name: 'Pre-event checks' }).first().click();
-		await page.getByRole('navigation', { name: 'Vehicles' }).getByRole('link', { name: 'Marlin' }).click();
-		await page.waitForSelector('astro-island[component-export="ChecklistView"]:not([ssr])', { state: 'attached' });
+		await page
+			.getByRole('navigation', { name: 'Vehicles' })
+			.getByRole('link', { name: 'Marlin' })
+			.click();
+		await page.waitForSelector('astro-island[component-export="ChecklistView"]:not([ssr])', {
+			state: 'attached',
+		});
 
 		// The demo builds run their amplifier feeds past the drop target: that computed item fails.
 		const status = page.getByRole('status').filter({ hasText: /computed item/ });
@@ -27,10 +32,18 @@ describe('pre-event checklist in chromium', () => {
 		await manual.getByText(/Signed off by Demo Member/).waitFor();
 
 		await page.emulateMedia({ media: 'print' });
-		await expect(page.getByRole('button', { name: 'Sign off' }).first().isVisible()).resolves.toBe(false);
-		await expect(page.getByRole('button', { name: 'Print the sheet' }).isVisible()).resolves.toBe(false);
+		await expect(page.getByRole('button', { name: 'Sign off' }).first().isVisible()).resolves.toBe(
+			false,
+		);
+		await expect(page.getByRole('button', { name: 'Print the sheet' }).isVisible()).resolves.toBe(
+			false,
+		);
 		await b.screenshot('checklist-print');
-		const pdf = await page.pdf({ format: 'A4', printBackground: true, margin: { top: '12mm', bottom: '12mm', left: '12mm', right: '12mm' } });
+		const pdf = await page.pdf({
+			format: 'A4',
+			printBackground: true,
+			margin: { top: '12mm', bottom: '12mm', left: '12mm', right: '12mm' },
+		});
 		writeFileSync(path.join(SCREENSHOT_DIR, 'checklist.pdf'), pdf);
 		expect(pdf.subarray(0, 5).toString()).toBe('%PDF-');
 		expect(pdf.byteLength).toBeGreaterThan(10_000);

@@ -3,7 +3,8 @@ import { DEMO_PASSWORD, DEMO_TEAM_NAME, DEMO_USERS } from '../../db/seed';
 import { type Browser, openBrowser, signInToTeam } from '../helpers/browser';
 
 const appUrl = inject('appUrl');
-const ready = (b: Browser) => b.page.waitForSelector('astro-island:not([ssr])', { state: 'attached' });
+const ready = (b: Browser) =>
+	b.page.waitForSelector('astro-island:not([ssr])', { state: 'attached' });
 
 describe('inviting a new member, in chromium', () => {
 	const opened: Browser[] = [];
@@ -22,7 +23,9 @@ describe('inviting a new member, in chromium', () => {
 		await ready(cap);
 		await cap.page.getByRole('textbox', { name: 'E-mail' }).fill(invitee);
 		await cap.page.getByRole('button', { name: 'Send invitation' }).click();
-		await expect(cap.page.getByText(`Invitation sent to ${invitee}`).waitFor()).resolves.toBeUndefined();
+		await expect(
+			cap.page.getByText(`Invitation sent to ${invitee}`).waitFor(),
+		).resolves.toBeUndefined();
 		await cap.page.getByRole('listitem').filter({ hasText: invitee }).waitFor();
 		await cap.screenshot('team-settings-after-invite');
 
@@ -30,7 +33,10 @@ describe('inviting a new member, in chromium', () => {
 		const inv = await openBrowser();
 		opened.push(inv);
 		await inv.page.goto(`${appUrl}/dev/outbox`);
-		await inv.page.getByRole('link', { name: new RegExp(`to ${invitee.replace(/[.]/g, '\\.')}`) }).first().click();
+		await inv.page
+			.getByRole('link', { name: new RegExp(`to ${invitee.replace(/[.]/g, '\\.')}`) })
+			.first()
+			.click();
 		await inv.screenshot('outbox-invitation');
 		await inv.page.locator('a[data-mail-link][href*="/invitations/"]').click();
 		await inv.page.getByRole('heading', { name: `Join ${DEMO_TEAM_NAME}` }).waitFor();

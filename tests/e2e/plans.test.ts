@@ -5,7 +5,8 @@ import { type Browser, openBrowser, signInToTeam } from '../helpers/browser';
 
 const appUrl = inject('appUrl');
 
-const signIn = (b: Browser, email: string) => signInToTeam(b, appUrl, email, DEMO_PASSWORD, DEMO_TEAM_NAME);
+const signIn = (b: Browser, email: string) =>
+	signInToTeam(b, appUrl, email, DEMO_PASSWORD, DEMO_TEAM_NAME);
 
 describe('upgrade plans in chromium', () => {
 	const opened: Browser[] = [];
@@ -19,19 +20,30 @@ describe('upgrade plans in chromium', () => {
 		await signIn(b, DEMO_USERS[0].email);
 		await b.page.getByRole('link', { name: 'Old Oak', exact: true }).click();
 		await b.page.getByRole('link', { name: 'Plans', exact: true }).click();
-		await b.page.waitForSelector('astro-island[component-export="PlansBoard"]:not([ssr])', { state: 'attached' });
+		await b.page.waitForSelector('astro-island[component-export="PlansBoard"]:not([ssr])', {
+			state: 'attached',
+		});
 		const [first, second] = DEMO_PLANS;
 		await b.page.getByLabel(`Compare ${first!.name}`).check();
 		await b.page.getByLabel(`Compare ${second!.name}`).check();
 		const table = b.page.getByRole('table', { name: 'Current build and plans side by side' });
 		await table.waitFor();
-		await expect(table.locator('thead th').allTextContents()).resolves.toEqual(['Figure', expect.stringMatching(/Current build/), expect.stringContaining(first!.name), expect.stringContaining(second!.name)]);
+		await expect(table.locator('thead th').allTextContents()).resolves.toEqual([
+			'Figure',
+			expect.stringMatching(/Current build/),
+			expect.stringContaining(first!.name),
+			expect.stringContaining(second!.name),
+		]);
 		// Both plans raise the weakest amplifier's voltage, so both show a positive dB figure.
 		const dbRow = table.getByRole('row', { name: /Output against the current build/ });
 		await expect(dbRow.textContent()).resolves.toMatch(/0\.00 dB.*\+0\.\d\d dB.*\+0\.\d\d dB/);
 		// The parts totals from the demo lists: 890 + 420 + 38.50 + 15 × 6.20 + 54 + 2 × 4.75 = 1310 + 38.50 + 93 + 54 + 9.50 = 1505.00.
-		await expect(table.getByRole('row', { name: /Parts cost/ }).textContent()).resolves.toContain('$1,505.00');
-		await b.page.getByRole('img', { name: 'Lowest amplifier voltage for the current build and each plan' }).waitFor();
+		await expect(table.getByRole('row', { name: /Parts cost/ }).textContent()).resolves.toContain(
+			'$1,505.00',
+		);
+		await b.page
+			.getByRole('img', { name: 'Lowest amplifier voltage for the current build and each plan' })
+			.waitFor();
 		await b.screenshot('plans-comparison');
 
 		b.page.once('dialog', (d) => void d.accept());
@@ -57,7 +69,9 @@ describe('upgrade plans in chromium', () => {
 		await b.page.getByRole('link', { name: 'Old Oak', exact: true }).click();
 		await b.page.getByRole('link', { name: 'Plans', exact: true }).click();
 		await b.page.getByRole('link', { name: DEMO_PLANS[1]!.name }).click();
-		await b.page.waitForSelector('astro-island[component-export="PlanWorkspace"]:not([ssr])', { state: 'attached' });
+		await b.page.waitForSelector('astro-island[component-export="PlanWorkspace"]:not([ssr])', {
+			state: 'attached',
+		});
 		// 2 × 575 + 48 × 6.20 + 16 × 4.75 + 2 × 32 = 1150 + 297.60 + 76 + 64 = 1587.60.
 		await expect(b.page.getByTestId('parts-total').textContent()).resolves.toBe('$1,587.60');
 		await b.page.getByRole('button', { name: '+ Add a part' }).click();
@@ -65,7 +79,9 @@ describe('upgrade plans in chromium', () => {
 		await b.page.getByLabel('Quantity 5').fill('4');
 		await b.page.getByLabel('Unit price 5').fill('2.505');
 		await b.page.getByText('Prices have at most two decimals').waitFor();
-		await expect(b.page.getByRole('button', { name: 'Save plan' }).isDisabled()).resolves.toBe(true);
+		await expect(b.page.getByRole('button', { name: 'Save plan' }).isDisabled()).resolves.toBe(
+			true,
+		);
 		await b.page.getByLabel('Unit price 5').fill('2.50');
 		await expect(b.page.getByTestId('parts-total').textContent()).resolves.toBe('$1,597.60');
 		// A reload before saving loses nothing: the draft comes back from this browser.
@@ -73,14 +89,20 @@ describe('upgrade plans in chromium', () => {
 		b.page.on('dialog', leave);
 		await b.page.reload();
 		b.page.off('dialog', leave);
-		await b.page.waitForSelector('astro-island[component-export="PlanWorkspace"]:not([ssr])', { state: 'attached' });
-		await b.page.getByText('Your unsaved changes to this plan from this browser are back.').waitFor();
+		await b.page.waitForSelector('astro-island[component-export="PlanWorkspace"]:not([ssr])', {
+			state: 'attached',
+		});
+		await b.page
+			.getByText('Your unsaved changes to this plan from this browser are back.')
+			.waitFor();
 		await expect(b.page.getByLabel('Unit price 5').inputValue()).resolves.toBe('2.50');
 		await b.page.getByRole('button', { name: 'Save plan' }).click();
 		await b.page.getByText('Plan saved.').waitFor();
 		await b.page.reload();
 		await expect(b.page.getByText(/unsaved changes/).count()).resolves.toBe(0);
-		await b.page.waitForSelector('astro-island[component-export="PlanWorkspace"]:not([ssr])', { state: 'attached' });
+		await b.page.waitForSelector('astro-island[component-export="PlanWorkspace"]:not([ssr])', {
+			state: 'attached',
+		});
 		await expect(b.page.getByLabel('Item 5').inputValue()).resolves.toBe('Terminal covers');
 		await b.page.getByRole('heading', { name: 'What the plan changes' }).waitFor();
 		await b.screenshot('plan-editor');
@@ -92,14 +114,19 @@ describe('upgrade plans in chromium', () => {
 		await signIn(b, DEMO_USERS[1].email);
 		await b.page.getByRole('link', { name: 'Marlin', exact: true }).click();
 		await b.page.getByRole('link', { name: 'Plans', exact: true }).click();
-		await b.page.waitForSelector('astro-island[component-export="PlansBoard"]:not([ssr])', { state: 'attached' });
+		await b.page.waitForSelector('astro-island[component-export="PlansBoard"]:not([ssr])', {
+			state: 'attached',
+		});
 		await b.page.getByText('No plans yet.', { exact: false }).waitFor();
 		await b.page.getByLabel('New plan').fill('Third AGM string');
 		await b.page.getByRole('button', { name: 'Start the plan' }).click();
-		await b.page.waitForSelector('astro-island[component-export="PlanWorkspace"]:not([ssr])', { state: 'attached' });
-		await expect(b.page.getByRole('heading', { level: 1 }).textContent()).resolves.toBe('Plan: Third AGM string');
+		await b.page.waitForSelector('astro-island[component-export="PlanWorkspace"]:not([ssr])', {
+			state: 'attached',
+		});
+		await expect(b.page.getByRole('heading', { level: 1 }).textContent()).resolves.toBe(
+			'Plan: Third AGM string',
+		);
 		await b.page.getByText(/Nothing yet: the plan is the same as revision 3/).waitFor();
 		expect(b.problems).toEqual([]);
 	});
 });
-

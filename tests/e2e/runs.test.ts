@@ -18,7 +18,9 @@ describe('logging a run in chromium', () => {
 		await signInToTeam(b, appUrl, DEMO_USERS[1].email, DEMO_PASSWORD, DEMO_TEAM_NAME);
 		await p.getByRole('link', { name: 'Pebble', exact: true }).click();
 		await p.getByRole('link', { name: 'Runs', exact: true }).click();
-		await p.waitForSelector('astro-island[component-export="VehicleRuns"]:not([ssr])', { state: 'attached' });
+		await p.waitForSelector('astro-island[component-export="VehicleRuns"]:not([ssr])', {
+			state: 'attached',
+		});
 		const chart = p.getByTestId('score-vs-voltage');
 		const before = Number(await chart.getAttribute('data-points'));
 
@@ -38,8 +40,12 @@ describe('logging a run in chromium', () => {
 		const analysis = p.getByLabel('Analysis of the logger file');
 		await analysis.waitFor();
 		// The hand computation of the four-sample file: 12.2 V minimum, 200 A peak, 1.19 Wh, 2.00 mΩ.
-		await expect(analysis.textContent()).resolves.toMatch(/12\.20 V.*200 A.*1\.19 Wh.*2\.00 mΩ.*12\.60 V/s);
-		await expect(p.getByRole('img', { name: 'Voltage and current over the run' }).count()).resolves.toBe(1);
+		await expect(analysis.textContent()).resolves.toMatch(
+			/12\.20 V.*200 A.*1\.19 Wh.*2\.00 mΩ.*12\.60 V/s,
+		);
+		await expect(
+			p.getByRole('img', { name: 'Voltage and current over the run' }).count(),
+		).resolves.toBe(1);
 		await expect.poll(async () => Number(await chart.getAttribute('data-points'))).toBe(before + 1);
 		await b.screenshot('run-logged');
 		expect(b.problems).toEqual([]);

@@ -37,7 +37,15 @@ describe('alternatorLimitA', () => {
 	});
 
 	it('derates a cold curve by the hot factor (the manual’s hot/cold ratio at 2500 rpm is 41/50 = 0.82)', () => {
-		const cold = { ...marine, curve: [{ rpm: 1300, currentA: 24 }, { rpm: 2500, currentA: 50 }], curveIsCold: true, hotFactor: 0.82 };
+		const cold = {
+			...marine,
+			curve: [
+				{ rpm: 1300, currentA: 24 },
+				{ rpm: 2500, currentA: 50 },
+			],
+			curveIsCold: true,
+			hotFactor: 0.82,
+		};
 		expect(alternatorLimitA(cold, 2500 / 1.78)).toBeCloseTo(41, 9);
 	});
 

@@ -1,9 +1,25 @@
 import { describe, expect, it } from 'vitest';
-import { amplifierCurrentA, amplifierDraw, amplifierDrawCurrent, amplifierInputPowerW, availableOutputW, outputLossDb, powerRatioDb, unregulatedOutputW, voltageRatioDb } from '../../src/engine/amplifier';
+import {
+	amplifierCurrentA,
+	amplifierDraw,
+	amplifierDrawCurrent,
+	amplifierInputPowerW,
+	availableOutputW,
+	outputLossDb,
+	powerRatioDb,
+	unregulatedOutputW,
+	voltageRatioDb,
+} from '../../src/engine/amplifier';
 
 // CEA-2006 rates mobile amplifiers at 14.4 V. Worked example (computed from I = P/(V·η) and P ∝ V²):
 // 2000 W rated at 14.4 V, η = 0.80, unregulated, driven to clipping.
-const amp = { ratedPowerW: 2000, ratedVoltageV: 14.4, efficiency: 0.8, quantity: 1, regulated: false };
+const amp = {
+	ratedPowerW: 2000,
+	ratedVoltageV: 14.4,
+	efficiency: 0.8,
+	quantity: 1,
+	regulated: false,
+};
 
 describe('unregulatedOutputW and supply current', () => {
 	it.each([
@@ -32,7 +48,10 @@ describe('unregulatedOutputW and supply current', () => {
 	});
 
 	it('multiplies input power by quantity and divides by efficiency', () => {
-		expect(amplifierInputPowerW({ ...amp, quantity: 3 }, 1 / 8)).toBeCloseTo((3 * 2000) / 8 / 0.8, 9);
+		expect(amplifierInputPowerW({ ...amp, quantity: 3 }, 1 / 8)).toBeCloseTo(
+			(3 * 2000) / 8 / 0.8,
+			9,
+		);
 	});
 });
 

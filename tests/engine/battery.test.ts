@@ -1,6 +1,14 @@
 import { describe, expect, it } from 'vitest';
 import { bankCarryHours } from '../../src/engine/budget';
-import { bankChargeTargets, bankThevenin, cellOcv, chargeAcceptanceA, peukertEffectiveCurrentA, peukertHours, socAtCellOcv } from '../../src/engine/battery';
+import {
+	bankChargeTargets,
+	bankThevenin,
+	cellOcv,
+	chargeAcceptanceA,
+	peukertEffectiveCurrentA,
+	peukertHours,
+	socAtCellOcv,
+} from '../../src/engine/battery';
 import { bank } from '../helpers/networks';
 
 describe('peukertHours', () => {
@@ -42,7 +50,13 @@ describe('peukertHours', () => {
 describe('bankThevenin', () => {
 	// Series/parallel equivalents (physics): V = Ns·V_cell, R = Ns·R/Np, C = Np·C.
 	it('puts four 12.8 V, 4 mΩ units in parallel as 12.8 V, 1.0 mΩ', () => {
-		const b = bank('b', 'p', 'n', { chemistry: 'lfp', cellsPerUnit: 4, stringsInParallel: 4, unitResistanceOhm: 0.004, stateOfCharge: 1 });
+		const b = bank('b', 'p', 'n', {
+			chemistry: 'lfp',
+			cellsPerUnit: 4,
+			stringsInParallel: 4,
+			unitResistanceOhm: 0.004,
+			stateOfCharge: 1,
+		});
 		const th = bankThevenin(b, 0.6);
 		expect(th.resistanceOhm).toBeCloseTo(0.001, 12);
 		expect(th.capacityAh).toBe(400);
@@ -51,10 +65,21 @@ describe('bankThevenin', () => {
 	it('gives a 4s LiFePO4 string of 3.3 V, 0.5 mΩ cells as 13.2 V, 2.0 mΩ and 5s as 16.5 V, 2.5 mΩ', () => {
 		// cellOcv('lfp', 0.6) is 3.30 V on our plateau table.
 		expect(cellOcv('lfp', 0.6)).toBeCloseTo(3.3, 9);
-		const four = bankThevenin(bank('b', 'p', 'n', { chemistry: 'lfp', cellsPerUnit: 4, unitResistanceOhm: 0.002 }), 0.6);
+		const four = bankThevenin(
+			bank('b', 'p', 'n', { chemistry: 'lfp', cellsPerUnit: 4, unitResistanceOhm: 0.002 }),
+			0.6,
+		);
 		expect(four.ocvV).toBeCloseTo(13.2, 9);
 		expect(four.resistanceOhm).toBeCloseTo(0.002, 12);
-		const five = bankThevenin(bank('b', 'p', 'n', { chemistry: 'lfp', cellsPerUnit: 5, unitResistanceOhm: 0.0025, stringsInParallel: 2 }), 0.6);
+		const five = bankThevenin(
+			bank('b', 'p', 'n', {
+				chemistry: 'lfp',
+				cellsPerUnit: 5,
+				unitResistanceOhm: 0.0025,
+				stringsInParallel: 2,
+			}),
+			0.6,
+		);
 		expect(five.ocvV).toBeCloseTo(16.5, 9);
 		expect(five.resistanceOhm).toBeCloseTo(0.00125, 12);
 	});
@@ -74,7 +99,8 @@ describe('cellOcv', () => {
 
 	it('inverts: socAtCellOcv(cellOcv(s)) = s', () => {
 		for (const chem of ['flooded', 'agm', 'lfp'] as const) {
-			for (const s of [0.05, 0.3, 0.55, 0.85, 0.97]) expect(socAtCellOcv(chem, cellOcv(chem, s))).toBeCloseTo(s, 9);
+			for (const s of [0.05, 0.3, 0.55, 0.85, 0.97])
+				expect(socAtCellOcv(chem, cellOcv(chem, s))).toBeCloseTo(s, 9);
 		}
 	});
 });
@@ -89,11 +115,15 @@ describe('bankChargeTargets', () => {
 	});
 
 	it('gives a 5-cell LiFePO4 unit an 18.25 V limit', () => {
-		expect(bankChargeTargets(bank('b', 'p', 'n', { chemistry: 'lfp', cellsPerUnit: 5 })).maxV).toBeCloseTo(18.25, 9);
+		expect(
+			bankChargeTargets(bank('b', 'p', 'n', { chemistry: 'lfp', cellsPerUnit: 5 })).maxV,
+		).toBeCloseTo(18.25, 9);
 	});
 
 	it('scales per-unit overrides by units in series', () => {
-		const t = bankChargeTargets(bank('b', 'p', 'n', { unitsInSeries: 2, absorptionV: 14.6, floatV: 13.6 }));
+		const t = bankChargeTargets(
+			bank('b', 'p', 'n', { unitsInSeries: 2, absorptionV: 14.6, floatV: 13.6 }),
+		);
 		expect(t.absorptionV).toBeCloseTo(29.2, 9);
 	});
 });
@@ -113,7 +143,12 @@ describe('chargeAcceptanceA', () => {
 
 describe('bankCarryHours', () => {
 	it('applies Peukert to the usable fraction above the cut-off', () => {
-		const b = bank('b', 'p', 'n', { chemistry: 'agm', stateOfCharge: 1, unitResistanceOhm: 1e-9, peukertK: 1.1 });
+		const b = bank('b', 'p', 'n', {
+			chemistry: 'agm',
+			stateOfCharge: 1,
+			unitResistanceOhm: 1e-9,
+			peukertK: 1.1,
+		});
 		// With no resistance the cut-off at the 0 % rested voltage leaves the whole capacity.
 		expect(bankCarryHours(b, 50, 12.0)).toBeCloseTo(peukertHours(100, 20, 50, 1.1), 6);
 		// A cut-off at the 50 % rested voltage leaves half.

@@ -8,7 +8,8 @@ import { runBurp } from '../../src/engine/burp';
 import { solveNetwork } from '../../src/engine/solve';
 
 const AT = { engineRpm: 1500, demand: 1, conductorTempC: 25 };
-const lowestAt = (doc: typeof marlinBuild, demand: number) => Math.min(...solveNetwork(doc, { ...AT, demand }).amplifiers.map((a) => a.terminalV));
+const lowestAt = (doc: typeof marlinBuild, demand: number) =>
+	Math.min(...solveNetwork(doc, { ...AT, demand }).amplifiers.map((a) => a.terminalV));
 
 describe('comparePlans', () => {
 	const [first, second] = upgradeHints(marlinBuild, AT);
@@ -29,10 +30,18 @@ describe('comparePlans', () => {
 			expect(columns[i]!.lowestAmplifierV.sustained).toBeCloseTo(lowestAt(doc, 1 / 8), 9);
 			const r = buildReport(doc, { engineRpm: 1500, conductorTempC: 25 }, { burpRun: false });
 			expect(columns[i]!.warnings).toBe(r.ok ? r.warnings.length : -1);
-			const run = runBurp(doc, { engineRpm: 1500, demand: 1, conductorTempC: 25, durationS: DEFAULT_SCENARIO.burpSeconds, stepS: DEFAULT_SCENARIO.burpStepS });
-			for (const a of columns[i]!.amplifiers) expect(a.burpRunMinV).toBeCloseTo(run.amplifierMinV[a.id]!, 9);
+			const run = runBurp(doc, {
+				engineRpm: 1500,
+				demand: 1,
+				conductorTempC: 25,
+				durationS: DEFAULT_SCENARIO.burpSeconds,
+				stepS: DEFAULT_SCENARIO.burpStepS,
+			});
+			for (const a of columns[i]!.amplifiers)
+				expect(a.burpRunMinV).toBeCloseTo(run.amplifierMinV[a.id]!, 9);
 			// The time-stepped burp only sags from the steady burp point as the banks discharge.
-			for (const a of columns[i]!.amplifiers) expect(a.burpRunMinV!).toBeLessThanOrEqual(a.burpV + 1e-9);
+			for (const a of columns[i]!.amplifiers)
+				expect(a.burpRunMinV!).toBeLessThanOrEqual(a.burpV + 1e-9);
 		}
 	});
 

@@ -18,9 +18,11 @@ import type { AwgSize, Material } from '../../src/engine/types';
 
 const FT = 0.3048;
 /** The solid-formula figure (ρ/A), as the wire tables print it. */
-const solidOhmPerKft = (awg: AwgSize, material: Material, tempC = 20) => solidResistancePerMetre({ kind: 'awg', awg }, material, tempC) * 1000 * FT;
+const solidOhmPerKft = (awg: AwgSize, material: Material, tempC = 20) =>
+	solidResistancePerMetre({ kind: 'awg', awg }, material, tempC) * 1000 * FT;
 /** What the engine uses for a stranded cable (with the lay increment). */
-const ohmPerKft = (awg: AwgSize, material: Material, tempC = 20) => resistancePerMetre({ kind: 'awg', awg }, material, tempC) * 1000 * FT;
+const ohmPerKft = (awg: AwgSize, material: Material, tempC = 20) =>
+	resistancePerMetre({ kind: 'awg', awg }, material, tempC) * 1000 * FT;
 
 describe('awgDiameterIn', () => {
 	// ASTM B258 definition: No. 36 = 0.0050 in, No. 0000 = 0.4600 in, 39 geometric steps.
@@ -123,7 +125,10 @@ describe('resistancePerMetre', () => {
 		expect(solidOhmPerKft(awg, 'cca10')).toBeCloseTo(cca10, 4);
 		expect(solidOhmPerKft(awg, 'cca15')).toBeCloseTo(cca15, 4);
 		// Stranded: the ASTM B8 lay increment on top.
-		expect(ohmPerKft(awg, 'copper') / solidOhmPerKft(awg, 'copper')).toBeCloseTo(STRANDING_FACTOR, 12);
+		expect(ohmPerKft(awg, 'copper') / solidOhmPerKft(awg, 'copper')).toBeCloseTo(
+			STRANDING_FACTOR,
+			12,
+		);
 	});
 
 	// NEC (NFPA 70) Chapter 9 Table 8, DC resistance at 75 °C, stranded uncoated copper and
@@ -166,8 +171,18 @@ describe('resistancePerMetre', () => {
 
 describe('cableResistanceOhm', () => {
 	it('divides by parallel runs and scales with length (Ohm’s law, R = ρL/A)', () => {
-		const one = cableResistanceOhm({ size: { kind: 'awg', awg: '1/0' }, material: 'copper', lengthM: 20 * FT, parallelRuns: 1 });
-		const two = cableResistanceOhm({ size: { kind: 'awg', awg: '1/0' }, material: 'copper', lengthM: 20 * FT, parallelRuns: 2 });
+		const one = cableResistanceOhm({
+			size: { kind: 'awg', awg: '1/0' },
+			material: 'copper',
+			lengthM: 20 * FT,
+			parallelRuns: 1,
+		});
+		const two = cableResistanceOhm({
+			size: { kind: 'awg', awg: '1/0' },
+			material: 'copper',
+			lengthM: 20 * FT,
+			parallelRuns: 2,
+		});
 		// Worked example: 1/0 copper, 20 ft loop at 20 °C = 1.9650 mΩ solid (0.09825 Ω/kft × 20 ft),
 		// times the lay increment for stranded cable.
 		expect(one * 1000).toBeCloseTo(1.965 * STRANDING_FACTOR, 3);
@@ -176,8 +191,18 @@ describe('cableResistanceOhm', () => {
 
 	it('accepts a measured cross-section for cable sold under a gauge it does not meet', () => {
 		// A marine-cable catalogue gives SAE "4 gauge" as 37 360 cmil against 41 740 for 4 AWG.
-		const sae4 = cableResistanceOhm({ size: { kind: 'measured', areaMm2: 37360 * MM2_PER_CMIL }, material: 'copper', lengthM: 1, parallelRuns: 1 });
-		const awg4 = cableResistanceOhm({ size: { kind: 'awg', awg: '4' }, material: 'copper', lengthM: 1, parallelRuns: 1 });
+		const sae4 = cableResistanceOhm({
+			size: { kind: 'measured', areaMm2: 37360 * MM2_PER_CMIL },
+			material: 'copper',
+			lengthM: 1,
+			parallelRuns: 1,
+		});
+		const awg4 = cableResistanceOhm({
+			size: { kind: 'awg', awg: '4' },
+			material: 'copper',
+			lengthM: 1,
+			parallelRuns: 1,
+		});
 		expect(sae4 / awg4).toBeCloseTo(41738 / 37360, 3);
 	});
 });
@@ -207,32 +232,69 @@ describe('ampacityEstimate', () => {
 		['4', 60, 105],
 		['2/0', 200, 370],
 	] as const)('reads %s AWG at %d °C insulation as %d A', (awg, insulationC, amps) => {
-		const est = ampacityEstimate({ size: { kind: 'awg', awg }, material: 'copper', parallelRuns: 1, insulationC });
+		const est = ampacityEstimate({
+			size: { kind: 'awg', awg },
+			material: 'copper',
+			parallelRuns: 1,
+			insulationC,
+		});
 		expect(est).toEqual({ currentA: amps, basis: 'table', columnC: insulationC });
 	});
 
 	it('uses the highest column not above the insulation rating', () => {
-		const est = ampacityEstimate({ size: { kind: 'awg', awg: '4' }, material: 'copper', parallelRuns: 1, insulationC: 100 });
+		const est = ampacityEstimate({
+			size: { kind: 'awg', awg: '4' },
+			material: 'copper',
+			parallelRuns: 1,
+			insulationC: 100,
+		});
 		expect(est?.columnC).toBe(90);
 		expect(est?.currentA).toBe(135);
 	});
 
 	it('interpolates a metric size between its AWG neighbours and adds parallel runs', () => {
-		const mm50 = ampacityEstimate({ size: { kind: 'mm2', mm2: 50 }, material: 'copper', parallelRuns: 1, insulationC: 105 })!;
+		const mm50 = ampacityEstimate({
+			size: { kind: 'mm2', mm2: 50 },
+			material: 'copper',
+			parallelRuns: 1,
+			insulationC: 105,
+		})!;
 		expect(mm50.basis).toBe('interpolated');
 		expect(mm50.currentA).toBeGreaterThan(245); // 1 AWG, 42.4 mm²
 		expect(mm50.currentA).toBeLessThan(285); // 1/0 AWG, 53.5 mm²
-		const doubled = ampacityEstimate({ size: { kind: 'mm2', mm2: 50 }, material: 'copper', parallelRuns: 2, insulationC: 105 })!;
+		const doubled = ampacityEstimate({
+			size: { kind: 'mm2', mm2: 50 },
+			material: 'copper',
+			parallelRuns: 2,
+			insulationC: 105,
+		})!;
 		expect(doubled.currentA).toBeCloseTo(2 * mm50.currentA, 9);
 	});
 
 	it('refuses to guess below the lowest rated column', () => {
-		expect(ampacityEstimate({ size: { kind: 'awg', awg: '4' }, material: 'copper', parallelRuns: 1, insulationC: 50 })).toBeNull();
+		expect(
+			ampacityEstimate({
+				size: { kind: 'awg', awg: '4' },
+				material: 'copper',
+				parallelRuns: 1,
+				insulationC: 50,
+			}),
+		).toBeNull();
 	});
 
 	it('derates aluminium-based conductors for equal heating, √(ρCu/ρ)', () => {
-		const cu = ampacityEstimate({ size: { kind: 'awg', awg: '4' }, material: 'copper', parallelRuns: 1, insulationC: 105 })!;
-		const cca = ampacityEstimate({ size: { kind: 'awg', awg: '4' }, material: 'cca10', parallelRuns: 1, insulationC: 105 })!;
+		const cu = ampacityEstimate({
+			size: { kind: 'awg', awg: '4' },
+			material: 'copper',
+			parallelRuns: 1,
+			insulationC: 105,
+		})!;
+		const cca = ampacityEstimate({
+			size: { kind: 'awg', awg: '4' },
+			material: 'cca10',
+			parallelRuns: 1,
+			insulationC: 105,
+		})!;
 		expect(cca.currentA).toBeCloseTo(cu.currentA * Math.sqrt(0.629), 9);
 	});
 });

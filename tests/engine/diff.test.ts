@@ -14,9 +14,20 @@ describe('diffBuilds', () => {
 		next.loads = [];
 		next.nodes.push({ id: 'blk2', label: 'Second block', kind: 'block' });
 		const changes = diffBuilds(pebbleBuild, next);
-		expect(changes.map((c) => `${c.kind}:${c.group}:${c.id}`)).toEqual(['added:nodes:blk2', 'removed:loads:vehicle', 'changed:cables:charge', 'changed:cables:run']);
+		expect(changes.map((c) => `${c.kind}:${c.group}:${c.id}`)).toEqual([
+			'added:nodes:blk2',
+			'removed:loads:vehicle',
+			'changed:cables:charge',
+			'changed:cables:run',
+		]);
 		const charge = changes.find((c) => c.id === 'charge')!;
-		expect(charge.fields.map((f) => f.field)).toEqual(['fuses.0.distanceM', 'fuses.0.end', 'fuses.0.ratingA']);
-		expect(changes.find((c) => c.id === 'run')!.fields).toEqual([{ field: 'lengthM', before: pebbleBuild.cables[3]!.lengthM, after: 6 }]);
+		expect(charge.fields.map((f) => f.field)).toEqual([
+			'fuses.0.distanceM',
+			'fuses.0.end',
+			'fuses.0.ratingA',
+		]);
+		expect(changes.find((c) => c.id === 'run')!.fields).toEqual([
+			{ field: 'lengthM', before: pebbleBuild.cables[3]!.lengthM, after: 6 },
+		]);
 	});
 });

@@ -14,7 +14,12 @@ describe('adviseFuse', () => {
 		['1/0', 285, 427.5],
 		['4/0', 445, 667.5],
 	] as const)('caps the fuse for %s AWG at %f A', (awg, amps, maxA) => {
-		const capacity = ampacityEstimate({ size: { kind: 'awg', awg }, material: 'copper', parallelRuns: 1, insulationC: 105 })!;
+		const capacity = ampacityEstimate({
+			size: { kind: 'awg', awg },
+			material: 'copper',
+			parallelRuns: 1,
+			insulationC: 105,
+		})!;
 		expect(capacity.currentA).toBe(amps);
 		const advice = adviseFuse(100, capacity.currentA);
 		expect(advice).toMatchObject({ status: 'ok', maxA });

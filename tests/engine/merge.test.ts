@@ -22,7 +22,13 @@ describe('mergePlan', () => {
 	it('keeps the head’s changes and applies the plan’s, additions and removals included', () => {
 		const plan = edit((d) => {
 			d.cables.find((c) => c.id === 'run')!.size = { kind: 'awg', awg: '4/0' };
-			d.loads.push({ id: 'lights', label: 'Show lights', positive: 'front_pos', negative: 'chassis', currentA: 6 });
+			d.loads.push({
+				id: 'lights',
+				label: 'Show lights',
+				positive: 'front_pos',
+				negative: 'chassis',
+				currentA: 6,
+			});
 			d.amplifiers = d.amplifiers.filter((a) => a.id !== 'mids');
 			d.cables = d.cables.filter((c) => c.id !== 'mids_feed' && c.id !== 'mids_gnd');
 			d.nodes = d.nodes.filter((n) => n.id !== 'mids_pos' && n.id !== 'mids_neg');
@@ -38,7 +44,10 @@ describe('mergePlan', () => {
 			['vehicle', 30],
 			['lights', 6],
 		]);
-		expect(r.document.cables.find((c) => c.id === 'run')!.size).toEqual({ kind: 'awg', awg: '4/0' });
+		expect(r.document.cables.find((c) => c.id === 'run')!.size).toEqual({
+			kind: 'awg',
+			awg: '4/0',
+		});
 		expect(r.document.amplifiers.map((a) => a.id)).toEqual(['sub1', 'sub2']);
 		expect(r.document.cables.some((c) => c.id === 'mids_feed')).toBe(false);
 	});
@@ -48,8 +57,30 @@ describe('mergePlan', () => {
 		expect(mergePlan(base, same, same).ok).toBe(true);
 		const plan = edit((d) => (d.loads[0]!.currentA = 45));
 		const head = edit((d) => (d.loads[0]!.currentA = 33));
-		expect(mergePlan(base, plan, head)).toEqual({ ok: false, conflicts: [{ group: 'loads', id: 'vehicle', label: 'Vehicle electrics', plan: 'changed', head: 'changed' }] });
+		expect(mergePlan(base, plan, head)).toEqual({
+			ok: false,
+			conflicts: [
+				{
+					group: 'loads',
+					id: 'vehicle',
+					label: 'Vehicle electrics',
+					plan: 'changed',
+					head: 'changed',
+				},
+			],
+		});
 		const removedInHead = edit((d) => (d.loads = []));
-		expect(mergePlan(base, plan, removedInHead)).toEqual({ ok: false, conflicts: [{ group: 'loads', id: 'vehicle', label: 'Vehicle electrics', plan: 'changed', head: 'removed' }] });
+		expect(mergePlan(base, plan, removedInHead)).toEqual({
+			ok: false,
+			conflicts: [
+				{
+					group: 'loads',
+					id: 'vehicle',
+					label: 'Vehicle electrics',
+					plan: 'changed',
+					head: 'removed',
+				},
+			],
+		});
 	});
 });

@@ -5,16 +5,30 @@ import { bankThevenin, chargeAcceptanceA } from '../../src/engine/battery';
 import { buildReport } from '../../src/engine/report';
 import { solveNetwork } from '../../src/engine/solve';
 import type { BuildDocument } from '../../src/engine/types';
-import { alternator, amp, bank, cable, doc, node, randomNetwork, steady } from '../helpers/networks';
+import {
+	alternator,
+	amp,
+	bank,
+	cable,
+	doc,
+	node,
+	randomNetwork,
+	steady,
+} from '../helpers/networks';
 
 const FT = 0.3048;
 const AT = { engineRpm: 1000, demand: 1, conductorTempC: 20 };
 
 /** One loop: a stiff source, 17 ft of 1/0 copper out and 3 ft back (worked examples WE1, WE3). */
-function loop(load: { amp?: number; steadyA?: number }, over: Parameters<typeof cable>[5] = {}): BuildDocument {
+function loop(
+	load: { amp?: number; steadyA?: number },
+	over: Parameters<typeof cable>[5] = {},
+): BuildDocument {
 	return doc({
 		nodes: [node('gnd', 'chassis'), node('src'), node('lp'), node('ln')],
-		alternators: [alternator('alt', 'src', 'gnd', 5000, { setPointV: 12, sourceResistanceOhm: 1e-6 })],
+		alternators: [
+			alternator('alt', 'src', 'gnd', 5000, { setPointV: 12, sourceResistanceOhm: 1e-6 }),
+		],
 		amplifiers: load.amp ? [amp('a', 'lp', 'ln', load.amp)] : [],
 		loads: load.steadyA ? [steady('l', 'lp', 'ln', load.steadyA)] : [],
 		cables: [
@@ -24,8 +38,10 @@ function loop(load: { amp?: number; steadyA?: number }, over: Parameters<typeof 
 	});
 }
 
-const loopDrop = (s: ReturnType<typeof solveNetwork>) => s.cables.reduce((sum, c) => sum + c.dropV, 0);
-const loopLoss = (s: ReturnType<typeof solveNetwork>) => s.cables.reduce((sum, c) => sum + c.lossW, 0);
+const loopDrop = (s: ReturnType<typeof solveNetwork>) =>
+	s.cables.reduce((sum, c) => sum + c.dropV, 0);
+const loopLoss = (s: ReturnType<typeof solveNetwork>) =>
+	s.cables.reduce((sum, c) => sum + c.lossW, 0);
 
 describe('solveNetwork: loop drop and loss (Ohm’s law, worked example WE1)', () => {
 	// 1/0 AWG, 20 ft loop, 150 A. R from 0.09825 Ω/kft at 20 °C (solid formula); V = I·R, P = I²·R.
@@ -101,7 +117,10 @@ describe('solveNetwork: bus voltage with an alternator in current limit (worked 
 	});
 
 	it('settles at 12.4737 V with two such batteries in parallel', () => {
-		const s = solveNetwork(bus([bank('b1', 'bus', 'gnd'), bank('b2', 'bus', 'gnd')], 150, 3000), AT);
+		const s = solveNetwork(
+			bus([bank('b1', 'bus', 'gnd'), bank('b2', 'bus', 'gnd')], 150, 3000),
+			AT,
+		);
 		expect(s.nodeVoltages.bus).toBeCloseTo(12.4737, 4);
 		expect(s.amplifiers[0]!.currentA).toBeCloseTo(240.51, 2);
 	});
@@ -113,7 +132,12 @@ describe('solveNetwork: bus voltage with an alternator in current limit (worked 
 	});
 
 	it('settles at 12.9264 V on a 13.2 V / 2 mΩ LiFePO4 bank with 250 A and 5000 W', () => {
-		const lfp = bank('b', 'bus', 'gnd', { chemistry: 'lfp', cellsPerUnit: 4, unitResistanceOhm: 0.002, stateOfCharge: 0.6 });
+		const lfp = bank('b', 'bus', 'gnd', {
+			chemistry: 'lfp',
+			cellsPerUnit: 4,
+			unitResistanceOhm: 0.002,
+			stateOfCharge: 0.6,
+		});
 		const s = solveNetwork(bus([lfp], 250, 5000), AT);
 		expect(s.nodeVoltages.bus).toBeCloseTo(12.9264, 4);
 		expect(s.amplifiers[0]!.currentA).toBeCloseTo(386.81, 2);
@@ -147,8 +171,18 @@ describe('solveNetwork: unequal batteries in parallel (Millman, worked example W
 	it('settles at 12.6231 V with 15.38 A circulating', () => {
 		// 12.7 V / 5 mΩ with 12.5 V / 8 mΩ. A generous charge acceptance keeps the weaker battery
 		// on its plain internal resistance, as in the linear textbook case.
-		const weak = bank('b2', 'bus', 'gnd', { stateOfCharge: 0.5 + 0.25 * 0.5, unitResistanceOhm: 0.008, maxChargeC: 10 }); // AGM: 12.5 V
-		const s = solveNetwork(doc({ nodes: [node('gnd', 'chassis'), node('bus')], banks: [bank('b1', 'bus', 'gnd', { maxChargeC: 10 }), weak] }), AT);
+		const weak = bank('b2', 'bus', 'gnd', {
+			stateOfCharge: 0.5 + 0.25 * 0.5,
+			unitResistanceOhm: 0.008,
+			maxChargeC: 10,
+		}); // AGM: 12.5 V
+		const s = solveNetwork(
+			doc({
+				nodes: [node('gnd', 'chassis'), node('bus')],
+				banks: [bank('b1', 'bus', 'gnd', { maxChargeC: 10 }), weak],
+			}),
+			AT,
+		);
 		expect(s.banks[1]!.ocvV).toBeCloseTo(12.5, 9);
 		expect(s.nodeVoltages.bus).toBeCloseTo(12.6231, 4);
 		expect(s.banks[0]!.currentA).toBeCloseTo(15.38, 2);
@@ -215,35 +249,55 @@ describe('solveNetwork: laws on generated networks (fast-check)', () => {
 
 	it('never lowers a cable’s drop when it gets longer or thinner', () => {
 		fc.assert(
-			fc.property(seeds, fc.nat(), fc.double({ min: 1.01, max: 3, noNaN: true }), fc.boolean(), (seed, pick, factor, thinner) => {
-				const d = randomNetwork(seed);
-				const i = pick % d.cables.length;
-				const before = solveNetwork(d, { ...AT, engineRpm: 1500 });
-				const changed = structuredClone(d);
-				const c = changed.cables[i]!;
-				if (thinner) c.size = { kind: 'measured', areaMm2: cableAreaMm2(c.size) / factor };
-				else c.lengthM *= factor;
-				const after = solveNetwork(changed, { ...AT, engineRpm: 1500 });
-				expect(Math.abs(after.cables[i]!.dropV)).toBeGreaterThanOrEqual(Math.abs(before.cables[i]!.dropV) - 1e-9);
-			}),
+			fc.property(
+				seeds,
+				fc.nat(),
+				fc.double({ min: 1.01, max: 3, noNaN: true }),
+				fc.boolean(),
+				(seed, pick, factor, thinner) => {
+					const d = randomNetwork(seed);
+					const i = pick % d.cables.length;
+					const before = solveNetwork(d, { ...AT, engineRpm: 1500 });
+					const changed = structuredClone(d);
+					const c = changed.cables[i]!;
+					if (thinner) c.size = { kind: 'measured', areaMm2: cableAreaMm2(c.size) / factor };
+					else c.lengthM *= factor;
+					const after = solveNetwork(changed, { ...AT, engineRpm: 1500 });
+					expect(Math.abs(after.cables[i]!.dropV)).toBeGreaterThanOrEqual(
+						Math.abs(before.cables[i]!.dropV) - 1e-9,
+					);
+				},
+			),
 			{ numRuns: 80 },
 		);
 	});
 
 	it('never raises an amplifier’s voltage when its single feed gets longer or thinner', () => {
 		fc.assert(
-			fc.property(fc.double({ min: 0.3, max: 8, noNaN: true }), fc.double({ min: 1.01, max: 3, noNaN: true }), fc.double({ min: 200, max: 4000, noNaN: true }), (lengthM, factor, watts) => {
-				const one = (len: number, area: number) =>
-					doc({
-						nodes: [node('gnd', 'chassis'), node('bp'), node('ap'), node('an')],
-						banks: [bank('b', 'bp', 'gnd')],
-						amplifiers: [amp('a', 'ap', 'an', watts)],
-						cables: [cable('feed', 'bp', 'ap', { kind: 'measured', areaMm2: area }, len), cable('gnd', 'an', 'gnd', { kind: 'measured', areaMm2: area }, 1)],
-					});
-				const base = solveNetwork(one(lengthM, 50), AT).amplifiers[0]!.terminalV;
-				expect(solveNetwork(one(lengthM * factor, 50), AT).amplifiers[0]!.terminalV).toBeLessThanOrEqual(base + 1e-9);
-				expect(solveNetwork(one(lengthM, 50 / factor), AT).amplifiers[0]!.terminalV).toBeLessThanOrEqual(base + 1e-9);
-			}),
+			fc.property(
+				fc.double({ min: 0.3, max: 8, noNaN: true }),
+				fc.double({ min: 1.01, max: 3, noNaN: true }),
+				fc.double({ min: 200, max: 4000, noNaN: true }),
+				(lengthM, factor, watts) => {
+					const one = (len: number, area: number) =>
+						doc({
+							nodes: [node('gnd', 'chassis'), node('bp'), node('ap'), node('an')],
+							banks: [bank('b', 'bp', 'gnd')],
+							amplifiers: [amp('a', 'ap', 'an', watts)],
+							cables: [
+								cable('feed', 'bp', 'ap', { kind: 'measured', areaMm2: area }, len),
+								cable('gnd', 'an', 'gnd', { kind: 'measured', areaMm2: area }, 1),
+							],
+						});
+					const base = solveNetwork(one(lengthM, 50), AT).amplifiers[0]!.terminalV;
+					expect(
+						solveNetwork(one(lengthM * factor, 50), AT).amplifiers[0]!.terminalV,
+					).toBeLessThanOrEqual(base + 1e-9);
+					expect(
+						solveNetwork(one(lengthM, 50 / factor), AT).amplifiers[0]!.terminalV,
+					).toBeLessThanOrEqual(base + 1e-9);
+				},
+			),
 			{ numRuns: 60 },
 		);
 	});
@@ -259,8 +313,13 @@ describe('solveNetwork: laws on generated networks (fast-check)', () => {
 				const more = structuredClone(d);
 				more.banks[pick % more.banks.length]!.stringsInParallel += 1;
 				const after = solveNetwork(more, AT);
-				expect(after.solvedDemandFraction).toBeGreaterThanOrEqual(before.solvedDemandFraction - 1e-9);
-				if (before.status === 'ok' && after.status === 'ok') before.amplifiers.forEach((a, i) => expect(after.amplifiers[i]!.terminalV).toBeGreaterThanOrEqual(a.terminalV - 1e-9));
+				expect(after.solvedDemandFraction).toBeGreaterThanOrEqual(
+					before.solvedDemandFraction - 1e-9,
+				);
+				if (before.status === 'ok' && after.status === 'ok')
+					before.amplifiers.forEach((a, i) =>
+						expect(after.amplifiers[i]!.terminalV).toBeGreaterThanOrEqual(a.terminalV - 1e-9),
+					);
 			}),
 			{ numRuns: 60 },
 		);
@@ -280,7 +339,10 @@ describe('solveNetwork: two banks joined by a cable, no load (Millman’s theore
 	const pair = (over2: Parameters<typeof bank>[3] = {}) =>
 		doc({
 			nodes: [node('gnd', 'chassis'), node('p1'), node('p2')],
-			banks: [bank('full', 'p1', 'gnd', { stateOfCharge: 0.95 }), bank('low', 'p2', 'gnd', { stateOfCharge: 0.4, ...over2 })],
+			banks: [
+				bank('full', 'p1', 'gnd', { stateOfCharge: 0.95 }),
+				bank('low', 'p2', 'gnd', { stateOfCharge: 0.4, ...over2 }),
+			],
 			cables: [cable('link', 'p1', 'p2', { kind: 'awg', awg: '4' }, 1)],
 		});
 	const OFF = { engineRpm: 0, demand: 0, conductorTempC: 20 };
@@ -296,7 +358,8 @@ describe('solveNetwork: two banks joined by a cable, no load (Millman’s theore
 		expect(s.banks[1]!.currentA).toBeCloseTo(-expected, 4);
 		expect(s.banks[1]!.chargeLimited).toBe(false);
 		const r1 = full!.resistanceOhm + rc;
-		const millman = (full!.ocvV / r1 + low!.ocvV / low!.resistanceOhm) / (1 / r1 + 1 / low!.resistanceOhm);
+		const millman =
+			(full!.ocvV / r1 + low!.ocvV / low!.resistanceOhm) / (1 / r1 + 1 / low!.resistanceOhm);
 		expect(s.nodeVoltages.p2).toBeCloseTo(millman, 6);
 	});
 
@@ -310,7 +373,10 @@ describe('solveNetwork: two banks joined by a cable, no load (Millman’s theore
 		expect(s.banks[1]!.chargeLimited).toBe(true);
 		const r = buildReport(d, { engineRpm: 0, sustainedDemand: 0 });
 		if (!r.ok) throw new Error('topology');
-		expect(r.warnings.find((w) => w.code === 'bank_charge_limited')?.element).toEqual({ kind: 'bank', id: 'low' });
+		expect(r.warnings.find((w) => w.code === 'bank_charge_limited')?.element).toEqual({
+			kind: 'bank',
+			id: 'low',
+		});
 		expect(r.banks[1]!.sustainedChargeLimited).toBe(true);
 	});
 });
@@ -322,7 +388,9 @@ describe('solveNetwork: an unregulated amplifier above its rated voltage', () =>
 	const bus = (over: Parameters<typeof amp>[4] = {}) =>
 		doc({
 			nodes: [node('gnd', 'chassis'), node('bus', 'block')],
-			alternators: [alternator('alt', 'bus', 'gnd', 5000, { setPointV: 14.4, sourceResistanceOhm: 1e-6 })],
+			alternators: [
+				alternator('alt', 'bus', 'gnd', 5000, { setPointV: 14.4, sourceResistanceOhm: 1e-6 }),
+			],
 			amplifiers: [amp('a', 'bus', 'gnd', 1000, { ratedVoltageV: 12.6, ...over })],
 		});
 
@@ -336,7 +404,13 @@ describe('solveNetwork: an unregulated amplifier above its rated voltage', () =>
 	});
 
 	it('stops growing at a stated maximum output, and a regulated one stays at its rating', () => {
-		expect(solveNetwork(bus({ maxOutputW: 1100 }), AT).amplifiers[0]!.currentA).toBeCloseTo(1100 / 14.4, 2);
-		expect(solveNetwork(bus({ regulated: true }), AT).amplifiers[0]!.currentA).toBeCloseTo(1000 / 14.4, 2);
+		expect(solveNetwork(bus({ maxOutputW: 1100 }), AT).amplifiers[0]!.currentA).toBeCloseTo(
+			1100 / 14.4,
+			2,
+		);
+		expect(solveNetwork(bus({ regulated: true }), AT).amplifiers[0]!.currentA).toBeCloseTo(
+			1000 / 14.4,
+			2,
+		);
 	});
 });

@@ -17,13 +17,40 @@ const ok = (d: BuildDocument, s = {}) => {
 };
 
 /** A bank in the trunk feeding one amplifier through a fused 1/0 run. */
-function simple(over: { fuseA?: number | null; fuseIn?: number; awg?: '8' | '4' | '1/0'; watts?: number; setPointV?: number } = {}) {
-	const fuses = over.fuseA === null ? [] : [{ ratingA: over.fuseA ?? 200, end: 'from' as const, distanceM: (over.fuseIn ?? 8) * 0.0254 }];
+function simple(
+	over: {
+		fuseA?: number | null;
+		fuseIn?: number;
+		awg?: '8' | '4' | '1/0';
+		watts?: number;
+		setPointV?: number;
+	} = {},
+) {
+	const fuses =
+		over.fuseA === null
+			? []
+			: [
+					{
+						ratingA: over.fuseA ?? 200,
+						end: 'from' as const,
+						distanceM: (over.fuseIn ?? 8) * 0.0254,
+					},
+				];
 	return doc({
-		nodes: [node('gnd', 'chassis'), node('bp', 'battery'), node('ap', 'amplifier'), node('an', 'amplifier')],
+		nodes: [
+			node('gnd', 'chassis'),
+			node('bp', 'battery'),
+			node('ap', 'amplifier'),
+			node('an', 'amplifier'),
+		],
 		banks: [bank('b', 'bp', 'gnd')],
 		alternators: [alternator('alt', 'bp', 'gnd', 200, { setPointV: over.setPointV ?? 14.4 })],
-		amplifiers: [amp('a', 'ap', 'an', over.watts ?? 1500, { efficiency: 0.8, ratedPowerW: (over.watts ?? 1500) * 0.8 })],
+		amplifiers: [
+			amp('a', 'ap', 'an', over.watts ?? 1500, {
+				efficiency: 0.8,
+				ratedPowerW: (over.watts ?? 1500) * 0.8,
+			}),
+		],
 		cables: [
 			cable('feed', 'bp', 'ap', { kind: 'awg', awg: over.awg ?? '1/0' }, 1.5, { fuses }),
 			cable('gnd', 'an', 'gnd', { kind: 'awg', awg: over.awg ?? '1/0' }, 0.5),
@@ -36,7 +63,10 @@ describe('buildReport', () => {
 		const d = simple();
 		d.cables.pop(); // the amplifier's ground: its negative terminal now floats
 		const r = buildReport(d);
-		expect(r).toEqual({ ok: false, issues: [expect.objectContaining({ code: 'not_connected', path: 'nodes.3' })] });
+		expect(r).toEqual({
+			ok: false,
+			issues: [expect.objectContaining({ code: 'not_connected', path: 'nodes.3' })],
+		});
 	});
 
 	it('uses the default supply voltages 12.0, 12.6, 13.8, 14.4 and 16.0 V', () => {
@@ -45,13 +75,19 @@ describe('buildReport', () => {
 
 	it('flags a battery cable with no fuse at the battery end (safety)', () => {
 		const w = ok(simple({ fuseA: null })).warnings.find((x) => x.code === 'unfused_battery_cable');
-		expect(w).toMatchObject({ severity: 'danger', safety: true, element: { kind: 'cable', id: 'feed' } });
+		expect(w).toMatchObject({
+			severity: 'danger',
+			safety: true,
+			element: { kind: 'cable', id: 'feed' },
+		});
 	});
 
 	it('flags a fuse further from the battery than the team allows (18 in: common practice)', () => {
 		expect(codes(ok(simple({ fuseIn: 30 })).warnings)).toContain('fuse_too_far:feed');
 		expect(codes(ok(simple({ fuseIn: 12 })).warnings)).not.toContain('fuse_too_far:feed');
-		expect(codes(ok(simple({ fuseIn: 12 }), { fuseDistanceM: 0.2 }).warnings)).toContain('fuse_too_far:feed');
+		expect(codes(ok(simple({ fuseIn: 12 }), { fuseDistanceM: 0.2 }).warnings)).toContain(
+			'fuse_too_far:feed',
+		);
 	});
 
 	it('flags a fuse above 150 % of what the cable may carry (33 CFR 183.455(c))', () => {
@@ -79,7 +115,9 @@ describe('buildReport', () => {
 		// AGM: 2.45 V/cell limit → 14.7 V; float 2.27 V/cell → 13.62 V.
 		expect(codes(ok(simple({ setPointV: 15.2 })).warnings)).toContain('charge_voltage_high:b');
 		expect(codes(ok(simple({ setPointV: 13.4 })).warnings)).toContain('charge_voltage_low:b');
-		expect(codes(ok(simple({ setPointV: 14.4 })).warnings).filter((c) => c.startsWith('charge_voltage'))).toEqual([]);
+		expect(
+			codes(ok(simple({ setPointV: 14.4 })).warnings).filter((c) => c.startsWith('charge_voltage')),
+		).toEqual([]);
 	});
 
 	it('flags voltage collapse when demand is beyond the sources', () => {
@@ -90,26 +128,50 @@ describe('buildReport', () => {
 
 	it('flags an unsecured bank and an unvented flooded bank in the cabin', () => {
 		const d = simple();
-		d.banks[0] = { ...d.banks[0]!, chemistry: 'flooded', location: 'cabin', vented: false, secured: false };
-		expect(codes(ok(d).warnings)).toEqual(expect.arrayContaining(['bank_not_secured:b', 'flooded_unvented:b']));
+		d.banks[0] = {
+			...d.banks[0]!,
+			chemistry: 'flooded',
+			location: 'cabin',
+			vented: false,
+			secured: false,
+		};
+		expect(codes(ok(d).warnings)).toEqual(
+			expect.arrayContaining(['bank_not_secured:b', 'flooded_unvented:b']),
+		);
 	});
 
 	it('gives the same network numbers as separate engine runs', () => {
 		const r = ok(marlinBuild);
-		expect(r.burp).toEqual(solveNetwork(marlinBuild, { engineRpm: DEFAULT_SCENARIO.engineRpm, demand: 1, conductorTempC: DEFAULT_SCENARIO.conductorTempC }));
+		expect(r.burp).toEqual(
+			solveNetwork(marlinBuild, {
+				engineRpm: DEFAULT_SCENARIO.engineRpm,
+				demand: 1,
+				conductorTempC: DEFAULT_SCENARIO.conductorTempC,
+			}),
+		);
 	});
 
-	it.each(Object.keys(DEMO_BUILDS))('solves the demo build %s at sustained and burp demand', (name) => {
-		const r = ok(DEMO_BUILDS[name as keyof typeof DEMO_BUILDS]);
-		expect(r.sustained.status).toBe('ok');
-		expect(r.burp.status).toBe('ok');
-		for (const a of r.amplifiers) expect(a.burpTerminalV).toBeLessThanOrEqual(a.sustainedTerminalV);
-	});
+	it.each(Object.keys(DEMO_BUILDS))(
+		'solves the demo build %s at sustained and burp demand',
+		(name) => {
+			const r = ok(DEMO_BUILDS[name as keyof typeof DEMO_BUILDS]);
+			expect(r.sustained.status).toBe('ok');
+			expect(r.burp.status).toBe('ok');
+			for (const a of r.amplifiers)
+				expect(a.burpTerminalV).toBeLessThanOrEqual(a.sustainedTerminalV);
+		},
+	);
 });
 
 describe('fixedVoltageBudget', () => {
 	it('sums I = d·P/(η·V) over amplifiers plus steady loads at each voltage', () => {
-		const rows = fixedVoltageBudget(pebbleBuild, { voltagesV: [12, 14.4], engineRpm: 0, sustainedDemand: 1 / 8, burpDemand: 1, cutoffV: null });
+		const rows = fixedVoltageBudget(pebbleBuild, {
+			voltagesV: [12, 14.4],
+			engineRpm: 0,
+			sustainedDemand: 1 / 8,
+			burpDemand: 1,
+			cutoffV: null,
+		});
 		const mono = pebbleBuild.amplifiers[0]!;
 		expect(rows[0]!.burpDemandA).toBeCloseTo(amplifierCurrentA(mono, 1, 12) + 22, 9);
 		expect(rows[1]!.sustainedDemandA).toBeCloseTo(amplifierCurrentA(mono, 1 / 8, 14.4) + 22, 9);
@@ -124,12 +186,24 @@ describe('fixedVoltageBudget', () => {
 			banks: [bank('b', 'p', 'gnd', { stateOfCharge: 1, unitResistanceOhm: 1e-9, peukertK: 1.2 })],
 			amplifiers: [amp('a', 'p', 'gnd', 600)], // 50 A at 12 V
 		});
-		const [row] = fixedVoltageBudget(d, { voltagesV: [12], engineRpm: 0, sustainedDemand: 1, burpDemand: 1, cutoffV: 12.0 });
+		const [row] = fixedVoltageBudget(d, {
+			voltagesV: [12],
+			engineRpm: 0,
+			sustainedDemand: 1,
+			burpDemand: 1,
+			cutoffV: 12.0,
+		});
 		expect(row!.sustainedCarryHours).toBeCloseTo(peukertHours(100, 20, 50, 1.2), 6); // 1.262 h
 	});
 
 	it('reports no carry time when the alternators keep up', () => {
-		const rows = fixedVoltageBudget(simple({ watts: 400 }), { voltagesV: [14.4], engineRpm: 3000, sustainedDemand: 1 / 8, burpDemand: 1, cutoffV: null });
+		const rows = fixedVoltageBudget(simple({ watts: 400 }), {
+			voltagesV: [14.4],
+			engineRpm: 3000,
+			sustainedDemand: 1 / 8,
+			burpDemand: 1,
+			cutoffV: null,
+		});
 		expect(rows[0]!.sustainedSurplusA).toBeGreaterThan(0);
 		expect(rows[0]!.sustainedCarryHours).toBeNull();
 	});
@@ -137,16 +211,29 @@ describe('fixedVoltageBudget', () => {
 
 describe('runBurp', () => {
 	it('steps the burp, lowers the banks’ charge and never raises the minimum voltage over time (engine off)', () => {
-		const run = runBurp(pebbleBuild, { engineRpm: 0, demand: 1, conductorTempC: 25, durationS: 10, stepS: 0.01 });
+		const run = runBurp(pebbleBuild, {
+			engineRpm: 0,
+			demand: 1,
+			conductorTempC: 25,
+			durationS: 10,
+			stepS: 0.01,
+		});
 		expect(run.timeS).toHaveLength(1000);
 		expect(run.timeS.at(-1)).toBeCloseTo(10, 9);
-		for (let i = 1; i < run.minAmplifierV.length; i++) expect(run.minAmplifierV[i]!).toBeLessThanOrEqual(run.minAmplifierV[i - 1]! + 1e-9);
+		for (let i = 1; i < run.minAmplifierV.length; i++)
+			expect(run.minAmplifierV[i]!).toBeLessThanOrEqual(run.minAmplifierV[i - 1]! + 1e-9);
 		for (const b of pebbleBuild.banks) expect(run.endSoc[b.id]!).toBeLessThan(run.startSoc[b.id]!);
 		expect(run.amplifierMinV.mono).toBeCloseTo(Math.min(...run.minAmplifierV), 9);
 	});
 
 	it('accounts for energy: banks + alternators = amplifiers + cable loss', () => {
-		const run = runBurp(marlinBuild, { engineRpm: 1500, demand: 1, conductorTempC: 25, durationS: 5, stepS: 0.01 });
+		const run = runBurp(marlinBuild, {
+			engineRpm: 1500,
+			demand: 1,
+			conductorTempC: 25,
+			durationS: 5,
+			stepS: 0.01,
+		});
 		const { amplifiers, banks, alternators, cableLoss } = run.energyWh;
 		const loadsWh = amplifiers + cableLoss;
 		// The vehicle's steady load is the remainder: 28 A at about 12.4 V for 5 s.
@@ -160,7 +247,13 @@ describe('runBurp', () => {
 			banks: [bank('b', 'p', 'gnd', { stateOfCharge: 1, unitResistanceOhm: 1e-6, peukertK: 1.2 })],
 			amplifiers: [amp('a', 'p', 'gnd', 1280)], // ~100 A at 12.8 V
 		});
-		const run = runBurp(d, { engineRpm: 0, demand: 1, conductorTempC: 20, durationS: 60, stepS: 0.01 });
+		const run = runBurp(d, {
+			engineRpm: 0,
+			demand: 1,
+			conductorTempC: 20,
+			durationS: 60,
+			stepS: 0.01,
+		});
 		const used = run.startSoc.b! - run.endSoc.b!;
 		const amps = 1280 / 12.8;
 		const expected = (amps * (amps / 5) ** 0.2 * 60) / 3600 / 100; // I·(I/I_20)^(k−1)·t / C

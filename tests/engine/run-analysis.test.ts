@@ -3,10 +3,14 @@ import { analyseRun } from '../../src/engine/run-analysis';
 import { parseLoggerCsv } from '../../src/lib/logger-csv';
 import { HAND_CSV } from '../helpers/logger-fixtures';
 
-
 describe('analyseRun', () => {
 	it('matches the hand computation', () => {
-		const parsed = parseLoggerCsv(HAND_CSV, { time: 'time', volts: 'volts', amps: 'amps', timeUnit: 's' });
+		const parsed = parseLoggerCsv(HAND_CSV, {
+			time: 'time',
+			volts: 'volts',
+			amps: 'amps',
+			timeUnit: 's',
+		});
 		if (!parsed.ok) throw new Error(parsed.message);
 		const a = analyseRun(parsed.samples);
 		expect(a.samples).toBe(4);
@@ -22,7 +26,12 @@ describe('analyseRun', () => {
 	});
 
 	it('gives no effective resistance when the current does not move', () => {
-		expect(analyseRun([{ tS: 0, volts: 12, amps: 50 }, { tS: 1, volts: 12.1, amps: 50 }]).effective).toBeNull();
+		expect(
+			analyseRun([
+				{ tS: 0, volts: 12, amps: 50 },
+				{ tS: 1, volts: 12.1, amps: 50 },
+			]).effective,
+		).toBeNull();
 	});
 });
 
@@ -31,7 +40,12 @@ describe('parseLoggerCsv', () => {
 	it.each([
 		['an empty file', '', null, /empty/],
 		['a missing column', 'time,volts\n0,12\n1,12\n', 1, /current column "amps" is not in the file/],
-		['text in a number column', 'time,volts,amps\n0,12.6,0\n1,twelve,100\n', 3, /Row 3: column "volts" holds "twelve"/],
+		[
+			'text in a number column',
+			'time,volts,amps\n0,12.6,0\n1,twelve,100\n',
+			3,
+			/Row 3: column "volts" holds "twelve"/,
+		],
 		['time going backwards', 'time,volts,amps\n1,12.6,0\n0,12.4,100\n', 3, /backwards/],
 		['a single sample', 'time,volts,amps\n0,12.6,0\n', null, /at least two samples/],
 	])('refuses %s, naming the row', (_what, text, row, message) => {
@@ -44,7 +58,12 @@ describe('parseLoggerCsv', () => {
 	});
 
 	it('converts milliseconds and trims header spaces', () => {
-		const r = parseLoggerCsv(' t_ms , V , I \n0,12,1\n500,11.9,2\n', { time: 't_ms', volts: 'V', amps: 'I', timeUnit: 'ms' });
+		const r = parseLoggerCsv(' t_ms , V , I \n0,12,1\n500,11.9,2\n', {
+			time: 't_ms',
+			volts: 'V',
+			amps: 'I',
+			timeUnit: 'ms',
+		});
 		expect(r.ok && r.samples[1]).toEqual({ tS: 0.5, volts: 11.9, amps: 2 });
 	});
 });

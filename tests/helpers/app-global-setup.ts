@@ -24,7 +24,9 @@ const PORT = Number(process.env.SAGWISE_TEST_APP_PORT ?? 4399);
 /** Builds the app when needed and serves it on a test port against a seeded throwaway database. */
 export default async function setup(project: TestProject) {
 	if (!existsSync(CHROMIUM_PATH)) {
-		throw new Error(`Browser tests need Debian's chromium at ${CHROMIUM_PATH}: install it with \`apt-get install chromium\`.`);
+		throw new Error(
+			`Browser tests need Debian's chromium at ${CHROMIUM_PATH}: install it with \`apt-get install chromium\`.`,
+		);
 	}
 	if (buildIsStale()) {
 		const build = spawnSync('npx', ['astro', 'build'], { stdio: 'inherit' });
@@ -33,7 +35,9 @@ export default async function setup(project: TestProject) {
 	const cluster = await ensureCluster(TEST_CLUSTER);
 	const name = `e2e_${Date.now()}`;
 	const admin = createDb(cluster.url(), 1);
-	await sql`create database ${sql.id(name)} template ${sql.id(`sagwise_template_${process.env.SAGWISE_TEST_RUN}`)}`.execute(admin);
+	await sql`create database ${sql.id(name)} template ${sql.id(`sagwise_template_${process.env.SAGWISE_TEST_RUN}`)}`.execute(
+		admin,
+	);
 	const db = createDb(cluster.url(name), 1);
 	await seedDemo(db);
 	await db.destroy();

@@ -9,10 +9,22 @@ export interface AppServer {
 }
 
 /** The built app behind its HTTP front (cli/serve.ts), as `npm start` runs it, on a test port. */
-export async function startAppServer(port: number, env: Record<string, string>, opts: { healthy?: boolean } = {}): Promise<AppServer> {
+export async function startAppServer(
+	port: number,
+	env: Record<string, string>,
+	opts: { healthy?: boolean } = {},
+): Promise<AppServer> {
 	const url = `http://127.0.0.1:${port}`;
 	const child = spawn(process.execPath, ['--import', 'tsx', 'cli/serve.ts'], {
-		env: { ...process.env, HOST: '127.0.0.1', PORT: String(port), AUTH_SECRET: 'test-secret-not-for-production-0123456789', AUTH_TRUST_HOST: 'true', PUBLIC_URL: url, ...env },
+		env: {
+			...process.env,
+			HOST: '127.0.0.1',
+			PORT: String(port),
+			AUTH_SECRET: 'test-secret-not-for-production-0123456789',
+			AUTH_TRUST_HOST: 'true',
+			PUBLIC_URL: url,
+			...env,
+		},
 		stdio: ['ignore', 'ignore', 'pipe'],
 	});
 	let err = '';
@@ -29,7 +41,8 @@ export async function startAppServer(port: number, env: Record<string, string>, 
 		} catch {
 			// not up yet
 		}
-		if (Date.now() > deadline || child.exitCode !== null) throw new Error(`the test server did not start:\n${err.slice(-4000)}`);
+		if (Date.now() > deadline || child.exitCode !== null)
+			throw new Error(`the test server did not start:\n${err.slice(-4000)}`);
 		await new Promise((r) => setTimeout(r, 150));
 	}
 	return {
@@ -56,7 +69,10 @@ export interface IsolatedApp {
  * its own mail and file fakes: for tests whose counters (sign-in limits) or faults must not touch
  * the shared test server.
  */
-export async function startIsolatedApp(port: number, env: Record<string, string> = {}): Promise<IsolatedApp> {
+export async function startIsolatedApp(
+	port: number,
+	env: Record<string, string> = {},
+): Promise<IsolatedApp> {
 	const { mkdtempSync } = await import('node:fs');
 	const { tmpdir } = await import('node:os');
 	const path = await import('node:path');
@@ -70,13 +86,19 @@ export async function startIsolatedApp(port: number, env: Record<string, string>
 	const cluster = await ensureCluster(TEST_CLUSTER);
 	const name = `iso_${port}_${Date.now()}`;
 	const admin = createDb(cluster.url(), 1);
-	await sql`create database ${sql.id(name)} template ${sql.id(`sagwise_template_${process.env.SAGWISE_TEST_RUN}`)}`.execute(admin);
+	await sql`create database ${sql.id(name)} template ${sql.id(`sagwise_template_${process.env.SAGWISE_TEST_RUN}`)}`.execute(
+		admin,
+	);
 	const db = createDb(cluster.url(name), 1);
 	await seedDemo(db);
 	await db.destroy();
 	const outboxDir = mkdtempSync(path.join(tmpdir(), 'sagwise-iso-mail-'));
 	const smtp = await startSmtpFake({ port: 0, dir: outboxDir });
-	const s3 = await startS3Fake({ port: 0, dir: mkdtempSync(path.join(tmpdir(), 'sagwise-iso-s3-')), bucket: 'sagwise-files' });
+	const s3 = await startS3Fake({
+		port: 0,
+		dir: mkdtempSync(path.join(tmpdir(), 'sagwise-iso-s3-')),
+		bucket: 'sagwise-files',
+	});
 	const server = await startAppServer(port, {
 		DATABASE_URL: cluster.url(name),
 		SMTP_URL: `smtp://127.0.0.1:${smtp.port}`,

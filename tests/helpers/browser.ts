@@ -62,7 +62,13 @@ export async function openBrowser(): Promise<Browser> {
 }
 
 /** Signs a demo user in with their password and opens the demo team's dashboard. */
-export async function signInToTeam(b: Browser, appUrl: string, email: string, password: string, teamName: string): Promise<void> {
+export async function signInToTeam(
+	b: Browser,
+	appUrl: string,
+	email: string,
+	password: string,
+	teamName: string,
+): Promise<void> {
 	await b.page.goto(`${appUrl}/sign-in?callbackUrl=/teams`);
 	await b.page.waitForSelector('astro-island:not([ssr])', { state: 'attached' });
 	await b.page.getByLabel('E-mail').fill(email);

@@ -21,7 +21,12 @@ export async function callEndpoint(
 	});
 }
 
-export function jsonRequest(url: string, method: string, body?: unknown, headers: Record<string, string> = {}): Request {
+export function jsonRequest(
+	url: string,
+	method: string,
+	body?: unknown,
+	headers: Record<string, string> = {},
+): Request {
 	return new Request(`http://localhost${url}`, {
 		method,
 		headers: body === undefined ? headers : { 'content-type': 'application/json', ...headers },

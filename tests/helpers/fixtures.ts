@@ -12,7 +12,14 @@ export const TEST_CONFIG: ServerConfig = {
 	smtpUrl: 'smtp://unused',
 	mailFrom: 'tests@sagwise.test',
 	devOutboxDir: null,
-	s3: { endpoint: null, region: 'us-east-1', bucket: 'unused', accessKeyId: 'x', secretAccessKey: 'x', forcePathStyle: true },
+	s3: {
+		endpoint: null,
+		region: 'us-east-1',
+		bucket: 'unused',
+		accessKeyId: 'x',
+		secretAccessKey: 'x',
+		forcePathStyle: true,
+	},
 };
 
 export const nullMailer: Mailer = { send: async () => {} };
@@ -20,7 +27,11 @@ export const nullMailer: Mailer = { send: async () => {} };
 let cachedHash: string | undefined;
 export const TEST_PASSWORD = 'correct horse battery';
 
-export async function makeUser(db: Kysely<Database>, email = `u${randomUUID().slice(0, 8)}@sagwise.test`, name = 'Test Person'): Promise<AppUser> {
+export async function makeUser(
+	db: Kysely<Database>,
+	email = `u${randomUUID().slice(0, 8)}@sagwise.test`,
+	name = 'Test Person',
+): Promise<AppUser> {
 	cachedHash ??= await hashPassword(TEST_PASSWORD);
 	const id = randomUUID();
 	await db.insertInto('User').values({ id, email, name, passwordHash: cachedHash }).execute();
@@ -32,7 +43,12 @@ export async function makeTeam(db: Kysely<Database>, name = 'Test Team'): Promis
 	return t.id;
 }
 
-export async function addMember(db: Kysely<Database>, teamId: string, user: AppUser, role: Role): Promise<void> {
+export async function addMember(
+	db: Kysely<Database>,
+	teamId: string,
+	user: AppUser,
+	role: Role,
+): Promise<void> {
 	await db.insertInto('membership').values({ team_id: teamId, user_id: user.id, role }).execute();
 }
 
@@ -44,11 +60,19 @@ export function memoryStorage(): Storage & { objects: Map<string, Uint8Array> } 
 		put: async (key, body) => void objects.set(key, body),
 		get: async (key) => objects.get(key) ?? null,
 		remove: async (key) => void objects.delete(key),
-		list: async (prefix) => [...objects.keys()].filter((k) => k.startsWith(prefix)).map((key) => ({ key, lastModified: null })),
+		list: async (prefix) =>
+			[...objects.keys()]
+				.filter((k) => k.startsWith(prefix))
+				.map((key) => ({ key, lastModified: null })),
 		ping: async () => {},
 	};
 }
 
-export function localsFor(db: Kysely<Database>, user: AppUser | null, mailer: Mailer = nullMailer, storage: Storage = memoryStorage()): App.Locals {
+export function localsFor(
+	db: Kysely<Database>,
+	user: AppUser | null,
+	mailer: Mailer = nullMailer,
+	storage: Storage = memoryStorage(),
+): App.Locals {
 	return { db, user, mailer, config: TEST_CONFIG, storage };
 }

@@ -17,8 +17,12 @@ export interface TestMail {
 export async function startTestMail(): Promise<TestMail> {
 	const dir = mkdtempSync(path.join(tmpdir(), 'sagwise-mail-'));
 	const fake = await startSmtpFake({ port: 0, dir });
-	const mailer = createSmtpMailer(`smtp://127.0.0.1:${fake.port}`, 'Sagwise tests <tests@sagwise.test>');
-	const to = (address: string) => listOutbox(dir).filter((m) => m.to.includes(address.toLowerCase()));
+	const mailer = createSmtpMailer(
+		`smtp://127.0.0.1:${fake.port}`,
+		'Sagwise tests <tests@sagwise.test>',
+	);
+	const to = (address: string) =>
+		listOutbox(dir).filter((m) => m.to.includes(address.toLowerCase()));
 	return {
 		fake,
 		mailer,
@@ -28,19 +32,26 @@ export async function startTestMail(): Promise<TestMail> {
 	};
 }
 
-export async function waitForMail(dir: string, address: string, opts: { after?: number; timeoutMs?: number } = {}): Promise<OutboxMail> {
+export async function waitForMail(
+	dir: string,
+	address: string,
+	opts: { after?: number; timeoutMs?: number } = {},
+): Promise<OutboxMail> {
 	const deadline = Date.now() + (opts.timeoutMs ?? 5000);
 	for (;;) {
 		const mails = listOutbox(dir).filter((m) => m.to.includes(address.toLowerCase()));
 		if (mails.length > (opts.after ?? 0)) return mails[0]!;
-		if (Date.now() > deadline) throw new Error(`no mail to ${address} within ${opts.timeoutMs ?? 5000} ms`);
+		if (Date.now() > deadline)
+			throw new Error(`no mail to ${address} within ${opts.timeoutMs ?? 5000} ms`);
 		await new Promise((r) => setTimeout(r, 50));
 	}
 }
 
 /** The first link in a mail's plain-text body that contains `fragment`. */
 export function linkIn(mail: OutboxMail, fragment: string): string {
-	const link = [...mail.text.matchAll(/https?:\/\/\S+/g)].map((m) => m[0]).find((l) => l.includes(fragment));
+	const link = [...mail.text.matchAll(/https?:\/\/\S+/g)]
+		.map((m) => m[0])
+		.find((l) => l.includes(fragment));
 	if (!link) throw new Error(`no link with ${fragment} in "${mail.subject}"`);
 	return link;
 }

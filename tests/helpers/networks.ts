@@ -1,11 +1,29 @@
 /** Small builders for test networks, and a seeded generator of random vehicle-like networks. */
-import type { Alternator, Amplifier, BatteryBank, BuildDocument, BuildNode, Cable, CableSize, SteadyLoad } from '../../src/engine/types';
+import type {
+	Alternator,
+	Amplifier,
+	BatteryBank,
+	BuildDocument,
+	BuildNode,
+	Cable,
+	CableSize,
+	SteadyLoad,
+} from '../../src/engine/types';
 import { AWG_SIZES, MATERIALS } from '../../src/engine/types';
 import { amplifierWithDefaults, bankWithDefaults } from '../../src/engine/defaults';
 
-export const node = (id: string, kind: BuildNode['kind'] = 'junction'): BuildNode => ({ id, label: id, kind });
+export const node = (id: string, kind: BuildNode['kind'] = 'junction'): BuildNode => ({
+	id,
+	label: id,
+	kind,
+});
 
-export function bank(id: string, positive: string, negative: string, over: Partial<BatteryBank> = {}): BatteryBank {
+export function bank(
+	id: string,
+	positive: string,
+	negative: string,
+	over: Partial<BatteryBank> = {},
+): BatteryBank {
 	return bankWithDefaults({
 		id,
 		label: id,
@@ -20,7 +38,13 @@ export function bank(id: string, positive: string, negative: string, over: Parti
 }
 
 /** An alternator with a flat output limit (A) at any speed. */
-export function alternator(id: string, positive: string, negative: string, limitA: number, over: Partial<Alternator> = {}): Alternator {
+export function alternator(
+	id: string,
+	positive: string,
+	negative: string,
+	limitA: number,
+	over: Partial<Alternator> = {},
+): Alternator {
 	return {
 		id,
 		label: id,
@@ -38,18 +62,64 @@ export function alternator(id: string, positive: string, negative: string, limit
 }
 
 /** A constant-power load of `inputW` at demand 1 (efficiency 1, so input = rated). */
-export function amp(id: string, positive: string, negative: string, inputW: number, over: Partial<Amplifier> = {}): Amplifier {
-	return amplifierWithDefaults({ id, label: id, positive, negative, ratedPowerW: inputW, efficiency: 1, ...over });
+export function amp(
+	id: string,
+	positive: string,
+	negative: string,
+	inputW: number,
+	over: Partial<Amplifier> = {},
+): Amplifier {
+	return amplifierWithDefaults({
+		id,
+		label: id,
+		positive,
+		negative,
+		ratedPowerW: inputW,
+		efficiency: 1,
+		...over,
+	});
 }
 
-export const steady = (id: string, positive: string, negative: string, currentA: number): SteadyLoad => ({ id, label: id, positive, negative, currentA });
+export const steady = (
+	id: string,
+	positive: string,
+	negative: string,
+	currentA: number,
+): SteadyLoad => ({ id, label: id, positive, negative, currentA });
 
-export function cable(id: string, from: string, to: string, size: CableSize, lengthM: number, over: Partial<Cable> = {}): Cable {
-	return { id, label: id, from, to, size, material: 'copper', lengthM, parallelRuns: 1, fuses: [], insulationC: 105, ...over };
+export function cable(
+	id: string,
+	from: string,
+	to: string,
+	size: CableSize,
+	lengthM: number,
+	over: Partial<Cable> = {},
+): Cable {
+	return {
+		id,
+		label: id,
+		from,
+		to,
+		size,
+		material: 'copper',
+		lengthM,
+		parallelRuns: 1,
+		fuses: [],
+		insulationC: 105,
+		...over,
+	};
 }
 
 export function doc(parts: Partial<BuildDocument> & { nodes: BuildNode[] }): BuildDocument {
-	return { schemaVersion: 1, alternators: [], banks: [], amplifiers: [], loads: [], cables: [], ...parts };
+	return {
+		schemaVersion: 1,
+		alternators: [],
+		banks: [],
+		amplifiers: [],
+		loads: [],
+		cables: [],
+		...parts,
+	};
 }
 
 /** mulberry32: a tiny deterministic PRNG so generated networks are reproducible by seed. */
@@ -66,7 +136,7 @@ export function rng(seed: number) {
 		next,
 		between: (lo: number, hi: number) => lo + (hi - lo) * next(),
 		int: (lo: number, hi: number) => Math.floor(lo + (hi - lo + 1) * next()),
-		pick: <T,>(xs: readonly T[]): T => xs[Math.floor(next() * xs.length)]!,
+		pick: <T>(xs: readonly T[]): T => xs[Math.floor(next() * xs.length)]!,
 	};
 }
 
@@ -91,11 +161,19 @@ export function randomNetwork(seed: number, opts: RandomNetworkOptions = {}): Bu
 	const amplifiers: Amplifier[] = [];
 	const loads: SteadyLoad[] = [];
 	const cables: Cable[] = [];
-	const size = (): CableSize => (r.next() < 0.8 ? { kind: 'awg', awg: r.pick(AWG_SIZES.slice(2)) } : { kind: 'mm2', mm2: r.pick([16, 25, 35, 50, 70, 95]) });
+	const size = (): CableSize =>
+		r.next() < 0.8
+			? { kind: 'awg', awg: r.pick(AWG_SIZES.slice(2)) }
+			: { kind: 'mm2', mm2: r.pick([16, 25, 35, 50, 70, 95]) };
 	const material = () => (r.next() < 0.7 ? 'copper' : r.pick(MATERIALS));
 	let k = 0;
 	const addCable = (from: string, to: string, lo = 0.3, hi = 6) =>
-		cables.push(cable(`c${++k}`, from, to, size(), r.between(lo, hi), { material: material(), parallelRuns: r.next() < 0.2 ? 2 : 1 }));
+		cables.push(
+			cable(`c${++k}`, from, to, size(), r.between(lo, hi), {
+				material: material(),
+				parallelRuns: r.next() < 0.2 ? 2 : 1,
+			}),
+		);
 	const soc = opts.banksOnly ? 0.8 : undefined;
 	const chemistry = opts.banksOnly ? 'agm' : r.pick(['agm', 'flooded', 'lfp'] as const);
 	const bankOver = (): Partial<BatteryBank> => ({
@@ -111,7 +189,12 @@ export function randomNetwork(seed: number, opts: RandomNetworkOptions = {}): Bu
 	addCable('front_neg', 'chassis', 0.3, 1);
 	if (!opts.banksOnly) {
 		nodes.push(node('alt_pos', 'alternator'), node('engine'));
-		alternators.push(alternator('alt', 'alt_pos', 'engine', r.between(80, 350), { setPointV: r.between(13.8, 14.6), sourceResistanceOhm: r.between(5e-5, 5e-4) }));
+		alternators.push(
+			alternator('alt', 'alt_pos', 'engine', r.between(80, 350), {
+				setPointV: r.between(13.8, 14.6),
+				sourceResistanceOhm: r.between(5e-5, 5e-4),
+			}),
+		);
 		addCable('alt_pos', 'front_pos', 0.5, 1.5);
 		addCable('engine', 'chassis', 0.3, 1);
 		if (r.next() < 0.5) loads.push(steady('vehicle', 'front_pos', 'chassis', r.between(10, 40)));
@@ -137,9 +220,14 @@ export function randomNetwork(seed: number, opts: RandomNetworkOptions = {}): Bu
 			nodes.push(node(`${id}_pos`, 'amplifier'), node(`${id}_neg`, 'amplifier'));
 			const w = r.between(100, 1500);
 			totalW += w;
-			amplifiers.push(amp(id, `${id}_pos`, `${id}_neg`, w, { efficiency: r.between(0.6, 0.95), ratedPowerW: w }));
+			amplifiers.push(
+				amp(id, `${id}_pos`, `${id}_neg`, w, { efficiency: r.between(0.6, 0.95), ratedPowerW: w }),
+			);
 			// Feeds sized roughly to the amplifier, as a builder would: no 8 AWG on a 1.5 kW amplifier.
-			const feed: CableSize = { kind: 'awg', awg: w > 800 ? r.pick(['4', '2', '1/0'] as const) : r.pick(['8', '6', '4'] as const) };
+			const feed: CableSize = {
+				kind: 'awg',
+				awg: w > 800 ? r.pick(['4', '2', '1/0'] as const) : r.pick(['8', '6', '4'] as const),
+			};
 			cables.push(cable(`c${++k}`, blk, `${id}_pos`, feed, r.between(0.3, 2)));
 			cables.push(cable(`c${++k}`, `${id}_neg`, 'chassis', feed, r.between(0.3, 2)));
 		}
@@ -155,7 +243,9 @@ export function randomNetwork(seed: number, opts: RandomNetworkOptions = {}): Bu
 	}
 	// Keep the demand well inside what the sources can give (about 2 kW per bank string and the
 	// alternator's output at 13 V), so that a stable operating point exists.
-	const capacityW = banks.reduce((s, b) => s + 2000 * b.stringsInParallel, 0) + alternators.reduce((s, a) => s + 13 * a.ratedHotA, 0);
+	const capacityW =
+		banks.reduce((s, b) => s + 2000 * b.stringsInParallel, 0) +
+		alternators.reduce((s, a) => s + 13 * a.ratedHotA, 0);
 	const inputW = amplifiers.reduce((s, a) => s + a.ratedPowerW / a.efficiency, 0);
 	if (inputW > 0.6 * capacityW) {
 		const k = (0.6 * capacityW) / inputW;

@@ -28,10 +28,13 @@ export default async function setup(project: TestProject) {
 	startedHere ||= cluster.started;
 	const admin = createDb(cluster.url(), 1);
 	try {
-		const existing = await sql<{ datname: string }>`select datname from pg_database where datname like 'sagwise_template_%'`.execute(admin);
+		const existing = await sql<{
+			datname: string;
+		}>`select datname from pg_database where datname like 'sagwise_template_%'`.execute(admin);
 		if (!existing.rows.some((row) => row.datname === template)) {
 			// Leftovers of earlier runs go; a fresh template proves every migration applies from empty.
-			for (const row of existing.rows) await sql`drop database if exists ${sql.id(row.datname)} with (force)`.execute(admin);
+			for (const row of existing.rows)
+				await sql`drop database if exists ${sql.id(row.datname)} with (force)`.execute(admin);
 			await sql`create database ${sql.id(template)}`.execute(admin);
 			const templateDb = createDb(cluster.url(template), 1);
 			try {

@@ -22,7 +22,9 @@ export async function createTestDb(): Promise<TestDb> {
 	const name = `t_${process.env.VITEST_POOL_ID ?? '0'}_${Date.now()}_${Math.floor(Math.random() * 1e6)}`;
 	const admin = createDb(adminUrl, 1);
 	try {
-		await sql`create database ${sql.id(name)} template ${sql.id(inject('pgTemplate'))}`.execute(admin);
+		await sql`create database ${sql.id(name)} template ${sql.id(inject('pgTemplate'))}`.execute(
+			admin,
+		);
 	} finally {
 		await admin.destroy();
 	}

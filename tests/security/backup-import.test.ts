@@ -33,19 +33,65 @@ describe('team backup import treats the file as untrusted input', () => {
 		bystander = await makeUser(t.db, 'bystander@sagwise.test', 'Bystander');
 		await addMember(t.db, teamId, bystander, 'member');
 		importer = await makeUser(t.db, 'importer@sagwise.test', 'Importer');
-		const v = await insertVehicleWithBuild(t.db, { teamId, name: 'Test car', description: '', competitionClass: '', notes: '', ownerId: captain.id });
-		const r = await appendRevision(t.db, { buildId: v.buildId, parentId: null, document: pebbleBuild, message: 'First', authorId: captain.id });
+		const v = await insertVehicleWithBuild(t.db, {
+			teamId,
+			name: 'Test car',
+			description: '',
+			competitionClass: '',
+			notes: '',
+			ownerId: captain.id,
+		});
+		const r = await appendRevision(t.db, {
+			buildId: v.buildId,
+			parentId: null,
+			document: pebbleBuild,
+			message: 'First',
+			authorId: captain.id,
+		});
 		if (!r.ok) throw new Error('revision');
-		const run = await t.db.insertInto('run').values({ vehicle_id: v.vehicle.id, revision_id: r.revision.id, ran_at: new Date('2026-05-01T10:00:00Z'), author_id: captain.id, notes: '' }).returning('id').executeTakeFirstOrThrow();
-		const png = new Uint8Array(await sharp({ create: { width: 16, height: 16, channels: 3, background: '#777777' } }).png().toBuffer());
+		const run = await t.db
+			.insertInto('run')
+			.values({
+				vehicle_id: v.vehicle.id,
+				revision_id: r.revision.id,
+				ran_at: new Date('2026-05-01T10:00:00Z'),
+				author_id: captain.id,
+				notes: '',
+			})
+			.returning('id')
+			.executeTakeFirstOrThrow();
+		const png = new Uint8Array(
+			await sharp({ create: { width: 16, height: 16, channels: 3, background: '#777777' } })
+				.png()
+				.toBuffer(),
+		);
 		const thumb = new Uint8Array(await sharp(png).webp().toBuffer());
 		const base = `teams/${teamId}/runs/${run.id}/photo-1`;
 		await storage.put(`${base}.png`, png, 'image/png');
 		await storage.put(`${base}-thumb.webp`, thumb, 'image/webp');
-		await t.db.insertInto('stored_file').values([
-			{ team_id: teamId, run_id: run.id, kind: 'photo', object_key: `${base}.png`, file_name: 'lanes.png', content_type: 'image/png', size_bytes: png.byteLength },
-			{ team_id: teamId, run_id: run.id, kind: 'thumbnail', object_key: `${base}-thumb.webp`, file_name: 'lanes.png (thumbnail)', content_type: 'image/webp', size_bytes: thumb.byteLength },
-		]).execute();
+		await t.db
+			.insertInto('stored_file')
+			.values([
+				{
+					team_id: teamId,
+					run_id: run.id,
+					kind: 'photo',
+					object_key: `${base}.png`,
+					file_name: 'lanes.png',
+					content_type: 'image/png',
+					size_bytes: png.byteLength,
+				},
+				{
+					team_id: teamId,
+					run_id: run.id,
+					kind: 'thumbnail',
+					object_key: `${base}-thumb.webp`,
+					file_name: 'lanes.png (thumbnail)',
+					content_type: 'image/webp',
+					size_bytes: thumb.byteLength,
+				},
+			])
+			.execute();
 		original = JSON.stringify(await exportTeam(t.db, storage, teamId));
 	});
 	afterAll(async () => t?.drop());
@@ -53,11 +99,28 @@ describe('team backup import treats the file as untrusted input', () => {
 	const upload = (text: string, user: AppUser = importer) => {
 		const form = new FormData();
 		form.set('file', new Blob([text], { type: 'application/json' }), 'backup.json');
-		return callEndpoint(importRoute, { locals: localsFor(t.db, user, undefined, storage), request: new Request('http://localhost/api/teams/import', { method: 'POST', body: form }) });
+		return callEndpoint(importRoute, {
+			locals: localsFor(t.db, user, undefined, storage),
+			request: new Request('http://localhost/api/teams/import', { method: 'POST', body: form }),
+		});
 	};
 	const counts = async () => ({
-		teams: Number((await t.db.selectFrom('team').select((e) => e.fn.countAll().as('n')).executeTakeFirstOrThrow()).n),
-		runs: Number((await t.db.selectFrom('run').select((e) => e.fn.countAll().as('n')).executeTakeFirstOrThrow()).n),
+		teams: Number(
+			(
+				await t.db
+					.selectFrom('team')
+					.select((e) => e.fn.countAll().as('n'))
+					.executeTakeFirstOrThrow()
+			).n,
+		),
+		runs: Number(
+			(
+				await t.db
+					.selectFrom('run')
+					.select((e) => e.fn.countAll().as('n'))
+					.executeTakeFirstOrThrow()
+			).n,
+		),
 		objects: storage.objects.size,
 	});
 	const edited = (edit: (b: any) => void) => {
@@ -67,19 +130,44 @@ describe('team backup import treats the file as untrusted input', () => {
 	};
 
 	it('never adds an existing account to the team: everyone the file names is invited, and the answer is the same for known and unknown addresses', async () => {
-		const known = await upload(edited((b) => (b.team.members = b.team.members.map((m: any) => ({ ...m, role: m.email === 'bystander@sagwise.test' ? 'captain' : m.role })))));
+		const known = await upload(
+			edited(
+				(b) =>
+					(b.team.members = b.team.members.map((m: any) => ({
+						...m,
+						role: m.email === 'bystander@sagwise.test' ? 'captain' : m.role,
+					}))),
+			),
+		);
 		expect(known.status).toBe(201);
 		const a = await known.json();
-		const memberships = await t.db.selectFrom('membership').select(['user_id', 'role']).where('team_id', '=', a.teamId).execute();
+		const memberships = await t.db
+			.selectFrom('membership')
+			.select(['user_id', 'role'])
+			.where('team_id', '=', a.teamId)
+			.execute();
 		expect(memberships).toEqual([{ user_id: importer.id, role: 'captain' }]);
-		const invited = await t.db.selectFrom('invitation').select(['email', 'role']).where('team_id', '=', a.teamId).orderBy('email').execute();
+		const invited = await t.db
+			.selectFrom('invitation')
+			.select(['email', 'role'])
+			.where('team_id', '=', a.teamId)
+			.orderBy('email')
+			.execute();
 		expect(invited).toEqual([
 			{ email: 'bystander@sagwise.test', role: 'captain' },
 			{ email: 'origin.captain@sagwise.test', role: 'captain' },
 		]);
 
 		// The same file naming addresses nobody has here: the answer has the same keys and counts.
-		const unknown = await upload(edited((b) => (b.team.members = b.team.members.map((m: any, i: number) => ({ ...m, email: `nobody${i}@sagwise.test` })))));
+		const unknown = await upload(
+			edited(
+				(b) =>
+					(b.team.members = b.team.members.map((m: any, i: number) => ({
+						...m,
+						email: `nobody${i}@sagwise.test`,
+					}))),
+			),
+		);
 		const u = await unknown.json();
 		const shape = ({ teamId, teamName, ...rest }: Record<string, unknown>) => rest;
 		expect(shape(u)).toEqual(shape(a));
@@ -98,22 +186,48 @@ describe('team backup import treats the file as untrusted input', () => {
 		const { teamId } = await res.json();
 		const added = [...storage.objects.keys()].filter((k) => !before.has(k));
 		expect(added).toHaveLength(2);
-		for (const key of added) expect(key).toMatch(new RegExp(`^teams/${teamId}/runs/[0-9a-f-]{36}/photo-[0-9a-f-]{36}(-thumb)?\\.(png|webp)$`));
-		const rows = await t.db.selectFrom('stored_file').select('object_key').where('team_id', '=', teamId).execute();
+		for (const key of added)
+			expect(key).toMatch(
+				new RegExp(
+					`^teams/${teamId}/runs/[0-9a-f-]{36}/photo-[0-9a-f-]{36}(-thumb)?\\.(png|webp)$`,
+				),
+			);
+		const rows = await t.db
+			.selectFrom('stored_file')
+			.select('object_key')
+			.where('team_id', '=', teamId)
+			.execute();
 		expect(rows.map((r) => r.object_key).sort()).toEqual(added.sort());
 	});
 
 	it('re-checks every file by its content: a page dressed as a photo or a logger file is refused before anything is written', async () => {
 		const start = await counts();
-		const html = Buffer.from('<html><script>alert(document.cookie)</script></html>').toString('base64');
-		const photo = await upload(edited((b) => Object.assign(b.team.runs[0].files[0], { data: html, contentType: 'image/png' })));
+		const html = Buffer.from('<html><script>alert(document.cookie)</script></html>').toString(
+			'base64',
+		);
+		const photo = await upload(
+			edited((b) =>
+				Object.assign(b.team.runs[0].files[0], { data: html, contentType: 'image/png' }),
+			),
+		);
 		expect(photo.status).toBe(400);
 		const body = await photo.json();
 		expect(body.code).toBe('invalid_backup');
 		expect(body.errors[0].path).toBe('team.runs.0.files.0');
 
 		const elf = Buffer.from([0x7f, 0x45, 0x4c, 0x46, 0, 1, 2, 3]).toString('base64');
-		const logger = await upload(edited((b) => b.team.runs[0].files.push({ ...b.team.runs[0].files[0], key: 'f9', kind: 'logger', objectName: 'x.csv', contentType: 'text/csv', data: elf })));
+		const logger = await upload(
+			edited((b) =>
+				b.team.runs[0].files.push({
+					...b.team.runs[0].files[0],
+					key: 'f9',
+					kind: 'logger',
+					objectName: 'x.csv',
+					contentType: 'text/csv',
+					data: elf,
+				}),
+			),
+		);
 		expect(logger.status).toBe(400);
 		expect((await logger.json()).errors[0].path).toBe('team.runs.0.files.2');
 		expect(await counts()).toEqual(start);
@@ -130,7 +244,11 @@ describe('team backup import treats the file as untrusted input', () => {
 			.where('v.team_id', '=', teamId)
 			.executeTakeFirstOrThrow();
 		expect(rev).toEqual({ author_id: null, imported_by: 'origin.captain@sagwise.test' });
-		const vehicle = await t.db.selectFrom('vehicle').select(['owner_id', 'imported_by']).where('team_id', '=', teamId).executeTakeFirstOrThrow();
+		const vehicle = await t.db
+			.selectFrom('vehicle')
+			.select(['owner_id', 'imported_by'])
+			.where('team_id', '=', teamId)
+			.executeTakeFirstOrThrow();
 		expect(vehicle).toEqual({ owner_id: null, imported_by: 'origin.captain@sagwise.test' });
 	});
 

@@ -12,7 +12,8 @@ const dir = mkdtempSync(path.join(tmpdir(), 'sagwise-spice-inject-'));
 afterAll(() => rmSync(dir, { recursive: true, force: true }));
 
 /** A name as an attacker would write it: a line break, then a control block that runs a shell command. */
-const hostile = (marker: string) => `Car\n.control\nshell touch ${marker}\n.endc\r\n.control\u2028shell touch ${marker}\u000b.endc`;
+const hostile = (marker: string) =>
+	`Car\n.control\nshell touch ${marker}\n.endc\r\n.control\u2028shell touch ${marker}\u000b.endc`;
 
 function runs(netlist: string, name: string): void {
 	const file = path.join(dir, `${name}.cir`);
@@ -22,7 +23,11 @@ function runs(netlist: string, name: string): void {
 }
 
 describe('SPICE export: names can never start a netlist line', () => {
-	const conditions = { engineRpm: DEFAULT_SCENARIO.engineRpm, demand: DEFAULT_SCENARIO.burpDemand, conductorTempC: DEFAULT_SCENARIO.conductorTempC };
+	const conditions = {
+		engineRpm: DEFAULT_SCENARIO.engineRpm,
+		demand: DEFAULT_SCENARIO.burpDemand,
+		conductorTempC: DEFAULT_SCENARIO.conductorTempC,
+	};
 
 	it('the check itself works: the same control block, written raw on its own line, does run in ngspice', () => {
 		const marker = path.join(dir, 'raw-marker');
@@ -33,7 +38,10 @@ describe('SPICE export: names can never start a netlist line', () => {
 
 	it('a title holding line breaks and a control block executes nothing, and every name stays on its comment line', () => {
 		const marker = path.join(dir, 'title-marker');
-		const { netlist } = toSpiceNetlist(pebbleBuild, conditions, { title: hostile(marker), nodeset: 'unloaded' });
+		const { netlist } = toSpiceNetlist(pebbleBuild, conditions, {
+			title: hostile(marker),
+			nodeset: 'unloaded',
+		});
 		const lines = netlist.split('\n');
 		expect(lines.filter((l) => l.startsWith('.control'))).toHaveLength(1);
 		expect(lines.filter((l) => l.includes('shell'))).toEqual([lines[0]]);

@@ -21,7 +21,8 @@ function runNgspice(netlist: string, name: string): Map<string, number> {
 	writeFileSync(file, netlist);
 	const out = spawnSync(NGSPICE, ['-b', file], { encoding: 'utf8', timeout: 30_000 });
 	// ngspice -b exits 1 after a .control block even when it ran; judge by what it printed.
-	if (out.error || /error/i.test(out.stderr.replace(/No "\.plot".*$/gm, ''))) throw new Error(`ngspice failed on ${name}: ${out.stderr}`);
+	if (out.error || /error/i.test(out.stderr.replace(/No "\.plot".*$/gm, '')))
+		throw new Error(`ngspice failed on ${name}: ${out.stderr}`);
 	const values = new Map<string, number>();
 	for (const line of out.stdout.split('\n')) {
 		const m = /^(\S+) = (\S+)$/.exec(line.trim());
@@ -30,16 +31,26 @@ function runNgspice(netlist: string, name: string): Map<string, number> {
 	return values;
 }
 
-const close = (engine: number, spice: number, scale: number) => Math.abs(engine - spice) <= 1e-4 * Math.max(Math.abs(spice), scale);
+const close = (engine: number, spice: number, scale: number) =>
+	Math.abs(engine - spice) <= 1e-4 * Math.max(Math.abs(spice), scale);
 
-function compare(doc: BuildDocument, name: string, conditions: { engineRpm: number; demand: number; conductorTempC: number }) {
+function compare(
+	doc: BuildDocument,
+	name: string,
+	conditions: { engineRpm: number; demand: number; conductorTempC: number },
+) {
 	const s = solveNetwork(doc, conditions);
 	expect(s.status, `${name} should have an operating point`).toBe('ok');
 	// A constant-power load has a second, low-voltage solution, and SPICE needs a hint to stay off
 	// it. First the unloaded network's voltages; if ngspice lands elsewhere or gives up, the
 	// engine's voltages rounded to 0.1 V. Either way ngspice solves its own equations to 1e-9 from
 	// the hint, so an agreement is not inherited from it.
-	const hints: Array<Record<string, number> | 'unloaded'> = ['unloaded', Object.fromEntries(Object.entries(s.nodeVoltages).map(([id, v]) => [id, Math.round(v * 10) / 10]))];
+	const hints: Array<Record<string, number> | 'unloaded'> = [
+		'unloaded',
+		Object.fromEntries(
+			Object.entries(s.nodeVoltages).map(([id, v]) => [id, Math.round(v * 10) / 10]),
+		),
+	];
 	let mismatches: string[] = [];
 	for (const [attempt, nodeset] of hints.entries()) {
 		const ex = toSpiceNetlist(doc, conditions, { title: name, nodeset });
@@ -56,13 +67,15 @@ function compare(doc: BuildDocument, name: string, conditions: { engineRpm: numb
 			if (spiceNode === '0') continue;
 			const sv = spice.get(`v(${spiceNode})`);
 			// Voltages: 1e-4 relative, with 1 mV as the floor for ground-side nodes near 0 V.
-			if (sv === undefined || !close(s.nodeVoltages[id]!, sv, 1e-3)) mismatches.push(`node ${id}: engine ${s.nodeVoltages[id]} vs ngspice ${sv}`);
+			if (sv === undefined || !close(s.nodeVoltages[id]!, sv, 1e-3))
+				mismatches.push(`node ${id}: engine ${s.nodeVoltages[id]} vs ngspice ${sv}`);
 			checked++;
 		}
 		doc.cables.forEach((c, i) => {
 			const si = spice.get(`@${ex.cableDevices[c.id]}[i]`);
 			// Currents: 1e-4 relative, with 0.1 A as the floor for nearly idle cables.
-			if (si === undefined || !close(s.cables[i]!.currentA, si, 0.1)) mismatches.push(`cable ${c.id}: engine ${s.cables[i]!.currentA} vs ngspice ${si}`);
+			if (si === undefined || !close(s.cables[i]!.currentA, si, 0.1))
+				mismatches.push(`cable ${c.id}: engine ${s.cables[i]!.currentA} vs ngspice ${si}`);
 			checked++;
 		});
 		if (mismatches.length === 0) return checked;
@@ -72,18 +85,29 @@ function compare(doc: BuildDocument, name: string, conditions: { engineRpm: numb
 }
 
 describe.runIf(available)('engine against ngspice', () => {
-	it.each(Object.entries(DEMO_BUILDS).flatMap(([name, doc]) => [1, 1 / 8].map((demand) => [name, demand, doc] as const)))(
-		'agrees on the demo build %s at demand %f',
-		(name, demand, doc) => {
-			expect(compare(doc, `${name.replace(/\W/g, '_')}_${demand}`, { engineRpm: 1500, demand, conductorTempC: 25 })).toBeGreaterThan(10);
-		},
-	);
+	it.each(
+		Object.entries(DEMO_BUILDS).flatMap(([name, doc]) =>
+			[1, 1 / 8].map((demand) => [name, demand, doc] as const),
+		),
+	)('agrees on the demo build %s at demand %f', (name, demand, doc) => {
+		expect(
+			compare(doc, `${name.replace(/\W/g, '_')}_${demand}`, {
+				engineRpm: 1500,
+				demand,
+				conductorTempC: 25,
+			}),
+		).toBeGreaterThan(10);
+	});
 
 	it('agrees on 60 generated networks (burp and music, engine running and off)', () => {
 		let compared = 0;
 		for (let k = 1; k <= 60; k++) {
 			const doc = randomNetwork(1000 + k * 37, { banksOnly: k % 4 === 0 });
-			const conditions = { engineRpm: k % 3 === 0 ? 900 : 2200, demand: k % 2 === 0 ? 1 : 1 / 8, conductorTempC: 20 + (k % 5) * 10 };
+			const conditions = {
+				engineRpm: k % 3 === 0 ? 900 : 2200,
+				demand: k % 2 === 0 ? 1 : 1 / 8,
+				conductorTempC: 20 + (k % 5) * 10,
+			};
 			if (solveNetwork(doc, conditions).status !== 'ok') continue; // a genuine collapse has no operating point to compare
 			compare(doc, `gen_${k}`, conditions);
 			compared++;

@@ -25,10 +25,29 @@ export const ForgotPasswordForm = withQueryClient(function ForgotPasswordForm() 
 		}
 	}
 
-	if (sent) return <FormMessage tone="ok">If {email} has an account, a reset link is on its way. It works once, for one hour.</FormMessage>;
+	if (sent)
+		return (
+			<FormMessage tone="ok">
+				If {email} has an account, a reset link is on its way. It works once, for one hour.
+			</FormMessage>
+		);
 	return (
-		<form onSubmit={submit} noValidate className="flex flex-col gap-4" aria-label="Reset the password">
-			<Field label="E-mail" type="email" name="email" autoComplete="email" value={email} onChange={(e) => setEmail(e.target.value)} error={error} required />
+		<form
+			onSubmit={submit}
+			noValidate
+			className="flex flex-col gap-4"
+			aria-label="Reset the password"
+		>
+			<Field
+				label="E-mail"
+				type="email"
+				name="email"
+				autoComplete="email"
+				value={email}
+				onChange={(e) => setEmail(e.target.value)}
+				error={error}
+				required
+			/>
 			<Button type="submit" busy={request.isPending}>
 				Send a reset link
 			</Button>
@@ -36,7 +55,11 @@ export const ForgotPasswordForm = withQueryClient(function ForgotPasswordForm() 
 	);
 });
 
-export const ResetPasswordForm = withQueryClient(function ResetPasswordForm({ token }: { token: string }) {
+export const ResetPasswordForm = withQueryClient(function ResetPasswordForm({
+	token,
+}: {
+	token: string;
+}) {
 	const confirm = useConfirmPasswordReset();
 	const [password, setPassword] = useState('');
 	const [error, setError] = useState<string | undefined>();
@@ -45,22 +68,46 @@ export const ResetPasswordForm = withQueryClient(function ResetPasswordForm({ to
 	async function submit(event: React.FormEvent) {
 		event.preventDefault();
 		const parsed = passwordResetConfirmSchema.safeParse({ token, password });
-		if (!parsed.success) return setError(fieldErrors(parsed.error).password ?? fieldErrors(parsed.error).token);
+		if (!parsed.success)
+			return setError(fieldErrors(parsed.error).password ?? fieldErrors(parsed.error).token);
 		setError(undefined);
 		try {
 			await confirm.mutateAsync(parsed.data);
 			setMessage({ tone: 'ok', text: 'Your password is changed. Sign in with the new one.' });
 		} catch (e) {
-			setMessage({ tone: 'error', text: e instanceof ApiError ? e.message : 'Could not reach the server.' });
+			setMessage({
+				tone: 'error',
+				text: e instanceof ApiError ? e.message : 'Could not reach the server.',
+			});
 		}
 	}
 
 	return (
-		<form onSubmit={submit} noValidate className="flex flex-col gap-4" aria-label="Choose a new password">
-			<Field label="New password" type="password" name="password" autoComplete="new-password" value={password} onChange={(e) => setPassword(e.target.value)} error={error} hint="At least 10 characters" required />
+		<form
+			onSubmit={submit}
+			noValidate
+			className="flex flex-col gap-4"
+			aria-label="Choose a new password"
+		>
+			<Field
+				label="New password"
+				type="password"
+				name="password"
+				autoComplete="new-password"
+				value={password}
+				onChange={(e) => setPassword(e.target.value)}
+				error={error}
+				hint="At least 10 characters"
+				required
+			/>
 			{message && (
 				<FormMessage tone={message.tone}>
-					{message.text} {message.tone === 'ok' && <a href="/sign-in" className="font-semibold underline">Sign in</a>}
+					{message.text}{' '}
+					{message.tone === 'ok' && (
+						<a href="/sign-in" className="font-semibold underline">
+							Sign in
+						</a>
+					)}
 				</FormMessage>
 			)}
 			<Button type="submit" busy={confirm.isPending} disabled={message?.tone === 'ok'}>

@@ -15,7 +15,9 @@ export function SignInForm({ callbackUrl, initialError }: SignInFormProps) {
 	const [email, setEmail] = useState('');
 	const [password, setPassword] = useState('');
 	const [errors, setErrors] = useState<Record<string, string>>({});
-	const [message, setMessage] = useState<{ tone: 'error' | 'ok'; text: string } | null>(initialError ? { tone: 'error', text: initialError } : null);
+	const [message, setMessage] = useState<{ tone: 'error' | 'ok'; text: string } | null>(
+		initialError ? { tone: 'error', text: initialError } : null,
+	);
 	const [busy, setBusy] = useState(false);
 
 	async function submit(event: React.FormEvent) {
@@ -26,7 +28,11 @@ export function SignInForm({ callbackUrl, initialError }: SignInFormProps) {
 			if (!parsed.success) return setErrors(fieldErrors(parsed.error));
 			setErrors({});
 			setBusy(true);
-			const outcome = await signInWithPassword(parsed.data.email, parsed.data.password, callbackUrl);
+			const outcome = await signInWithPassword(
+				parsed.data.email,
+				parsed.data.password,
+				callbackUrl,
+			);
 			setBusy(false);
 			if (outcome.ok) window.location.href = outcome.url;
 			else setMessage({ tone: 'error', text: outcome.message });
@@ -37,15 +43,29 @@ export function SignInForm({ callbackUrl, initialError }: SignInFormProps) {
 			setBusy(true);
 			const outcome = await requestSignInLink(parsed.data, callbackUrl);
 			setBusy(false);
-			if (outcome.ok) setMessage({ tone: 'ok', text: `A sign-in link is on its way to ${parsed.data}. It works once, for 24 hours.` });
+			if (outcome.ok)
+				setMessage({
+					tone: 'ok',
+					text: `A sign-in link is on its way to ${parsed.data}. It works once, for 24 hours.`,
+				});
 			else setMessage({ tone: 'error', text: outcome.message });
 		}
 	}
 
 	return (
-		<form method="post" onSubmit={submit} noValidate className="flex flex-col gap-4" aria-label="Sign in">
+		<form
+			method="post"
+			onSubmit={submit}
+			noValidate
+			className="flex flex-col gap-4"
+			aria-label="Sign in"
+		>
 			<input type="hidden" name="mode" value={mode} />
-			<div role="radiogroup" aria-label="How to sign in" className="grid grid-cols-2 gap-1 rounded-md border border-hairline bg-paper p-1 text-sm">
+			<div
+				role="radiogroup"
+				aria-label="How to sign in"
+				className="grid grid-cols-2 gap-1 rounded-md border border-hairline bg-paper p-1 text-sm"
+			>
 				{(['password', 'link'] as const).map((m) => (
 					<button
 						key={m}
@@ -59,9 +79,27 @@ export function SignInForm({ callbackUrl, initialError }: SignInFormProps) {
 					</button>
 				))}
 			</div>
-			<Field label="E-mail" name="email" type="email" autoComplete="email" value={email} onChange={(e) => setEmail(e.target.value)} error={errors.email} required />
+			<Field
+				label="E-mail"
+				name="email"
+				type="email"
+				autoComplete="email"
+				value={email}
+				onChange={(e) => setEmail(e.target.value)}
+				error={errors.email}
+				required
+			/>
 			{mode === 'password' && (
-				<Field label="Password" name="password" type="password" autoComplete="current-password" value={password} onChange={(e) => setPassword(e.target.value)} error={errors.password} required />
+				<Field
+					label="Password"
+					name="password"
+					type="password"
+					autoComplete="current-password"
+					value={password}
+					onChange={(e) => setPassword(e.target.value)}
+					error={errors.password}
+					required
+				/>
 			)}
 			{message && <FormMessage tone={message.tone}>{message.text}</FormMessage>}
 			<Button type="submit" busy={busy}>

@@ -12,16 +12,30 @@ export interface SignUpFormProps {
 	/** Prefilled (and fixed) when signing up from an invitation. */
 	email?: string;
 	/** What the server said about a form posted before the script ran. */
-	initial?: { name?: string; email?: string; errors?: Record<string, string>; message?: string | null };
+	initial?: {
+		name?: string;
+		email?: string;
+		errors?: Record<string, string>;
+		message?: string | null;
+	};
 }
 
-export const SignUpForm = withQueryClient(function SignUpForm({ callbackUrl, email: invitedEmail, initial }: SignUpFormProps) {
+export const SignUpForm = withQueryClient(function SignUpForm({
+	callbackUrl,
+	email: invitedEmail,
+	initial,
+}: SignUpFormProps) {
 	const signUp = useSignUp();
 	const [signingIn, setSigningIn] = useState(false);
-	const [values, setValues] = useState({ name: initial?.name ?? '', email: invitedEmail ?? initial?.email ?? '', password: '' });
+	const [values, setValues] = useState({
+		name: initial?.name ?? '',
+		email: invitedEmail ?? initial?.email ?? '',
+		password: '',
+	});
 	const [errors, setErrors] = useState<Record<string, string>>(initial?.errors ?? {});
 	const [message, setMessage] = useState<string | null>(initial?.message ?? null);
-	const set = (key: keyof typeof values) => (e: React.ChangeEvent<HTMLInputElement>) => setValues((v) => ({ ...v, [key]: e.target.value }));
+	const set = (key: keyof typeof values) => (e: React.ChangeEvent<HTMLInputElement>) =>
+		setValues((v) => ({ ...v, [key]: e.target.value }));
 
 	async function submit(event: React.FormEvent) {
 		event.preventDefault();
@@ -32,7 +46,11 @@ export const SignUpForm = withQueryClient(function SignUpForm({ callbackUrl, ema
 		try {
 			await signUp.mutateAsync(parsed.data);
 			setSigningIn(true);
-			const outcome = await signInWithPassword(parsed.data.email, parsed.data.password, callbackUrl);
+			const outcome = await signInWithPassword(
+				parsed.data.email,
+				parsed.data.password,
+				callbackUrl,
+			);
 			if (outcome.ok) window.location.href = outcome.url;
 			else {
 				setSigningIn(false);
@@ -47,10 +65,45 @@ export const SignUpForm = withQueryClient(function SignUpForm({ callbackUrl, ema
 	}
 
 	return (
-		<form method="post" onSubmit={submit} noValidate className="flex flex-col gap-4" aria-label="Create an account">
-			<Field label="Your name" name="name" autoComplete="name" value={values.name} onChange={set('name')} error={errors.name} required />
-			<Field label="E-mail" name="email" type="email" autoComplete="email" value={values.email} onChange={set('email')} readOnly={Boolean(invitedEmail)} error={errors.email} hint={invitedEmail ? 'The address the invitation was sent to' : undefined} required />
-			<Field label="Password" name="password" type="password" autoComplete="new-password" value={values.password} onChange={set('password')} error={errors.password} hint="At least 10 characters" required />
+		<form
+			method="post"
+			onSubmit={submit}
+			noValidate
+			className="flex flex-col gap-4"
+			aria-label="Create an account"
+		>
+			<Field
+				label="Your name"
+				name="name"
+				autoComplete="name"
+				value={values.name}
+				onChange={set('name')}
+				error={errors.name}
+				required
+			/>
+			<Field
+				label="E-mail"
+				name="email"
+				type="email"
+				autoComplete="email"
+				value={values.email}
+				onChange={set('email')}
+				readOnly={Boolean(invitedEmail)}
+				error={errors.email}
+				hint={invitedEmail ? 'The address the invitation was sent to' : undefined}
+				required
+			/>
+			<Field
+				label="Password"
+				name="password"
+				type="password"
+				autoComplete="new-password"
+				value={values.password}
+				onChange={set('password')}
+				error={errors.password}
+				hint="At least 10 characters"
+				required
+			/>
 			{message && <FormMessage tone="error">{message}</FormMessage>}
 			<Button type="submit" busy={signUp.isPending || signingIn}>
 				Create the account

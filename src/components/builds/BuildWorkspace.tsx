@@ -8,7 +8,13 @@ import { ApiError } from '@/lib/client/api-client';
 import { buildDrafts } from '@/lib/client/draft-store';
 import { useSetUnits } from '@/lib/client/queries/account';
 import { getQueryClient } from '@/lib/client/query-client';
-import { fetchHeadRevision, type RevisionDto, type RevisionSummary, revisionsQueryOptions, useSaveRevision } from '@/lib/client/queries/builds';
+import {
+	fetchHeadRevision,
+	type RevisionDto,
+	type RevisionSummary,
+	revisionsQueryOptions,
+	useSaveRevision,
+} from '@/lib/client/queries/builds';
 import { fieldName, formatFieldValue, GROUP_NAMES, type UnitSystem } from '@/lib/format';
 import { Button, FormMessage } from '@/components/ui/Field';
 import { starterDocument } from './new-parts';
@@ -32,7 +38,15 @@ export function BuildWorkspace(props: BuildWorkspaceProps) {
 	);
 }
 
-export function BuildWorkspaceView({ teamId, vehicleId, vehicleName, canEdit, head: initialHead, revisions: initialRevisions, units: initialUnits }: BuildWorkspaceProps) {
+export function BuildWorkspaceView({
+	teamId,
+	vehicleId,
+	vehicleName,
+	canEdit,
+	head: initialHead,
+	revisions: initialRevisions,
+	units: initialUnits,
+}: BuildWorkspaceProps) {
 	const saveRevision = useSaveRevision(teamId, vehicleId);
 	const setUnitsOnAccount = useSetUnits();
 	const [head, setHead] = useState<RevisionDto | null>(initialHead);
@@ -42,8 +56,16 @@ export function BuildWorkspaceView({ teamId, vehicleId, vehicleName, canEdit, he
 	const [message, setMessage] = useState('');
 	const [restored, setRestored] = useState<string | null>(null);
 	const [units, setUnits] = useState<UnitSystem>(initialUnits);
-	const [saveState, setSaveState] = useState<{ busy: boolean; error: string | null; ok: string | null; conflict: RevisionDto | null }>({ busy: false, error: null, ok: null, conflict: null });
-	const revisions = useQuery({ ...revisionsQueryOptions(teamId, vehicleId), initialData: initialRevisions });
+	const [saveState, setSaveState] = useState<{
+		busy: boolean;
+		error: string | null;
+		ok: string | null;
+		conflict: RevisionDto | null;
+	}>({ busy: false, error: null, ok: null, conflict: null });
+	const revisions = useQuery({
+		...revisionsQueryOptions(teamId, vehicleId),
+		initialData: initialRevisions,
+	});
 
 	// Bring back an unsaved draft from this browser.
 	useEffect(() => {
@@ -53,14 +75,19 @@ export function BuildWorkspaceView({ teamId, vehicleId, vehicleName, canEdit, he
 			setDraft(stored.document);
 			setMessage(stored.message);
 			setBaseId(stored.baseRevisionId);
-			setRestored(stored.baseRevisionId === (initialHead?.id ?? null) ? 'Your unsaved changes from this browser are back.' : 'Your unsaved changes are back, but they were based on an older revision; saving will ask you to compare.');
+			setRestored(
+				stored.baseRevisionId === (initialHead?.id ?? null)
+					? 'Your unsaved changes from this browser are back.'
+					: 'Your unsaved changes are back, but they were based on an older revision; saving will ask you to compare.',
+			);
 		}
 		// eslint-disable-next-line react-hooks/exhaustive-deps -- once, on mount: what changes later is the member's own editing
 	}, []);
 
 	const dirty = JSON.stringify(draft) !== JSON.stringify(baseDoc) || baseId !== (head?.id ?? null);
 	useEffect(() => {
-		if (canEdit && dirty) buildDrafts.store(vehicleId, { baseRevisionId: baseId, document: draft, message });
+		if (canEdit && dirty)
+			buildDrafts.store(vehicleId, { baseRevisionId: baseId, document: draft, message });
 	}, [canEdit, dirty, vehicleId, baseId, draft, message]);
 
 	const errors = useMemo(() => validateDraft(draft), [draft]);
@@ -77,13 +104,26 @@ export function BuildWorkspaceView({ teamId, vehicleId, vehicleName, canEdit, he
 			setDraft(saved.document);
 			setMessage('');
 			setRestored(null);
-			setSaveState({ busy: false, error: null, ok: `Saved as revision ${saved.number}.`, conflict: null });
+			setSaveState({
+				busy: false,
+				error: null,
+				ok: `Saved as revision ${saved.number}.`,
+				conflict: null,
+			});
 		} catch (e) {
 			if (e instanceof ApiError && e.status === 409) {
 				const theirs = await fetchHeadRevision(teamId, vehicleId).catch(() => null);
 				setSaveState({ busy: false, error: e.message, ok: null, conflict: theirs });
 			} else {
-				setSaveState({ busy: false, error: e instanceof ApiError ? e.message : 'Could not reach the server; your draft is kept in this browser.', ok: null, conflict: null });
+				setSaveState({
+					busy: false,
+					error:
+						e instanceof ApiError
+							? e.message
+							: 'Could not reach the server; your draft is kept in this browser.',
+					ok: null,
+					conflict: null,
+				});
 			}
 		}
 	}
@@ -93,11 +133,13 @@ export function BuildWorkspaceView({ teamId, vehicleId, vehicleName, canEdit, he
 		setUnitsOnAccount.mutate(next);
 	}
 
-
 	return (
 		<div className="flex flex-col gap-8">
 			{/* Status and save */}
-			<section aria-label="Draft and saving" className="sticky top-0 z-10 -mx-2 flex flex-col gap-2 rounded-md border border-hairline bg-card/95 p-3 shadow-sm backdrop-blur">
+			<section
+				aria-label="Draft and saving"
+				className="sticky top-0 z-10 -mx-2 flex flex-col gap-2 rounded-md border border-hairline bg-card/95 p-3 shadow-sm backdrop-blur"
+			>
 				<div className="flex flex-wrap items-center gap-3">
 					<span className="text-sm">
 						{head ? (
@@ -108,14 +150,32 @@ export function BuildWorkspaceView({ teamId, vehicleId, vehicleName, canEdit, he
 							<strong>No revision yet: this is a starting point</strong>
 						)}
 					</span>
-					{dirty && <span className="rounded bg-amber-tint px-2 py-0.5 text-xs font-semibold text-ink">● {changes.length} unsaved change{changes.length === 1 ? '' : 's'}</span>}
-					{!valid && <span className="rounded bg-brick-tint px-2 py-0.5 text-xs font-semibold text-brick">✕ {Object.keys(errors).length} field{Object.keys(errors).length === 1 ? '' : 's'} to fix</span>}
+					{dirty && (
+						<span className="rounded bg-amber-tint px-2 py-0.5 text-xs font-semibold text-ink">
+							● {changes.length} unsaved change{changes.length === 1 ? '' : 's'}
+						</span>
+					)}
+					{!valid && (
+						<span className="rounded bg-brick-tint px-2 py-0.5 text-xs font-semibold text-brick">
+							✕ {Object.keys(errors).length} field{Object.keys(errors).length === 1 ? '' : 's'} to
+							fix
+						</span>
+					)}
 					<span className="flex-1" />
 					<fieldset className="flex items-center gap-1 text-sm">
 						<legend className="sr-only">Units</legend>
 						{(['imperial', 'metric'] as const).map((u) => (
-							<label key={u} className={`cursor-pointer rounded px-2 py-1 ${units === u ? 'bg-slate-deep text-paper' : 'bg-paper'}`}>
-								<input type="radio" name="units" className="sr-only" checked={units === u} onChange={() => void saveUnits(u)} />
+							<label
+								key={u}
+								className={`cursor-pointer rounded px-2 py-1 ${units === u ? 'bg-slate-deep text-paper' : 'bg-paper'}`}
+							>
+								<input
+									type="radio"
+									name="units"
+									className="sr-only"
+									checked={units === u}
+									onChange={() => void saveUnits(u)}
+								/>
 								{u === 'imperial' ? 'ft · AWG' : 'm · mm²'}
 							</label>
 						))}
@@ -132,8 +192,19 @@ export function BuildWorkspaceView({ teamId, vehicleId, vehicleName, canEdit, he
 						<label htmlFor="revision-message" className="sr-only">
 							What changed and why
 						</label>
-						<input id="revision-message" value={message} onChange={(e) => setMessage(e.target.value)} placeholder="What changed and why (e.g. run upgraded to 1/0 after the last event)" className="min-w-72 flex-1 rounded-md border border-hairline bg-card px-3 py-2" maxLength={500} />
-						<Button type="submit" busy={saveState.busy} disabled={!dirty || !valid || message.trim() === ''}>
+						<input
+							id="revision-message"
+							value={message}
+							onChange={(e) => setMessage(e.target.value)}
+							placeholder="What changed and why (e.g. run upgraded to 1/0 after the last event)"
+							className="min-w-72 flex-1 rounded-md border border-hairline bg-card px-3 py-2"
+							maxLength={500}
+						/>
+						<Button
+							type="submit"
+							busy={saveState.busy}
+							disabled={!dirty || !valid || message.trim() === ''}
+						>
 							Save revision
 						</Button>
 						<label className="cursor-pointer rounded-md border border-hairline bg-card px-3 py-2 text-sm font-semibold hover:border-copper">
@@ -150,14 +221,29 @@ export function BuildWorkspaceView({ teamId, vehicleId, vehicleName, canEdit, he
 									try {
 										raw = JSON.parse(await f.text());
 									} catch {
-										return setSaveState((s) => ({ ...s, error: `${f.name} is not valid JSON.`, ok: null }));
+										return setSaveState((s) => ({
+											...s,
+											error: `${f.name} is not valid JSON.`,
+											ok: null,
+										}));
 									}
 									const parsed = parseBuildDocument(raw);
 									if (!parsed.ok) {
-										return setSaveState((s) => ({ ...s, ok: null, error: `${f.name} was not loaded: ${parsed.problems.slice(0, 4).map((p) => `${p.path || 'document'}: ${p.message}`).join(' · ')}` }));
+										return setSaveState((s) => ({
+											...s,
+											ok: null,
+											error: `${f.name} was not loaded: ${parsed.problems
+												.slice(0, 4)
+												.map((p) => `${p.path || 'document'}: ${p.message}`)
+												.join(' · ')}`,
+										}));
 									}
 									setDraft(parsed.doc);
-									setSaveState((s) => ({ ...s, error: null, ok: `${f.name} is loaded into the draft; save it as a revision to keep it.` }));
+									setSaveState((s) => ({
+										...s,
+										error: null,
+										ok: `${f.name} is loaded into the draft; save it as a revision to keep it.`,
+									}));
 								}}
 							/>
 						</label>
@@ -179,7 +265,17 @@ export function BuildWorkspaceView({ teamId, vehicleId, vehicleName, canEdit, he
 					</form>
 				)}
 				{restored && <FormMessage tone="info">{restored}</FormMessage>}
-				{saveState.ok && <FormMessage tone="ok">{saveState.ok} <a className="font-semibold underline" href={`/teams/${teamId}/vehicles/${vehicleId}/history`}>See the history</a></FormMessage>}
+				{saveState.ok && (
+					<FormMessage tone="ok">
+						{saveState.ok}{' '}
+						<a
+							className="font-semibold underline"
+							href={`/teams/${teamId}/vehicles/${vehicleId}/history`}
+						>
+							See the history
+						</a>
+					</FormMessage>
+				)}
 				{saveState.error && <FormMessage tone="error">{saveState.error}</FormMessage>}
 				{saveState.conflict && (
 					<ConflictPanel
@@ -201,13 +297,21 @@ export function BuildWorkspaceView({ teamId, vehicleId, vehicleName, canEdit, he
 				)}
 			</section>
 
-			<Workbench draft={draft} errors={errors} units={units} canEdit={canEdit} onChange={(next: (d: BuildDocument) => BuildDocument) => {
-				setDraft(next);
-				setSaveState((st) => ({ ...st, ok: null }));
-			}} />
+			<Workbench
+				draft={draft}
+				errors={errors}
+				units={units}
+				canEdit={canEdit}
+				onChange={(next: (d: BuildDocument) => BuildDocument) => {
+					setDraft(next);
+					setSaveState((st) => ({ ...st, ok: null }));
+				}}
+			/>
 
 			<section aria-labelledby="recent-heading">
-				<h2 id="recent-heading" className="text-xl font-bold">Recent revisions</h2>
+				<h2 id="recent-heading" className="text-xl font-bold">
+					Recent revisions
+				</h2>
 				{revisions.data.length === 0 ? (
 					<p className="mt-2 text-sm text-ink-soft">No revision saved yet.</p>
 				) : (
@@ -217,13 +321,17 @@ export function BuildWorkspaceView({ teamId, vehicleId, vehicleName, canEdit, he
 								<span className="num font-semibold">r{r.number}</span>
 								<span className="flex-1">{r.message}</span>
 								<span className="text-ink-soft">
-									{r.authorName ?? 'someone'} · {formatDistanceToNow(new Date(r.createdAt), { addSuffix: true })}
+									{r.authorName ?? 'someone'} ·{' '}
+									{formatDistanceToNow(new Date(r.createdAt), { addSuffix: true })}
 								</span>
 							</li>
 						))}
 					</ol>
 				)}
-				<a href={`/teams/${teamId}/vehicles/${vehicleId}/history`} className="mt-2 inline-block text-sm font-semibold text-copper-dark underline">
+				<a
+					href={`/teams/${teamId}/vehicles/${vehicleId}/history`}
+					className="mt-2 inline-block text-sm font-semibold text-copper-dark underline"
+				>
 					Full history with changes
 				</a>
 			</section>
@@ -232,18 +340,43 @@ export function BuildWorkspaceView({ teamId, vehicleId, vehicleName, canEdit, he
 	);
 }
 
-function ConflictPanel({ theirs, mine, units, onKeepMine, onTakeTheirs }: { theirs: RevisionDto; mine: BuildDocument; units: UnitSystem; onKeepMine: () => void; onTakeTheirs: () => void }) {
+function ConflictPanel({
+	theirs,
+	mine,
+	units,
+	onKeepMine,
+	onTakeTheirs,
+}: {
+	theirs: RevisionDto;
+	mine: BuildDocument;
+	units: UnitSystem;
+	onKeepMine: () => void;
+	onTakeTheirs: () => void;
+}) {
 	const diff = diffBuilds(theirs.document, mine);
 	return (
 		<div role="alert" className="rounded-md border border-amber/60 bg-amber-tint p-3 text-sm">
 			<p className="font-semibold">
-				Revision {theirs.number} (“{theirs.message}”, by {theirs.authorName ?? 'someone'}) was saved while you edited.
+				Revision {theirs.number} (“{theirs.message}”, by {theirs.authorName ?? 'someone'}) was saved
+				while you edited.
 			</p>
-			<p className="mt-1">Your draft differs from it in {diff.length} part{diff.length === 1 ? '' : 's'}:</p>
+			<p className="mt-1">
+				Your draft differs from it in {diff.length} part{diff.length === 1 ? '' : 's'}:
+			</p>
 			<ul className="mt-1 list-disc pl-5">
 				{diff.slice(0, 8).map((c) => (
 					<li key={`${c.group}.${c.id}`}>
-						{GROUP_NAMES[c.group]} {c.label}: {c.kind === 'changed' ? c.fields.map((f) => `${fieldName(f.field)} ${formatFieldValue(f.field, f.before, units)} → ${formatFieldValue(f.field, f.after, units)}`).join('; ') : c.kind === 'added' ? 'only in yours' : 'only in theirs'}
+						{GROUP_NAMES[c.group]} {c.label}:{' '}
+						{c.kind === 'changed'
+							? c.fields
+									.map(
+										(f) =>
+											`${fieldName(f.field)} ${formatFieldValue(f.field, f.before, units)} → ${formatFieldValue(f.field, f.after, units)}`,
+									)
+									.join('; ')
+							: c.kind === 'added'
+								? 'only in yours'
+								: 'only in theirs'}
 					</li>
 				))}
 			</ul>

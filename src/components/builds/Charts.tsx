@@ -1,4 +1,13 @@
-import { CategoryScale, Chart as ChartJS, Filler, Legend, LinearScale, LineElement, PointElement, Tooltip } from 'chart.js';
+import {
+	CategoryScale,
+	Chart as ChartJS,
+	Filler,
+	Legend,
+	LinearScale,
+	LineElement,
+	PointElement,
+	Tooltip,
+} from 'chart.js';
 import { useMemo } from 'react';
 import { Line } from 'react-chartjs-2';
 import type { BudgetRow, BurpRun } from '@/engine';
@@ -12,7 +21,10 @@ const budgetOptions = {
 	maintainAspectRatio: false,
 	animation: false as const,
 	interaction: { mode: 'index' as const, intersect: false },
-	scales: { y: { beginAtZero: true, title: { display: true, text: 'Current (A)' } }, x: { title: { display: true, text: 'Supply voltage' } } },
+	scales: {
+		y: { beginAtZero: true, title: { display: true, text: 'Current (A)' } },
+		x: { title: { display: true, text: 'Supply voltage' } },
+	},
 	plugins: { legend: { position: 'bottom' as const } },
 };
 
@@ -21,7 +33,10 @@ const burpOptions = {
 	maintainAspectRatio: false,
 	animation: false as const,
 	interaction: { mode: 'index' as const, intersect: false },
-	scales: { y: { title: { display: true, text: 'Voltage (V)' } }, x: { title: { display: true, text: 'Time into the burp (s)' }, ticks: { maxTicksLimit: 11 } } },
+	scales: {
+		y: { title: { display: true, text: 'Voltage (V)' } },
+		x: { title: { display: true, text: 'Time into the burp (s)' }, ticks: { maxTicksLimit: 11 } },
+	},
 	plugins: { legend: { position: 'bottom' as const } },
 };
 
@@ -29,16 +44,34 @@ export function BudgetChart({ rows }: { rows: BudgetRow[] }) {
 	const data = useMemo(() => toBudgetChartData(rows), [rows]);
 	return (
 		<div className="h-64">
-			<Line data={data} options={budgetOptions} aria-label="Current demand against alternator supply at each supply voltage" role="img" />
+			<Line
+				data={data}
+				options={budgetOptions}
+				aria-label="Current demand against alternator supply at each supply voltage"
+				role="img"
+			/>
 		</div>
 	);
 }
 
-export function BurpChart({ run, bankLabels, ruleV }: { run: BurpRun; bankLabels: Record<string, string>; ruleV: number | null }) {
+export function BurpChart({
+	run,
+	bankLabels,
+	ruleV,
+}: {
+	run: BurpRun;
+	bankLabels: Record<string, string>;
+	ruleV: number | null;
+}) {
 	const data = useMemo(() => toBurpChartData(run, bankLabels, ruleV), [run, bankLabels, ruleV]);
 	return (
 		<div className="h-64">
-			<Line data={data} options={burpOptions} aria-label="Voltages over the time of a burp" role="img" />
+			<Line
+				data={data}
+				options={burpOptions}
+				aria-label="Voltages over the time of a burp"
+				role="img"
+			/>
 		</div>
 	);
 }

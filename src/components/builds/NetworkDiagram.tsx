@@ -2,7 +2,14 @@ import { useMemo } from 'react';
 import { cableAreaMm2 } from '@/engine';
 import type { BuildDocument, NodeKind } from '@/engine';
 
-const COLUMN: Record<NodeKind, number> = { alternator: 0, junction: 0, battery: 1, block: 2, amplifier: 3, chassis: 4 };
+const COLUMN: Record<NodeKind, number> = {
+	alternator: 0,
+	junction: 0,
+	battery: 1,
+	block: 2,
+	amplifier: 3,
+	chassis: 4,
+};
 const W = 880;
 const H = 300;
 
@@ -50,7 +57,12 @@ export function NetworkDiagram({ doc, flagged }: { doc: BuildDocument; flagged: 
 		...doc.loads.map((l) => ({ ...l, colour: '#55616b', tag: 'load' })),
 	];
 	return (
-		<svg viewBox={`0 0 ${W} ${H}`} className="w-full rounded-md border border-hairline bg-card" role="img" aria-label="Diagram of the build: sources, cables and loads">
+		<svg
+			viewBox={`0 0 ${W} ${H}`}
+			className="w-full rounded-md border border-hairline bg-card"
+			role="img"
+			aria-label="Diagram of the build: sources, cables and loads"
+		>
 			<line x1={40} x2={W - 40} y1={285} y2={285} stroke="#1d262e" strokeWidth={3} />
 			<text x={W - 44} y={279} textAnchor="end" fontSize={11} fill="#55616b">
 				chassis (0 V)
@@ -60,9 +72,23 @@ export function NetworkDiagram({ doc, flagged }: { doc: BuildDocument; flagged: 
 				const b = pos.get(c.to);
 				if (!a || !b) return null;
 				const width = Math.min(7, 1 + Math.sqrt(cableAreaMm2(c.size) * c.parallelRuns) / 2.5);
-				const colour = flagged.has(c.id) ? '#b3261e' : ground.has(c.from) && ground.has(c.to) ? '#2a3844' : '#b8652a';
+				const colour = flagged.has(c.id)
+					? '#b3261e'
+					: ground.has(c.from) && ground.has(c.to)
+						? '#2a3844'
+						: '#b8652a';
 				return (
-					<line key={c.id} x1={a.x} y1={a.y} x2={b.x} y2={b.y} stroke={colour} strokeWidth={width} strokeLinecap="round" strokeDasharray={flagged.has(c.id) ? '7 3' : undefined}>
+					<line
+						key={c.id}
+						x1={a.x}
+						y1={a.y}
+						x2={b.x}
+						y2={b.y}
+						stroke={colour}
+						strokeWidth={width}
+						strokeLinecap="round"
+						strokeDasharray={flagged.has(c.id) ? '7 3' : undefined}
+					>
 						<title>{`${c.label}${flagged.has(c.id) ? ' — has a finding' : ''}`}</title>
 					</line>
 				);
@@ -73,7 +99,15 @@ export function NetworkDiagram({ doc, flagged }: { doc: BuildDocument; flagged: 
 				if (!a || !b) return null;
 				return (
 					<g key={p.id}>
-						<line x1={a.x} y1={a.y} x2={b.x} y2={b.y} stroke={p.colour} strokeWidth={1.5} strokeDasharray="3 3" />
+						<line
+							x1={a.x}
+							y1={a.y}
+							x2={b.x}
+							y2={b.y}
+							stroke={p.colour}
+							strokeWidth={1.5}
+							strokeDasharray="3 3"
+						/>
 						<text x={(a.x + b.x) / 2 + 6} y={(a.y + b.y) / 2} fontSize={10} fill={p.colour}>
 							{p.label}
 						</text>
@@ -86,7 +120,13 @@ export function NetworkDiagram({ doc, flagged }: { doc: BuildDocument; flagged: 
 					const p = pos.get(n.id)!;
 					return (
 						<g key={n.id}>
-							<circle cx={p.x} cy={p.y} r={4.5} fill={ground.has(n.id) ? '#2a3844' : '#f7f5f0'} stroke="#1d262e" />
+							<circle
+								cx={p.x}
+								cy={p.y}
+								r={4.5}
+								fill={ground.has(n.id) ? '#2a3844' : '#f7f5f0'}
+								stroke="#1d262e"
+							/>
 							<text x={p.x + 7} y={p.y - 6} fontSize={10} fill="#1d262e">
 								{n.label}
 							</text>

@@ -6,7 +6,11 @@ import { withQueryClient } from '@/lib/client/query-client';
 import { fieldErrors } from '@/lib/client/form-errors';
 import { Button, Field } from '@/components/ui/Field';
 
-export const NewVehicleForm = withQueryClient(function NewVehicleForm({ teamId }: { teamId: string }) {
+export const NewVehicleForm = withQueryClient(function NewVehicleForm({
+	teamId,
+}: {
+	teamId: string;
+}) {
 	const create = useCreateVehicle(teamId);
 	const [open, setOpen] = useState(false);
 	const [values, setValues] = useState({ name: '', description: '', competitionClass: '' });
@@ -17,7 +21,8 @@ export const NewVehicleForm = withQueryClient(function NewVehicleForm({ teamId }
 				+ Add a vehicle
 			</Button>
 		);
-	const set = (k: keyof typeof values) => (e: React.ChangeEvent<HTMLInputElement>) => setValues((v) => ({ ...v, [k]: e.target.value }));
+	const set = (k: keyof typeof values) => (e: React.ChangeEvent<HTMLInputElement>) =>
+		setValues((v) => ({ ...v, [k]: e.target.value }));
 	return (
 		<form
 			noValidate
@@ -31,13 +36,27 @@ export const NewVehicleForm = withQueryClient(function NewVehicleForm({ teamId }
 					const v = await create.mutateAsync(parsed.data);
 					window.location.href = `/teams/${teamId}/vehicles/${v.id}`;
 				} catch (err) {
-					setErrors(err instanceof ApiError ? { name: err.message, ...err.byField() } : { name: 'Could not reach the server' });
+					setErrors(
+						err instanceof ApiError
+							? { name: err.message, ...err.byField() }
+							: { name: 'Could not reach the server' },
+					);
 				}
 			}}
 		>
 			<Field label="Name" value={values.name} onChange={set('name')} error={errors.name} />
-			<Field label="Year, make and model" value={values.description} onChange={set('description')} error={errors.description} />
-			<Field label="Competition class" value={values.competitionClass} onChange={set('competitionClass')} error={errors.competitionClass} />
+			<Field
+				label="Year, make and model"
+				value={values.description}
+				onChange={set('description')}
+				error={errors.description}
+			/>
+			<Field
+				label="Competition class"
+				value={values.competitionClass}
+				onChange={set('competitionClass')}
+				error={errors.competitionClass}
+			/>
 			<Button type="submit" busy={create.isPending || create.isSuccess}>
 				Add the vehicle
 			</Button>

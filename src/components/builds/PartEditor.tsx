@@ -1,6 +1,13 @@
 import type { BuildDocument, PartGroup } from '@/engine';
 import type { UnitSystem } from '@/lib/format';
-import { alternatorColumns, amplifierColumns, bankColumns, cableColumns, loadColumns, nodeColumns } from './editor-columns';
+import {
+	alternatorColumns,
+	amplifierColumns,
+	bankColumns,
+	cableColumns,
+	loadColumns,
+	nodeColumns,
+} from './editor-columns';
 import { newAlternator, newAmplifier, newBank, newCable, newLoad, newNode } from './new-parts';
 import { PartTable } from './PartTable';
 
@@ -26,7 +33,10 @@ export function PartEditor({
 	function update<G extends PartGroup>(group: G, index: number, next: BuildDocument[G][number]) {
 		onChange((d) => ({ ...d, [group]: d[group].map((x, i) => (i === index ? next : x)) }));
 	}
-	function add<G extends PartGroup>(group: G, make: (d: BuildDocument) => BuildDocument[G][number]) {
+	function add<G extends PartGroup>(
+		group: G,
+		make: (d: BuildDocument) => BuildDocument[G][number],
+	) {
 		onChange((d) => ({ ...d, [group]: [...d[group], make(d)] }));
 	}
 	function remove(group: PartGroup, index: number) {
@@ -35,38 +45,117 @@ export function PartEditor({
 	return (
 		<section aria-labelledby="edit-heading" className="flex flex-col gap-6">
 			<div>
-				<h2 id="edit-heading" className="text-xl font-bold">{canEdit ? `Edit the ${subject}` : `The ${subject}`}</h2>
-				<p className="text-sm text-ink-soft">{canEdit ? `Every change recomputes the budget above. Nothing is stored until you save; the draft stays in this browser.` : `You can read this ${subject}; members and captains edit it.`}</p>
+				<h2 id="edit-heading" className="text-xl font-bold">
+					{canEdit ? `Edit the ${subject}` : `The ${subject}`}
+				</h2>
+				<p className="text-sm text-ink-soft">
+					{canEdit
+						? `Every change recomputes the budget above. Nothing is stored until you save; the draft stays in this browser.`
+						: `You can read this ${subject}; members and captains edit it.`}
+				</p>
 			</div>
 			<EditGroup title="Cables" onAdd={canEdit ? () => add('cables', newCable) : undefined}>
-				<PartTable caption="Cables" rows={draft.cables} columns={cableColumns(nodeOptions, units)} pathPrefix="cables" errors={errors} readOnly={!canEdit} onChange={(i, v) => update('cables', i, v)} onRemove={canEdit ? (i) => remove('cables', i) : undefined} rowFlag={(c) => (flagged.has(c.id) ? 'flag' : null)} />
+				<PartTable
+					caption="Cables"
+					rows={draft.cables}
+					columns={cableColumns(nodeOptions, units)}
+					pathPrefix="cables"
+					errors={errors}
+					readOnly={!canEdit}
+					onChange={(i, v) => update('cables', i, v)}
+					onRemove={canEdit ? (i) => remove('cables', i) : undefined}
+					rowFlag={(c) => (flagged.has(c.id) ? 'flag' : null)}
+				/>
 			</EditGroup>
 			<EditGroup title="Battery banks" onAdd={canEdit ? () => add('banks', newBank) : undefined}>
-				<PartTable caption="Battery banks" rows={draft.banks} columns={bankColumns(nodeOptions)} pathPrefix="banks" errors={errors} readOnly={!canEdit} onChange={(i, v) => update('banks', i, v)} onRemove={canEdit ? (i) => remove('banks', i) : undefined} />
+				<PartTable
+					caption="Battery banks"
+					rows={draft.banks}
+					columns={bankColumns(nodeOptions)}
+					pathPrefix="banks"
+					errors={errors}
+					readOnly={!canEdit}
+					onChange={(i, v) => update('banks', i, v)}
+					onRemove={canEdit ? (i) => remove('banks', i) : undefined}
+				/>
 			</EditGroup>
-			<EditGroup title="Alternators" onAdd={canEdit ? () => add('alternators', newAlternator) : undefined}>
-				<PartTable caption="Alternators" rows={draft.alternators} columns={alternatorColumns(nodeOptions)} pathPrefix="alternators" errors={errors} readOnly={!canEdit} onChange={(i, v) => update('alternators', i, v)} onRemove={canEdit ? (i) => remove('alternators', i) : undefined} />
+			<EditGroup
+				title="Alternators"
+				onAdd={canEdit ? () => add('alternators', newAlternator) : undefined}
+			>
+				<PartTable
+					caption="Alternators"
+					rows={draft.alternators}
+					columns={alternatorColumns(nodeOptions)}
+					pathPrefix="alternators"
+					errors={errors}
+					readOnly={!canEdit}
+					onChange={(i, v) => update('alternators', i, v)}
+					onRemove={canEdit ? (i) => remove('alternators', i) : undefined}
+				/>
 			</EditGroup>
-			<EditGroup title="Amplifiers" onAdd={canEdit ? () => add('amplifiers', newAmplifier) : undefined}>
-				<PartTable caption="Amplifiers" rows={draft.amplifiers} columns={amplifierColumns(nodeOptions)} pathPrefix="amplifiers" errors={errors} readOnly={!canEdit} onChange={(i, v) => update('amplifiers', i, v)} onRemove={canEdit ? (i) => remove('amplifiers', i) : undefined} />
+			<EditGroup
+				title="Amplifiers"
+				onAdd={canEdit ? () => add('amplifiers', newAmplifier) : undefined}
+			>
+				<PartTable
+					caption="Amplifiers"
+					rows={draft.amplifiers}
+					columns={amplifierColumns(nodeOptions)}
+					pathPrefix="amplifiers"
+					errors={errors}
+					readOnly={!canEdit}
+					onChange={(i, v) => update('amplifiers', i, v)}
+					onRemove={canEdit ? (i) => remove('amplifiers', i) : undefined}
+				/>
 			</EditGroup>
 			<EditGroup title="Steady loads" onAdd={canEdit ? () => add('loads', newLoad) : undefined}>
-				<PartTable caption="Steady loads" rows={draft.loads} columns={loadColumns(nodeOptions)} pathPrefix="loads" errors={errors} readOnly={!canEdit} onChange={(i, v) => update('loads', i, v)} onRemove={canEdit ? (i) => remove('loads', i) : undefined} />
+				<PartTable
+					caption="Steady loads"
+					rows={draft.loads}
+					columns={loadColumns(nodeOptions)}
+					pathPrefix="loads"
+					errors={errors}
+					readOnly={!canEdit}
+					onChange={(i, v) => update('loads', i, v)}
+					onRemove={canEdit ? (i) => remove('loads', i) : undefined}
+				/>
 			</EditGroup>
 			<EditGroup title="Nodes" onAdd={canEdit ? () => add('nodes', newNode) : undefined}>
-				<PartTable caption="Nodes" rows={draft.nodes} columns={nodeColumns()} pathPrefix="nodes" errors={errors} readOnly={!canEdit} onChange={(i, v) => update('nodes', i, v)} onRemove={canEdit ? (i) => remove('nodes', i) : undefined} />
+				<PartTable
+					caption="Nodes"
+					rows={draft.nodes}
+					columns={nodeColumns()}
+					pathPrefix="nodes"
+					errors={errors}
+					readOnly={!canEdit}
+					onChange={(i, v) => update('nodes', i, v)}
+					onRemove={canEdit ? (i) => remove('nodes', i) : undefined}
+				/>
 			</EditGroup>
 		</section>
 	);
 }
 
-function EditGroup({ title, onAdd, children }: { title: string; onAdd?: () => void; children: React.ReactNode }) {
+function EditGroup({
+	title,
+	onAdd,
+	children,
+}: {
+	title: string;
+	onAdd?: () => void;
+	children: React.ReactNode;
+}) {
 	return (
 		<div>
 			<div className="mb-2 flex items-center gap-3">
 				<h3 className="font-semibold">{title}</h3>
 				{onAdd && (
-					<button type="button" onClick={onAdd} className="rounded-md border border-hairline bg-card px-2 py-0.5 text-sm hover:border-copper">
+					<button
+						type="button"
+						onClick={onAdd}
+						className="rounded-md border border-hairline bg-card px-2 py-0.5 text-sm hover:border-copper"
+					>
 						+ Add
 					</button>
 				)}
@@ -75,4 +164,3 @@ function EditGroup({ title, onAdd, children }: { title: string; onAdd?: () => vo
 		</div>
 	);
 }
-

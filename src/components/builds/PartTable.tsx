@@ -3,8 +3,19 @@ import { useEffect, useState } from 'react';
 
 export type CellSpec<T> =
 	| { kind: 'text'; get: (row: T) => string; set: (row: T, v: string) => T }
-	| { kind: 'number'; get: (row: T) => number | null; set: (row: T, v: number | null) => T; step?: string; blankAllowed?: boolean }
-	| { kind: 'select'; get: (row: T) => string; set: (row: T, v: string) => T; options: Array<{ value: string; label: string }> }
+	| {
+			kind: 'number';
+			get: (row: T) => number | null;
+			set: (row: T, v: number | null) => T;
+			step?: string;
+			blankAllowed?: boolean;
+	  }
+	| {
+			kind: 'select';
+			get: (row: T) => string;
+			set: (row: T, v: string) => T;
+			options: Array<{ value: string; label: string }>;
+	  }
 	| { kind: 'checkbox'; get: (row: T) => boolean; set: (row: T, v: boolean) => T };
 
 export interface PartColumn<T> {
@@ -17,11 +28,34 @@ export interface PartColumn<T> {
 	width?: string;
 }
 
-function NumberInput({ value, onChange, label, invalid, step, readOnly }: { value: number | null; onChange: (v: number | null) => void; label: string; invalid: boolean; step?: string; readOnly: boolean }) {
-	const [text, setText] = useState(value === null || Number.isNaN(value) ? '' : String(Number(value.toPrecision(8))));
+function NumberInput({
+	value,
+	onChange,
+	label,
+	invalid,
+	step,
+	readOnly,
+}: {
+	value: number | null;
+	onChange: (v: number | null) => void;
+	label: string;
+	invalid: boolean;
+	step?: string;
+	readOnly: boolean;
+}) {
+	const [text, setText] = useState(
+		value === null || Number.isNaN(value) ? '' : String(Number(value.toPrecision(8))),
+	);
 	useEffect(() => {
 		const parsed = text.trim() === '' ? null : Number(text);
-		if (parsed !== value && !(parsed !== null && value !== null && Math.abs(parsed - value) < 1e-9 * Math.max(1, Math.abs(value)))) {
+		if (
+			parsed !== value &&
+			!(
+				parsed !== null &&
+				value !== null &&
+				Math.abs(parsed - value) < 1e-9 * Math.max(1, Math.abs(value))
+			)
+		) {
 			setText(value === null || Number.isNaN(value) ? '' : String(Number(value.toPrecision(8))));
 		}
 		// eslint-disable-next-line react-hooks/exhaustive-deps -- follows the value from outside only; the text being typed must not reset it
@@ -83,17 +117,43 @@ export function PartTable<T extends { id: string; label: string }>({
 			const part = row.original;
 			const i = row.index;
 			const path = `${pathPrefix}.${i}.${typeof col.errorPath === 'function' ? col.errorPath(part) : col.errorPath}`;
-			const error = Object.entries(errors).find(([p]) => p === path || p.startsWith(`${path}.`))?.[1];
+			const error = Object.entries(errors).find(
+				([p]) => p === path || p.startsWith(`${path}.`),
+			)?.[1];
 			const label = `${part.label || part.id}: ${col.header}`;
 			const c = col.cell;
 			let input: React.ReactNode;
 			if (c.kind === 'text') {
-				input = <input aria-label={label} aria-invalid={!!error || undefined} readOnly={readOnly} value={c.get(part)} onChange={(e) => onChange(i, c.set(part, e.target.value))} className={`w-full min-w-28 rounded border bg-card px-2 py-1 ${error ? 'border-brick' : 'border-hairline'} ${readOnly ? 'bg-paper' : ''}`} />;
+				input = (
+					<input
+						aria-label={label}
+						aria-invalid={!!error || undefined}
+						readOnly={readOnly}
+						value={c.get(part)}
+						onChange={(e) => onChange(i, c.set(part, e.target.value))}
+						className={`w-full min-w-28 rounded border bg-card px-2 py-1 ${error ? 'border-brick' : 'border-hairline'} ${readOnly ? 'bg-paper' : ''}`}
+					/>
+				);
 			} else if (c.kind === 'number') {
-				input = <NumberInput label={label} value={c.get(part)} onChange={(v) => onChange(i, c.set(part, v))} invalid={!!error} step={c.step} readOnly={readOnly} />;
+				input = (
+					<NumberInput
+						label={label}
+						value={c.get(part)}
+						onChange={(v) => onChange(i, c.set(part, v))}
+						invalid={!!error}
+						step={c.step}
+						readOnly={readOnly}
+					/>
+				);
 			} else if (c.kind === 'select') {
 				input = (
-					<select aria-label={label} disabled={readOnly} value={c.get(part)} onChange={(e) => onChange(i, c.set(part, e.target.value))} className={`w-full min-w-32 rounded border bg-card px-1 py-1 ${error ? 'border-brick' : 'border-hairline'}`}>
+					<select
+						aria-label={label}
+						disabled={readOnly}
+						value={c.get(part)}
+						onChange={(e) => onChange(i, c.set(part, e.target.value))}
+						className={`w-full min-w-32 rounded border bg-card px-1 py-1 ${error ? 'border-brick' : 'border-hairline'}`}
+					>
 						{c.options.map((o) => (
 							<option key={o.value} value={o.value}>
 								{o.label}
@@ -102,7 +162,16 @@ export function PartTable<T extends { id: string; label: string }>({
 					</select>
 				);
 			} else {
-				input = <input type="checkbox" aria-label={label} disabled={readOnly} checked={c.get(part)} onChange={(e) => onChange(i, c.set(part, e.target.checked))} className="size-4 accent-copper" />;
+				input = (
+					<input
+						type="checkbox"
+						aria-label={label}
+						disabled={readOnly}
+						checked={c.get(part)}
+						onChange={(e) => onChange(i, c.set(part, e.target.checked))}
+						className="size-4 accent-copper"
+					/>
+				);
 			}
 			return (
 				<div className="flex flex-col gap-0.5">
@@ -116,7 +185,12 @@ export function PartTable<T extends { id: string; label: string }>({
 			);
 		},
 	}));
-	const table = useReactTable({ data: rows, columns: defs, getCoreRowModel: getCoreRowModel(), getRowId: (r) => r.id });
+	const table = useReactTable({
+		data: rows,
+		columns: defs,
+		getCoreRowModel: getCoreRowModel(),
+		getRowId: (r) => r.id,
+	});
 	return (
 		<div className="overflow-x-auto rounded-md border border-hairline bg-card">
 			<table className="w-full text-sm">
@@ -129,7 +203,11 @@ export function PartTable<T extends { id: string; label: string }>({
 									{flexRender(h.column.columnDef.header, h.getContext())}
 								</th>
 							))}
-							{!readOnly && onRemove && <th className="px-2 py-2"><span className="sr-only">Remove</span></th>}
+							{!readOnly && onRemove && (
+								<th className="px-2 py-2">
+									<span className="sr-only">Remove</span>
+								</th>
+							)}
 						</tr>
 					))}
 				</thead>
@@ -137,7 +215,11 @@ export function PartTable<T extends { id: string; label: string }>({
 					{table.getRowModel().rows.map((row) => {
 						const flag = rowFlag?.(row.original) ?? null;
 						return (
-							<tr key={row.id} className={`border-b border-hairline align-top last:border-0 ${flag ? 'bg-brick-tint/40' : ''}`} data-part-id={row.original.id}>
+							<tr
+								key={row.id}
+								className={`border-b border-hairline align-top last:border-0 ${flag ? 'bg-brick-tint/40' : ''}`}
+								data-part-id={row.original.id}
+							>
 								{row.getVisibleCells().map((cell) => (
 									<td key={cell.id} className="px-2 py-1.5">
 										{flexRender(cell.column.columnDef.cell, cell.getContext())}
@@ -145,7 +227,12 @@ export function PartTable<T extends { id: string; label: string }>({
 								))}
 								{!readOnly && onRemove && (
 									<td className="px-2 py-1.5">
-										<button type="button" onClick={() => onRemove(row.index)} aria-label={`Remove ${row.original.label || row.original.id}`} className="rounded px-2 py-1 text-ink-soft hover:bg-brick-tint hover:text-brick">
+										<button
+											type="button"
+											onClick={() => onRemove(row.index)}
+											aria-label={`Remove ${row.original.label || row.original.id}`}
+											className="rounded px-2 py-1 text-ink-soft hover:bg-brick-tint hover:text-brick"
+										>
 											✕
 										</button>
 									</td>

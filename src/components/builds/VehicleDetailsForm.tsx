@@ -14,12 +14,25 @@ export interface VehicleDetailsFormProps {
 }
 
 /** Name, description, class, notes and owner of a vehicle; archiving keeps its history readable. */
-export const VehicleDetailsForm = withQueryClient(function VehicleDetailsForm({ teamId, vehicle, members }: VehicleDetailsFormProps) {
+export const VehicleDetailsForm = withQueryClient(function VehicleDetailsForm({
+	teamId,
+	vehicle,
+	members,
+}: VehicleDetailsFormProps) {
 	const update = useUpdateVehicle(teamId, vehicle.id);
 	const [open, setOpen] = useState(false);
-	const [values, setValues] = useState({ name: vehicle.name, description: vehicle.description, competitionClass: vehicle.competitionClass, notes: vehicle.notes, ownerId: vehicle.ownerId });
+	const [values, setValues] = useState({
+		name: vehicle.name,
+		description: vehicle.description,
+		competitionClass: vehicle.competitionClass,
+		notes: vehicle.notes,
+		ownerId: vehicle.ownerId,
+	});
 	const [errors, setErrors] = useState<Record<string, string>>({});
-	const [state, setState] = useState<{ message: string | null; tone: 'ok' | 'error' }>({ message: null, tone: 'ok' });
+	const [state, setState] = useState<{ message: string | null; tone: 'ok' | 'error' }>({
+		message: null,
+		tone: 'ok',
+	});
 
 	async function patch(body: Parameters<typeof update.mutateAsync>[0], reload = false) {
 		setState({ message: null, tone: 'ok' });
@@ -29,18 +42,28 @@ export const VehicleDetailsForm = withQueryClient(function VehicleDetailsForm({ 
 			else setState({ message: 'Saved.', tone: 'ok' });
 		} catch (e) {
 			if (e instanceof ApiError) setErrors(e.byField());
-			setState({ message: e instanceof ApiError ? e.message : 'Could not reach the server.', tone: 'error' });
+			setState({
+				message: e instanceof ApiError ? e.message : 'Could not reach the server.',
+				tone: 'error',
+			});
 		}
 	}
 
 	if (!open) {
 		return (
-			<button type="button" onClick={() => setOpen(true)} className="rounded-md border border-hairline bg-card px-3 py-1.5 text-sm font-semibold hover:border-copper">
+			<button
+				type="button"
+				onClick={() => setOpen(true)}
+				className="rounded-md border border-hairline bg-card px-3 py-1.5 text-sm font-semibold hover:border-copper"
+			>
 				Vehicle details
 			</button>
 		);
 	}
-	const set = (k: 'name' | 'description' | 'competitionClass' | 'notes') => (e: React.ChangeEvent<HTMLInputElement>) => setValues((v) => ({ ...v, [k]: e.target.value }));
+	const set =
+		(k: 'name' | 'description' | 'competitionClass' | 'notes') =>
+		(e: React.ChangeEvent<HTMLInputElement>) =>
+			setValues((v) => ({ ...v, [k]: e.target.value }));
 	return (
 		<form
 			noValidate
@@ -56,11 +79,28 @@ export const VehicleDetailsForm = withQueryClient(function VehicleDetailsForm({ 
 		>
 			<div className="grid gap-3 md:grid-cols-2">
 				<Field label="Name" value={values.name} onChange={set('name')} error={errors.name} />
-				<Field label="Year, make and model" value={values.description} onChange={set('description')} error={errors.description} />
-				<Field label="Competition class" value={values.competitionClass} onChange={set('competitionClass')} error={errors.competitionClass} />
+				<Field
+					label="Year, make and model"
+					value={values.description}
+					onChange={set('description')}
+					error={errors.description}
+				/>
+				<Field
+					label="Competition class"
+					value={values.competitionClass}
+					onChange={set('competitionClass')}
+					error={errors.competitionClass}
+				/>
 				<div className="flex flex-col gap-1">
-					<label htmlFor="vehicle-owner" className="text-sm font-semibold">Owner</label>
-					<select id="vehicle-owner" value={values.ownerId ?? ''} onChange={(e) => setValues((v) => ({ ...v, ownerId: e.target.value || null }))} className="rounded-md border border-hairline bg-card px-3 py-2">
+					<label htmlFor="vehicle-owner" className="text-sm font-semibold">
+						Owner
+					</label>
+					<select
+						id="vehicle-owner"
+						value={values.ownerId ?? ''}
+						onChange={(e) => setValues((v) => ({ ...v, ownerId: e.target.value || null }))}
+						className="rounded-md border border-hairline bg-card px-3 py-2"
+					>
 						<option value="">nobody in particular</option>
 						{members.map((m) => (
 							<option key={m.userId} value={m.userId}>
@@ -76,7 +116,11 @@ export const VehicleDetailsForm = withQueryClient(function VehicleDetailsForm({ 
 				<Button type="submit" busy={update.isPending}>
 					Save details
 				</Button>
-				<Button type="button" variant="secondary" onClick={() => void patch({ archived: !vehicle.archived }, true)}>
+				<Button
+					type="button"
+					variant="secondary"
+					onClick={() => void patch({ archived: !vehicle.archived }, true)}
+				>
 					{vehicle.archived ? 'Bring back from the archive' : 'Archive the vehicle'}
 				</Button>
 				<Button type="button" variant="secondary" onClick={() => setOpen(false)}>

@@ -1,5 +1,13 @@
 import { useDeferredValue, useMemo, useState } from 'react';
-import { buildReport, type BuildDocument, checkTopology, DEFAULT_SCENARIO, runBurp, type Scenario, upgradeHints } from '@/engine';
+import {
+	buildReport,
+	type BuildDocument,
+	checkTopology,
+	DEFAULT_SCENARIO,
+	runBurp,
+	type Scenario,
+	upgradeHints,
+} from '@/engine';
 import { buildDocumentSchema } from '@/lib/schemas/build-document';
 import type { UnitSystem } from '@/lib/format';
 import { FormMessage } from '@/components/ui/Field';
@@ -26,7 +34,6 @@ export function validateDraft(doc: BuildDocument): Record<string, string> {
 	return errors;
 }
 
-
 export interface WorkbenchProps {
 	draft: BuildDocument;
 	errors: Record<string, string>;
@@ -42,22 +49,52 @@ export interface WorkbenchProps {
  * the budget, amplifiers, cables, the time-stepped burp, ranked upgrades and the part tables. Used
  * for revisions and for plans alike.
  */
-export function Workbench({ draft, errors, units, canEdit, onChange, subject = 'build' }: WorkbenchProps) {
+export function Workbench({
+	draft,
+	errors,
+	units,
+	canEdit,
+	onChange,
+	subject = 'build',
+}: WorkbenchProps) {
 	const [scenario, setScenario] = useState<Scenario>(DEFAULT_SCENARIO);
 	const valid = Object.keys(errors).length === 0;
-	const report = useMemo(() => (valid ? buildReport(draft, scenario, { burpRun: false }) : null), [draft, scenario, valid]);
+	const report = useMemo(
+		() => (valid ? buildReport(draft, scenario, { burpRun: false }) : null),
+		[draft, scenario, valid],
+	);
 	const deferredDraft = useDeferredValue(draft);
 	const burp = useMemo(() => {
 		if (Object.keys(validateDraft(deferredDraft)).length) return null;
-		return runBurp(deferredDraft, { engineRpm: scenario.engineRpm, demand: scenario.burpDemand, conductorTempC: scenario.conductorTempC, durationS: scenario.burpSeconds, stepS: scenario.burpStepS });
+		return runBurp(deferredDraft, {
+			engineRpm: scenario.engineRpm,
+			demand: scenario.burpDemand,
+			conductorTempC: scenario.conductorTempC,
+			durationS: scenario.burpSeconds,
+			stepS: scenario.burpStepS,
+		});
 	}, [deferredDraft, scenario]);
 	const hints = useMemo(() => {
 		if (Object.keys(validateDraft(deferredDraft)).length) return null;
-		return upgradeHints(deferredDraft, { engineRpm: scenario.engineRpm, demand: scenario.burpDemand, conductorTempC: scenario.conductorTempC }).slice(0, 5);
+		return upgradeHints(deferredDraft, {
+			engineRpm: scenario.engineRpm,
+			demand: scenario.burpDemand,
+			conductorTempC: scenario.conductorTempC,
+		}).slice(0, 5);
 	}, [deferredDraft, scenario]);
 
 	const ok = report && report.ok ? report : null;
-	const flagged = useMemo(() => new Set(ok ? ok.warnings.filter((w) => w.element.kind === 'cable' && w.severity !== 'info').map((w) => w.element.id) : []), [ok]);
+	const flagged = useMemo(
+		() =>
+			new Set(
+				ok
+					? ok.warnings
+							.filter((w) => w.element.kind === 'cable' && w.severity !== 'info')
+							.map((w) => w.element.id)
+					: [],
+			),
+		[ok],
+	);
 
 	return (
 		<>
@@ -65,7 +102,11 @@ export function Workbench({ draft, errors, units, canEdit, onChange, subject = '
 
 			{!valid && (
 				<FormMessage tone="error">
-					The build cannot be computed until the marked fields are fixed. {Object.entries(errors).slice(0, 3).map(([p, m]) => `${p}: ${m}`).join(' · ')}
+					The build cannot be computed until the marked fields are fixed.{' '}
+					{Object.entries(errors)
+						.slice(0, 3)
+						.map(([p, m]) => `${p}: ${m}`)
+						.join(' · ')}
 				</FormMessage>
 			)}
 
@@ -73,20 +114,53 @@ export function Workbench({ draft, errors, units, canEdit, onChange, subject = '
 			{ok && <Findings warnings={ok.warnings} />}
 
 			<section aria-labelledby="diagram-heading">
-				<h2 id="diagram-heading" className="text-xl font-bold">The network</h2>
+				<h2 id="diagram-heading" className="text-xl font-bold">
+					The network
+				</h2>
 				<div className="mt-3">
 					<NetworkDiagram doc={draft} flagged={flagged} />
 				</div>
-				<p className="mt-1 text-xs text-ink-soft">Copper: supply side. Slate: ground side. Dashed red: a cable with a finding. Dashed links: banks, alternators, amplifiers and loads between their terminals.</p>
+				<p className="mt-1 text-xs text-ink-soft">
+					Copper: supply side. Slate: ground side. Dashed red: a cable with a finding. Dashed links:
+					banks, alternators, amplifiers and loads between their terminals.
+				</p>
 			</section>
 
 			{ok && <BudgetSection rows={ok.budget} />}
-			{ok && <AmplifiersSection amplifiers={ok.amplifiers} dropTargetV={scenario.dropTargetV} burpSeconds={scenario.burpSeconds} burp={burp} />}
-			{ok && <CableChecksSection cables={ok.cables} warnings={ok.warnings} draft={draft} units={units} />}
-			{ok && <BurpSection burp={burp} burpSeconds={scenario.burpSeconds} draft={draft} ruleV={ok.amplifiers.length ? Math.max(...ok.banks.map((b) => b.ocvV), 0) - scenario.dropTargetV : null} />}
+			{ok && (
+				<AmplifiersSection
+					amplifiers={ok.amplifiers}
+					dropTargetV={scenario.dropTargetV}
+					burpSeconds={scenario.burpSeconds}
+					burp={burp}
+				/>
+			)}
+			{ok && (
+				<CableChecksSection cables={ok.cables} warnings={ok.warnings} draft={draft} units={units} />
+			)}
+			{ok && (
+				<BurpSection
+					burp={burp}
+					burpSeconds={scenario.burpSeconds}
+					draft={draft}
+					ruleV={
+						ok.amplifiers.length
+							? Math.max(...ok.banks.map((b) => b.ocvV), 0) - scenario.dropTargetV
+							: null
+					}
+				/>
+			)}
 			{ok && <UpgradeHintsSection hints={hints} />}
 
-			<PartEditor draft={draft} errors={errors} units={units} canEdit={canEdit} onChange={onChange} subject={subject} flagged={flagged} />
+			<PartEditor
+				draft={draft}
+				errors={errors}
+				units={units}
+				canEdit={canEdit}
+				onChange={onChange}
+				subject={subject}
+				flagged={flagged}
+			/>
 		</>
 	);
 }

@@ -1,7 +1,14 @@
 import type { BudgetRow, BurpRun } from '@/engine';
 
 /** Token colours (the @theme palette), for Chart.js which cannot read CSS variables. */
-export const CHART_COLOURS = { copper: '#b8652a', teal: '#137c82', amber: '#c98a0b', brick: '#b3261e', ink: '#1d262e', soft: '#55616b' };
+export const CHART_COLOURS = {
+	copper: '#b8652a',
+	teal: '#137c82',
+	amber: '#c98a0b',
+	brick: '#b3261e',
+	ink: '#1d262e',
+	soft: '#55616b',
+};
 
 /**
  * The fixed-voltage budget as chart data: alternator supply as a filled area, sustained and burp
@@ -11,9 +18,31 @@ export function toBudgetChartData(rows: BudgetRow[]) {
 	return {
 		labels: rows.map((r) => `${r.voltageV.toFixed(1)} V`),
 		datasets: [
-			{ label: 'Alternator supply (A)', data: rows.map((r) => r.alternatorSupplyA), borderColor: CHART_COLOURS.teal, backgroundColor: 'rgba(19,124,130,0.18)', fill: 'origin', pointRadius: 0, tension: 0 },
-			{ label: 'Sustained demand (A)', data: rows.map((r) => r.sustainedDemandA), borderColor: CHART_COLOURS.copper, backgroundColor: CHART_COLOURS.copper, fill: false, pointRadius: 3 },
-			{ label: 'Burp demand (A)', data: rows.map((r) => r.burpDemandA), borderColor: CHART_COLOURS.ink, backgroundColor: CHART_COLOURS.ink, fill: false, pointRadius: 3 },
+			{
+				label: 'Alternator supply (A)',
+				data: rows.map((r) => r.alternatorSupplyA),
+				borderColor: CHART_COLOURS.teal,
+				backgroundColor: 'rgba(19,124,130,0.18)',
+				fill: 'origin',
+				pointRadius: 0,
+				tension: 0,
+			},
+			{
+				label: 'Sustained demand (A)',
+				data: rows.map((r) => r.sustainedDemandA),
+				borderColor: CHART_COLOURS.copper,
+				backgroundColor: CHART_COLOURS.copper,
+				fill: false,
+				pointRadius: 3,
+			},
+			{
+				label: 'Burp demand (A)',
+				data: rows.map((r) => r.burpDemandA),
+				borderColor: CHART_COLOURS.ink,
+				backgroundColor: CHART_COLOURS.ink,
+				fill: false,
+				pointRadius: 3,
+			},
 		],
 	};
 }
@@ -23,9 +52,13 @@ export function toBudgetChartData(rows: BudgetRow[]) {
  * voltage over time (thinned to at most ~200 points), and a dashed rule at the drop target below
  * the starting voltage.
  */
-export function toBurpChartData(run: BurpRun, bankLabels: Record<string, string>, ruleV: number | null) {
+export function toBurpChartData(
+	run: BurpRun,
+	bankLabels: Record<string, string>,
+	ruleV: number | null,
+) {
 	const step = Math.max(1, Math.ceil(run.timeS.length / 200));
-	const pick = <T,>(xs: T[]) => xs.filter((_, i) => i % step === 0 || i === xs.length - 1);
+	const pick = <T>(xs: T[]) => xs.filter((_, i) => i % step === 0 || i === xs.length - 1);
 	const labels = pick(run.timeS).map((t) => t.toFixed(1));
 	const banks = Object.entries(run.bankV).map(([id, volts], i) => ({
 		label: `${bankLabels[id] ?? id} (V)`,
@@ -36,11 +69,26 @@ export function toBurpChartData(run: BurpRun, bankLabels: Record<string, string>
 		borderWidth: 1.5,
 	}));
 	const datasets = [
-		{ label: 'Lowest amplifier (V)', data: pick(run.minAmplifierV), borderColor: CHART_COLOURS.copper, backgroundColor: CHART_COLOURS.copper, pointRadius: 0, borderWidth: 2.5 },
+		{
+			label: 'Lowest amplifier (V)',
+			data: pick(run.minAmplifierV),
+			borderColor: CHART_COLOURS.copper,
+			backgroundColor: CHART_COLOURS.copper,
+			pointRadius: 0,
+			borderWidth: 2.5,
+		},
 		...banks,
 	];
 	if (ruleV !== null) {
-		datasets.push({ label: `Drop target (${ruleV.toFixed(2)} V)`, data: labels.map(() => ruleV), borderColor: CHART_COLOURS.amber, backgroundColor: CHART_COLOURS.amber, pointRadius: 0, borderWidth: 1.5, borderDash: [6, 4] } as never);
+		datasets.push({
+			label: `Drop target (${ruleV.toFixed(2)} V)`,
+			data: labels.map(() => ruleV),
+			borderColor: CHART_COLOURS.amber,
+			backgroundColor: CHART_COLOURS.amber,
+			pointRadius: 0,
+			borderWidth: 1.5,
+			borderDash: [6, 4],
+		} as never);
 	}
 	return { labels, datasets };
 }

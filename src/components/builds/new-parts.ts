@@ -1,16 +1,38 @@
 import { alternatorWithDefaults, amplifierWithDefaults, bankWithDefaults } from '@/engine';
-import type { Alternator, Amplifier, BatteryBank, BuildDocument, BuildNode, Cable, SteadyLoad } from '@/engine';
+import type {
+	Alternator,
+	Amplifier,
+	BatteryBank,
+	BuildDocument,
+	BuildNode,
+	Cable,
+	SteadyLoad,
+} from '@/engine';
 
 /** An id not yet used in the document: `${prefix}-1`, `${prefix}-2`, … */
 export function freshId(doc: BuildDocument, prefix: string): string {
-	const used = new Set([...doc.nodes, ...doc.alternators, ...doc.banks, ...doc.amplifiers, ...doc.loads, ...doc.cables].map((x) => x.id));
+	const used = new Set(
+		[
+			...doc.nodes,
+			...doc.alternators,
+			...doc.banks,
+			...doc.amplifiers,
+			...doc.loads,
+			...doc.cables,
+		].map((x) => x.id),
+	);
 	for (let i = 1; ; i++) if (!used.has(`${prefix}-${i}`)) return `${prefix}-${i}`;
 }
 
-const firstOf = (doc: BuildDocument, kind: BuildNode['kind']) => doc.nodes.find((n) => n.kind === kind)?.id ?? doc.nodes[0]?.id ?? '';
+const firstOf = (doc: BuildDocument, kind: BuildNode['kind']) =>
+	doc.nodes.find((n) => n.kind === kind)?.id ?? doc.nodes[0]?.id ?? '';
 const chassisOf = (doc: BuildDocument) => firstOf(doc, 'chassis');
 
-export const newNode = (doc: BuildDocument): BuildNode => ({ id: freshId(doc, 'node'), label: 'New block', kind: 'block' });
+export const newNode = (doc: BuildDocument): BuildNode => ({
+	id: freshId(doc, 'node'),
+	label: 'New block',
+	kind: 'block',
+});
 
 export const newCable = (doc: BuildDocument): Cable => ({
 	id: freshId(doc, 'cable'),
@@ -26,15 +48,42 @@ export const newCable = (doc: BuildDocument): Cable => ({
 });
 
 export const newBank = (doc: BuildDocument): BatteryBank =>
-	bankWithDefaults({ id: freshId(doc, 'bank'), label: 'New bank', positive: firstOf(doc, 'battery'), negative: chassisOf(doc), chemistry: 'agm', unitCapacityAh: 100, unitResistanceOhm: 0.004 });
+	bankWithDefaults({
+		id: freshId(doc, 'bank'),
+		label: 'New bank',
+		positive: firstOf(doc, 'battery'),
+		negative: chassisOf(doc),
+		chemistry: 'agm',
+		unitCapacityAh: 100,
+		unitResistanceOhm: 0.004,
+	});
 
 export const newAlternator = (doc: BuildDocument): Alternator =>
-	alternatorWithDefaults({ id: freshId(doc, 'alt'), label: 'New alternator', positive: firstOf(doc, 'alternator'), negative: chassisOf(doc), ratedHotA: 200, setPointV: 14.4 });
+	alternatorWithDefaults({
+		id: freshId(doc, 'alt'),
+		label: 'New alternator',
+		positive: firstOf(doc, 'alternator'),
+		negative: chassisOf(doc),
+		ratedHotA: 200,
+		setPointV: 14.4,
+	});
 
 export const newAmplifier = (doc: BuildDocument): Amplifier =>
-	amplifierWithDefaults({ id: freshId(doc, 'amp'), label: 'New amplifier', positive: firstOf(doc, 'amplifier'), negative: chassisOf(doc), ratedPowerW: 1000 });
+	amplifierWithDefaults({
+		id: freshId(doc, 'amp'),
+		label: 'New amplifier',
+		positive: firstOf(doc, 'amplifier'),
+		negative: chassisOf(doc),
+		ratedPowerW: 1000,
+	});
 
-export const newLoad = (doc: BuildDocument): SteadyLoad => ({ id: freshId(doc, 'load'), label: 'New load', positive: firstOf(doc, 'battery'), negative: chassisOf(doc), currentA: 10 });
+export const newLoad = (doc: BuildDocument): SteadyLoad => ({
+	id: freshId(doc, 'load'),
+	label: 'New load',
+	positive: firstOf(doc, 'battery'),
+	negative: chassisOf(doc),
+	currentA: 10,
+});
 
 /** A starting point for a vehicle with no revision yet: one battery, one amplifier, wired. */
 export function starterDocument(): BuildDocument {
@@ -47,12 +96,59 @@ export function starterDocument(): BuildDocument {
 			{ id: 'amp_neg', label: 'Amplifier −', kind: 'amplifier' },
 		],
 		alternators: [],
-		banks: [{ ...newBank({ schemaVersion: 1, nodes: [], alternators: [], banks: [], amplifiers: [], loads: [], cables: [] }), id: 'battery', label: 'Battery', positive: 'batt_pos', negative: 'chassis', location: 'engine_bay' }],
-		amplifiers: [amplifierWithDefaults({ id: 'amp', label: 'Amplifier', positive: 'amp_pos', negative: 'amp_neg', ratedPowerW: 1000 })],
+		banks: [
+			{
+				...newBank({
+					schemaVersion: 1,
+					nodes: [],
+					alternators: [],
+					banks: [],
+					amplifiers: [],
+					loads: [],
+					cables: [],
+				}),
+				id: 'battery',
+				label: 'Battery',
+				positive: 'batt_pos',
+				negative: 'chassis',
+				location: 'engine_bay',
+			},
+		],
+		amplifiers: [
+			amplifierWithDefaults({
+				id: 'amp',
+				label: 'Amplifier',
+				positive: 'amp_pos',
+				negative: 'amp_neg',
+				ratedPowerW: 1000,
+			}),
+		],
 		loads: [],
 		cables: [
-			{ id: 'feed', label: 'Amplifier feed', from: 'batt_pos', to: 'amp_pos', size: { kind: 'awg', awg: '4' }, material: 'copper', lengthM: 5, parallelRuns: 1, fuses: [{ ratingA: 100, end: 'from', distanceM: 0.2 }], insulationC: 105 },
-			{ id: 'ground', label: 'Amplifier ground', from: 'amp_neg', to: 'chassis', size: { kind: 'awg', awg: '4' }, material: 'copper', lengthM: 0.5, parallelRuns: 1, fuses: [], insulationC: 105 },
+			{
+				id: 'feed',
+				label: 'Amplifier feed',
+				from: 'batt_pos',
+				to: 'amp_pos',
+				size: { kind: 'awg', awg: '4' },
+				material: 'copper',
+				lengthM: 5,
+				parallelRuns: 1,
+				fuses: [{ ratingA: 100, end: 'from', distanceM: 0.2 }],
+				insulationC: 105,
+			},
+			{
+				id: 'ground',
+				label: 'Amplifier ground',
+				from: 'amp_neg',
+				to: 'chassis',
+				size: { kind: 'awg', awg: '4' },
+				material: 'copper',
+				lengthM: 0.5,
+				parallelRuns: 1,
+				fuses: [],
+				insulationC: 105,
+			},
 		],
 	};
 }

@@ -1,4 +1,11 @@
-import { BarElement, CategoryScale, Chart as ChartJS, Legend, LinearScale, Tooltip } from 'chart.js';
+import {
+	BarElement,
+	CategoryScale,
+	Chart as ChartJS,
+	Legend,
+	LinearScale,
+	Tooltip,
+} from 'chart.js';
 import { useMemo } from 'react';
 import { Bar } from 'react-chartjs-2';
 import type { ComparisonColumn, ComparisonDto } from '@/lib/client/queries/plans';
@@ -19,7 +26,8 @@ interface Props {
 }
 
 const volts = (v: number | null) => (v === null ? 'collapse' : `${fmt(v)} V`);
-const signed = (x: number | null, digits = 2) => (x === null ? '—' : `${x > 0 ? '+' : ''}${fmt(x, digits)}`);
+const signed = (x: number | null, digits = 2) =>
+	x === null ? '—' : `${x > 0 ? '+' : ''}${fmt(x, digits)}`;
 
 /**
  * The current build and up to three plans in columns, one figure per row, with a bar chart of the
@@ -29,29 +37,51 @@ export function ComparisonTable({ data, canInstall, installing, installed, onIns
 	const { columns, currency } = data;
 	const ampIds = useMemo(() => {
 		const seen = new Map<string, string>();
-		for (const c of columns) for (const a of c.amplifiers) if (!seen.has(a.id)) seen.set(a.id, a.label);
+		for (const c of columns)
+			for (const a of c.amplifiers) if (!seen.has(a.id)) seen.set(a.id, a.label);
 		return [...seen];
 	}, [columns]);
 	const voltages = columns[0]?.budget.map((b) => b.voltageV) ?? [];
-	const best = columns.slice(1).reduce<ComparisonColumn | null>((b, c) => (c.dbPerMoney !== null && (b === null || (b.dbPerMoney ?? 0) < c.dbPerMoney) ? c : b), null);
+	const best = columns
+		.slice(1)
+		.reduce<ComparisonColumn | null>(
+			(b, c) =>
+				c.dbPerMoney !== null && (b === null || (b.dbPerMoney ?? 0) < c.dbPerMoney) ? c : b,
+			null,
+		);
 
 	const chart = useMemo(
 		() => ({
 			labels: columns.map((c) => c.name),
 			datasets: [
-				{ label: 'Lowest amplifier, burp (V)', data: columns.map((c) => c.lowestAmplifierV.burp ?? 0), backgroundColor: CHART_COLOURS.copper },
-				{ label: 'Lowest amplifier, music (V)', data: columns.map((c) => c.lowestAmplifierV.sustained ?? 0), backgroundColor: CHART_COLOURS.teal },
+				{
+					label: 'Lowest amplifier, burp (V)',
+					data: columns.map((c) => c.lowestAmplifierV.burp ?? 0),
+					backgroundColor: CHART_COLOURS.copper,
+				},
+				{
+					label: 'Lowest amplifier, music (V)',
+					data: columns.map((c) => c.lowestAmplifierV.sustained ?? 0),
+					backgroundColor: CHART_COLOURS.teal,
+				},
 			],
 		}),
 		[columns],
 	);
-	const lows = columns.flatMap((c) => [c.lowestAmplifierV.burp, c.lowestAmplifierV.sustained]).filter((v): v is number => v !== null);
+	const lows = columns
+		.flatMap((c) => [c.lowestAmplifierV.burp, c.lowestAmplifierV.sustained])
+		.filter((v): v is number => v !== null);
 	const chartOptions = useMemo(
 		() => ({
 			responsive: true,
 			maintainAspectRatio: false,
 			animation: false as const,
-			scales: { y: { min: lows.length ? Math.floor(Math.min(...lows) - 0.5) : 0, title: { display: true, text: 'Voltage at the amplifier terminals (V)' } } },
+			scales: {
+				y: {
+					min: lows.length ? Math.floor(Math.min(...lows) - 0.5) : 0,
+					title: { display: true, text: 'Voltage at the amplifier terminals (V)' },
+				},
+			},
 			plugins: { legend: { position: 'bottom' as const } },
 		}),
 		[lows],
@@ -63,33 +93,62 @@ export function ComparisonTable({ data, canInstall, installing, installed, onIns
 				<table className="w-full text-sm" aria-label="Current build and plans side by side">
 					<thead>
 						<tr className="bg-slate-deep text-paper">
-							<th className="px-3 py-2 text-left text-xs font-semibold uppercase tracking-wide">Figure</th>
+							<th className="px-3 py-2 text-left text-xs font-semibold uppercase tracking-wide">
+								Figure
+							</th>
 							{columns.map((c, i) => (
 								<th key={c.id} scope="col" className="px-3 py-2 text-right align-bottom">
-									<span className="block text-xs font-normal uppercase tracking-wide text-paper/70">{i === 0 ? `revision ${data.head.number}` : `plan ${i}`}</span>
+									<span className="block text-xs font-normal uppercase tracking-wide text-paper/70">
+										{i === 0 ? `revision ${data.head.number}` : `plan ${i}`}
+									</span>
 									<span className="font-semibold">{c.name}</span>
-									{best?.id === c.id && <span className="mt-1 block text-xs font-normal text-amber-tint">★ most dB for the money</span>}
+									{best?.id === c.id && (
+										<span className="mt-1 block text-xs font-normal text-amber-tint">
+											★ most dB for the money
+										</span>
+									)}
 								</th>
 							))}
 						</tr>
 					</thead>
 					<tbody>
-						<Row label="Parts cost">{columns.map((c, i) => cell(c.id, i === 0 ? '—' : formatMoney(c.cost, currency)))}</Row>
+						<Row label="Parts cost">
+							{columns.map((c, i) => cell(c.id, i === 0 ? '—' : formatMoney(c.cost, currency)))}
+						</Row>
 						<Row label="System settles at, burp" hint="strongest source's terminals">
 							{columns.map((c) => cell(c.id, volts(c.busV.burp)))}
 						</Row>
-						<Row label="System settles at, music">{columns.map((c) => cell(c.id, volts(c.busV.sustained)))}</Row>
-						<Row label="Lowest amplifier, burp">{columns.map((c) => cell(c.id, volts(c.lowestAmplifierV.burp), c.lowestAmplifierV.burp === null ? 'text-brick' : ''))}</Row>
-						<Row label="Lowest amplifier, music">{columns.map((c) => cell(c.id, volts(c.lowestAmplifierV.sustained)))}</Row>
+						<Row label="System settles at, music">
+							{columns.map((c) => cell(c.id, volts(c.busV.sustained)))}
+						</Row>
+						<Row label="Lowest amplifier, burp">
+							{columns.map((c) =>
+								cell(
+									c.id,
+									volts(c.lowestAmplifierV.burp),
+									c.lowestAmplifierV.burp === null ? 'text-brick' : '',
+								),
+							)}
+						</Row>
+						<Row label="Lowest amplifier, music">
+							{columns.map((c) => cell(c.id, volts(c.lowestAmplifierV.sustained)))}
+						</Row>
 						{ampIds.map(([id, label]) => (
-							<Row key={id} label={label} hint="terminals under burp · lowest during the time-stepped burp">
+							<Row
+								key={id}
+								label={label}
+								hint="terminals under burp · lowest during the time-stepped burp"
+							>
 								{columns.map((c) => {
 									const a = c.amplifiers.find((x) => x.id === id);
 									return cell(
 										c.id,
 										a ? (
 											<>
-												{fmt(a.burpV)} V <span className="text-ink-soft">· {a.burpRunMinV === null ? 'collapse' : `${fmt(a.burpRunMinV)} V`}</span>
+												{fmt(a.burpV)} V{' '}
+												<span className="text-ink-soft">
+													· {a.burpRunMinV === null ? 'collapse' : `${fmt(a.burpRunMinV)} V`}
+												</span>
 											</>
 										) : (
 											'not fitted'
@@ -100,17 +159,49 @@ export function ComparisonTable({ data, canInstall, installing, installed, onIns
 							</Row>
 						))}
 						<Row label="Output against the current build" hint="weakest amplifier, burp">
-							{columns.map((c, i) => cell(c.id, i === 0 ? '0.00 dB' : `${signed(c.deltaDb)} dB`, (c.deltaDb ?? 0) > 0.005 ? 'text-teal font-semibold' : (c.deltaDb ?? 0) < -0.005 ? 'text-brick' : ''))}
+							{columns.map((c, i) =>
+								cell(
+									c.id,
+									i === 0 ? '0.00 dB' : `${signed(c.deltaDb)} dB`,
+									(c.deltaDb ?? 0) > 0.005
+										? 'text-teal font-semibold'
+										: (c.deltaDb ?? 0) < -0.005
+											? 'text-brick'
+											: '',
+								),
+							)}
 						</Row>
-						<Row label={`dB per 100 ${currency}`}>{columns.map((c, i) => cell(c.id, i === 0 || c.dbPerMoney === null ? '—' : fmt(c.dbPerMoney * 100, 3)))}</Row>
+						<Row label={`dB per 100 ${currency}`}>
+							{columns.map((c, i) =>
+								cell(c.id, i === 0 || c.dbPerMoney === null ? '—' : fmt(c.dbPerMoney * 100, 3)),
+							)}
+						</Row>
 						<Row label="Banks carry the music deficit" hint="at the chosen engine speed">
-							{columns.map((c) => cell(c.id, c.carryHours === null ? 'no deficit' : c.carryHours > 1 ? `${fmt(c.carryHours, 1)} h` : `${fmt(c.carryHours * 60, 0)} min`, c.carryHours === null ? 'text-teal' : ''))}
+							{columns.map((c) =>
+								cell(
+									c.id,
+									c.carryHours === null
+										? 'no deficit'
+										: c.carryHours > 1
+											? `${fmt(c.carryHours, 1)} h`
+											: `${fmt(c.carryHours * 60, 0)} min`,
+									c.carryHours === null ? 'text-teal' : '',
+								),
+							)}
 						</Row>
 						{voltages.map((v, vi) => (
-							<Row key={v} label={`Music surplus at ${fmt(v, 1)} V`} hint={vi === 0 ? 'alternators minus demand; − is drawn from the banks' : undefined}>
+							<Row
+								key={v}
+								label={`Music surplus at ${fmt(v, 1)} V`}
+								hint={vi === 0 ? 'alternators minus demand; − is drawn from the banks' : undefined}
+							>
 								{columns.map((c) => {
 									const b = c.budget[vi];
-									return cell(c.id, b ? `${signed(b.sustainedSurplusA, 0)} A` : '—', b && b.sustainedSurplusA < 0 ? 'text-amber-text' : 'text-teal');
+									return cell(
+										c.id,
+										b ? `${signed(b.sustainedSurplusA, 0)} A` : '—',
+										b && b.sustainedSurplusA < 0 ? 'text-amber-text' : 'text-teal',
+									);
 								})}
 							</Row>
 						))}
@@ -121,7 +212,9 @@ export function ComparisonTable({ data, canInstall, installing, installed, onIns
 										<span className="text-teal">✓ none</span>
 									) : (
 										<details>
-											<summary className="cursor-pointer text-amber-text">⚠ {c.cableWarnings.length}</summary>
+											<summary className="cursor-pointer text-amber-text">
+												⚠ {c.cableWarnings.length}
+											</summary>
 											<ul className="mt-1 text-left text-xs">
 												{c.cableWarnings.map((w, i) => (
 													<li key={i}>{w}</li>
@@ -133,7 +226,17 @@ export function ComparisonTable({ data, canInstall, installing, installed, onIns
 							))}
 						</Row>
 						<Row label="All findings" hint="of them safety findings">
-							{columns.map((c) => cell(c.id, <>{c.warnings}{c.safetyFindings > 0 && <span className="text-brick"> · {c.safetyFindings} safety</span>}</>))}
+							{columns.map((c) =>
+								cell(
+									c.id,
+									<>
+										{c.warnings}
+										{c.safetyFindings > 0 && (
+											<span className="text-brick"> · {c.safetyFindings} safety</span>
+										)}
+									</>,
+								),
+							)}
 						</Row>
 						{canInstall && (
 							<tr className="border-t border-hairline print:hidden">
@@ -143,9 +246,16 @@ export function ComparisonTable({ data, canInstall, installing, installed, onIns
 								{columns.map((c, i) => (
 									<td key={c.id} className="px-3 py-2 text-right">
 										{i === 0 ? null : installed.has(c.id) ? (
-											<span className="text-xs font-semibold text-teal">✓ installed as r{installed.get(c.id)}</span>
+											<span className="text-xs font-semibold text-teal">
+												✓ installed as r{installed.get(c.id)}
+											</span>
 										) : (
-											<InstallButton name={c.name} busy={installing === c.id} disabled={installing !== null} onConfirm={() => onInstall(c)} />
+											<InstallButton
+												name={c.name}
+												busy={installing === c.id}
+												disabled={installing !== null}
+												onConfirm={() => onInstall(c)}
+											/>
 										)}
 									</td>
 								))}
@@ -156,18 +266,32 @@ export function ComparisonTable({ data, canInstall, installing, installed, onIns
 			</div>
 			<div className="rounded-md border border-hairline bg-card p-3">
 				<div className="h-64">
-					<Bar data={chart} options={chartOptions} role="img" aria-label="Lowest amplifier voltage for the current build and each plan" />
+					<Bar
+						data={chart}
+						options={chartOptions}
+						role="img"
+						aria-label="Lowest amplifier voltage for the current build and each plan"
+					/>
 				</div>
 			</div>
 			<p className="text-xs text-ink-soft">
-				Output follows the square of the terminal voltage while an amplifier runs below its rated voltage (ΔL = 20·log₁₀ V/V₀). Costs are the plans' parts lists. These are estimates; local codes, event rules and licensed practice govern the
-				installation.
+				Output follows the square of the terminal voltage while an amplifier runs below its rated
+				voltage (ΔL = 20·log₁₀ V/V₀). Costs are the plans' parts lists. These are estimates; local
+				codes, event rules and licensed practice govern the installation.
 			</p>
 		</div>
 	);
 }
 
-function Row({ label, hint, children }: { label: string; hint?: string; children: React.ReactNode }) {
+function Row({
+	label,
+	hint,
+	children,
+}: {
+	label: string;
+	hint?: string;
+	children: React.ReactNode;
+}) {
 	return (
 		<tr className="border-t border-hairline">
 			<th scope="row" className="bg-paper/60 px-3 py-2 text-left font-semibold">
@@ -187,7 +311,17 @@ function cell(key: string, content: React.ReactNode, tone = '') {
 	);
 }
 
-function InstallButton({ name, busy, disabled, onConfirm }: { name: string; busy: boolean; disabled: boolean; onConfirm: () => void }) {
+function InstallButton({
+	name,
+	busy,
+	disabled,
+	onConfirm,
+}: {
+	name: string;
+	busy: boolean;
+	disabled: boolean;
+	onConfirm: () => void;
+}) {
 	return (
 		<Button
 			variant="secondary"
@@ -195,7 +329,12 @@ function InstallButton({ name, busy, disabled, onConfirm }: { name: string; busy
 			disabled={disabled}
 			className="px-3 py-1 text-xs"
 			onClick={() => {
-				if (window.confirm(`Install “${name}” as the next revision of the build? Its changes are saved on top of the current revision.`)) onConfirm();
+				if (
+					window.confirm(
+						`Install “${name}” as the next revision of the build? Its changes are saved on top of the current revision.`,
+					)
+				)
+					onConfirm();
 			}}
 		>
 			Install as next revision

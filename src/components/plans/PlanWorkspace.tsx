@@ -5,8 +5,20 @@ import type { BuildDocument } from '@/engine';
 import { ApiError } from '@/lib/client/api-client';
 import { getQueryClient } from '@/lib/client/query-client';
 import { planDrafts } from '@/lib/client/draft-store';
-import { fetchPlan, type PlanDto, useDeletePlan, useInstallPlan, useSavePlan } from '@/lib/client/queries/plans';
-import { fieldName, formatFieldValue, formatMoney, GROUP_NAMES, type UnitSystem } from '@/lib/format';
+import {
+	fetchPlan,
+	type PlanDto,
+	useDeletePlan,
+	useInstallPlan,
+	useSavePlan,
+} from '@/lib/client/queries/plans';
+import {
+	fieldName,
+	formatFieldValue,
+	formatMoney,
+	GROUP_NAMES,
+	type UnitSystem,
+} from '@/lib/format';
 import { planPartSchema } from '@/lib/schemas/plans';
 import { Button, FormMessage } from '@/components/ui/Field';
 import { validateDraft, Workbench } from '@/components/builds/Workbench';
@@ -39,10 +51,29 @@ interface PartDraft {
 	link: string;
 }
 
-const toDraft = (p: PlanDto['parts'][number]): PartDraft => ({ item: p.item, quantity: String(p.quantity), unitPrice: p.unitPrice.toFixed(2), link: p.link });
-const fromDraft = (p: PartDraft) => ({ item: p.item, quantity: Number(p.quantity), unitPrice: Number(p.unitPrice), link: p.link });
+const toDraft = (p: PlanDto['parts'][number]): PartDraft => ({
+	item: p.item,
+	quantity: String(p.quantity),
+	unitPrice: p.unitPrice.toFixed(2),
+	link: p.link,
+});
+const fromDraft = (p: PartDraft) => ({
+	item: p.item,
+	quantity: Number(p.quantity),
+	unitPrice: Number(p.unitPrice),
+	link: p.link,
+});
 
-function PlanWorkspaceView({ teamId, vehicleId, canEdit, currency, plan: initialPlan, baseDocument, head, units }: PlanWorkspaceProps) {
+function PlanWorkspaceView({
+	teamId,
+	vehicleId,
+	canEdit,
+	currency,
+	plan: initialPlan,
+	baseDocument,
+	head,
+	units,
+}: PlanWorkspaceProps) {
 	const savePlan = useSavePlan(teamId, vehicleId, initialPlan.id);
 	const installPlan = useInstallPlan(teamId, vehicleId);
 	const deletePlan = useDeletePlan(teamId, vehicleId);
@@ -51,23 +82,49 @@ function PlanWorkspaceView({ teamId, vehicleId, canEdit, currency, plan: initial
 	const [notes, setNotes] = useState(plan.notes);
 	const [draft, setDraft] = useState<BuildDocument>(plan.document);
 	const [parts, setParts] = useState<PartDraft[]>(plan.parts.map(toDraft));
-	const [state, setState] = useState<{ busy: 'save' | 'install' | 'delete' | null; error: string | null; ok: string | null; serverErrors: Record<string, string> }>({ busy: null, error: null, ok: null, serverErrors: {} });
+	const [state, setState] = useState<{
+		busy: 'save' | 'install' | 'delete' | null;
+		error: string | null;
+		ok: string | null;
+		serverErrors: Record<string, string>;
+	}>({ busy: null, error: null, ok: null, serverErrors: {} });
 
 	const docErrors = useMemo(() => validateDraft(draft), [draft]);
 	const partErrors = useMemo(() => {
 		const out: Record<string, string> = {};
 		parts.forEach((p, i) => {
 			const r = planPartSchema.safeParse(fromDraft(p));
-			if (!r.success) for (const issue of r.error.issues) out[`parts.${i}.${issue.path.join('.')}`] ??= issue.message;
+			if (!r.success)
+				for (const issue of r.error.issues)
+					out[`parts.${i}.${issue.path.join('.')}`] ??= issue.message;
 		});
 		return out;
 	}, [parts]);
 	const errors = { ...state.serverErrors, ...partErrors };
-	const valid = Object.keys(docErrors).length === 0 && Object.keys(partErrors).length === 0 && name.trim() !== '';
-	const saved = { name: plan.name, notes: plan.notes, document: plan.document, parts: plan.parts.map(toDraft) };
+	const valid =
+		Object.keys(docErrors).length === 0 &&
+		Object.keys(partErrors).length === 0 &&
+		name.trim() !== '';
+	const saved = {
+		name: plan.name,
+		notes: plan.notes,
+		document: plan.document,
+		parts: plan.parts.map(toDraft),
+	};
 	const dirty = JSON.stringify({ name, notes, document: draft, parts }) !== JSON.stringify(saved);
-	const changes = useMemo(() => (baseDocument ? diffBuilds(baseDocument, draft) : []), [baseDocument, draft]);
-	const total = parts.reduce((s, p) => s + (Number.isFinite(Number(p.quantity)) && Number.isFinite(Number(p.unitPrice)) ? Math.round(Number(p.unitPrice) * 100) * Number(p.quantity) : 0), 0) / 100;
+	const changes = useMemo(
+		() => (baseDocument ? diffBuilds(baseDocument, draft) : []),
+		[baseDocument, draft],
+	);
+	const total =
+		parts.reduce(
+			(s, p) =>
+				s +
+				(Number.isFinite(Number(p.quantity)) && Number.isFinite(Number(p.unitPrice))
+					? Math.round(Number(p.unitPrice) * 100) * Number(p.quantity)
+					: 0),
+			0,
+		) / 100;
 
 	// Unsaved edits live in this browser until saved, so a reload or a crash loses nothing.
 	const [restored, setRestored] = useState<string | null>(null);
@@ -76,17 +133,30 @@ function PlanWorkspaceView({ teamId, vehicleId, canEdit, currency, plan: initial
 		if (!canEdit) return;
 		const stored = planDrafts.load(plan.id);
 		if (!stored) return;
-		if (JSON.stringify({ name: stored.name, notes: stored.notes, document: stored.document, parts: stored.parts }) === JSON.stringify(saved)) return planDrafts.clear(plan.id);
+		if (
+			JSON.stringify({
+				name: stored.name,
+				notes: stored.notes,
+				document: stored.document,
+				parts: stored.parts,
+			}) === JSON.stringify(saved)
+		)
+			return planDrafts.clear(plan.id);
 		setName(stored.name);
 		setNotes(stored.notes);
 		setDraft(stored.document);
 		setParts(stored.parts);
 		setBaseVersion(stored.version);
-		setRestored(stored.version === plan.version ? 'Your unsaved changes to this plan from this browser are back.' : 'Your unsaved changes are back, but someone saved the plan since; saving will ask before replacing theirs.');
+		setRestored(
+			stored.version === plan.version
+				? 'Your unsaved changes to this plan from this browser are back.'
+				: 'Your unsaved changes are back, but someone saved the plan since; saving will ask before replacing theirs.',
+		);
 		// eslint-disable-next-line react-hooks/exhaustive-deps -- once, on mount: what changes later is the member's own editing
 	}, []);
 	useEffect(() => {
-		if (canEdit && dirty) planDrafts.store(plan.id, { version: baseVersion, name, notes, document: draft, parts });
+		if (canEdit && dirty)
+			planDrafts.store(plan.id, { version: baseVersion, name, notes, document: draft, parts });
 	}, [canEdit, dirty, plan.id, baseVersion, name, notes, draft, parts]);
 
 	// Warn before leaving with unsaved changes.
@@ -100,7 +170,13 @@ function PlanWorkspaceView({ teamId, vehicleId, canEdit, currency, plan: initial
 	async function save(version = baseVersion) {
 		setState({ busy: 'save', error: null, ok: null, serverErrors: {} });
 		try {
-			const next = await savePlan.mutateAsync({ version, name, notes, document: draft, parts: parts.map(fromDraft) });
+			const next = await savePlan.mutateAsync({
+				version,
+				name,
+				notes,
+				document: draft,
+				parts: parts.map(fromDraft),
+			});
 			planDrafts.clear(plan.id);
 			setRestored(null);
 			setBaseVersion(next.version);
@@ -113,68 +189,138 @@ function PlanWorkspaceView({ teamId, vehicleId, canEdit, currency, plan: initial
 				// Someone saved the plan meanwhile: keep ours, offer to save it on top.
 				const current = await fetchPlan(teamId, vehicleId, plan.id);
 				setState({ busy: null, error: `${e.message}`, ok: null, serverErrors: {} });
-				if (window.confirm('Someone else saved this plan while you edited. Save your version on top of theirs?')) return save(current.version);
+				if (
+					window.confirm(
+						'Someone else saved this plan while you edited. Save your version on top of theirs?',
+					)
+				)
+					return save(current.version);
 				return false;
 			}
-			setState({ busy: null, error: e instanceof ApiError ? e.message : 'Could not reach the server; your changes are still here.', ok: null, serverErrors: e instanceof ApiError ? e.byField() : {} });
+			setState({
+				busy: null,
+				error:
+					e instanceof ApiError
+						? e.message
+						: 'Could not reach the server; your changes are still here.',
+				ok: null,
+				serverErrors: e instanceof ApiError ? e.byField() : {},
+			});
 			return false;
 		}
 	}
 
 	async function install() {
 		if (!head) return;
-		if (!window.confirm(`Install “${plan.name}” as revision ${head.number + 1} of the build?`)) return;
+		if (!window.confirm(`Install “${plan.name}” as revision ${head.number + 1} of the build?`))
+			return;
 		if (dirty && !(await save())) return;
 		setState((s) => ({ ...s, busy: 'install', error: null, ok: null }));
 		try {
 			const revision = await installPlan.mutateAsync({ planId: plan.id, parentId: head.id });
 			window.location.assign(`/teams/${teamId}/vehicles/${vehicleId}/history#r${revision.number}`);
 		} catch (e) {
-			setState((s) => ({ ...s, busy: null, error: e instanceof ApiError ? e.message : 'Could not reach the server; nothing was installed.' }));
+			setState((s) => ({
+				...s,
+				busy: null,
+				error:
+					e instanceof ApiError ? e.message : 'Could not reach the server; nothing was installed.',
+			}));
 		}
 	}
 
 	async function remove() {
-		if (!window.confirm(`Delete the plan “${plan.name}” and its parts list? The build is not touched.`)) return;
+		if (
+			!window.confirm(
+				`Delete the plan “${plan.name}” and its parts list? The build is not touched.`,
+			)
+		)
+			return;
 		setState((s) => ({ ...s, busy: 'delete', error: null }));
 		try {
 			await deletePlan.mutateAsync(plan.id);
 			window.location.assign(`/teams/${teamId}/vehicles/${vehicleId}/plans`);
 		} catch (e) {
-			setState((s) => ({ ...s, busy: null, error: e instanceof ApiError ? e.message : 'Could not reach the server.' }));
+			setState((s) => ({
+				...s,
+				busy: null,
+				error: e instanceof ApiError ? e.message : 'Could not reach the server.',
+			}));
 		}
 	}
 
-	const setPart = (i: number, patch: Partial<PartDraft>) => setParts((ps) => ps.map((p, j) => (j === i ? { ...p, ...patch } : p)));
+	const setPart = (i: number, patch: Partial<PartDraft>) =>
+		setParts((ps) => ps.map((p, j) => (j === i ? { ...p, ...patch } : p)));
 
 	return (
 		<div className="flex flex-col gap-8">
-			<section aria-label="Plan and saving" className="sticky top-0 z-10 -mx-2 flex flex-col gap-2 rounded-md border border-hairline bg-card/95 p-3 shadow-sm backdrop-blur">
+			<section
+				aria-label="Plan and saving"
+				className="sticky top-0 z-10 -mx-2 flex flex-col gap-2 rounded-md border border-hairline bg-card/95 p-3 shadow-sm backdrop-blur"
+			>
 				<div className="flex flex-wrap items-center gap-3">
 					<label htmlFor="plan-name" className="sr-only">
 						Plan name
 					</label>
-					<input id="plan-name" value={name} onChange={(e) => setName(e.target.value)} readOnly={!canEdit} maxLength={120} className="min-w-64 flex-1 rounded-md border border-hairline bg-card px-3 py-2 text-lg font-semibold" aria-invalid={name.trim() === '' || undefined} />
+					<input
+						id="plan-name"
+						value={name}
+						onChange={(e) => setName(e.target.value)}
+						readOnly={!canEdit}
+						maxLength={120}
+						className="min-w-64 flex-1 rounded-md border border-hairline bg-card px-3 py-2 text-lg font-semibold"
+						aria-invalid={name.trim() === '' || undefined}
+					/>
 					<span className="text-sm text-ink-soft">
-						from revision {plan.baseRevisionNumber ?? '—'} · {changes.length} change{changes.length === 1 ? '' : 's'} · parts {formatMoney(total, currency)}
+						from revision {plan.baseRevisionNumber ?? '—'} · {changes.length} change
+						{changes.length === 1 ? '' : 's'} · parts {formatMoney(total, currency)}
 					</span>
-					{dirty && <span className="rounded bg-amber-tint px-2 py-0.5 text-xs font-semibold">● unsaved</span>}
-					{Object.keys(docErrors).length + Object.keys(partErrors).length > 0 && <span className="rounded bg-brick-tint px-2 py-0.5 text-xs font-semibold text-brick">✕ {Object.keys(docErrors).length + Object.keys(partErrors).length} to fix</span>}
-					{plan.installedRevisionNumber && <span className="rounded bg-teal-tint px-2 py-0.5 text-xs font-semibold text-teal">✓ installed as r{plan.installedRevisionNumber}</span>}
+					{dirty && (
+						<span className="rounded bg-amber-tint px-2 py-0.5 text-xs font-semibold">
+							● unsaved
+						</span>
+					)}
+					{Object.keys(docErrors).length + Object.keys(partErrors).length > 0 && (
+						<span className="rounded bg-brick-tint px-2 py-0.5 text-xs font-semibold text-brick">
+							✕ {Object.keys(docErrors).length + Object.keys(partErrors).length} to fix
+						</span>
+					)}
+					{plan.installedRevisionNumber && (
+						<span className="rounded bg-teal-tint px-2 py-0.5 text-xs font-semibold text-teal">
+							✓ installed as r{plan.installedRevisionNumber}
+						</span>
+					)}
 				</div>
 				{canEdit && (
 					<div className="flex flex-wrap gap-2">
-						<Button onClick={() => void save()} busy={state.busy === 'save'} disabled={!dirty || !valid || state.busy !== null}>
+						<Button
+							onClick={() => void save()}
+							busy={state.busy === 'save'}
+							disabled={!dirty || !valid || state.busy !== null}
+						>
 							Save plan
 						</Button>
-						<Button variant="secondary" onClick={() => void install()} busy={state.busy === 'install'} disabled={!valid || !head || state.busy !== null}>
+						<Button
+							variant="secondary"
+							onClick={() => void install()}
+							busy={state.busy === 'install'}
+							disabled={!valid || !head || state.busy !== null}
+						>
 							Install as next revision
 						</Button>
-						<a href={`/teams/${teamId}/vehicles/${vehicleId}/plans?compare=${plan.id}`} className="rounded-md border border-hairline bg-card px-4 py-2 font-semibold hover:border-copper">
+						<a
+							href={`/teams/${teamId}/vehicles/${vehicleId}/plans?compare=${plan.id}`}
+							className="rounded-md border border-hairline bg-card px-4 py-2 font-semibold hover:border-copper"
+						>
 							Compare
 						</a>
 						<span className="flex-1" />
-						<Button variant="danger" onClick={() => void remove()} busy={state.busy === 'delete'} disabled={state.busy !== null}>
+						<Button
+							variant="danger"
+							onClick={() => void remove()}
+							busy={state.busy === 'delete'}
+							disabled={state.busy !== null}
+						>
 							Delete plan
 						</Button>
 					</div>
@@ -188,7 +334,10 @@ function PlanWorkspaceView({ teamId, vehicleId, canEdit, currency, plan: initial
 				<h2 id="parts-heading" className="text-xl font-bold">
 					Parts list
 				</h2>
-				<p className="text-sm text-ink-soft">Prices per unit in {currency}. The link is kept as text (a catalogue page, a shop's part number).</p>
+				<p className="text-sm text-ink-soft">
+					Prices per unit in {currency}. The link is kept as text (a catalogue page, a shop's part
+					number).
+				</p>
 				<div className="mt-3 overflow-x-auto rounded-md border border-hairline bg-card">
 					<table className="w-full text-sm">
 						<caption className="sr-only">Parts list</caption>
@@ -212,14 +361,52 @@ function PlanWorkspaceView({ teamId, vehicleId, canEdit, currency, plan: initial
 							)}
 							{parts.map((p, i) => (
 								<tr key={i} className="border-t border-hairline align-top">
-									<PartCell label={`Item ${i + 1}`} value={p.item} error={errors[`parts.${i}.item`]} readOnly={!canEdit} onChange={(v) => setPart(i, { item: v })} />
-									<PartCell label={`Quantity ${i + 1}`} value={p.quantity} error={errors[`parts.${i}.quantity`]} readOnly={!canEdit} onChange={(v) => setPart(i, { quantity: v })} numeric />
-									<PartCell label={`Unit price ${i + 1}`} value={p.unitPrice} error={errors[`parts.${i}.unitPrice`]} readOnly={!canEdit} onChange={(v) => setPart(i, { unitPrice: v })} numeric />
-									<PartCell label={`Link ${i + 1}`} value={p.link} error={errors[`parts.${i}.link`]} readOnly={!canEdit} onChange={(v) => setPart(i, { link: v })} />
-									<td className="num px-3 py-2 text-right">{Number.isFinite(Number(p.quantity) * Number(p.unitPrice)) ? formatMoney((Math.round(Number(p.unitPrice) * 100) * Number(p.quantity)) / 100, currency) : '—'}</td>
+									<PartCell
+										label={`Item ${i + 1}`}
+										value={p.item}
+										error={errors[`parts.${i}.item`]}
+										readOnly={!canEdit}
+										onChange={(v) => setPart(i, { item: v })}
+									/>
+									<PartCell
+										label={`Quantity ${i + 1}`}
+										value={p.quantity}
+										error={errors[`parts.${i}.quantity`]}
+										readOnly={!canEdit}
+										onChange={(v) => setPart(i, { quantity: v })}
+										numeric
+									/>
+									<PartCell
+										label={`Unit price ${i + 1}`}
+										value={p.unitPrice}
+										error={errors[`parts.${i}.unitPrice`]}
+										readOnly={!canEdit}
+										onChange={(v) => setPart(i, { unitPrice: v })}
+										numeric
+									/>
+									<PartCell
+										label={`Link ${i + 1}`}
+										value={p.link}
+										error={errors[`parts.${i}.link`]}
+										readOnly={!canEdit}
+										onChange={(v) => setPart(i, { link: v })}
+									/>
+									<td className="num px-3 py-2 text-right">
+										{Number.isFinite(Number(p.quantity) * Number(p.unitPrice))
+											? formatMoney(
+													(Math.round(Number(p.unitPrice) * 100) * Number(p.quantity)) / 100,
+													currency,
+												)
+											: '—'}
+									</td>
 									{canEdit && (
 										<td className="px-2 py-1.5">
-											<button type="button" onClick={() => setParts((ps) => ps.filter((_, j) => j !== i))} className="rounded px-2 py-1 text-ink-soft hover:bg-brick-tint hover:text-brick" aria-label={`Remove part ${i + 1}`}>
+											<button
+												type="button"
+												onClick={() => setParts((ps) => ps.filter((_, j) => j !== i))}
+												className="rounded px-2 py-1 text-ink-soft hover:bg-brick-tint hover:text-brick"
+												aria-label={`Remove part ${i + 1}`}
+											>
 												✕
 											</button>
 										</td>
@@ -231,7 +418,16 @@ function PlanWorkspaceView({ teamId, vehicleId, canEdit, currency, plan: initial
 							<tr className="border-t-2 border-hairline font-semibold">
 								<td className="px-3 py-2" colSpan={4}>
 									{canEdit && (
-										<button type="button" onClick={() => setParts((ps) => [...ps, { item: '', quantity: '1', unitPrice: '0.00', link: '' }])} className="rounded-md border border-hairline bg-card px-2 py-0.5 text-sm font-normal hover:border-copper">
+										<button
+											type="button"
+											onClick={() =>
+												setParts((ps) => [
+													...ps,
+													{ item: '', quantity: '1', unitPrice: '0.00', link: '' },
+												])
+											}
+											className="rounded-md border border-hairline bg-card px-2 py-0.5 text-sm font-normal hover:border-copper"
+										>
 											+ Add a part
 										</button>
 									)}
@@ -248,7 +444,15 @@ function PlanWorkspaceView({ teamId, vehicleId, canEdit, currency, plan: initial
 					<label htmlFor="plan-notes" className="text-sm font-semibold">
 						Notes
 					</label>
-					<textarea id="plan-notes" value={notes} onChange={(e) => setNotes(e.target.value)} readOnly={!canEdit} rows={2} maxLength={2000} className="rounded-md border border-hairline bg-card px-3 py-2 text-sm" />
+					<textarea
+						id="plan-notes"
+						value={notes}
+						onChange={(e) => setNotes(e.target.value)}
+						readOnly={!canEdit}
+						rows={2}
+						maxLength={2000}
+						className="rounded-md border border-hairline bg-card px-3 py-2 text-sm"
+					/>
 				</div>
 			</section>
 
@@ -257,26 +461,55 @@ function PlanWorkspaceView({ teamId, vehicleId, canEdit, currency, plan: initial
 					What the plan changes
 				</h2>
 				{changes.length === 0 ? (
-					<p className="mt-2 text-sm text-ink-soft">Nothing yet: the plan is the same as revision {plan.baseRevisionNumber}. Change it in the editor below.</p>
+					<p className="mt-2 text-sm text-ink-soft">
+						Nothing yet: the plan is the same as revision {plan.baseRevisionNumber}. Change it in
+						the editor below.
+					</p>
 				) : (
 					<ul className="mt-2 divide-y divide-hairline rounded-md border border-hairline bg-card text-sm">
 						{changes.map((c) => (
 							<li key={`${c.group}.${c.id}`} className="px-4 py-2">
-								<span className={`mr-2 rounded px-1.5 py-0.5 text-xs font-semibold ${c.kind === 'added' ? 'bg-teal-tint text-teal' : c.kind === 'removed' ? 'bg-brick-tint text-brick' : 'bg-amber-tint'}`}>{c.kind}</span>
+								<span
+									className={`mr-2 rounded px-1.5 py-0.5 text-xs font-semibold ${c.kind === 'added' ? 'bg-teal-tint text-teal' : c.kind === 'removed' ? 'bg-brick-tint text-brick' : 'bg-amber-tint'}`}
+								>
+									{c.kind}
+								</span>
 								{GROUP_NAMES[c.group]} <strong>{c.label}</strong>
-								{c.kind === 'changed' && `: ${c.fields.map((f) => `${fieldName(f.field)} ${formatFieldValue(f.field, f.before, units)} → ${formatFieldValue(f.field, f.after, units)}`).join('; ')}`}
+								{c.kind === 'changed' &&
+									`: ${c.fields.map((f) => `${fieldName(f.field)} ${formatFieldValue(f.field, f.before, units)} → ${formatFieldValue(f.field, f.after, units)}`).join('; ')}`}
 							</li>
 						))}
 					</ul>
 				)}
 			</section>
 
-			<Workbench draft={draft} errors={docErrors} units={units} canEdit={canEdit} subject="plan" onChange={(next) => setDraft(next)} />
+			<Workbench
+				draft={draft}
+				errors={docErrors}
+				units={units}
+				canEdit={canEdit}
+				subject="plan"
+				onChange={(next) => setDraft(next)}
+			/>
 		</div>
 	);
 }
 
-function PartCell({ label, value, error, readOnly, onChange, numeric }: { label: string; value: string; error?: string; readOnly: boolean; onChange: (v: string) => void; numeric?: boolean }) {
+function PartCell({
+	label,
+	value,
+	error,
+	readOnly,
+	onChange,
+	numeric,
+}: {
+	label: string;
+	value: string;
+	error?: string;
+	readOnly: boolean;
+	onChange: (v: string) => void;
+	numeric?: boolean;
+}) {
 	return (
 		<td className="px-2 py-1.5">
 			<input

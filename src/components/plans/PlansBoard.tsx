@@ -4,7 +4,13 @@ import { useEffect, useState } from 'react';
 import { ApiError } from '@/lib/client/api-client';
 import { getQueryClient } from '@/lib/client/query-client';
 import type { RevisionSummary } from '@/lib/client/queries/builds';
-import { compareQueryOptions, plansQueryOptions, type PlanSummary, useCreatePlan, useInstallPlan } from '@/lib/client/queries/plans';
+import {
+	compareQueryOptions,
+	plansQueryOptions,
+	type PlanSummary,
+	useCreatePlan,
+	useInstallPlan,
+} from '@/lib/client/queries/plans';
 import { formatMoney } from '@/lib/format';
 import { Button, Field, FormMessage } from '@/components/ui/Field';
 import { ComparisonTable } from './ComparisonTable';
@@ -31,10 +37,21 @@ export function PlansBoard(props: PlansBoardProps) {
 
 const MAX_COMPARED = 3;
 
-function PlansBoardView({ teamId, vehicleId, canEdit, currency, head: initialHead, revisions, plans: initialPlans, initialCompare }: PlansBoardProps) {
+function PlansBoardView({
+	teamId,
+	vehicleId,
+	canEdit,
+	currency,
+	head: initialHead,
+	revisions,
+	plans: initialPlans,
+	initialCompare,
+}: PlansBoardProps) {
 	const plans = useQuery({ ...plansQueryOptions(teamId, vehicleId), initialData: initialPlans });
 	const [head, setHead] = useState(initialHead);
-	const [selected, setSelected] = useState<string[]>(initialCompare.filter((id) => initialPlans.some((p) => p.id === id)).slice(0, MAX_COMPARED));
+	const [selected, setSelected] = useState<string[]>(
+		initialCompare.filter((id) => initialPlans.some((p) => p.id === id)).slice(0, MAX_COMPARED),
+	);
 	const [engineRpm, setEngineRpm] = useState(1500);
 	const comparison = useQuery(compareQueryOptions(teamId, vehicleId, selected, engineRpm));
 	const [installed, setInstalled] = useState<string | null>(null);
@@ -47,7 +64,10 @@ function PlansBoardView({ teamId, vehicleId, canEdit, currency, head: initialHea
 		window.history.replaceState(null, '', url);
 	}, [selected]);
 
-	const toggle = (id: string) => setSelected((s) => (s.includes(id) ? s.filter((x) => x !== id) : s.length >= MAX_COMPARED ? s : [...s, id]));
+	const toggle = (id: string) =>
+		setSelected((s) =>
+			s.includes(id) ? s.filter((x) => x !== id) : s.length >= MAX_COMPARED ? s : [...s, id],
+		);
 
 	const installPlan = useInstallPlan(teamId, vehicleId);
 	const install = {
@@ -66,16 +86,28 @@ function PlansBoardView({ teamId, vehicleId, canEdit, currency, head: initialHea
 
 	return (
 		<div className="flex flex-col gap-8">
-			{canEdit && <NewPlanForm teamId={teamId} vehicleId={vehicleId} revisions={revisions} headId={head?.id ?? null} />}
+			{canEdit && (
+				<NewPlanForm
+					teamId={teamId}
+					vehicleId={vehicleId}
+					revisions={revisions}
+					headId={head?.id ?? null}
+				/>
+			)}
 
 			<section aria-labelledby="plans-heading">
 				<h2 id="plans-heading" className="text-xl font-bold">
 					Plans for this vehicle
 				</h2>
-				<p className="text-sm text-ink-soft">Tick up to {MAX_COMPARED} plans to set them beside the current build.</p>
+				<p className="text-sm text-ink-soft">
+					Tick up to {MAX_COMPARED} plans to set them beside the current build.
+				</p>
 				{plans.data.length === 0 ? (
 					<p className="mt-3 rounded-md border border-dashed border-hairline bg-card p-4 text-sm text-ink-soft">
-						No plans yet. {canEdit ? 'Start one from the current revision above: change it in the editor and list the parts it needs.' : 'Members and captains start plans.'}
+						No plans yet.{' '}
+						{canEdit
+							? 'Start one from the current revision above: change it in the editor and list the parts it needs.'
+							: 'Members and captains start plans.'}
 					</p>
 				) : (
 					<div className="mt-3 overflow-x-auto rounded-md border border-hairline bg-card">
@@ -95,7 +127,10 @@ function PlansBoardView({ teamId, vehicleId, canEdit, currency, head: initialHea
 								{plans.data.map((p) => {
 									const on = selected.includes(p.id);
 									return (
-										<tr key={p.id} className={`border-t border-hairline ${on ? 'bg-copper-tint/40' : ''}`}>
+										<tr
+											key={p.id}
+											className={`border-t border-hairline ${on ? 'bg-copper-tint/40' : ''}`}
+										>
 											<td className="px-3 py-2">
 												<input
 													type="checkbox"
@@ -107,17 +142,30 @@ function PlansBoardView({ teamId, vehicleId, canEdit, currency, head: initialHea
 												/>
 											</td>
 											<td className="px-3 py-2">
-												<a href={`/teams/${teamId}/vehicles/${vehicleId}/plans/${p.id}`} className="font-semibold text-copper-dark underline">
+												<a
+													href={`/teams/${teamId}/vehicles/${vehicleId}/plans/${p.id}`}
+													className="font-semibold text-copper-dark underline"
+												>
 													{p.name}
 												</a>
 												{p.notes && <p className="text-xs text-ink-soft">{p.notes}</p>}
 											</td>
 											<td className="px-3 py-2 text-ink-soft">
-												{p.baseRevisionNumber ? `revision ${p.baseRevisionNumber}` : '—'} · {p.authorName ?? 'someone'}, {formatDistanceToNow(new Date(p.updatedAt), { addSuffix: true })}
+												{p.baseRevisionNumber ? `revision ${p.baseRevisionNumber}` : '—'} ·{' '}
+												{p.authorName ?? 'someone'},{' '}
+												{formatDistanceToNow(new Date(p.updatedAt), { addSuffix: true })}
 											</td>
 											<td className="num px-3 py-2 text-right">{p.partCount}</td>
 											<td className="num px-3 py-2 text-right">{formatMoney(p.total, currency)}</td>
-											<td className="px-3 py-2">{p.installedRevisionNumber ? <span className="rounded bg-teal-tint px-2 py-0.5 text-xs font-semibold text-teal">✓ installed as r{p.installedRevisionNumber}</span> : <span className="text-xs text-ink-soft">planned</span>}</td>
+											<td className="px-3 py-2">
+												{p.installedRevisionNumber ? (
+													<span className="rounded bg-teal-tint px-2 py-0.5 text-xs font-semibold text-teal">
+														✓ installed as r{p.installedRevisionNumber}
+													</span>
+												) : (
+													<span className="text-xs text-ink-soft">planned</span>
+												)}
+											</td>
 										</tr>
 									);
 								})}
@@ -134,12 +182,18 @@ function PlansBoardView({ teamId, vehicleId, canEdit, currency, head: initialHea
 							Side by side
 						</h2>
 						<p className="text-sm text-ink-soft">
-							{head ? `Revision ${head.number} (${head.message}) against the ticked plans, each solved on its own by the same engine as the build page.` : 'Save a first revision of the build to compare plans with it.'}
+							{head
+								? `Revision ${head.number} (${head.message}) against the ticked plans, each solved on its own by the same engine as the build page.`
+								: 'Save a first revision of the build to compare plans with it.'}
 						</p>
 					</div>
 					<label className="flex items-center gap-2 text-sm">
 						<span className="font-semibold">Engine speed</span>
-						<select value={engineRpm} onChange={(e) => setEngineRpm(Number(e.target.value))} className="num rounded-md border border-hairline bg-card px-2 py-1">
+						<select
+							value={engineRpm}
+							onChange={(e) => setEngineRpm(Number(e.target.value))}
+							className="num rounded-md border border-hairline bg-card px-2 py-1"
+						>
 							{[0, 800, 1500, 2500, 4000].map((r) => (
 								<option key={r} value={r}>
 									{r === 0 ? 'engine off' : `${r} rpm`}
@@ -152,7 +206,10 @@ function PlansBoardView({ teamId, vehicleId, canEdit, currency, head: initialHea
 					<div className="mt-3">
 						<FormMessage tone="ok">
 							{installed}{' '}
-							<a className="font-semibold underline" href={`/teams/${teamId}/vehicles/${vehicleId}/history`}>
+							<a
+								className="font-semibold underline"
+								href={`/teams/${teamId}/vehicles/${vehicleId}/history`}
+							>
 								See the history
 							</a>
 						</FormMessage>
@@ -160,24 +217,44 @@ function PlansBoardView({ teamId, vehicleId, canEdit, currency, head: initialHea
 				)}
 				{install.error && (
 					<div className="mt-3">
-						<FormMessage tone="error">{install.error instanceof ApiError ? install.error.message : 'Could not reach the server; nothing was installed.'}</FormMessage>
+						<FormMessage tone="error">
+							{install.error instanceof ApiError
+								? install.error.message
+								: 'Could not reach the server; nothing was installed.'}
+						</FormMessage>
 					</div>
 				)}
 				<div className="mt-3">
 					{selected.length === 0 ? (
-						<p className="rounded-md border border-dashed border-hairline bg-card p-4 text-sm text-ink-soft">Tick one to three plans above to compare them with the current build.</p>
+						<p className="rounded-md border border-dashed border-hairline bg-card p-4 text-sm text-ink-soft">
+							Tick one to three plans above to compare them with the current build.
+						</p>
 					) : comparison.isPending ? (
-						<p role="status" className="rounded-md border border-hairline bg-card p-4 text-sm text-ink-soft">
-							Solving the current build and {selected.length} plan{selected.length === 1 ? '' : 's'}…
+						<p
+							role="status"
+							className="rounded-md border border-hairline bg-card p-4 text-sm text-ink-soft"
+						>
+							Solving the current build and {selected.length} plan{selected.length === 1 ? '' : 's'}
+							…
 						</p>
 					) : comparison.isError ? (
-						<FormMessage tone="error">{comparison.error instanceof ApiError ? comparison.error.message : 'Could not reach the server.'}</FormMessage>
+						<FormMessage tone="error">
+							{comparison.error instanceof ApiError
+								? comparison.error.message
+								: 'Could not reach the server.'}
+						</FormMessage>
 					) : (
 						<ComparisonTable
 							data={comparison.data}
 							canInstall={canEdit}
 							installing={install.isPending ? (install.variables?.planId ?? null) : null}
-							installed={new Map(plans.data.filter((p) => p.installedRevisionNumber).map((p) => [p.id, p.installedRevisionNumber!]))}
+							installed={
+								new Map(
+									plans.data
+										.filter((p) => p.installedRevisionNumber)
+										.map((p) => [p.id, p.installedRevisionNumber!]),
+								)
+							}
 							onInstall={(col) => install.mutate({ id: col.id, name: col.name })}
 						/>
 					)}
@@ -187,13 +264,38 @@ function PlansBoardView({ teamId, vehicleId, canEdit, currency, head: initialHea
 	);
 }
 
-function NewPlanForm({ teamId, vehicleId, revisions, headId }: { teamId: string; vehicleId: string; revisions: RevisionSummary[]; headId: string | null }) {
+function NewPlanForm({
+	teamId,
+	vehicleId,
+	revisions,
+	headId,
+}: {
+	teamId: string;
+	vehicleId: string;
+	revisions: RevisionSummary[];
+	headId: string | null;
+}) {
 	const [name, setName] = useState('');
 	const [from, setFrom] = useState(headId ?? '');
 	const createPlan = useCreatePlan(teamId, vehicleId);
-	const create = { ...createPlan, mutate: () => createPlan.mutate({ name, ...(from && { fromRevisionId: from }) }, { onSuccess: (plan) => window.location.assign(`/teams/${teamId}/vehicles/${vehicleId}/plans/${plan.id}`) }) };
+	const create = {
+		...createPlan,
+		mutate: () =>
+			createPlan.mutate(
+				{ name, ...(from && { fromRevisionId: from }) },
+				{
+					onSuccess: (plan) =>
+						window.location.assign(`/teams/${teamId}/vehicles/${vehicleId}/plans/${plan.id}`),
+				},
+			),
+	};
 	const errors = create.error instanceof ApiError ? create.error.byField() : {};
-	if (revisions.length === 0) return <FormMessage tone="info">Save a first revision of the build; plans start from one.</FormMessage>;
+	if (revisions.length === 0)
+		return (
+			<FormMessage tone="info">
+				Save a first revision of the build; plans start from one.
+			</FormMessage>
+		);
 	return (
 		<form
 			className="flex flex-wrap items-end gap-3 rounded-md border border-hairline bg-card p-4"
@@ -202,12 +304,26 @@ function NewPlanForm({ teamId, vehicleId, revisions, headId }: { teamId: string;
 				create.mutate();
 			}}
 		>
-			<Field label="New plan" placeholder="e.g. Second alternator and 4/0 run" value={name} onChange={(e) => setName(e.target.value)} error={errors.name} maxLength={120} className="min-w-72 flex-1" required />
+			<Field
+				label="New plan"
+				placeholder="e.g. Second alternator and 4/0 run"
+				value={name}
+				onChange={(e) => setName(e.target.value)}
+				error={errors.name}
+				maxLength={120}
+				className="min-w-72 flex-1"
+				required
+			/>
 			<div className="flex flex-col gap-1">
 				<label htmlFor="plan-from" className="text-sm font-semibold">
 					Starts from
 				</label>
-				<select id="plan-from" value={from} onChange={(e) => setFrom(e.target.value)} className="rounded-md border border-hairline bg-card px-3 py-2">
+				<select
+					id="plan-from"
+					value={from}
+					onChange={(e) => setFrom(e.target.value)}
+					className="rounded-md border border-hairline bg-card px-3 py-2"
+				>
 					{revisions.map((r) => (
 						<option key={r.id} value={r.id}>
 							r{r.number} · {r.message.slice(0, 60)}
@@ -219,7 +335,11 @@ function NewPlanForm({ teamId, vehicleId, revisions, headId }: { teamId: string;
 			<Button type="submit" busy={create.isPending} disabled={name.trim() === ''}>
 				Start the plan
 			</Button>
-			{create.error && !errors.name && <FormMessage tone="error">{create.error instanceof ApiError ? create.error.message : 'Could not reach the server.'}</FormMessage>}
+			{create.error && !errors.name && (
+				<FormMessage tone="error">
+					{create.error instanceof ApiError ? create.error.message : 'Could not reach the server.'}
+				</FormMessage>
+			)}
 		</form>
 	);
 }

@@ -16,7 +16,17 @@ const MAPPED = [
 ] as const;
 
 /** Logs a run, with an optional logger file (its columns mapped, its upload shown as it goes). */
-export function LogRunForm({ teamId, vehicleId, events, onLogged }: { teamId: string; vehicleId: string; events: EventDto[]; onLogged: (id: string) => void }) {
+export function LogRunForm({
+	teamId,
+	vehicleId,
+	events,
+	onLogged,
+}: {
+	teamId: string;
+	vehicleId: string;
+	events: EventDto[];
+	onLogged: (id: string) => void;
+}) {
 	const logRun = useLogRun(teamId, vehicleId);
 	const uploadLogger = useUploadLogger(teamId, vehicleId);
 	const [ranAt, setRanAt] = useState(() => format(new Date(), "yyyy-MM-dd'T'HH:mm"));
@@ -25,7 +35,12 @@ export function LogRunForm({ teamId, vehicleId, events, onLogged }: { teamId: st
 	const [notes, setNotes] = useState('');
 	const [file, setFile] = useState<File | null>(null);
 	const [columns, setColumns] = useState<string[]>([]);
-	const [mapping, setMapping] = useState({ timeColumn: '', voltsColumn: '', ampsColumn: '', timeUnit: 's' });
+	const [mapping, setMapping] = useState({
+		timeColumn: '',
+		voltsColumn: '',
+		ampsColumn: '',
+		timeUnit: 's',
+	});
 	const [errors, setErrors] = useState<Record<string, string>>({});
 	const [progress, setProgress] = useState<number | null>(null);
 	const [message, setMessage] = useState<{ tone: 'ok' | 'error'; text: string } | null>(null);
@@ -37,13 +52,24 @@ export function LogRunForm({ teamId, vehicleId, events, onLogged }: { teamId: st
 		const cols = loggerColumns(await f.slice(0, 4096).text());
 		setColumns(cols);
 		const guess = (re: RegExp) => cols.find((c) => re.test(c)) ?? '';
-		setMapping({ timeColumn: guess(/^t(ime)?|sec|ms/i), voltsColumn: guess(/volt|^v/i), ampsColumn: guess(/amp|^a$|^i$|current/i), timeUnit: cols.some((c) => /ms/i.test(c)) ? 'ms' : 's' });
+		setMapping({
+			timeColumn: guess(/^t(ime)?|sec|ms/i),
+			voltsColumn: guess(/volt|^v/i),
+			ampsColumn: guess(/amp|^a$|^i$|current/i),
+			timeUnit: cols.some((c) => /ms/i.test(c)) ? 'ms' : 's',
+		});
 	}
 
 	async function submit(event: React.FormEvent) {
 		event.preventDefault();
 		setMessage(null);
-		const parsed = newRunSchema.safeParse({ vehicleId, eventId: eventId || null, ranAt: new Date(ranAt).toISOString(), ...measurementsFromTexts(numbers), notes });
+		const parsed = newRunSchema.safeParse({
+			vehicleId,
+			eventId: eventId || null,
+			ranAt: new Date(ranAt).toISOString(),
+			...measurementsFromTexts(numbers),
+			notes,
+		});
 		if (!parsed.success) return setErrors(fieldErrors(parsed.error));
 		setErrors({});
 		try {
@@ -59,65 +85,136 @@ export function LogRunForm({ teamId, vehicleId, events, onLogged }: { teamId: st
 				setProgress(null);
 			}
 			onLogged(run.id);
-			setMessage(note ? { tone: 'error', text: note } : { tone: 'ok', text: `Run logged${run.revisionNumber ? ` against revision r${run.revisionNumber}` : ''}.` });
+			setMessage(
+				note
+					? { tone: 'error', text: note }
+					: {
+							tone: 'ok',
+							text: `Run logged${run.revisionNumber ? ` against revision r${run.revisionNumber}` : ''}.`,
+						},
+			);
 		} catch (e) {
 			if (e instanceof ApiError) setErrors(e.byField());
-			setMessage({ tone: 'error', text: e instanceof ApiError ? e.message : 'Could not reach the server.' });
+			setMessage({
+				tone: 'error',
+				text: e instanceof ApiError ? e.message : 'Could not reach the server.',
+			});
 		}
 	}
 
 	return (
 		<section aria-labelledby="log-heading">
-			<h2 id="log-heading" className="text-xl font-bold">Log a run</h2>
-			<form onSubmit={submit} noValidate aria-label="Log a run" className="mt-3 flex flex-col gap-3 rounded-md border border-hairline bg-card p-4">
+			<h2 id="log-heading" className="text-xl font-bold">
+				Log a run
+			</h2>
+			<form
+				onSubmit={submit}
+				noValidate
+				aria-label="Log a run"
+				className="mt-3 flex flex-col gap-3 rounded-md border border-hairline bg-card p-4"
+			>
 				<div className="grid gap-3 sm:grid-cols-3 lg:grid-cols-4">
-					<Field label="When" type="datetime-local" value={ranAt} onChange={(e) => setRanAt(e.target.value)} error={errors.ranAt} />
+					<Field
+						label="When"
+						type="datetime-local"
+						value={ranAt}
+						onChange={(e) => setRanAt(e.target.value)}
+						error={errors.ranAt}
+					/>
 					<div className="flex flex-col gap-1">
-						<label htmlFor="run-event" className="text-sm font-semibold">Event</label>
-						<select id="run-event" value={eventId} onChange={(e) => setEventId(e.target.value)} className="rounded-md border border-hairline bg-card px-3 py-2">
+						<label htmlFor="run-event" className="text-sm font-semibold">
+							Event
+						</label>
+						<select
+							id="run-event"
+							value={eventId}
+							onChange={(e) => setEventId(e.target.value)}
+							className="rounded-md border border-hairline bg-card px-3 py-2"
+						>
 							<option value="">practice (no event)</option>
 							{events.map((e) => (
-								<option key={e.id} value={e.id}>{e.name} ({e.startsOn})</option>
+								<option key={e.id} value={e.id}>
+									{e.name} ({e.startsOn})
+								</option>
 							))}
 						</select>
 					</div>
-					<MeasurementFields values={numbers} errors={errors} onChange={(f, v) => setNumbers((n) => ({ ...n, [f]: v }))} />
-					<Field label="Notes" value={notes} onChange={(e) => setNotes(e.target.value)} error={errors.notes} />
+					<MeasurementFields
+						values={numbers}
+						errors={errors}
+						onChange={(f, v) => setNumbers((n) => ({ ...n, [f]: v }))}
+					/>
+					<Field
+						label="Notes"
+						value={notes}
+						onChange={(e) => setNotes(e.target.value)}
+						error={errors.notes}
+					/>
 				</div>
 				<div className="flex flex-col gap-2 rounded-md border border-dashed border-hairline p-3">
-					<label htmlFor="logger-file" className="text-sm font-semibold">Logger file (CSV of time, volts, amps) — optional</label>
-					<input id="logger-file" type="file" accept=".csv,text/csv" onChange={(e) => void pick(e.target.files?.[0] ?? null)} />
+					<label htmlFor="logger-file" className="text-sm font-semibold">
+						Logger file (CSV of time, volts, amps) — optional
+					</label>
+					<input
+						id="logger-file"
+						type="file"
+						accept=".csv,text/csv"
+						onChange={(e) => void pick(e.target.files?.[0] ?? null)}
+					/>
 					{file && columns.length > 0 && (
 						<div className="flex flex-wrap gap-3 text-sm">
 							{MAPPED.map(({ key, label }) => (
 								<label key={key} className="flex items-center gap-1">
 									{label}
-									<select aria-label={`${label} column`} value={mapping[key]} onChange={(e) => setMapping((m) => ({ ...m, [key]: e.target.value }))} className="rounded border border-hairline px-1 py-0.5">
+									<select
+										aria-label={`${label} column`}
+										value={mapping[key]}
+										onChange={(e) => setMapping((m) => ({ ...m, [key]: e.target.value }))}
+										className="rounded border border-hairline px-1 py-0.5"
+									>
 										<option value="">—</option>
 										{columns.map((c) => (
-											<option key={c} value={c}>{c}</option>
+											<option key={c} value={c}>
+												{c}
+											</option>
 										))}
 									</select>
 								</label>
 							))}
 							<label className="flex items-center gap-1">
 								Time in
-								<select aria-label="Time unit" value={mapping.timeUnit} onChange={(e) => setMapping((m) => ({ ...m, timeUnit: e.target.value }))} className="rounded border border-hairline px-1 py-0.5">
+								<select
+									aria-label="Time unit"
+									value={mapping.timeUnit}
+									onChange={(e) => setMapping((m) => ({ ...m, timeUnit: e.target.value }))}
+									className="rounded border border-hairline px-1 py-0.5"
+								>
 									<option value="s">seconds</option>
 									<option value="ms">milliseconds</option>
 								</select>
 							</label>
 						</div>
 					)}
-					{file && columns.length === 0 && <p className="text-sm text-brick">✕ No header row found in this file.</p>}
+					{file && columns.length === 0 && (
+						<p className="text-sm text-brick">✕ No header row found in this file.</p>
+					)}
 					{progress !== null && (
-						<div role="progressbar" aria-valuenow={progress} aria-valuemin={0} aria-valuemax={100} aria-label="Upload progress" className="h-2 w-full overflow-hidden rounded bg-paper">
+						<div
+							role="progressbar"
+							aria-valuenow={progress}
+							aria-valuemin={0}
+							aria-valuemax={100}
+							aria-label="Upload progress"
+							className="h-2 w-full overflow-hidden rounded bg-paper"
+						>
 							<div className="h-full bg-teal" style={{ width: `${progress}%` }} />
 						</div>
 					)}
 				</div>
 				<div className="flex items-center gap-3">
-					<Button type="submit" busy={logRun.isPending || progress !== null}>Log the run</Button>
+					<Button type="submit" busy={logRun.isPending || progress !== null}>
+						Log the run
+					</Button>
 					{message && <FormMessage tone={message.tone}>{message.text}</FormMessage>}
 				</div>
 			</form>

@@ -1,5 +1,9 @@
 import { Field } from '@/components/ui/Field';
-import { MEASUREMENT_FIELDS, RUN_MEASUREMENTS, type MeasurementField } from '@/lib/schemas/run-measurements';
+import {
+	MEASUREMENT_FIELDS,
+	RUN_MEASUREMENTS,
+	type MeasurementField,
+} from '@/lib/schemas/run-measurements';
 
 /** One field per run measurement, read from its one definition (label, unit, keyboard). */
 export function MeasurementFields({

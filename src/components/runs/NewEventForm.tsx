@@ -8,9 +8,20 @@ import { Button, Field } from '@/components/ui/Field';
 
 export const NewEventForm = withQueryClient(function NewEventForm({ teamId }: { teamId: string }) {
 	const create = useCreateEvent(teamId);
-	const [values, setValues] = useState({ name: '', startsOn: '', endsOn: '', place: '', format: '' });
+	const [values, setValues] = useState({
+		name: '',
+		startsOn: '',
+		endsOn: '',
+		place: '',
+		format: '',
+	});
 	const [errors, setErrors] = useState<Record<string, string>>({});
-	const set = (k: keyof typeof values) => (e: React.ChangeEvent<HTMLInputElement>) => setValues((v) => ({ ...v, [k]: e.target.value, ...(k === 'startsOn' && !v.endsOn ? { endsOn: e.target.value } : {}) }));
+	const set = (k: keyof typeof values) => (e: React.ChangeEvent<HTMLInputElement>) =>
+		setValues((v) => ({
+			...v,
+			[k]: e.target.value,
+			...(k === 'startsOn' && !v.endsOn ? { endsOn: e.target.value } : {}),
+		}));
 	return (
 		<form
 			noValidate
@@ -24,16 +35,39 @@ export const NewEventForm = withQueryClient(function NewEventForm({ teamId }: { 
 					await create.mutateAsync(parsed.data);
 					window.location.reload();
 				} catch (err) {
-					setErrors(err instanceof ApiError ? { name: err.message, ...err.byField() } : { name: 'Could not reach the server' });
+					setErrors(
+						err instanceof ApiError
+							? { name: err.message, ...err.byField() }
+							: { name: 'Could not reach the server' },
+					);
 				}
 			}}
 		>
 			<Field label="Event" value={values.name} onChange={set('name')} error={errors.name} />
-			<Field label="From" type="date" value={values.startsOn} onChange={set('startsOn')} error={errors.startsOn} />
-			<Field label="To" type="date" value={values.endsOn} onChange={set('endsOn')} error={errors.endsOn} />
+			<Field
+				label="From"
+				type="date"
+				value={values.startsOn}
+				onChange={set('startsOn')}
+				error={errors.startsOn}
+			/>
+			<Field
+				label="To"
+				type="date"
+				value={values.endsOn}
+				onChange={set('endsOn')}
+				error={errors.endsOn}
+			/>
 			<Field label="Place" value={values.place} onChange={set('place')} error={errors.place} />
-			<Field label="Format or class" value={values.format} onChange={set('format')} error={errors.format} />
-			<Button type="submit" busy={create.isPending || create.isSuccess}>Add the event</Button>
+			<Field
+				label="Format or class"
+				value={values.format}
+				onChange={set('format')}
+				error={errors.format}
+			/>
+			<Button type="submit" busy={create.isPending || create.isSuccess}>
+				Add the event
+			</Button>
 		</form>
 	);
 });

@@ -1,4 +1,11 @@
-import { Chart as ChartJS, Legend, LinearScale, LineElement, PointElement, Tooltip } from 'chart.js';
+import {
+	Chart as ChartJS,
+	Legend,
+	LinearScale,
+	LineElement,
+	PointElement,
+	Tooltip,
+} from 'chart.js';
 import { useMemo } from 'react';
 import { Scatter } from 'react-chartjs-2';
 import type { Sample } from '@/engine';
@@ -13,8 +20,17 @@ const samplesOptions = {
 	animation: false as const,
 	scales: {
 		x: { type: 'linear' as const, title: { display: true, text: 'Time (s)' } },
-		y: { type: 'linear' as const, position: 'left' as const, title: { display: true, text: 'Voltage (V)' } },
-		y1: { type: 'linear' as const, position: 'right' as const, title: { display: true, text: 'Current (A)' }, grid: { drawOnChartArea: false } },
+		y: {
+			type: 'linear' as const,
+			position: 'left' as const,
+			title: { display: true, text: 'Voltage (V)' },
+		},
+		y1: {
+			type: 'linear' as const,
+			position: 'right' as const,
+			title: { display: true, text: 'Current (A)' },
+			grid: { drawOnChartArea: false },
+		},
 	},
 	plugins: { legend: { position: 'bottom' as const } },
 };
@@ -24,7 +40,11 @@ const overTimeOptions = {
 	maintainAspectRatio: false,
 	animation: false as const,
 	scales: {
-		x: { type: 'linear' as const, title: { display: true, text: 'Date' }, ticks: { callback: (v: number | string) => new Date(Number(v)).toISOString().slice(0, 10) } },
+		x: {
+			type: 'linear' as const,
+			title: { display: true, text: 'Date' },
+			ticks: { callback: (v: number | string) => new Date(Number(v)).toISOString().slice(0, 10) },
+		},
 		y: { title: { display: true, text: 'Score (dB)' } },
 	},
 	plugins: { legend: { position: 'bottom' as const } },
@@ -34,21 +54,64 @@ const vsVoltageOptions = {
 	responsive: true,
 	maintainAspectRatio: false,
 	animation: false as const,
-	scales: { x: { type: 'linear' as const, title: { display: true, text: 'Minimum voltage during the run (V)' } }, y: { title: { display: true, text: 'Score (dB)' } } },
+	scales: {
+		x: {
+			type: 'linear' as const,
+			title: { display: true, text: 'Minimum voltage during the run (V)' },
+		},
+		y: { title: { display: true, text: 'Score (dB)' } },
+	},
 	plugins: { legend: { position: 'bottom' as const } },
 };
 
 export function SamplesChart({ samples }: { samples: Sample[] }) {
 	const data = useMemo(() => toSamplesChartData(samples), [samples]);
-	return <div className="h-64"><Scatter data={data as never} options={samplesOptions} aria-label="Voltage and current over the run" role="img" /></div>;
+	return (
+		<div className="h-64">
+			<Scatter
+				data={data as never}
+				options={samplesOptions}
+				aria-label="Voltage and current over the run"
+				role="img"
+			/>
+		</div>
+	);
 }
 
 export function ScoresOverTimeChart({ runs }: { runs: RunDto[] }) {
 	const data = useMemo(() => toScoresOverTime(runs), [runs]);
-	return <div className="h-64"><Scatter data={data as never} options={overTimeOptions as never} aria-label="Scores over time, with changes of revision marked" role="img" /></div>;
+	return (
+		<div className="h-64">
+			<Scatter
+				data={data as never}
+				options={overTimeOptions as never}
+				aria-label="Scores over time, with changes of revision marked"
+				role="img"
+			/>
+		</div>
+	);
 }
 
-export function ScoreVsVoltageChart({ runs, reference }: { runs: RunDto[]; reference: RunDto | null }) {
+export function ScoreVsVoltageChart({
+	runs,
+	reference,
+}: {
+	runs: RunDto[];
+	reference: RunDto | null;
+}) {
 	const data = useMemo(() => toScoreVsVoltage(runs, reference), [runs, reference]);
-	return <div className="h-64" data-testid="score-vs-voltage" data-points={(data.datasets[0]!.data as unknown[]).length}><Scatter data={data as never} options={vsVoltageOptions} aria-label="Score against measured supply voltage with the expected line" role="img" /></div>;
+	return (
+		<div
+			className="h-64"
+			data-testid="score-vs-voltage"
+			data-points={(data.datasets[0]!.data as unknown[]).length}
+		>
+			<Scatter
+				data={data as never}
+				options={vsVoltageOptions}
+				aria-label="Score against measured supply voltage with the expected line"
+				role="img"
+			/>
+		</div>
+	);
 }

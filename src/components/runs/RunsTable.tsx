@@ -24,11 +24,20 @@ export function RunsTable({
 	return (
 		<section aria-labelledby="runs-heading">
 			<div className="flex items-center gap-3">
-				<h2 id="runs-heading" className="text-xl font-bold">Runs</h2>
-				<a href={`/api/teams/${teamId}/runs/export.csv?vehicleId=${vehicleId}`} className="rounded-md border border-hairline bg-card px-2 py-0.5 text-sm hover:border-copper">Download CSV</a>
+				<h2 id="runs-heading" className="text-xl font-bold">
+					Runs
+				</h2>
+				<a
+					href={`/api/teams/${teamId}/runs/export.csv?vehicleId=${vehicleId}`}
+					className="rounded-md border border-hairline bg-card px-2 py-0.5 text-sm hover:border-copper"
+				>
+					Download CSV
+				</a>
 			</div>
 			{list.length === 0 ? (
-				<p className="mt-3 rounded-md border border-dashed border-hairline bg-card p-6 text-ink-soft">No runs logged yet.</p>
+				<p className="mt-3 rounded-md border border-dashed border-hairline bg-card p-6 text-ink-soft">
+					No runs logged yet.
+				</p>
 			) : (
 				<div className="mt-3 overflow-x-auto rounded-md border border-hairline bg-card">
 					<table className="w-full text-sm">
@@ -38,7 +47,9 @@ export function RunsTable({
 								<th className="px-3 py-2 text-left">Event</th>
 								<th className="px-3 py-2 text-left">Revision</th>
 								{MEASUREMENT_FIELDS.map((f) => (
-									<th key={f} className="px-3 py-2 text-right">{RUN_MEASUREMENTS[f].short}</th>
+									<th key={f} className="px-3 py-2 text-right">
+										{RUN_MEASUREMENTS[f].short}
+									</th>
 								))}
 								<th className="px-3 py-2 text-left">Logger</th>
 								<th className="px-3 py-2 text-left">Compare</th>
@@ -46,23 +57,51 @@ export function RunsTable({
 						</thead>
 						<tbody className="num">
 							{[...list].reverse().map((r) => (
-								<tr key={r.id} className={`cursor-pointer border-t border-hairline ${selected === r.id ? 'bg-copper-tint/50' : 'hover:bg-paper'}`} onClick={() => setSelected(r.id)} data-run={r.id}>
+								<tr
+									key={r.id}
+									className={`cursor-pointer border-t border-hairline ${selected === r.id ? 'bg-copper-tint/50' : 'hover:bg-paper'}`}
+									onClick={() => setSelected(r.id)}
+									data-run={r.id}
+								>
 									<td className="px-3 py-1.5 font-sans">
-										<button type="button" className="underline-offset-2 hover:underline" onClick={() => setSelected(r.id)}>
+										<button
+											type="button"
+											className="underline-offset-2 hover:underline"
+											onClick={() => setSelected(r.id)}
+										>
 											{format(new Date(r.ranAt), 'd MMM yyyy HH:mm')}
 										</button>
 									</td>
-									<td className="px-3 py-1.5 font-sans">{r.eventName ?? <span className="text-ink-soft">practice</span>}</td>
+									<td className="px-3 py-1.5 font-sans">
+										{r.eventName ?? <span className="text-ink-soft">practice</span>}
+									</td>
 									<td className="px-3 py-1.5">{r.revisionNumber ? `r${r.revisionNumber}` : '—'}</td>
 									{MEASUREMENT_FIELDS.map((f) => (
 										<td key={f} className="px-3 py-1.5 text-right">
-											{fmt(r[f], RUN_MEASUREMENTS[f].decimals)} <span className="text-xs text-ink-soft">{RUN_MEASUREMENTS[f].unit}</span>
+											{fmt(r[f], RUN_MEASUREMENTS[f].decimals)}{' '}
+											<span className="text-xs text-ink-soft">{RUN_MEASUREMENTS[f].unit}</span>
 										</td>
 									))}
 									<td className="px-3 py-1.5 font-sans">{r.hasLogger ? '✓ file' : '—'}</td>
 									<td className="px-3 py-1.5 font-sans" onClick={(e) => e.stopPropagation()}>
-										<label className="mr-2 text-xs"><input type="radio" name="cmp-a" checked={compare[0] === r.id} onChange={() => setCompare([r.id, compare[1]])} /> A</label>
-										<label className="text-xs"><input type="radio" name="cmp-b" checked={compare[1] === r.id} onChange={() => setCompare([compare[0], r.id])} /> B</label>
+										<label className="mr-2 text-xs">
+											<input
+												type="radio"
+												name="cmp-a"
+												checked={compare[0] === r.id}
+												onChange={() => setCompare([r.id, compare[1]])}
+											/>{' '}
+											A
+										</label>
+										<label className="text-xs">
+											<input
+												type="radio"
+												name="cmp-b"
+												checked={compare[1] === r.id}
+												onChange={() => setCompare([compare[0], r.id])}
+											/>{' '}
+											B
+										</label>
 									</td>
 								</tr>
 							))}

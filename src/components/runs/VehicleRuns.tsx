@@ -26,25 +26,64 @@ export function VehicleRuns(props: VehicleRunsProps) {
 	);
 }
 
-export function VehicleRunsView({ teamId, vehicleId, canEdit, initialRuns, events }: VehicleRunsProps) {
-	const runs = useQuery({ ...vehicleRunsQueryOptions(teamId, vehicleId), initialData: initialRuns });
+export function VehicleRunsView({
+	teamId,
+	vehicleId,
+	canEdit,
+	initialRuns,
+	events,
+}: VehicleRunsProps) {
+	const runs = useQuery({
+		...vehicleRunsQueryOptions(teamId, vehicleId),
+		initialData: initialRuns,
+	});
 	const [selected, setSelected] = useState<string | null>(initialRuns.at(-1)?.id ?? null);
 	const [referenceId, setReferenceId] = useState<string | null>(null);
 	const [compare, setCompare] = useState<[string | null, string | null]>([null, null]);
 	const list = runs.data;
-	const reference = list.find((r) => r.id === referenceId) ?? [...list].filter((r) => r.scoreDb !== null && r.minV !== null).sort((a, b) => b.scoreDb! - a.scoreDb!)[0] ?? null;
+	const reference =
+		list.find((r) => r.id === referenceId) ??
+		[...list]
+			.filter((r) => r.scoreDb !== null && r.minV !== null)
+			.sort((a, b) => b.scoreDb! - a.scoreDb!)[0] ??
+		null;
 
 	return (
 		<div className="flex flex-col gap-8">
-			{canEdit && <LogRunForm teamId={teamId} vehicleId={vehicleId} events={events} onLogged={(id) => setSelected(id)} />}
+			{canEdit && (
+				<LogRunForm
+					teamId={teamId}
+					vehicleId={vehicleId}
+					events={events}
+					onLogged={(id) => setSelected(id)}
+				/>
+			)}
 
-			<RunsTable teamId={teamId} vehicleId={vehicleId} runs={list} selected={selected} onSelect={setSelected} compare={compare} onCompare={setCompare} />
-			{selected && <RunDetailPanel teamId={teamId} vehicleId={vehicleId} runId={selected} canEdit={canEdit} onDeleted={() => setSelected(null)} />}
+			<RunsTable
+				teamId={teamId}
+				vehicleId={vehicleId}
+				runs={list}
+				selected={selected}
+				onSelect={setSelected}
+				compare={compare}
+				onCompare={setCompare}
+			/>
+			{selected && (
+				<RunDetailPanel
+					teamId={teamId}
+					vehicleId={vehicleId}
+					runId={selected}
+					canEdit={canEdit}
+					onDeleted={() => setSelected(null)}
+				/>
+			)}
 
 			{list.some((r) => r.scoreDb !== null) && (
 				<section aria-labelledby="compare-heading" className="grid gap-6 lg:grid-cols-2">
 					<div>
-						<h2 id="compare-heading" className="text-xl font-bold">Scores over time</h2>
+						<h2 id="compare-heading" className="text-xl font-bold">
+							Scores over time
+						</h2>
 						<div className="mt-3 rounded-md border border-hairline bg-card p-3">
 							<ScoresOverTimeChart runs={list} />
 						</div>
@@ -55,10 +94,19 @@ export function VehicleRunsView({ teamId, vehicleId, canEdit, initialRuns, event
 							<ScoreVsVoltageChart runs={list} reference={reference} />
 							<label className="mt-2 flex items-center gap-2 text-sm">
 								Reference run
-								<select value={reference?.id ?? ''} onChange={(e) => setReferenceId(e.target.value || null)} className="rounded border border-hairline px-2 py-1">
-									{list.filter((r) => r.scoreDb !== null && r.minV !== null).map((r) => (
-										<option key={r.id} value={r.id}>{format(new Date(r.ranAt), 'd MMM yyyy')} · {fmt(r.scoreDb, 1)} dB at {fmt(r.minV)} V</option>
-									))}
+								<select
+									value={reference?.id ?? ''}
+									onChange={(e) => setReferenceId(e.target.value || null)}
+									className="rounded border border-hairline px-2 py-1"
+								>
+									{list
+										.filter((r) => r.scoreDb !== null && r.minV !== null)
+										.map((r) => (
+											<option key={r.id} value={r.id}>
+												{format(new Date(r.ranAt), 'd MMM yyyy')} · {fmt(r.scoreDb, 1)} dB at{' '}
+												{fmt(r.minV)} V
+											</option>
+										))}
 								</select>
 							</label>
 						</div>
@@ -66,7 +114,14 @@ export function VehicleRunsView({ teamId, vehicleId, canEdit, initialRuns, event
 				</section>
 			)}
 
-			{compare[0] && compare[1] && <RunComparison teamId={teamId} vehicleId={vehicleId} a={list.find((r) => r.id === compare[0])!} b={list.find((r) => r.id === compare[1])!} />}
+			{compare[0] && compare[1] && (
+				<RunComparison
+					teamId={teamId}
+					vehicleId={vehicleId}
+					a={list.find((r) => r.id === compare[0])!}
+					b={list.find((r) => r.id === compare[1])!}
+				/>
+			)}
 		</div>
 	);
 }

@@ -9,20 +9,56 @@ export function toSamplesChartData(samples: Sample[]) {
 	const pts = samples.filter((_, i) => i % step === 0 || i === samples.length - 1);
 	return {
 		datasets: [
-			{ label: 'Voltage (V)', data: pts.map((s) => ({ x: s.tS, y: s.volts })), borderColor: CHART_COLOURS.teal, backgroundColor: CHART_COLOURS.teal, yAxisID: 'y', pointRadius: 0, showLine: true, borderWidth: 2 },
-			{ label: 'Current (A)', data: pts.map((s) => ({ x: s.tS, y: s.amps })), borderColor: CHART_COLOURS.copper, backgroundColor: CHART_COLOURS.copper, yAxisID: 'y1', pointRadius: 0, showLine: true, borderWidth: 2 },
+			{
+				label: 'Voltage (V)',
+				data: pts.map((s) => ({ x: s.tS, y: s.volts })),
+				borderColor: CHART_COLOURS.teal,
+				backgroundColor: CHART_COLOURS.teal,
+				yAxisID: 'y',
+				pointRadius: 0,
+				showLine: true,
+				borderWidth: 2,
+			},
+			{
+				label: 'Current (A)',
+				data: pts.map((s) => ({ x: s.tS, y: s.amps })),
+				borderColor: CHART_COLOURS.copper,
+				backgroundColor: CHART_COLOURS.copper,
+				yAxisID: 'y1',
+				pointRadius: 0,
+				showLine: true,
+				borderWidth: 2,
+			},
 		],
 	};
 }
 
 /** Scores over time; points where the revision changed from the previous run are marked. */
 export function toScoresOverTime(runs: RunDto[]) {
-	const scored = runs.filter((r) => r.scoreDb !== null).sort((a, b) => a.ranAt.localeCompare(b.ranAt));
+	const scored = runs
+		.filter((r) => r.scoreDb !== null)
+		.sort((a, b) => a.ranAt.localeCompare(b.ranAt));
 	const changed = scored.filter((r, i) => i > 0 && r.revisionId !== scored[i - 1]!.revisionId);
 	return {
 		datasets: [
-			{ label: 'Score (dB)', data: scored.map((r) => ({ x: Date.parse(r.ranAt), y: r.scoreDb! })), borderColor: CHART_COLOURS.copper, backgroundColor: CHART_COLOURS.copper, showLine: true, pointRadius: 4 },
-			{ label: 'New revision in force', data: changed.map((r) => ({ x: Date.parse(r.ranAt), y: r.scoreDb! })), borderColor: CHART_COLOURS.teal, backgroundColor: 'rgba(0,0,0,0)', pointStyle: 'rectRot' as const, pointRadius: 9, borderWidth: 2, showLine: false },
+			{
+				label: 'Score (dB)',
+				data: scored.map((r) => ({ x: Date.parse(r.ranAt), y: r.scoreDb! })),
+				borderColor: CHART_COLOURS.copper,
+				backgroundColor: CHART_COLOURS.copper,
+				showLine: true,
+				pointRadius: 4,
+			},
+			{
+				label: 'New revision in force',
+				data: changed.map((r) => ({ x: Date.parse(r.ranAt), y: r.scoreDb! })),
+				borderColor: CHART_COLOURS.teal,
+				backgroundColor: 'rgba(0,0,0,0)',
+				pointStyle: 'rectRot' as const,
+				pointRadius: 9,
+				borderWidth: 2,
+				showLine: false,
+			},
 		],
 	};
 }
@@ -34,14 +70,32 @@ export function toScoresOverTime(runs: RunDto[]) {
 export function toScoreVsVoltage(runs: RunDto[], reference: RunDto | null) {
 	const pts = runs.filter((r) => r.scoreDb !== null && r.minV !== null);
 	const datasets: Array<Record<string, unknown>> = [
-		{ label: 'Runs (score at the measured minimum voltage)', data: pts.map((r) => ({ x: r.minV!, y: r.scoreDb! })), borderColor: CHART_COLOURS.copper, backgroundColor: CHART_COLOURS.copper, pointRadius: 5, showLine: false },
+		{
+			label: 'Runs (score at the measured minimum voltage)',
+			data: pts.map((r) => ({ x: r.minV!, y: r.scoreDb! })),
+			borderColor: CHART_COLOURS.copper,
+			backgroundColor: CHART_COLOURS.copper,
+			pointRadius: 5,
+			showLine: false,
+		},
 	];
 	if (reference && reference.scoreDb !== null && reference.minV !== null) {
 		const xs = pts.map((r) => r.minV!);
 		const lo = Math.min(...xs, reference.minV) - 0.3;
 		const hi = Math.max(...xs, reference.minV) + 0.3;
-		const line = Array.from({ length: 21 }, (_, i) => lo + ((hi - lo) * i) / 20).map((v) => ({ x: v, y: reference.scoreDb! + voltageRatioDb(v, reference.minV!) }));
-		datasets.push({ label: `Expected from the reference run (+20·log10 V/${reference.minV.toFixed(2)} V)`, data: line, borderColor: CHART_COLOURS.teal, backgroundColor: CHART_COLOURS.teal, borderDash: [6, 4], pointRadius: 0, showLine: true });
+		const line = Array.from({ length: 21 }, (_, i) => lo + ((hi - lo) * i) / 20).map((v) => ({
+			x: v,
+			y: reference.scoreDb! + voltageRatioDb(v, reference.minV!),
+		}));
+		datasets.push({
+			label: `Expected from the reference run (+20·log10 V/${reference.minV.toFixed(2)} V)`,
+			data: line,
+			borderColor: CHART_COLOURS.teal,
+			backgroundColor: CHART_COLOURS.teal,
+			borderDash: [6, 4],
+			pointRadius: 0,
+			showLine: true,
+		});
 	}
 	return { datasets };
 }

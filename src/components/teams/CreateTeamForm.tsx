@@ -18,12 +18,25 @@ export const CreateTeamForm = withQueryClient(function CreateTeamForm() {
 			const team = await create.mutateAsync(parsed.data);
 			window.location.href = `/teams/${team.id}`;
 		} catch (e) {
-			setError(e instanceof ApiError ? (e.byField().name ?? e.message) : 'Could not reach the server.');
+			setError(
+				e instanceof ApiError ? (e.byField().name ?? e.message) : 'Could not reach the server.',
+			);
 		}
 	}
 	return (
-		<form onSubmit={submit} noValidate className="flex flex-wrap items-end gap-3" aria-label="Create a team">
-			<Field label="New team name" value={name} onChange={(e) => setName(e.target.value)} error={error} className="min-w-64" />
+		<form
+			onSubmit={submit}
+			noValidate
+			className="flex flex-wrap items-end gap-3"
+			aria-label="Create a team"
+		>
+			<Field
+				label="New team name"
+				value={name}
+				onChange={(e) => setName(e.target.value)}
+				error={error}
+				className="min-w-64"
+			/>
 			<Button type="submit" busy={create.isPending || create.isSuccess}>
 				Create the team
 			</Button>

@@ -4,7 +4,6 @@ import { withQueryClient } from '@/lib/client/query-client';
 import type { ImportSummary } from '@/lib/schemas/teams';
 import { Button, Field, FormMessage } from '@/components/ui/Field';
 
-
 /** Restores a team backup file as a new team, with upload progress and the server's reason when it refuses. */
 const count = (n: number, noun: string) => `${n} ${noun}${n === 1 ? '' : 's'}`;
 
@@ -40,24 +39,51 @@ export const ImportTeamForm = withQueryClient(function ImportTeamForm() {
 					<label htmlFor="backup-file" className="text-sm font-semibold">
 						Backup file
 					</label>
-					<input id="backup-file" type="file" accept="application/json,.json" onChange={(e) => setFile(e.target.files?.[0] ?? null)} className="rounded-md border border-hairline bg-card px-3 py-1.5 text-sm" />
+					<input
+						id="backup-file"
+						type="file"
+						accept="application/json,.json"
+						onChange={(e) => setFile(e.target.files?.[0] ?? null)}
+						className="rounded-md border border-hairline bg-card px-3 py-1.5 text-sm"
+					/>
 				</div>
-				<Field label="Name for the restored team (optional)" value={name} onChange={(e) => setName(e.target.value)} maxLength={80} className="min-w-64" />
+				<Field
+					label="Name for the restored team (optional)"
+					value={name}
+					onChange={(e) => setName(e.target.value)}
+					maxLength={80}
+					className="min-w-64"
+				/>
 				<Button type="submit" variant="secondary" busy={progress !== null} disabled={!file}>
 					Restore as a new team
 				</Button>
 			</div>
 			{progress !== null && (
-				<div role="progressbar" aria-label="Uploading the backup" aria-valuenow={progress} aria-valuemin={0} aria-valuemax={100} className="h-2 w-full max-w-md overflow-hidden rounded bg-paper">
+				<div
+					role="progressbar"
+					aria-label="Uploading the backup"
+					aria-valuenow={progress}
+					aria-valuemin={0}
+					aria-valuemax={100}
+					className="h-2 w-full max-w-md overflow-hidden rounded bg-paper"
+				>
 					<div className="h-full bg-copper-deep transition-all" style={{ width: `${progress}%` }} />
 				</div>
 			)}
-			{progress === 100 && <p role="status" className="text-sm text-ink-soft">Checking and writing the team…</p>}
+			{progress === 100 && (
+				<p role="status" className="text-sm text-ink-soft">
+					Checking and writing the team…
+				</p>
+			)}
 			{error && <FormMessage tone="error">{error}</FormMessage>}
 			{done && (
 				<FormMessage tone="ok">
-					“{done.name}” is restored: {count(done.vehicles, 'vehicle')}, {count(done.revisions, 'revision')}, {count(done.plans, 'plan')}, {count(done.events, 'event')}, {count(done.runs, 'run')}, {count(done.files, 'file')}. You are its captain
-					{done.invitations > 0 && `; the ${done.invitations} other ${done.invitations === 1 ? 'person' : 'people'} in the file ${done.invitations === 1 ? 'has' : 'have'} a pending invitation (send it from the team page; each joins by accepting it)`}
+					“{done.name}” is restored: {count(done.vehicles, 'vehicle')},{' '}
+					{count(done.revisions, 'revision')}, {count(done.plans, 'plan')},{' '}
+					{count(done.events, 'event')}, {count(done.runs, 'run')}, {count(done.files, 'file')}. You
+					are its captain
+					{done.invitations > 0 &&
+						`; the ${done.invitations} other ${done.invitations === 1 ? 'person' : 'people'} in the file ${done.invitations === 1 ? 'has' : 'have'} a pending invitation (send it from the team page; each joins by accepting it)`}
 					. Authors and sign-offs show as recorded in the file.{' '}
 					<a className="font-semibold underline" href={`/teams/${done.teamId}`}>
 						Open the team

@@ -34,13 +34,31 @@ export function InviteSection({ teamId }: { teamId: string }) {
 			<h2 id="invite-heading" className="text-xl font-bold">
 				Invite someone
 			</h2>
-			<form onSubmit={submit} noValidate className="mt-3 flex flex-wrap items-end gap-3 rounded-md border border-hairline bg-card p-4" aria-label="Invite by e-mail">
-				<Field label="E-mail" type="email" name="invite-email" value={email} onChange={(e) => setEmail(e.target.value)} error={errors.email} className="min-w-64 flex-1" />
+			<form
+				onSubmit={submit}
+				noValidate
+				className="mt-3 flex flex-wrap items-end gap-3 rounded-md border border-hairline bg-card p-4"
+				aria-label="Invite by e-mail"
+			>
+				<Field
+					label="E-mail"
+					type="email"
+					name="invite-email"
+					value={email}
+					onChange={(e) => setEmail(e.target.value)}
+					error={errors.email}
+					className="min-w-64 flex-1"
+				/>
 				<div className="flex flex-col gap-1">
 					<label htmlFor="invite-role" className="text-sm font-semibold">
 						Role
 					</label>
-					<select id="invite-role" value={role} onChange={(e) => setRole(e.target.value as Role)} className="rounded-md border border-hairline bg-card px-3 py-2">
+					<select
+						id="invite-role"
+						value={role}
+						onChange={(e) => setRole(e.target.value as Role)}
+						className="rounded-md border border-hairline bg-card px-3 py-2"
+					>
 						{ROLES.map((r) => (
 							<option key={r} value={r}>
 								{r}
@@ -53,7 +71,11 @@ export function InviteSection({ teamId }: { teamId: string }) {
 				</Button>
 			</form>
 			<div className="mt-2 flex flex-col gap-2">
-				{sentTo && <FormMessage tone="ok">Invitation sent to {sentTo}. The link works once, for 7 days.</FormMessage>}
+				{sentTo && (
+					<FormMessage tone="ok">
+						Invitation sent to {sentTo}. The link works once, for 7 days.
+					</FormMessage>
+				)}
 				{invite.error && !Object.keys(errors).length && <ErrorNote error={invite.error} />}
 			</div>
 		</section>

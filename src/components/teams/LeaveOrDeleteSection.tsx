@@ -3,7 +3,17 @@ import { useDeleteTeam, useMemberAction } from '@/lib/client/queries/teams';
 import { Button, Field } from '@/components/ui/Field';
 import { ErrorNote } from './ErrorNote';
 
-export function LeaveOrDeleteSection({ teamId, teamName, captain, myUserId }: { teamId: string; teamName: string; captain: boolean; myUserId: string }) {
+export function LeaveOrDeleteSection({
+	teamId,
+	teamName,
+	captain,
+	myUserId,
+}: {
+	teamId: string;
+	teamName: string;
+	captain: boolean;
+	myUserId: string;
+}) {
 	const [confirmName, setConfirmName] = useState('');
 	const leave = useMemberAction(teamId);
 	const remove = useDeleteTeam(teamId);
@@ -17,10 +27,19 @@ export function LeaveOrDeleteSection({ teamId, teamName, captain, myUserId }: { 
 			</h2>
 			<div className="mt-3 flex flex-col gap-4">
 				<div className="flex flex-wrap items-center gap-3">
-					<Button variant="secondary" busy={busy} onClick={() => window.confirm(`Leave ${teamName}?`) && leave.mutate({ userId: myUserId, role: null }, toTeams)}>
+					<Button
+						variant="secondary"
+						busy={busy}
+						onClick={() =>
+							window.confirm(`Leave ${teamName}?`) &&
+							leave.mutate({ userId: myUserId, role: null }, toTeams)
+						}
+					>
 						Leave the team
 					</Button>
-					<span className="text-sm text-ink-soft">The last captain cannot leave; make someone else captain first.</span>
+					<span className="text-sm text-ink-soft">
+						The last captain cannot leave; make someone else captain first.
+					</span>
 				</div>
 				{captain && (
 					<form
@@ -30,8 +49,18 @@ export function LeaveOrDeleteSection({ teamId, teamName, captain, myUserId }: { 
 							remove.mutate(confirmName, toTeams);
 						}}
 					>
-						<Field label={`Type “${teamName}” to delete the team and all its data`} value={confirmName} onChange={(e) => setConfirmName(e.target.value)} className="min-w-72" />
-						<Button type="submit" variant="danger" busy={busy} disabled={confirmName.trim() !== teamName}>
+						<Field
+							label={`Type “${teamName}” to delete the team and all its data`}
+							value={confirmName}
+							onChange={(e) => setConfirmName(e.target.value)}
+							className="min-w-72"
+						/>
+						<Button
+							type="submit"
+							variant="danger"
+							busy={busy}
+							disabled={confirmName.trim() !== teamName}
+						>
 							Delete the team
 						</Button>
 					</form>

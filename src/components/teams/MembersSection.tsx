@@ -1,6 +1,11 @@
 import { useQuery } from '@tanstack/react-query';
 import { formatDistanceToNow } from 'date-fns';
-import { type MemberDto, membersQueryOptions, type Role, useMemberAction } from '@/lib/client/queries/teams';
+import {
+	type MemberDto,
+	membersQueryOptions,
+	type Role,
+	useMemberAction,
+} from '@/lib/client/queries/teams';
 import { Button } from '@/components/ui/Field';
 import { ErrorNote } from './ErrorNote';
 
@@ -11,7 +16,17 @@ export const ROLE_HELP: Record<Role, string> = {
 	viewer: 'reads everything, changes nothing',
 };
 
-export function MembersSection({ teamId, captain, myUserId, initialMembers }: { teamId: string; captain: boolean; myUserId: string; initialMembers: MemberDto[] }) {
+export function MembersSection({
+	teamId,
+	captain,
+	myUserId,
+	initialMembers,
+}: {
+	teamId: string;
+	captain: boolean;
+	myUserId: string;
+	initialMembers: MemberDto[];
+}) {
 	const members = useQuery({ ...membersQueryOptions(teamId), initialData: initialMembers });
 	const action = useMemberAction(teamId);
 	return (
@@ -23,18 +38,33 @@ export function MembersSection({ teamId, captain, myUserId, initialMembers }: { 
 				<table className="w-full text-left text-sm">
 					<thead className="border-b border-hairline bg-paper text-xs uppercase tracking-wide text-ink-soft">
 						<tr>
-							<th scope="col" className="px-4 py-2">Name</th>
-							<th scope="col" className="px-4 py-2">E-mail</th>
-							<th scope="col" className="px-4 py-2">Role</th>
-							<th scope="col" className="px-4 py-2">Joined</th>
-							{captain && <th scope="col" className="px-4 py-2"><span className="sr-only">Actions</span></th>}
+							<th scope="col" className="px-4 py-2">
+								Name
+							</th>
+							<th scope="col" className="px-4 py-2">
+								E-mail
+							</th>
+							<th scope="col" className="px-4 py-2">
+								Role
+							</th>
+							<th scope="col" className="px-4 py-2">
+								Joined
+							</th>
+							{captain && (
+								<th scope="col" className="px-4 py-2">
+									<span className="sr-only">Actions</span>
+								</th>
+							)}
 						</tr>
 					</thead>
 					<tbody>
 						{members.data.map((m) => (
 							<tr key={m.userId} className="border-b border-hairline last:border-0">
 								<td className="px-4 py-2 font-semibold">
-									{m.name ?? '—'} {m.userId === myUserId && <span className="ml-1 rounded bg-paper px-1.5 text-xs text-ink-soft">you</span>}
+									{m.name ?? '—'}{' '}
+									{m.userId === myUserId && (
+										<span className="ml-1 rounded bg-paper px-1.5 text-xs text-ink-soft">you</span>
+									)}
 								</td>
 								<td className="px-4 py-2">{m.email}</td>
 								<td className="px-4 py-2">
@@ -43,7 +73,9 @@ export function MembersSection({ teamId, captain, myUserId, initialMembers }: { 
 											aria-label={`Role of ${m.email}`}
 											value={m.role}
 											disabled={action.isPending}
-											onChange={(e) => action.mutate({ userId: m.userId, role: e.target.value as Role })}
+											onChange={(e) =>
+												action.mutate({ userId: m.userId, role: e.target.value as Role })
+											}
 											className="rounded-md border border-hairline bg-card px-2 py-1"
 										>
 											{ROLES.map((r) => (
@@ -56,7 +88,9 @@ export function MembersSection({ teamId, captain, myUserId, initialMembers }: { 
 										<span className="capitalize">{m.role}</span>
 									)}
 								</td>
-								<td className="px-4 py-2 text-ink-soft">{formatDistanceToNow(new Date(m.joinedAt), { addSuffix: true })}</td>
+								<td className="px-4 py-2 text-ink-soft">
+									{formatDistanceToNow(new Date(m.joinedAt), { addSuffix: true })}
+								</td>
 								{captain && (
 									<td className="px-4 py-2 text-right">
 										{m.userId !== myUserId && (
@@ -64,7 +98,8 @@ export function MembersSection({ teamId, captain, myUserId, initialMembers }: { 
 												variant="secondary"
 												className="px-2 py-1 text-xs"
 												onClick={() => {
-													if (window.confirm(`Remove ${m.email} from the team?`)) action.mutate({ userId: m.userId, role: null });
+													if (window.confirm(`Remove ${m.email} from the team?`))
+														action.mutate({ userId: m.userId, role: null });
 												}}
 											>
 												Remove

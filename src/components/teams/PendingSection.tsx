@@ -12,9 +12,19 @@ export function PendingSection({ teamId }: { teamId: string }) {
 			<h2 id="pending-heading" className="text-xl font-bold">
 				Pending invitations
 			</h2>
-			{pending.isPending && <p className="mt-3 text-sm text-ink-soft" role="status">Loading invitations…</p>}
-			{pending.isError && <div className="mt-3"><ErrorNote error={pending.error} /></div>}
-			{pending.data && pending.data.length === 0 && <p className="mt-3 text-sm text-ink-soft">No invitations waiting for an answer.</p>}
+			{pending.isPending && (
+				<p className="mt-3 text-sm text-ink-soft" role="status">
+					Loading invitations…
+				</p>
+			)}
+			{pending.isError && (
+				<div className="mt-3">
+					<ErrorNote error={pending.error} />
+				</div>
+			)}
+			{pending.data && pending.data.length === 0 && (
+				<p className="mt-3 text-sm text-ink-soft">No invitations waiting for an answer.</p>
+			)}
 			{pending.data && pending.data.length > 0 && (
 				<ul className="mt-3 divide-y divide-hairline rounded-md border border-hairline bg-card">
 					{pending.data.map((inv) => (
@@ -22,13 +32,28 @@ export function PendingSection({ teamId }: { teamId: string }) {
 							<span className="font-semibold">{inv.email}</span>
 							<span className="rounded bg-paper px-2 py-0.5 capitalize">{inv.role}</span>
 							<span className={inv.expired ? 'text-amber-text' : 'text-ink-soft'}>
-								{inv.expired ? '⏱ expired' : `expires ${formatDistanceToNow(new Date(inv.expiresAt), { addSuffix: true })}`}
+								{inv.expired
+									? '⏱ expired'
+									: `expires ${formatDistanceToNow(new Date(inv.expiresAt), { addSuffix: true })}`}
 							</span>
 							<span className="flex-1" />
-							<Button variant="secondary" className="px-2 py-1 text-xs" busy={action.isPending && action.variables?.id === inv.id && action.variables.action === 'resend'} onClick={() => action.mutate({ id: inv.id, action: 'resend' })}>
+							<Button
+								variant="secondary"
+								className="px-2 py-1 text-xs"
+								busy={
+									action.isPending &&
+									action.variables?.id === inv.id &&
+									action.variables.action === 'resend'
+								}
+								onClick={() => action.mutate({ id: inv.id, action: 'resend' })}
+							>
 								Send again
 							</Button>
-							<Button variant="secondary" className="px-2 py-1 text-xs" onClick={() => action.mutate({ id: inv.id, action: 'revoke' })}>
+							<Button
+								variant="secondary"
+								className="px-2 py-1 text-xs"
+								onClick={() => action.mutate({ id: inv.id, action: 'revoke' })}
+							>
 								Withdraw
 							</Button>
 						</li>

@@ -13,7 +13,10 @@ export function TeamNameSection({ teamId, teamName }: { teamId: string; teamName
 		const parsed = teamNameSchema.safeParse(name);
 		if (!parsed.success) return setError(parsed.error.issues[0]!.message);
 		setError(undefined);
-		update.mutate({ name: parsed.data }, { onError: (e) => setError(e instanceof ApiError ? e.message : 'Could not save') });
+		update.mutate(
+			{ name: parsed.data },
+			{ onError: (e) => setError(e instanceof ApiError ? e.message : 'Could not save') },
+		);
 	}
 	return (
 		<section aria-labelledby="name-heading">
@@ -21,11 +24,24 @@ export function TeamNameSection({ teamId, teamName }: { teamId: string; teamName
 				Team name
 			</h2>
 			<form onSubmit={submit} noValidate className="mt-3 flex flex-wrap items-end gap-3">
-				<Field label="Name" value={name} onChange={(e) => { setName(e.target.value); update.reset(); }} error={error} className="min-w-64" />
+				<Field
+					label="Name"
+					value={name}
+					onChange={(e) => {
+						setName(e.target.value);
+						update.reset();
+					}}
+					error={error}
+					className="min-w-64"
+				/>
 				<Button type="submit" variant="secondary" busy={update.isPending}>
 					Rename
 				</Button>
-				{update.isSuccess && <span role="status" className="text-sm text-teal">✓ Saved</span>}
+				{update.isSuccess && (
+					<span role="status" className="text-sm text-teal">
+						✓ Saved
+					</span>
+				)}
 			</form>
 		</section>
 	);

@@ -56,10 +56,17 @@ export function TeamSettingForm(p: {
 	const [value, setValue] = useState(p.initial);
 	const update = useUpdateTeam(p.teamId);
 	const [note, setNote] = useState<string | null>(null);
-	const error = update.error instanceof ApiError ? (update.error.byField()[p.field] ?? update.error.message) : update.error ? 'Could not save' : undefined;
+	const error =
+		update.error instanceof ApiError
+			? (update.error.byField()[p.field] ?? update.error.message)
+			: update.error
+				? 'Could not save'
+				: undefined;
 	return (
 		<section aria-labelledby={`${p.id}-heading`}>
-			<h2 id={`${p.id}-heading`} className="text-xl font-bold">{p.title}</h2>
+			<h2 id={`${p.id}-heading`} className="text-xl font-bold">
+				{p.title}
+			</h2>
 			{p.description && <p className="text-sm text-ink-soft">{p.description}</p>}
 			<form
 				noValidate
@@ -70,9 +77,24 @@ export function TeamSettingForm(p: {
 					update.mutate(p.toBody(value), { onSuccess: () => setNote(p.saved(value)) });
 				}}
 			>
-				<Field label={p.label} inputMode={p.inputMode} maxLength={p.maxLength} value={value} onChange={(e) => setValue(e.target.value)} error={error} hint={p.hint} className="w-48" />
-				<Button type="submit" variant="secondary" busy={update.isPending}>Save</Button>
-				{note && <span role="status" className="text-sm text-teal">✓ {note}</span>}
+				<Field
+					label={p.label}
+					inputMode={p.inputMode}
+					maxLength={p.maxLength}
+					value={value}
+					onChange={(e) => setValue(e.target.value)}
+					error={error}
+					hint={p.hint}
+					className="w-48"
+				/>
+				<Button type="submit" variant="secondary" busy={update.isPending}>
+					Save
+				</Button>
+				{note && (
+					<span role="status" className="text-sm text-teal">
+						✓ {note}
+					</span>
+				)}
 			</form>
 		</section>
 	);

@@ -26,17 +26,35 @@ export function TeamSettings(props: TeamSettingsProps) {
 	);
 }
 
-export function TeamSettingsView({ teamId, teamName, myRole, myUserId, initialMembers, reminderDays, currency }: TeamSettingsProps) {
+export function TeamSettingsView({
+	teamId,
+	teamName,
+	myRole,
+	myUserId,
+	initialMembers,
+	reminderDays,
+	currency,
+}: TeamSettingsProps) {
 	const captain = myRole === 'captain';
 	return (
 		<div className="flex flex-col gap-10">
-			<MembersSection teamId={teamId} captain={captain} myUserId={myUserId} initialMembers={initialMembers} />
+			<MembersSection
+				teamId={teamId}
+				captain={captain}
+				myUserId={myUserId}
+				initialMembers={initialMembers}
+			/>
 			{captain && <InviteSection teamId={teamId} />}
 			{captain && <PendingSection teamId={teamId} />}
 			{captain && <TeamNameSection teamId={teamId} teamName={teamName} />}
 			{captain && <ReminderSection teamId={teamId} initialDays={reminderDays} />}
 			{captain && <CurrencySection teamId={teamId} initial={currency} />}
-			<LeaveOrDeleteSection teamId={teamId} teamName={teamName} captain={captain} myUserId={myUserId} />
+			<LeaveOrDeleteSection
+				teamId={teamId}
+				teamName={teamName}
+				captain={captain}
+				myUserId={myUserId}
+			/>
 		</div>
 	);
 }

@@ -27,7 +27,12 @@ function problemOf(status: number, text: string): ApiError {
 	} catch {
 		// not JSON (a proxy error page, say)
 	}
-	return new ApiError(status, body.code ?? 'internal', body.detail ?? `The server answered ${status}`, body.errors ?? []);
+	return new ApiError(
+		status,
+		body.code ?? 'internal',
+		body.detail ?? `The server answered ${status}`,
+		body.errors ?? [],
+	);
 }
 
 export interface ApiRequest {
@@ -48,18 +53,26 @@ export interface ApiRequest {
  */
 export async function api<T = void>(url: string, req: ApiRequest = {}): Promise<T> {
 	const method = req.method ?? (req.json !== undefined || req.form ? 'POST' : 'GET');
-	if (req.form && req.onUploadProgress) return upload<T>(url, method, req.form, req.onUploadProgress, req.signal);
+	if (req.form && req.onUploadProgress)
+		return upload<T>(url, method, req.form, req.onUploadProgress, req.signal);
 	let res: Response;
 	try {
 		res = await fetch(url, {
 			method,
-			headers: { accept: 'application/json', ...(req.json !== undefined && { 'content-type': 'application/json' }) },
+			headers: {
+				accept: 'application/json',
+				...(req.json !== undefined && { 'content-type': 'application/json' }),
+			},
 			body: req.form ?? (req.json === undefined ? undefined : JSON.stringify(req.json)),
 			signal: req.signal,
 		});
 	} catch (error) {
 		if ((error as Error).name === 'AbortError') throw error;
-		throw new ApiError(0, 'network', 'Could not reach the server. Check the connection and try again.');
+		throw new ApiError(
+			0,
+			'network',
+			'Could not reach the server. Check the connection and try again.',
+		);
 	}
 	if (!res.ok) throw problemOf(res.status, await res.text().catch(() => ''));
 	if (res.status === 204) return undefined as T;
@@ -68,25 +81,42 @@ export async function api<T = void>(url: string, req: ApiRequest = {}): Promise<
 }
 
 /** A form upload through XMLHttpRequest, the one browser API that reports upload progress. */
-function upload<T>(url: string, method: string, form: FormData, onProgress: (percent: number) => void, signal?: AbortSignal): Promise<T> {
+function upload<T>(
+	url: string,
+	method: string,
+	form: FormData,
+	onProgress: (percent: number) => void,
+	signal?: AbortSignal,
+): Promise<T> {
 	return new Promise((resolve, reject) => {
 		const xhr = new XMLHttpRequest();
 		xhr.open(method, url);
 		xhr.setRequestHeader('accept', 'application/json');
-		xhr.upload.onprogress = (e) => e.lengthComputable && onProgress(Math.round((100 * e.loaded) / e.total));
+		xhr.upload.onprogress = (e) =>
+			e.lengthComputable && onProgress(Math.round((100 * e.loaded) / e.total));
 		xhr.upload.onload = () => onProgress(100);
 		xhr.onload = () => {
 			if (xhr.status >= 300) return reject(problemOf(xhr.status, xhr.responseText));
 			try {
 				resolve((xhr.responseText ? JSON.parse(xhr.responseText) : undefined) as T);
 			} catch {
-				reject(new ApiError(xhr.status, 'internal', 'The server sent an answer that could not be read.'));
+				reject(
+					new ApiError(xhr.status, 'internal', 'The server sent an answer that could not be read.'),
+				);
 			}
 		};
-		xhr.onerror = () => reject(new ApiError(0, 'network', 'The upload was interrupted. Check the connection and try again.'));
+		xhr.onerror = () =>
+			reject(
+				new ApiError(
+					0,
+					'network',
+					'The upload was interrupted. Check the connection and try again.',
+				),
+			);
 		signal?.addEventListener('abort', () => xhr.abort());
 		xhr.send(form);
 	});
 }
 
-export const getJson = <T,>(url: string, init: { signal?: AbortSignal } = {}) => api<T>(url, { signal: init.signal });
+export const getJson = <T>(url: string, init: { signal?: AbortSignal } = {}) =>
+	api<T>(url, { signal: init.signal });

@@ -24,7 +24,10 @@ export function draftStore<T>(prefix: string): DraftStore<T> {
 		},
 		store(id, draft) {
 			try {
-				window.localStorage.setItem(key(id), JSON.stringify({ ...draft, savedAt: new Date().toISOString() }));
+				window.localStorage.setItem(
+					key(id),
+					JSON.stringify({ ...draft, savedAt: new Date().toISOString() }),
+				);
 			} catch {
 				// storage full or disabled: the draft still lives in memory
 			}

@@ -8,7 +8,8 @@ function makeQueryClient(): QueryClient {
 			queries: {
 				staleTime: 30_000,
 				// Do not retry answers that will not change: not signed in, forbidden, missing.
-				retry: (count, error) => !(error instanceof ApiError && error.status >= 400 && error.status < 500) && count < 2,
+				retry: (count, error) =>
+					!(error instanceof ApiError && error.status >= 400 && error.status < 500) && count < 2,
 			},
 		},
 	});
@@ -25,7 +26,11 @@ export function getQueryClient(): QueryClient {
 /** An island with the shared query client around it (islands mount alone, each needs the provider). */
 export function withQueryClient<P extends object>(Island: ComponentType<P>): ComponentType<P> {
 	function WithQueryClient(props: P) {
-		return createElement(QueryClientProvider, { client: getQueryClient() }, createElement(Island, props));
+		return createElement(
+			QueryClientProvider,
+			{ client: getQueryClient() },
+			createElement(Island, props),
+		);
 	}
 	WithQueryClient.displayName = `WithQueryClient(${Island.displayName ?? Island.name})`;
 	return WithQueryClient;

@@ -11,7 +11,10 @@ export const eventFieldsSchema = z.object({
 	format: lineText(120).default(''),
 	notes: notesText(2000).default(''),
 });
-export const newEventSchema = eventFieldsSchema.refine((e) => e.endsOn >= e.startsOn, { path: ['endsOn'], message: 'The event cannot end before it starts' });
+export const newEventSchema = eventFieldsSchema.refine((e) => e.endsOn >= e.startsOn, {
+	path: ['endsOn'],
+	message: 'The event cannot end before it starts',
+});
 export const updateEventSchema = eventFieldsSchema.partial();
 
 /** An event as the browser sees it. */

@@ -3,17 +3,27 @@ import { lineText, notesText } from './text';
 import type { BuildDocument } from '@/engine';
 import { buildDocumentSchema } from './build-document';
 
-export const planNameSchema = lineText(120, { required: 'Give the plan a name', maxMessage: 'Keep the name under 120 characters' });
+export const planNameSchema = lineText(120, {
+	required: 'Give the plan a name',
+	maxMessage: 'Keep the name under 120 characters',
+});
 
 /** One line of a plan's parts list. The price is per unit, in the team's currency (e.g. 129.95). */
 export const planPartSchema = z.object({
 	item: lineText(200, { required: 'Say what the part is' }),
-	quantity: z.number({ error: 'Quantity is a whole number' }).int('Quantity is a whole number').min(1, 'At least 1').max(10000, 'At most 10 000'),
+	quantity: z
+		.number({ error: 'Quantity is a whole number' })
+		.int('Quantity is a whole number')
+		.min(1, 'At least 1')
+		.max(10000, 'At most 10 000'),
 	unitPrice: z
 		.number({ error: 'Price is a number' })
 		.min(0, 'Price cannot be negative')
 		.max(1_000_000_000, 'Price is too large')
-		.refine((v) => Math.abs(Math.round(v * 100) - v * 100) < 1e-6, 'Prices have at most two decimals'),
+		.refine(
+			(v) => Math.abs(Math.round(v * 100) - v * 100) < 1e-6,
+			'Prices have at most two decimals',
+		),
 	link: lineText(500, { maxMessage: 'Keep the link under 500 characters' }).default(''),
 });
 export type PlanPartInput = z.infer<typeof planPartSchema>;
@@ -45,13 +55,23 @@ export const compareQuerySchema = z.object({
 	plans: z
 		.string()
 		.transform((s) => s.split(',').filter(Boolean))
-		.pipe(z.array(z.uuid({ error: 'Plan ids are UUIDs' })).min(1, 'Pick at least one plan').max(3, 'Compare at most three plans with the current build')),
+		.pipe(
+			z
+				.array(z.uuid({ error: 'Plan ids are UUIDs' }))
+				.min(1, 'Pick at least one plan')
+				.max(3, 'Compare at most three plans with the current build'),
+		),
 	engineRpm: z.coerce.number().min(0).max(10000).optional(),
 	conductorTempC: z.coerce.number().min(-40).max(150).optional(),
 });
 
 /** One line of a plan's parts list as the browser sees it (price per unit, in the team's currency). */
-export const planPartDtoSchema = z.object({ item: z.string(), quantity: z.number().int(), unitPrice: z.number(), link: z.string() });
+export const planPartDtoSchema = z.object({
+	item: z.string(),
+	quantity: z.number().int(),
+	unitPrice: z.number(),
+	link: z.string(),
+});
 export type PlanPart = z.infer<typeof planPartDtoSchema>;
 
 export const planSummarySchema = z.object({

@@ -1,5 +1,9 @@
 import { z } from 'zod';
-import { measurementNumbersShape, RUN_MEASUREMENTS, type MeasurementField } from './run-measurements';
+import {
+	measurementNumbersShape,
+	RUN_MEASUREMENTS,
+	type MeasurementField,
+} from './run-measurements';
 import { lineText, notesText } from './text';
 
 export const runFieldsSchema = z.object({
@@ -22,7 +26,9 @@ export const loggerMappingSchema = z.object({
 	timeUnit: z.enum(['s', 'ms']).default('s'),
 });
 
-const measuredNumbers = Object.fromEntries(Object.keys(RUN_MEASUREMENTS).map((f) => [f, z.number().nullable()])) as Record<MeasurementField, z.ZodNullable<z.ZodNumber>>;
+const measuredNumbers = Object.fromEntries(
+	Object.keys(RUN_MEASUREMENTS).map((f) => [f, z.number().nullable()]),
+) as Record<MeasurementField, z.ZodNullable<z.ZodNumber>>;
 
 /** A run as the browser sees it. */
 export const runDtoSchema = z.object({
@@ -44,7 +50,11 @@ export const runSampleSchema = z.object({ tS: z.number(), volts: z.number(), amp
 export type RunSample = z.infer<typeof runSampleSchema>;
 
 /** A stored photo of a run, with its thumbnail's file id. */
-export const runPhotoSchema = z.object({ id: z.uuid(), name: z.string(), thumbnailId: z.uuid().nullable() });
+export const runPhotoSchema = z.object({
+	id: z.uuid(),
+	name: z.string(),
+	thumbnailId: z.uuid().nullable(),
+});
 export type RunPhoto = z.infer<typeof runPhotoSchema>;
 
 /** Which runs a list (or the CSV export) holds; ids that are not UUIDs are ignored, as before. */

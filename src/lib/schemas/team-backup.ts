@@ -37,7 +37,9 @@ export const teamBackupContentSchema = z.object({
 	currency: z.string().regex(/^[A-Z]{3}$/),
 	createdAt: iso,
 	members: z.array(z.object({ email, name: z.string().max(200).nullable(), role })).max(500),
-	checkItems: z.array(z.object({ key, label: z.string().min(1).max(200), createdAt: iso })).max(500),
+	checkItems: z
+		.array(z.object({ key, label: z.string().min(1).max(200), createdAt: iso }))
+		.max(500),
 	vehicles: z.array(
 		z.object({
 			key,
@@ -72,12 +74,32 @@ export const teamBackupContentSchema = z.object({
 					createdAt: iso,
 					updatedAt: iso,
 					document: buildDocumentSchema,
-					parts: z.array(z.object({ item: z.string().min(1).max(200), quantity: z.number().int().min(1), unitPriceMinor: z.number().int().min(0), link: z.string().max(500) })).max(200),
+					parts: z
+						.array(
+							z.object({
+								item: z.string().min(1).max(200),
+								quantity: z.number().int().min(1),
+								unitPriceMinor: z.number().int().min(0),
+								link: z.string().max(500),
+							}),
+						)
+						.max(200),
 				}),
 			),
 		}),
 	),
-	events: z.array(z.object({ key, name: z.string().min(1).max(120), startsOn: day, endsOn: day, place: z.string().max(200), format: z.string().max(120), notes: z.string().max(2000), createdAt: iso })),
+	events: z.array(
+		z.object({
+			key,
+			name: z.string().min(1).max(120),
+			startsOn: day,
+			endsOn: day,
+			place: z.string().max(200),
+			format: z.string().max(120),
+			notes: z.string().max(2000),
+			createdAt: iso,
+		}),
+	),
 	runs: z.array(
 		z.object({
 			key,
@@ -94,7 +116,16 @@ export const teamBackupContentSchema = z.object({
 			files: z.array(backupFileSchema),
 		}),
 	),
-	signoffs: z.array(z.object({ event: key, vehicle: key, item: z.string().min(1).max(200), signedByEmail: email.nullable(), signedAt: iso, note: z.string().max(500) })),
+	signoffs: z.array(
+		z.object({
+			event: key,
+			vehicle: key,
+			item: z.string().min(1).max(200),
+			signedByEmail: email.nullable(),
+			signedAt: iso,
+			note: z.string().max(500),
+		}),
+	),
 });
 export type TeamBackupContent = z.infer<typeof teamBackupContentSchema>;
 

@@ -4,7 +4,13 @@ export const roleSchema = z.enum(['captain', 'member', 'viewer']);
 export type Role = z.infer<typeof roleSchema>;
 
 /** A team in the signed-in person's list. */
-export const teamSummarySchema = z.object({ id: z.uuid(), name: z.string(), role: roleSchema, members: z.number().int(), vehicles: z.number().int() });
+export const teamSummarySchema = z.object({
+	id: z.uuid(),
+	name: z.string(),
+	role: roleSchema,
+	members: z.number().int(),
+	vehicles: z.number().int(),
+});
 export type TeamSummary = z.infer<typeof teamSummarySchema>;
 
 /** The team's own settings, as its members see them. */
@@ -18,7 +24,13 @@ export const teamSettingsSchema = z.object({
 });
 export type TeamSettingsDto = z.infer<typeof teamSettingsSchema>;
 
-export const memberDtoSchema = z.object({ userId: z.string(), name: z.string().nullable(), email: z.string(), role: roleSchema, joinedAt: z.string() });
+export const memberDtoSchema = z.object({
+	userId: z.string(),
+	name: z.string().nullable(),
+	email: z.string(),
+	role: roleSchema,
+	joinedAt: z.string(),
+});
 export type MemberDto = z.infer<typeof memberDtoSchema>;
 
 export const invitationDtoSchema = z.object({

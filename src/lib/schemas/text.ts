@@ -20,14 +20,18 @@ export const hasNotesControl = (s: string) => CONTROL_IN_NOTES.test(s);
 export function lineText(max: number, opts: { required?: string; maxMessage?: string } = {}) {
 	let s = z.string({ error: 'Must be text' }).trim();
 	if (opts.required) s = s.min(1, opts.required);
-	return s.max(max, opts.maxMessage ?? `Keep it under ${max} characters`).refine((v) => !hasLineControl(v), LINE_MESSAGE);
+	return s
+		.max(max, opts.maxMessage ?? `Keep it under ${max} characters`)
+		.refine((v) => !hasLineControl(v), LINE_MESSAGE);
 }
 
 /** Free text over several lines (notes, messages), trimmed. */
 export function notesText(max: number, opts: { required?: string; maxMessage?: string } = {}) {
 	let s = z.string({ error: 'Must be text' }).trim();
 	if (opts.required) s = s.min(1, opts.required);
-	return s.max(max, opts.maxMessage ?? `Keep it under ${max} characters`).refine((v) => !hasNotesControl(v), NOTES_MESSAGE);
+	return s
+		.max(max, opts.maxMessage ?? `Keep it under ${max} characters`)
+		.refine((v) => !hasNotesControl(v), NOTES_MESSAGE);
 }
 
 /**
@@ -37,7 +41,8 @@ export function notesText(max: number, opts: { required?: string; maxMessage?: s
  * of ours means a control character.
  */
 export function findControlCharacter(value: unknown, path: string[] = []): string | null {
-	if (typeof value === 'string') return CONTROL_IN_NOTES.test(value) ? path.join('.') || '(body)' : null;
+	if (typeof value === 'string')
+		return CONTROL_IN_NOTES.test(value) ? path.join('.') || '(body)' : null;
 	if (Array.isArray(value)) {
 		for (let i = 0; i < value.length; i++) {
 			const found = findControlCharacter(value[i], [...path, String(i)]);

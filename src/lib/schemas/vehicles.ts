@@ -11,9 +11,14 @@ export const vehicleFieldsSchema = z.object({
 	ownerId: z.string().max(64).nullable().default(null),
 });
 export const newVehicleSchema = vehicleFieldsSchema;
-export const updateVehicleSchema = vehicleFieldsSchema.partial().extend({ archived: z.boolean().optional() });
+export const updateVehicleSchema = vehicleFieldsSchema
+	.partial()
+	.extend({ archived: z.boolean().optional() });
 
-export const revisionMessageSchema = notesText(500, { required: 'Say what changed and why', maxMessage: 'Keep the message under 500 characters' });
+export const revisionMessageSchema = notesText(500, {
+	required: 'Say what changed and why',
+	maxMessage: 'Keep the message under 500 characters',
+});
 
 export const newRevisionSchema = z.object({
 	/** The revision the draft started from; null only for a build's first revision. */
@@ -23,7 +28,10 @@ export const newRevisionSchema = z.object({
 });
 export type NewRevisionInput = z.infer<typeof newRevisionSchema>;
 
-export const restoreRevisionSchema = z.object({ parentId: z.uuid().nullable(), message: revisionMessageSchema.optional() });
+export const restoreRevisionSchema = z.object({
+	parentId: z.uuid().nullable(),
+	message: revisionMessageSchema.optional(),
+});
 
 const numberParam = (min: number, max: number) => z.coerce.number().min(min).max(max);
 
@@ -37,7 +45,9 @@ export const scenarioQuerySchema = z.object({
 	voltagesV: z
 		.string()
 		.transform((s) => s.split(',').map(Number))
-		.pipe(z.array(z.number().min(6, 'Voltages from 6 V').max(20, 'Voltages up to 20 V')).min(1).max(12))
+		.pipe(
+			z.array(z.number().min(6, 'Voltages from 6 V').max(20, 'Voltages up to 20 V')).min(1).max(12),
+		)
 		.optional(),
 	burpSeconds: numberParam(0.1, 60).optional(),
 	burpStepS: numberParam(0.001, 1).optional(),
@@ -78,4 +88,9 @@ export const revisionDtoSchema = revisionSummarySchema.extend({
 export type RevisionDto = z.infer<typeof revisionDtoSchema>;
 
 /** `?archived=true` lists the archived vehicles; anything else the ones in use. */
-export const vehicleListQuerySchema = z.object({ archived: z.string().optional().transform((s) => s === 'true') });
+export const vehicleListQuerySchema = z.object({
+	archived: z
+		.string()
+		.optional()
+		.transform((s) => s === 'true'),
+});

@@ -2,7 +2,12 @@ import type { AstroGlobal } from 'astro';
 import type { Role } from '@/lib/server/db/schema';
 import type { RunInput } from '@/lib/schemas/runs';
 import { parseUuid } from '@/lib/schemas/ids';
-import { findBuildForVehicle, findRevision, revisionBelongsTo, revisionInForce } from '@/lib/server/db/builds';
+import {
+	findBuildForVehicle,
+	findRevision,
+	revisionBelongsTo,
+	revisionInForce,
+} from '@/lib/server/db/builds';
 import { findEvent } from '@/lib/server/db/events';
 import { findPlan } from '@/lib/server/db/plans';
 import { findRun } from '@/lib/server/db/runs';
@@ -16,7 +21,8 @@ import { type FieldError, problem } from '@/lib/server/http';
  * A malformed id, a thing of another team and a thing that does not exist are all the same 404,
  * never revealing what exists elsewhere.
  */
-export type Access<T> = { ok: true; value: T } | { ok: false; status: 401 | 403 | 404; response: Response };
+export type Access<T> =
+	{ ok: true; value: T } | { ok: false; status: 401 | 403 | 404; response: Response };
 
 type Locals = Pick<App.Locals, 'db' | 'user'>;
 type Params = Record<string, string | undefined>;
@@ -32,21 +38,46 @@ export interface TeamAccess {
 	role: Role;
 }
 
-const notFound = (what: string) => ({ ok: false as const, status: 404 as const, response: problem(404, 'not_found', `No such ${what}`) });
+const notFound = (what: string) => ({
+	ok: false as const,
+	status: 404 as const,
+	response: problem(404, 'not_found', `No such ${what}`),
+});
 
 /**
  * 401 when nobody is signed in, 404 when the id is malformed or the caller is not a member, 403
  * when the caller's role is below `min` (viewers read; members write; captains manage).
  */
-export async function requireTeamRole(locals: Locals, teamIdParam: string | undefined, min: Role): Promise<Access<TeamAccess>> {
-	if (!locals.user) return { ok: false, status: 401, response: problem(401, 'unauthenticated', 'Sign in first') };
+export async function requireTeamRole(
+	locals: Locals,
+	teamIdParam: string | undefined,
+	min: Role,
+): Promise<Access<TeamAccess>> {
+	if (!locals.user)
+		return { ok: false, status: 401, response: problem(401, 'unauthenticated', 'Sign in first') };
 	const teamId = parseUuid(teamIdParam);
 	const membership = teamId ? await findMembership(locals.db, teamId, locals.user.id) : undefined;
 	if (!membership) return notFound('team');
 	if (!roleAtLeast(membership.role, min)) {
-		return { ok: false, status: 403, response: problem(403, 'forbidden', `This needs the ${min} role; you are ${membership.role === 'viewer' ? 'a viewer' : `a ${membership.role}`}`) };
+		return {
+			ok: false,
+			status: 403,
+			response: problem(
+				403,
+				'forbidden',
+				`This needs the ${min} role; you are ${membership.role === 'viewer' ? 'a viewer' : `a ${membership.role}`}`,
+			),
+		};
 	}
-	return { ok: true, value: { teamId: membership.team_id, teamName: membership.team_name, userId: membership.user_id, role: membership.role } };
+	return {
+		ok: true,
+		value: {
+			teamId: membership.team_id,
+			teamName: membership.team_name,
+			userId: membership.user_id,
+			role: membership.role,
+		},
+	};
 }
 
 type VehicleRow = NonNullable<Awaited<ReturnType<typeof findVehicle>>>;
@@ -59,11 +90,17 @@ export interface VehicleAccess {
 }
 
 /** Team role check, then the vehicle (and its build) of the URL inside that team. */
-export async function requireVehicle(locals: Locals, params: Params, min: Role): Promise<Access<VehicleAccess>> {
+export async function requireVehicle(
+	locals: Locals,
+	params: Params,
+	min: Role,
+): Promise<Access<VehicleAccess>> {
 	const auth = await requireTeamRole(locals, params.teamId, min);
 	if (!auth.ok) return auth;
 	const vehicleId = parseUuid(params.vehicleId);
-	const vehicle = vehicleId ? await findVehicle(locals.db, auth.value.teamId, vehicleId) : undefined;
+	const vehicle = vehicleId
+		? await findVehicle(locals.db, auth.value.teamId, vehicleId)
+		: undefined;
 	const build = vehicle ? await findBuildForVehicle(locals.db, vehicle.id) : undefined;
 	if (!vehicle || !build) return notFound('vehicle');
 	return { ok: true, value: { access: auth.value, vehicle, build } };
@@ -72,7 +109,11 @@ export async function requireVehicle(locals: Locals, params: Params, min: Role):
 type RevisionRow = NonNullable<Awaited<ReturnType<typeof findRevision>>>;
 
 /** requireVehicle, then the revision of the URL in that vehicle's build. */
-export async function requireRevision(locals: Locals, params: Params, min: Role): Promise<Access<VehicleAccess & { revision: RevisionRow }>> {
+export async function requireRevision(
+	locals: Locals,
+	params: Params,
+	min: Role,
+): Promise<Access<VehicleAccess & { revision: RevisionRow }>> {
 	const found = await requireVehicle(locals, params, min);
 	if (!found.ok) return found;
 	const id = parseUuid(params.revisionId);
@@ -84,7 +125,11 @@ export async function requireRevision(locals: Locals, params: Params, min: Role)
 type PlanRow = NonNullable<Awaited<ReturnType<typeof findPlan>>>;
 
 /** requireVehicle, then the plan of the URL (a plan of another vehicle is a 404). */
-export async function requirePlan(locals: Locals, params: Params, min: Role): Promise<Access<VehicleAccess & { plan: PlanRow }>> {
+export async function requirePlan(
+	locals: Locals,
+	params: Params,
+	min: Role,
+): Promise<Access<VehicleAccess & { plan: PlanRow }>> {
 	const found = await requireVehicle(locals, params, min);
 	if (!found.ok) return found;
 	const id = parseUuid(params.planId);
@@ -96,7 +141,11 @@ export async function requirePlan(locals: Locals, params: Params, min: Role): Pr
 type RunRow = NonNullable<Awaited<ReturnType<typeof findRun>>>;
 
 /** Team role check, then the run of the URL inside that team. */
-export async function requireRun(locals: Locals, params: Params, min: Role): Promise<Access<{ access: TeamAccess; run: RunRow }>> {
+export async function requireRun(
+	locals: Locals,
+	params: Params,
+	min: Role,
+): Promise<Access<{ access: TeamAccess; run: RunRow }>> {
 	const auth = await requireTeamRole(locals, params.teamId, min);
 	if (!auth.ok) return auth;
 	const id = parseUuid(params.runId);
@@ -108,7 +157,11 @@ export async function requireRun(locals: Locals, params: Params, min: Role): Pro
 type EventRow = NonNullable<Awaited<ReturnType<typeof findEvent>>>;
 
 /** Team role check, then the event of the URL inside that team. */
-export async function requireEvent(locals: Locals, params: Params, min: Role): Promise<Access<{ access: TeamAccess; event: EventRow }>> {
+export async function requireEvent(
+	locals: Locals,
+	params: Params,
+	min: Role,
+): Promise<Access<{ access: TeamAccess; event: EventRow }>> {
 	const auth = await requireTeamRole(locals, params.teamId, min);
 	if (!auth.ok) return auth;
 	const id = parseUuid(params.eventId);
@@ -123,22 +176,32 @@ export async function resolveRunLinks(
 	teamId: string,
 	vehicleId: string,
 	input: RunInput,
-): Promise<{ ok: true; revisionId: string | null | undefined } | { ok: false; errors: FieldError[] }> {
+): Promise<
+	{ ok: true; revisionId: string | null | undefined } | { ok: false; errors: FieldError[] }
+> {
 	const errors: FieldError[] = [];
-	if (!(await findVehicle(db, teamId, vehicleId))) errors.push({ path: 'vehicleId', message: 'No such vehicle in this team' });
-	if (input.eventId && !(await findEvent(db, teamId, input.eventId))) errors.push({ path: 'eventId', message: 'No such event in this team' });
+	if (!(await findVehicle(db, teamId, vehicleId)))
+		errors.push({ path: 'vehicleId', message: 'No such vehicle in this team' });
+	if (input.eventId && !(await findEvent(db, teamId, input.eventId)))
+		errors.push({ path: 'eventId', message: 'No such event in this team' });
 	let revisionId = input.revisionId;
-	if (revisionId && !(await revisionBelongsTo(db, vehicleId, revisionId))) errors.push({ path: 'revisionId', message: "Not a revision of this vehicle's build" });
+	if (revisionId && !(await revisionBelongsTo(db, vehicleId, revisionId)))
+		errors.push({ path: 'revisionId', message: "Not a revision of this vehicle's build" });
 	if (errors.length) return { ok: false, errors };
-	if (revisionId === undefined && input.ranAt) revisionId = await revisionInForce(db, vehicleId, new Date(input.ranAt));
+	if (revisionId === undefined && input.ranAt)
+		revisionId = await revisionInForce(db, vehicleId, new Date(input.ranAt));
 	return { ok: true, revisionId };
 }
 
 // ---- pages: the same decisions, answered as pages
 
 /** What a page does with a refusal: anonymous → sign-in, 403 → the 403 page, anything else → the 404 page. */
-export function refusalPage(astro: AstroGlobal, refused: { status: 401 | 403 | 404 }): Response | Promise<Response> {
-	if (refused.status === 401) return astro.redirect(`/sign-in?callbackUrl=${encodeURIComponent(astro.url.pathname)}`);
+export function refusalPage(
+	astro: AstroGlobal,
+	refused: { status: 401 | 403 | 404 },
+): Response | Promise<Response> {
+	if (refused.status === 401)
+		return astro.redirect(`/sign-in?callbackUrl=${encodeURIComponent(astro.url.pathname)}`);
 	if (refused.status === 403) {
 		astro.response.status = 403;
 		return astro.rewrite('/403');
@@ -147,25 +210,37 @@ export function refusalPage(astro: AstroGlobal, refused: { status: 401 | 403 | 4
 }
 
 /** requireTeamRole for a page: the access, or the Response the page should return. */
-export async function teamPageAccess(astro: AstroGlobal, min: Role = 'viewer'): Promise<TeamAccess | Response> {
+export async function teamPageAccess(
+	astro: AstroGlobal,
+	min: Role = 'viewer',
+): Promise<TeamAccess | Response> {
 	const result = await requireTeamRole(astro.locals, astro.params.teamId, min);
 	return result.ok ? result.value : refusalPage(astro, result);
 }
 
 /** requireVehicle for a page. */
-export async function vehiclePageAccess(astro: AstroGlobal, min: Role = 'viewer'): Promise<VehicleAccess | Response> {
+export async function vehiclePageAccess(
+	astro: AstroGlobal,
+	min: Role = 'viewer',
+): Promise<VehicleAccess | Response> {
 	const result = await requireVehicle(astro.locals, astro.params, min);
 	return result.ok ? result.value : refusalPage(astro, result);
 }
 
 /** requirePlan for a page. */
-export async function planPageAccess(astro: AstroGlobal, min: Role = 'viewer'): Promise<(VehicleAccess & { plan: PlanRow }) | Response> {
+export async function planPageAccess(
+	astro: AstroGlobal,
+	min: Role = 'viewer',
+): Promise<(VehicleAccess & { plan: PlanRow }) | Response> {
 	const result = await requirePlan(astro.locals, astro.params, min);
 	return result.ok ? result.value : refusalPage(astro, result);
 }
 
 /** requireEvent for a page. */
-export async function eventPageAccess(astro: AstroGlobal, min: Role = 'viewer'): Promise<{ access: TeamAccess; event: EventRow } | Response> {
+export async function eventPageAccess(
+	astro: AstroGlobal,
+	min: Role = 'viewer',
+): Promise<{ access: TeamAccess; event: EventRow } | Response> {
 	const result = await requireEvent(astro.locals, astro.params, min);
 	return result.ok ? result.value : refusalPage(astro, result);
 }

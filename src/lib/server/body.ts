@@ -44,23 +44,55 @@ export async function readBytes(request: Request, limit: number): Promise<Uint8A
 	return out;
 }
 
-const sizeLabel = (bytes: number) => (bytes >= 1024 * 1024 ? `${Math.round(bytes / 1024 / 1024)} MB` : `${Math.round(bytes / 1024)} KB`);
+const sizeLabel = (bytes: number) =>
+	bytes >= 1024 * 1024 ? `${Math.round(bytes / 1024 / 1024)} MB` : `${Math.round(bytes / 1024)} KB`;
 
 /** A multipart form read within a limit: 415 when not multipart, 413 past the limit, 400 when malformed. */
-export async function readMultipart(request: Request, limit: number, tooLarge?: string): Promise<ReadResult<FormData>> {
+export async function readMultipart(
+	request: Request,
+	limit: number,
+	tooLarge?: string,
+): Promise<ReadResult<FormData>> {
 	const type = request.headers.get('content-type') ?? '';
-	if (!type.toLowerCase().startsWith('multipart/form-data')) return { ok: false, response: problem(415, 'unsupported_media_type', 'Send the file as multipart/form-data') };
+	if (!type.toLowerCase().startsWith('multipart/form-data'))
+		return {
+			ok: false,
+			response: problem(415, 'unsupported_media_type', 'Send the file as multipart/form-data'),
+		};
 	let bytes: Uint8Array;
 	try {
 		bytes = await readBytes(request, limit);
 	} catch (error) {
-		if (error instanceof BodyTooLargeError) return { ok: false, response: problem(413, 'too_large', tooLarge ?? `The upload is larger than ${sizeLabel(limit)}`) };
-		return { ok: false, response: problem(400, 'invalid_input', 'The upload was cut short', [{ path: 'file', message: 'Incomplete upload' }]) };
+		if (error instanceof BodyTooLargeError)
+			return {
+				ok: false,
+				response: problem(
+					413,
+					'too_large',
+					tooLarge ?? `The upload is larger than ${sizeLabel(limit)}`,
+				),
+			};
+		return {
+			ok: false,
+			response: problem(400, 'invalid_input', 'The upload was cut short', [
+				{ path: 'file', message: 'Incomplete upload' },
+			]),
+		};
 	}
 	try {
-		return { ok: true, data: await new Response(bytes as unknown as BodyInit, { headers: { 'content-type': type } }).formData() };
+		return {
+			ok: true,
+			data: await new Response(bytes as unknown as BodyInit, {
+				headers: { 'content-type': type },
+			}).formData(),
+		};
 	} catch {
-		return { ok: false, response: problem(400, 'invalid_input', 'The upload is not a readable multipart form', [{ path: 'file', message: 'Malformed form data' }]) };
+		return {
+			ok: false,
+			response: problem(400, 'invalid_input', 'The upload is not a readable multipart form', [
+				{ path: 'file', message: 'Malformed form data' },
+			]),
+		};
 	}
 }
 

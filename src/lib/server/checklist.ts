@@ -10,21 +10,49 @@ import { findTeamFuseDistance } from '@/lib/server/db/teams';
  * the event's first day (the newest one when the event is ahead), the team's manual items, and who
  * signed off what.
  */
-export async function loadChecklist(db: App.Locals['db'], teamId: string, eventId: string, vehicleId: string): Promise<Checklist | null> {
-	const [event, vehicle] = await Promise.all([findEvent(db, teamId, eventId), findVehicleWithBuild(db, teamId, vehicleId)]);
+export async function loadChecklist(
+	db: App.Locals['db'],
+	teamId: string,
+	eventId: string,
+	vehicleId: string,
+): Promise<Checklist | null> {
+	const [event, vehicle] = await Promise.all([
+		findEvent(db, teamId, eventId),
+		findVehicleWithBuild(db, teamId, vehicleId),
+	]);
 	if (!event || !vehicle) return null;
 	const fuseDistanceM = await findTeamFuseDistance(db, teamId);
 	const at = new Date(`${event.starts_on}T23:59:59Z`);
-	const revisionId = (await revisionInForce(db, vehicle.id, at > new Date() ? new Date() : at)) ?? null;
+	const revisionId =
+		(await revisionInForce(db, vehicle.id, at > new Date() ? new Date() : at)) ?? null;
 	const revision = revisionId ? await findRevision(db, vehicle.build_id, revisionId) : undefined;
-	const [signoffs, manual] = await Promise.all([findSignoffs(db, event.id, vehicle.id), findCheckItems(db, teamId)]);
+	const [signoffs, manual] = await Promise.all([
+		findSignoffs(db, event.id, vehicle.id),
+		findCheckItems(db, teamId),
+	]);
 	const signoffOf = (key: string) => {
 		const s = signoffs.find((x) => x.item_key === key);
-		return s ? { by: s.name ?? s.email ?? (s.imported_by ? `imported: ${s.imported_by}` : 'a former member'), at: s.signed_at.toISOString(), note: s.note } : null;
+		return s
+			? {
+					by:
+						s.name ?? s.email ?? (s.imported_by ? `imported: ${s.imported_by}` : 'a former member'),
+					at: s.signed_at.toISOString(),
+					note: s.note,
+				}
+			: null;
 	};
 	const computed = revision
-		? computedChecks(buildReport(revision.document as BuildDocument, { fuseDistanceM }, { burpRun: false }))
-		: [{ key: 'has_build', label: 'The vehicle has a saved build', status: 'fail' as const, reasons: ['No revision of the build existed by the event.'] }];
+		? computedChecks(
+				buildReport(revision.document as BuildDocument, { fuseDistanceM }, { burpRun: false }),
+			)
+		: [
+				{
+					key: 'has_build',
+					label: 'The vehicle has a saved build',
+					status: 'fail' as const,
+					reasons: ['No revision of the build existed by the event.'],
+				},
+			];
 	return {
 		eventId: event.id,
 		eventName: event.name,
@@ -35,7 +63,14 @@ export async function loadChecklist(db: App.Locals['db'], teamId: string, eventI
 		fuseDistanceM,
 		items: [
 			...computed.map((c) => ({ ...c, kind: 'computed' as const, signoff: signoffOf(c.key) })),
-			...manual.map((m) => ({ key: `manual:${m.id}`, label: m.label, kind: 'manual' as const, status: 'open' as const, reasons: [], signoff: signoffOf(`manual:${m.id}`) })),
+			...manual.map((m) => ({
+				key: `manual:${m.id}`,
+				label: m.label,
+				kind: 'manual' as const,
+				status: 'open' as const,
+				reasons: [],
+				signoff: signoffOf(`manual:${m.id}`),
+			})),
 		],
 	};
 }

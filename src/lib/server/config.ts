@@ -5,7 +5,14 @@ export interface ServerConfig {
 	mailFrom: string;
 	/** Folder of the local SMTP fake's mail, shown at /dev/outbox; null when mail goes out for real. */
 	devOutboxDir: string | null;
-	s3: { endpoint: string | null; region: string; bucket: string; accessKeyId: string; secretAccessKey: string; forcePathStyle: boolean };
+	s3: {
+		endpoint: string | null;
+		region: string;
+		bucket: string;
+		accessKeyId: string;
+		secretAccessKey: string;
+		forcePathStyle: boolean;
+	};
 }
 
 export function readConfig(env: Record<string, string | undefined> = process.env): ServerConfig {
@@ -13,7 +20,10 @@ export function readConfig(env: Record<string, string | undefined> = process.env
 	// when the deployment says it is production.
 	const production = env.SAGWISE_ENV === 'production';
 	return {
-		publicUrl: (env.PUBLIC_URL ?? `http://${env.HOST ?? '127.0.0.1'}:${env.PORT ?? 4321}`).replace(/\/$/, ''),
+		publicUrl: (env.PUBLIC_URL ?? `http://${env.HOST ?? '127.0.0.1'}:${env.PORT ?? 4321}`).replace(
+			/\/$/,
+			'',
+		),
 		smtpUrl: env.SMTP_URL ?? 'smtp://127.0.0.1:2525',
 		mailFrom: env.MAIL_FROM ?? 'Sagwise <no-reply@sagwise.invalid>',
 		devOutboxDir: production ? null : (env.SAGWISE_DEV_OUTBOX ?? null),

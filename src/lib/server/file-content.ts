@@ -24,17 +24,31 @@ export function sniffImage(bytes: Uint8Array): ImageType | null {
 export function looksBinary(bytes: Uint8Array): boolean {
 	const head = bytes.subarray(0, 8);
 	const sig = (...b: number[]) => b.every((x, i) => head[i] === x);
-	if (sig(0xff, 0xd8, 0xff) || sig(0x89, 0x50, 0x4e, 0x47) || sig(0x52, 0x49, 0x46, 0x46) || sig(0x50, 0x4b, 0x03, 0x04) || sig(0x47, 0x49, 0x46) || sig(0x7f, 0x45, 0x4c, 0x46) || sig(0x25, 0x50, 0x44, 0x46)) return true;
+	if (
+		sig(0xff, 0xd8, 0xff) ||
+		sig(0x89, 0x50, 0x4e, 0x47) ||
+		sig(0x52, 0x49, 0x46, 0x46) ||
+		sig(0x50, 0x4b, 0x03, 0x04) ||
+		sig(0x47, 0x49, 0x46) ||
+		sig(0x7f, 0x45, 0x4c, 0x46) ||
+		sig(0x25, 0x50, 0x44, 0x46)
+	)
+		return true;
 	return bytes.subarray(0, 4096).includes(0);
 }
 
 /** Text that a browser could take for a page or a script if it ever sniffed it (a CSV never starts so). */
 function looksLikeMarkup(bytes: Uint8Array): boolean {
-	const head = new TextDecoder('utf-8', { fatal: false }).decode(bytes.subarray(0, 1024)).trimStart().toLowerCase();
+	const head = new TextDecoder('utf-8', { fatal: false })
+		.decode(bytes.subarray(0, 1024))
+		.trimStart()
+		.toLowerCase();
 	return /^(<!doctype|<html|<script|<svg|<\?xml|<head|<body|<iframe)/.test(head);
 }
 
-export type CheckedPhoto = { ok: true; type: ImageType; bytes: Uint8Array; stripped: boolean } | { ok: false; message: string };
+export type CheckedPhoto =
+	| { ok: true; type: ImageType; bytes: Uint8Array; stripped: boolean }
+	| { ok: false; message: string };
 
 /**
  * A photo as it may be stored: JPEG, PNG or WebP by content, decodable, and without metadata.
@@ -51,9 +65,22 @@ export async function checkPhoto(input: Uint8Array): Promise<CheckedPhoto> {
 	} catch {
 		return { ok: false, message: 'The image could not be read; it may be damaged' };
 	}
-	const formatOf: Record<string, ImageType> = { jpeg: 'image/jpeg', png: 'image/png', webp: 'image/webp' };
-	if (formatOf[meta.format ?? ''] !== type) return { ok: false, message: 'The image content does not match its type' };
-	const hasMetadata = Boolean(meta.exif || meta.xmp || meta.iptc || meta.icc || meta.tifftagPhotoshop || (meta.orientation && meta.orientation !== 1) || hasTextChunks(input, type));
+	const formatOf: Record<string, ImageType> = {
+		jpeg: 'image/jpeg',
+		png: 'image/png',
+		webp: 'image/webp',
+	};
+	if (formatOf[meta.format ?? ''] !== type)
+		return { ok: false, message: 'The image content does not match its type' };
+	const hasMetadata = Boolean(
+		meta.exif ||
+		meta.xmp ||
+		meta.iptc ||
+		meta.icc ||
+		meta.tifftagPhotoshop ||
+		(meta.orientation && meta.orientation !== 1) ||
+		hasTextChunks(input, type),
+	);
 	if (!hasMetadata) {
 		// Decode fully once: a header that parses over a broken body is still a broken image.
 		try {
@@ -65,7 +92,12 @@ export async function checkPhoto(input: Uint8Array): Promise<CheckedPhoto> {
 	}
 	try {
 		const pipeline = sharp(input, { limitInputPixels: MAX_PIXELS }).rotate();
-		const out = type === 'image/jpeg' ? pipeline.jpeg({ quality: 92, mozjpeg: false }) : type === 'image/png' ? pipeline.png() : pipeline.webp({ quality: 92 });
+		const out =
+			type === 'image/jpeg'
+				? pipeline.jpeg({ quality: 92, mozjpeg: false })
+				: type === 'image/png'
+					? pipeline.png()
+					: pipeline.webp({ quality: 92 });
 		return { ok: true, type, bytes: new Uint8Array(await out.toBuffer()), stripped: true };
 	} catch {
 		return { ok: false, message: 'The image could not be read; it may be damaged' };
@@ -80,7 +112,8 @@ function hasTextChunks(bytes: Uint8Array, type: ImageType): boolean {
 	while (i + 8 <= bytes.byteLength) {
 		const length = view.getUint32(i);
 		const name = String.fromCharCode(bytes[i + 4]!, bytes[i + 5]!, bytes[i + 6]!, bytes[i + 7]!);
-		if (name === 'tEXt' || name === 'iTXt' || name === 'zTXt' || name === 'eXIf' || name === 'tIME') return true;
+		if (name === 'tEXt' || name === 'iTXt' || name === 'zTXt' || name === 'eXIf' || name === 'tIME')
+			return true;
 		if (name === 'IEND') break;
 		i += 12 + length;
 	}
@@ -89,15 +122,25 @@ function hasTextChunks(bytes: Uint8Array, type: ImageType): boolean {
 
 /** The 320 px WebP thumbnail shown in lists. */
 export async function makeThumbnail(photo: Uint8Array): Promise<Uint8Array> {
-	return new Uint8Array(await sharp(photo, { limitInputPixels: MAX_PIXELS }).rotate().resize(320, 320, { fit: 'inside', withoutEnlargement: true }).webp({ quality: 80 }).toBuffer());
+	return new Uint8Array(
+		await sharp(photo, { limitInputPixels: MAX_PIXELS })
+			.rotate()
+			.resize(320, 320, { fit: 'inside', withoutEnlargement: true })
+			.webp({ quality: 80 })
+			.toBuffer(),
+	);
 }
 
 /** A thumbnail from a backup: a WebP image that decodes, and nothing else. */
-export async function checkThumbnail(bytes: Uint8Array): Promise<{ ok: true } | { ok: false; message: string }> {
-	if (sniffImage(bytes) !== 'image/webp') return { ok: false, message: 'A thumbnail must be a WebP image' };
+export async function checkThumbnail(
+	bytes: Uint8Array,
+): Promise<{ ok: true } | { ok: false; message: string }> {
+	if (sniffImage(bytes) !== 'image/webp')
+		return { ok: false, message: 'A thumbnail must be a WebP image' };
 	try {
 		const meta = await sharp(bytes, { limitInputPixels: MAX_PIXELS }).metadata();
-		if (meta.format !== 'webp' || meta.exif || meta.xmp) return { ok: false, message: 'A thumbnail must be a plain WebP image' };
+		if (meta.format !== 'webp' || meta.exif || meta.xmp)
+			return { ok: false, message: 'A thumbnail must be a plain WebP image' };
 	} catch {
 		return { ok: false, message: 'The thumbnail could not be read' };
 	}
@@ -105,8 +148,18 @@ export async function checkThumbnail(bytes: Uint8Array): Promise<{ ok: true } | 
 }
 
 /** A logger file: UTF-8 text, not an image, archive, program or page. */
-export function checkLoggerFile(bytes: Uint8Array): { ok: true; text: string } | { ok: false; message: string } {
-	if (looksBinary(bytes)) return { ok: false, message: 'This is not a CSV text file (it looks like an image or an archive).' };
-	if (looksLikeMarkup(bytes)) return { ok: false, message: 'This is not a CSV text file (it looks like a web page or markup).' };
+export function checkLoggerFile(
+	bytes: Uint8Array,
+): { ok: true; text: string } | { ok: false; message: string } {
+	if (looksBinary(bytes))
+		return {
+			ok: false,
+			message: 'This is not a CSV text file (it looks like an image or an archive).',
+		};
+	if (looksLikeMarkup(bytes))
+		return {
+			ok: false,
+			message: 'This is not a CSV text file (it looks like a web page or markup).',
+		};
 	return { ok: true, text: new TextDecoder('utf-8', { fatal: false }).decode(bytes) };
 }

@@ -1,14 +1,21 @@
 import { Auth } from '@auth/core';
 import authConfig from 'auth:config';
 
-export type FormSignInResult = { ok: true; location: string; setCookies: string[] } | { ok: false; error: 'CredentialsSignin' | 'rate_limited' | 'error' };
+export type FormSignInResult =
+	| { ok: true; location: string; setCookies: string[] }
+	| { ok: false; error: 'CredentialsSignin' | 'rate_limited' | 'error' };
 
 /**
  * Password sign-in for a plain form post (a page served before its script ran): the same Auth.js
  * flow the script uses (CSRF token, credentials callback), run inside the server, so the session
  * cookie, the attempt counting and the limits are exactly those of a scripted sign-in.
  */
-export async function signInFromForm(request: Request, email: string, password: string, callbackUrl: string): Promise<FormSignInResult> {
+export async function signInFromForm(
+	request: Request,
+	email: string,
+	password: string,
+	callbackUrl: string,
+): Promise<FormSignInResult> {
 	const origin = new URL(request.url).origin;
 	const base = authConfig.prefix ?? '/api/auth';
 	const forward = new Headers();
@@ -26,7 +33,11 @@ export async function signInFromForm(request: Request, email: string, password: 
 	let res: Response;
 	try {
 		res = await Auth(
-			new Request(`${origin}${base}/callback/credentials`, { method: 'POST', headers, body: new URLSearchParams({ email, password, csrfToken, callbackUrl }) }),
+			new Request(`${origin}${base}/callback/credentials`, {
+				method: 'POST',
+				headers,
+				body: new URLSearchParams({ email, password, csrfToken, callbackUrl }),
+			}),
 			authConfig,
 		);
 	} catch {
@@ -35,6 +46,19 @@ export async function signInFromForm(request: Request, email: string, password: 
 	const location = res.headers.get('location') ?? '';
 	const url = new URL(location || '/', origin);
 	const error = url.searchParams.get('error');
-	if (error) return { ok: false, error: url.searchParams.get('code') === 'rate_limited' ? 'rate_limited' : error === 'CredentialsSignin' ? 'CredentialsSignin' : 'error' };
-	return { ok: true, location: url.origin === origin ? url.pathname + url.search : '/teams', setCookies: res.headers.getSetCookie() };
+	if (error)
+		return {
+			ok: false,
+			error:
+				url.searchParams.get('code') === 'rate_limited'
+					? 'rate_limited'
+					: error === 'CredentialsSignin'
+						? 'CredentialsSignin'
+						: 'error',
+		};
+	return {
+		ok: true,
+		location: url.origin === origin ? url.pathname + url.search : '/teams',
+		setCookies: res.headers.getSetCookie(),
+	};
 }

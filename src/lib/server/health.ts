@@ -20,7 +20,13 @@ const HEALTH_TIMEOUT_MS = 3000;
 
 function withDeadline<T>(work: Promise<T>, ms: number, what: string): Promise<T> {
 	let timer: NodeJS.Timeout;
-	return Promise.race([work, new Promise<T>((_, reject) => (timer = setTimeout(() => reject(new Error(`${what} did not answer within ${ms} ms`)), ms)))]).finally(() => clearTimeout(timer));
+	return Promise.race([
+		work,
+		new Promise<T>(
+			(_, reject) =>
+				(timer = setTimeout(() => reject(new Error(`${what} did not answer within ${ms} ms`)), ms)),
+		),
+	]).finally(() => clearTimeout(timer));
 }
 
 const ms = (since: number) => Math.round((performance.now() - since) * 10) / 10;

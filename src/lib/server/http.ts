@@ -63,7 +63,15 @@ export function problem(
 	/** Extension members (RFC 9457 §3.2), e.g. the current state a 409 carries. */
 	members: Record<string, unknown> = {},
 ): Response {
-	const body: ProblemBody = { ...members, type: 'about:blank', title: titles[status] ?? 'Error', status, code, detail, errors };
+	const body: ProblemBody = {
+		...members,
+		type: 'about:blank',
+		title: titles[status] ?? 'Error',
+		status,
+		code,
+		detail,
+		errors,
+	};
 	return new Response(JSON.stringify(body), {
 		status,
 		headers: { 'content-type': 'application/problem+json', ...headers },
@@ -72,22 +80,42 @@ export function problem(
 
 /** Turns zod issues into `{ path, message }` pairs, with dotted paths (`cables.2.lengthM`). */
 export function toFieldErrors(error: z.ZodError): FieldError[] {
-	return error.issues.map((issue) => ({ path: issue.path.map(String).join('.'), message: issue.message }));
+	return error.issues.map((issue) => ({
+		path: issue.path.map(String).join('.'),
+		message: issue.message,
+	}));
 }
 
 export type ReadResult<T> = { ok: true; data: T } | { ok: false; response: Response };
 
 /** Reads a JSON body and validates it: 415 when not JSON, 400 with field errors when invalid. */
-export async function readJson<S extends z.ZodType>(request: Request, schema: S, limit = MAX_JSON_BYTES): Promise<ReadResult<z.infer<S>>> {
+export async function readJson<S extends z.ZodType>(
+	request: Request,
+	schema: S,
+	limit = MAX_JSON_BYTES,
+): Promise<ReadResult<z.infer<S>>> {
 	const type = request.headers.get('content-type') ?? '';
 	if (!type.toLowerCase().startsWith('application/json')) {
-		return { ok: false, response: problem(415, 'unsupported_media_type', 'Send the body as application/json') };
+		return {
+			ok: false,
+			response: problem(415, 'unsupported_media_type', 'Send the body as application/json'),
+		};
 	}
 	let raw: unknown;
 	try {
-		raw = JSON.parse(new TextDecoder('utf-8', { fatal: true }).decode(await readBytes(request, limit)));
+		raw = JSON.parse(
+			new TextDecoder('utf-8', { fatal: true }).decode(await readBytes(request, limit)),
+		);
 	} catch (error) {
-		if (error instanceof BodyTooLargeError) return { ok: false, response: problem(413, 'too_large', `The body is larger than ${Math.round(limit / 1024)} KB`) };
+		if (error instanceof BodyTooLargeError)
+			return {
+				ok: false,
+				response: problem(
+					413,
+					'too_large',
+					`The body is larger than ${Math.round(limit / 1024)} KB`,
+				),
+			};
 		return { ok: false, response: problem(400, 'invalid_input', 'The body is not valid JSON') };
 	}
 	return validated(schema, raw, 'Some fields need attention');
@@ -98,17 +126,33 @@ export async function readJson<S extends z.ZodType>(request: Request, schema: S,
  * (a field the schema takes as free text, an id, a key), naming the field: 400, never a 500 from
  * the database.
  */
-export function validated<S extends z.ZodType>(schema: S, raw: unknown, detail: string): ReadResult<z.infer<S>> {
+export function validated<S extends z.ZodType>(
+	schema: S,
+	raw: unknown,
+	detail: string,
+): ReadResult<z.infer<S>> {
 	const parsed = schema.safeParse(raw);
-	if (!parsed.success) return { ok: false, response: problem(400, 'invalid_input', detail, toFieldErrors(parsed.error)) };
+	if (!parsed.success)
+		return {
+			ok: false,
+			response: problem(400, 'invalid_input', detail, toFieldErrors(parsed.error)),
+		};
 	const bad = findControlCharacter(parsed.data);
-	if (bad !== null) return { ok: false, response: problem(400, 'invalid_input', detail, [{ path: bad, message: NOTES_MESSAGE }]) };
+	if (bad !== null)
+		return {
+			ok: false,
+			response: problem(400, 'invalid_input', detail, [{ path: bad, message: NOTES_MESSAGE }]),
+		};
 	return { ok: true, data: parsed.data };
 }
 
 /** Validates a URL's query parameters: 400 with field errors when invalid. */
 export function readQuery<S extends z.ZodType>(url: URL, schema: S): ReadResult<z.infer<S>> {
-	return validated(schema, Object.fromEntries(url.searchParams), 'Some query parameters need attention');
+	return validated(
+		schema,
+		Object.fromEntries(url.searchParams),
+		'Some query parameters need attention',
+	);
 }
 
 /** A 409 problem that carries what the client needs to merge (the current state, its own input). */
@@ -119,6 +163,18 @@ export function conflict(detail: string, extra: Record<string, unknown>): Respon
 /** 503 while an outside service (the database, the file store) is down: nothing was changed, try again. */
 export function unavailable(service: 'database' | 'storage'): Response {
 	return service === 'database'
-		? problem(503, 'database_unavailable', 'The database is not answering right now. Nothing was changed; try again in a moment.', undefined, { 'retry-after': '5', 'cache-control': 'no-store' })
-		: problem(503, 'storage_unavailable', 'The file store is not answering right now. Nothing was changed; try again in a moment.', undefined, { 'retry-after': '5', 'cache-control': 'no-store' });
+		? problem(
+				503,
+				'database_unavailable',
+				'The database is not answering right now. Nothing was changed; try again in a moment.',
+				undefined,
+				{ 'retry-after': '5', 'cache-control': 'no-store' },
+			)
+		: problem(
+				503,
+				'storage_unavailable',
+				'The file store is not answering right now. Nothing was changed; try again in a moment.',
+				undefined,
+				{ 'retry-after': '5', 'cache-control': 'no-store' },
+			);
 }

@@ -5,7 +5,12 @@ import { invitationMail } from './mail-templates';
 import { hashToken } from './tokens';
 
 /** Sends (or re-sends) the invitation mail with a freshly issued raw token. */
-export async function sendInvitationMail(locals: Pick<App.Locals, 'mailer' | 'config' | 'user'>, access: TeamAccess, invitation: InvitationRow, token: string) {
+export async function sendInvitationMail(
+	locals: Pick<App.Locals, 'mailer' | 'config' | 'user'>,
+	access: TeamAccess,
+	invitation: InvitationRow,
+	token: string,
+) {
 	await locals.mailer.send(
 		invitationMail({
 			to: invitation.email,
@@ -25,6 +30,19 @@ export async function describeInvitation(db: App.Locals['db'], token: string | u
 	if (!token || token.length > 200) return null;
 	const inv = await findInvitationByTokenHash(db, hashToken(token));
 	if (!inv) return null;
-	const state: InvitationState = inv.accepted_at ? 'used' : inv.revoked_at ? 'revoked' : inv.expires_at.getTime() < Date.now() ? 'expired' : 'open';
-	return { teamId: inv.team_id, teamName: inv.team_name, email: inv.email, role: inv.role, state, expiresAt: inv.expires_at.toISOString() };
+	const state: InvitationState = inv.accepted_at
+		? 'used'
+		: inv.revoked_at
+			? 'revoked'
+			: inv.expires_at.getTime() < Date.now()
+				? 'expired'
+				: 'open';
+	return {
+		teamId: inv.team_id,
+		teamName: inv.team_name,
+		email: inv.email,
+		role: inv.role,
+		state,
+		expiresAt: inv.expires_at.toISOString(),
+	};
 }

@@ -1,8 +1,17 @@
 import type { MailMessage } from './mail';
 
-const escape = (s: string) => s.replace(/[&<>"']/g, (c) => ({ '&': '&amp;', '<': '&lt;', '>': '&gt;', '"': '&quot;', "'": '&#39;' })[c]!);
+const escape = (s: string) =>
+	s.replace(
+		/[&<>"']/g,
+		(c) => ({ '&': '&amp;', '<': '&lt;', '>': '&gt;', '"': '&quot;', "'": '&#39;' })[c]!,
+	);
 
-function layout(title: string, paragraphs: string[], action: { label: string; url: string }, footnote: string): string {
+function layout(
+	title: string,
+	paragraphs: string[],
+	action: { label: string; url: string },
+	footnote: string,
+): string {
 	return `<!doctype html><html><body style="margin:0;background:#f7f5f0;font-family:system-ui,sans-serif;color:#1d262e">
 <table role="presentation" width="100%" cellpadding="0" cellspacing="0"><tr><td align="center" style="padding:24px">
 <table role="presentation" width="560" cellpadding="0" cellspacing="0" style="background:#ffffff;border:1px solid #ddd8cc;border-radius:6px">
@@ -16,19 +25,56 @@ ${paragraphs.map((p) => `<p style="margin:0 0 12px;line-height:1.5">${escape(p)}
 </td></tr></table></td></tr></table></body></html>`;
 }
 
-const text = (title: string, paragraphs: string[], action: { label: string; url: string }, footnote: string) =>
-	[title, '', ...paragraphs, '', `${action.label}: ${action.url}`, '', footnote, '', '— Sagwise'].join('\n');
+const text = (
+	title: string,
+	paragraphs: string[],
+	action: { label: string; url: string },
+	footnote: string,
+) =>
+	[
+		title,
+		'',
+		...paragraphs,
+		'',
+		`${action.label}: ${action.url}`,
+		'',
+		footnote,
+		'',
+		'— Sagwise',
+	].join('\n');
 
-function message(to: string, subject: string, title: string, paragraphs: string[], action: { label: string; url: string }, footnote: string): MailMessage {
-	return { to, subject, text: text(title, paragraphs, action, footnote), html: layout(title, paragraphs, action, footnote) };
+function message(
+	to: string,
+	subject: string,
+	title: string,
+	paragraphs: string[],
+	action: { label: string; url: string },
+	footnote: string,
+): MailMessage {
+	return {
+		to,
+		subject,
+		text: text(title, paragraphs, action, footnote),
+		html: layout(title, paragraphs, action, footnote),
+	};
 }
 
-export function invitationMail(p: { to: string; teamName: string; role: string; inviterName: string; url: string; expiresAt: Date }): MailMessage {
+export function invitationMail(p: {
+	to: string;
+	teamName: string;
+	role: string;
+	inviterName: string;
+	url: string;
+	expiresAt: Date;
+}): MailMessage {
 	return message(
 		p.to,
 		`${p.inviterName} invited you to ${p.teamName} on Sagwise`,
 		`Join ${p.teamName}`,
-		[`${p.inviterName} invited you to join the team ${p.teamName} as ${p.role === 'viewer' ? 'a viewer' : `a ${p.role}`}.`, 'Sagwise is where the team plans and records the electrical systems of its vehicles and logs its event results.'],
+		[
+			`${p.inviterName} invited you to join the team ${p.teamName} as ${p.role === 'viewer' ? 'a viewer' : `a ${p.role}`}.`,
+			'Sagwise is where the team plans and records the electrical systems of its vehicles and logs its event results.',
+		],
 		{ label: 'Accept the invitation', url: p.url },
 		`The link works once and expires on ${p.expiresAt.toUTCString()}. If you did not expect this, ignore this mail.`,
 	);
@@ -39,7 +85,9 @@ export function passwordResetMail(p: { to: string; url: string }): MailMessage {
 		p.to,
 		'Reset your Sagwise password',
 		'Choose a new password',
-		['Someone asked to reset the password of this Sagwise account. If it was you, choose a new one with the link below.'],
+		[
+			'Someone asked to reset the password of this Sagwise account. If it was you, choose a new one with the link below.',
+		],
 		{ label: 'Choose a new password', url: p.url },
 		'The link works once and expires in one hour. If you did not ask for it, ignore this mail; your password stays as it is.',
 	);

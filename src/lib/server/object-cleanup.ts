@@ -23,7 +23,12 @@ export async function removeTeamObjects(storage: Storage, teamId: string): Promi
 
 /** Removes objects by key, best effort (rows are gone already; the sweep catches what fails). */
 export async function removeObjects(storage: Storage, keys: string[]): Promise<void> {
-	for (const key of keys) await storage.remove(key).catch((error) => console.error(`stored file ${key} left for the sweep:`, (error as Error).message));
+	for (const key of keys)
+		await storage
+			.remove(key)
+			.catch((error) =>
+				console.error(`stored file ${key} left for the sweep:`, (error as Error).message),
+			);
 }
 
 /** An object younger than this may belong to an upload whose row is not committed yet. */
@@ -34,8 +39,15 @@ export const ORPHAN_GRACE_MS = 60 * 60_000;
  * and committing its row, a deletion the store refused): only under `teams/`, only older than the
  * grace period. Safe to run on several machines at once (removing a missing object is a no-op).
  */
-export async function sweepOrphanObjects(db: Kysely<Database>, storage: Storage, now = Date.now(), graceMs = ORPHAN_GRACE_MS): Promise<number> {
-	const candidates = (await storage.list('teams/')).filter((o) => o.lastModified === null || now - o.lastModified.getTime() > graceMs).map((o) => o.key);
+export async function sweepOrphanObjects(
+	db: Kysely<Database>,
+	storage: Storage,
+	now = Date.now(),
+	graceMs = ORPHAN_GRACE_MS,
+): Promise<number> {
+	const candidates = (await storage.list('teams/'))
+		.filter((o) => o.lastModified === null || now - o.lastModified.getTime() > graceMs)
+		.map((o) => o.key);
 	const known = await knownObjectKeys(db, candidates);
 	const orphans = candidates.filter((k) => !known.has(k));
 	for (const key of orphans) await storage.remove(key);

@@ -9,7 +9,13 @@ const MAX_MEM = 64 * 1024 * 1024;
 
 function scrypt(password: string, salt: Buffer, n: number, r: number, p: number): Promise<Buffer> {
 	return new Promise((resolve, reject) =>
-		scryptCb(password.normalize('NFKC'), salt, KEY_LENGTH, { N: n, r, p, maxmem: MAX_MEM }, (err, key) => (err ? reject(err) : resolve(key))),
+		scryptCb(
+			password.normalize('NFKC'),
+			salt,
+			KEY_LENGTH,
+			{ N: n, r, p, maxmem: MAX_MEM },
+			(err, key) => (err ? reject(err) : resolve(key)),
+		),
 	);
 }
 
@@ -25,7 +31,13 @@ export async function verifyPassword(password: string, stored: string | null): P
 	const [scheme, n, r, p, salt, hash] = stored.split('$');
 	if (scheme !== 'scrypt' || !salt || !hash) return false;
 	const expected = Buffer.from(hash, 'base64url');
-	const actual = await scrypt(password, Buffer.from(salt, 'base64url'), Number(n), Number(r), Number(p));
+	const actual = await scrypt(
+		password,
+		Buffer.from(salt, 'base64url'),
+		Number(n),
+		Number(r),
+		Number(p),
+	);
 	return actual.length === expected.length && timingSafeEqual(actual, expected);
 }
 
@@ -35,7 +47,10 @@ let dummyHash: Promise<string> | undefined;
  * Checks a password against a stored hash, or against a throwaway hash when there is none, so an
  * unknown address takes as long to refuse as a wrong password for a known one.
  */
-export async function verifyPasswordOrDummy(password: string, stored: string | null): Promise<boolean> {
+export async function verifyPasswordOrDummy(
+	password: string,
+	stored: string | null,
+): Promise<boolean> {
 	if (stored) return verifyPassword(password, stored);
 	dummyHash ??= hashPassword('no account has this password');
 	await verifyPassword(password, await dummyHash);

@@ -1,6 +1,11 @@
 import type { Kysely } from 'kysely';
 import type { Database } from '@/lib/server/db/schema';
-import { countRateEvents, countRecentFailures, recordRateEvent, recordSignInAttempt } from '@/lib/server/db/users';
+import {
+	countRateEvents,
+	countRecentFailures,
+	recordRateEvent,
+	recordSignInAttempt,
+} from '@/lib/server/db/users';
 
 export const SIGN_IN_WINDOW_MS = 60_000;
 /** Failed password attempts allowed per address, and per client, within the window. */
@@ -8,7 +13,11 @@ export const MAX_FAILURES_PER_EMAIL = 10;
 export const MAX_FAILURES_PER_CLIENT = 30;
 
 /** True when another attempt for this address or from this client must be refused. */
-export async function signInLimited(db: Kysely<Database>, email: string, client: string): Promise<boolean> {
+export async function signInLimited(
+	db: Kysely<Database>,
+	email: string,
+	client: string,
+): Promise<boolean> {
 	const [byEmail, byClient] = await Promise.all([
 		countRecentFailures(db, { email }, SIGN_IN_WINDOW_MS),
 		countRecentFailures(db, { client }, SIGN_IN_WINDOW_MS),
@@ -25,7 +34,10 @@ export type RateKind = 'reset_mail' | 'link_mail' | 'sign_up';
  * PostgreSQL so every app instance counts the same. Unknown addresses count like known ones, so
  * the limit tells nothing about who has an account.
  */
-export const RATE_LIMITS: Record<RateKind, { windowMs: number; perEmail: number; perClient: number }> = {
+export const RATE_LIMITS: Record<
+	RateKind,
+	{ windowMs: number; perEmail: number; perClient: number }
+> = {
 	reset_mail: { windowMs: 15 * 60_000, perEmail: 3, perClient: 10 },
 	link_mail: { windowMs: 15 * 60_000, perEmail: 5, perClient: 20 },
 	sign_up: { windowMs: 60 * 60_000, perEmail: 3, perClient: 10 },
@@ -35,7 +47,12 @@ export const RATE_LIMITS: Record<RateKind, { windowMs: number; perEmail: number;
  * Counts this action and says whether it may go ahead: one row per try (refused tries count too,
  * so hammering never opens the window early).
  */
-export async function takeRateSlot(db: Kysely<Database>, kind: RateKind, email: string, client: string): Promise<boolean> {
+export async function takeRateSlot(
+	db: Kysely<Database>,
+	kind: RateKind,
+	email: string,
+	client: string,
+): Promise<boolean> {
 	const limit = RATE_LIMITS[kind];
 	const { byEmail, byClient } = await countRateEvents(db, kind, email, client, limit.windowMs);
 	await recordRateEvent(db, kind, email, client);

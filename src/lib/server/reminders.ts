@@ -1,13 +1,22 @@
 import { addDays, format } from 'date-fns';
 import type { Kysely } from 'kysely';
 import type { Database } from '@/lib/server/db/schema';
-import { captainEmails, claimNotification, findDueReminders, listTeamIds, lockTeamForDigest, revisionsSavedBetween, setDigestTime } from '@/lib/server/db/notifications';
+import {
+	captainEmails,
+	claimNotification,
+	findDueReminders,
+	listTeamIds,
+	lockTeamForDigest,
+	revisionsSavedBetween,
+	setDigestTime,
+} from '@/lib/server/db/notifications';
 import type { ServerConfig } from './config';
 import type { Mailer } from './mail';
 
 type Db = Kysely<Database>;
 
-const esc = (s: string) => s.replace(/[&<>"]/g, (c) => ({ '&': '&amp;', '<': '&lt;', '>': '&gt;', '"': '&quot;' })[c]!);
+const esc = (s: string) =>
+	s.replace(/[&<>"]/g, (c) => ({ '&': '&amp;', '<': '&lt;', '>': '&gt;', '"': '&quot;' })[c]!);
 
 /**
  * Mails every member of a team about each event that starts within the team's reminder window.
@@ -15,7 +24,12 @@ const esc = (s: string) => s.replace(/[&<>"]/g, (c) => ({ '&': '&amp;', '<': '&l
  * transaction per mail: a second run, or a second app instance running at the same time, finds
  * the row and sends nothing; a failed send rolls the row back so the next run tries again.
  */
-export async function sendEventReminders(db: Db, mailer: Mailer, config: ServerConfig, now = new Date()): Promise<number> {
+export async function sendEventReminders(
+	db: Db,
+	mailer: Mailer,
+	config: ServerConfig,
+	now = new Date(),
+): Promise<number> {
 	const today = format(now, 'yyyy-MM-dd');
 	const due = await findDueReminders(db, today);
 	let sent = 0;
@@ -42,7 +56,12 @@ export async function sendEventReminders(db: Db, mailer: Mailer, config: ServerC
  * (SKIP LOCKED, so parallel runs share the work) and its digest time moves forward in the same
  * transaction as the mail.
  */
-export async function sendRevisionDigests(db: Db, mailer: Mailer, config: ServerConfig, now = new Date()): Promise<number> {
+export async function sendRevisionDigests(
+	db: Db,
+	mailer: Mailer,
+	config: ServerConfig,
+	now = new Date(),
+): Promise<number> {
 	let sent = 0;
 	for (const id of await listTeamIds(db)) {
 		sent += await db.transaction().execute(async (trx) => {
@@ -53,7 +72,10 @@ export async function sendRevisionDigests(db: Db, mailer: Mailer, config: Server
 			await setDigestTime(trx, team.id, now);
 			if (revisions.length === 0) return 0;
 			const captains = await captainEmails(trx, team.id);
-			const lines = revisions.map((r) => `${r.vehicle} r${r.number}: ${r.message} (${r.author ?? (r.imported_by ? `imported: ${r.imported_by}` : 'someone')})`);
+			const lines = revisions.map(
+				(r) =>
+					`${r.vehicle} r${r.number}: ${r.message} (${r.author ?? (r.imported_by ? `imported: ${r.imported_by}` : 'someone')})`,
+			);
 			const url = `${config.publicUrl}/teams/${team.id}`;
 			for (const to of captains) {
 				await mailer.send({

@@ -13,7 +13,11 @@ export function securityHeaders(response: Response, https: boolean): Response {
 	headers.set('permissions-policy', 'camera=(), microphone=(), geolocation=(), payment=(), usb=()');
 	const csp = headers.get('content-security-policy');
 	// Astro writes the page policy (script and style hashes); a header may also forbid framing.
-	if (csp && html && !/frame-ancestors/.test(csp)) headers.set('content-security-policy', `${csp.trim().replace(/;?$/, ';')} frame-ancestors 'none'`);
+	if (csp && html && !/frame-ancestors/.test(csp))
+		headers.set(
+			'content-security-policy',
+			`${csp.trim().replace(/;?$/, ';')} frame-ancestors 'none'`,
+		);
 	if (!csp) {
 		headers.set(
 			'content-security-policy',
@@ -23,5 +27,9 @@ export function securityHeaders(response: Response, https: boolean): Response {
 		);
 	}
 	if (https) headers.set('strict-transport-security', 'max-age=31536000; includeSubDomains');
-	return new Response(response.body, { status: response.status, statusText: response.statusText, headers });
+	return new Response(response.body, {
+		status: response.status,
+		statusText: response.statusText,
+		headers,
+	});
 }

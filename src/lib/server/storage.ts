@@ -45,7 +45,10 @@ function clientFor(s3: ServerConfig['s3'], timeoutMs: number): S3Client {
  */
 export function createS3Storage(s3: ServerConfig['s3'], timeoutMs = STORAGE_TIMEOUT_MS): Storage {
 	const client = clientFor(s3, timeoutMs);
-	async function call<T>(operation: string, run: (abortSignal: AbortSignal) => Promise<T>): Promise<T> {
+	async function call<T>(
+		operation: string,
+		run: (abortSignal: AbortSignal) => Promise<T>,
+	): Promise<T> {
 		try {
 			return await run(AbortSignal.timeout(timeoutMs));
 		} catch (error) {
@@ -55,30 +58,55 @@ export function createS3Storage(s3: ServerConfig['s3'], timeoutMs = STORAGE_TIME
 	return {
 		put: (key, body, contentType) =>
 			call('upload', async (abortSignal) => {
-				await client.send(new PutObjectCommand({ Bucket: s3.bucket, Key: key, Body: body, ContentType: contentType, ContentLength: body.byteLength }), { abortSignal });
+				await client.send(
+					new PutObjectCommand({
+						Bucket: s3.bucket,
+						Key: key,
+						Body: body,
+						ContentType: contentType,
+						ContentLength: body.byteLength,
+					}),
+					{ abortSignal },
+				);
 			}),
 		async get(key) {
 			try {
 				return await call('download', async (abortSignal) => {
-					const res = await client.send(new GetObjectCommand({ Bucket: s3.bucket, Key: key }), { abortSignal });
+					const res = await client.send(new GetObjectCommand({ Bucket: s3.bucket, Key: key }), {
+						abortSignal,
+					});
 					return res.Body ? await res.Body.transformToByteArray() : null;
 				});
 			} catch (error) {
-				if ((error as Error).cause && ((error as Error).cause as { name?: string }).name === 'NoSuchKey') return null;
+				if (
+					(error as Error).cause &&
+					((error as Error).cause as { name?: string }).name === 'NoSuchKey'
+				)
+					return null;
 				throw error;
 			}
 		},
 		remove: (key) =>
 			call('delete', async (abortSignal) => {
-				await client.send(new DeleteObjectCommand({ Bucket: s3.bucket, Key: key }), { abortSignal });
+				await client.send(new DeleteObjectCommand({ Bucket: s3.bucket, Key: key }), {
+					abortSignal,
+				});
 			}),
 		list: (prefix) =>
 			call('listing', async (abortSignal) => {
 				const out: { key: string; lastModified: Date | null }[] = [];
 				let token: string | undefined;
 				do {
-					const page = await client.send(new ListObjectsV2Command({ Bucket: s3.bucket, Prefix: prefix, ContinuationToken: token }), { abortSignal });
-					for (const o of page.Contents ?? []) if (o.Key) out.push({ key: o.Key, lastModified: o.LastModified ?? null });
+					const page = await client.send(
+						new ListObjectsV2Command({
+							Bucket: s3.bucket,
+							Prefix: prefix,
+							ContinuationToken: token,
+						}),
+						{ abortSignal },
+					);
+					for (const o of page.Contents ?? [])
+						if (o.Key) out.push({ key: o.Key, lastModified: o.LastModified ?? null });
 					token = page.IsTruncated ? page.NextContinuationToken : undefined;
 				} while (token);
 				return out;

@@ -5,7 +5,14 @@ import { type ImportedFile, insertTeamFromBackup, readTeamForBackup } from '@/li
 import type { Database } from '@/lib/server/db/schema';
 import { measurementsOf } from '@/lib/schemas/run-measurements';
 import type { ImportSummary } from '@/lib/schemas/teams';
-import { BACKUP_FORMAT, BACKUP_VERSION, backupEnvelopeSchema, type TeamBackup, type TeamBackupContent, teamBackupContentSchema } from '@/lib/schemas/team-backup';
+import {
+	BACKUP_FORMAT,
+	BACKUP_VERSION,
+	backupEnvelopeSchema,
+	type TeamBackup,
+	type TeamBackupContent,
+	teamBackupContentSchema,
+} from '@/lib/schemas/team-backup';
 import { findControlCharacter, NOTES_MESSAGE } from '@/lib/schemas/text';
 import { checkLoggerFile, checkPhoto, checkThumbnail } from '@/lib/server/file-content';
 import type { Storage } from '@/lib/server/storage';
@@ -14,7 +21,8 @@ import { hashToken } from '@/lib/server/tokens';
 type Db = Kysely<Database>;
 
 const iso = (d: Date) => d.toISOString();
-const checksumOf = (team: unknown) => createHash('sha256').update(JSON.stringify(team)).digest('hex');
+const checksumOf = (team: unknown) =>
+	createHash('sha256').update(JSON.stringify(team)).digest('hex');
 const lastSegment = (key: string) => key.slice(key.lastIndexOf('/') + 1);
 
 /**
@@ -65,7 +73,14 @@ export async function exportTeam(db: Db, storage: Storage, teamId: string): Prom
 				createdAt: iso(p.created_at),
 				updatedAt: iso(p.updated_at),
 				document: p.document as BuildDocument,
-				parts: rows.parts.filter((x) => x.plan_id === p.id).map((x) => ({ item: x.item, quantity: x.quantity, unitPriceMinor: Number(x.unit_price_minor), link: x.link })),
+				parts: rows.parts
+					.filter((x) => x.plan_id === p.id)
+					.map((x) => ({
+						item: x.item,
+						quantity: x.quantity,
+						unitPriceMinor: Number(x.unit_price_minor),
+						link: x.link,
+					})),
 			})),
 		};
 	});
@@ -76,7 +91,8 @@ export async function exportTeam(db: Db, storage: Storage, teamId: string): Prom
 		const outFiles: TeamBackupContent['runs'][number]['files'] = [];
 		for (const [j, f] of (rows.filesByRun.get(r.id) ?? []).entries()) {
 			const bytes = await storage.get(f.object_key);
-			if (!bytes) throw new Error(`The stored file ${f.file_name} (${f.object_key}) is missing from storage`);
+			if (!bytes)
+				throw new Error(`The stored file ${f.file_name} (${f.object_key}) is missing from storage`);
 			outFiles.push({
 				key: `run${i + 1}.f${j + 1}`,
 				kind: f.kind,
@@ -97,7 +113,9 @@ export async function exportTeam(db: Db, storage: Storage, teamId: string): Prom
 			...measurementsOf(r),
 			authorEmail: emailOf(r.author_id) ?? r.imported_by,
 			createdAt: iso(r.created_at),
-			samples: (rows.samplesByRun.get(r.id) ?? []).map((x) => [x.t_s, x.volts, x.amps] as [number, number, number]),
+			samples: (rows.samplesByRun.get(r.id) ?? []).map(
+				(x) => [x.t_s, x.volts, x.amps] as [number, number, number],
+			),
 			files: outFiles,
 		});
 	}
@@ -109,18 +127,51 @@ export async function exportTeam(db: Db, storage: Storage, teamId: string): Prom
 		currency: team.currency,
 		createdAt: iso(team.created_at),
 		members: members.map((m) => ({ email: m.email, name: m.name, role: m.role })),
-		checkItems: items.map((it, i) => ({ key: `item${i + 1}`, label: it.label, createdAt: iso(it.created_at) })),
+		checkItems: items.map((it, i) => ({
+			key: `item${i + 1}`,
+			label: it.label,
+			createdAt: iso(it.created_at),
+		})),
 		vehicles: outVehicles,
-		events: events.map((e) => ({ key: eventKey.get(e.id)!, name: e.name, startsOn: e.starts_on, endsOn: e.ends_on, place: e.place, format: e.format, notes: e.notes, createdAt: iso(e.created_at) })),
+		events: events.map((e) => ({
+			key: eventKey.get(e.id)!,
+			name: e.name,
+			startsOn: e.starts_on,
+			endsOn: e.ends_on,
+			place: e.place,
+			format: e.format,
+			notes: e.notes,
+			createdAt: iso(e.created_at),
+		})),
 		runs: outRuns,
 		signoffs: signoffs
 			.filter((s) => vehicleKey.has(s.vehicle_id))
-			.map((s) => ({ event: eventKey.get(s.event_id)!, vehicle: vehicleKey.get(s.vehicle_id)!, item: itemKey.get(s.item_key) ?? s.item_key, signedByEmail: emailOf(s.signed_by) ?? s.imported_by, signedAt: iso(s.signed_at), note: s.note })),
+			.map((s) => ({
+				event: eventKey.get(s.event_id)!,
+				vehicle: vehicleKey.get(s.vehicle_id)!,
+				item: itemKey.get(s.item_key) ?? s.item_key,
+				signedByEmail: emailOf(s.signed_by) ?? s.imported_by,
+				signedAt: iso(s.signed_at),
+				note: s.note,
+			})),
 	};
-	return { format: BACKUP_FORMAT, version: BACKUP_VERSION, exportedAt: new Date().toISOString(), checksum: checksumOf(content), team: content };
+	return {
+		format: BACKUP_FORMAT,
+		version: BACKUP_VERSION,
+		exportedAt: new Date().toISOString(),
+		checksum: checksumOf(content),
+		team: content,
+	};
 }
 
-export type ParseBackupResult = { ok: true; backup: TeamBackup } | { ok: false; code: 'invalid_backup' | 'unsupported_version'; detail: string; errors?: { path: string; message: string }[] };
+export type ParseBackupResult =
+	| { ok: true; backup: TeamBackup }
+	| {
+			ok: false;
+			code: 'invalid_backup' | 'unsupported_version';
+			detail: string;
+			errors?: { path: string; message: string }[];
+	  };
 
 /** Checks a backup file before anything is written: JSON, format, version, checksum, then every record. */
 export function parseBackup(text: string): ParseBackupResult {
@@ -128,38 +179,85 @@ export function parseBackup(text: string): ParseBackupResult {
 	try {
 		raw = JSON.parse(text);
 	} catch {
-		return { ok: false, code: 'invalid_backup', detail: 'This file is not a team backup: it is not valid JSON (it may be cut short or damaged).' };
+		return {
+			ok: false,
+			code: 'invalid_backup',
+			detail:
+				'This file is not a team backup: it is not valid JSON (it may be cut short or damaged).',
+		};
 	}
 	const envelope = backupEnvelopeSchema.safeParse(raw);
 	if (!envelope.success) {
-		return { ok: false, code: 'invalid_backup', detail: 'This file is not a team backup from this product.', errors: envelope.error.issues.slice(0, 10).map((i) => ({ path: i.path.join('.'), message: i.message })) };
+		return {
+			ok: false,
+			code: 'invalid_backup',
+			detail: 'This file is not a team backup from this product.',
+			errors: envelope.error.issues
+				.slice(0, 10)
+				.map((i) => ({ path: i.path.join('.'), message: i.message })),
+		};
 	}
 	if (envelope.data.version > BACKUP_VERSION) {
-		return { ok: false, code: 'unsupported_version', detail: `This backup was written by a newer version of the product (format ${envelope.data.version}; this installation reads up to ${BACKUP_VERSION}). Update this installation, then import it again.` };
+		return {
+			ok: false,
+			code: 'unsupported_version',
+			detail: `This backup was written by a newer version of the product (format ${envelope.data.version}; this installation reads up to ${BACKUP_VERSION}). Update this installation, then import it again.`,
+		};
 	}
 	if (checksumOf(envelope.data.team) !== envelope.data.checksum) {
-		return { ok: false, code: 'invalid_backup', detail: 'This backup is damaged or was edited: its checksum does not match its contents. Nothing was imported.' };
+		return {
+			ok: false,
+			code: 'invalid_backup',
+			detail:
+				'This backup is damaged or was edited: its checksum does not match its contents. Nothing was imported.',
+		};
 	}
 	const team = teamBackupContentSchema.safeParse(envelope.data.team);
 	if (!team.success) {
-		return { ok: false, code: 'invalid_backup', detail: 'This backup has records that cannot be read.', errors: team.error.issues.slice(0, 10).map((i) => ({ path: `team.${i.path.join('.')}`, message: i.message })) };
+		return {
+			ok: false,
+			code: 'invalid_backup',
+			detail: 'This backup has records that cannot be read.',
+			errors: team.error.issues
+				.slice(0, 10)
+				.map((i) => ({ path: `team.${i.path.join('.')}`, message: i.message })),
+		};
 	}
 	const control = findControlCharacter(team.data);
-	if (control !== null) return { ok: false, code: 'invalid_backup', detail: 'This backup has text with control characters in it, which no field takes. Nothing was imported.', errors: [{ path: `team.${control}`, message: NOTES_MESSAGE }] };
+	if (control !== null)
+		return {
+			ok: false,
+			code: 'invalid_backup',
+			detail:
+				'This backup has text with control characters in it, which no field takes. Nothing was imported.',
+			errors: [{ path: `team.${control}`, message: NOTES_MESSAGE }],
+		};
 	const problems = crossCheck(team.data);
-	if (problems.length) return { ok: false, code: 'invalid_backup', detail: 'This backup refers to records it does not contain.', errors: problems.slice(0, 10) };
-	return { ok: true, backup: { ...envelope.data, format: BACKUP_FORMAT, version: BACKUP_VERSION, team: team.data } };
+	if (problems.length)
+		return {
+			ok: false,
+			code: 'invalid_backup',
+			detail: 'This backup refers to records it does not contain.',
+			errors: problems.slice(0, 10),
+		};
+	return {
+		ok: true,
+		backup: { ...envelope.data, format: BACKUP_FORMAT, version: BACKUP_VERSION, team: team.data },
+	};
 }
 
 /** References inside the file must resolve: vehicles, events, revision numbers, check items. */
 function crossCheck(t: TeamBackupContent): { path: string; message: string }[] {
 	const out: { path: string; message: string }[] = [];
-	const vehicles = new Map(t.vehicles.map((v) => [v.key, new Set(v.revisions.map((r) => r.number))]));
+	const vehicles = new Map(
+		t.vehicles.map((v) => [v.key, new Set(v.revisions.map((r) => r.number))]),
+	);
 	const events = new Set(t.events.map((e) => e.key));
 	const items = new Set(t.checkItems.map((i) => `manual:${i.key}`));
 	t.vehicles.forEach((v, i) => {
 		const nums = vehicles.get(v.key)!;
-		const ref = (n: number | null, path: string) => n !== null && !nums.has(n) && out.push({ path, message: `No revision ${n} in this vehicle` });
+		const ref = (n: number | null, path: string) =>
+			n !== null && !nums.has(n) && out.push({ path, message: `No revision ${n} in this vehicle` });
 		ref(v.headRevision, `team.vehicles.${i}.headRevision`);
 		v.revisions.forEach((r, j) => {
 			ref(r.parent, `team.vehicles.${i}.revisions.${j}.parent`);
@@ -173,18 +271,28 @@ function crossCheck(t: TeamBackupContent): { path: string; message: string }[] {
 	t.runs.forEach((r, i) => {
 		const nums = vehicles.get(r.vehicle);
 		if (!nums) out.push({ path: `team.runs.${i}.vehicle`, message: `No vehicle ${r.vehicle}` });
-		if (r.event && !events.has(r.event)) out.push({ path: `team.runs.${i}.event`, message: `No event ${r.event}` });
-		if (nums && r.revision !== null && !nums.has(r.revision)) out.push({ path: `team.runs.${i}.revision`, message: `No revision ${r.revision}` });
-		r.files.forEach((f, j) => Buffer.from(f.data, 'base64').byteLength !== f.sizeBytes && out.push({ path: `team.runs.${i}.files.${j}`, message: 'Size does not match the bytes' }));
+		if (r.event && !events.has(r.event))
+			out.push({ path: `team.runs.${i}.event`, message: `No event ${r.event}` });
+		if (nums && r.revision !== null && !nums.has(r.revision))
+			out.push({ path: `team.runs.${i}.revision`, message: `No revision ${r.revision}` });
+		r.files.forEach(
+			(f, j) =>
+				Buffer.from(f.data, 'base64').byteLength !== f.sizeBytes &&
+				out.push({ path: `team.runs.${i}.files.${j}`, message: 'Size does not match the bytes' }),
+		);
 	});
 	t.signoffs.forEach((s, i) => {
-		if (!events.has(s.event) || !vehicles.has(s.vehicle)) out.push({ path: `team.signoffs.${i}`, message: 'Refers to a missing event or vehicle' });
-		if (s.item.startsWith('manual:') && !items.has(s.item)) out.push({ path: `team.signoffs.${i}.item`, message: `No check item ${s.item}` });
+		if (!events.has(s.event) || !vehicles.has(s.vehicle))
+			out.push({ path: `team.signoffs.${i}`, message: 'Refers to a missing event or vehicle' });
+		if (s.item.startsWith('manual:') && !items.has(s.item))
+			out.push({ path: `team.signoffs.${i}.item`, message: `No check item ${s.item}` });
 	});
 	return out;
 }
 
-export type PrepareFilesResult = { ok: true; files: ImportedFile[][]; photosCleaned: number } | { ok: false; errors: { path: string; message: string }[] };
+export type PrepareFilesResult =
+	| { ok: true; files: ImportedFile[][]; photosCleaned: number }
+	| { ok: false; errors: { path: string; message: string }[] };
 
 const stem = (objectName: string) => objectName.replace(/\.[^.]*$/, '');
 
@@ -205,10 +313,16 @@ export async function prepareBackupFiles(t: TeamBackupContent): Promise<PrepareF
 		for (const [j, f] of r.files.entries()) {
 			const path = `team.runs.${i}.files.${j}`;
 			const bytes = new Uint8Array(Buffer.from(f.data, 'base64'));
-			const base = { fileName: f.fileName.slice(0, 200), createdAt: f.createdAt, sourceIndex: j, pairedWith: null };
+			const base = {
+				fileName: f.fileName.slice(0, 200),
+				createdAt: f.createdAt,
+				sourceIndex: j,
+				pairedWith: null,
+			};
 			if (f.kind === 'photo') {
 				const checked = await checkPhoto(bytes);
-				if (!checked.ok) errors.push({ path, message: `Photo "${f.fileName}": ${checked.message}` });
+				if (!checked.ok)
+					errors.push({ path, message: `Photo "${f.fileName}": ${checked.message}` });
 				else {
 					if (checked.stripped) photosCleaned++;
 					files.push({ ...base, kind: 'photo', contentType: checked.type, bytes: checked.bytes });
@@ -216,12 +330,25 @@ export async function prepareBackupFiles(t: TeamBackupContent): Promise<PrepareF
 			} else if (f.kind === 'thumbnail') {
 				const checked = await checkThumbnail(bytes);
 				const photo = photoByStem.get(stem(f.objectName).replace(/-thumb$/, ''));
-				if (!checked.ok) errors.push({ path, message: `Thumbnail "${f.fileName}": ${checked.message}` });
-				else if (photo === undefined) errors.push({ path, message: `Thumbnail "${f.fileName}" belongs to no photo of this run` });
-				else files.push({ ...base, kind: 'thumbnail', contentType: 'image/webp', bytes, pairedWith: photo });
+				if (!checked.ok)
+					errors.push({ path, message: `Thumbnail "${f.fileName}": ${checked.message}` });
+				else if (photo === undefined)
+					errors.push({
+						path,
+						message: `Thumbnail "${f.fileName}" belongs to no photo of this run`,
+					});
+				else
+					files.push({
+						...base,
+						kind: 'thumbnail',
+						contentType: 'image/webp',
+						bytes,
+						pairedWith: photo,
+					});
 			} else {
 				const checked = checkLoggerFile(bytes);
-				if (!checked.ok) errors.push({ path, message: `Logger file "${f.fileName}": ${checked.message}` });
+				if (!checked.ok)
+					errors.push({ path, message: `Logger file "${f.fileName}": ${checked.message}` });
 				else files.push({ ...base, kind: 'logger', contentType: 'text/csv', bytes });
 			}
 			if (errors.length >= 10) return { ok: false, errors };
@@ -240,25 +367,43 @@ export async function prepareBackupFiles(t: TeamBackupContent): Promise<PrepareF
  * about who does). Authors, owners and sign-offs are kept as recorded in the file, never mapped to
  * a live account. Every object key is made here, inside the new team's prefix.
  */
-export async function importTeam(db: Db, storage: Storage, backup: TeamBackup, importer: { id: string; email: string }, name: string | undefined, prepared: PrepareFilesResult & { ok: true }): Promise<ImportSummary> {
+export async function importTeam(
+	db: Db,
+	storage: Storage,
+	backup: TeamBackup,
+	importer: { id: string; email: string },
+	name: string | undefined,
+	prepared: PrepareFilesResult & { ok: true },
+): Promise<ImportSummary> {
 	const written: string[] = [];
 	try {
-		const counts = await insertTeamFromBackup(db, backup.team, { importer, name, files: prepared.files, invitationTokenHash: () => hashToken(randomBytes(32).toString('base64url')) }, async (teamId, runId, f, photoBase) => {
-			let objectKey: string;
-			if (f.kind === 'photo') {
-				const base = `teams/${teamId}/runs/${runId}/photo-${randomUUID()}`;
-				photoBase.set(f.sourceIndex, base);
-				objectKey = `${base}.${f.contentType.split('/')[1]}`;
-			} else if (f.kind === 'thumbnail') {
-				const base = photoBase.get(f.pairedWith!) ?? `teams/${teamId}/runs/${runId}/photo-${randomUUID()}`;
-				objectKey = `${base}-thumb.webp`;
-			} else {
-				objectKey = `teams/${teamId}/runs/${runId}/logger-${randomUUID()}.csv`;
-			}
-			written.push(objectKey);
-			await storage.put(objectKey, f.bytes, f.contentType);
-			return objectKey;
-		});
+		const counts = await insertTeamFromBackup(
+			db,
+			backup.team,
+			{
+				importer,
+				name,
+				files: prepared.files,
+				invitationTokenHash: () => hashToken(randomBytes(32).toString('base64url')),
+			},
+			async (teamId, runId, f, photoBase) => {
+				let objectKey: string;
+				if (f.kind === 'photo') {
+					const base = `teams/${teamId}/runs/${runId}/photo-${randomUUID()}`;
+					photoBase.set(f.sourceIndex, base);
+					objectKey = `${base}.${f.contentType.split('/')[1]}`;
+				} else if (f.kind === 'thumbnail') {
+					const base =
+						photoBase.get(f.pairedWith!) ?? `teams/${teamId}/runs/${runId}/photo-${randomUUID()}`;
+					objectKey = `${base}-thumb.webp`;
+				} else {
+					objectKey = `teams/${teamId}/runs/${runId}/logger-${randomUUID()}.csv`;
+				}
+				written.push(objectKey);
+				await storage.put(objectKey, f.bytes, f.contentType);
+				return objectKey;
+			},
+		);
 		return { ...counts, photosCleaned: prepared.photosCleaned };
 	} catch (e) {
 		await Promise.all(written.map((k) => storage.remove(k).catch(() => undefined)));

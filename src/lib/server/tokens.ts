@@ -6,4 +6,5 @@ export function newToken(): { token: string; hash: string } {
 	return { token, hash: hashToken(token) };
 }
 
-export const hashToken = (token: string): string => createHash('sha256').update(token).digest('hex');
+export const hashToken = (token: string): string =>
+	createHash('sha256').update(token).digest('hex');

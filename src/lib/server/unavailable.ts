@@ -7,13 +7,38 @@
 export class StorageUnavailableError extends Error {
 	override readonly name = 'StorageUnavailableError';
 	constructor(operation: string, cause: unknown) {
-		super(`file storage ${operation} failed: ${cause instanceof Error ? cause.message : String(cause)}`, { cause });
+		super(
+			`file storage ${operation} failed: ${cause instanceof Error ? cause.message : String(cause)}`,
+			{ cause },
+		);
 	}
 }
 
-const NETWORK_CODES = new Set(['ECONNREFUSED', 'ECONNRESET', 'EPIPE', 'ETIMEDOUT', 'EHOSTUNREACH', 'ENETUNREACH', 'ENOTFOUND', 'EAI_AGAIN', 'ECONNABORTED']);
+const NETWORK_CODES = new Set([
+	'ECONNREFUSED',
+	'ECONNRESET',
+	'EPIPE',
+	'ETIMEDOUT',
+	'EHOSTUNREACH',
+	'ENETUNREACH',
+	'ENOTFOUND',
+	'EAI_AGAIN',
+	'ECONNABORTED',
+]);
 // SQLSTATE classes and codes that mean "the server is not there or is going away", not "your query is wrong".
-const PG_UNAVAILABLE = new Set(['57P01', '57P02', '57P03', '53300', '08000', '08001', '08003', '08004', '08006', '08007', '08P01']);
+const PG_UNAVAILABLE = new Set([
+	'57P01',
+	'57P02',
+	'57P03',
+	'53300',
+	'08000',
+	'08001',
+	'08003',
+	'08004',
+	'08006',
+	'08007',
+	'08P01',
+]);
 const PG_MESSAGES = [
 	/Connection terminated/i,
 	/timeout exceeded when trying to connect/i,
@@ -38,7 +63,8 @@ export function isDatabaseUnavailable(error: unknown): boolean {
 	for (const e of causes(error)) {
 		if (e instanceof StorageUnavailableError) return false;
 		const { code, message } = e as { code?: unknown; message?: unknown };
-		if (typeof code === 'string' && (PG_UNAVAILABLE.has(code) || NETWORK_CODES.has(code))) return true;
+		if (typeof code === 'string' && (PG_UNAVAILABLE.has(code) || NETWORK_CODES.has(code)))
+			return true;
 		if (typeof message === 'string' && PG_MESSAGES.some((re) => re.test(message))) return true;
 		if (e instanceof AggregateError && e.errors.some((x) => isDatabaseUnavailable(x))) return true;
 	}

@@ -7,12 +7,42 @@ import { APP_VERSION } from '@/lib/version';
  * (with which one is down) otherwise, so a load balancer takes a broken instance out.
  */
 export const GET: APIRoute = async ({ locals }) => {
-	const [database, storage] = await Promise.all([checkDatabase(locals.db), checkStorage(locals.storage)]);
+	const [database, storage] = await Promise.all([
+		checkDatabase(locals.db),
+		checkStorage(locals.storage),
+	]);
 	const ok = database.status === 'ok' && storage.status === 'ok';
-	const body: HealthReport = { status: ok ? 'ok' : 'degraded', version: APP_VERSION, database, storage };
-	if (!ok) console.error(`health: ${[database.status === 'down' && `database (${database.detail})`, storage.status === 'down' && `storage (${storage.detail})`].filter(Boolean).join(', ')} down`);
-	return new Response(JSON.stringify(ok ? body : { ...body, health: body.status, type: 'about:blank', title: 'Service Unavailable', status: 503, code: database.status === 'down' ? 'database_unavailable' : 'storage_unavailable', detail: 'A service the app needs is not answering' }), {
-		status: ok ? 200 : 503,
-		headers: { 'content-type': ok ? 'application/json' : 'application/problem+json', 'cache-control': 'no-store', ...(ok ? {} : { 'retry-after': '5' }) },
-	});
+	const body: HealthReport = {
+		status: ok ? 'ok' : 'degraded',
+		version: APP_VERSION,
+		database,
+		storage,
+	};
+	if (!ok)
+		console.error(
+			`health: ${[database.status === 'down' && `database (${database.detail})`, storage.status === 'down' && `storage (${storage.detail})`].filter(Boolean).join(', ')} down`,
+		);
+	return new Response(
+		JSON.stringify(
+			ok
+				? body
+				: {
+						...body,
+						health: body.status,
+						type: 'about:blank',
+						title: 'Service Unavailable',
+						status: 503,
+						code: database.status === 'down' ? 'database_unavailable' : 'storage_unavailable',
+						detail: 'A service the app needs is not answering',
+					},
+		),
+		{
+			status: ok ? 200 : 503,
+			headers: {
+				'content-type': ok ? 'application/json' : 'application/problem+json',
+				'cache-control': 'no-store',
+				...(ok ? {} : { 'retry-after': '5' }),
+			},
+		},
+	);
 };

@@ -15,11 +15,21 @@ describe('accounts cannot be taken over, and sign-in limits cannot be dodged', (
 	}, 120_000);
 	afterAll(async () => app?.close());
 
-	const json = (body: unknown) => ({ method: 'POST', headers: { 'content-type': 'application/json' }, body: JSON.stringify(body) });
-	const signUp = (s: HttpSession, email: string, password: string) => s.fetch('/api/account/sign-up', json({ name: 'Someone', email, password }));
+	const json = (body: unknown) => ({
+		method: 'POST',
+		headers: { 'content-type': 'application/json' },
+		body: JSON.stringify(body),
+	});
+	const signUp = (s: HttpSession, email: string, password: string) =>
+		s.fetch('/api/account/sign-up', json({ name: 'Someone', email, password }));
 	const askLink = async (s: HttpSession, email: string) =>
-		s.fetch('/api/auth/signin/nodemailer', { method: 'POST', body: new URLSearchParams({ email, csrfToken: await s.csrf(), callbackUrl: `${base}/teams` }), headers: { 'content-type': 'application/x-www-form-urlencoded' } });
-	const mailsTo = (email: string) => listOutbox(app.outboxDir).filter((m) => m.to.includes(email)).length;
+		s.fetch('/api/auth/signin/nodemailer', {
+			method: 'POST',
+			body: new URLSearchParams({ email, csrfToken: await s.csrf(), callbackUrl: `${base}/teams` }),
+			headers: { 'content-type': 'application/x-www-form-urlencoded' },
+		});
+	const mailsTo = (email: string) =>
+		listOutbox(app.outboxDir).filter((m) => m.to.includes(email)).length;
 
 	it('drops a password someone else set for an address when its owner first signs in by e-mailed link, and ends the sessions made with it', async () => {
 		const victim = `owner.${Date.now()}@sagwise.test`;
@@ -59,14 +69,21 @@ describe('accounts cannot be taken over, and sign-in limits cannot be dodged', (
 		const older = await waitForMail(app.outboxDir, email);
 		expect((await anon.fetch('/api/account/password-reset', json({ email }))).status).toBe(202);
 		const newer = await waitForMail(app.outboxDir, email, { after: 1 });
-		const token = (m: typeof older) => new URL(linkIn(m, '/reset-password')).searchParams.get('token')!;
+		const token = (m: typeof older) =>
+			new URL(linkIn(m, '/reset-password')).searchParams.get('token')!;
 		expect(token(older)).not.toBe(token(newer));
 
-		const done = await anon.fetch('/api/account/password-reset/confirm', json({ token: token(newer), password: 'the second password' }));
+		const done = await anon.fetch(
+			'/api/account/password-reset/confirm',
+			json({ token: token(newer), password: 'the second password' }),
+		);
 		expect(done.status).toBe(204);
 		expect(await first.session()).toBeNull();
 		expect(await second.session()).toBeNull();
-		const stale = await anon.fetch('/api/account/password-reset/confirm', json({ token: token(older), password: 'a third password!' }));
+		const stale = await anon.fetch(
+			'/api/account/password-reset/confirm',
+			json({ token: token(older), password: 'a third password!' }),
+		);
 		expect(stale.status).toBe(410);
 		const fresh = new HttpSession(base);
 		await fresh.signInWithPassword(email, 'the second password');
@@ -78,7 +95,11 @@ describe('accounts cannot be taken over, and sign-in limits cannot be dodged', (
 		const unknown = `nobody.${Date.now()}@sagwise.test`;
 		for (const email of [known, unknown]) {
 			const statuses: number[] = [];
-			for (let i = 0; i < 4; i++) statuses.push((await new HttpSession(base).fetch('/api/account/password-reset', json({ email }))).status);
+			for (let i = 0; i < 4; i++)
+				statuses.push(
+					(await new HttpSession(base).fetch('/api/account/password-reset', json({ email })))
+						.status,
+				);
 			expect(statuses).toEqual([202, 202, 202, 429]);
 		}
 		await new Promise((r) => setTimeout(r, 300));
@@ -93,7 +114,8 @@ describe('accounts cannot be taken over, and sign-in limits cannot be dodged', (
 	it('limits sign-ups per address', async () => {
 		const email = `signups.${Date.now()}@sagwise.test`;
 		const statuses: number[] = [];
-		for (let i = 0; i < 4; i++) statuses.push((await signUp(new HttpSession(base), email, 'a long enough password')).status);
+		for (let i = 0; i < 4; i++)
+			statuses.push((await signUp(new HttpSession(base), email, 'a long enough password')).status);
 		expect(statuses).toEqual([201, 409, 409, 429]);
 	});
 
@@ -102,10 +124,40 @@ describe('accounts cannot be taken over, and sign-in limits cannot be dodged', (
 		const variants: ((s: HttpSession, password: string) => Promise<Response>)[] = [
 			(s, password) => s.signInWithPassword(email, password),
 			async (s, password) =>
-				s.fetch('/api/auth/callback/credentials/', { method: 'POST', headers: { 'content-type': 'application/x-www-form-urlencoded' }, body: new URLSearchParams({ email: email.toUpperCase(), password, csrfToken: await s.csrf(), callbackUrl: `${base}/teams` }) }),
-			async (s, password) => s.fetch('/api/auth/callback/credentials', json({ email: ` ${email} `, password, csrfToken: await s.csrf(), callbackUrl: `${base}/teams` })),
+				s.fetch('/api/auth/callback/credentials/', {
+					method: 'POST',
+					headers: { 'content-type': 'application/x-www-form-urlencoded' },
+					body: new URLSearchParams({
+						email: email.toUpperCase(),
+						password,
+						csrfToken: await s.csrf(),
+						callbackUrl: `${base}/teams`,
+					}),
+				}),
 			async (s, password) =>
-				s.fetch('/api/auth/callback/credentials?x=1', { method: 'POST', headers: { 'content-type': 'application/x-www-form-urlencoded', 'x-forwarded-for': `203.0.113.${Math.floor(Math.random() * 200)}` }, body: new URLSearchParams({ email, password, csrfToken: await s.csrf(), callbackUrl: `${base}/teams` }) }),
+				s.fetch(
+					'/api/auth/callback/credentials',
+					json({
+						email: ` ${email} `,
+						password,
+						csrfToken: await s.csrf(),
+						callbackUrl: `${base}/teams`,
+					}),
+				),
+			async (s, password) =>
+				s.fetch('/api/auth/callback/credentials?x=1', {
+					method: 'POST',
+					headers: {
+						'content-type': 'application/x-www-form-urlencoded',
+						'x-forwarded-for': `203.0.113.${Math.floor(Math.random() * 200)}`,
+					},
+					body: new URLSearchParams({
+						email,
+						password,
+						csrfToken: await s.csrf(),
+						callbackUrl: `${base}/teams`,
+					}),
+				}),
 		];
 		for (let i = 0; i < 10; i++) {
 			const s = new HttpSession(base);
@@ -119,7 +171,10 @@ describe('accounts cannot be taken over, and sign-in limits cannot be dodged', (
 			expect(await s.session()).toBeNull();
 		}
 		// A doubled slash is no route at all.
-		const doubled = await new HttpSession(base).fetch('//api/auth/callback/credentials', { method: 'POST', body: 'x' });
+		const doubled = await new HttpSession(base).fetch('//api/auth/callback/credentials', {
+			method: 'POST',
+			body: 'x',
+		});
 		expect(doubled.status).toBe(404);
 		// Another account from another address is untouched by this account's limit.
 		const other = new HttpSession(base);
@@ -131,8 +186,20 @@ describe('accounts cannot be taken over, and sign-in limits cannot be dodged', (
 		let refused = false;
 		for (let i = 0; i < 35 && !refused; i++) {
 			const s = new HttpSession(base);
-			const body = new URLSearchParams({ email: `spray.${i}@sagwise.test`, password: 'guess', csrfToken: await s.csrf(), callbackUrl: `${base}/teams` });
-			const res = await s.fetch('/api/auth/callback/credentials', { method: 'POST', body, headers: { 'content-type': 'application/x-www-form-urlencoded', 'x-forwarded-for': `198.51.100.${i}` } });
+			const body = new URLSearchParams({
+				email: `spray.${i}@sagwise.test`,
+				password: 'guess',
+				csrfToken: await s.csrf(),
+				callbackUrl: `${base}/teams`,
+			});
+			const res = await s.fetch('/api/auth/callback/credentials', {
+				method: 'POST',
+				body,
+				headers: {
+					'content-type': 'application/x-www-form-urlencoded',
+					'x-forwarded-for': `198.51.100.${i}`,
+				},
+			});
 			refused = res.status === 429;
 		}
 		expect(refused).toBe(true);

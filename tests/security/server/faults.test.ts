@@ -17,7 +17,11 @@ import { HttpSession } from '../../helpers/http-session';
  * Real services stopped under a real server: a PostgreSQL cluster of this test's own (so stopping
  * it disturbs no other test), the S3 fake behind a relay that can also freeze it.
  */
-const CLUSTER: ClusterOptions = { dir: '.data/test-pg-faults', port: Number(process.env.SAGWISE_TEST_FAULT_PG_PORT ?? 54349), database: 'faults' };
+const CLUSTER: ClusterOptions = {
+	dir: '.data/test-pg-faults',
+	port: Number(process.env.SAGWISE_TEST_FAULT_PG_PORT ?? 54349),
+	database: 'faults',
+};
 const PORT = Number(process.env.SAGWISE_TEST_FAULT_APP_PORT ?? 4398);
 const S3_TIMEOUT_MS = 1500;
 
@@ -46,14 +50,24 @@ describe('faults: the database and the file store go away under load', () => {
 		const db = createDb(dbUrl, 1);
 		await migrateToLatest(db);
 		teamId = await seedDemo(db);
-		runId = (await db.selectFrom('run').innerJoin('vehicle', 'vehicle.id', 'run.vehicle_id').select('run.id').where('vehicle.team_id', '=', teamId).executeTakeFirstOrThrow()).id;
+		runId = (
+			await db
+				.selectFrom('run')
+				.innerJoin('vehicle', 'vehicle.id', 'run.vehicle_id')
+				.select('run.id')
+				.where('vehicle.team_id', '=', teamId)
+				.executeTakeFirstOrThrow()
+		).id;
 		await db.destroy();
 
 		s3Dir = mkdtempSync(path.join(tmpdir(), 'sagwise-fault-s3-'));
 		s3 = await startS3Fake({ port: 0, dir: s3Dir, bucket: 'sagwise-files' });
 		s3Port = Number(new URL(s3.endpoint).port);
 		proxy = await startFreezeProxy(s3Port);
-		smtp = await startSmtpFake({ port: 0, dir: mkdtempSync(path.join(tmpdir(), 'sagwise-fault-mail-')) });
+		smtp = await startSmtpFake({
+			port: 0,
+			dir: mkdtempSync(path.join(tmpdir(), 'sagwise-fault-mail-')),
+		});
 		server = await startAppServer(PORT, {
 			DATABASE_URL: dbUrl,
 			SMTP_URL: `smtp://127.0.0.1:${smtp.port}`,
@@ -64,7 +78,11 @@ describe('faults: the database and the file store go away under load', () => {
 		member = new HttpSession(server.url);
 		const signedIn = await member.signInWithPassword(DEMO_USERS[1].email, DEMO_PASSWORD);
 		expect(signedIn.status).toBe(302);
-		photo = new Uint8Array(await sharp({ create: { width: 64, height: 48, channels: 3, background: '#446688' } }).jpeg().toBuffer());
+		photo = new Uint8Array(
+			await sharp({ create: { width: 64, height: 48, channels: 3, background: '#446688' } })
+				.jpeg()
+				.toBuffer(),
+		);
 	}, 120_000);
 
 	afterAll(async () => {
@@ -76,11 +94,26 @@ describe('faults: the database and the file store go away under load', () => {
 	});
 
 	const postEvent = (n: number) =>
-		member.fetch(`/api/teams/${teamId}/events`, { method: 'POST', headers: { 'content-type': 'application/json' }, body: JSON.stringify({ name: `Load event ${n}`, startsOn: '2027-03-01', endsOn: '2027-03-01' }) });
+		member.fetch(`/api/teams/${teamId}/events`, {
+			method: 'POST',
+			headers: { 'content-type': 'application/json' },
+			body: JSON.stringify({
+				name: `Load event ${n}`,
+				startsOn: '2027-03-01',
+				endsOn: '2027-03-01',
+			}),
+		});
 	const postPhoto = () => {
 		const form = new FormData();
-		form.set('file', new Blob([photo as Uint8Array<ArrayBuffer>], { type: 'image/jpeg' }), 'lanes.jpg');
-		return member.fetch(`/api/teams/${teamId}/runs/${runId}/photos`, { method: 'POST', body: form });
+		form.set(
+			'file',
+			new Blob([photo as Uint8Array<ArrayBuffer>], { type: 'image/jpeg' }),
+			'lanes.jpg',
+		);
+		return member.fetch(`/api/teams/${teamId}/runs/${runId}/photos`, {
+			method: 'POST',
+			body: form,
+		});
 	};
 
 	it('lives through PostgreSQL stopped immediately under write load: 503 problem+json meanwhile, recovers by itself, keeps every acknowledged write', async () => {
@@ -123,7 +156,8 @@ describe('faults: the database and the file store go away under load', () => {
 		await ensureCluster(CLUSTER);
 		phase = 'back';
 		const deadline = Date.now() + 20_000;
-		while (Date.now() < deadline && !outcomes.some((o) => o.phase === 'back' && o.status === 201)) await new Promise((r) => setTimeout(r, 100));
+		while (Date.now() < deadline && !outcomes.some((o) => o.phase === 'back' && o.status === 201))
+			await new Promise((r) => setTimeout(r, 100));
 		await new Promise((r) => setTimeout(r, 500));
 		stop = true;
 		await Promise.all(writers);
@@ -131,15 +165,31 @@ describe('faults: the database and the file store go away under load', () => {
 		expect(server.process.exitCode).toBeNull();
 		expect(networkErrors).toEqual([]);
 		// Every answer was either a stored write or a 503 problem saying the database is away.
-		const unexpected = outcomes.filter((o) => !(o.status === 201 || (o.status === 503 && o.type === 'application/problem+json' && o.code === 'database_unavailable')));
+		const unexpected = outcomes.filter(
+			(o) =>
+				!(
+					o.status === 201 ||
+					(o.status === 503 &&
+						o.type === 'application/problem+json' &&
+						o.code === 'database_unavailable')
+				),
+		);
 		expect(unexpected).toEqual([]);
-		expect(outcomes.filter((o) => o.phase === 'down' && o.status === 503).length).toBeGreaterThan(0);
-		expect(outcomes.filter((o) => o.phase === 'back' && o.status === 201).length).toBeGreaterThan(0);
+		expect(outcomes.filter((o) => o.phase === 'down' && o.status === 503).length).toBeGreaterThan(
+			0,
+		);
+		expect(outcomes.filter((o) => o.phase === 'back' && o.status === 201).length).toBeGreaterThan(
+			0,
+		);
 		expect((await fetch(`${server.url}/api/health`)).status).toBe(200);
 
 		const db = createDb(dbUrl, 1);
 		try {
-			const stored = await db.selectFrom('event').select('id').where('id', 'in', acknowledged).execute();
+			const stored = await db
+				.selectFrom('event')
+				.select('id')
+				.where('id', 'in', acknowledged)
+				.execute();
 			expect(stored.length).toBe(acknowledged.length);
 		} finally {
 			await db.destroy();
@@ -156,7 +206,11 @@ describe('faults: the database and the file store go away under load', () => {
 		const health = await fetch(`${server.url}/api/health`);
 		expect(health.status).toBe(503);
 		const report = await health.json();
-		expect(report).toMatchObject({ database: { status: 'ok' }, storage: { status: 'down' }, code: 'storage_unavailable' });
+		expect(report).toMatchObject({
+			database: { status: 'ok' },
+			storage: { status: 'down' },
+			code: 'storage_unavailable',
+		});
 
 		s3 = await startS3Fake({ port: s3Port, dir: s3Dir, bucket: 'sagwise-files' });
 		expect((await postPhoto()).status).toBe(201);

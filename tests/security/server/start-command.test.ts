@@ -28,23 +28,38 @@ describe('npm start when its server is killed', () => {
 		const cluster = await ensureCluster(TEST_CLUSTER);
 		dbName = `start_${Date.now()}`;
 		const admin = createDb(cluster.url(), 1);
-		await sql`create database ${sql.id(dbName)} template ${sql.id(`sagwise_template_${process.env.SAGWISE_TEST_RUN}`)}`.execute(admin);
+		await sql`create database ${sql.id(dbName)} template ${sql.id(`sagwise_template_${process.env.SAGWISE_TEST_RUN}`)}`.execute(
+			admin,
+		);
 		await admin.destroy();
 
 		start = spawn(process.execPath, ['--import', 'tsx', 'cli/start.ts'], {
-			env: { ...process.env, PORT: String(PORTS.app), DATABASE_URL: cluster.url(dbName), SAGWISE_SMTP_PORT: String(PORTS.smtp), SAGWISE_S3_PORT: String(PORTS.s3), AUTH_SECRET: 'test-secret-not-for-production-0123456789' },
+			env: {
+				...process.env,
+				PORT: String(PORTS.app),
+				DATABASE_URL: cluster.url(dbName),
+				SAGWISE_SMTP_PORT: String(PORTS.smtp),
+				SAGWISE_S3_PORT: String(PORTS.s3),
+				AUTH_SECRET: 'test-secret-not-for-production-0123456789',
+			},
 			stdio: ['ignore', 'pipe', 'pipe'],
 		});
 		let out = '';
 		start.stdout!.on('data', (d) => (out += d));
 		start.stderr!.on('data', (d) => (out += d));
 		const deadline = Date.now() + 60_000;
-		while (!/ready in/.test(out) && Date.now() < deadline && start.exitCode === null) await new Promise((r) => setTimeout(r, 200));
+		while (!/ready in/.test(out) && Date.now() < deadline && start.exitCode === null)
+			await new Promise((r) => setTimeout(r, 200));
 		expect(out).toMatch(/ready in/);
-		for (const port of Object.values(PORTS)) expect(await portFree(port), `port ${port} taken while running`).toBe(false);
+		for (const port of Object.values(PORTS))
+			expect(await portFree(port), `port ${port} taken while running`).toBe(false);
 
 		// The server is the start command's child running the HTTP front.
-		const serverPid = execFileSync('pgrep', ['-P', String(start.pid), '-f', 'serve.ts'], { encoding: 'utf8' }).trim().split('\n')[0]!;
+		const serverPid = execFileSync('pgrep', ['-P', String(start.pid), '-f', 'serve.ts'], {
+			encoding: 'utf8',
+		})
+			.trim()
+			.split('\n')[0]!;
 		process.kill(Number(serverPid), 'SIGKILL');
 		const exited = await new Promise<boolean>((resolve) => {
 			const timer = setTimeout(() => resolve(false), 20_000);
@@ -54,6 +69,7 @@ describe('npm start when its server is killed', () => {
 			});
 		});
 		expect(exited, `npm start did not exit:\n${out.slice(-2000)}`).toBe(true);
-		for (const port of Object.values(PORTS)) expect(await portFree(port), `port ${port} still taken`).toBe(true);
+		for (const port of Object.values(PORTS))
+			expect(await portFree(port), `port ${port} still taken`).toBe(true);
 	}, 120_000);
 });

@@ -3,21 +3,46 @@ import { fmt } from '@/lib/format';
 import { BurpChart } from '../Charts';
 
 /** The time-stepped burp: each amplifier's and bank's voltage through it, and where the energy went. */
-export function BurpSection({ burp, burpSeconds, draft, ruleV }: { burp: BurpRun | null; burpSeconds: number; draft: BuildDocument; ruleV: number | null }) {
+export function BurpSection({
+	burp,
+	burpSeconds,
+	draft,
+	ruleV,
+}: {
+	burp: BurpRun | null;
+	burpSeconds: number;
+	draft: BuildDocument;
+	ruleV: number | null;
+}) {
 	return (
 		<section aria-labelledby="burp-heading">
-			<h2 id="burp-heading" className="text-xl font-bold">A {burpSeconds} s burp, step by step</h2>
+			<h2 id="burp-heading" className="text-xl font-bold">
+				A {burpSeconds} s burp, step by step
+			</h2>
 			<div className="mt-3 rounded-md border border-hairline bg-card p-3">
 				{burp ? (
 					<>
-						<BurpChart run={burp} bankLabels={Object.fromEntries(draft.banks.map((b) => [b.id, b.label]))} ruleV={ruleV} />
+						<BurpChart
+							run={burp}
+							bankLabels={Object.fromEntries(draft.banks.map((b) => [b.id, b.label]))}
+							ruleV={ruleV}
+						/>
 						<p className="num mt-2 text-sm">
-							Energy: {fmt(burp.energyWh.amplifiers, 1)} Wh into the amplifiers, {fmt(burp.energyWh.banks, 1)} Wh from the banks, {fmt(burp.energyWh.alternators, 1)} Wh from the alternators, {fmt(burp.energyWh.cableLoss, 1)} Wh lost in cables.
-							{burp.collapsedAtS !== null && <span className="text-brick"> ✕ Voltage collapses after {fmt(burp.collapsedAtS, 2)} s.</span>}
+							Energy: {fmt(burp.energyWh.amplifiers, 1)} Wh into the amplifiers,{' '}
+							{fmt(burp.energyWh.banks, 1)} Wh from the banks, {fmt(burp.energyWh.alternators, 1)}{' '}
+							Wh from the alternators, {fmt(burp.energyWh.cableLoss, 1)} Wh lost in cables.
+							{burp.collapsedAtS !== null && (
+								<span className="text-brick">
+									{' '}
+									✕ Voltage collapses after {fmt(burp.collapsedAtS, 2)} s.
+								</span>
+							)}
 						</p>
 					</>
 				) : (
-					<p role="status" className="text-sm text-ink-soft">Computing the burp…</p>
+					<p role="status" className="text-sm text-ink-soft">
+						Computing the burp…
+					</p>
 				)}
 			</div>
 		</section>

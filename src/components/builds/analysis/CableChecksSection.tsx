@@ -5,28 +5,88 @@ import { type ResultColumn, ResultTable, Unit } from './ResultTable';
 
 function fuseAdvice(c: CableReport) {
 	if (c.fuseAdvice === null) return <span className="text-ink-soft">ground side</span>;
-	if (c.fuseAdvice.status === 'ok') return `${c.fuseAdvice.recommendedA} A (max ${fmt(c.fuseAdvice.maxA, 0)} A)`;
-	if (c.fuseAdvice.status === 'cable_too_small') return <span className="text-brick">✕ cable too small</span>;
+	if (c.fuseAdvice.status === 'ok')
+		return `${c.fuseAdvice.recommendedA} A (max ${fmt(c.fuseAdvice.maxA, 0)} A)`;
+	if (c.fuseAdvice.status === 'cable_too_small')
+		return <span className="text-brick">✕ cable too small</span>;
 	return 'capacity unknown';
 }
 
 /** Every cable under the burp: current, drop, loss, size against the rule, capacity, fuse advice, findings. */
-export function CableChecksSection({ cables, warnings, draft, units }: { cables: CableReport[]; warnings: ReportWarning[]; draft: BuildDocument; units: UnitSystem }) {
-	const findingsOf = (id: string) => warnings.filter((w) => w.element.kind === 'cable' && w.element.id === id);
+export function CableChecksSection({
+	cables,
+	warnings,
+	draft,
+	units,
+}: {
+	cables: CableReport[];
+	warnings: ReportWarning[];
+	draft: BuildDocument;
+	units: UnitSystem;
+}) {
+	const findingsOf = (id: string) =>
+		warnings.filter((w) => w.element.kind === 'cable' && w.element.id === id);
 	const lu = lengthUnit(units);
 	const columns: ResultColumn<CableReport>[] = [
-		{ key: 'label', header: 'Cable', numeric: false, tone: () => 'font-semibold', cell: (c) => c.label },
-		{ key: 'current', header: 'Burp current', align: 'right', cell: (c) => <>{fmt(Math.abs(c.burp.currentA), 0)} <Unit>A</Unit></> },
-		{ key: 'drop', header: 'Drop', align: 'right', cell: (c) => <span data-testid={`drop-${c.id}`}>{fmt(Math.abs(c.burp.dropV), 3)} <Unit>V</Unit></span> },
-		{ key: 'loss', header: 'Loss', align: 'right', cell: (c) => <>{fmt(c.burp.lossW, 0)} <Unit>W</Unit></> },
+		{
+			key: 'label',
+			header: 'Cable',
+			numeric: false,
+			tone: () => 'font-semibold',
+			cell: (c) => c.label,
+		},
+		{
+			key: 'current',
+			header: 'Burp current',
+			align: 'right',
+			cell: (c) => (
+				<>
+					{fmt(Math.abs(c.burp.currentA), 0)} <Unit>A</Unit>
+				</>
+			),
+		},
+		{
+			key: 'drop',
+			header: 'Drop',
+			align: 'right',
+			cell: (c) => (
+				<span data-testid={`drop-${c.id}`}>
+					{fmt(Math.abs(c.burp.dropV), 3)} <Unit>V</Unit>
+				</span>
+			),
+		},
+		{
+			key: 'loss',
+			header: 'Loss',
+			align: 'right',
+			cell: (c) => (
+				<>
+					{fmt(c.burp.lossW, 0)} <Unit>W</Unit>
+				</>
+			),
+		},
 		{
 			key: 'cmil',
 			header: 'cmil/A (rule)',
 			align: 'right',
 			tone: (c) => (c.cmilPerAmp < c.requiredCmilPerAmp ? 'text-amber-text' : ''),
-			cell: (c) => <>{Number.isFinite(c.cmilPerAmp) ? fmt(c.cmilPerAmp, 0) : '—'} <Unit>({fmt(c.requiredCmilPerAmp, 0)})</Unit></>,
+			cell: (c) => (
+				<>
+					{Number.isFinite(c.cmilPerAmp) ? fmt(c.cmilPerAmp, 0) : '—'}{' '}
+					<Unit>({fmt(c.requiredCmilPerAmp, 0)})</Unit>
+				</>
+			),
 		},
-		{ key: 'carries', header: 'Carries', align: 'right', cell: (c) => <>{c.ampacity ? fmt(c.ampacity.currentA, 0) : '—'} <Unit>A</Unit></> },
+		{
+			key: 'carries',
+			header: 'Carries',
+			align: 'right',
+			cell: (c) => (
+				<>
+					{c.ampacity ? fmt(c.ampacity.currentA, 0) : '—'} <Unit>A</Unit>
+				</>
+			),
+		},
 		{ key: 'fuse', header: 'Fuse advice', numeric: false, cell: fuseAdvice },
 		{
 			key: 'checks',
@@ -34,17 +94,36 @@ export function CableChecksSection({ cables, warnings, draft, units }: { cables:
 			numeric: false,
 			cell: (c) => {
 				const ws = findingsOf(c.id);
-				return ws.length === 0 ? <span className="text-teal">✓ ok</span> : <WarningList warnings={ws} />;
+				return ws.length === 0 ? (
+					<span className="text-teal">✓ ok</span>
+				) : (
+					<WarningList warnings={ws} />
+				);
 			},
 		},
 	];
 	return (
 		<section aria-labelledby="cables-heading">
-			<h2 id="cables-heading" className="text-xl font-bold">Cables: current, drop and protection</h2>
-			<ResultTable rows={cables} rowKey={(c) => c.id} columns={columns} label="Cable checks" rowProps={(c) => ({ 'data-cable-row': c.id })} className="mt-3" />
+			<h2 id="cables-heading" className="text-xl font-bold">
+				Cables: current, drop and protection
+			</h2>
+			<ResultTable
+				rows={cables}
+				rowKey={(c) => c.id}
+				columns={columns}
+				label="Cable checks"
+				rowProps={(c) => ({ 'data-cable-row': c.id })}
+				className="mt-3"
+			/>
 			<p className="mt-1 text-xs text-ink-soft">
-				Capacity from 33 CFR 183.425 Table 5 by insulation rating at 30 °C, no bundling derate; fuse up to 150 % of it (33 CFR 183.455). 300 cmil/A for copper is common practice, scaled for other metals. Lengths in {lu}: {cables.length} cables,{' '}
-				{fmt(draft.cables.reduce((s, c) => s + toLengthDisplay(c.lengthM, units), 0), 1)} {lu} in all.
+				Capacity from 33 CFR 183.425 Table 5 by insulation rating at 30 °C, no bundling derate; fuse
+				up to 150 % of it (33 CFR 183.455). 300 cmil/A for copper is common practice, scaled for
+				other metals. Lengths in {lu}: {cables.length} cables,{' '}
+				{fmt(
+					draft.cables.reduce((s, c) => s + toLengthDisplay(c.lengthM, units), 0),
+					1,
+				)}{' '}
+				{lu} in all.
 			</p>
 		</section>
 	);

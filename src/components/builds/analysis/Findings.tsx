@@ -1,6 +1,7 @@
 import type { ReportWarning } from '@/engine';
 
-export const SAFETY_LINE = 'These figures are estimates. Local codes, event rules and licensed practice govern high-current work.';
+export const SAFETY_LINE =
+	'These figures are estimates. Local codes, event rules and licensed practice govern high-current work.';
 
 /** Findings in words, with the severity said as well as shown. */
 export function WarningList({ warnings }: { warnings: ReportWarning[] }) {
@@ -9,11 +10,15 @@ export function WarningList({ warnings }: { warnings: ReportWarning[] }) {
 			{warnings.map((w, i) => (
 				<li key={i} className={`text-xs ${w.severity === 'danger' ? 'text-brick' : 'text-ink'}`}>
 					<span aria-hidden="true">{w.severity === 'danger' ? '✕ ' : '⚠ '}</span>
-					<span className="sr-only">{w.severity === 'danger' ? 'Safety finding: ' : 'Warning: '}</span>
+					<span className="sr-only">
+						{w.severity === 'danger' ? 'Safety finding: ' : 'Warning: '}
+					</span>
 					{w.message}
 				</li>
 			))}
-			{warnings.some((w) => w.safety) && <li className="text-xs italic text-ink-soft">{SAFETY_LINE}</li>}
+			{warnings.some((w) => w.safety) && (
+				<li className="text-xs italic text-ink-soft">{SAFETY_LINE}</li>
+			)}
 		</ul>
 	);
 }
@@ -24,8 +29,13 @@ export function Findings({ warnings }: { warnings: ReportWarning[] }) {
 	if (build.length === 0) return null;
 	const safety = build.some((w) => w.safety);
 	return (
-		<section aria-labelledby="findings-heading" className={`rounded-md border p-4 ${safety ? 'border-brick/40 bg-brick-tint/40' : 'border-amber/40 bg-amber-tint/50'}`}>
-			<h2 id="findings-heading" className="font-semibold">Findings</h2>
+		<section
+			aria-labelledby="findings-heading"
+			className={`rounded-md border p-4 ${safety ? 'border-brick/40 bg-brick-tint/40' : 'border-amber/40 bg-amber-tint/50'}`}
+		>
+			<h2 id="findings-heading" className="font-semibold">
+				Findings
+			</h2>
 			<div className="mt-2">
 				<WarningList warnings={build} />
 			</div>

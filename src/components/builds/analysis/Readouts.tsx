@@ -7,14 +7,48 @@ export function Readouts({ report }: { report: Extract<BuildReport, { ok: true }
 	const worstDb = Math.min(0, ...report.amplifiers.map((a) => a.burpOutputLossDb));
 	const altShare = report.burp.alternators.reduce((s, a) => s + a.share, 0);
 	const bankDraw = report.sustained.banks.reduce((s, b) => s + b.currentA, 0);
-	const bus = Math.max(0, ...report.burp.banks.map((b) => b.terminalV), ...report.burp.alternators.filter((a) => a.mode !== 'off').map((a) => a.terminalV));
+	const bus = Math.max(
+		0,
+		...report.burp.banks.map((b) => b.terminalV),
+		...report.burp.alternators.filter((a) => a.mode !== 'off').map((a) => a.terminalV),
+	);
 	const items = [
-		{ label: 'System settles at, burp', value: report.burp.status === 'collapse' ? 'collapse' : fmt(bus), unit: report.burp.status === 'collapse' ? '' : 'V', tone: 'text-teal' },
-		{ label: 'Lowest amplifier, burp', value: report.burp.status === 'collapse' ? 'collapse' : fmt(minBurp), unit: report.burp.status === 'collapse' ? '' : 'V', tone: report.burp.status === 'collapse' ? 'text-brick' : 'text-ink' },
-		{ label: 'Worst output loss', value: fmt(worstDb), unit: 'dB', tone: worstDb < -1 ? 'text-amber-text' : 'text-ink' },
-		{ label: 'Alternators carry', value: fmt(altShare * 100, 0), unit: '% of the burp', tone: 'text-teal' },
-		{ label: 'Banks during music', value: bankDraw > 0.5 ? `▼ ${fmt(bankDraw, 0)}` : `▲ ${fmt(-bankDraw, 0)}`, unit: bankDraw > 0.5 ? 'A out' : 'A in', tone: bankDraw > 0.5 ? 'text-amber-text' : 'text-teal' },
-		{ label: 'Cable loss, burp', value: fmt(report.burp.power.cableLossW, 0), unit: 'W', tone: 'text-copper-dark' },
+		{
+			label: 'System settles at, burp',
+			value: report.burp.status === 'collapse' ? 'collapse' : fmt(bus),
+			unit: report.burp.status === 'collapse' ? '' : 'V',
+			tone: 'text-teal',
+		},
+		{
+			label: 'Lowest amplifier, burp',
+			value: report.burp.status === 'collapse' ? 'collapse' : fmt(minBurp),
+			unit: report.burp.status === 'collapse' ? '' : 'V',
+			tone: report.burp.status === 'collapse' ? 'text-brick' : 'text-ink',
+		},
+		{
+			label: 'Worst output loss',
+			value: fmt(worstDb),
+			unit: 'dB',
+			tone: worstDb < -1 ? 'text-amber-text' : 'text-ink',
+		},
+		{
+			label: 'Alternators carry',
+			value: fmt(altShare * 100, 0),
+			unit: '% of the burp',
+			tone: 'text-teal',
+		},
+		{
+			label: 'Banks during music',
+			value: bankDraw > 0.5 ? `▼ ${fmt(bankDraw, 0)}` : `▲ ${fmt(-bankDraw, 0)}`,
+			unit: bankDraw > 0.5 ? 'A out' : 'A in',
+			tone: bankDraw > 0.5 ? 'text-amber-text' : 'text-teal',
+		},
+		{
+			label: 'Cable loss, burp',
+			value: fmt(report.burp.power.cableLossW, 0),
+			unit: 'W',
+			tone: 'text-copper-dark',
+		},
 	];
 	return (
 		<section aria-label="Key figures" className="grid gap-3 sm:grid-cols-3 lg:grid-cols-6">

@@ -40,7 +40,11 @@ export function ResultTable<Row>({
 				<thead className="bg-paper text-xs text-ink-soft">
 					<tr>
 						{columns.map((c) => (
-							<th key={c.key} scope="col" className={`px-3 py-2 ${c.align === 'right' ? 'text-right' : 'text-left'}`}>
+							<th
+								key={c.key}
+								scope="col"
+								className={`px-3 py-2 ${c.align === 'right' ? 'text-right' : 'text-left'}`}
+							>
 								{c.header}
 							</th>
 						))}
@@ -48,9 +52,16 @@ export function ResultTable<Row>({
 				</thead>
 				<tbody>
 					{rows.map((row) => (
-						<tr key={rowKey(row)} className="border-t border-hairline align-top" {...rowProps?.(row)}>
+						<tr
+							key={rowKey(row)}
+							className="border-t border-hairline align-top"
+							{...rowProps?.(row)}
+						>
 							{columns.map((c) => (
-								<td key={c.key} className={`px-3 py-1.5 ${c.align === 'right' ? 'text-right' : ''} ${c.numeric === false ? '' : 'num'} ${c.tone?.(row) ?? ''}`}>
+								<td
+									key={c.key}
+									className={`px-3 py-1.5 ${c.align === 'right' ? 'text-right' : ''} ${c.numeric === false ? '' : 'num'} ${c.tone?.(row) ?? ''}`}
+								>
 									{c.cell(row)}
 								</td>
 							))}

@@ -1,24 +1,78 @@
 import type { Scenario } from '@/engine';
 
 /** The conditions the figures are computed for: engine speed, music and burp level, cable temperature, drop target, supply voltages. */
-export function ScenarioControls({ scenario, onChange: setScenario }: { scenario: Scenario; onChange: (update: (s: Scenario) => Scenario) => void }) {
-	const set = <K extends keyof Scenario>(key: K, value: Scenario[K]) => setScenario((s) => ({ ...s, [key]: value }));
+export function ScenarioControls({
+	scenario,
+	onChange: setScenario,
+}: {
+	scenario: Scenario;
+	onChange: (update: (s: Scenario) => Scenario) => void;
+}) {
+	const set = <K extends keyof Scenario>(key: K, value: Scenario[K]) =>
+		setScenario((s) => ({ ...s, [key]: value }));
 	return (
 		<section aria-labelledby="scenario-heading">
-			<h2 id="scenario-heading" className="text-xl font-bold">Conditions</h2>
+			<h2 id="scenario-heading" className="text-xl font-bold">
+				Conditions
+			</h2>
 			<div className="mt-3 grid gap-3 rounded-md border border-hairline bg-card p-4 sm:grid-cols-3 lg:grid-cols-6">
-				<ScenarioNumber label="Engine speed" unit="rpm" value={scenario.engineRpm} onChange={(v) => set('engineRpm', v)} min={0} max={8000} step={100} />
-				<ScenarioNumber label="Music level" unit="% of rated" value={scenario.sustainedDemand * 100} onChange={(v) => set('sustainedDemand', v / 100)} min={1} max={100} step={1} />
-				<ScenarioNumber label="Burp level" unit="% of rated" value={scenario.burpDemand * 100} onChange={(v) => set('burpDemand', v / 100)} min={1} max={150} step={5} />
-				<ScenarioNumber label="Cable temperature" unit="°C" value={scenario.conductorTempC} onChange={(v) => set('conductorTempC', v)} min={-20} max={120} step={5} />
-				<ScenarioNumber label="Drop target" unit="V" value={scenario.dropTargetV} onChange={(v) => set('dropTargetV', v)} min={0.05} max={3} step={0.05} />
+				<ScenarioNumber
+					label="Engine speed"
+					unit="rpm"
+					value={scenario.engineRpm}
+					onChange={(v) => set('engineRpm', v)}
+					min={0}
+					max={8000}
+					step={100}
+				/>
+				<ScenarioNumber
+					label="Music level"
+					unit="% of rated"
+					value={scenario.sustainedDemand * 100}
+					onChange={(v) => set('sustainedDemand', v / 100)}
+					min={1}
+					max={100}
+					step={1}
+				/>
+				<ScenarioNumber
+					label="Burp level"
+					unit="% of rated"
+					value={scenario.burpDemand * 100}
+					onChange={(v) => set('burpDemand', v / 100)}
+					min={1}
+					max={150}
+					step={5}
+				/>
+				<ScenarioNumber
+					label="Cable temperature"
+					unit="°C"
+					value={scenario.conductorTempC}
+					onChange={(v) => set('conductorTempC', v)}
+					min={-20}
+					max={120}
+					step={5}
+				/>
+				<ScenarioNumber
+					label="Drop target"
+					unit="V"
+					value={scenario.dropTargetV}
+					onChange={(v) => set('dropTargetV', v)}
+					min={0.05}
+					max={3}
+					step={0.05}
+				/>
 				<div className="flex flex-col gap-1 text-sm">
-					<label htmlFor="voltages" className="font-semibold">Supply voltages (V)</label>
+					<label htmlFor="voltages" className="font-semibold">
+						Supply voltages (V)
+					</label>
 					<input
 						id="voltages"
 						defaultValue={scenario.voltagesV.join(', ')}
 						onBlur={(e) => {
-							const vs = e.target.value.split(/[,\s]+/).map(Number).filter((x) => Number.isFinite(x) && x >= 6 && x <= 20);
+							const vs = e.target.value
+								.split(/[,\s]+/)
+								.map(Number)
+								.filter((x) => Number.isFinite(x) && x >= 6 && x <= 20);
 							if (vs.length) set('voltagesV', vs);
 						}}
 						className="num rounded-md border border-hairline px-2 py-1"
@@ -26,19 +80,47 @@ export function ScenarioControls({ scenario, onChange: setScenario }: { scenario
 				</div>
 			</div>
 		</section>
-
 	);
 }
 
-function ScenarioNumber({ label, unit, value, onChange, min, max, step }: { label: string; unit: string; value: number; onChange: (v: number) => void; min: number; max: number; step: number }) {
+function ScenarioNumber({
+	label,
+	unit,
+	value,
+	onChange,
+	min,
+	max,
+	step,
+}: {
+	label: string;
+	unit: string;
+	value: number;
+	onChange: (v: number) => void;
+	min: number;
+	max: number;
+	step: number;
+}) {
 	const id = label.replace(/\W+/g, '-').toLowerCase();
 	return (
 		<div className="flex flex-col gap-1 text-sm">
 			<label htmlFor={id} className="font-semibold">
 				{label} <span className="font-normal text-ink-soft">({unit})</span>
 			</label>
-			<input id={id} type="number" className="num rounded-md border border-hairline px-2 py-1 text-right" value={Number(value.toFixed(3))} min={min} max={max} step={step} onChange={(e) => Number.isFinite(e.target.valueAsNumber) && e.target.valueAsNumber >= min && e.target.valueAsNumber <= max && onChange(e.target.valueAsNumber)} />
+			<input
+				id={id}
+				type="number"
+				className="num rounded-md border border-hairline px-2 py-1 text-right"
+				value={Number(value.toFixed(3))}
+				min={min}
+				max={max}
+				step={step}
+				onChange={(e) =>
+					Number.isFinite(e.target.valueAsNumber) &&
+					e.target.valueAsNumber >= min &&
+					e.target.valueAsNumber <= max &&
+					onChange(e.target.valueAsNumber)
+				}
+			/>
 		</div>
 	);
 }
-

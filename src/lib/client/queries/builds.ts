@@ -1,7 +1,12 @@
 import { queryOptions, useMutation, useQueryClient } from '@tanstack/react-query';
 import type { z } from 'zod';
 import type { BuildDocument } from '@/engine';
-import type { newVehicleSchema, RevisionDto, RevisionSummary, VehicleDto } from '@/lib/schemas/vehicles';
+import type {
+	newVehicleSchema,
+	RevisionDto,
+	RevisionSummary,
+	VehicleDto,
+} from '@/lib/schemas/vehicles';
 import { api, getJson } from '@/lib/client/api-client';
 
 type NewVehicleInput = z.input<typeof newVehicleSchema>;
@@ -16,7 +21,10 @@ export const buildKeys = {
 export const revisionsQueryOptions = (teamId: string, vehicleId: string) =>
 	queryOptions({
 		queryKey: buildKeys.revisions(vehicleId),
-		queryFn: ({ signal }) => getJson<RevisionSummary[]>(`/api/teams/${teamId}/vehicles/${vehicleId}/revisions`, { signal }),
+		queryFn: ({ signal }) =>
+			getJson<RevisionSummary[]>(`/api/teams/${teamId}/vehicles/${vehicleId}/revisions`, {
+				signal,
+			}),
 	});
 
 export const vehicleKeys = {
@@ -28,33 +36,52 @@ export const vehicleKeys = {
 export function useSaveRevision(teamId: string, vehicleId: string) {
 	const qc = useQueryClient();
 	return useMutation({
-		mutationFn: (input: { parentId: string | null; message: string; document: BuildDocument }) => api<RevisionDto>(`/api/teams/${teamId}/vehicles/${vehicleId}/revisions`, { json: input }),
+		mutationFn: (input: { parentId: string | null; message: string; document: BuildDocument }) =>
+			api<RevisionDto>(`/api/teams/${teamId}/vehicles/${vehicleId}/revisions`, { json: input }),
 		onSuccess: () => qc.invalidateQueries({ queryKey: buildKeys.revisions(vehicleId) }),
 	});
 }
 
 /** The build's current head revision, read fresh (after a conflict). */
-export async function fetchHeadRevision(teamId: string, vehicleId: string): Promise<RevisionDto | null> {
+export async function fetchHeadRevision(
+	teamId: string,
+	vehicleId: string,
+): Promise<RevisionDto | null> {
 	const vehicle = await api<VehicleDto>(`/api/teams/${teamId}/vehicles/${vehicleId}`);
-	return vehicle.headRevisionId ? api<RevisionDto>(`/api/teams/${teamId}/vehicles/${vehicleId}/revisions/${vehicle.headRevisionId}`) : null;
+	return vehicle.headRevisionId
+		? api<RevisionDto>(
+				`/api/teams/${teamId}/vehicles/${vehicleId}/revisions/${vehicle.headRevisionId}`,
+			)
+		: null;
 }
 
 export function useRestoreRevision(teamId: string, vehicleId: string) {
 	const qc = useQueryClient();
 	return useMutation({
-		mutationFn: ({ revisionId, parentId }: { revisionId: string; parentId: string | null }) => api<RevisionDto>(`/api/teams/${teamId}/vehicles/${vehicleId}/revisions/${revisionId}/restore`, { json: { parentId } }),
+		mutationFn: ({ revisionId, parentId }: { revisionId: string; parentId: string | null }) =>
+			api<RevisionDto>(
+				`/api/teams/${teamId}/vehicles/${vehicleId}/revisions/${revisionId}/restore`,
+				{ json: { parentId } },
+			),
 		onSuccess: () => qc.invalidateQueries({ queryKey: buildKeys.revisions(vehicleId) }),
 	});
 }
 
 export function useCreateVehicle(teamId: string) {
-	return useMutation({ mutationFn: (input: NewVehicleInput) => api<VehicleDto>(`/api/teams/${teamId}/vehicles`, { json: input }) });
+	return useMutation({
+		mutationFn: (input: NewVehicleInput) =>
+			api<VehicleDto>(`/api/teams/${teamId}/vehicles`, { json: input }),
+	});
 }
 
 export function useUpdateVehicle(teamId: string, vehicleId: string) {
 	const qc = useQueryClient();
 	return useMutation({
-		mutationFn: (changes: Partial<NewVehicleInput> & { archived?: boolean }) => api<VehicleDto>(`/api/teams/${teamId}/vehicles/${vehicleId}`, { method: 'PATCH', json: changes }),
+		mutationFn: (changes: Partial<NewVehicleInput> & { archived?: boolean }) =>
+			api<VehicleDto>(`/api/teams/${teamId}/vehicles/${vehicleId}`, {
+				method: 'PATCH',
+				json: changes,
+			}),
 		onSuccess: () => qc.invalidateQueries({ queryKey: vehicleKeys.detail(vehicleId) }),
 	});
 }

@@ -6,10 +6,14 @@ import { api } from '@/lib/client/api-client';
 /** Signs an item off (or withdraws the sign-off); answers the whole checklist as it now is. */
 export function useSignOff(teamId: string, eventId: string) {
 	return useMutation({
-		mutationFn: (input: { vehicleId: string; itemKey: string; signed: boolean; note?: string }) => api<Checklist>(`/api/teams/${teamId}/events/${eventId}/checks`, { json: input }),
+		mutationFn: (input: { vehicleId: string; itemKey: string; signed: boolean; note?: string }) =>
+			api<Checklist>(`/api/teams/${teamId}/events/${eventId}/checks`, { json: input }),
 	});
 }
 
 export function useAddCheckItem(teamId: string) {
-	return useMutation({ mutationFn: (label: string) => api<CheckItemDto>(`/api/teams/${teamId}/check-items`, { json: { label } }) });
+	return useMutation({
+		mutationFn: (label: string) =>
+			api<CheckItemDto>(`/api/teams/${teamId}/check-items`, { json: { label } }),
+	});
 }

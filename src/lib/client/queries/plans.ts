@@ -16,49 +16,76 @@ export interface ComparisonDto {
 export const planKeys = {
 	all: ['plans'] as const,
 	list: (vehicleId: string) => [...planKeys.all, vehicleId, 'list'] as const,
-	compare: (vehicleId: string, ids: string[], rpm: number) => [...planKeys.all, vehicleId, 'compare', ids.join(','), rpm] as const,
+	compare: (vehicleId: string, ids: string[], rpm: number) =>
+		[...planKeys.all, vehicleId, 'compare', ids.join(','), rpm] as const,
 };
 
 export const plansQueryOptions = (teamId: string, vehicleId: string) =>
 	queryOptions({
 		queryKey: planKeys.list(vehicleId),
-		queryFn: ({ signal }) => getJson<PlanSummary[]>(`/api/teams/${teamId}/vehicles/${vehicleId}/plans`, { signal }),
+		queryFn: ({ signal }) =>
+			getJson<PlanSummary[]>(`/api/teams/${teamId}/vehicles/${vehicleId}/plans`, { signal }),
 	});
 
-export const compareQueryOptions = (teamId: string, vehicleId: string, ids: string[], engineRpm: number) =>
+export const compareQueryOptions = (
+	teamId: string,
+	vehicleId: string,
+	ids: string[],
+	engineRpm: number,
+) =>
 	queryOptions({
 		queryKey: planKeys.compare(vehicleId, ids, engineRpm),
-		queryFn: ({ signal }) => getJson<ComparisonDto>(`/api/teams/${teamId}/vehicles/${vehicleId}/plans/compare?plans=${ids.join(',')}&engineRpm=${engineRpm}`, { signal }),
+		queryFn: ({ signal }) =>
+			getJson<ComparisonDto>(
+				`/api/teams/${teamId}/vehicles/${vehicleId}/plans/compare?plans=${ids.join(',')}&engineRpm=${engineRpm}`,
+				{ signal },
+			),
 		enabled: ids.length > 0,
 	});
 
 export function useCreatePlan(teamId: string, vehicleId: string) {
-	return useMutation({ mutationFn: (input: { name: string; fromRevisionId?: string }) => api<PlanDto>(`/api/teams/${teamId}/vehicles/${vehicleId}/plans`, { json: input }) });
+	return useMutation({
+		mutationFn: (input: { name: string; fromRevisionId?: string }) =>
+			api<PlanDto>(`/api/teams/${teamId}/vehicles/${vehicleId}/plans`, { json: input }),
+	});
 }
 
 /** Saves a plan on top of `version`; a 409 means someone saved it meanwhile (see `fetchPlan`). */
 export function useSavePlan(teamId: string, vehicleId: string, planId: string) {
 	const qc = useQueryClient();
 	return useMutation({
-		mutationFn: (input: UpdatePlanInput) => api<PlanDto>(`/api/teams/${teamId}/vehicles/${vehicleId}/plans/${planId}`, { method: 'PUT', json: input }),
+		mutationFn: (input: UpdatePlanInput) =>
+			api<PlanDto>(`/api/teams/${teamId}/vehicles/${vehicleId}/plans/${planId}`, {
+				method: 'PUT',
+				json: input,
+			}),
 		onSuccess: () => qc.invalidateQueries({ queryKey: planKeys.all }),
 	});
 }
 
-export const fetchPlan = (teamId: string, vehicleId: string, planId: string) => api<PlanDto>(`/api/teams/${teamId}/vehicles/${vehicleId}/plans/${planId}`);
+export const fetchPlan = (teamId: string, vehicleId: string, planId: string) =>
+	api<PlanDto>(`/api/teams/${teamId}/vehicles/${vehicleId}/plans/${planId}`);
 
 export function useInstallPlan(teamId: string, vehicleId: string) {
 	const qc = useQueryClient();
 	return useMutation({
-		mutationFn: ({ planId, parentId }: { planId: string; parentId: string | null }) => api<RevisionDto>(`/api/teams/${teamId}/vehicles/${vehicleId}/plans/${planId}/install`, { json: { parentId } }),
-		onSuccess: () => Promise.all([qc.invalidateQueries({ queryKey: planKeys.all }), qc.invalidateQueries({ queryKey: buildKeys.revisions(vehicleId) })]),
+		mutationFn: ({ planId, parentId }: { planId: string; parentId: string | null }) =>
+			api<RevisionDto>(`/api/teams/${teamId}/vehicles/${vehicleId}/plans/${planId}/install`, {
+				json: { parentId },
+			}),
+		onSuccess: () =>
+			Promise.all([
+				qc.invalidateQueries({ queryKey: planKeys.all }),
+				qc.invalidateQueries({ queryKey: buildKeys.revisions(vehicleId) }),
+			]),
 	});
 }
 
 export function useDeletePlan(teamId: string, vehicleId: string) {
 	const qc = useQueryClient();
 	return useMutation({
-		mutationFn: (planId: string) => api(`/api/teams/${teamId}/vehicles/${vehicleId}/plans/${planId}`, { method: 'DELETE' }),
+		mutationFn: (planId: string) =>
+			api(`/api/teams/${teamId}/vehicles/${vehicleId}/plans/${planId}`, { method: 'DELETE' }),
 		onSuccess: () => qc.invalidateQueries({ queryKey: planKeys.all }),
 	});
 }

@@ -23,19 +23,37 @@ export const runKeys = {
 };
 
 export const vehicleRunsQueryOptions = (teamId: string, vehicleId: string) =>
-	queryOptions({ queryKey: runKeys.byVehicle(vehicleId), queryFn: ({ signal }) => getJson<RunDto[]>(`/api/teams/${teamId}/runs?vehicleId=${vehicleId}`, { signal }) });
+	queryOptions({
+		queryKey: runKeys.byVehicle(vehicleId),
+		queryFn: ({ signal }) =>
+			getJson<RunDto[]>(`/api/teams/${teamId}/runs?vehicleId=${vehicleId}`, { signal }),
+	});
 
 export const runDetailQueryOptions = (teamId: string, runId: string) =>
-	queryOptions({ queryKey: runKeys.detail(runId), queryFn: ({ signal }) => getJson<RunDetail>(`/api/teams/${teamId}/runs/${runId}`, { signal }) });
+	queryOptions({
+		queryKey: runKeys.detail(runId),
+		queryFn: ({ signal }) => getJson<RunDetail>(`/api/teams/${teamId}/runs/${runId}`, { signal }),
+	});
 
 export const runPhotosQueryOptions = (teamId: string, runId: string) =>
-	queryOptions({ queryKey: runKeys.photos(runId), queryFn: ({ signal }) => getJson<RunPhoto[]>(`/api/teams/${teamId}/runs/${runId}/photos`, { signal }) });
+	queryOptions({
+		queryKey: runKeys.photos(runId),
+		queryFn: ({ signal }) =>
+			getJson<RunPhoto[]>(`/api/teams/${teamId}/runs/${runId}/photos`, { signal }),
+	});
 
 /** The revision a run was made on (for the model beside the measurement). */
-export const runRevisionQueryOptions = (teamId: string, vehicleId: string, revisionId: string | null) =>
+export const runRevisionQueryOptions = (
+	teamId: string,
+	vehicleId: string,
+	revisionId: string | null,
+) =>
 	queryOptions({
 		queryKey: runKeys.revision(revisionId),
-		queryFn: ({ signal }) => getJson<RevisionDto>(`/api/teams/${teamId}/vehicles/${vehicleId}/revisions/${revisionId}`, { signal }),
+		queryFn: ({ signal }) =>
+			getJson<RevisionDto>(`/api/teams/${teamId}/vehicles/${vehicleId}/revisions/${revisionId}`, {
+				signal,
+			}),
 		enabled: Boolean(revisionId),
 		staleTime: Infinity,
 	});
@@ -45,16 +63,28 @@ export interface RevisionChanges {
 }
 
 /** What changed between the revisions of two runs (nothing to ask when they are the same). */
-export function useRevisionDiff(teamId: string, vehicleId: string, from: string | null, to: string | null) {
+export function useRevisionDiff(
+	teamId: string,
+	vehicleId: string,
+	from: string | null,
+	to: string | null,
+) {
 	return useQuery({
 		queryKey: runKeys.diff(from, to),
-		queryFn: ({ signal }) => getJson<RevisionChanges>(`/api/teams/${teamId}/vehicles/${vehicleId}/diff?from=${from}&to=${to}`, { signal }),
+		queryFn: ({ signal }) =>
+			getJson<RevisionChanges>(
+				`/api/teams/${teamId}/vehicles/${vehicleId}/diff?from=${from}&to=${to}`,
+				{ signal },
+			),
 		enabled: Boolean(from && to && from !== to),
 		staleTime: Infinity,
 	});
 }
 
-export type NewRun = Omit<RunDto, 'id' | 'vehicleName' | 'eventName' | 'revisionNumber' | 'hasLogger' | 'revisionId'> & { revisionId?: string | null };
+export type NewRun = Omit<
+	RunDto,
+	'id' | 'vehicleName' | 'eventName' | 'revisionNumber' | 'hasLogger' | 'revisionId'
+> & { revisionId?: string | null };
 
 export function useLogRun(teamId: string, vehicleId: string) {
 	const qc = useQueryClient();
@@ -67,7 +97,8 @@ export function useLogRun(teamId: string, vehicleId: string) {
 export function useUpdateRun(teamId: string, runId: string) {
 	const qc = useQueryClient();
 	return useMutation({
-		mutationFn: (changes: Partial<NewRun>) => api<RunDto>(`/api/teams/${teamId}/runs/${runId}`, { method: 'PATCH', json: changes }),
+		mutationFn: (changes: Partial<NewRun>) =>
+			api<RunDto>(`/api/teams/${teamId}/runs/${runId}`, { method: 'PATCH', json: changes }),
 		onSettled: () => qc.invalidateQueries({ queryKey: runKeys.all }),
 	});
 }
@@ -86,7 +117,10 @@ export function useUploadPhoto(teamId: string, runId: string) {
 		mutationFn: (file: File) => {
 			const form = new FormData();
 			form.set('file', file);
-			return api<{ photoId: string; thumbnailId: string; metadataRemoved: boolean }>(`/api/teams/${teamId}/runs/${runId}/photos`, { form });
+			return api<{ photoId: string; thumbnailId: string; metadataRemoved: boolean }>(
+				`/api/teams/${teamId}/runs/${runId}/photos`,
+				{ form },
+			);
 		},
 		onSettled: () => qc.invalidateQueries({ queryKey: runKeys.photos(runId) }),
 	});
@@ -106,9 +140,15 @@ export function useUploadLogger(teamId: string, vehicleId: string) {
 			const form = new FormData();
 			form.set('file', file);
 			for (const [k, v] of Object.entries(mapping)) form.set(k, v);
-			return api<{ samples: number; analysis: RunAnalysis }>(`/api/teams/${teamId}/runs/${runId}/logger`, { form, onUploadProgress: onProgress });
+			return api<{ samples: number; analysis: RunAnalysis }>(
+				`/api/teams/${teamId}/runs/${runId}/logger`,
+				{ form, onUploadProgress: onProgress },
+			);
 		},
 		onSettled: (_data, _error, { runId }) =>
-			Promise.all([qc.invalidateQueries({ queryKey: runKeys.byVehicle(vehicleId) }), qc.invalidateQueries({ queryKey: runKeys.detail(runId) })]),
+			Promise.all([
+				qc.invalidateQueries({ queryKey: runKeys.byVehicle(vehicleId) }),
+				qc.invalidateQueries({ queryKey: runKeys.detail(runId) }),
+			]),
 	});
 }

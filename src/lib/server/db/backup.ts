@@ -11,11 +11,28 @@ type Db = Kysely<Database>;
  * a fixed order so that equal teams read equally.
  */
 export async function readTeamForBackup(db: Db, teamId: string) {
-	const team = await db.selectFrom('team').selectAll().where('id', '=', teamId).executeTakeFirstOrThrow();
+	const team = await db
+		.selectFrom('team')
+		.selectAll()
+		.where('id', '=', teamId)
+		.executeTakeFirstOrThrow();
 	const [users, members, items, vehicles, events] = await Promise.all([
 		db.selectFrom('User').select(['id', 'email']).execute(),
-		db.selectFrom('membership as m').innerJoin('User as u', 'u.id', 'm.user_id').select(['u.email', 'u.name', 'm.role']).where('m.team_id', '=', teamId).orderBy('u.email').execute(),
-		db.selectFrom('check_item').selectAll().where('team_id', '=', teamId).orderBy('created_at').orderBy('label').orderBy('id').execute(),
+		db
+			.selectFrom('membership as m')
+			.innerJoin('User as u', 'u.id', 'm.user_id')
+			.select(['u.email', 'u.name', 'm.role'])
+			.where('m.team_id', '=', teamId)
+			.orderBy('u.email')
+			.execute(),
+		db
+			.selectFrom('check_item')
+			.selectAll()
+			.where('team_id', '=', teamId)
+			.orderBy('created_at')
+			.orderBy('label')
+			.orderBy('id')
+			.execute(),
 		db
 			.selectFrom('vehicle as v')
 			.innerJoin('build as b', 'b.vehicle_id', 'v.id')
@@ -26,25 +43,113 @@ export async function readTeamForBackup(db: Db, teamId: string) {
 			.orderBy('v.name')
 			.orderBy('v.id')
 			.execute(),
-		db.selectFrom('event').selectAll().where('team_id', '=', teamId).orderBy('starts_on').orderBy('name').orderBy('created_at').orderBy('id').execute(),
+		db
+			.selectFrom('event')
+			.selectAll()
+			.where('team_id', '=', teamId)
+			.orderBy('starts_on')
+			.orderBy('name')
+			.orderBy('created_at')
+			.orderBy('id')
+			.execute(),
 	]);
 	const buildIds = vehicles.map((v) => v.build_id);
 	const vehicleIds = vehicles.map((v) => v.id);
 	const [revisions, plans, runs, signoffs] = await Promise.all([
-		buildIds.length ? db.selectFrom('revision').selectAll().where('build_id', 'in', buildIds).orderBy('build_id').orderBy('number').execute() : [],
-		vehicleIds.length ? db.selectFrom('plan').selectAll().where('vehicle_id', 'in', vehicleIds).orderBy('created_at').orderBy('name').orderBy('id').execute() : [],
-		vehicleIds.length ? db.selectFrom('run').selectAll().where('vehicle_id', 'in', vehicleIds).orderBy('ran_at').orderBy('created_at').orderBy('id').execute() : [],
-		events.length ? db.selectFrom('check_signoff').selectAll().where('event_id', 'in', events.map((e) => e.id)).orderBy('signed_at').orderBy('item_key').execute() : [],
+		buildIds.length
+			? db
+					.selectFrom('revision')
+					.selectAll()
+					.where('build_id', 'in', buildIds)
+					.orderBy('build_id')
+					.orderBy('number')
+					.execute()
+			: [],
+		vehicleIds.length
+			? db
+					.selectFrom('plan')
+					.selectAll()
+					.where('vehicle_id', 'in', vehicleIds)
+					.orderBy('created_at')
+					.orderBy('name')
+					.orderBy('id')
+					.execute()
+			: [],
+		vehicleIds.length
+			? db
+					.selectFrom('run')
+					.selectAll()
+					.where('vehicle_id', 'in', vehicleIds)
+					.orderBy('ran_at')
+					.orderBy('created_at')
+					.orderBy('id')
+					.execute()
+			: [],
+		events.length
+			? db
+					.selectFrom('check_signoff')
+					.selectAll()
+					.where(
+						'event_id',
+						'in',
+						events.map((e) => e.id),
+					)
+					.orderBy('signed_at')
+					.orderBy('item_key')
+					.execute()
+			: [],
 	]);
 	const runIds = runs.map((r) => r.id);
 	const [parts, samples, files] = await Promise.all([
-		plans.length ? db.selectFrom('plan_part').selectAll().where('plan_id', 'in', plans.map((p) => p.id)).orderBy('position').execute() : [],
-		runIds.length ? db.selectFrom('run_sample').select(['run_id', 't_s', 'volts', 'amps']).where('run_id', 'in', runIds).orderBy('run_id').orderBy('seq').execute() : [],
-		runIds.length ? db.selectFrom('stored_file').selectAll().where('run_id', 'in', runIds).orderBy('created_at').orderBy('kind').orderBy('object_key').execute() : [],
+		plans.length
+			? db
+					.selectFrom('plan_part')
+					.selectAll()
+					.where(
+						'plan_id',
+						'in',
+						plans.map((p) => p.id),
+					)
+					.orderBy('position')
+					.execute()
+			: [],
+		runIds.length
+			? db
+					.selectFrom('run_sample')
+					.select(['run_id', 't_s', 'volts', 'amps'])
+					.where('run_id', 'in', runIds)
+					.orderBy('run_id')
+					.orderBy('seq')
+					.execute()
+			: [],
+		runIds.length
+			? db
+					.selectFrom('stored_file')
+					.selectAll()
+					.where('run_id', 'in', runIds)
+					.orderBy('created_at')
+					.orderBy('kind')
+					.orderBy('object_key')
+					.execute()
+			: [],
 	]);
 	const samplesByRun = groupBy(samples, (s) => s.run_id);
 	const filesByRun = groupBy(files, (f) => f.run_id!);
-	return { team, emails: new Map(users.map((u) => [u.id, u.email])), members, items, vehicles, events, revisions, plans, parts, runs, samplesByRun, filesByRun, signoffs };
+	return {
+		team,
+		emails: new Map(users.map((u) => [u.id, u.email])),
+		members,
+		items,
+		vehicles,
+		events,
+		revisions,
+		plans,
+		parts,
+		runs,
+		samplesByRun,
+		filesByRun,
+		signoffs,
+	};
 }
 
 function groupBy<T>(rows: T[], key: (row: T) => string): Map<string, T[]> {
@@ -72,7 +177,12 @@ export interface ImportedFile {
 }
 
 /** Puts one file in storage and answers its object key; `photoBase` pairs a run's thumbnails with their photos. */
-export type StoreImportedFile = (teamId: string, runId: string, file: ImportedFile, photoBase: Map<number, string>) => Promise<string>;
+export type StoreImportedFile = (
+	teamId: string,
+	runId: string,
+	file: ImportedFile,
+	photoBase: Map<number, string>,
+) => Promise<string>;
 
 /**
  * Writes a parsed backup as a new team, in one transaction. The importer becomes captain and the
@@ -82,7 +192,12 @@ export type StoreImportedFile = (teamId: string, runId: string, file: ImportedFi
 export async function insertTeamFromBackup(
 	db: Db,
 	t: TeamBackupContent,
-	p: { importer: { id: string; email: string }; name: string | undefined; files: ImportedFile[][]; invitationTokenHash: () => string },
+	p: {
+		importer: { id: string; email: string };
+		name: string | undefined;
+		files: ImportedFile[][];
+		invitationTokenHash: () => string;
+	},
 	storeFile: StoreImportedFile,
 ): Promise<Omit<ImportSummary, 'photosCleaned'>> {
 	const importerEmail = p.importer.email.toLowerCase();
@@ -93,20 +208,40 @@ export async function insertTeamFromBackup(
 	return db.transaction().execute(async (trx) => {
 		const team = await trx
 			.insertInto('team')
-			.values({ name: p.name ?? t.name, reminder_days: t.reminderDays, fuse_distance_m: t.fuseDistanceM, currency: t.currency, created_at: t.createdAt })
+			.values({
+				name: p.name ?? t.name,
+				reminder_days: t.reminderDays,
+				fuse_distance_m: t.fuseDistanceM,
+				currency: t.currency,
+				created_at: t.createdAt,
+			})
 			.returning(['id', 'name'])
 			.executeTakeFirstOrThrow();
-		await trx.insertInto('membership').values({ team_id: team.id, user_id: p.importer.id, role: 'captain' }).execute();
+		await trx
+			.insertInto('membership')
+			.values({ team_id: team.id, user_id: p.importer.id, role: 'captain' })
+			.execute();
 		for (const [email, role] of roles) {
 			await trx
 				.insertInto('invitation')
-				.values({ team_id: team.id, email, role, token_hash: p.invitationTokenHash(), invited_by: p.importer.id, expires_at: new Date(Date.now() + 7 * 86_400_000) })
+				.values({
+					team_id: team.id,
+					email,
+					role,
+					token_hash: p.invitationTokenHash(),
+					invited_by: p.importer.id,
+					expires_at: new Date(Date.now() + 7 * 86_400_000),
+				})
 				.execute();
 		}
 
 		const itemIds = new Map<string, string>();
 		for (const it of t.checkItems) {
-			const row = await trx.insertInto('check_item').values({ team_id: team.id, label: it.label, created_at: it.createdAt }).returning('id').executeTakeFirstOrThrow();
+			const row = await trx
+				.insertInto('check_item')
+				.values({ team_id: team.id, label: it.label, created_at: it.createdAt })
+				.returning('id')
+				.executeTakeFirstOrThrow();
 			itemIds.set(`manual:${it.key}`, `manual:${row.id}`);
 		}
 
@@ -117,11 +252,25 @@ export async function insertTeamFromBackup(
 		for (const v of t.vehicles) {
 			const vehicle = await trx
 				.insertInto('vehicle')
-				.values({ team_id: team.id, name: v.name, description: v.description, competition_class: v.competitionClass, notes: v.notes, archived_at: v.archivedAt, owner_id: null, imported_by: recorded(v.ownerEmail), created_at: v.createdAt })
+				.values({
+					team_id: team.id,
+					name: v.name,
+					description: v.description,
+					competition_class: v.competitionClass,
+					notes: v.notes,
+					archived_at: v.archivedAt,
+					owner_id: null,
+					imported_by: recorded(v.ownerEmail),
+					created_at: v.createdAt,
+				})
 				.returning('id')
 				.executeTakeFirstOrThrow();
 			vehicleIds.set(v.key, vehicle.id);
-			const build = await trx.insertInto('build').values({ vehicle_id: vehicle.id }).returning('id').executeTakeFirstOrThrow();
+			const build = await trx
+				.insertInto('build')
+				.values({ vehicle_id: vehicle.id })
+				.returning('id')
+				.executeTakeFirstOrThrow();
 			const rev = (n: number | null) => (n === null ? null : revisionIds.get(`${v.key}#${n}`)!);
 			// Parents and restore sources always have lower numbers, so number order resolves them.
 			for (const r of [...v.revisions].sort((a, b) => a.number - b.number)) {
@@ -144,7 +293,11 @@ export async function insertTeamFromBackup(
 				revisionIds.set(`${v.key}#${r.number}`, row.id);
 				revisions++;
 			}
-			await trx.updateTable('build').set({ head_revision_id: rev(v.headRevision) }).where('id', '=', build.id).execute();
+			await trx
+				.updateTable('build')
+				.set({ head_revision_id: rev(v.headRevision) })
+				.where('id', '=', build.id)
+				.execute();
 			for (const plan of v.plans) {
 				const row = await trx
 					.insertInto('plan')
@@ -168,7 +321,16 @@ export async function insertTeamFromBackup(
 				if (plan.parts.length) {
 					await trx
 						.insertInto('plan_part')
-						.values(plan.parts.map((x, position) => ({ plan_id: row.id, position, item: x.item, quantity: x.quantity, unit_price_minor: x.unitPriceMinor, link: x.link })))
+						.values(
+							plan.parts.map((x, position) => ({
+								plan_id: row.id,
+								position,
+								item: x.item,
+								quantity: x.quantity,
+								unit_price_minor: x.unitPriceMinor,
+								link: x.link,
+							})),
+						)
 						.execute();
 				}
 				plans++;
@@ -179,7 +341,16 @@ export async function insertTeamFromBackup(
 		for (const e of t.events) {
 			const row = await trx
 				.insertInto('event')
-				.values({ team_id: team.id, name: e.name, starts_on: e.startsOn, ends_on: e.endsOn, place: e.place, format: e.format, notes: e.notes, created_at: e.createdAt })
+				.values({
+					team_id: team.id,
+					name: e.name,
+					starts_on: e.startsOn,
+					ends_on: e.endsOn,
+					place: e.place,
+					format: e.format,
+					notes: e.notes,
+					created_at: e.createdAt,
+				})
 				.returning('id')
 				.executeTakeFirstOrThrow();
 			eventIds.set(e.key, row.id);
@@ -204,17 +375,36 @@ export async function insertTeamFromBackup(
 			for (let k = 0; k < r.samples.length; k += 5000) {
 				await trx
 					.insertInto('run_sample')
-					.values(r.samples.slice(k, k + 5000).map(([tS, volts, amps], j) => ({ run_id: run.id, seq: k + j, t_s: tS, volts, amps })))
+					.values(
+						r.samples.slice(k, k + 5000).map(([tS, volts, amps], j) => ({
+							run_id: run.id,
+							seq: k + j,
+							t_s: tS,
+							volts,
+							amps,
+						})),
+					)
 					.execute();
 			}
 			// Photos first, so each thumbnail takes its photo's new name.
-			const runFiles = [...(p.files[i] ?? [])].sort((a, b) => Number(a.kind === 'thumbnail') - Number(b.kind === 'thumbnail'));
+			const runFiles = [...(p.files[i] ?? [])].sort(
+				(a, b) => Number(a.kind === 'thumbnail') - Number(b.kind === 'thumbnail'),
+			);
 			const photoBase = new Map<number, string>();
 			for (const f of runFiles) {
 				const objectKey = await storeFile(team.id, run.id, f, photoBase);
 				await trx
 					.insertInto('stored_file')
-					.values({ team_id: team.id, run_id: run.id, kind: f.kind, object_key: objectKey, file_name: f.fileName, content_type: f.contentType, size_bytes: f.bytes.byteLength, created_at: f.createdAt })
+					.values({
+						team_id: team.id,
+						run_id: run.id,
+						kind: f.kind,
+						object_key: objectKey,
+						file_name: f.fileName,
+						content_type: f.contentType,
+						size_bytes: f.bytes.byteLength,
+						created_at: f.createdAt,
+					})
 					.execute();
 				files++;
 			}
@@ -223,9 +413,28 @@ export async function insertTeamFromBackup(
 		for (const s of t.signoffs) {
 			await trx
 				.insertInto('check_signoff')
-				.values({ event_id: eventIds.get(s.event)!, vehicle_id: vehicleIds.get(s.vehicle)!, item_key: itemIds.get(s.item) ?? s.item, signed_by: null, imported_by: recorded(s.signedByEmail), signed_at: s.signedAt, note: s.note })
+				.values({
+					event_id: eventIds.get(s.event)!,
+					vehicle_id: vehicleIds.get(s.vehicle)!,
+					item_key: itemIds.get(s.item) ?? s.item,
+					signed_by: null,
+					imported_by: recorded(s.signedByEmail),
+					signed_at: s.signedAt,
+					note: s.note,
+				})
 				.execute();
 		}
-		return { teamId: team.id, name: team.name, members: 1, invitations: roles.size, vehicles: t.vehicles.length, revisions, plans, events: t.events.length, runs: t.runs.length, files };
+		return {
+			teamId: team.id,
+			name: team.name,
+			members: 1,
+			invitations: roles.size,
+			vehicles: t.vehicles.length,
+			revisions,
+			plans,
+			events: t.events.length,
+			runs: t.runs.length,
+			files,
+		};
 	});
 }

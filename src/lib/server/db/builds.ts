@@ -9,35 +9,85 @@ export function findBuildForVehicle(db: Db, vehicleId: string) {
 	return db.selectFrom('build').selectAll().where('vehicle_id', '=', vehicleId).executeTakeFirst();
 }
 
-const summaryColumns = ['r.id', 'r.number', 'r.parent_id', 'r.message', 'r.created_at', 'r.schema_version', 'u.name as author_name', 'r.imported_by', 'src.number as restored_number'] as const;
+const summaryColumns = [
+	'r.id',
+	'r.number',
+	'r.parent_id',
+	'r.message',
+	'r.created_at',
+	'r.schema_version',
+	'u.name as author_name',
+	'r.imported_by',
+	'src.number as restored_number',
+] as const;
 
 /** A live account's name, or the name a restored backup recorded (never mistaken for a live account). */
-export const shownAuthor = (name: string | null, importedBy: string | null): string | null => name ?? (importedBy ? `imported: ${importedBy}` : null);
+export const shownAuthor = (name: string | null, importedBy: string | null): string | null =>
+	name ?? (importedBy ? `imported: ${importedBy}` : null);
 
 function baseRevisionQuery(db: Db) {
-	return db.selectFrom('revision as r').leftJoin('User as u', 'u.id', 'r.author_id').leftJoin('revision as src', 'src.id', 'r.restored_from_id');
+	return db
+		.selectFrom('revision as r')
+		.leftJoin('User as u', 'u.id', 'r.author_id')
+		.leftJoin('revision as src', 'src.id', 'r.restored_from_id');
 }
 
-function toSummary(r: { id: string; number: number; parent_id: string | null; message: string; created_at: Date; author_name: string | null; imported_by: string | null; restored_number: number | null }): RevisionSummary {
-	return { id: r.id, number: r.number, parentId: r.parent_id, message: r.message, authorName: shownAuthor(r.author_name, r.imported_by), createdAt: r.created_at.toISOString(), restoredFromNumber: r.restored_number };
+function toSummary(r: {
+	id: string;
+	number: number;
+	parent_id: string | null;
+	message: string;
+	created_at: Date;
+	author_name: string | null;
+	imported_by: string | null;
+	restored_number: number | null;
+}): RevisionSummary {
+	return {
+		id: r.id,
+		number: r.number,
+		parentId: r.parent_id,
+		message: r.message,
+		authorName: shownAuthor(r.author_name, r.imported_by),
+		createdAt: r.created_at.toISOString(),
+		restoredFromNumber: r.restored_number,
+	};
 }
 
 export async function listRevisions(db: Db, buildId: string): Promise<RevisionSummary[]> {
-	const rows = await baseRevisionQuery(db).select(summaryColumns).where('r.build_id', '=', buildId).orderBy('r.number', 'desc').execute();
+	const rows = await baseRevisionQuery(db)
+		.select(summaryColumns)
+		.where('r.build_id', '=', buildId)
+		.orderBy('r.number', 'desc')
+		.execute();
 	return rows.map(toSummary);
 }
 
-export async function findRevision(db: Db, buildId: string, revisionId: string): Promise<RevisionDto | undefined> {
-	const r = await baseRevisionQuery(db).select([...summaryColumns, 'r.document']).where('r.build_id', '=', buildId).where('r.id', '=', revisionId).executeTakeFirst();
-	return r && { ...toSummary(r), schemaVersion: r.schema_version, document: r.document as BuildDocument };
+export async function findRevision(
+	db: Db,
+	buildId: string,
+	revisionId: string,
+): Promise<RevisionDto | undefined> {
+	const r = await baseRevisionQuery(db)
+		.select([...summaryColumns, 'r.document'])
+		.where('r.build_id', '=', buildId)
+		.where('r.id', '=', revisionId)
+		.executeTakeFirst();
+	return (
+		r && { ...toSummary(r), schemaVersion: r.schema_version, document: r.document as BuildDocument }
+	);
 }
 
 export async function findHeadRevision(db: Db, buildId: string): Promise<RevisionDto | undefined> {
-	const build = await db.selectFrom('build').select('head_revision_id').where('id', '=', buildId).executeTakeFirst();
+	const build = await db
+		.selectFrom('build')
+		.select('head_revision_id')
+		.where('id', '=', buildId)
+		.executeTakeFirst();
 	return build?.head_revision_id ? findRevision(db, buildId, build.head_revision_id) : undefined;
 }
 
-export type SaveResult = { ok: true; revision: RevisionRow } | { ok: false; reason: 'stale'; headId: string | null };
+export type SaveResult =
+	{ ok: true; revision: RevisionRow } | { ok: false; reason: 'stale'; headId: string | null };
 
 /**
  * Appends a revision to a build's chain in one transaction. The build row is locked, and the save
@@ -46,14 +96,31 @@ export type SaveResult = { ok: true; revision: RevisionRow } | { ok: false; reas
  */
 export async function appendRevision(
 	db: Db,
-	p: { buildId: string; parentId: string | null; document: BuildDocument; message: string; authorId: string; restoredFromId?: string | null },
+	p: {
+		buildId: string;
+		parentId: string | null;
+		document: BuildDocument;
+		message: string;
+		authorId: string;
+		restoredFromId?: string | null;
+	},
 	/** Further writes that belong with the new revision (same transaction). */
 	after?: (trx: Db, revision: RevisionRow) => Promise<void>,
 ): Promise<SaveResult> {
 	return db.transaction().execute(async (trx): Promise<SaveResult> => {
-		const build = await trx.selectFrom('build').select(['id', 'head_revision_id']).where('id', '=', p.buildId).forUpdate().executeTakeFirstOrThrow();
-		if (build.head_revision_id !== p.parentId) return { ok: false, reason: 'stale', headId: build.head_revision_id };
-		const last = await trx.selectFrom('revision').select((eb) => eb.fn.max('number').as('n')).where('build_id', '=', p.buildId).executeTakeFirst();
+		const build = await trx
+			.selectFrom('build')
+			.select(['id', 'head_revision_id'])
+			.where('id', '=', p.buildId)
+			.forUpdate()
+			.executeTakeFirstOrThrow();
+		if (build.head_revision_id !== p.parentId)
+			return { ok: false, reason: 'stale', headId: build.head_revision_id };
+		const last = await trx
+			.selectFrom('revision')
+			.select((eb) => eb.fn.max('number').as('n'))
+			.where('build_id', '=', p.buildId)
+			.executeTakeFirst();
 		const revision = await trx
 			.insertInto('revision')
 			.values({
@@ -68,7 +135,11 @@ export async function appendRevision(
 			})
 			.returningAll()
 			.executeTakeFirstOrThrow();
-		await trx.updateTable('build').set({ head_revision_id: revision.id }).where('id', '=', p.buildId).execute();
+		await trx
+			.updateTable('build')
+			.set({ head_revision_id: revision.id })
+			.where('id', '=', p.buildId)
+			.execute();
 		if (after) await after(trx, revision);
 		return { ok: true, revision };
 	});
@@ -88,13 +159,31 @@ export async function revisionInForce(db: Db, vehicleId: string, at: Date): Prom
 	return row?.id ?? null;
 }
 
-export async function revisionBelongsTo(db: Db, vehicleId: string, revisionId: string): Promise<boolean> {
-	const row = await db.selectFrom('revision as r').innerJoin('build as b', 'b.id', 'r.build_id').select('r.id').where('b.vehicle_id', '=', vehicleId).where('r.id', '=', revisionId).executeTakeFirst();
+export async function revisionBelongsTo(
+	db: Db,
+	vehicleId: string,
+	revisionId: string,
+): Promise<boolean> {
+	const row = await db
+		.selectFrom('revision as r')
+		.innerJoin('build as b', 'b.id', 'r.build_id')
+		.select('r.id')
+		.where('b.vehicle_id', '=', vehicleId)
+		.where('r.id', '=', revisionId)
+		.executeTakeFirst();
 	return Boolean(row);
 }
 
 /** Every revision of a build with its document, newest first, in one query (the history page). */
 export async function listRevisionsWithDocuments(db: Db, buildId: string): Promise<RevisionDto[]> {
-	const rows = await baseRevisionQuery(db).select([...summaryColumns, 'r.document']).where('r.build_id', '=', buildId).orderBy('r.number', 'desc').execute();
-	return rows.map((r) => ({ ...toSummary(r), schemaVersion: r.schema_version, document: r.document as BuildDocument }));
+	const rows = await baseRevisionQuery(db)
+		.select([...summaryColumns, 'r.document'])
+		.where('r.build_id', '=', buildId)
+		.orderBy('r.number', 'desc')
+		.execute();
+	return rows.map((r) => ({
+		...toSummary(r),
+		schemaVersion: r.schema_version,
+		document: r.document as BuildDocument,
+	}));
 }

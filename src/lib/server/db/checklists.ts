@@ -6,11 +6,20 @@ type Db = Kysely<Database>;
 
 /** The team's manual check items, oldest first. */
 export function findCheckItems(db: Db, teamId: string): Promise<CheckItemDto[]> {
-	return db.selectFrom('check_item').select(['id', 'label']).where('team_id', '=', teamId).orderBy('created_at').execute();
+	return db
+		.selectFrom('check_item')
+		.select(['id', 'label'])
+		.where('team_id', '=', teamId)
+		.orderBy('created_at')
+		.execute();
 }
 
 export function insertCheckItem(db: Db, teamId: string, label: string): Promise<CheckItemDto> {
-	return db.insertInto('check_item').values({ team_id: teamId, label }).returning(['id', 'label']).executeTakeFirstOrThrow();
+	return db
+		.insertInto('check_item')
+		.values({ team_id: teamId, label })
+		.returning(['id', 'label'])
+		.executeTakeFirstOrThrow();
 }
 
 /** A vehicle of the team with its build's id (what a checklist is computed from). */
@@ -36,14 +45,35 @@ export function findSignoffs(db: Db, eventId: string, vehicleId: string) {
 }
 
 /** Signs an item off (again: the newest sign-off replaces the older one). */
-export async function upsertSignoff(db: Db, s: { eventId: string; vehicleId: string; itemKey: string; signedBy: string; note: string }): Promise<void> {
+export async function upsertSignoff(
+	db: Db,
+	s: { eventId: string; vehicleId: string; itemKey: string; signedBy: string; note: string },
+): Promise<void> {
 	await db
 		.insertInto('check_signoff')
-		.values({ event_id: s.eventId, vehicle_id: s.vehicleId, item_key: s.itemKey, signed_by: s.signedBy, note: s.note })
-		.onConflict((oc) => oc.columns(['event_id', 'vehicle_id', 'item_key']).doUpdateSet({ signed_by: s.signedBy, signed_at: new Date(), note: s.note }))
+		.values({
+			event_id: s.eventId,
+			vehicle_id: s.vehicleId,
+			item_key: s.itemKey,
+			signed_by: s.signedBy,
+			note: s.note,
+		})
+		.onConflict((oc) =>
+			oc
+				.columns(['event_id', 'vehicle_id', 'item_key'])
+				.doUpdateSet({ signed_by: s.signedBy, signed_at: new Date(), note: s.note }),
+		)
 		.execute();
 }
 
-export async function removeSignoff(db: Db, s: { eventId: string; vehicleId: string; itemKey: string }): Promise<void> {
-	await db.deleteFrom('check_signoff').where('event_id', '=', s.eventId).where('vehicle_id', '=', s.vehicleId).where('item_key', '=', s.itemKey).execute();
+export async function removeSignoff(
+	db: Db,
+	s: { eventId: string; vehicleId: string; itemKey: string },
+): Promise<void> {
+	await db
+		.deleteFrom('check_signoff')
+		.where('event_id', '=', s.eventId)
+		.where('vehicle_id', '=', s.vehicleId)
+		.where('item_key', '=', s.itemKey)
+		.execute();
 }

@@ -30,6 +30,8 @@ export function createDb(connectionString: string, max = 10): Kysely<Database> {
 
 /** The server's version, read in one round trip (the health check). */
 export async function serverVersion(db: Kysely<Database>): Promise<string> {
-	const { rows } = await sql<{ version: string }>`select current_setting('server_version') as version`.execute(db);
+	const { rows } = await sql<{
+		version: string;
+	}>`select current_setting('server_version') as version`.execute(db);
 	return rows[0]?.version ?? '';
 }

@@ -1,7 +1,13 @@
 import { type Kysely, sql } from 'kysely';
 import type { Database } from '@/lib/server/db/schema';
 import type { BuildDocument } from '@/engine';
-import type { PlanDto, PlanPart, PlanPartInput, PlanSummary, UpdatePlanInput } from '@/lib/schemas/plans';
+import type {
+	PlanDto,
+	PlanPart,
+	PlanPartInput,
+	PlanSummary,
+	UpdatePlanInput,
+} from '@/lib/schemas/plans';
 import { appendRevision, type SaveResult, shownAuthor } from './builds';
 
 type Db = Kysely<Database>;
@@ -35,7 +41,11 @@ function planQuery(db: Db) {
 			'p.imported_by',
 		])
 		.select((eb) => [
-			eb.selectFrom('plan_part as pp').whereRef('pp.plan_id', '=', 'p.id').select((e) => e.fn.countAll<string>().as('c')).as('part_count'),
+			eb
+				.selectFrom('plan_part as pp')
+				.whereRef('pp.plan_id', '=', 'p.id')
+				.select((e) => e.fn.countAll<string>().as('c'))
+				.as('part_count'),
 			eb
 				.selectFrom('plan_part as pp')
 				.whereRef('pp.plan_id', '=', 'p.id')
@@ -64,19 +74,41 @@ function toSummary(r: PlanRow): PlanSummary {
 }
 
 export async function listPlans(db: Db, vehicleId: string): Promise<PlanSummary[]> {
-	const rows = await planQuery(db).where('p.vehicle_id', '=', vehicleId).orderBy('p.created_at').orderBy('p.id').execute();
+	const rows = await planQuery(db)
+		.where('p.vehicle_id', '=', vehicleId)
+		.orderBy('p.created_at')
+		.orderBy('p.id')
+		.execute();
 	return rows.map(toSummary);
 }
 
-export async function findPlan(db: Db, vehicleId: string, planId: string): Promise<PlanDto | undefined> {
-	const row = await planQuery(db).select('p.document').where('p.vehicle_id', '=', vehicleId).where('p.id', '=', planId).executeTakeFirst();
+export async function findPlan(
+	db: Db,
+	vehicleId: string,
+	planId: string,
+): Promise<PlanDto | undefined> {
+	const row = await planQuery(db)
+		.select('p.document')
+		.where('p.vehicle_id', '=', vehicleId)
+		.where('p.id', '=', planId)
+		.executeTakeFirst();
 	if (!row) return undefined;
-	const parts = await db.selectFrom('plan_part').selectAll().where('plan_id', '=', planId).orderBy('position').execute();
+	const parts = await db
+		.selectFrom('plan_part')
+		.selectAll()
+		.where('plan_id', '=', planId)
+		.orderBy('position')
+		.execute();
 	return {
 		...toSummary(row),
 		version: row.version,
 		document: row.document as BuildDocument,
-		parts: parts.map((p) => ({ item: p.item, quantity: p.quantity, unitPrice: fromMinor(p.unit_price_minor), link: p.link })),
+		parts: parts.map((p) => ({
+			item: p.item,
+			quantity: p.quantity,
+			unitPrice: fromMinor(p.unit_price_minor),
+			link: p.link,
+		})),
 	};
 }
 
@@ -85,7 +117,16 @@ async function writeParts(trx: Db, planId: string, parts: PlanPartInput[]) {
 	if (parts.length) {
 		await trx
 			.insertInto('plan_part')
-			.values(parts.map((p, position) => ({ plan_id: planId, position, item: p.item, quantity: p.quantity, unit_price_minor: toMinor(p.unitPrice), link: p.link })))
+			.values(
+				parts.map((p, position) => ({
+					plan_id: planId,
+					position,
+					item: p.item,
+					quantity: p.quantity,
+					unit_price_minor: toMinor(p.unitPrice),
+					link: p.link,
+				})),
+			)
 			.execute();
 	}
 }
@@ -93,7 +134,15 @@ async function writeParts(trx: Db, planId: string, parts: PlanPartInput[]) {
 /** Creates a plan with its parts, in one transaction. */
 export async function insertPlan(
 	db: Db,
-	p: { vehicleId: string; name: string; notes: string; baseRevisionId: string | null; document: BuildDocument; createdBy: string | null; parts?: PlanPartInput[] },
+	p: {
+		vehicleId: string;
+		name: string;
+		notes: string;
+		baseRevisionId: string | null;
+		document: BuildDocument;
+		createdBy: string | null;
+		parts?: PlanPartInput[];
+	},
 ): Promise<string> {
 	return db.transaction().execute(async (trx) => {
 		const row = await trx
@@ -114,17 +163,36 @@ export async function insertPlan(
 	});
 }
 
-export type UpdatePlanResult = { ok: true } | { ok: false; reason: 'missing' } | { ok: false; reason: 'stale'; version: number };
+export type UpdatePlanResult =
+	{ ok: true } | { ok: false; reason: 'missing' } | { ok: false; reason: 'stale'; version: number };
 
 /** Replaces a plan's name, notes, document and parts in one transaction, when `version` is current. */
-export async function updatePlan(db: Db, vehicleId: string, planId: string, input: UpdatePlanInput): Promise<UpdatePlanResult> {
+export async function updatePlan(
+	db: Db,
+	vehicleId: string,
+	planId: string,
+	input: UpdatePlanInput,
+): Promise<UpdatePlanResult> {
 	return db.transaction().execute(async (trx): Promise<UpdatePlanResult> => {
-		const row = await trx.selectFrom('plan').select(['id', 'version']).where('id', '=', planId).where('vehicle_id', '=', vehicleId).forUpdate().executeTakeFirst();
+		const row = await trx
+			.selectFrom('plan')
+			.select(['id', 'version'])
+			.where('id', '=', planId)
+			.where('vehicle_id', '=', vehicleId)
+			.forUpdate()
+			.executeTakeFirst();
 		if (!row) return { ok: false, reason: 'missing' };
 		if (row.version !== input.version) return { ok: false, reason: 'stale', version: row.version };
 		await trx
 			.updateTable('plan')
-			.set({ name: input.name, notes: input.notes, document: JSON.stringify(input.document), schema_version: input.document.schemaVersion, version: row.version + 1, updated_at: new Date() })
+			.set({
+				name: input.name,
+				notes: input.notes,
+				document: JSON.stringify(input.document),
+				schema_version: input.document.schemaVersion,
+				version: row.version + 1,
+				updated_at: new Date(),
+			})
 			.where('id', '=', planId)
 			.execute();
 		await writeParts(trx, planId, input.parts);
@@ -133,7 +201,11 @@ export async function updatePlan(db: Db, vehicleId: string, planId: string, inpu
 }
 
 export async function deletePlan(db: Db, vehicleId: string, planId: string): Promise<boolean> {
-	const r = await db.deleteFrom('plan').where('id', '=', planId).where('vehicle_id', '=', vehicleId).executeTakeFirst();
+	const r = await db
+		.deleteFrom('plan')
+		.where('id', '=', planId)
+		.where('vehicle_id', '=', vehicleId)
+		.executeTakeFirst();
 	return Number(r.numDeletedRows) > 0;
 }
 
@@ -141,14 +213,46 @@ export async function deletePlan(db: Db, vehicleId: string, planId: string): Pro
  * Installs a plan: its document becomes a new revision on top of `parentId` (still the head, or
  * the save is stale), and the plan records which revision it became — one transaction.
  */
-export function installPlan(db: Db, p: { buildId: string; planId: string; parentId: string | null; document: BuildDocument; message: string; authorId: string }): Promise<SaveResult> {
-	return appendRevision(db, { buildId: p.buildId, parentId: p.parentId, document: p.document, message: p.message, authorId: p.authorId }, async (trx, revision) => {
-		await trx.updateTable('plan').set({ installed_revision_id: revision.id, installed_at: new Date() }).where('id', '=', p.planId).execute();
-	});
+export function installPlan(
+	db: Db,
+	p: {
+		buildId: string;
+		planId: string;
+		parentId: string | null;
+		document: BuildDocument;
+		message: string;
+		authorId: string;
+	},
+): Promise<SaveResult> {
+	return appendRevision(
+		db,
+		{
+			buildId: p.buildId,
+			parentId: p.parentId,
+			document: p.document,
+			message: p.message,
+			authorId: p.authorId,
+		},
+		async (trx, revision) => {
+			await trx
+				.updateTable('plan')
+				.set({ installed_revision_id: revision.id, installed_at: new Date() })
+				.where('id', '=', p.planId)
+				.execute();
+		},
+	);
 }
 
 /** The vehicle's plans that were installed, by the revision they made. */
-export async function findInstalledPlans(db: Db, vehicleId: string): Promise<Map<string, { id: string; name: string }>> {
-	const rows = await db.selectFrom('plan').select(['id', 'name', 'installed_revision_id']).where('vehicle_id', '=', vehicleId).where('installed_revision_id', 'is not', null).execute();
+export async function findInstalledPlans(
+	db: Db,
+	vehicleId: string,
+): Promise<Map<string, { id: string; name: string }>> {
+	const rows = await db
+		.selectFrom('plan')
+		.select(['id', 'name', 'installed_revision_id'])
+		.where('vehicle_id', '=', vehicleId)
+		.where('installed_revision_id', 'is not', null)
+		.execute();
 	return new Map(rows.map((p) => [p.installed_revision_id!, { id: p.id, name: p.name }]));
 }

@@ -1,6 +1,10 @@
 import type { Kysely } from 'kysely';
 import type { Database } from '@/lib/server/db/schema';
-import { measurementColumns, measurementsOf, type RunMeasurements } from '@/lib/schemas/run-measurements';
+import {
+	measurementColumns,
+	measurementsOf,
+	type RunMeasurements,
+} from '@/lib/schemas/run-measurements';
 import type { RunDto, RunSample } from '@/lib/schemas/runs';
 
 type Db = Kysely<Database>;
@@ -13,7 +17,11 @@ function runQuery(db: Db, teamId: string) {
 		.leftJoin('revision as rev', 'rev.id', 'r.revision_id')
 		.selectAll('r')
 		.select(['v.name as vehicle_name', 'e.name as event_name', 'rev.number as revision_number'])
-		.select((eb) => eb.exists(eb.selectFrom('run_sample as s').whereRef('s.run_id', '=', 'r.id').select('s.seq')).as('has_logger'))
+		.select((eb) =>
+			eb
+				.exists(eb.selectFrom('run_sample as s').whereRef('s.run_id', '=', 'r.id').select('s.seq'))
+				.as('has_logger'),
+		)
 		.where('v.team_id', '=', teamId);
 }
 
@@ -34,7 +42,11 @@ function toRunDto(r: RunRow): RunDto {
 	};
 }
 
-export async function findRuns(db: Db, teamId: string, filter: { vehicleId?: string; eventId?: string } = {}): Promise<RunDto[]> {
+export async function findRuns(
+	db: Db,
+	teamId: string,
+	filter: { vehicleId?: string; eventId?: string } = {},
+): Promise<RunDto[]> {
 	let q = runQuery(db, teamId);
 	if (filter.vehicleId) q = q.where('r.vehicle_id', '=', filter.vehicleId);
 	if (filter.eventId) q = q.where('r.event_id', '=', filter.eventId);
@@ -48,18 +60,39 @@ export async function findRun(db: Db, teamId: string, runId: string): Promise<Ru
 
 export async function insertRun(
 	db: Db,
-	r: Partial<RunMeasurements> & { vehicleId: string; eventId: string | null; revisionId: string | null; ranAt: string; authorId: string },
+	r: Partial<RunMeasurements> & {
+		vehicleId: string;
+		eventId: string | null;
+		revisionId: string | null;
+		ranAt: string;
+		authorId: string;
+	},
 ): Promise<string> {
 	const row = await db
 		.insertInto('run')
-		.values({ vehicle_id: r.vehicleId, event_id: r.eventId, revision_id: r.revisionId, ran_at: r.ranAt, ...measurementColumns(r), author_id: r.authorId })
+		.values({
+			vehicle_id: r.vehicleId,
+			event_id: r.eventId,
+			revision_id: r.revisionId,
+			ran_at: r.ranAt,
+			...measurementColumns(r),
+			author_id: r.authorId,
+		})
 		.returning('id')
 		.executeTakeFirstOrThrow();
 	return row.id;
 }
 
 /** Changes a run's links and measurements; fields left out stay as they are. */
-export async function updateRun(db: Db, runId: string, r: Partial<RunMeasurements> & { eventId?: string | null; ranAt?: string; revisionId: string | null }): Promise<void> {
+export async function updateRun(
+	db: Db,
+	runId: string,
+	r: Partial<RunMeasurements> & {
+		eventId?: string | null;
+		ranAt?: string;
+		revisionId: string | null;
+	},
+): Promise<void> {
 	await db
 		.updateTable('run')
 		.set({
@@ -78,11 +111,17 @@ export async function deleteRun(db: Db, runId: string): Promise<void> {
 }
 
 export async function findSamples(db: Db, runId: string): Promise<RunSample[]> {
-	const rows = await db.selectFrom('run_sample').select(['t_s', 'volts', 'amps']).where('run_id', '=', runId).orderBy('seq').execute();
+	const rows = await db
+		.selectFrom('run_sample')
+		.select(['t_s', 'volts', 'amps'])
+		.where('run_id', '=', runId)
+		.orderBy('seq')
+		.execute();
 	return rows.map((r) => ({ tS: r.t_s, volts: r.volts, amps: r.amps }));
 }
 
-export type ReplaceLoggerResult = { ok: true; replacedKeys: string[] } | { ok: false; reason: 'busy' };
+export type ReplaceLoggerResult =
+	{ ok: true; replacedKeys: string[] } | { ok: false; reason: 'busy' };
 
 /**
  * Puts a new logger file in place of a run's old one, in one transaction: the run row is locked
@@ -91,22 +130,60 @@ export type ReplaceLoggerResult = { ok: true; replacedKeys: string[] } | { ok: f
  */
 export async function replaceLoggerData(
 	db: Db,
-	p: { teamId: string; runId: string; objectKey: string; fileName: string; sizeBytes: number; samples: RunSample[] },
+	p: {
+		teamId: string;
+		runId: string;
+		objectKey: string;
+		fileName: string;
+		sizeBytes: number;
+		samples: RunSample[];
+	},
 ): Promise<ReplaceLoggerResult> {
 	return db.transaction().execute(async (trx): Promise<ReplaceLoggerResult> => {
-		const locked = await trx.selectFrom('run').select('id').where('id', '=', p.runId).forUpdate().skipLocked().executeTakeFirst();
+		const locked = await trx
+			.selectFrom('run')
+			.select('id')
+			.where('id', '=', p.runId)
+			.forUpdate()
+			.skipLocked()
+			.executeTakeFirst();
 		if (!locked) return { ok: false, reason: 'busy' };
-		const old = await trx.selectFrom('stored_file').select('object_key').where('run_id', '=', p.runId).where('kind', '=', 'logger').execute();
+		const old = await trx
+			.selectFrom('stored_file')
+			.select('object_key')
+			.where('run_id', '=', p.runId)
+			.where('kind', '=', 'logger')
+			.execute();
 		await trx.deleteFrom('run_sample').where('run_id', '=', p.runId).execute();
-		await trx.deleteFrom('stored_file').where('run_id', '=', p.runId).where('kind', '=', 'logger').execute();
+		await trx
+			.deleteFrom('stored_file')
+			.where('run_id', '=', p.runId)
+			.where('kind', '=', 'logger')
+			.execute();
 		await trx
 			.insertInto('stored_file')
-			.values({ team_id: p.teamId, run_id: p.runId, kind: 'logger', object_key: p.objectKey, file_name: p.fileName, content_type: 'text/csv', size_bytes: p.sizeBytes })
+			.values({
+				team_id: p.teamId,
+				run_id: p.runId,
+				kind: 'logger',
+				object_key: p.objectKey,
+				file_name: p.fileName,
+				content_type: 'text/csv',
+				size_bytes: p.sizeBytes,
+			})
 			.execute();
 		for (let i = 0; i < p.samples.length; i += 1000) {
 			await trx
 				.insertInto('run_sample')
-				.values(p.samples.slice(i, i + 1000).map((s, j) => ({ run_id: p.runId, seq: i + j, t_s: s.tS, volts: s.volts, amps: s.amps })))
+				.values(
+					p.samples.slice(i, i + 1000).map((s, j) => ({
+						run_id: p.runId,
+						seq: i + j,
+						t_s: s.tS,
+						volts: s.volts,
+						amps: s.amps,
+					})),
+				)
 				.execute();
 		}
 		return { ok: true, replacedKeys: old.map((f) => f.object_key) };

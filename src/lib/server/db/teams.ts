@@ -10,13 +10,28 @@ export async function findTeamsForUser(db: Db, userId: string): Promise<TeamSumm
 		.innerJoin('team as t', 't.id', 'm.team_id')
 		.select(['t.id', 't.name', 'm.role'])
 		.select((eb) => [
-			eb.selectFrom('membership as mm').whereRef('mm.team_id', '=', 't.id').select((e) => e.fn.countAll<number>().as('c')).as('members'),
-			eb.selectFrom('vehicle as v').whereRef('v.team_id', '=', 't.id').where('v.archived_at', 'is', null).select((e) => e.fn.countAll<number>().as('c')).as('vehicles'),
+			eb
+				.selectFrom('membership as mm')
+				.whereRef('mm.team_id', '=', 't.id')
+				.select((e) => e.fn.countAll<number>().as('c'))
+				.as('members'),
+			eb
+				.selectFrom('vehicle as v')
+				.whereRef('v.team_id', '=', 't.id')
+				.where('v.archived_at', 'is', null)
+				.select((e) => e.fn.countAll<number>().as('c'))
+				.as('vehicles'),
 		])
 		.where('m.user_id', '=', userId)
 		.orderBy('t.name')
 		.execute();
-	return rows.map((r) => ({ id: r.id, name: r.name, role: r.role, members: Number(r.members), vehicles: Number(r.vehicles) }));
+	return rows.map((r) => ({
+		id: r.id,
+		name: r.name,
+		role: r.role,
+		members: Number(r.members),
+		vehicles: Number(r.vehicles),
+	}));
 }
 
 export function findMembership(db: Db, teamId: string, userId: string) {
@@ -30,10 +45,21 @@ export function findMembership(db: Db, teamId: string, userId: string) {
 }
 
 /** Creates a team with its creator as captain, in one transaction. */
-export async function insertTeamWithCaptain(db: Db, name: string, userId: string): Promise<{ id: string; name: string }> {
+export async function insertTeamWithCaptain(
+	db: Db,
+	name: string,
+	userId: string,
+): Promise<{ id: string; name: string }> {
 	return db.transaction().execute(async (trx) => {
-		const team = await trx.insertInto('team').values({ name }).returning(['id', 'name']).executeTakeFirstOrThrow();
-		await trx.insertInto('membership').values({ team_id: team.id, user_id: userId, role: 'captain' }).execute();
+		const team = await trx
+			.insertInto('team')
+			.values({ name })
+			.returning(['id', 'name'])
+			.executeTakeFirstOrThrow();
+		await trx
+			.insertInto('membership')
+			.values({ team_id: team.id, user_id: userId, role: 'captain' })
+			.execute();
 		return team;
 	});
 }
@@ -55,35 +81,79 @@ export async function findMembers(db: Db, teamId: string): Promise<MemberDto[]> 
 		.orderBy(sql`case m.role when 'captain' then 0 when 'member' then 1 else 2 end`)
 		.orderBy('u.email')
 		.execute();
-	return rows.map((r) => ({ userId: r.id, name: r.name, email: r.email, role: r.role, joinedAt: r.created_at.toISOString() }));
+	return rows.map((r) => ({
+		userId: r.id,
+		name: r.name,
+		email: r.email,
+		role: r.role,
+		joinedAt: r.created_at.toISOString(),
+	}));
 }
 
 /** Locks the team's captain rows, so two concurrent demotions cannot both leave it without one. */
 async function lockCaptains(db: Db, teamId: string): Promise<string[]> {
-	const rows = await db.selectFrom('membership').select('user_id').where('team_id', '=', teamId).where('role', '=', 'captain').forUpdate().execute();
+	const rows = await db
+		.selectFrom('membership')
+		.select('user_id')
+		.where('team_id', '=', teamId)
+		.where('role', '=', 'captain')
+		.forUpdate()
+		.execute();
 	return rows.map((r) => r.user_id);
 }
 
 export type MembershipChange = { ok: true } | { ok: false; reason: 'not_member' | 'last_captain' };
 
-export async function changeRole(db: Db, teamId: string, userId: string, role: Role): Promise<MembershipChange> {
+export async function changeRole(
+	db: Db,
+	teamId: string,
+	userId: string,
+	role: Role,
+): Promise<MembershipChange> {
 	return db.transaction().execute(async (trx) => {
 		const captains = await lockCaptains(trx, teamId);
-		const member = await trx.selectFrom('membership').select('role').where('team_id', '=', teamId).where('user_id', '=', userId).forUpdate().executeTakeFirst();
+		const member = await trx
+			.selectFrom('membership')
+			.select('role')
+			.where('team_id', '=', teamId)
+			.where('user_id', '=', userId)
+			.forUpdate()
+			.executeTakeFirst();
 		if (!member) return { ok: false, reason: 'not_member' } as const;
-		if (member.role === 'captain' && role !== 'captain' && captains.length <= 1) return { ok: false, reason: 'last_captain' } as const;
-		await trx.updateTable('membership').set({ role }).where('team_id', '=', teamId).where('user_id', '=', userId).execute();
+		if (member.role === 'captain' && role !== 'captain' && captains.length <= 1)
+			return { ok: false, reason: 'last_captain' } as const;
+		await trx
+			.updateTable('membership')
+			.set({ role })
+			.where('team_id', '=', teamId)
+			.where('user_id', '=', userId)
+			.execute();
 		return { ok: true } as const;
 	});
 }
 
-export async function removeMember(db: Db, teamId: string, userId: string): Promise<MembershipChange> {
+export async function removeMember(
+	db: Db,
+	teamId: string,
+	userId: string,
+): Promise<MembershipChange> {
 	return db.transaction().execute(async (trx) => {
 		const captains = await lockCaptains(trx, teamId);
-		const member = await trx.selectFrom('membership').select('role').where('team_id', '=', teamId).where('user_id', '=', userId).forUpdate().executeTakeFirst();
+		const member = await trx
+			.selectFrom('membership')
+			.select('role')
+			.where('team_id', '=', teamId)
+			.where('user_id', '=', userId)
+			.forUpdate()
+			.executeTakeFirst();
 		if (!member) return { ok: false, reason: 'not_member' } as const;
-		if (member.role === 'captain' && captains.length <= 1) return { ok: false, reason: 'last_captain' } as const;
-		await trx.deleteFrom('membership').where('team_id', '=', teamId).where('user_id', '=', userId).execute();
+		if (member.role === 'captain' && captains.length <= 1)
+			return { ok: false, reason: 'last_captain' } as const;
+		await trx
+			.deleteFrom('membership')
+			.where('team_id', '=', teamId)
+			.where('user_id', '=', userId)
+			.execute();
 		return { ok: true } as const;
 	});
 }
@@ -92,7 +162,9 @@ export async function removeMember(db: Db, teamId: string, userId: string): Prom
 
 export const INVITATION_TTL_MS = 7 * 24 * 3600 * 1000;
 
-export function toInvitationDto(r: InvitationRow & { inviter_name?: string | null }): InvitationDto {
+export function toInvitationDto(
+	r: InvitationRow & { inviter_name?: string | null },
+): InvitationDto {
 	return {
 		id: r.id,
 		email: r.email,
@@ -123,7 +195,10 @@ export async function findPendingInvitations(db: Db, teamId: string): Promise<In
  * Creates an open invitation, or renews the open one for the same address (new token, new expiry):
  * an address has at most one open invitation per team.
  */
-export async function upsertInvitation(db: Db, p: { teamId: string; email: string; role: Role; invitedBy: string; tokenHash: string }): Promise<InvitationRow> {
+export async function upsertInvitation(
+	db: Db,
+	p: { teamId: string; email: string; role: Role; invitedBy: string; tokenHash: string },
+): Promise<InvitationRow> {
 	return db.transaction().execute(async (trx) => {
 		const open = await trx
 			.selectFrom('invitation')
@@ -138,14 +213,27 @@ export async function upsertInvitation(db: Db, p: { teamId: string; email: strin
 		if (open) {
 			return trx
 				.updateTable('invitation')
-				.set({ role: p.role, token_hash: p.tokenHash, invited_by: p.invitedBy, expires_at, last_sent_at: new Date() })
+				.set({
+					role: p.role,
+					token_hash: p.tokenHash,
+					invited_by: p.invitedBy,
+					expires_at,
+					last_sent_at: new Date(),
+				})
 				.where('id', '=', open.id)
 				.returningAll()
 				.executeTakeFirstOrThrow();
 		}
 		return trx
 			.insertInto('invitation')
-			.values({ team_id: p.teamId, email: p.email, role: p.role, invited_by: p.invitedBy, token_hash: p.tokenHash, expires_at })
+			.values({
+				team_id: p.teamId,
+				email: p.email,
+				role: p.role,
+				invited_by: p.invitedBy,
+				token_hash: p.tokenHash,
+				expires_at,
+			})
 			.returningAll()
 			.executeTakeFirstOrThrow();
 	});
@@ -162,17 +250,29 @@ export function findOpenInvitation(db: Db, teamId: string, invitationId: string)
 		.executeTakeFirst();
 }
 
-export async function renewInvitationToken(db: Db, invitationId: string, tokenHash: string): Promise<InvitationRow> {
+export async function renewInvitationToken(
+	db: Db,
+	invitationId: string,
+	tokenHash: string,
+): Promise<InvitationRow> {
 	return db
 		.updateTable('invitation')
-		.set({ token_hash: tokenHash, last_sent_at: new Date(), expires_at: new Date(Date.now() + INVITATION_TTL_MS) })
+		.set({
+			token_hash: tokenHash,
+			last_sent_at: new Date(),
+			expires_at: new Date(Date.now() + INVITATION_TTL_MS),
+		})
 		.where('id', '=', invitationId)
 		.returningAll()
 		.executeTakeFirstOrThrow();
 }
 
 export async function revokeInvitation(db: Db, invitationId: string): Promise<void> {
-	await db.updateTable('invitation').set({ revoked_at: new Date() }).where('id', '=', invitationId).execute();
+	await db
+		.updateTable('invitation')
+		.set({ revoked_at: new Date() })
+		.where('id', '=', invitationId)
+		.execute();
 }
 
 export function findInvitationByTokenHash(db: Db, tokenHash: string) {
@@ -190,44 +290,109 @@ export type AcceptResult =
 	| { ok: false; reason: 'unknown' | 'used' | 'revoked' | 'expired' | 'email_mismatch' };
 
 /** Accepts an invitation once: joins the team (or keeps the better of two roles) in one transaction. */
-export async function acceptInvitation(db: Db, tokenHash: string, user: { id: string; email: string }): Promise<AcceptResult> {
+export async function acceptInvitation(
+	db: Db,
+	tokenHash: string,
+	user: { id: string; email: string },
+): Promise<AcceptResult> {
 	return db.transaction().execute(async (trx): Promise<AcceptResult> => {
-		const inv = await trx.selectFrom('invitation').selectAll().where('token_hash', '=', tokenHash).forUpdate().executeTakeFirst();
+		const inv = await trx
+			.selectFrom('invitation')
+			.selectAll()
+			.where('token_hash', '=', tokenHash)
+			.forUpdate()
+			.executeTakeFirst();
 		if (!inv) return { ok: false, reason: 'unknown' };
 		if (inv.accepted_at) return { ok: false, reason: 'used' };
 		if (inv.revoked_at) return { ok: false, reason: 'revoked' };
 		if (inv.expires_at.getTime() < Date.now()) return { ok: false, reason: 'expired' };
 		if (inv.email !== user.email.toLowerCase()) return { ok: false, reason: 'email_mismatch' };
-		const existing = await trx.selectFrom('membership').select('role').where('team_id', '=', inv.team_id).where('user_id', '=', user.id).executeTakeFirst();
+		const existing = await trx
+			.selectFrom('membership')
+			.select('role')
+			.where('team_id', '=', inv.team_id)
+			.where('user_id', '=', user.id)
+			.executeTakeFirst();
 		const rank = { viewer: 0, member: 1, captain: 2 } as const;
-		if (!existing) await trx.insertInto('membership').values({ team_id: inv.team_id, user_id: user.id, role: inv.role }).execute();
+		if (!existing)
+			await trx
+				.insertInto('membership')
+				.values({ team_id: inv.team_id, user_id: user.id, role: inv.role })
+				.execute();
 		else if (rank[inv.role] > rank[existing.role]) {
-			await trx.updateTable('membership').set({ role: inv.role }).where('team_id', '=', inv.team_id).where('user_id', '=', user.id).execute();
+			await trx
+				.updateTable('membership')
+				.set({ role: inv.role })
+				.where('team_id', '=', inv.team_id)
+				.where('user_id', '=', user.id)
+				.execute();
 		}
-		await trx.updateTable('invitation').set({ accepted_at: new Date(), accepted_by: user.id }).where('id', '=', inv.id).execute();
-		return { ok: true, teamId: inv.team_id, role: existing && rank[existing.role] > rank[inv.role] ? existing.role : inv.role };
+		await trx
+			.updateTable('invitation')
+			.set({ accepted_at: new Date(), accepted_by: user.id })
+			.where('id', '=', inv.id)
+			.execute();
+		return {
+			ok: true,
+			teamId: inv.team_id,
+			role: existing && rank[existing.role] > rank[inv.role] ? existing.role : inv.role,
+		};
 	});
 }
 
 // ---- settings
 
 /** The team's settings as its members see them (name and role from the caller's access). */
-export async function findTeamSettings(db: Db, access: { teamId: string; teamName: string; role: Role }): Promise<TeamSettingsDto> {
-	const team = await db.selectFrom('team').select(['currency', 'reminder_days', 'fuse_distance_m']).where('id', '=', access.teamId).executeTakeFirstOrThrow();
-	return { id: access.teamId, name: access.teamName, role: access.role, currency: team.currency, reminderDays: team.reminder_days, fuseDistanceM: team.fuse_distance_m };
+export async function findTeamSettings(
+	db: Db,
+	access: { teamId: string; teamName: string; role: Role },
+): Promise<TeamSettingsDto> {
+	const team = await db
+		.selectFrom('team')
+		.select(['currency', 'reminder_days', 'fuse_distance_m'])
+		.where('id', '=', access.teamId)
+		.executeTakeFirstOrThrow();
+	return {
+		id: access.teamId,
+		name: access.teamName,
+		role: access.role,
+		currency: team.currency,
+		reminderDays: team.reminder_days,
+		fuseDistanceM: team.fuse_distance_m,
+	};
 }
 
-export async function updateTeamSettings(db: Db, teamId: string, s: { currency?: string; reminderDays?: number }): Promise<void> {
-	const set = { ...(s.currency !== undefined && { currency: s.currency }), ...(s.reminderDays !== undefined && { reminder_days: s.reminderDays }) };
-	if (Object.keys(set).length) await db.updateTable('team').set(set).where('id', '=', teamId).execute();
+export async function updateTeamSettings(
+	db: Db,
+	teamId: string,
+	s: { currency?: string; reminderDays?: number },
+): Promise<void> {
+	const set = {
+		...(s.currency !== undefined && { currency: s.currency }),
+		...(s.reminderDays !== undefined && { reminder_days: s.reminderDays }),
+	};
+	if (Object.keys(set).length)
+		await db.updateTable('team').set(set).where('id', '=', teamId).execute();
 }
 
 /** The ISO 4217 code the team's plan prices are in. */
 export async function findTeamCurrency(db: Db, teamId: string): Promise<string> {
-	return (await db.selectFrom('team').select('currency').where('id', '=', teamId).executeTakeFirstOrThrow()).currency;
+	return (
+		await db
+			.selectFrom('team')
+			.select('currency')
+			.where('id', '=', teamId)
+			.executeTakeFirstOrThrow()
+	).currency;
 }
 
 /** The distance within which a battery cable's fuse must sit, for the pre-event checks (m). */
 export async function findTeamFuseDistance(db: Db, teamId: string): Promise<number> {
-	return (await db.selectFrom('team').select('fuse_distance_m').where('id', '=', teamId).executeTakeFirstOrThrow()).fuse_distance_m;
+	return (
+		await db
+			.selectFrom('team')
+			.select('fuse_distance_m')
+			.where('id', '=', teamId)
+			.executeTakeFirstOrThrow()
+	).fuse_distance_m;
 }

@@ -5,7 +5,11 @@ import type { Database, RateEventTable, UserRow } from '@/lib/server/db/schema';
 type Db = Kysely<Database>;
 
 export function findUserByEmail(db: Db, email: string): Promise<UserRow | undefined> {
-	return db.selectFrom('User').selectAll().where('email', '=', email.toLowerCase()).executeTakeFirst();
+	return db
+		.selectFrom('User')
+		.selectAll()
+		.where('email', '=', email.toLowerCase())
+		.executeTakeFirst();
 }
 
 export function findUserById(db: Db, id: string): Promise<UserRow | undefined> {
@@ -13,10 +17,18 @@ export function findUserById(db: Db, id: string): Promise<UserRow | undefined> {
 }
 
 /** Inserts a user; returns undefined when the address is already taken (unique violation). */
-export async function insertUser(db: Db, user: { email: string; name: string; passwordHash: string | null }): Promise<UserRow | undefined> {
+export async function insertUser(
+	db: Db,
+	user: { email: string; name: string; passwordHash: string | null },
+): Promise<UserRow | undefined> {
 	return db
 		.insertInto('User')
-		.values({ id: randomUUID(), email: user.email.toLowerCase(), name: user.name, passwordHash: user.passwordHash })
+		.values({
+			id: randomUUID(),
+			email: user.email.toLowerCase(),
+			name: user.name,
+			passwordHash: user.passwordHash,
+		})
 		.onConflict((oc) => oc.column('email').doNothing())
 		.returningAll()
 		.executeTakeFirst();
@@ -28,29 +40,59 @@ export async function updatePassword(db: Db, userId: string, passwordHash: strin
 
 // ---- password resets
 
-export async function insertPasswordReset(db: Db, userId: string, tokenHash: string, ttlMs: number): Promise<void> {
-	await db.insertInto('password_reset').values({ user_id: userId, token_hash: tokenHash, expires_at: new Date(Date.now() + ttlMs) }).execute();
+export async function insertPasswordReset(
+	db: Db,
+	userId: string,
+	tokenHash: string,
+	ttlMs: number,
+): Promise<void> {
+	await db
+		.insertInto('password_reset')
+		.values({ user_id: userId, token_hash: tokenHash, expires_at: new Date(Date.now() + ttlMs) })
+		.execute();
 }
 
-export type ConsumeResult = { ok: true; userId: string } | { ok: false; reason: 'unknown' | 'used' | 'expired' };
+export type ConsumeResult =
+	{ ok: true; userId: string } | { ok: false; reason: 'unknown' | 'used' | 'expired' };
 
 /** Marks a reset token used, once, in the caller's transaction (row-locked so two requests cannot both use it). */
 export async function consumePasswordReset(db: Db, tokenHash: string): Promise<ConsumeResult> {
-	const row = await db.selectFrom('password_reset').selectAll().where('token_hash', '=', tokenHash).forUpdate().executeTakeFirst();
+	const row = await db
+		.selectFrom('password_reset')
+		.selectAll()
+		.where('token_hash', '=', tokenHash)
+		.forUpdate()
+		.executeTakeFirst();
 	if (!row) return { ok: false, reason: 'unknown' };
 	if (row.used_at) return { ok: false, reason: 'used' };
 	if (row.expires_at.getTime() < Date.now()) return { ok: false, reason: 'expired' };
-	await db.updateTable('password_reset').set({ used_at: new Date() }).where('id', '=', row.id).execute();
+	await db
+		.updateTable('password_reset')
+		.set({ used_at: new Date() })
+		.where('id', '=', row.id)
+		.execute();
 	return { ok: true, userId: row.user_id };
 }
 
 // ---- sign-in attempts (rate limiting, shared by every app instance through PostgreSQL)
 
-export async function recordSignInAttempt(db: Db, email: string, client: string, succeeded: boolean): Promise<void> {
-	await db.insertInto('sign_in_attempt').values({ email: email.toLowerCase(), client, succeeded }).execute();
+export async function recordSignInAttempt(
+	db: Db,
+	email: string,
+	client: string,
+	succeeded: boolean,
+): Promise<void> {
+	await db
+		.insertInto('sign_in_attempt')
+		.values({ email: email.toLowerCase(), client, succeeded })
+		.execute();
 }
 
-export async function countRecentFailures(db: Db, by: { email?: string; client?: string }, windowMs: number): Promise<number> {
+export async function countRecentFailures(
+	db: Db,
+	by: { email?: string; client?: string },
+	windowMs: number,
+): Promise<number> {
 	let q = db
 		.selectFrom('sign_in_attempt')
 		.select((eb) => eb.fn.countAll<number>().as('n'))
@@ -66,13 +108,21 @@ export async function countRecentFailures(db: Db, by: { email?: string; client?:
 
 /** The account's session version (null when the account is gone). */
 export async function sessionVersionOf(db: Db, userId: string): Promise<number | null> {
-	const row = await db.selectFrom('User').select('sessionVersion').where('id', '=', userId).executeTakeFirst();
+	const row = await db
+		.selectFrom('User')
+		.select('sessionVersion')
+		.where('id', '=', userId)
+		.executeTakeFirst();
 	return row ? row.sessionVersion : null;
 }
 
 /** Ends every session of the account (they are checked against this version on each request). */
 export async function endSessions(db: Db, userId: string): Promise<void> {
-	await db.updateTable('User').set((eb) => ({ sessionVersion: eb('sessionVersion', '+', 1) })).where('id', '=', userId).execute();
+	await db
+		.updateTable('User')
+		.set((eb) => ({ sessionVersion: eb('sessionVersion', '+', 1) }))
+		.where('id', '=', userId)
+		.execute();
 }
 
 /**
@@ -94,41 +144,84 @@ export async function dropUnconfirmedPassword(db: Db, userId: string): Promise<b
  * A completed password reset: the new password, the address confirmed (the link came by mail),
  * every older session ended and every other open reset link of the account spent.
  */
-export async function completePasswordReset(db: Db, userId: string, passwordHash: string): Promise<void> {
+export async function completePasswordReset(
+	db: Db,
+	userId: string,
+	passwordHash: string,
+): Promise<void> {
 	await db
 		.updateTable('User')
-		.set((eb) => ({ passwordHash, emailVerified: eb.fn.coalesce('emailVerified', sql<Date>`now()`), sessionVersion: eb('sessionVersion', '+', 1) }))
+		.set((eb) => ({
+			passwordHash,
+			emailVerified: eb.fn.coalesce('emailVerified', sql<Date>`now()`),
+			sessionVersion: eb('sessionVersion', '+', 1),
+		}))
 		.where('id', '=', userId)
 		.execute();
-	await db.updateTable('password_reset').set({ used_at: new Date() }).where('user_id', '=', userId).where('used_at', 'is', null).execute();
+	await db
+		.updateTable('password_reset')
+		.set({ used_at: new Date() })
+		.where('user_id', '=', userId)
+		.where('used_at', 'is', null)
+		.execute();
 }
 
-export async function setUnitSystem(db: Db, userId: string, unitSystem: 'imperial' | 'metric'): Promise<void> {
+export async function setUnitSystem(
+	db: Db,
+	userId: string,
+	unitSystem: 'imperial' | 'metric',
+): Promise<void> {
 	await db.updateTable('User').set({ unitSystem }).where('id', '=', userId).execute();
 }
 
 /** How many times this kind of action was tried for an address, and from a client, within the window. */
-export async function countRateEvents(db: Db, kind: RateEventTable['kind'], email: string, client: string, windowMs: number): Promise<{ byEmail: number; byClient: number }> {
+export async function countRateEvents(
+	db: Db,
+	kind: RateEventTable['kind'],
+	email: string,
+	client: string,
+	windowMs: number,
+): Promise<{ byEmail: number; byClient: number }> {
 	const since = sql<boolean>`created_at > now() - make_interval(secs => ${windowMs / 1000})`;
 	const row = (await db
 		.selectNoFrom((eb) => [
-			eb.selectFrom('rate_event').select((e) => e.fn.countAll<number>().as('n')).where('kind', '=', kind).where('email', '=', email.toLowerCase()).where(since).as('byEmail'),
-			eb.selectFrom('rate_event').select((e) => e.fn.countAll<number>().as('n')).where('kind', '=', kind).where('client', '=', client).where(since).as('byClient'),
+			eb
+				.selectFrom('rate_event')
+				.select((e) => e.fn.countAll<number>().as('n'))
+				.where('kind', '=', kind)
+				.where('email', '=', email.toLowerCase())
+				.where(since)
+				.as('byEmail'),
+			eb
+				.selectFrom('rate_event')
+				.select((e) => e.fn.countAll<number>().as('n'))
+				.where('kind', '=', kind)
+				.where('client', '=', client)
+				.where(since)
+				.as('byClient'),
 		])
 		.executeTakeFirstOrThrow()) as { byEmail: number; byClient: number };
 	return { byEmail: Number(row.byEmail), byClient: Number(row.byClient) };
 }
 
-export async function recordRateEvent(db: Db, kind: RateEventTable['kind'], email: string, client: string): Promise<void> {
+export async function recordRateEvent(
+	db: Db,
+	kind: RateEventTable['kind'],
+	email: string,
+	client: string,
+): Promise<void> {
 	await db.insertInto('rate_event').values({ kind, email: email.toLowerCase(), client }).execute();
 }
-
 
 /**
  * Sets a new password with a reset token, in one transaction: the token is spent (single use,
  * expiring), every older session ends, every other open reset link is spent, the address is confirmed.
  */
-export function resetPassword(db: Db, tokenHash: string, passwordHash: string): Promise<ConsumeResult> {
+export function resetPassword(
+	db: Db,
+	tokenHash: string,
+	passwordHash: string,
+): Promise<ConsumeResult> {
 	return db.transaction().execute(async (trx) => {
 		const consumed = await consumePasswordReset(trx, tokenHash);
 		if (consumed.ok) await completePasswordReset(trx, consumed.userId, passwordHash);

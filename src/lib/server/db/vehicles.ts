@@ -19,16 +19,31 @@ export function toVehicleDto(v: VehicleRow, headRevisionId: string | null): Vehi
 }
 
 export function findVehicle(db: Db, teamId: string, vehicleId: string) {
-	return db.selectFrom('vehicle').selectAll().where('team_id', '=', teamId).where('id', '=', vehicleId).executeTakeFirst();
+	return db
+		.selectFrom('vehicle')
+		.selectAll()
+		.where('team_id', '=', teamId)
+		.where('id', '=', vehicleId)
+		.executeTakeFirst();
 }
 
 /** The team's vehicles in use (not archived), by name. */
 export function findVehiclesForTeam(db: Db, teamId: string) {
-	return db.selectFrom('vehicle').selectAll().where('team_id', '=', teamId).where('archived_at', 'is', null).orderBy('name').execute();
+	return db
+		.selectFrom('vehicle')
+		.selectAll()
+		.where('team_id', '=', teamId)
+		.where('archived_at', 'is', null)
+		.orderBy('name')
+		.execute();
 }
 
 /** The team's vehicles in use, or its archived ones, as the API sends them. */
-export async function listVehicles(db: Db, teamId: string, archived: boolean): Promise<VehicleDto[]> {
+export async function listVehicles(
+	db: Db,
+	teamId: string,
+	archived: boolean,
+): Promise<VehicleDto[]> {
 	const rows = await db
 		.selectFrom('vehicle as v')
 		.innerJoin('build as b', 'b.vehicle_id', 'v.id')
@@ -68,15 +83,33 @@ export function updateVehicle(db: Db, vehicleId: string, c: VehicleChanges): Pro
 /** Creates a vehicle with its (empty) build, in one transaction. */
 export async function insertVehicleWithBuild(
 	db: Db,
-	v: { teamId: string; name: string; description: string; competitionClass: string; notes: string; ownerId: string | null },
+	v: {
+		teamId: string;
+		name: string;
+		description: string;
+		competitionClass: string;
+		notes: string;
+		ownerId: string | null;
+	},
 ) {
 	return db.transaction().execute(async (trx) => {
 		const vehicle = await trx
 			.insertInto('vehicle')
-			.values({ team_id: v.teamId, name: v.name, description: v.description, competition_class: v.competitionClass, notes: v.notes, owner_id: v.ownerId })
+			.values({
+				team_id: v.teamId,
+				name: v.name,
+				description: v.description,
+				competition_class: v.competitionClass,
+				notes: v.notes,
+				owner_id: v.ownerId,
+			})
 			.returningAll()
 			.executeTakeFirstOrThrow();
-		const build = await trx.insertInto('build').values({ vehicle_id: vehicle.id }).returning('id').executeTakeFirstOrThrow();
+		const build = await trx
+			.insertInto('build')
+			.values({ vehicle_id: vehicle.id })
+			.returning('id')
+			.executeTakeFirstOrThrow();
 		return { vehicle, buildId: build.id };
 	});
 }

@@ -19,7 +19,13 @@ export const POST: APIRoute = async ({ request, locals }) => {
 	if (!body.ok) return body.response;
 	const email = body.data.email;
 	if (!(await takeRateSlot(locals.db, 'reset_mail', email, currentClient()))) {
-		return problem(429, 'rate_limited', 'Too many reset requests for this address or from here. Wait a quarter of an hour and try again.', undefined, { 'retry-after': '900' });
+		return problem(
+			429,
+			'rate_limited',
+			'Too many reset requests for this address or from here. Wait a quarter of an hour and try again.',
+			undefined,
+			{ 'retry-after': '900' },
+		);
 	}
 	const { db, mailer, config } = locals;
 	void (async () => {
@@ -27,7 +33,12 @@ export const POST: APIRoute = async ({ request, locals }) => {
 		if (!user) return;
 		const { token, hash } = newToken();
 		await insertPasswordReset(db, user.id, hash, RESET_TTL_MS);
-		await mailer.send(passwordResetMail({ to: user.email, url: `${config.publicUrl}/reset-password?token=${token}` }));
+		await mailer.send(
+			passwordResetMail({
+				to: user.email,
+				url: `${config.publicUrl}/reset-password?token=${token}`,
+			}),
+		);
 	})().catch((error) => console.error('password reset mail failed:', error));
 	return Response.json({ status: 'sent_if_known' }, { status: 202 });
 };

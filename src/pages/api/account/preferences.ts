@@ -3,7 +3,9 @@ import { z } from 'zod';
 import { setUnitSystem } from '@/lib/server/db/users';
 import { problem, readJson } from '@/lib/server/http';
 
-const preferencesSchema = z.object({ unitSystem: z.enum(['imperial', 'metric'], { error: 'Units are imperial or metric' }) });
+const preferencesSchema = z.object({
+	unitSystem: z.enum(['imperial', 'metric'], { error: 'Units are imperial or metric' }),
+});
 
 /** The signed-in person's display preferences (feet/AWG or metres/mm²). */
 export const PATCH: APIRoute = async ({ request, locals }) => {

@@ -2,7 +2,12 @@ import type { APIRoute } from 'astro';
 import { removeTeamObjects } from '@/lib/server/object-cleanup';
 import { deleteTeamSchema, renameTeamSchema } from '@/lib/schemas/account';
 import { requireTeamRole } from '@/lib/server/access';
-import { deleteTeam, findTeamSettings, renameTeam, updateTeamSettings } from '@/lib/server/db/teams';
+import {
+	deleteTeam,
+	findTeamSettings,
+	renameTeam,
+	updateTeamSettings,
+} from '@/lib/server/db/teams';
 import { problem, readJson } from '@/lib/server/http';
 
 export const GET: APIRoute = async ({ params, locals }) => {
@@ -28,7 +33,9 @@ export const DELETE: APIRoute = async ({ params, request, locals }) => {
 	const body = await readJson(request, deleteTeamSchema);
 	if (!body.ok) return body.response;
 	if (body.data.confirmName.trim() !== auth.value.teamName) {
-		return problem(400, 'confirmation_mismatch', 'Type the team name exactly to delete it', [{ path: 'confirmName', message: 'Does not match the team name' }]);
+		return problem(400, 'confirmation_mismatch', 'Type the team name exactly to delete it', [
+			{ path: 'confirmName', message: 'Does not match the team name' },
+		]);
 	}
 	await deleteTeam(locals.db, auth.value.teamId);
 	await removeTeamObjects(locals.storage, auth.value.teamId);

@@ -7,7 +7,9 @@ import { importTeam, parseBackup, prepareBackupFiles } from '@/lib/server/team-b
 import { isDatabaseUnavailable, isStorageUnavailable } from '@/lib/server/unavailable';
 
 export const MAX_BACKUP_BYTES = 200 * 1024 * 1024;
-const formSchema = z.object({ name: teamNameSchema.optional().or(z.literal('').transform(() => undefined)) });
+const formSchema = z.object({
+	name: teamNameSchema.optional().or(z.literal('').transform(() => undefined)),
+});
 
 /**
  * Restores a team backup as a new team (multipart: `file`, optional `name`); the importer becomes
@@ -17,25 +19,60 @@ const formSchema = z.object({ name: teamNameSchema.optional().or(z.literal('').t
  */
 export const POST: APIRoute = async ({ request, locals }) => {
 	if (!locals.user) return problem(401, 'unauthenticated', 'Sign in first');
-	const read = await readMultipart(request, MAX_BACKUP_BYTES + 64 * 1024, 'Backups are limited to 200 MB');
+	const read = await readMultipart(
+		request,
+		MAX_BACKUP_BYTES + 64 * 1024,
+		'Backups are limited to 200 MB',
+	);
 	if (!read.ok) return read.response;
 	const form = read.data;
 	const file = form.get('file');
-	if (!(file instanceof File)) return problem(400, 'invalid_input', 'Attach the backup file', [{ path: 'file', message: 'No file' }]);
-	if (file.size > MAX_BACKUP_BYTES) return problem(413, 'too_large', 'Backups are limited to 200 MB');
-	const fields = validated(formSchema, { name: form.get('name') ?? undefined }, 'Some fields need attention');
+	if (!(file instanceof File))
+		return problem(400, 'invalid_input', 'Attach the backup file', [
+			{ path: 'file', message: 'No file' },
+		]);
+	if (file.size > MAX_BACKUP_BYTES)
+		return problem(413, 'too_large', 'Backups are limited to 200 MB');
+	const fields = validated(
+		formSchema,
+		{ name: form.get('name') ?? undefined },
+		'Some fields need attention',
+	);
 	if (!fields.ok) return fields.response;
 	const parsed = parseBackup(await file.text());
-	if (!parsed.ok) return problem(parsed.code === 'unsupported_version' ? 422 : 400, parsed.code, parsed.detail, parsed.errors ?? [{ path: 'file', message: parsed.detail }]);
+	if (!parsed.ok)
+		return problem(
+			parsed.code === 'unsupported_version' ? 422 : 400,
+			parsed.code,
+			parsed.detail,
+			parsed.errors ?? [{ path: 'file', message: parsed.detail }],
+		);
 	const prepared = await prepareBackupFiles(parsed.backup.team);
-	if (!prepared.ok) return problem(400, 'invalid_backup', 'This backup holds files that are not what they claim to be. Nothing was imported.', prepared.errors);
+	if (!prepared.ok)
+		return problem(
+			400,
+			'invalid_backup',
+			'This backup holds files that are not what they claim to be. Nothing was imported.',
+			prepared.errors,
+		);
 	try {
-		const summary = await importTeam(locals.db, locals.storage, parsed.backup, locals.user, fields.data.name, prepared);
+		const summary = await importTeam(
+			locals.db,
+			locals.storage,
+			parsed.backup,
+			locals.user,
+			fields.data.name,
+			prepared,
+		);
 		return Response.json(summary, { status: 201 });
 	} catch (e) {
 		if (isDatabaseUnavailable(e)) return unavailable('database');
 		if (isStorageUnavailable(e)) return unavailable('storage');
 		console.error('team import failed', e);
-		return problem(500, 'internal', 'The import failed part-way and nothing of it was kept. Try again; if it keeps failing, the file storage or the database may be down.');
+		return problem(
+			500,
+			'internal',
+			'The import failed part-way and nothing of it was kept. Try again; if it keeps failing, the file storage or the database may be down.',
+		);
 	}
 };

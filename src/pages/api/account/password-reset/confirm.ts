@@ -16,8 +16,10 @@ export const POST: APIRoute = async ({ request, locals }) => {
 	const passwordHash = await hashPassword(body.data.password);
 	const result = await resetPassword(locals.db, hashToken(body.data.token), passwordHash);
 	if (!result.ok) {
-		if (result.reason === 'expired') return problem(410, 'token_expired', 'This reset link has expired. Ask for a new one.');
-		if (result.reason === 'used') return problem(410, 'token_used', 'This reset link was already used. Ask for a new one.');
+		if (result.reason === 'expired')
+			return problem(410, 'token_expired', 'This reset link has expired. Ask for a new one.');
+		if (result.reason === 'used')
+			return problem(410, 'token_used', 'This reset link was already used. Ask for a new one.');
 		return problem(404, 'invalid_token', 'This reset link is not valid.');
 	}
 	return new Response(null, { status: 204 });

@@ -7,7 +7,11 @@ export const GET: APIRoute = async ({ params, locals }) => {
 	const auth = await requireTeamRole(locals, params.teamId, 'viewer');
 	if (!auth.ok) return auth.response;
 	const backup = await exportTeam(locals.db, locals.storage, auth.value.teamId);
-	const slug = auth.value.teamName.toLowerCase().replace(/[^a-z0-9]+/g, '-').replace(/^-|-$/g, '') || 'team';
+	const slug =
+		auth.value.teamName
+			.toLowerCase()
+			.replace(/[^a-z0-9]+/g, '-')
+			.replace(/^-|-$/g, '') || 'team';
 	return new Response(JSON.stringify(backup), {
 		headers: {
 			'content-type': 'application/json; charset=utf-8',

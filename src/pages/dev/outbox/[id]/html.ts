@@ -14,7 +14,8 @@ export const GET: APIRoute = ({ params, locals }) => {
 	return new Response(mail.html, {
 		headers: {
 			'content-type': 'text/html; charset=utf-8',
-			'content-security-policy': "default-src 'none'; style-src 'unsafe-inline'; img-src data:; frame-ancestors 'self'; sandbox",
+			'content-security-policy':
+				"default-src 'none'; style-src 'unsafe-inline'; img-src data:; frame-ancestors 'self'; sandbox",
 			'x-frame-options': 'SAMEORIGIN',
 			'cache-control': 'no-store',
 		},

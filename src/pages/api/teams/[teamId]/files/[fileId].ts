@@ -27,7 +27,11 @@ export const GET: APIRoute = async ({ params, locals }) => {
 	if (!body) return problem(404, 'not_found', 'The file is missing from storage');
 	const image = file.kind !== 'logger' ? sniffImage(body) : null;
 	const inline = image !== null && image === file.content_type;
-	const type = inline ? image : file.kind === 'logger' ? 'text/csv; charset=utf-8' : 'application/octet-stream';
+	const type = inline
+		? image
+		: file.kind === 'logger'
+			? 'text/csv; charset=utf-8'
+			: 'application/octet-stream';
 	return new Response(Buffer.from(body), {
 		headers: {
 			'content-type': type,
@@ -35,7 +39,8 @@ export const GET: APIRoute = async ({ params, locals }) => {
 			'cache-control': 'private, max-age=3600',
 			'content-disposition': disposition(inline ? 'inline' : 'attachment', file.file_name),
 			'x-content-type-options': 'nosniff',
-			'content-security-policy': "default-src 'none'; img-src 'self'; style-src 'unsafe-inline'; sandbox",
+			'content-security-policy':
+				"default-src 'none'; img-src 'self'; style-src 'unsafe-inline'; sandbox",
 			'cross-origin-resource-policy': 'same-origin',
 		},
 	});

@@ -6,7 +6,12 @@ import { problem, readJson } from '@/lib/server/http';
 
 function answer(result: MembershipChange): Response {
 	if (result.ok) return new Response(null, { status: 204 });
-	if (result.reason === 'last_captain') return problem(409, 'last_captain', 'The team needs at least one captain. Make someone else captain first.');
+	if (result.reason === 'last_captain')
+		return problem(
+			409,
+			'last_captain',
+			'The team needs at least one captain. Make someone else captain first.',
+		);
 	return problem(404, 'not_found', 'No such member');
 }
 
@@ -16,7 +21,9 @@ export const PATCH: APIRoute = async ({ params, request, locals }) => {
 	if (!auth.ok) return auth.response;
 	const body = await readJson(request, changeRoleSchema);
 	if (!body.ok) return body.response;
-	return answer(await changeRole(locals.db, auth.value.teamId, params.userId ?? '', body.data.role));
+	return answer(
+		await changeRole(locals.db, auth.value.teamId, params.userId ?? '', body.data.role),
+	);
 };
 
 /** Removes a member (captains), or leaves the team (anyone, for themselves). */

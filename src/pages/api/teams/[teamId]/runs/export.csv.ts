@@ -19,10 +19,27 @@ export const GET: APIRoute = async ({ params, locals, url }) => {
 			vehicle: r.vehicleName,
 			event: r.eventName ?? '',
 			revision: r.revisionNumber ?? '',
-			...Object.fromEntries(MEASUREMENT_FIELDS.map((f) => [RUN_MEASUREMENTS[f].column, r[f] ?? ''])),
+			...Object.fromEntries(
+				MEASUREMENT_FIELDS.map((f) => [RUN_MEASUREMENTS[f].column, r[f] ?? '']),
+			),
 			notes: r.notes,
 		})),
-		{ columns: ['ran_at', 'vehicle', 'event', 'revision', ...MEASUREMENT_FIELDS.map((f) => RUN_MEASUREMENTS[f].column), 'notes'], escapeFormulae: true },
+		{
+			columns: [
+				'ran_at',
+				'vehicle',
+				'event',
+				'revision',
+				...MEASUREMENT_FIELDS.map((f) => RUN_MEASUREMENTS[f].column),
+				'notes',
+			],
+			escapeFormulae: true,
+		},
 	);
-	return new Response(csv, { headers: { 'content-type': 'text/csv; charset=utf-8', 'content-disposition': 'attachment; filename="runs.csv"' } });
+	return new Response(csv, {
+		headers: {
+			'content-type': 'text/csv; charset=utf-8',
+			'content-disposition': 'attachment; filename="runs.csv"',
+		},
+	});
 };

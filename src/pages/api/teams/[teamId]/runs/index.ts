@@ -21,6 +21,10 @@ export const POST: APIRoute = async ({ params, request, locals }) => {
 	const r = body.data;
 	const links = await resolveRunLinks(locals.db, auth.value.teamId, r.vehicleId, r);
 	if (!links.ok) return problem(400, 'invalid_input', 'Some links need attention', links.errors);
-	const id = await insertRun(locals.db, { ...r, revisionId: links.revisionId ?? null, authorId: auth.value.userId });
+	const id = await insertRun(locals.db, {
+		...r,
+		revisionId: links.revisionId ?? null,
+		authorId: auth.value.userId,
+	});
 	return Response.json(await findRun(locals.db, auth.value.teamId, id), { status: 201 });
 };

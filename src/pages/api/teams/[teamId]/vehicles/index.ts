@@ -19,9 +19,17 @@ export const POST: APIRoute = async ({ params, request, locals }) => {
 	if (!auth.ok) return auth.response;
 	const body = await readJson(request, newVehicleSchema);
 	if (!body.ok) return body.response;
-	if (body.data.ownerId && !(await findMembers(locals.db, auth.value.teamId)).some((m) => m.userId === body.data.ownerId)) {
-		return problem(400, 'invalid_input', 'The owner must be a member of the team', [{ path: 'ownerId', message: 'Not a member of this team' }]);
+	if (
+		body.data.ownerId &&
+		!(await findMembers(locals.db, auth.value.teamId)).some((m) => m.userId === body.data.ownerId)
+	) {
+		return problem(400, 'invalid_input', 'The owner must be a member of the team', [
+			{ path: 'ownerId', message: 'Not a member of this team' },
+		]);
 	}
-	const { vehicle } = await insertVehicleWithBuild(locals.db, { teamId: auth.value.teamId, ...body.data });
+	const { vehicle } = await insertVehicleWithBuild(locals.db, {
+		teamId: auth.value.teamId,
+		...body.data,
+	});
 	return Response.json(toVehicleDto(vehicle, null), { status: 201 });
 };

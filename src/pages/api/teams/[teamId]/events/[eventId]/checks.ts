@@ -8,7 +8,12 @@ import { removeSignoff, upsertSignoff } from '@/lib/server/db/checklists';
 import { problem, readJson, readQuery } from '@/lib/server/http';
 
 const vehicleQuery = z.object({ vehicleId: z.uuid({ error: 'Choose a vehicle' }) });
-const signoffSchema = z.object({ vehicleId: z.uuid(), itemKey: lineText(100, { required: 'Name the item' }), note: notesText(500).default(''), signed: z.boolean() });
+const signoffSchema = z.object({
+	vehicleId: z.uuid(),
+	itemKey: lineText(100, { required: 'Name the item' }),
+	note: notesText(500).default(''),
+	signed: z.boolean(),
+});
 
 /** The vehicle's pre-event checklist for the event. */
 export const GET: APIRoute = async ({ params, locals, url }) => {
@@ -17,7 +22,8 @@ export const GET: APIRoute = async ({ params, locals, url }) => {
 	const q = readQuery(url, vehicleQuery);
 	if (!q.ok) return q.response;
 	const eventId = parseUuid(params.eventId);
-	const list = eventId && (await loadChecklist(locals.db, auth.value.teamId, eventId, q.data.vehicleId));
+	const list =
+		eventId && (await loadChecklist(locals.db, auth.value.teamId, eventId, q.data.vehicleId));
 	if (!list) return problem(404, 'not_found', 'No such event or vehicle');
 	return Response.json(list);
 };
@@ -29,13 +35,29 @@ export const POST: APIRoute = async ({ params, request, locals }) => {
 	const body = await readJson(request, signoffSchema);
 	if (!body.ok) return body.response;
 	const eventId = parseUuid(params.eventId);
-	const list = eventId && (await loadChecklist(locals.db, auth.value.teamId, eventId, body.data.vehicleId));
+	const list =
+		eventId && (await loadChecklist(locals.db, auth.value.teamId, eventId, body.data.vehicleId));
 	if (!list) return problem(404, 'not_found', 'No such event or vehicle');
-	if (!list.items.some((i) => i.key === body.data.itemKey)) return problem(400, 'invalid_input', 'No such checklist item', [{ path: 'itemKey', message: 'Unknown item' }]);
+	if (!list.items.some((i) => i.key === body.data.itemKey))
+		return problem(400, 'invalid_input', 'No such checklist item', [
+			{ path: 'itemKey', message: 'Unknown item' },
+		]);
 	if (body.data.signed) {
-		await upsertSignoff(locals.db, { eventId: list.eventId, vehicleId: list.vehicleId, itemKey: body.data.itemKey, signedBy: auth.value.userId, note: body.data.note });
+		await upsertSignoff(locals.db, {
+			eventId: list.eventId,
+			vehicleId: list.vehicleId,
+			itemKey: body.data.itemKey,
+			signedBy: auth.value.userId,
+			note: body.data.note,
+		});
 	} else {
-		await removeSignoff(locals.db, { eventId: list.eventId, vehicleId: list.vehicleId, itemKey: body.data.itemKey });
+		await removeSignoff(locals.db, {
+			eventId: list.eventId,
+			vehicleId: list.vehicleId,
+			itemKey: body.data.itemKey,
+		});
 	}
-	return Response.json(await loadChecklist(locals.db, auth.value.teamId, list.eventId, list.vehicleId));
+	return Response.json(
+		await loadChecklist(locals.db, auth.value.teamId, list.eventId, list.vehicleId),
+	);
 };

@@ -11,7 +11,9 @@ export const PATCH: APIRoute = async ({ params, request, locals }) => {
 	const body = await readJson(request, updateEventSchema);
 	if (!body.ok) return body.response;
 	if ((body.data.endsOn ?? event.ends_on) < (body.data.startsOn ?? event.starts_on)) {
-		return problem(400, 'invalid_input', 'The event cannot end before it starts', [{ path: 'endsOn', message: 'Before the start' }]);
+		return problem(400, 'invalid_input', 'The event cannot end before it starts', [
+			{ path: 'endsOn', message: 'Before the start' },
+		]);
 	}
 	await updateEvent(locals.db, event.id, body.data);
 	return new Response(null, { status: 204 });

@@ -23,7 +23,10 @@ export const PATCH: APIRoute = async ({ params, request, locals }) => {
 	const body = await readJson(request, updateRunSchema);
 	if (!body.ok) return body.response;
 	const r = body.data;
-	const links = await resolveRunLinks(locals.db, access.teamId, run.vehicleId, { ...r, revisionId: r.revisionId ?? (r.ranAt ? undefined : run.revisionId) });
+	const links = await resolveRunLinks(locals.db, access.teamId, run.vehicleId, {
+		...r,
+		revisionId: r.revisionId ?? (r.ranAt ? undefined : run.revisionId),
+	});
 	if (!links.ok) return problem(400, 'invalid_input', 'Some links need attention', links.errors);
 	await updateRun(locals.db, run.id, { ...r, revisionId: links.revisionId ?? null });
 	return Response.json(await findRun(locals.db, access.teamId, run.id));

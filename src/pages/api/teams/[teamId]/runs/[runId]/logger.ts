@@ -18,33 +18,74 @@ export const POST: APIRoute = async ({ params, request, locals }) => {
 	const found = await requireRun(locals, params, 'member');
 	if (!found.ok) return found.response;
 	const { access, run } = found.value;
-	const read = await readMultipart(request, MAX_LOGGER_BYTES + 64 * 1024, `Logger files are limited to ${MAX_LOGGER_BYTES / 1024 / 1024} MB`);
+	const read = await readMultipart(
+		request,
+		MAX_LOGGER_BYTES + 64 * 1024,
+		`Logger files are limited to ${MAX_LOGGER_BYTES / 1024 / 1024} MB`,
+	);
 	if (!read.ok) return read.response;
 	const form = read.data;
 	const file = form.get('file');
-	if (!(file instanceof File)) return problem(400, 'invalid_input', 'Attach the logger file', [{ path: 'file', message: 'No file' }]);
-	if (file.size > MAX_LOGGER_BYTES) return problem(413, 'too_large', `Logger files are limited to ${MAX_LOGGER_BYTES / 1024 / 1024} MB`);
-	const mapping = validated(loggerMappingSchema, Object.fromEntries([...form.entries()].filter(([, v]) => typeof v === 'string')), 'Map the columns of the file');
+	if (!(file instanceof File))
+		return problem(400, 'invalid_input', 'Attach the logger file', [
+			{ path: 'file', message: 'No file' },
+		]);
+	if (file.size > MAX_LOGGER_BYTES)
+		return problem(
+			413,
+			'too_large',
+			`Logger files are limited to ${MAX_LOGGER_BYTES / 1024 / 1024} MB`,
+		);
+	const mapping = validated(
+		loggerMappingSchema,
+		Object.fromEntries([...form.entries()].filter(([, v]) => typeof v === 'string')),
+		'Map the columns of the file',
+	);
 	if (!mapping.ok) return mapping.response;
 	const bytes = new Uint8Array(await file.arrayBuffer());
 	const checked = checkLoggerFile(bytes);
-	if (!checked.ok) return problem(400, 'invalid_input', checked.message, [{ path: 'file', message: 'Not a CSV file' }]);
+	if (!checked.ok)
+		return problem(400, 'invalid_input', checked.message, [
+			{ path: 'file', message: 'Not a CSV file' },
+		]);
 	const text = checked.text;
-	const parsed = parseLoggerCsv(text, { time: mapping.data.timeColumn, volts: mapping.data.voltsColumn, amps: mapping.data.ampsColumn, timeUnit: mapping.data.timeUnit });
-	if (!parsed.ok) return problem(400, 'invalid_input', parsed.message, [{ path: parsed.row ? `row ${parsed.row}` : 'file', message: parsed.message }]);
+	const parsed = parseLoggerCsv(text, {
+		time: mapping.data.timeColumn,
+		volts: mapping.data.voltsColumn,
+		amps: mapping.data.ampsColumn,
+		timeUnit: mapping.data.timeUnit,
+	});
+	if (!parsed.ok)
+		return problem(400, 'invalid_input', parsed.message, [
+			{ path: parsed.row ? `row ${parsed.row}` : 'file', message: parsed.message },
+		]);
 
 	const key = `teams/${access.teamId}/runs/${run.id}/logger-${randomUUID()}.csv`;
 	await locals.storage.put(key, bytes, 'text/csv');
 	try {
-		const outcome = await replaceLoggerData(locals.db, { teamId: access.teamId, runId: run.id, objectKey: key, fileName: file.name.slice(0, 200), sizeBytes: bytes.byteLength, samples: parsed.samples });
+		const outcome = await replaceLoggerData(locals.db, {
+			teamId: access.teamId,
+			runId: run.id,
+			objectKey: key,
+			fileName: file.name.slice(0, 200),
+			sizeBytes: bytes.byteLength,
+			samples: parsed.samples,
+		});
 		if (!outcome.ok) {
 			await locals.storage.remove(key).catch(() => undefined);
-			return problem(409, 'conflict', 'Another logger file is being uploaded to this run right now. Wait for it to finish, then try again.');
+			return problem(
+				409,
+				'conflict',
+				'Another logger file is being uploaded to this run right now. Wait for it to finish, then try again.',
+			);
 		}
 		for (const old of outcome.replacedKeys) await locals.storage.remove(old).catch(() => undefined);
 	} catch (error) {
 		await locals.storage.remove(key).catch(() => undefined);
 		throw error;
 	}
-	return Response.json({ samples: parsed.samples.length, analysis: analyseRun(parsed.samples) }, { status: 201 });
+	return Response.json(
+		{ samples: parsed.samples.length, analysis: analyseRun(parsed.samples) },
+		{ status: 201 },
+	);
 };

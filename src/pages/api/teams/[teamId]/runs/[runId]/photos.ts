@@ -14,13 +14,26 @@ export const POST: APIRoute = async ({ params, request, locals }) => {
 	const found = await requireRun(locals, params, 'member');
 	if (!found.ok) return found.response;
 	const { access, run } = found.value;
-	const form = await readMultipart(request, MAX_PHOTO_BYTES + 64 * 1024, 'Photos are limited to 10 MB');
+	const form = await readMultipart(
+		request,
+		MAX_PHOTO_BYTES + 64 * 1024,
+		'Photos are limited to 10 MB',
+	);
 	if (!form.ok) return form.response;
 	const file = form.data.get('file');
-	if (!(file instanceof File)) return problem(400, 'invalid_input', 'Attach a photo', [{ path: 'file', message: 'No file' }]);
+	if (!(file instanceof File))
+		return problem(400, 'invalid_input', 'Attach a photo', [{ path: 'file', message: 'No file' }]);
 	if (file.size > MAX_PHOTO_BYTES) return problem(413, 'too_large', 'Photos are limited to 10 MB');
 	const checked = await checkPhoto(new Uint8Array(await file.arrayBuffer()));
-	if (!checked.ok) return problem(400, 'invalid_input', checked.message === 'Not a JPEG, PNG or WebP image' ? 'Photos must be JPEG, PNG or WebP images' : checked.message, [{ path: 'file', message: checked.message }]);
+	if (!checked.ok)
+		return problem(
+			400,
+			'invalid_input',
+			checked.message === 'Not a JPEG, PNG or WebP image'
+				? 'Photos must be JPEG, PNG or WebP images'
+				: checked.message,
+			[{ path: 'file', message: checked.message }],
+		);
 	const thumb = await makeThumbnail(checked.bytes);
 	const base = `teams/${access.teamId}/runs/${run.id}/photo-${randomUUID()}`;
 	const ext = checked.type.split('/')[1];
@@ -33,7 +46,11 @@ export const POST: APIRoute = async ({ params, request, locals }) => {
 			teamId: access.teamId,
 			runId: run.id,
 			fileName: name,
-			photo: { objectKey: keys[0]!, contentType: checked.type, sizeBytes: checked.bytes.byteLength },
+			photo: {
+				objectKey: keys[0]!,
+				contentType: checked.type,
+				sizeBytes: checked.bytes.byteLength,
+			},
 			thumbnail: { objectKey: keys[1]!, sizeBytes: thumb.byteLength },
 		});
 		return Response.json({ ...ids, metadataRemoved: checked.stripped }, { status: 201 });

@@ -18,8 +18,13 @@ export const PATCH: APIRoute = async ({ params, request, locals }) => {
 	const body = await readJson(request, updateVehicleSchema);
 	if (!body.ok) return body.response;
 	const { ownerId } = body.data;
-	if (ownerId && !(await findMembers(locals.db, found.value.access.teamId)).some((m) => m.userId === ownerId)) {
-		return problem(400, 'invalid_input', 'The owner must be a member of the team', [{ path: 'ownerId', message: 'Not a member of this team' }]);
+	if (
+		ownerId &&
+		!(await findMembers(locals.db, found.value.access.teamId)).some((m) => m.userId === ownerId)
+	) {
+		return problem(400, 'invalid_input', 'The owner must be a member of the team', [
+			{ path: 'ownerId', message: 'Not a member of this team' },
+		]);
 	}
 	const row = await updateVehicle(locals.db, found.value.vehicle.id, body.data);
 	return Response.json(toVehicleDto(row, found.value.build.head_revision_id));

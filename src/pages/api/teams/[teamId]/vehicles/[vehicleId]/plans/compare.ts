@@ -19,15 +19,30 @@ export const GET: APIRoute = async ({ params, url, locals }) => {
 	const plans = [];
 	for (const id of new Set(query.data.plans)) {
 		const plan = await findPlan(locals.db, vehicle.id, id);
-		if (!plan) return problem(404, 'not_found', 'No such plan', [{ path: 'plans', message: `${id} is not a plan of this vehicle` }]);
+		if (!plan)
+			return problem(404, 'not_found', 'No such plan', [
+				{ path: 'plans', message: `${id} is not a plan of this vehicle` },
+			]);
 		plans.push(plan);
 	}
 	const currency = await findTeamCurrency(locals.db, access.teamId);
-	const scenario = { ...(query.data.engineRpm !== undefined && { engineRpm: query.data.engineRpm }), ...(query.data.conductorTempC !== undefined && { conductorTempC: query.data.conductorTempC }) };
+	const scenario = {
+		...(query.data.engineRpm !== undefined && { engineRpm: query.data.engineRpm }),
+		...(query.data.conductorTempC !== undefined && { conductorTempC: query.data.conductorTempC }),
+	};
 	const columns = comparePlans(
 		head.document,
-		plans.map((p) => ({ id: p.id, name: p.name, document: p.document, cost: partsTotalMinor(p.parts) / 100 })),
+		plans.map((p) => ({
+			id: p.id,
+			name: p.name,
+			document: p.document,
+			cost: partsTotalMinor(p.parts) / 100,
+		})),
 		scenario,
 	);
-	return Response.json({ currency, head: { id: head.id, number: head.number, message: head.message }, columns });
+	return Response.json({
+		currency,
+		head: { id: head.id, number: head.number, message: head.message },
+		columns,
+	});
 };

@@ -18,12 +18,27 @@ export const POST: APIRoute = async ({ params, request, locals }) => {
 	const body = await readJson(request, newPlanSchema);
 	if (!body.ok) return body.response;
 	const { build, vehicle, access } = found.value;
-	const base = body.data.fromRevisionId ? await findRevision(locals.db, build.id, body.data.fromRevisionId) : await findHeadRevision(locals.db, build.id);
+	const base = body.data.fromRevisionId
+		? await findRevision(locals.db, build.id, body.data.fromRevisionId)
+		: await findHeadRevision(locals.db, build.id);
 	if (!base) {
 		return body.data.fromRevisionId
-			? problem(400, 'invalid_input', 'That revision is not part of this build', [{ path: 'fromRevisionId', message: 'No such revision for this vehicle' }])
-			: problem(409, 'conflict', 'Save a first revision of the build before planning upgrades to it');
+			? problem(400, 'invalid_input', 'That revision is not part of this build', [
+					{ path: 'fromRevisionId', message: 'No such revision for this vehicle' },
+				])
+			: problem(
+					409,
+					'conflict',
+					'Save a first revision of the build before planning upgrades to it',
+				);
 	}
-	const id = await insertPlan(locals.db, { vehicleId: vehicle.id, name: body.data.name, notes: body.data.notes, baseRevisionId: base.id, document: base.document, createdBy: access.userId });
+	const id = await insertPlan(locals.db, {
+		vehicleId: vehicle.id,
+		name: body.data.name,
+		notes: body.data.notes,
+		baseRevisionId: base.id,
+		document: base.document,
+		createdBy: access.userId,
+	});
 	return Response.json(await findPlan(locals.db, vehicle.id, id), { status: 201 });
 };

@@ -20,7 +20,18 @@ export const POST: APIRoute = async ({ params, request, locals }) => {
 	if (!body.ok) return body.response;
 	const issues = checkTopology(body.data.document);
 	if (issues.length) {
-		return problem(400, 'invalid_input', 'The network cannot be solved as drawn', issues.map((i) => ({ path: `document.${i.path}`, message: i.message })));
+		return problem(
+			400,
+			'invalid_input',
+			'The network cannot be solved as drawn',
+			issues.map((i) => ({ path: `document.${i.path}`, message: i.message })),
+		);
 	}
-	return saveRevision(locals.db, { buildId: found.value.build.id, parentId: body.data.parentId, document: body.data.document, message: body.data.message, authorId: found.value.access.userId });
+	return saveRevision(locals.db, {
+		buildId: found.value.build.id,
+		parentId: body.data.parentId,
+		document: body.data.document,
+		message: body.data.message,
+		authorId: found.value.access.userId,
+	});
 };

@@ -19,14 +19,22 @@ export const PUT: APIRoute = async ({ params, request, locals }) => {
 	if (!body.ok) return body.response;
 	const issues = checkTopology(body.data.document);
 	if (issues.length) {
-		return problem(400, 'invalid_input', 'The network cannot be solved as drawn', issues.map((i) => ({ path: `document.${i.path}`, message: i.message })));
+		return problem(
+			400,
+			'invalid_input',
+			'The network cannot be solved as drawn',
+			issues.map((i) => ({ path: `document.${i.path}`, message: i.message })),
+		);
 	}
 	const { vehicle, plan } = found.value;
 	const result = await updatePlan(locals.db, vehicle.id, plan.id, body.data);
 	if (!result.ok && result.reason === 'missing') return problem(404, 'not_found', 'No such plan');
 	if (!result.ok) {
 		const current = await findPlan(locals.db, vehicle.id, plan.id);
-		return conflict('Someone saved this plan after you opened it. Your changes are kept: compare and save again.', { current, yours: body.data });
+		return conflict(
+			'Someone saved this plan after you opened it. Your changes are kept: compare and save again.',
+			{ current, yours: body.data },
+		);
 	}
 	return Response.json(await findPlan(locals.db, vehicle.id, plan.id));
 };

@@ -57,9 +57,15 @@ export const POST: APIRoute = async ({ params, request, locals }) => {
 		authorId: access.userId,
 	});
 	if (!result.ok) return stale(await findHeadRevision(locals.db, build.id));
-	return Response.json((await findRevision(locals.db, build.id, result.revision.id)) as RevisionDto, { status: 201 });
+	return Response.json(
+		(await findRevision(locals.db, build.id, result.revision.id)) as RevisionDto,
+		{ status: 201 },
+	);
 };
 
 function stale(head: RevisionDto | undefined) {
-	return conflict(`Revision ${head?.number ?? '?'} was saved after you looked. Compare the plan with it, then install again.`, { head: head ?? null });
+	return conflict(
+		`Revision ${head?.number ?? '?'} was saved after you looked. Compare the plan with it, then install again.`,
+		{ head: head ?? null },
+	);
 }

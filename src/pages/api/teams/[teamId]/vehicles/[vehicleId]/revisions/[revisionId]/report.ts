@@ -11,6 +11,12 @@ export const GET: APIRoute = async ({ params, locals, url }) => {
 	const { revision } = found.value;
 	const scenario = readQuery(url, scenarioQuerySchema);
 	if (!scenario.ok) return scenario.response;
-	const clean = Object.fromEntries(Object.entries(scenario.data).filter(([, v]) => v !== undefined));
-	return Response.json({ revisionId: revision.id, number: revision.number, report: buildReport(revision.document, clean) });
+	const clean = Object.fromEntries(
+		Object.entries(scenario.data).filter(([, v]) => v !== undefined),
+	);
+	return Response.json({
+		revisionId: revision.id,
+		number: revision.number,
+		report: buildReport(revision.document, clean),
+	});
 };

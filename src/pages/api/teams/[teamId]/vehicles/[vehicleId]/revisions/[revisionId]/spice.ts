@@ -16,7 +16,10 @@ export const GET: APIRoute = async ({ params, locals, url }) => {
 		demand: q.data.burpDemand ?? DEFAULT_SCENARIO.burpDemand,
 		conductorTempC: q.data.conductorTempC ?? DEFAULT_SCENARIO.conductorTempC,
 	};
-	const { netlist } = toSpiceNetlist(revision.document, conditions, { title: `${found.value.vehicle.name} revision ${revision.number}`, nodeset: 'unloaded' });
+	const { netlist } = toSpiceNetlist(revision.document, conditions, {
+		title: `${found.value.vehicle.name} revision ${revision.number}`,
+		nodeset: 'unloaded',
+	});
 	return new Response(netlist, {
 		headers: {
 			'content-type': 'text/plain; charset=utf-8',
