@@ -256,8 +256,6 @@ const looseBuildSchema = z.object({
 export const buildDocumentSchema: z.ZodType<BuildDocument> =
 	looseBuildSchema.superRefine(checkReferences);
 
-export type BuildDocumentInput = z.input<typeof looseBuildSchema>;
-
 export interface BuildDocumentProblem {
 	path: string;
 	message: string;

@@ -67,7 +67,6 @@ export interface MeasurementSpec {
 }
 
 export type MeasurementField = keyof typeof RUN_MEASUREMENTS;
-export type MeasurementColumn = (typeof RUN_MEASUREMENTS)[MeasurementField]['column'];
 
 export const MEASUREMENT_FIELDS = Object.keys(RUN_MEASUREMENTS) as MeasurementField[];
 

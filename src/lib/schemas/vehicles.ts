@@ -26,7 +26,6 @@ export const newRevisionSchema = z.object({
 	message: revisionMessageSchema,
 	document: buildDocumentSchema,
 });
-export type NewRevisionInput = z.infer<typeof newRevisionSchema>;
 
 export const restoreRevisionSchema = z.object({
 	parentId: z.uuid().nullable(),

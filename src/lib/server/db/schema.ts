@@ -2,7 +2,7 @@
  * The database, typed by hand beside the migrations (one interface per table).
  * Measured quantities are double precision in SI units; build documents are JSONB.
  */
-import type { ColumnType, Generated, Insertable, Selectable, Updateable } from 'kysely';
+import type { ColumnType, Generated, Selectable } from 'kysely';
 import type { RunNumberColumns } from '@/lib/schemas/run-measurements';
 import type { Role } from '@/lib/schemas/teams';
 
@@ -278,12 +278,7 @@ export interface Database {
 }
 
 export type UserRow = Selectable<UserTable>;
-export type MembershipRow = Selectable<MembershipTable>;
 export type InvitationRow = Selectable<InvitationTable>;
 
-export type TeamRow = Selectable<TeamTable>;
-export type NewTeamRow = Insertable<TeamTable>;
 export type VehicleRow = Selectable<VehicleTable>;
-export type NewVehicleRow = Insertable<VehicleTable>;
-export type VehicleRowUpdate = Updateable<VehicleTable>;
 export type RevisionRow = Selectable<RevisionTable>;

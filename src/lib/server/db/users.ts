@@ -34,10 +34,6 @@ export async function insertUser(
 		.executeTakeFirst();
 }
 
-export async function updatePassword(db: Db, userId: string, passwordHash: string): Promise<void> {
-	await db.updateTable('User').set({ passwordHash }).where('id', '=', userId).execute();
-}
-
 // ---- password resets
 
 export async function insertPasswordReset(
@@ -117,14 +113,6 @@ export async function sessionVersionOf(db: Db, userId: string): Promise<number |
 }
 
 /** Ends every session of the account (they are checked against this version on each request). */
-export async function endSessions(db: Db, userId: string): Promise<void> {
-	await db
-		.updateTable('User')
-		.set((eb) => ({ sessionVersion: eb('sessionVersion', '+', 1) }))
-		.where('id', '=', userId)
-		.execute();
-}
-
 /**
  * On the first proof that the owner reads this address (an e-mailed link): a password set before
  * the address was ever confirmed is dropped and its sessions end.
