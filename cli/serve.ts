@@ -6,12 +6,15 @@
  *   upload never sits in memory;
  * - the client's address comes from the socket, and from X-Forwarded-For only when the request
  *   arrives from a proxy named in TRUST_PROXY (otherwise forwarded headers are dropped);
- * - doubled slashes in a path answer 404 plainly.
+ * - doubled slashes in a path answer 404 plainly;
+ * - answers are compressed (brotli or gzip, as the client accepts) when their type compresses and
+ *   they are larger than 1 KB: pages, JSON, scripts, styles, CSV.
  */
 import http from 'node:http';
 import { isIP } from 'node:net';
 import path from 'node:path';
 import { pathToFileURL } from 'node:url';
+import compression from 'compression';
 import { bodyLimitFor } from '../src/lib/server/body-limits';
 
 type Handler = (req: http.IncomingMessage, res: http.ServerResponse) => void;
@@ -80,7 +83,14 @@ export function createFront(
 	env: Record<string, string | undefined> = process.env,
 ): Handler {
 	const trusted = parseTrustedProxies(env.TRUST_PROXY);
-	return (req, res) => {
+	const compress = compression({ threshold: 1024 }) as unknown as (
+		req: http.IncomingMessage,
+		res: http.ServerResponse,
+		next: () => void,
+	) => void;
+	return (req, res) => compress(req, res, () => handle(req, res));
+
+	function handle(req: http.IncomingMessage, res: http.ServerResponse) {
 		const pathname = (req.url ?? '/').split('?')[0]!;
 		if (pathname.includes('//')) return refuse(res, 404, 'not_found', 'No such page');
 
@@ -120,7 +130,7 @@ export function createFront(
 			})();
 		}
 		astro(req, res);
-	};
+	}
 }
 
 async function main() {

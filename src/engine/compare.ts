@@ -61,14 +61,20 @@ function settled(s: NetworkSolution): number | null {
 	);
 }
 
-function lowest(doc: BuildDocument, scenario: Scenario, demand: number): number | null {
-	const s = solveNetwork(doc, {
-		engineRpm: scenario.engineRpm,
-		demand,
-		conductorTempC: scenario.conductorTempC,
-	});
+/** The lowest amplifier terminal voltage of a solution (null at a collapse or with no amplifier). */
+function lowestOf(s: NetworkSolution): number | null {
 	if (s.status === 'collapse' || s.amplifiers.length === 0) return null;
 	return Math.min(...s.amplifiers.map((a) => a.terminalV));
+}
+
+function lowest(doc: BuildDocument, scenario: Scenario, demand: number): number | null {
+	return lowestOf(
+		solveNetwork(doc, {
+			engineRpm: scenario.engineRpm,
+			demand,
+			conductorTempC: scenario.conductorTempC,
+		}),
+	);
 }
 
 /**
@@ -89,7 +95,7 @@ export function comparePlans(
 		name: string,
 		doc: BuildDocument,
 		cost: number,
-		baseBurp: number | null,
+		baseBurpIn: number | null | undefined,
 	): ComparisonColumn => {
 		const report = buildReport(doc, scenario, { burpRun: false });
 		const run = report.ok
@@ -105,8 +111,12 @@ export function comparePlans(
 			const v = run?.amplifierMinV[id];
 			return v !== undefined && Number.isFinite(v) && run!.collapsedAtS === null ? v : null;
 		};
-		const burp = lowest(doc, scenario, scenario.burpDemand);
-		const sustained = lowest(doc, scenario, scenario.sustainedDemand);
+		// The report already solved the network at both demands: its solutions are the same ones.
+		const burp = report.ok ? lowestOf(report.burp) : lowest(doc, scenario, scenario.burpDemand);
+		const sustained = report.ok
+			? lowestOf(report.sustained)
+			: lowest(doc, scenario, scenario.sustainedDemand);
+		const baseBurp = baseBurpIn === undefined ? burp : baseBurpIn;
 		const weakest = report.ok
 			? report.amplifiers.reduce(
 					(w, a) => (a.burpTerminalV < w.burpTerminalV ? a : w),
@@ -156,9 +166,8 @@ export function comparePlans(
 			dbPerMoney: deltaDb !== null && deltaDb > 0 && cost > 0 ? deltaDb / cost : null,
 		};
 	};
-	const baseBurp = lowest(current, scenario, scenario.burpDemand);
-	return [
-		column('current', 'Current build', current, 0, baseBurp),
-		...plans.map((p) => column(p.id, p.name, p.document, p.cost, baseBurp)),
-	];
+	// The current build is its own baseline; each plan is measured against its burp voltage.
+	const base = column('current', 'Current build', current, 0, undefined);
+	const baseBurp = base.lowestAmplifierV.burp;
+	return [base, ...plans.map((p) => column(p.id, p.name, p.document, p.cost, baseBurp))];
 }

@@ -281,6 +281,49 @@ describe('vehicles, builds and revisions', () => {
 		expect((await bad.json()).errors[0].path).toBe('engineRpm');
 	});
 
+	it('answers a repeat report with its ETag: 304 for a client that holds it, a new tag for another scenario', async () => {
+		const v = await newVehicle('Cached report');
+		const r1 = await (
+			await call(
+				member,
+				revisions,
+				'POST',
+				{ vehicleId: v.id },
+				{ parentId: null, message: 'One', document: pebbleBuild },
+			)
+		).json();
+		const get = (query: string, headers: Record<string, string> = {}) =>
+			callEndpoint(report, {
+				locals: localsFor(t.db, member),
+				params: { teamId, vehicleId: v.id, revisionId: r1.id },
+				request: jsonRequest(`/x${query}`, 'GET', undefined, headers),
+			});
+		const first = await get('?engineRpm=1200');
+		const etag = first.headers.get('etag')!;
+		expect(etag).toMatch(/^"[\w-]+"$/);
+		expect(first.headers.get('cache-control')).toBe('private, no-cache');
+		const again = await get('?engineRpm=1200');
+		expect(again.headers.get('etag')).toBe(etag);
+		expect(await again.json()).toEqual(await first.json());
+		const held = await get('?engineRpm=1200', { 'if-none-match': etag });
+		expect(held.status).toBe(304);
+		expect(await held.text()).toBe('');
+		const other = await get('?engineRpm=1800', { 'if-none-match': etag });
+		expect(other.status).toBe(200);
+		expect(other.headers.get('etag')).not.toBe(etag);
+		expect((await other.json()).report).toEqual(
+			JSON.parse(JSON.stringify(buildReport(pebbleBuild, { engineRpm: 1800 }))),
+		);
+		// The ETag is checked after access: an outsider gets the 404, never a 304.
+		const outsider = await makeUser(t.db, 'outsider-etag@sagwise.test', 'Out');
+		const refused = await callEndpoint(report, {
+			locals: localsFor(t.db, outsider),
+			params: { teamId, vehicleId: v.id, revisionId: r1.id },
+			request: jsonRequest('/x?engineRpm=1200', 'GET', undefined, { 'if-none-match': etag }),
+		});
+		expect(refused.status).toBe(404);
+	});
+
 	it('exports a revision as a SPICE netlist', async () => {
 		const v = await newVehicle('Spice');
 		const r1 = await (

@@ -160,6 +160,31 @@ describe('upgrade plans', () => {
 		).toBe(400);
 	});
 
+	it('recomputes a cached comparison when a plan is saved again (its version is part of the key)', async () => {
+		const created = await (await call(plans, 'POST', {}, { name: 'Cache check' })).json();
+		const first = await call(compare, 'GET', {}, undefined, `?plans=${created.id}`);
+		const etag = first.headers.get('etag')!;
+		expect((await first.json()).columns[1].cost).toBe(0);
+		const saved = await call(
+			plan,
+			'PUT',
+			{ planId: created.id },
+			{
+				version: created.version,
+				name: 'Cache check',
+				notes: '',
+				document: upsized(created.document),
+				parts: [{ item: 'Lugs', quantity: 2, unitPrice: 5 }],
+			},
+		);
+		expect(saved.status).toBe(200);
+		const after = await call(compare, 'GET', {}, undefined, `?plans=${created.id}`);
+		expect(after.headers.get('etag')).not.toBe(etag);
+		const body = await after.json();
+		expect(body.columns[1].cost).toBe(10);
+		expect(body.columns[1].deltaDb).toBeGreaterThan(0);
+	});
+
 	it('installs a plan as the next revision with its changes and a message naming it', async () => {
 		const list = await (await call(plans, 'GET')).json();
 		const bigger = list.find((x: { name: string }) => x.name === 'Bigger run');
