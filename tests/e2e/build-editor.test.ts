@@ -50,6 +50,30 @@ describe('editing a build in chromium', () => {
 		expect(b.problems).toEqual([]);
 	});
 
+	it('the burp and the ranked upgrades arrive from the engine worker: the server sends neither, typing waits for neither', async () => {
+		const b = await openBrowser();
+		opened.push(b);
+		const workers: string[] = [];
+		b.page.on('worker', (w) => workers.push(w.url()));
+		await signInToTeam(b, appUrl, DEMO_USERS[1].email, DEMO_PASSWORD, DEMO_TEAM_NAME);
+		const link = b.page.getByRole('link', { name: 'Marlin', exact: true });
+		const href = (await link.getAttribute('href'))!;
+		// The server-rendered page: the heavy analysis is left to the browser.
+		const html = await (await b.page.request.get(new URL(href, appUrl).href)).text();
+		expect(html).toContain('Computing the burp…');
+		expect(html).toContain('Ranking upgrades…');
+		await link.click();
+		await b.page.waitForSelector('astro-island[component-export="BuildWorkspace"]:not([ssr])', {
+			state: 'attached',
+		});
+		const burp = b.page.getByRole('region', { name: /burp, step by step/ });
+		await burp.getByText(/Wh into the amplifiers/).waitFor();
+		await b.page.getByRole('heading', { name: /single upgrades ranked/ }).waitFor();
+		await expect.poll(() => b.page.getByText('Ranking upgrades…').count()).toBe(0);
+		expect(workers.some((u) => /engine\.worker/.test(u))).toBe(true);
+		expect(b.problems).toEqual([]);
+	});
+
 	it('viewer sees no edit controls, and a direct write answers 403', async () => {
 		const b = await openBrowser();
 		opened.push(b);

@@ -1,12 +1,10 @@
-import { useDeferredValue, useMemo, useState } from 'react';
+import { useMemo, useState } from 'react';
 import {
 	buildReport,
 	type BuildDocument,
 	checkTopology,
 	DEFAULT_SCENARIO,
-	runBurp,
 	type Scenario,
-	upgradeHints,
 } from '@/engine';
 import { buildDocumentSchema } from '@/lib/schemas/build-document';
 import type { UnitSystem } from '@/lib/format';
@@ -21,6 +19,7 @@ import { ScenarioControls } from './analysis/ScenarioControls';
 import { UpgradeHintsSection } from './analysis/UpgradeHintsSection';
 import { NetworkDiagram } from './NetworkDiagram';
 import { PartEditor } from './PartEditor';
+import { useDeferredAnalysis } from './use-deferred-analysis';
 
 /** Field errors of a draft by dotted path: the schema first, then the network's topology. */
 export function validateDraft(doc: BuildDocument): Record<string, string> {
@@ -63,25 +62,8 @@ export function Workbench({
 		() => (valid ? buildReport(draft, scenario, { burpRun: false }) : null),
 		[draft, scenario, valid],
 	);
-	const deferredDraft = useDeferredValue(draft);
-	const burp = useMemo(() => {
-		if (Object.keys(validateDraft(deferredDraft)).length) return null;
-		return runBurp(deferredDraft, {
-			engineRpm: scenario.engineRpm,
-			demand: scenario.burpDemand,
-			conductorTempC: scenario.conductorTempC,
-			durationS: scenario.burpSeconds,
-			stepS: scenario.burpStepS,
-		});
-	}, [deferredDraft, scenario]);
-	const hints = useMemo(() => {
-		if (Object.keys(validateDraft(deferredDraft)).length) return null;
-		return upgradeHints(deferredDraft, {
-			engineRpm: scenario.engineRpm,
-			demand: scenario.burpDemand,
-			conductorTempC: scenario.conductorTempC,
-		}).slice(0, 5);
-	}, [deferredDraft, scenario]);
+	// The heavy part (burp, upgrades) runs in the engine worker once typing pauses.
+	const { burp, hints } = useDeferredAnalysis(draft, scenario, valid);
 
 	const ok = report && report.ok ? report : null;
 	const flagged = useMemo(
