@@ -90,3 +90,15 @@ export function formatMoney(x: number, currency: string): string {
 		return `${x.toFixed(2)} ${currency}`;
 	}
 }
+
+/** Which part a validation path names, in words: `cables.9.lengthM` → Cable “Amplifier 2 feed”. */
+export function partOfPath(
+	doc: Partial<Record<PartGroup, Array<{ id: string; label?: string }>>>,
+	path: string,
+): string {
+	const [group, index] = path.split('.');
+	if (!group || !(group in GROUP_NAMES)) return 'The build';
+	const part = doc[group as PartGroup]?.[Number(index)];
+	const name = GROUP_NAMES[group as PartGroup];
+	return part ? `${name} “${part.label || part.id}”` : name;
+}

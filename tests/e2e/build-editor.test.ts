@@ -74,6 +74,31 @@ describe('editing a build in chromium', () => {
 		expect(b.problems).toEqual([]);
 	});
 
+	it('clearing a cable length and retyping it keeps the focus, the figures and the place on the page', async () => {
+		const b = await openBrowser();
+		opened.push(b);
+		await signInAndOpen(b, DEMO_USERS[1].email, 'Pebble');
+		const length = b.page.getByLabel('Front-to-rear run: Length');
+		await length.scrollIntoViewIfNeeded();
+		const before = await dropOf(b, 'run');
+		await length.click();
+		const scrollBefore = await b.page.evaluate(() => window.scrollY);
+		await length.press('Control+a');
+		await length.press('Backspace');
+		// Cleared: the field keeps the focus, the error names the part in words, the figures stay.
+		await expect(length.evaluate((el) => el === document.activeElement)).resolves.toBe(true);
+		await b.page.getByText(/Cable “Front-to-rear run”: Length must be a number/).waitFor();
+		await expect(dropOf(b, 'run')).resolves.toBeCloseTo(before, 6);
+		expect(Math.abs((await b.page.evaluate(() => window.scrollY)) - scrollBefore)).toBeLessThan(5);
+		// Retyped digit by digit: every keystroke lands in the same field, and the figures follow.
+		await length.pressSequentially('30', { delay: 30 });
+		await expect(length.evaluate((el) => el === document.activeElement)).resolves.toBe(true);
+		await expect(length.inputValue()).resolves.toBe('30');
+		await expect.poll(() => dropOf(b, 'run')).not.toBeCloseTo(before, 3);
+		await expect(b.page.getByText(/Length must be a number/).count()).resolves.toBe(0);
+		expect(b.problems).toEqual([]);
+	});
+
 	it('viewer sees no edit controls, and a direct write answers 403', async () => {
 		const b = await openBrowser();
 		opened.push(b);

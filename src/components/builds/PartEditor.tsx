@@ -1,5 +1,6 @@
 import type { BuildDocument, PartGroup } from '@/engine';
 import type { UnitSystem } from '@/lib/format';
+import { useHydrated } from '@/lib/client/use-hydrated';
 import {
 	alternatorColumns,
 	amplifierColumns,
@@ -29,6 +30,7 @@ export function PartEditor({
 	subject: string;
 	flagged: Set<string>;
 }) {
+	const hydrated = useHydrated();
 	const nodeOptions = draft.nodes.map((n) => ({ value: n.id, label: n.label || n.id }));
 	function update<G extends PartGroup>(group: G, index: number, next: BuildDocument[G][number]) {
 		onChange((d) => ({ ...d, [group]: d[group].map((x, i) => (i === index ? next : x)) }));
@@ -54,85 +56,97 @@ export function PartEditor({
 						: `You can read this ${subject}; members and captains edit it.`}
 				</p>
 			</div>
-			<EditGroup title="Cables" onAdd={canEdit ? () => add('cables', newCable) : undefined}>
-				<PartTable
-					caption="Cables"
-					rows={draft.cables}
-					columns={cableColumns(nodeOptions, units)}
-					pathPrefix="cables"
-					errors={errors}
-					readOnly={!canEdit}
-					onChange={(i, v) => update('cables', i, v)}
-					onRemove={canEdit ? (i) => remove('cables', i) : undefined}
-					rowFlag={(c) => (flagged.has(c.id) ? 'flag' : null)}
-				/>
-			</EditGroup>
-			<EditGroup title="Battery banks" onAdd={canEdit ? () => add('banks', newBank) : undefined}>
-				<PartTable
-					caption="Battery banks"
-					rows={draft.banks}
-					columns={bankColumns(nodeOptions)}
-					pathPrefix="banks"
-					errors={errors}
-					readOnly={!canEdit}
-					onChange={(i, v) => update('banks', i, v)}
-					onRemove={canEdit ? (i) => remove('banks', i) : undefined}
-				/>
-			</EditGroup>
-			<EditGroup
-				title="Alternators"
-				onAdd={canEdit ? () => add('alternators', newAlternator) : undefined}
-			>
-				<PartTable
-					caption="Alternators"
-					rows={draft.alternators}
-					columns={alternatorColumns(nodeOptions)}
-					pathPrefix="alternators"
-					errors={errors}
-					readOnly={!canEdit}
-					onChange={(i, v) => update('alternators', i, v)}
-					onRemove={canEdit ? (i) => remove('alternators', i) : undefined}
-				/>
-			</EditGroup>
-			<EditGroup
-				title="Amplifiers"
-				onAdd={canEdit ? () => add('amplifiers', newAmplifier) : undefined}
-			>
-				<PartTable
-					caption="Amplifiers"
-					rows={draft.amplifiers}
-					columns={amplifierColumns(nodeOptions)}
-					pathPrefix="amplifiers"
-					errors={errors}
-					readOnly={!canEdit}
-					onChange={(i, v) => update('amplifiers', i, v)}
-					onRemove={canEdit ? (i) => remove('amplifiers', i) : undefined}
-				/>
-			</EditGroup>
-			<EditGroup title="Steady loads" onAdd={canEdit ? () => add('loads', newLoad) : undefined}>
-				<PartTable
-					caption="Steady loads"
-					rows={draft.loads}
-					columns={loadColumns(nodeOptions)}
-					pathPrefix="loads"
-					errors={errors}
-					readOnly={!canEdit}
-					onChange={(i, v) => update('loads', i, v)}
-					onRemove={canEdit ? (i) => remove('loads', i) : undefined}
-				/>
-			</EditGroup>
-			<EditGroup title="Nodes" onAdd={canEdit ? () => add('nodes', newNode) : undefined}>
-				<PartTable
-					caption="Nodes"
-					rows={draft.nodes}
-					columns={nodeColumns()}
-					pathPrefix="nodes"
-					errors={errors}
-					readOnly={!canEdit}
-					onChange={(i, v) => update('nodes', i, v)}
-					onRemove={canEdit ? (i) => remove('nodes', i) : undefined}
-				/>
-			</EditGroup>
+			{!hydrated ? (
+				// Some 350 fields: rendered by the browser once it can drive them, not by the server.
+				<p role="status" className="text-sm text-ink-soft">
+					Loading the part tables…
+				</p>
+			) : (
+				<>
+					<EditGroup title="Cables" onAdd={canEdit ? () => add('cables', newCable) : undefined}>
+						<PartTable
+							caption="Cables"
+							rows={draft.cables}
+							columns={cableColumns(nodeOptions, units)}
+							pathPrefix="cables"
+							errors={errors}
+							readOnly={!canEdit}
+							onChange={(i, v) => update('cables', i, v)}
+							onRemove={canEdit ? (i) => remove('cables', i) : undefined}
+							rowFlag={(c) => (flagged.has(c.id) ? 'flag' : null)}
+						/>
+					</EditGroup>
+					<EditGroup
+						title="Battery banks"
+						onAdd={canEdit ? () => add('banks', newBank) : undefined}
+					>
+						<PartTable
+							caption="Battery banks"
+							rows={draft.banks}
+							columns={bankColumns(nodeOptions)}
+							pathPrefix="banks"
+							errors={errors}
+							readOnly={!canEdit}
+							onChange={(i, v) => update('banks', i, v)}
+							onRemove={canEdit ? (i) => remove('banks', i) : undefined}
+						/>
+					</EditGroup>
+					<EditGroup
+						title="Alternators"
+						onAdd={canEdit ? () => add('alternators', newAlternator) : undefined}
+					>
+						<PartTable
+							caption="Alternators"
+							rows={draft.alternators}
+							columns={alternatorColumns(nodeOptions)}
+							pathPrefix="alternators"
+							errors={errors}
+							readOnly={!canEdit}
+							onChange={(i, v) => update('alternators', i, v)}
+							onRemove={canEdit ? (i) => remove('alternators', i) : undefined}
+						/>
+					</EditGroup>
+					<EditGroup
+						title="Amplifiers"
+						onAdd={canEdit ? () => add('amplifiers', newAmplifier) : undefined}
+					>
+						<PartTable
+							caption="Amplifiers"
+							rows={draft.amplifiers}
+							columns={amplifierColumns(nodeOptions)}
+							pathPrefix="amplifiers"
+							errors={errors}
+							readOnly={!canEdit}
+							onChange={(i, v) => update('amplifiers', i, v)}
+							onRemove={canEdit ? (i) => remove('amplifiers', i) : undefined}
+						/>
+					</EditGroup>
+					<EditGroup title="Steady loads" onAdd={canEdit ? () => add('loads', newLoad) : undefined}>
+						<PartTable
+							caption="Steady loads"
+							rows={draft.loads}
+							columns={loadColumns(nodeOptions)}
+							pathPrefix="loads"
+							errors={errors}
+							readOnly={!canEdit}
+							onChange={(i, v) => update('loads', i, v)}
+							onRemove={canEdit ? (i) => remove('loads', i) : undefined}
+						/>
+					</EditGroup>
+					<EditGroup title="Nodes" onAdd={canEdit ? () => add('nodes', newNode) : undefined}>
+						<PartTable
+							caption="Nodes"
+							rows={draft.nodes}
+							columns={nodeColumns()}
+							pathPrefix="nodes"
+							errors={errors}
+							readOnly={!canEdit}
+							onChange={(i, v) => update('nodes', i, v)}
+							onRemove={canEdit ? (i) => remove('nodes', i) : undefined}
+						/>
+					</EditGroup>
+				</>
+			)}
 		</section>
 	);
 }

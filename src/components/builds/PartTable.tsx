@@ -80,6 +80,94 @@ function NumberInput({
 }
 
 /**
+ * One field of one part. A component of its own (never a function made during a render), so
+ * React keeps the same input across edits: typing, clearing and retyping keep focus and caret.
+ */
+function PartCell<T extends { id: string; label: string }>({
+	col,
+	part,
+	index: i,
+	errors,
+	pathPrefix,
+	readOnly,
+	onChange,
+}: {
+	col: PartColumn<T>;
+	part: T;
+	index: number;
+	errors: Record<string, string>;
+	pathPrefix: string;
+	readOnly: boolean;
+	onChange: (index: number, next: T) => void;
+}) {
+	const path = `${pathPrefix}.${i}.${typeof col.errorPath === 'function' ? col.errorPath(part) : col.errorPath}`;
+	const error = Object.entries(errors).find(([p]) => p === path || p.startsWith(`${path}.`))?.[1];
+	const label = `${part.label || part.id}: ${col.header}`;
+	const c = col.cell;
+	let input: React.ReactNode;
+	if (c.kind === 'text') {
+		input = (
+			<input
+				aria-label={label}
+				aria-invalid={!!error || undefined}
+				readOnly={readOnly}
+				value={c.get(part)}
+				onChange={(e) => onChange(i, c.set(part, e.target.value))}
+				className={`w-full min-w-28 rounded border bg-card px-2 py-1 ${error ? 'border-brick' : 'border-hairline'} ${readOnly ? 'bg-paper' : ''}`}
+			/>
+		);
+	} else if (c.kind === 'number') {
+		input = (
+			<NumberInput
+				label={label}
+				value={c.get(part)}
+				onChange={(v) => onChange(i, c.set(part, v))}
+				invalid={!!error}
+				step={c.step}
+				readOnly={readOnly}
+			/>
+		);
+	} else if (c.kind === 'select') {
+		input = (
+			<select
+				aria-label={label}
+				disabled={readOnly}
+				value={c.get(part)}
+				onChange={(e) => onChange(i, c.set(part, e.target.value))}
+				className={`w-full min-w-32 rounded border bg-card px-1 py-1 ${error ? 'border-brick' : 'border-hairline'}`}
+			>
+				{c.options.map((o) => (
+					<option key={o.value} value={o.value}>
+						{o.label}
+					</option>
+				))}
+			</select>
+		);
+	} else {
+		input = (
+			<input
+				type="checkbox"
+				aria-label={label}
+				disabled={readOnly}
+				checked={c.get(part)}
+				onChange={(e) => onChange(i, c.set(part, e.target.checked))}
+				className="size-4 accent-copper"
+			/>
+		);
+	}
+	return (
+		<div className="flex flex-col gap-0.5">
+			{input}
+			{error && (
+				<span role="alert" className="max-w-48 text-xs leading-tight text-brick">
+					✕ {error}
+				</span>
+			)}
+		</div>
+	);
+}
+
+/**
  * An editable table of parts (cables, banks, …) on @tanstack/react-table: one row per part, one
  * field per cell, each validation message shown under the field it concerns. Tab moves through
  * the fields in reading order.
@@ -113,77 +201,6 @@ export function PartTable<T extends { id: string; label: string }>({
 				{col.unit && <span className="font-normal text-ink-soft"> ({col.unit})</span>}
 			</span>
 		),
-		cell: ({ row }) => {
-			const part = row.original;
-			const i = row.index;
-			const path = `${pathPrefix}.${i}.${typeof col.errorPath === 'function' ? col.errorPath(part) : col.errorPath}`;
-			const error = Object.entries(errors).find(
-				([p]) => p === path || p.startsWith(`${path}.`),
-			)?.[1];
-			const label = `${part.label || part.id}: ${col.header}`;
-			const c = col.cell;
-			let input: React.ReactNode;
-			if (c.kind === 'text') {
-				input = (
-					<input
-						aria-label={label}
-						aria-invalid={!!error || undefined}
-						readOnly={readOnly}
-						value={c.get(part)}
-						onChange={(e) => onChange(i, c.set(part, e.target.value))}
-						className={`w-full min-w-28 rounded border bg-card px-2 py-1 ${error ? 'border-brick' : 'border-hairline'} ${readOnly ? 'bg-paper' : ''}`}
-					/>
-				);
-			} else if (c.kind === 'number') {
-				input = (
-					<NumberInput
-						label={label}
-						value={c.get(part)}
-						onChange={(v) => onChange(i, c.set(part, v))}
-						invalid={!!error}
-						step={c.step}
-						readOnly={readOnly}
-					/>
-				);
-			} else if (c.kind === 'select') {
-				input = (
-					<select
-						aria-label={label}
-						disabled={readOnly}
-						value={c.get(part)}
-						onChange={(e) => onChange(i, c.set(part, e.target.value))}
-						className={`w-full min-w-32 rounded border bg-card px-1 py-1 ${error ? 'border-brick' : 'border-hairline'}`}
-					>
-						{c.options.map((o) => (
-							<option key={o.value} value={o.value}>
-								{o.label}
-							</option>
-						))}
-					</select>
-				);
-			} else {
-				input = (
-					<input
-						type="checkbox"
-						aria-label={label}
-						disabled={readOnly}
-						checked={c.get(part)}
-						onChange={(e) => onChange(i, c.set(part, e.target.checked))}
-						className="size-4 accent-copper"
-					/>
-				);
-			}
-			return (
-				<div className="flex flex-col gap-0.5">
-					{input}
-					{error && (
-						<span role="alert" className="max-w-48 text-xs leading-tight text-brick">
-							✕ {error}
-						</span>
-					)}
-				</div>
-			);
-		},
 	}));
 	const table = useReactTable({
 		data: rows,
@@ -220,9 +237,17 @@ export function PartTable<T extends { id: string; label: string }>({
 								className={`border-b border-hairline align-top last:border-0 ${flag ? 'bg-brick-tint/40' : ''}`}
 								data-part-id={row.original.id}
 							>
-								{row.getVisibleCells().map((cell) => (
-									<td key={cell.id} className="px-2 py-1.5">
-										{flexRender(cell.column.columnDef.cell, cell.getContext())}
+								{columns.map((col) => (
+									<td key={col.id} className="px-2 py-1.5">
+										<PartCell
+											col={col}
+											part={row.original}
+											index={row.index}
+											errors={errors}
+											pathPrefix={pathPrefix}
+											readOnly={readOnly}
+											onChange={onChange}
+										/>
 									</td>
 								))}
 								{!readOnly && onRemove && (

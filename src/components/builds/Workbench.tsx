@@ -1,4 +1,4 @@
-import { useMemo, useState } from 'react';
+import { useMemo, useRef, useState } from 'react';
 import {
 	buildReport,
 	type BuildDocument,
@@ -7,7 +7,7 @@ import {
 	type Scenario,
 } from '@/engine';
 import { buildDocumentSchema } from '@/lib/schemas/build-document';
-import type { UnitSystem } from '@/lib/format';
+import { partOfPath, type UnitSystem } from '@/lib/format';
 import { FormMessage } from '@/components/ui/Field';
 import { AmplifiersSection } from './analysis/AmplifiersSection';
 import { BudgetSection } from './analysis/BudgetSection';
@@ -65,7 +65,13 @@ export function Workbench({
 	// The heavy part (burp, upgrades) runs in the engine worker once typing pauses.
 	const { burp, hints } = useDeferredAnalysis(draft, scenario, valid);
 
-	const ok = report && report.ok ? report : null;
+	const fresh = report && report.ok ? report : null;
+	// While a field is cleared or mistyped the last figures that could be computed stay on screen,
+	// marked as out of date, so the page neither blanks nor jumps under the member's cursor.
+	const lastGood = useRef<typeof fresh>(null);
+	if (fresh) lastGood.current = fresh;
+	const ok = fresh ?? lastGood.current;
+	const stale = !fresh && ok !== null;
 	const flagged = useMemo(
 		() =>
 			new Set(
@@ -82,15 +88,22 @@ export function Workbench({
 		<>
 			<ScenarioControls scenario={scenario} onChange={setScenario} />
 
-			{!valid && (
-				<FormMessage tone="error">
-					The build cannot be computed until the marked fields are fixed.{' '}
-					{Object.entries(errors)
-						.slice(0, 3)
-						.map(([p, m]) => `${p}: ${m}`)
-						.join(' · ')}
-				</FormMessage>
-			)}
+			{/* Always one line tall, error or not: a message appearing here must not push the part being edited down the page. */}
+			<div className="min-h-11 [&_p]:line-clamp-2">
+				{valid ? (
+					<FormMessage tone="info">Every field reads: the figures below are current.</FormMessage>
+				) : (
+					<FormMessage tone="error">
+						{stale
+							? 'These figures are from before your last change, which cannot be computed yet: '
+							: 'The build cannot be computed until the marked fields are fixed: '}
+						{Object.entries(errors)
+							.slice(0, 3)
+							.map(([p, m]) => `${partOfPath(draft, p)}: ${m}`)
+							.join(' · ')}
+					</FormMessage>
+				)}
+			</div>
 
 			{ok && <Readouts report={ok} />}
 			{ok && <Findings warnings={ok.warnings} />}

@@ -60,7 +60,7 @@ export function ResultTable<Row>({
 							{columns.map((c) => (
 								<td
 									key={c.key}
-									className={`px-3 py-1.5 ${c.align === 'right' ? 'text-right' : ''} ${c.numeric === false ? '' : 'num'} ${c.tone?.(row) ?? ''}`}
+									className={`px-3 py-1.5 ${c.align === 'right' ? 'text-right' : ''} ${c.numeric === false ? '' : 'num whitespace-nowrap'} ${c.tone?.(row) ?? ''}`}
 								>
 									{c.cell(row)}
 								</td>
