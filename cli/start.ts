@@ -114,10 +114,18 @@ async function main() {
 	});
 	await waitForHealth(`${publicUrl}/api/health`);
 	log(`ready in ${((performance.now() - t0) / 1000).toFixed(1)} s → ${publicUrl}`);
-	log(
-		`demo sign-in: ${DEMO_USERS.map((u) => `${u.email} (${u.role})`).join(', ')}; password ${DEMO_PASSWORD}`,
-	);
-	log('Ctrl-C stops the server and the services it started.');
+	// Last, after the build's output, in a block a newcomer cannot miss.
+	const rule = '─'.repeat(64);
+	const lines = [
+		rule,
+		`  Sagwise is running:  ${publicUrl}`,
+		`  Demo sign-ins (password ${DEMO_PASSWORD}):`,
+		...DEMO_USERS.map((u) => `    ${u.role.padEnd(8)} ${u.email}`),
+		...(devOutbox ? [`  Mail the app sends:  ${publicUrl}/dev/outbox`] : []),
+		'  Ctrl-C stops the server and the services it started.',
+		rule,
+	];
+	console.log(`\n${lines.join('\n')}\n`);
 }
 
 async function waitForHealth(url: string, timeoutMs = 30_000) {

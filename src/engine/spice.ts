@@ -24,6 +24,9 @@ const num = (x: number) => x.toPrecision(15);
  * becomes a space, so a name can never end the comment and start a netlist line of its own
  * (`.control`, `.include`, a shell escape).
  */
+/** Vectors per `print` line (each line stays far below ngspice's line length limit). */
+const PRINT_PER_LINE = 40;
+
 export function spiceComment(text: string): string {
 	// eslint-disable-next-line no-control-regex -- matching control characters is the point
 	return text.replace(/[\u0000-\u001f\u007f-\u009f\u2028\u2029]/g, ' ');
@@ -104,7 +107,10 @@ export function toSpiceNetlist(
 			...net.nodeIds.map((_, i) => `v(${name(i)})`),
 			...Object.values(cableDevices).map((d) => `@${d}[i]`),
 		];
-		lines.push(`print ${vec.join(' ')}`, '.endc');
+		// ngspice reads a control line into a fixed buffer: a print of a large network is split.
+		for (let i = 0; i < vec.length; i += PRINT_PER_LINE)
+			lines.push(`print ${vec.slice(i, i + PRINT_PER_LINE).join(' ')}`);
+		lines.push('.endc');
 	} else {
 		lines.push('.op');
 	}

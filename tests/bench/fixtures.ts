@@ -3,14 +3,17 @@ import type { BuildDocument } from '../../src/engine/types';
 import { alternator, amp, bank, cable, doc, node } from '../helpers/networks';
 
 /** A synthetic network with exactly 200 cables: a trunk of blocks, each with amplifiers and grounds. */
-export function synthetic200(): BuildDocument {
+export const synthetic200 = () => syntheticNetwork(200);
+
+/** A synthetic network with exactly `count` cables, in the shape of `synthetic200`. */
+export function syntheticNetwork(count: number): BuildDocument {
 	const d = doc({ nodes: [node('gnd', 'chassis'), node('alt'), node('bat', 'battery')] });
 	d.alternators.push(alternator('alt', 'alt', 'gnd', 600));
 	d.banks.push(bank('front', 'bat', 'gnd', { stringsInParallel: 4 }));
 	d.cables.push(cable('charge', 'alt', 'bat', { kind: 'awg', awg: '4/0' }, 1));
 	let prev = 'bat';
 	let i = 0;
-	while (d.cables.length < 200) {
+	while (d.cables.length < count) {
 		i++;
 		const blk = `blk${i}`;
 		d.nodes.push(node(blk, 'block'), node(`a${i}p`, 'amplifier'), node(`a${i}n`, 'amplifier'));
@@ -19,17 +22,17 @@ export function synthetic200(): BuildDocument {
 		);
 		d.amplifiers.push(amp(`a${i}`, `a${i}p`, `a${i}n`, 40));
 		d.cables.push(cable(`f${i}`, blk, `a${i}p`, { kind: 'awg', awg: '8' }, 1));
-		if (d.cables.length < 200)
+		if (d.cables.length < count)
 			d.cables.push(cable(`g${i}`, `a${i}n`, 'gnd', { kind: 'awg', awg: '8' }, 1));
 		else d.cables.pop();
-		if (d.cables.length < 200 && i % 10 === 0) {
+		if (d.cables.length < count && i % 10 === 0) {
 			d.nodes.push(node(`b${i}`, 'battery'));
 			d.banks.push(bank(`bank${i}`, `b${i}`, 'gnd'));
 			d.cables.push(cable(`bl${i}`, `b${i}`, blk, { kind: 'awg', awg: '1/0' }, 0.5));
 		}
 		prev = blk;
 	}
-	while (d.cables.length > 200) d.cables.pop();
+	while (d.cables.length > count) d.cables.pop();
 	// Any amplifier left without a ground gets one in place of its feed count.
 	for (const a of d.amplifiers)
 		if (!d.cables.some((c) => c.from === a.negative || c.to === a.negative))

@@ -7,6 +7,7 @@ import { DEMO_BUILDS } from '../../db/demo/builds';
 import { solveNetwork } from '../../src/engine/solve';
 import { toSpiceNetlist } from '../../src/engine/spice';
 import type { BuildDocument } from '../../src/engine/types';
+import { syntheticNetwork } from '../bench/fixtures';
 import { randomNetwork } from '../helpers/networks';
 
 // Cross-check against a general-purpose circuit simulator: Debian's ngspice solves the DC
@@ -114,6 +115,13 @@ describe.runIf(available)('engine against ngspice', () => {
 		}
 		expect(compared).toBeGreaterThanOrEqual(50);
 	});
+
+	it('reads the export of a 1,000-cable network whole, and agrees on every node and cable', () => {
+		const doc = syntheticNetwork(1000);
+		expect(doc.cables).toHaveLength(1000);
+		const checked = compare(doc, 'synthetic_1000', { engineRpm: 1500, demand: 1, conductorTempC: 25 });
+		expect(checked).toBe(doc.cables.length + doc.nodes.length - 1);
+	}, 60_000);
 });
 
 describe.skipIf(available)('engine against ngspice (ngspice missing)', () => {
