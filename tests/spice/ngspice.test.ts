@@ -119,7 +119,11 @@ describe.runIf(available)('engine against ngspice', () => {
 	it('reads the export of a 1,000-cable network whole, and agrees on every node and cable', () => {
 		const doc = syntheticNetwork(1000);
 		expect(doc.cables).toHaveLength(1000);
-		const checked = compare(doc, 'synthetic_1000', { engineRpm: 1500, demand: 1, conductorTempC: 25 });
+		const checked = compare(doc, 'synthetic_1000', {
+			engineRpm: 1500,
+			demand: 1,
+			conductorTempC: 25,
+		});
 		expect(checked).toBe(doc.cables.length + doc.nodes.length - 1);
 	}, 60_000);
 });
