@@ -7,8 +7,8 @@
  * - the client's address comes from the socket, and from X-Forwarded-For only when the request
  *   arrives from a proxy named in TRUST_PROXY (otherwise forwarded headers are dropped);
  * - doubled slashes in a path answer 404 plainly;
- * - answers are compressed (brotli or gzip, as the client accepts) when their type compresses and
- *   they are larger than 1 KB: pages, JSON, scripts, styles, CSV.
+ * - answers to reads are compressed (brotli or gzip, as the client accepts) when their type
+ *   compresses and they are larger than 1 KB: pages, JSON, scripts, styles, CSV.
  */
 import http from 'node:http';
 import { isIP } from 'node:net';
@@ -42,11 +42,13 @@ function refuse(res: http.ServerResponse, status: number, code: string, detail: 
 	res.end(problemBody(status, code, detail));
 	// Closing at once while the client is still sending makes its system reset the connection and
 	// drop our answer unread. Linger instead: discard what still comes (nothing is kept, memory stays
-	// flat), then close.
+	// flat), then close — unless the body ends first: then the connection is sound, and a client
+	// that sends its next request on it must not find it cut under that request.
 	if (req && !req.complete) {
 		req.on('data', () => undefined);
 		req.resume();
-		setTimeout(() => req.socket.destroy(), LINGER_MS).unref();
+		const timer = setTimeout(() => req.socket.destroy(), LINGER_MS).unref();
+		req.once('end', () => clearTimeout(timer));
 	}
 }
 
@@ -88,7 +90,12 @@ export function createFront(
 		res: http.ServerResponse,
 		next: () => void,
 	) => void;
-	return (req, res) => compress(req, res, () => handle(req, res));
+	// Reads only: what a page, a report or a script sends back. A write's answer is small, and the
+	// compressor's hold on the response must not meet a request body still being read.
+	return (req, res) =>
+		req.method === 'GET' || req.method === 'HEAD'
+			? compress(req, res, () => handle(req, res))
+			: handle(req, res);
 
 	function handle(req: http.IncomingMessage, res: http.ServerResponse) {
 		const pathname = (req.url ?? '/').split('?')[0]!;

@@ -23,19 +23,19 @@ export const DEMO_VEHICLES = [
 	{
 		name: 'Pebble',
 		description: 'Small grey hatchback, daily driver',
-		competition_class: 'Street 1 (up to 2 kW)',
+		competition_class: 'Commuter (up to 2 kW)',
 		notes: 'Stock 90 A alternator and its one AGM under the hood. Keeps its back seat.',
 	},
 	{
 		name: 'Marlin',
 		description: 'Mid-size sedan, weekend build',
-		competition_class: 'Street 3 (up to 6 kW)',
+		competition_class: 'Club (up to 6 kW)',
 		notes: 'High-output alternator, two AGM banks, 1/0 runs front to back.',
 	},
 	{
 		name: 'Old Oak',
 		description: 'Long-roof estate wagon, the team flagship',
-		competition_class: 'Extreme (unlimited)',
+		competition_class: 'Unbounded (no power limit)',
 		notes: 'Two alternators, LiFePO4 16 V banks, 4/0 runs. Trailered to events.',
 	},
 ] as const;

@@ -30,7 +30,7 @@ export const DEMO_EVENTS: DemoEvent[] = [
 	},
 	{
 		key: 'summer',
-		name: 'Midsummer Decibel Drag',
+		name: 'Midsummer Airfield Meet',
 		daysAgo: 50,
 		days: 1,
 		place: 'Old airfield',

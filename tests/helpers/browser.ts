@@ -16,12 +16,14 @@ export interface Browser {
 }
 
 /** Debian's chromium, headless, with a fresh profile; never a downloaded browser. */
-export async function openBrowser(): Promise<Browser> {
+export async function openBrowser(
+	opts: { viewport?: { width: number; height: number } } = {},
+): Promise<Browser> {
 	const profile = mkdtempSync(path.join(tmpdir(), 'sagwise-profile-'));
 	const context = await chromium.launchPersistentContext(profile, {
 		executablePath: CHROMIUM_PATH,
 		headless: true,
-		viewport: { width: 1280, height: 900 },
+		viewport: opts.viewport ?? { width: 1280, height: 900 },
 		args: [
 			'--headless',
 			'--no-sandbox',

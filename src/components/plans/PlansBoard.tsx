@@ -314,7 +314,7 @@ function NewPlanForm({
 				className="min-w-72 flex-1"
 				required
 			/>
-			<div className="flex flex-col gap-1">
+			<div className="flex min-w-0 max-w-full flex-col gap-1">
 				<label htmlFor="plan-from" className="text-sm font-semibold">
 					Starts from
 				</label>
@@ -322,7 +322,7 @@ function NewPlanForm({
 					id="plan-from"
 					value={from}
 					onChange={(e) => setFrom(e.target.value)}
-					className="rounded-md border border-hairline bg-card px-3 py-2"
+					className="max-w-full truncate rounded-md border border-hairline bg-card px-3 py-2"
 				>
 					{revisions.map((r) => (
 						<option key={r.id} value={r.id}>

@@ -47,13 +47,3 @@ export const signInWithPassword = (email: string, password: string, callbackUrl:
 
 export const requestSignInLink = (email: string, callbackUrl: string) =>
 	post('/api/auth/signin/nodemailer', { email, callbackUrl });
-
-export async function signOut(callbackUrl = '/'): Promise<void> {
-	const res = await fetch('/api/auth/signout', {
-		method: 'POST',
-		headers: { 'content-type': 'application/x-www-form-urlencoded', 'X-Auth-Return-Redirect': '1' },
-		body: new URLSearchParams({ csrfToken: await csrfToken(), callbackUrl }),
-	});
-	const { url } = (await res.json()) as { url?: string };
-	window.location.href = url ?? callbackUrl;
-}
