@@ -49,17 +49,22 @@ describe('vehicles, builds and revisions', () => {
 		return (await res.json()) as { id: string; headRevisionId: null };
 	}
 
+	/** Saves a vehicle's first revision (its parent is none) and answers it. */
+	async function firstRevision(vehicleId: string, document: typeof pebbleBuild, message = 'One') {
+		const res = await call(
+			member,
+			revisions,
+			'POST',
+			{ vehicleId },
+			{ parentId: null, message, document },
+		);
+		expect(res.status).toBe(201);
+		return res.json();
+	}
+
 	it('chains revisions: each names its parent and takes the next number, and the head follows', async () => {
 		const v = await newVehicle('Chain');
-		const r1 = await (
-			await call(
-				member,
-				revisions,
-				'POST',
-				{ vehicleId: v.id },
-				{ parentId: null, message: 'First', document: pebbleBuild },
-			)
-		).json();
+		const r1 = await firstRevision(v.id, pebbleBuild, 'First');
 		const changed = structuredClone(pebbleBuild);
 		changed.cables.find((c) => c.id === 'run')!.size = { kind: 'awg', awg: '1/0' };
 		const res2 = await call(
@@ -172,15 +177,7 @@ describe('vehicles, builds and revisions', () => {
 
 	it('restores an old revision as a new one and diffs component by component', async () => {
 		const v = await newVehicle('Restore');
-		const r1 = await (
-			await call(
-				member,
-				revisions,
-				'POST',
-				{ vehicleId: v.id },
-				{ parentId: null, message: 'One', document: pebbleBuild },
-			)
-		).json();
+		const r1 = await firstRevision(v.id, pebbleBuild, 'One');
 		const changed = structuredClone(pebbleBuild);
 		changed.cables.find((c) => c.id === 'run')!.size = { kind: 'awg', awg: '1/0' };
 		changed.amplifiers[0]!.ratedPowerW = 2000;
@@ -246,15 +243,7 @@ describe('vehicles, builds and revisions', () => {
 
 	it('computes the report route with the same numbers as the engine, under the scenario given', async () => {
 		const v = await newVehicle('Report');
-		const r1 = await (
-			await call(
-				member,
-				revisions,
-				'POST',
-				{ vehicleId: v.id },
-				{ parentId: null, message: 'One', document: marlinBuild },
-			)
-		).json();
+		const r1 = await firstRevision(v.id, marlinBuild, 'One');
 		const res = await call(
 			member,
 			report,
@@ -283,15 +272,7 @@ describe('vehicles, builds and revisions', () => {
 
 	it('answers a repeat report with its ETag: 304 for a client that holds it, a new tag for another scenario', async () => {
 		const v = await newVehicle('Cached report');
-		const r1 = await (
-			await call(
-				member,
-				revisions,
-				'POST',
-				{ vehicleId: v.id },
-				{ parentId: null, message: 'One', document: pebbleBuild },
-			)
-		).json();
+		const r1 = await firstRevision(v.id, pebbleBuild, 'One');
 		const get = (query: string, headers: Record<string, string> = {}) =>
 			callEndpoint(report, {
 				locals: localsFor(t.db, member),
@@ -326,15 +307,7 @@ describe('vehicles, builds and revisions', () => {
 
 	it('exports a revision as a SPICE netlist', async () => {
 		const v = await newVehicle('Spice');
-		const r1 = await (
-			await call(
-				member,
-				revisions,
-				'POST',
-				{ vehicleId: v.id },
-				{ parentId: null, message: 'One', document: pebbleBuild },
-			)
-		).json();
+		const r1 = await firstRevision(v.id, pebbleBuild, 'One');
 		const res = await call(member, spice, 'GET', { vehicleId: v.id, revisionId: r1.id });
 		expect(res.headers.get('content-type')).toMatch(/text\/plain/);
 		const text = await res.text();
@@ -345,15 +318,7 @@ describe('vehicles, builds and revisions', () => {
 
 	it('downloads a revision as its JSON build document, which uploads back as an equal revision', async () => {
 		const v = await newVehicle('Json');
-		const r1 = await (
-			await call(
-				member,
-				revisions,
-				'POST',
-				{ vehicleId: v.id },
-				{ parentId: null, message: 'One', document: marlinBuild },
-			)
-		).json();
+		const r1 = await firstRevision(v.id, marlinBuild, 'One');
 		const res = await call(member, documentJson, 'GET', { vehicleId: v.id, revisionId: r1.id });
 		expect(res.headers.get('content-disposition')).toMatch(/Json-r1\.build\.json/);
 		const file = JSON.parse(await res.text());

@@ -3,7 +3,7 @@ import type { Checklist } from '@/lib/schemas/checklist';
 import { findRevision, revisionInForce } from '@/lib/server/db/builds';
 import { findCheckItems, findSignoffs, findVehicleWithBuild } from '@/lib/server/db/checklists';
 import { findEvent } from '@/lib/server/db/events';
-import { findTeamFuseDistance } from '@/lib/server/db/teams';
+import { findTeamSettingsRow } from '@/lib/server/db/teams';
 
 /**
  * The pre-event checklist of a vehicle for an event: items computed from the revision in force on
@@ -21,7 +21,7 @@ export async function loadChecklist(
 		findVehicleWithBuild(db, teamId, vehicleId),
 	]);
 	if (!event || !vehicle) return null;
-	const fuseDistanceM = await findTeamFuseDistance(db, teamId);
+	const fuseDistanceM = (await findTeamSettingsRow(db, teamId)).fuse_distance_m;
 	const at = new Date(`${event.starts_on}T23:59:59Z`);
 	const revisionId =
 		(await revisionInForce(db, vehicle.id, at > new Date() ? new Date() : at)) ?? null;

@@ -343,15 +343,20 @@ export async function acceptInvitation(
 // ---- settings
 
 /** The team's settings as its members see them (name and role from the caller's access). */
+/** The team's own settings: plan currency, reminder days, battery-fuse distance (m). */
+export function findTeamSettingsRow(db: Db, teamId: string) {
+	return db
+		.selectFrom('team')
+		.select(['currency', 'reminder_days', 'fuse_distance_m'])
+		.where('id', '=', teamId)
+		.executeTakeFirstOrThrow();
+}
+
 export async function findTeamSettings(
 	db: Db,
 	access: { teamId: string; teamName: string; role: Role },
 ): Promise<TeamSettingsDto> {
-	const team = await db
-		.selectFrom('team')
-		.select(['currency', 'reminder_days', 'fuse_distance_m'])
-		.where('id', '=', access.teamId)
-		.executeTakeFirstOrThrow();
+	const team = await findTeamSettingsRow(db, access.teamId);
 	return {
 		id: access.teamId,
 		name: access.teamName,
@@ -373,26 +378,4 @@ export async function updateTeamSettings(
 	};
 	if (Object.keys(set).length)
 		await db.updateTable('team').set(set).where('id', '=', teamId).execute();
-}
-
-/** The ISO 4217 code the team's plan prices are in. */
-export async function findTeamCurrency(db: Db, teamId: string): Promise<string> {
-	return (
-		await db
-			.selectFrom('team')
-			.select('currency')
-			.where('id', '=', teamId)
-			.executeTakeFirstOrThrow()
-	).currency;
-}
-
-/** The distance within which a battery cable's fuse must sit, for the pre-event checks (m). */
-export async function findTeamFuseDistance(db: Db, teamId: string): Promise<number> {
-	return (
-		await db
-			.selectFrom('team')
-			.select('fuse_distance_m')
-			.where('id', '=', teamId)
-			.executeTakeFirstOrThrow()
-	).fuse_distance_m;
 }

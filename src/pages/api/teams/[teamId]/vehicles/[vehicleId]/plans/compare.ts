@@ -3,7 +3,7 @@ import { compareQuerySchema, type PlanDto } from '@/lib/schemas/plans';
 import { requireVehicle } from '@/lib/server/access';
 import { findHeadRevision } from '@/lib/server/db/builds';
 import { findPlan, partsTotalMinor } from '@/lib/server/db/plans';
-import { findTeamCurrency } from '@/lib/server/db/teams';
+import { findTeamSettingsRow } from '@/lib/server/db/teams';
 import { cachedEngineJson, keyPart } from '@/lib/server/engine/cache';
 import { runEngine } from '@/lib/server/engine/pool';
 import { problem, readQuery } from '@/lib/server/http';
@@ -30,7 +30,7 @@ export const GET: APIRoute = async ({ params, url, locals, request }) => {
 			]);
 		plans.push(plan);
 	}
-	const currency = await findTeamCurrency(locals.db, access.teamId);
+	const { currency } = await findTeamSettingsRow(locals.db, access.teamId);
 	const scenario = {
 		...(query.data.engineRpm !== undefined && { engineRpm: query.data.engineRpm }),
 		...(query.data.conductorTempC !== undefined && { conductorTempC: query.data.conductorTempC }),
