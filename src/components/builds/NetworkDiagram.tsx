@@ -51,9 +51,9 @@ export function layoutNetwork(doc: BuildDocument) {
 export function NetworkDiagram({ doc, flagged }: { doc: BuildDocument; flagged: Set<string> }) {
 	const { pos, ground } = useMemo(() => layoutNetwork(doc), [doc]);
 	const parts = [
-		...doc.banks.map((b) => ({ ...b, colour: '#137c82', tag: 'bank' })),
-		...doc.alternators.map((a) => ({ ...a, colour: '#137c82', tag: 'alt' })),
-		...doc.amplifiers.map((a) => ({ ...a, colour: '#b8652a', tag: 'amp' })),
+		...doc.banks.map((b) => ({ ...b, colour: '#0f7076', tag: 'bank' })),
+		...doc.alternators.map((a) => ({ ...a, colour: '#0f7076', tag: 'alt' })),
+		...doc.amplifiers.map((a) => ({ ...a, colour: '#a85a23', tag: 'amp' })),
 		...doc.loads.map((l) => ({ ...l, colour: '#55616b', tag: 'load' })),
 	];
 	return (
@@ -76,7 +76,7 @@ export function NetworkDiagram({ doc, flagged }: { doc: BuildDocument; flagged: 
 					? '#b3261e'
 					: ground.has(c.from) && ground.has(c.to)
 						? '#2a3844'
-						: '#b8652a';
+						: '#a85a23';
 				return (
 					<line
 						key={c.id}

@@ -2,9 +2,9 @@ import type { BudgetRow, BurpRun } from '@/engine';
 
 /** Token colours (the @theme palette), for Chart.js which cannot read CSS variables. */
 export const CHART_COLOURS = {
-	copper: '#b8652a',
-	teal: '#137c82',
-	amber: '#c98a0b',
+	copper: '#a85a23',
+	teal: '#0f7076',
+	amber: '#a87400',
 	brick: '#b3261e',
 	ink: '#1d262e',
 	soft: '#55616b',

@@ -19,7 +19,7 @@ function layout(
 <tr><td style="padding:24px">
 <h1 style="font-size:20px;margin:0 0 12px">${escape(title)}</h1>
 ${paragraphs.map((p) => `<p style="margin:0 0 12px;line-height:1.5">${escape(p)}</p>`).join('')}
-<p style="margin:20px 0"><a href="${escape(action.url)}" style="background:#b8652a;color:#ffffff;padding:10px 18px;border-radius:6px;text-decoration:none;font-weight:600">${escape(action.label)}</a></p>
+<p style="margin:20px 0"><a href="${escape(action.url)}" style="background:#a85a23;color:#ffffff;padding:10px 18px;border-radius:6px;text-decoration:none;font-weight:600">${escape(action.label)}</a></p>
 <p style="margin:0 0 12px;font-size:13px;color:#55616b">Or paste this address into your browser: ${escape(action.url)}</p>
 <p style="margin:0;font-size:13px;color:#55616b">${escape(footnote)}</p>
 </td></tr></table></td></tr></table></body></html>`;
