@@ -114,7 +114,12 @@ describe('events, runs and logger uploads (PostgreSQL + the S3 fake)', () => {
 	};
 	const newRun = async (ranAt: string) =>
 		(await (
-			await call(runs, 'POST', {}, { vehicleId, ranAt, scoreDb: 142.3, restingV: 12.8, minV: 11.9 })
+			await call(
+				runs,
+				'POST',
+				{},
+				{ vehicleId, ranAt, scoreDb: 142.3, restingV: 12.8, minV: 11.9, allowDuplicate: true },
+			)
 		).json()) as { id: string; revisionId: string };
 	const storedKeys = async (runId: string) =>
 		(
@@ -176,6 +181,68 @@ describe('events, runs and logger uploads (PostgreSQL + the S3 fake)', () => {
 		);
 		expect(bad.status).toBe(400);
 		expect((await bad.json()).errors[0].path).toBe('eventId');
+	});
+
+	it('puts a run made in the same second as a save on the new revision, whatever the offset it was typed in', async () => {
+		const rev = await t.db
+			.selectFrom('revision')
+			.select('created_at')
+			.where('id', '=', secondRevision)
+			.executeTakeFirstOrThrow();
+		// The same instant written in two zones, truncated to the second (a fraction before the save).
+		const second = new Date(Math.floor(rev.created_at.getTime() / 1000) * 1000);
+		const inUtc = second.toISOString().replace(/\.\d{3}Z$/, 'Z');
+		const local = new Date(second.getTime() + 150 * 60_000).toISOString().slice(0, 19) + '+02:30';
+		for (const ranAt of [inUtc, local]) {
+			const res = await call(runs, 'POST', {}, { vehicleId, ranAt, allowDuplicate: true });
+			const body = await res.json();
+			expect(res.status).toBe(201);
+			expect(body.revisionId).toBe(secondRevision);
+			expect(body.ranAtOffsetMin).toBe(ranAt.endsWith('Z') ? 0 : 150);
+		}
+		const before = new Date(second.getTime() - 1000).toISOString();
+		const earlier = await (await call(runs, 'POST', {}, { vehicleId, ranAt: before })).json();
+		// A second before the save: never the new revision (the first was saved in the same second or none).
+		expect(earlier.revisionId).not.toBe(secondRevision);
+	});
+
+	it('asks before a likely duplicate, and a retried write with the same client key makes one run', async () => {
+		const body = { vehicleId, ranAt: '2026-05-09T11:22:33+01:00', scoreDb: 139.4 };
+		expect((await call(runs, 'POST', {}, body)).status).toBe(201);
+		const twin = await call(runs, 'POST', {}, body);
+		expect(twin.status).toBe(409);
+		expect((await twin.json()).code).toBe('possible_duplicate');
+		expect((await call(runs, 'POST', {}, { ...body, allowDuplicate: true })).status).toBe(201);
+		const clientKey = crypto.randomUUID();
+		const keyed = { vehicleId, ranAt: '2026-05-09T12:00:00Z', scoreDb: 140.1, clientKey };
+		const first = await call(runs, 'POST', {}, keyed);
+		const retry = await call(runs, 'POST', {}, keyed);
+		expect([first.status, retry.status]).toEqual([201, 200]);
+		expect((await retry.json()).id).toBe((await first.json()).id);
+		const made = await t.db
+			.selectFrom('run')
+			.select((eb) => eb.fn.countAll().as('n'))
+			.where('client_key', '=', clientKey)
+			.executeTakeFirstOrThrow();
+		expect(Number(made.n)).toBe(1);
+	});
+
+	it('flags typed voltages that disagree with the logger file, keeping both', async () => {
+		const created = await (
+			await call(
+				runs,
+				'POST',
+				{},
+				{ vehicleId, ranAt: '2026-05-10T09:00:00Z', restingV: 12.7, minV: 9.1 },
+			)
+		).json();
+		expect(
+			(await upload(created.id, new Blob([HAND_CSV], { type: 'text/csv' }), 'log.csv')).ok,
+		).toBe(true);
+		const after = await (await call(run, 'GET', { runId: created.id })).json();
+		expect(after.run.logger.minV).toBeCloseTo(after.analysis.minVolts, 9);
+		expect(after.run.minV).toBe(9.1);
+		expect(after.run.mismatches.map((m: { field: string }) => m.field)).toContain('minV');
 	});
 
 	it('stores an uploaded logger file in S3, its samples in PostgreSQL, and analyses it like the hand computation', async () => {

@@ -40,6 +40,9 @@ const run = (over: Partial<RunDto>): RunDto => ({
 	ambientC: null,
 	notes: '',
 	hasLogger: false,
+	ranAtOffsetMin: 0,
+	logger: null,
+	mismatches: [],
 	...over,
 });
 

@@ -16,7 +16,10 @@ async function seriousViolations(b: Browser): Promise<string[]> {
 			(v) =>
 				`${v.id} (${v.impact}): ${v.help} — ${v.nodes
 					.slice(0, 3)
-					.map((n) => `${n.target.join(' ')} ${n.html.slice(0, 120)} ${n.failureSummary?.split('\n')[1] ?? ''}`)
+					.map(
+						(n) =>
+							`${n.target.join(' ')} ${n.html.slice(0, 120)} ${n.failureSummary?.split('\n')[1] ?? ''}`,
+					)
 					.join(' | ')}`,
 		);
 }

@@ -1,4 +1,4 @@
-import { format } from 'date-fns';
+import { format, formatISO } from 'date-fns';
 import { useState } from 'react';
 import { Button, Field, FormMessage } from '@/components/ui/Field';
 import { ApiError } from '@/lib/client/api-client';
@@ -29,7 +29,9 @@ export function LogRunForm({
 }) {
 	const logRun = useLogRun(teamId, vehicleId);
 	const uploadLogger = useUploadLogger(teamId, vehicleId);
-	const [ranAt, setRanAt] = useState(() => format(new Date(), "yyyy-MM-dd'T'HH:mm"));
+	const now = () => format(new Date(), "yyyy-MM-dd'T'HH:mm:ss");
+	const [ranAt, setRanAt] = useState(now);
+	const [duplicateOf, setDuplicateOf] = useState<string | null>(null);
 	const [eventId, setEventId] = useState('');
 	const [numbers, setNumbers] = useState(() => measurementTexts());
 	const [notes, setNotes] = useState('');
@@ -60,13 +62,28 @@ export function LogRunForm({
 		});
 	}
 
-	async function submit(event: React.FormEvent) {
-		event.preventDefault();
+	function clear() {
+		setRanAt(now());
+		setNumbers(measurementTexts());
+		setNotes('');
+		setFile(null);
+		setColumns([]);
+		setDuplicateOf(null);
+		const input = document.getElementById('logger-file') as HTMLInputElement | null;
+		if (input) input.value = '';
+	}
+
+	async function submit(event: React.FormEvent | null, allowDuplicate = false) {
+		event?.preventDefault();
 		setMessage(null);
+		setDuplicateOf(null);
+		const when = new Date(ranAt);
 		const parsed = newRunSchema.safeParse({
 			vehicleId,
 			eventId: eventId || null,
-			ranAt: new Date(ranAt).toISOString(),
+			// To the second, with this device's offset, so the run lands on the revision in force then.
+			ranAt: Number.isNaN(when.getTime()) ? '' : formatISO(when),
+			allowDuplicate,
 			...measurementsFromTexts(numbers),
 			notes,
 		});
@@ -85,6 +102,7 @@ export function LogRunForm({
 				setProgress(null);
 			}
 			onLogged(run.id);
+			clear();
 			setMessage(
 				note
 					? { tone: 'error', text: note }
@@ -94,6 +112,10 @@ export function LogRunForm({
 						},
 			);
 		} catch (e) {
+			if (e instanceof ApiError && e.code === 'possible_duplicate') {
+				setDuplicateOf(e.message);
+				return;
+			}
 			if (e instanceof ApiError) setErrors(e.byField());
 			setMessage({
 				tone: 'error',
@@ -117,6 +139,7 @@ export function LogRunForm({
 					<Field
 						label="When"
 						type="datetime-local"
+						step={1}
 						value={ranAt}
 						onChange={(e) => setRanAt(e.target.value)}
 						error={errors.ranAt}
@@ -217,6 +240,20 @@ export function LogRunForm({
 					</Button>
 					{message && <FormMessage tone={message.tone}>{message.text}</FormMessage>}
 				</div>
+				{duplicateOf && (
+					<div
+						role="alert"
+						className="flex flex-wrap items-center gap-3 rounded-md border border-amber bg-amber-tint p-3 text-sm text-amber-text"
+					>
+						<span>⚠ {duplicateOf}. Is this a second run?</span>
+						<Button variant="secondary" onClick={() => void submit(null, true)}>
+							Log it anyway
+						</Button>
+						<Button variant="secondary" onClick={clear}>
+							Discard this entry
+						</Button>
+					</div>
+				)}
 			</form>
 		</section>
 	);

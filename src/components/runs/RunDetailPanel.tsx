@@ -11,6 +11,7 @@ import {
 	useDeleteRun,
 	useUploadPhoto,
 } from '@/lib/client/queries/runs';
+import { MISMATCH_MARGIN_V } from '@/lib/schemas/runs';
 import { fmt } from '@/lib/format';
 import { EditRunForm } from './EditRunForm';
 import { SamplesChart } from './RunCharts';
@@ -63,6 +64,17 @@ export function RunDetailPanel({
 				{run.eventName && <span className="font-normal text-ink-soft">· {run.eventName}</span>}
 			</h2>
 			{run.notes && <p className="mt-1 text-sm">{run.notes}</p>}
+			{run.mismatches.map((m) => (
+				<p
+					key={m.field}
+					role="note"
+					className="mt-2 rounded-md border border-amber bg-amber-tint p-2 text-sm text-amber-text"
+				>
+					⚠ The typed {m.field === 'minV' ? 'minimum' : 'resting'} voltage ({fmt(m.typedV)} V)
+					differs from the logger file&apos;s ({fmt(m.loggedV)} V) by more than{' '}
+					{fmt(MISMATCH_MARGIN_V, 1)} V. Both are kept; the analysis below uses the logger&apos;s.
+				</p>
+			))}
 			{analysis ? (
 				<>
 					<div className="mt-3">

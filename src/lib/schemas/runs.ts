@@ -11,12 +11,32 @@ export const runFieldsSchema = z.object({
 	eventId: z.uuid().nullable().default(null),
 	/** Defaults to the revision in force at ranAt. */
 	revisionId: z.uuid().nullable().optional(),
+	/** To the second, with the offset it was entered with ("2026-06-13T14:05:09+02:00"). */
 	ranAt: z.iso.datetime({ offset: true, error: 'Give the time of the run' }),
 	...measurementNumbersShape,
 	notes: notesText(2000).default(''),
 });
-export const newRunSchema = runFieldsSchema;
+export const newRunSchema = runFieldsSchema.extend({
+	/** Made by the device once per run it logs: sending it again answers the run it made, never a second one. */
+	clientKey: z.uuid().optional(),
+	/** Log it even though a run of the vehicle at the same second with the same score exists. */
+	allowDuplicate: z.boolean().default(false),
+});
 export const updateRunSchema = runFieldsSchema.partial().omit({ vehicleId: true });
+
+/**
+ * How far a typed voltage may sit from the logger file's own figure before the run is flagged
+ * (meters and loggers read a few tenths apart; common practice, no published source).
+ */
+export const MISMATCH_MARGIN_V = 0.3;
+
+/** The minutes east of UTC written in an ISO time ("+02:00" → 120, "Z" → 0); null if none. */
+export function offsetMinutesOf(iso: string): number | null {
+	const m = /(Z|([+-])(\d{2}):?(\d{2}))$/.exec(iso);
+	if (!m) return null;
+	if (m[1] === 'Z') return 0;
+	return (m[2] === '-' ? -1 : 1) * (Number(m[3]) * 60 + Number(m[4]));
+}
 export type RunInput = Partial<z.infer<typeof runFieldsSchema>>;
 
 export const loggerMappingSchema = z.object({
@@ -40,9 +60,17 @@ export const runDtoSchema = z.object({
 	revisionId: z.uuid().nullable(),
 	revisionNumber: z.number().int().nullable(),
 	ranAt: z.string(),
+	/** Minutes east of UTC the time was entered with (null for runs from before it was kept). */
+	ranAtOffsetMin: z.number().int().nullable(),
 	...measuredNumbers,
 	notes: z.string(),
 	hasLogger: z.boolean(),
+	/** The logger file's own resting (before the burp) and minimum voltage. */
+	logger: z.object({ restingV: z.number().nullable(), minV: z.number() }).nullable(),
+	/** Typed voltages that disagree with the logger by more than MISMATCH_MARGIN_V; the analysis uses the logger's. */
+	mismatches: z.array(
+		z.object({ field: z.enum(['restingV', 'minV']), typedV: z.number(), loggedV: z.number() }),
+	),
 });
 export type RunDto = z.infer<typeof runDtoSchema>;
 

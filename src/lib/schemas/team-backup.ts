@@ -107,6 +107,8 @@ export const teamBackupContentSchema = z.object({
 			event: key.nullable(),
 			revision: z.number().int().positive().nullable(),
 			ranAt: iso,
+			/** Minutes east of UTC the time was entered with; older files have none. */
+			ranAtOffsetMin: z.number().int().min(-900).max(900).nullable().default(null),
 			...measurementNumbersShape,
 			notes: z.string().max(2000),
 			authorEmail: email.nullable(),
@@ -124,6 +126,8 @@ export const teamBackupContentSchema = z.object({
 			signedByEmail: email.nullable(),
 			signedAt: iso,
 			note: z.string().max(500),
+			/** A failing computed item accepted with a reason (the note); older files have none. */
+			waived: z.boolean().default(false),
 		}),
 	),
 });

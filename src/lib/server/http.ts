@@ -9,6 +9,7 @@ export type ErrorCode =
 	| 'forbidden'
 	| 'not_found'
 	| 'conflict'
+	| 'possible_duplicate'
 	| 'rate_limited'
 	| 'database_unavailable'
 	| 'email_taken'

@@ -110,6 +110,7 @@ export async function exportTeam(db: Db, storage: Storage, teamId: string): Prom
 			event: r.event_id ? (eventKey.get(r.event_id) ?? null) : null,
 			revision: r.revision_id ? (revisionNumber.get(r.revision_id) ?? null) : null,
 			ranAt: iso(r.ran_at),
+			ranAtOffsetMin: r.ran_at_offset_min,
 			...measurementsOf(r),
 			authorEmail: emailOf(r.author_id) ?? r.imported_by,
 			createdAt: iso(r.created_at),
@@ -153,6 +154,7 @@ export async function exportTeam(db: Db, storage: Storage, teamId: string): Prom
 				signedByEmail: emailOf(s.signed_by) ?? s.imported_by,
 				signedAt: iso(s.signed_at),
 				note: s.note,
+				waived: s.waived,
 			})),
 	};
 	return {

@@ -1,7 +1,8 @@
 import { queryOptions, useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
 import type { RunAnalysis, Sample } from '@/engine';
 import type { EventDto } from '@/lib/schemas/events';
-import type { RunDto, RunPhoto } from '@/lib/schemas/runs';
+import type { z } from 'zod';
+import type { newRunSchema, RunDto, RunPhoto, updateRunSchema } from '@/lib/schemas/runs';
 import type { RevisionDto } from '@/lib/schemas/vehicles';
 import { api, getJson } from '@/lib/client/api-client';
 
@@ -81,10 +82,7 @@ export function useRevisionDiff(
 	});
 }
 
-export type NewRun = Omit<
-	RunDto,
-	'id' | 'vehicleName' | 'eventName' | 'revisionNumber' | 'hasLogger' | 'revisionId'
-> & { revisionId?: string | null };
+export type NewRun = z.input<typeof newRunSchema>;
 
 export function useLogRun(teamId: string, vehicleId: string) {
 	const qc = useQueryClient();
@@ -97,7 +95,7 @@ export function useLogRun(teamId: string, vehicleId: string) {
 export function useUpdateRun(teamId: string, runId: string) {
 	const qc = useQueryClient();
 	return useMutation({
-		mutationFn: (changes: Partial<NewRun>) =>
+		mutationFn: (changes: z.input<typeof updateRunSchema>) =>
 			api<RunDto>(`/api/teams/${teamId}/runs/${runId}`, { method: 'PATCH', json: changes }),
 		onSettled: () => qc.invalidateQueries({ queryKey: runKeys.all }),
 	});

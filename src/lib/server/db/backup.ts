@@ -3,6 +3,7 @@ import type { Database, Role } from '@/lib/server/db/schema';
 import { measurementColumns } from '@/lib/schemas/run-measurements';
 import type { TeamBackupContent } from '@/lib/schemas/team-backup';
 import type { ImportSummary } from '@/lib/schemas/teams';
+import { refreshLoggerSummary } from '@/lib/server/db/runs';
 
 type Db = Kysely<Database>;
 
@@ -365,6 +366,7 @@ export async function insertTeamFromBackup(
 					event_id: r.event ? eventIds.get(r.event)! : null,
 					revision_id: r.revision === null ? null : revisionIds.get(`${r.vehicle}#${r.revision}`)!,
 					ran_at: r.ranAt,
+					ran_at_offset_min: r.ranAtOffsetMin,
 					...measurementColumns(r),
 					author_id: null,
 					imported_by: recorded(r.authorEmail),
@@ -386,6 +388,7 @@ export async function insertTeamFromBackup(
 					)
 					.execute();
 			}
+			if (r.samples.length) await refreshLoggerSummary(trx, run.id);
 			// Photos first, so each thumbnail takes its photo's new name.
 			const runFiles = [...(p.files[i] ?? [])].sort(
 				(a, b) => Number(a.kind === 'thumbnail') - Number(b.kind === 'thumbnail'),
@@ -421,6 +424,7 @@ export async function insertTeamFromBackup(
 					imported_by: recorded(s.signedByEmail),
 					signed_at: s.signedAt,
 					note: s.note,
+					waived: s.waived,
 				})
 				.execute();
 		}

@@ -1,4 +1,4 @@
-import type { Kysely } from 'kysely';
+import { type Kysely, sql } from 'kysely';
 import type { Database, RevisionRow } from '@/lib/server/db/schema';
 import type { BuildDocument } from '@/engine';
 import type { RevisionDto, RevisionSummary } from '@/lib/schemas/vehicles';
@@ -145,14 +145,22 @@ export async function appendRevision(
 	});
 }
 
-/** The revision of a vehicle's build that was the newest at a moment (the configuration in force). */
+/**
+ * The revision of a vehicle's build in force at a moment: the newest one saved at or before it,
+ * compared to the whole second (a run's time is kept to the second, so a run logged in the same
+ * second as a save, even a fraction before it, counts as made on the new revision).
+ */
 export async function revisionInForce(db: Db, vehicleId: string, at: Date): Promise<string | null> {
 	const row = await db
 		.selectFrom('revision as r')
 		.innerJoin('build as b', 'b.id', 'r.build_id')
 		.select('r.id')
 		.where('b.vehicle_id', '=', vehicleId)
-		.where('r.created_at', '<=', at)
+		.where(
+			sql<Date>`date_trunc('second', r.created_at)`,
+			'<=',
+			sql<Date>`date_trunc('second', ${at.toISOString()}::timestamptz)`,
+		)
 		.orderBy('r.created_at', 'desc')
 		.limit(1)
 		.executeTakeFirst();

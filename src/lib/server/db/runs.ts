@@ -1,11 +1,11 @@
-import type { Kysely } from 'kysely';
+import { type Kysely, sql } from 'kysely';
 import type { Database } from '@/lib/server/db/schema';
 import {
 	measurementColumns,
 	measurementsOf,
 	type RunMeasurements,
 } from '@/lib/schemas/run-measurements';
-import type { RunDto, RunSample } from '@/lib/schemas/runs';
+import { MISMATCH_MARGIN_V, type RunDto, type RunSample } from '@/lib/schemas/runs';
 
 type Db = Kysely<Database>;
 
@@ -27,6 +27,19 @@ function runQuery(db: Db, teamId: string) {
 
 type RunRow = Awaited<ReturnType<ReturnType<typeof runQuery>['executeTakeFirstOrThrow']>>;
 
+function mismatchesOf(r: RunRow): RunDto['mismatches'] {
+	const out: RunDto['mismatches'] = [];
+	const pairs = [
+		['restingV', r.resting_v, r.logger_resting_v],
+		['minV', r.min_v, r.logger_min_v],
+	] as const;
+	for (const [field, typedV, loggedV] of pairs) {
+		if (typedV !== null && loggedV !== null && Math.abs(typedV - loggedV) > MISMATCH_MARGIN_V)
+			out.push({ field, typedV, loggedV });
+	}
+	return out;
+}
+
 function toRunDto(r: RunRow): RunDto {
 	return {
 		id: r.id,
@@ -37,8 +50,11 @@ function toRunDto(r: RunRow): RunDto {
 		revisionId: r.revision_id,
 		revisionNumber: r.revision_number,
 		ranAt: r.ran_at.toISOString(),
+		ranAtOffsetMin: r.ran_at_offset_min,
 		...measurementsOf(r),
 		hasLogger: Boolean(r.has_logger),
+		logger: r.logger_min_v === null ? null : { restingV: r.logger_resting_v, minV: r.logger_min_v },
+		mismatches: mismatchesOf(r),
 	};
 }
 
@@ -58,6 +74,45 @@ export async function findRun(db: Db, teamId: string, runId: string): Promise<Ru
 	return r && toRunDto(r);
 }
 
+/** The run a device already made with this idempotency key, if any. */
+export async function findRunByClientKey(
+	db: Db,
+	vehicleId: string,
+	clientKey: string,
+): Promise<string | undefined> {
+	const row = await db
+		.selectFrom('run')
+		.select('id')
+		.where('vehicle_id', '=', vehicleId)
+		.where('client_key', '=', clientKey)
+		.executeTakeFirst();
+	return row?.id;
+}
+
+/** A run of the vehicle in the same second with the same score (null matching null): a likely duplicate. */
+export async function findLikelyDuplicate(
+	db: Db,
+	teamId: string,
+	vehicleId: string,
+	ranAt: string,
+	scoreDb: number | null | undefined,
+): Promise<RunDto | undefined> {
+	const r = await runQuery(db, teamId)
+		.where('r.vehicle_id', '=', vehicleId)
+		.where(
+			sql<Date>`date_trunc('second', r.ran_at)`,
+			'=',
+			sql<Date>`date_trunc('second', ${ranAt}::timestamptz)`,
+		)
+		.where(sql<boolean>`r.score_db is not distinct from ${scoreDb ?? null}::double precision`)
+		.executeTakeFirst();
+	return r && toRunDto(r);
+}
+
+/**
+ * Logs a run. With a client key the insert is idempotent: a second insert with the same key (a
+ * retry from a device that never saw the answer) makes nothing and answers the first run's id.
+ */
 export async function insertRun(
 	db: Db,
 	r: Partial<RunMeasurements> & {
@@ -65,9 +120,11 @@ export async function insertRun(
 		eventId: string | null;
 		revisionId: string | null;
 		ranAt: string;
+		ranAtOffsetMin: number | null;
+		clientKey?: string;
 		authorId: string;
 	},
-): Promise<string> {
+): Promise<{ id: string; created: boolean }> {
 	const row = await db
 		.insertInto('run')
 		.values({
@@ -75,12 +132,40 @@ export async function insertRun(
 			event_id: r.eventId,
 			revision_id: r.revisionId,
 			ran_at: r.ranAt,
+			ran_at_offset_min: r.ranAtOffsetMin,
+			client_key: r.clientKey ?? null,
 			...measurementColumns(r),
 			author_id: r.authorId,
 		})
+		.onConflict((oc) =>
+			oc.columns(['vehicle_id', 'client_key']).where('client_key', 'is not', null).doNothing(),
+		)
 		.returning('id')
-		.executeTakeFirstOrThrow();
-	return row.id;
+		.executeTakeFirst();
+	if (row) return { id: row.id, created: true };
+	const existing = await findRunByClientKey(db, r.vehicleId, r.clientKey!);
+	return { id: existing!, created: false };
+}
+
+/**
+ * Stores the logger's resting and minimum voltage from the run's samples: the burp starts at the
+ * first sample whose current passes halfway from the file's lowest to its highest current; resting
+ * is the mean voltage of the samples before it (none when the file starts mid-burp).
+ */
+export async function refreshLoggerSummary(db: Db, runId: string): Promise<void> {
+	await sql`
+		with s as (
+			select run_id, min(amps) lo, max(amps) hi, min(volts) vmin from run_sample
+			where run_id = ${runId} group by run_id
+		), st as (
+			select rs.run_id, min(rs.t_s) t0 from run_sample rs join s using (run_id)
+			where rs.amps >= s.lo + 0.5 * (s.hi - s.lo) group by rs.run_id
+		), rest as (
+			select rs.run_id, avg(rs.volts) v from run_sample rs join st using (run_id)
+			where rs.t_s < st.t0 group by rs.run_id
+		)
+		update run set logger_min_v = s.vmin, logger_resting_v = rest.v
+		from s left join rest using (run_id) where run.id = s.run_id`.execute(db);
 }
 
 /** Changes a run's links and measurements; fields left out stay as they are. */
@@ -90,6 +175,7 @@ export async function updateRun(
 	r: Partial<RunMeasurements> & {
 		eventId?: string | null;
 		ranAt?: string;
+		ranAtOffsetMin?: number | null;
 		revisionId: string | null;
 	},
 ): Promise<void> {
@@ -98,6 +184,7 @@ export async function updateRun(
 		.set({
 			...(r.eventId !== undefined ? { event_id: r.eventId } : {}),
 			...(r.ranAt ? { ran_at: r.ranAt } : {}),
+			...(r.ranAtOffsetMin !== undefined ? { ran_at_offset_min: r.ranAtOffsetMin } : {}),
 			revision_id: r.revisionId,
 			...measurementColumns(r),
 		})
@@ -186,6 +273,7 @@ export async function replaceLoggerData(
 				)
 				.execute();
 		}
+		await refreshLoggerSummary(trx, p.runId);
 		return { ok: true, replacedKeys: old.map((f) => f.object_key) };
 	});
 }

@@ -177,6 +177,13 @@ export interface RunTable extends RunNumberColumns {
 	event_id: string | null;
 	revision_id: string | null;
 	ran_at: Timestamp;
+	/** The UTC offset the time was entered with (minutes east of UTC), to show it as the lanes saw it. */
+	ran_at_offset_min: number | null;
+	/** The logging device's idempotency key: a retried write finds this run instead of adding one. */
+	client_key: string | null;
+	/** The logger file's resting voltage (before the burp) and minimum, beside the typed ones. */
+	logger_resting_v: number | null;
+	logger_min_v: number | null;
 	notes: Generated<string>;
 	author_id: string | null;
 	/** As recorded in a restored backup (never a live account of this installation). */
@@ -219,7 +226,10 @@ export interface CheckSignoffTable {
 	/** As recorded in a restored backup (never a live account of this installation). */
 	imported_by: string | null;
 	signed_at: DefaultTimestamp;
+	/** For a waiver, the captain's reason. */
 	note: Generated<string>;
+	/** A failing computed item accepted by a captain with a reason: shown as waived, never as passed. */
+	waived: Generated<boolean>;
 }
 
 export interface PlanTable {

@@ -1,4 +1,5 @@
 import type { APIRoute } from 'astro';
+import { offsetMinutesOf } from '@/lib/schemas/runs';
 import { analyseRun } from '@/engine';
 import { updateRunSchema } from '@/lib/schemas/runs';
 import { requireRun, resolveRunLinks } from '@/lib/server/access';
@@ -28,7 +29,11 @@ export const PATCH: APIRoute = async ({ params, request, locals }) => {
 		revisionId: r.revisionId ?? (r.ranAt ? undefined : run.revisionId),
 	});
 	if (!links.ok) return problem(400, 'invalid_input', 'Some links need attention', links.errors);
-	await updateRun(locals.db, run.id, { ...r, revisionId: links.revisionId ?? null });
+	await updateRun(locals.db, run.id, {
+		...r,
+		...(r.ranAt ? { ranAtOffsetMin: offsetMinutesOf(r.ranAt) } : {}),
+		revisionId: links.revisionId ?? null,
+	});
 	return Response.json(await findRun(locals.db, access.teamId, run.id));
 };
 
