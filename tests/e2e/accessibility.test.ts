@@ -24,6 +24,14 @@ async function seriousViolations(b: Browser): Promise<string[]> {
 		);
 }
 
+/** The address of the first link on the page whose href matches, if there is one. */
+const firstHref = (b: Browser, selector: string) =>
+	b.page
+		.locator(selector)
+		.first()
+		.getAttribute('href', { timeout: 5_000 })
+		.catch(() => null);
+
 async function settle(b: Browser, url: string) {
 	await b.page.goto(url);
 	await b.page.waitForLoadState('networkidle');
@@ -57,11 +65,7 @@ describe('accessibility (axe-core in chromium): no critical or serious violation
 			const team = b.page.url();
 			const pages = [`${appUrl}/teams`, team, `${team}/events`, `${team}/settings`];
 			await b.page.goto(`${team}/events`);
-			const checks = await b.page
-				.locator('a[href*="/checks"]')
-				.first()
-				.getAttribute('href')
-				.catch(() => null);
+			const checks = await firstHref(b, 'a[href*="/checks"]');
 			if (checks) pages.push(new URL(checks, appUrl).href);
 			await b.page.goto(team);
 			await b.page.getByRole('link', { name: 'Pebble', exact: true }).click();
@@ -69,11 +73,7 @@ describe('accessibility (axe-core in chromium): no critical or serious violation
 			const vehicle = b.page.url();
 			pages.push(vehicle, `${vehicle}/runs`, `${vehicle}/history`, `${vehicle}/plans`);
 			await b.page.goto(`${vehicle}/plans`);
-			const plan = await b.page
-				.locator('a[href*="/plans/"]')
-				.first()
-				.getAttribute('href')
-				.catch(() => null);
+			const plan = await firstHref(b, 'a[href*="/plans/"]');
 			if (plan) pages.push(new URL(plan, appUrl).href);
 			const found: Record<string, string[]> = {};
 			for (const url of pages) {

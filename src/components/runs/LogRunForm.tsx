@@ -246,10 +246,10 @@ export function LogRunForm({
 						className="flex flex-wrap items-center gap-3 rounded-md border border-amber bg-amber-tint p-3 text-sm text-amber-text"
 					>
 						<span>⚠ {duplicateOf}. Is this a second run?</span>
-						<Button variant="secondary" onClick={() => void submit(null, true)}>
+						<Button type="button" variant="secondary" onClick={() => void submit(null, true)}>
 							Log it anyway
 						</Button>
-						<Button variant="secondary" onClick={clear}>
+						<Button type="button" variant="secondary" onClick={clear}>
 							Discard this entry
 						</Button>
 					</div>
