@@ -49,8 +49,11 @@ export const DEMO_USERS = [
 	{ email: 'viewer@sagwise.test', name: 'Demo Viewer', role: 'viewer' },
 ] as const;
 
-const day = (daysAgo: number) => new Date(Date.now() - daysAgo * 86_400_000);
-const isoDay = (d: Date) => d.toISOString().slice(0, 10);
+/** A demo day at an hour (UTC): the demo season has fixed dates, not dates relative to today. */
+const at = (isoDay: string, hour: number) =>
+	new Date(`${isoDay}T${String(hour).padStart(2, '0')}:00:00Z`);
+const plusDays = (isoDay: string, days: number) =>
+	new Date(at(isoDay, 12).getTime() + days * 86_400_000).toISOString().slice(0, 10);
 
 /**
  * Writes the demo scenario in one transaction (logger files go to storage when one is given).
@@ -106,7 +109,7 @@ export async function seedDemo(db: Kysely<Database>, storage?: Storage): Promise
 						document: JSON.stringify(r.document),
 						message: r.message,
 						author_id: userIds[r.author]!,
-						created_at: new Date(Date.now() - r.daysAgo * 86_400_000),
+						created_at: at(r.on, 9),
 					})
 					.returning('id')
 					.executeTakeFirstOrThrow();
@@ -126,8 +129,8 @@ export async function seedDemo(db: Kysely<Database>, storage?: Storage): Promise
 				.values({
 					team_id: team.id,
 					name: e.name,
-					starts_on: isoDay(day(e.daysAgo)),
-					ends_on: isoDay(day(e.daysAgo - (e.days - 1))),
+					starts_on: e.on,
+					ends_on: plusDays(e.on, e.days - 1),
 					place: e.place,
 					format: e.format,
 				})
@@ -143,7 +146,7 @@ export async function seedDemo(db: Kysely<Database>, storage?: Storage): Promise
 				.where('v.team_id', '=', team.id)
 				.where('v.name', '=', r.vehicle)
 				.executeTakeFirstOrThrow();
-			const ranAt = new Date(day(r.daysAgo).getTime() + 14 * 3600_000);
+			const ranAt = at(r.on, 14);
 			const rev = await trx
 				.selectFrom('revision')
 				.select('id')
@@ -216,8 +219,8 @@ export async function seedDemo(db: Kysely<Database>, storage?: Storage): Promise
 					schema_version: p.document.schemaVersion,
 					document: JSON.stringify(p.document),
 					created_by: userIds[p.author]!,
-					created_at: day(p.daysAgo),
-					updated_at: day(p.daysAgo),
+					created_at: at(p.on, 18),
+					updated_at: at(p.on, 18),
 				})
 				.returning('id')
 				.executeTakeFirstOrThrow();

@@ -388,7 +388,8 @@ export interface DemoRevision {
 	message: string;
 	/** Index into DEMO_USERS (db/seed.ts) of the author. */
 	author: 0 | 1;
-	daysAgo: number;
+	/** The day, fixed in the demo season (YYYY-MM-DD). */
+	on: string;
 	document: BuildDocument;
 }
 
@@ -411,7 +412,7 @@ export const DEMO_HISTORIES: Record<keyof typeof DEMO_BUILDS, DemoRevision[]> = 
 		{
 			message: 'First install: 1.2 kW mono off the starting battery, 8 AWG CCA kit wiring',
 			author: 1,
-			daysAgo: 120,
+			on: '2026-04-11',
 			document: variant(pebbleBuild, (d) => {
 				for (const id of ['charge', 'strap', 'front_gnd', 'run', 'amp_feed', 'amp_gnd'])
 					setCable(d, id, { size: awg('8'), material: 'cca10' });
@@ -423,7 +424,7 @@ export const DEMO_HISTORIES: Record<keyof typeof DEMO_BUILDS, DemoRevision[]> = 
 		{
 			message: 'Kit wire got warm at the first meet: run, feed and ground to 4 AWG',
 			author: 1,
-			daysAgo: 90,
+			on: '2026-05-23',
 			document: variant(pebbleBuild, (d) => {
 				for (const id of ['charge', 'strap', 'front_gnd'])
 					setCable(d, id, { size: awg('8'), material: 'cca10' });
@@ -434,7 +435,7 @@ export const DEMO_HISTORIES: Record<keyof typeof DEMO_BUILDS, DemoRevision[]> = 
 		{
 			message: 'Charge lead and engine strap to 4 AWG copper, fused charge lead at the battery',
 			author: 0,
-			daysAgo: 60,
+			on: '2026-06-06',
 			document: pebbleBuild,
 		},
 	],
@@ -442,7 +443,7 @@ export const DEMO_HISTORIES: Record<keyof typeof DEMO_BUILDS, DemoRevision[]> = 
 		{
 			message: 'Two bass amplifiers on the front AGM, 1/0 run to a trunk block',
 			author: 0,
-			daysAgo: 150,
+			on: '2026-03-07',
 			document: variant(marlinBuild, (d) => {
 				d.banks = withoutPart(d.banks, 'rear');
 				d.cables = withoutPart(
@@ -459,7 +460,7 @@ export const DEMO_HISTORIES: Record<keyof typeof DEMO_BUILDS, DemoRevision[]> = 
 		{
 			message: 'Second bank: two AGM strings in the trunk, fused at both ends of the run',
 			author: 1,
-			daysAgo: 100,
+			on: '2026-05-02',
 			document: variant(marlinBuild, (d) => {
 				d.cables = withoutPart(withoutPart(d.cables, 'mids_feed'), 'mids_gnd');
 				d.amplifiers = withoutPart(d.amplifiers, 'mids');
@@ -469,7 +470,7 @@ export const DEMO_HISTORIES: Record<keyof typeof DEMO_BUILDS, DemoRevision[]> = 
 		{
 			message: 'Four-channel for the doors, fed from the block',
 			author: 1,
-			daysAgo: 40,
+			on: '2026-07-11',
 			document: marlinBuild,
 		},
 	],
@@ -477,7 +478,7 @@ export const DEMO_HISTORIES: Record<keyof typeof DEMO_BUILDS, DemoRevision[]> = 
 		{
 			message: 'One alternator, front and rear-wall LiFePO4 banks, doubled 4/0 runs',
 			author: 0,
-			daysAgo: 200,
+			on: '2026-02-07',
 			document: variant(oldOakBuild, (d) => {
 				d.alternators = withoutPart(d.alternators, 'alt2');
 				d.cables = withoutPart(d.cables, 'charge2');
@@ -488,7 +489,7 @@ export const DEMO_HISTORIES: Record<keyof typeof DEMO_BUILDS, DemoRevision[]> = 
 		{
 			message: 'Second alternator on the top bracket',
 			author: 1,
-			daysAgo: 110,
+			on: '2026-04-22',
 			document: variant(oldOakBuild, (d) => {
 				for (const a of d.alternators) a.setPointV = 17.4;
 			}),
@@ -496,7 +497,7 @@ export const DEMO_HISTORIES: Record<keyof typeof DEMO_BUILDS, DemoRevision[]> = 
 		{
 			message: 'Regulators up to 17.8 V so the 5-cell banks reach absorption',
 			author: 0,
-			daysAgo: 30,
+			on: '2026-08-01',
 			document: oldOakBuild,
 		},
 	],

@@ -8,7 +8,8 @@ export interface DemoPlan {
 	name: string;
 	notes: string;
 	author: number;
-	daysAgo: number;
+	/** The day, fixed in the demo season (YYYY-MM-DD). */
+	on: string;
 	document: BuildDocument;
 	parts: PlanPartInput[];
 }
@@ -25,7 +26,7 @@ export const DEMO_PLANS: DemoPlan[] = [
 		name: 'Third alternator on a new bracket',
 		notes: 'Needs the custom bracket and a longer belt; check the belt wrap before ordering.',
 		author: 0,
-		daysAgo: 12,
+		on: '2026-09-19',
 		document: change(oldOakBuild, (d) => {
 			d.nodes.push({ id: 'alt3_pos', label: 'Alternator 3 B+', kind: 'alternator' });
 			d.alternators.push({
@@ -63,7 +64,7 @@ export const DEMO_PLANS: DemoPlan[] = [
 		notes:
 			'Rear wall has room for two more modules; the 1/0 amplifier leads run warm after long sessions.',
 		author: 1,
-		daysAgo: 5,
+		on: '2026-10-10',
 		document: change(oldOakBuild, (d) => {
 			d.banks.find((b) => b.id === 'rear')!.stringsInParallel = 6;
 			for (const c of d.cables)

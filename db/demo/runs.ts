@@ -5,7 +5,8 @@
 export interface DemoEvent {
 	key: string;
 	name: string;
-	daysAgo: number;
+	/** The day, fixed in the demo season (YYYY-MM-DD). */
+	on: string;
 	days: number;
 	place: string;
 	format: string;
@@ -15,7 +16,7 @@ export const DEMO_EVENTS: DemoEvent[] = [
 	{
 		key: 'thaw',
 		name: 'Thaw Out Meet',
-		daysAgo: 140,
+		on: '2026-03-21',
 		days: 1,
 		place: 'North lot, fairground',
 		format: 'SPL, single burp',
@@ -23,7 +24,7 @@ export const DEMO_EVENTS: DemoEvent[] = [
 	{
 		key: 'river',
 		name: 'Riverside Bass Day',
-		daysAgo: 95,
+		on: '2026-05-16',
 		days: 2,
 		place: 'River park',
 		format: 'SPL and SQ',
@@ -31,7 +32,7 @@ export const DEMO_EVENTS: DemoEvent[] = [
 	{
 		key: 'summer',
 		name: 'Midsummer Airfield Meet',
-		daysAgo: 50,
+		on: '2026-06-20',
 		days: 1,
 		place: 'Old airfield',
 		format: 'SPL, three runs',
@@ -39,7 +40,7 @@ export const DEMO_EVENTS: DemoEvent[] = [
 	{
 		key: 'finals',
 		name: 'Season Finals',
-		daysAgo: 12,
+		on: '2026-09-19',
 		days: 2,
 		place: 'Exhibition hall car park',
 		format: 'SPL finals',
@@ -47,7 +48,7 @@ export const DEMO_EVENTS: DemoEvent[] = [
 	{
 		key: 'winter',
 		name: 'Winter Open',
-		daysAgo: -21,
+		on: '2027-01-16',
 		days: 1,
 		place: 'Indoor arena',
 		format: 'SPL',
@@ -57,7 +58,8 @@ export const DEMO_EVENTS: DemoEvent[] = [
 export interface DemoRun {
 	vehicle: 'Pebble' | 'Marlin' | 'Old Oak';
 	event: string | null;
-	daysAgo: number;
+	/** The day, fixed in the demo season (YYYY-MM-DD). */
+	on: string;
 	scoreDb: number;
 	frequencyHz: number;
 	restingV: number;
@@ -72,7 +74,7 @@ export const DEMO_RUNS: DemoRun[] = [
 	{
 		vehicle: 'Pebble',
 		event: 'thaw',
-		daysAgo: 140,
+		on: '2026-03-21',
 		scoreDb: 138.4,
 		frequencyHz: 42,
 		restingV: 12.7,
@@ -83,7 +85,7 @@ export const DEMO_RUNS: DemoRun[] = [
 	{
 		vehicle: 'Pebble',
 		event: 'river',
-		daysAgo: 95,
+		on: '2026-05-16',
 		scoreDb: 139.6,
 		frequencyHz: 42,
 		restingV: 12.8,
@@ -95,7 +97,7 @@ export const DEMO_RUNS: DemoRun[] = [
 	{
 		vehicle: 'Pebble',
 		event: 'summer',
-		daysAgo: 50,
+		on: '2026-06-20',
 		scoreDb: 140.1,
 		frequencyHz: 41,
 		restingV: 13.9,
@@ -106,7 +108,7 @@ export const DEMO_RUNS: DemoRun[] = [
 	{
 		vehicle: 'Marlin',
 		event: 'thaw',
-		daysAgo: 140,
+		on: '2026-03-21',
 		scoreDb: 146.2,
 		frequencyHz: 38,
 		restingV: 12.8,
@@ -117,7 +119,7 @@ export const DEMO_RUNS: DemoRun[] = [
 	{
 		vehicle: 'Marlin',
 		event: 'river',
-		daysAgo: 95,
+		on: '2026-05-16',
 		scoreDb: 147.9,
 		frequencyHz: 38,
 		restingV: 12.9,
@@ -129,7 +131,7 @@ export const DEMO_RUNS: DemoRun[] = [
 	{
 		vehicle: 'Marlin',
 		event: 'summer',
-		daysAgo: 50,
+		on: '2026-06-20',
 		scoreDb: 148.6,
 		frequencyHz: 37,
 		restingV: 14.1,
@@ -140,7 +142,7 @@ export const DEMO_RUNS: DemoRun[] = [
 	{
 		vehicle: 'Marlin',
 		event: 'finals',
-		daysAgo: 12,
+		on: '2026-09-19',
 		scoreDb: 148.3,
 		frequencyHz: 37,
 		restingV: 12.8,
@@ -152,7 +154,7 @@ export const DEMO_RUNS: DemoRun[] = [
 	{
 		vehicle: 'Old Oak',
 		event: 'river',
-		daysAgo: 95,
+		on: '2026-05-16',
 		scoreDb: 153.8,
 		frequencyHz: 33,
 		restingV: 16.4,
@@ -163,7 +165,7 @@ export const DEMO_RUNS: DemoRun[] = [
 	{
 		vehicle: 'Old Oak',
 		event: 'summer',
-		daysAgo: 50,
+		on: '2026-06-20',
 		scoreDb: 155.2,
 		frequencyHz: 33,
 		restingV: 16.6,
@@ -175,7 +177,7 @@ export const DEMO_RUNS: DemoRun[] = [
 	{
 		vehicle: 'Old Oak',
 		event: 'finals',
-		daysAgo: 12,
+		on: '2026-09-19',
 		scoreDb: 155.9,
 		frequencyHz: 32,
 		restingV: 16.7,

@@ -1,4 +1,5 @@
 import type { BuildReport, WarningCode } from './report';
+import { formatShortDistance, type UnitSystem } from './units';
 
 export interface ComputedCheck {
 	key: string;
@@ -10,13 +11,13 @@ export interface ComputedCheck {
 
 const CHECKS: Array<{
 	key: string;
-	label: (r: Extract<BuildReport, { ok: true }>) => string;
+	label: (r: Extract<BuildReport, { ok: true }>, units: UnitSystem) => string;
 	codes: WarningCode[];
 }> = [
 	{
 		key: 'battery_fusing',
-		label: (r) =>
-			`Every cable leaving a battery is fused within ${Math.round(r.scenario.fuseDistanceM * 100)} cm of it`,
+		label: (r, units) =>
+			`Every cable leaving a battery is fused within ${formatShortDistance(r.scenario.fuseDistanceM, units)} of it`,
 		codes: ['unfused_battery_cable', 'fuse_too_far'],
 	},
 	{
@@ -60,7 +61,10 @@ const CHECKS: Array<{
  * The pre-event checklist items computed from a build's report: each passes, or fails with the
  * findings that concern it. A build the engine cannot solve fails a single item with its issues.
  */
-export function computedChecks(report: BuildReport): ComputedCheck[] {
+export function computedChecks(
+	report: BuildReport,
+	units: UnitSystem = 'metric',
+): ComputedCheck[] {
 	if (!report.ok) {
 		return [
 			{
@@ -75,7 +79,7 @@ export function computedChecks(report: BuildReport): ComputedCheck[] {
 		const reasons = report.warnings.filter((w) => c.codes.includes(w.code)).map((w) => w.message);
 		return {
 			key: c.key,
-			label: c.label(report),
+			label: c.label(report, units),
 			status: reasons.length ? 'fail' : 'pass',
 			reasons,
 		};

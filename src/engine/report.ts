@@ -15,6 +15,7 @@ import { adviseFuse, type FuseAdvice, MAX_FUSE_FACTOR } from './fuses';
 import { type NetworkSolution, solveNetwork } from './solve';
 import { checkTopology, type TopologyIssue } from './topology';
 import type { BuildDocument, Scenario } from './types';
+import { formatShortDistance, type UnitSystem } from './units';
 
 export const DEFAULT_VOLTAGES_V = [12.0, 12.6, 13.8, 14.4, 16.0];
 
@@ -162,9 +163,10 @@ const fmt = (x: number, digits = 2) => x.toFixed(digits);
 export function buildReport(
 	doc: BuildDocument,
 	scenarioIn: Partial<Scenario> = {},
-	opts: { burpRun?: boolean } = {},
+	opts: { burpRun?: boolean; units?: UnitSystem } = {},
 ): BuildReport {
 	const scenario: Scenario = { ...DEFAULT_SCENARIO, ...scenarioIn };
+	const units = opts.units ?? 'metric';
 	const issues = checkTopology(doc);
 	if (issues.length > 0) return { ok: false, issues };
 
@@ -268,7 +270,7 @@ export function buildReport(
 					severity: 'danger',
 					element: el,
 					safety: true,
-					message: `The fuse on "${cable.label}" sits ${fmt(fuse.distanceM * 100, 0)} cm from the battery at "${nodeLabel}"; keep it within ${fmt(scenario.fuseDistanceM * 100, 0)} cm.`,
+					message: `The fuse on "${cable.label}" sits ${formatShortDistance(fuse.distanceM, units)} from the battery at "${nodeLabel}"; keep it within ${formatShortDistance(scenario.fuseDistanceM, units)}.`,
 				});
 			}
 		}

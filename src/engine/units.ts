@@ -11,3 +11,8 @@ export const feetToMetres = (ft: number): number => ft * M_PER_FT;
 export function formatLength(m: number, units: UnitSystem): string {
 	return units === 'imperial' ? `${metresToFeet(m).toFixed(1)} ft` : `${m.toFixed(2)} m`;
 }
+
+/** A short distance for display (a fuse from its battery): whole inches or whole centimetres. */
+export function formatShortDistance(m: number, units: UnitSystem): string {
+	return units === 'imperial' ? `${Math.round(m / M_PER_IN)} in` : `${Math.round(m * 100)} cm`;
+}

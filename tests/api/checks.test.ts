@@ -1,3 +1,4 @@
+import { randomUUID } from 'node:crypto';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { pebbleBuild } from '../../db/demo/builds';
 import * as checkItems from '../../src/pages/api/teams/[teamId]/check-items/index';
@@ -13,6 +14,8 @@ describe('pre-event checks', () => {
 	let t: TestDb;
 	let teamId: string;
 	let member: AppUser;
+	let captain: AppUser;
+	let buildId: string;
 	let vehicleId: string;
 	let eventId: string;
 	beforeAll(async () => {
@@ -20,15 +23,23 @@ describe('pre-event checks', () => {
 		teamId = await makeTeam(t.db, 'Check Team');
 		member = await makeUser(t.db, 'checker@sagwise.test', 'Checker');
 		await addMember(t.db, teamId, member, 'member');
+		captain = await makeUser(t.db, 'lead@sagwise.test', 'Lead');
+		await addMember(t.db, teamId, captain, 'captain');
+		await t.db
+			.updateTable('User')
+			.set({ unitSystem: 'metric' })
+			.where('id', '=', captain.id)
+			.execute();
 		const v = await insertVehicleWithBuild(t.db, {
 			teamId,
 			name: 'Check car',
 			description: '',
-			competitionClass: '',
+			competitionClass: 'Open Street',
 			notes: '',
 			ownerId: null,
 		});
 		vehicleId = v.vehicle.id;
+		buildId = v.buildId;
 		const unfused = structuredClone(pebbleBuild);
 		unfused.cables.find((c) => c.id === 'run')!.fuses = [];
 		await appendRevision(t.db, {
@@ -55,9 +66,10 @@ describe('pre-event checks', () => {
 		params: Record<string, string>,
 		body?: unknown,
 		query = '',
+		who: AppUser = member,
 	) =>
 		callEndpoint(module, {
-			locals: localsFor(t.db, member),
+			locals: localsFor(t.db, who),
 			params: { teamId, ...params },
 			request: jsonRequest(`/x${query}`, method, body),
 		});
@@ -107,5 +119,119 @@ describe('pre-event checks', () => {
 			(await call(checks, 'POST', { eventId }, { vehicleId, itemKey: 'made_up', signed: true }))
 				.status,
 		).toBe(400);
+	});
+
+	type Item = {
+		key: string;
+		status: string;
+		outstanding: boolean;
+		label: string;
+		signoff: { waived: boolean; by: string; note: string } | null;
+	};
+	const sheet = async (who: AppUser = member) => {
+		const res = await call(checks, 'GET', { eventId }, undefined, `?vehicleId=${vehicleId}`, who);
+		expect(res.status).toBe(200);
+		return res.json() as Promise<{
+			teamName: string;
+			vehicleName: string;
+			vehicleClass: string;
+			eventName: string;
+			startsOn: string;
+			units: string;
+			revision: { id: string; number: number; message: string } | null;
+			items: Item[];
+		}>;
+	};
+	const fusing = (l: { items: Item[] }) => l.items.find((i) => i.key === 'battery_fusing')!;
+	const sign = (body: Record<string, unknown>, who: AppUser = member) =>
+		call(checks, 'POST', { eventId }, { vehicleId, signed: true, ...body }, '', who);
+
+	it('carries what the printed sheet needs, with distances in the reader’s units', async () => {
+		const forMember = await sheet();
+		expect(forMember).toMatchObject({
+			teamName: 'Check Team',
+			vehicleName: 'Check car',
+			vehicleClass: 'Open Street',
+			eventName: 'Next meet',
+			units: 'imperial',
+			revision: { number: 1, message: 'Run without its fuse' },
+		});
+		// The team's default battery-fuse distance is 0.45 m: 17.7 in rounds to 18 in (0.45 / 0.0254,
+		// the inch being exactly 25.4 mm by the 1959 international yard and pound agreement).
+		expect(fusing(forMember).label).toMatch(/within 18 in of it/);
+		expect(fusing(await sheet(captain)).label).toMatch(/within 45 cm of it/);
+	});
+
+	it('lets only a captain waive a failing computed item, and only with a written reason', async () => {
+		const before = fusing(await sheet());
+		expect(before).toMatchObject({ status: 'fail', outstanding: true, signoff: null });
+
+		const byMember = await sign({ itemKey: 'battery_fusing', note: 'We know, it is fine' });
+		expect(byMember.status).toBe(403);
+		expect((await byMember.json()).detail).toMatch(/captain/);
+
+		const noReason = await sign({ itemKey: 'battery_fusing', note: '  ok ' }, captain);
+		expect(noReason.status).toBe(400);
+		expect((await noReason.json()).errors).toEqual([
+			{ path: 'note', message: expect.stringMatching(/reason for the waiver/) },
+		]);
+		expect(fusing(await sheet()).signoff).toBeNull();
+
+		const waived = await sign(
+			{ itemKey: 'battery_fusing', note: 'Fuse block moved next week; inspector agreed' },
+			captain,
+		);
+		expect(waived.status).toBe(200);
+		const item = fusing(await waived.json());
+		expect(item).toMatchObject({
+			status: 'fail',
+			outstanding: false,
+			signoff: { waived: true, by: 'Lead', note: 'Fuse block moved next week; inspector agreed' },
+		});
+		// Withdrawing only reopens the item, so a member may do it; the sheet is open again.
+		const withdrawn = await call(
+			checks,
+			'POST',
+			{ eventId },
+			{ vehicleId, itemKey: 'battery_fusing', signed: false },
+		);
+		expect(fusing(await withdrawn.json())).toMatchObject({ outstanding: true, signoff: null });
+	});
+
+	it('does not let an old sign-off of a passing item clear it once the build makes it fail', async () => {
+		const first = await sheet();
+		const secured = first.items.find((i) => i.key === 'batteries_secured')!;
+		expect(secured.status).toBe('pass');
+		expect((await sign({ itemKey: 'batteries_secured' })).status).toBe(200);
+
+		const loose = structuredClone(pebbleBuild);
+		loose.cables.find((c) => c.id === 'run')!.fuses = [];
+		for (const b of loose.banks) b.secured = false;
+		await appendRevision(t.db, {
+			buildId,
+			parentId: first.revision!.id,
+			document: loose,
+			message: 'Banks out for a swap',
+			authorId: member.id,
+		});
+		const after = (await sheet()).items.find((i) => i.key === 'batteries_secured')!;
+		expect(after).toMatchObject({ status: 'fail', outstanding: true, signoff: { waived: false } });
+	});
+
+	it('refuses a sign-off made on a sheet that changed since it was opened, answering the current one', async () => {
+		const now = await sheet();
+		const manual = now.items.find((i) => i.key.startsWith('manual:'))!;
+		const stale = await sign({
+			itemKey: manual.key,
+			seen: { revisionId: randomUUID(), status: 'open' },
+		});
+		expect(stale.status).toBe(409);
+		const body = await stale.json();
+		expect(body.code).toBe('conflict');
+		expect(body.current.revision.id).toBe(now.revision!.id);
+		expect(
+			(await sign({ itemKey: manual.key, seen: { revisionId: now.revision!.id, status: 'open' } }))
+				.status,
+		).toBe(200);
 	});
 });

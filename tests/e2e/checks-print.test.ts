@@ -24,12 +24,17 @@ describe('pre-event checklist in chromium', () => {
 			state: 'attached',
 		});
 
-		// The demo builds run their amplifier feeds past the drop target: that computed item fails.
-		const status = page.getByRole('status').filter({ hasText: /computed item/ });
-		await expect(status.textContent()).resolves.toMatch(/1 computed item fails/);
+		// The demo builds run their amplifier feeds past the drop target: that computed item fails,
+		// and a member cannot sign it off, only a captain can waive it.
+		const status = page.locator('[data-banner]');
+		await expect(status.textContent()).resolves.toMatch(/3 items still open/);
+		const drops = page.locator('[data-item="drops"]');
+		await drops.getByText('Needs a fix or a captain’s waiver').waitFor();
+		await expect(drops.getByRole('button').count()).resolves.toBe(0);
 		const manual = page.getByRole('listitem').filter({ hasText: 'Battery hold-downs torqued' });
 		await manual.getByRole('button', { name: 'Sign off' }).click();
 		await manual.getByText(/Signed off by Demo Member/).waitFor();
+		await expect(status.textContent()).resolves.toMatch(/2 items still open/);
 
 		await page.emulateMedia({ media: 'print' });
 		await expect(page.getByRole('button', { name: 'Sign off' }).first().isVisible()).resolves.toBe(
@@ -38,6 +43,9 @@ describe('pre-event checklist in chromium', () => {
 		await expect(page.getByRole('button', { name: 'Print the sheet' }).isVisible()).resolves.toBe(
 			false,
 		);
+		for (const field of ['Team', 'Vehicle', 'Class', 'Event', 'Date', 'Revision in force'])
+			await expect(page.getByText(field, { exact: true }).isVisible()).resolves.toBe(true);
+		await expect(page.getByText('Inspector’s signature').isVisible()).resolves.toBe(true);
 		await b.screenshot('checklist-print');
 		const pdf = await page.pdf({
 			format: 'A4',
@@ -48,5 +56,42 @@ describe('pre-event checklist in chromium', () => {
 		expect(pdf.subarray(0, 5).toString()).toBe('%PDF-');
 		expect(pdf.byteLength).toBeGreaterThan(10_000);
 		expect(b.problems).toEqual([]);
+	});
+
+	it('a captain waives the failing item with a reason, and the sheet shows it as waived', async () => {
+		const c = await openBrowser();
+		try {
+			const { page } = c;
+			await signInToTeam(c, appUrl, DEMO_USERS[0].email, DEMO_PASSWORD, DEMO_TEAM_NAME);
+			await page.getByRole('link', { name: 'Events', exact: true }).click();
+			await page.getByRole('link', { name: 'Pre-event checks' }).first().click();
+			await page
+				.getByRole('navigation', { name: 'Vehicles' })
+				.getByRole('link', { name: 'Marlin' })
+				.click();
+			await page.waitForSelector('astro-island[component-export="ChecklistView"]:not([ssr])', {
+				state: 'attached',
+			});
+			const drops = page.locator('[data-item="drops"]');
+			await drops.getByRole('button', { name: 'Waive…' }).click();
+			const reason = drops.getByLabel('Why the team accepts this failing item');
+			await reason.fill('fine');
+			await drops.getByRole('button', { name: 'Waive with this reason' }).click();
+			await drops.getByText(/reason for the waiver/).waitFor();
+			await reason.fill('Feed upsized before the finals; inspector told');
+			await drops.getByRole('button', { name: 'Waive with this reason' }).click();
+			await drops.getByText(/Waived by Demo Captain, .*Feed upsized before the finals/).waitFor();
+			await expect(drops.textContent()).resolves.toMatch(/fails, waived/);
+			const kit = page.getByRole('listitem').filter({ hasText: 'spare fuses in the kit' });
+			await kit.getByRole('button', { name: 'Sign off' }).click();
+			await kit.getByText(/Signed off by Demo Captain/).waitFor();
+			await expect(page.locator('[data-banner]').textContent()).resolves.toMatch(
+				/Every item passes, or is waived with a reason \(1 waived\)/,
+			);
+			await c.screenshot('checklist-waived');
+			expect(c.problems).toEqual([]);
+		} finally {
+			await c.close();
+		}
 	});
 });

@@ -59,8 +59,8 @@ export function Workbench({
 	const [scenario, setScenario] = useState<Scenario>(DEFAULT_SCENARIO);
 	const valid = Object.keys(errors).length === 0;
 	const report = useMemo(
-		() => (valid ? buildReport(draft, scenario, { burpRun: false }) : null),
-		[draft, scenario, valid],
+		() => (valid ? buildReport(draft, scenario, { burpRun: false, units }) : null),
+		[draft, scenario, valid, units],
 	);
 	// The heavy part (burp, upgrades) runs in the engine worker once typing pauses.
 	const { burp, hints } = useDeferredAnalysis(draft, scenario, valid);

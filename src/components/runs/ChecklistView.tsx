@@ -1,56 +1,113 @@
 import { useState } from 'react';
 import { format } from 'date-fns';
+import { formatShortDistance } from '@/engine';
 import { ApiError } from '@/lib/client/api-client';
 import { useAddCheckItem, useSignOff } from '@/lib/client/queries/checklist';
 import { withQueryClient } from '@/lib/client/query-client';
-import type { Checklist } from '@/lib/schemas/checklist';
+import { WAIVER_MIN_CHARS, type Checklist, type ChecklistItem } from '@/lib/schemas/checklist';
 import { Button, Field, FormMessage } from '@/components/ui/Field';
 
 const ICON = {
 	pass: { mark: '✓', word: 'passes', cls: 'text-teal' },
 	fail: { mark: '✕', word: 'fails', cls: 'text-brick' },
 	open: { mark: '○', word: 'to check', cls: 'text-ink-soft' },
+	waived: { mark: '!', word: 'fails, waived', cls: 'text-amber-text' },
 } as const;
 
-/** The pre-event checklist: computed items with their reasons, manual items, sign-offs; prints cleanly. */
+const when = (iso: string) => format(new Date(iso), 'd MMM yyyy HH:mm');
+
+function iconOf(item: ChecklistItem) {
+	return item.status === 'fail' && item.signoff?.waived ? ICON.waived : ICON[item.status];
+}
+
+/**
+ * The pre-event checklist: computed items with their reasons, manual items, sign-offs and waivers;
+ * prints as an inspection sheet with the team, vehicle, class, event, revision and signature lines.
+ */
 export const ChecklistView = withQueryClient(function ChecklistView({
 	teamId,
 	initial,
 	canSign,
+	canWaive,
 }: {
 	teamId: string;
 	initial: Checklist;
 	canSign: boolean;
+	canWaive: boolean;
 }) {
 	const [list, setList] = useState(initial);
 	const signOff = useSignOff(teamId, initial.eventId);
 	const addItem = useAddCheckItem(teamId);
 	const [error, setError] = useState<string | null>(null);
 	const [newItem, setNewItem] = useState('');
-	async function sign(itemKey: string, signed: boolean) {
+	const [waiving, setWaiving] = useState<string | null>(null);
+	const [reason, setReason] = useState('');
+	const [reasonError, setReasonError] = useState<string | undefined>();
+
+	async function sign(item: ChecklistItem, signed: boolean, note = '') {
 		setError(null);
 		try {
-			setList(await signOff.mutateAsync({ vehicleId: list.vehicleId, itemKey, signed }));
+			setList(
+				await signOff.mutateAsync({
+					vehicleId: list.vehicleId,
+					itemKey: item.key,
+					signed,
+					note,
+					seen: { revisionId: list.revision?.id ?? null, status: item.status },
+				}),
+			);
+			setWaiving(null);
+			setReason('');
+			setReasonError(undefined);
 		} catch (e) {
-			setError(e instanceof ApiError ? e.message : 'Could not reach the server');
+			if (e instanceof ApiError && e.code === 'conflict' && e.body.current)
+				setList(e.body.current as Checklist);
+			if (e instanceof ApiError && e.byField().note) setReasonError(e.byField().note);
+			else setError(e instanceof ApiError ? e.message : 'Could not reach the server');
 		}
 	}
-	const failing = list.items.filter((i) => i.status === 'fail' && !i.signoff).length;
+
+	const outstanding = list.items.filter((i) => i.outstanding).length;
+	const waived = list.items.filter((i) => i.status === 'fail' && i.signoff?.waived).length;
+	const rev = list.revision;
 	return (
 		<div className="flex flex-col gap-4">
+			<dl className="grid grid-cols-2 gap-x-6 gap-y-1 rounded-md border border-hairline bg-card p-3 text-sm sm:grid-cols-4 print:grid-cols-4 print:border-ink">
+				{(
+					[
+						['Team', list.teamName],
+						['Vehicle', list.vehicleName],
+						['Class', list.vehicleClass || '—'],
+						['Event', `${list.eventName}${list.eventPlace ? `, ${list.eventPlace}` : ''}`],
+						['Date', format(new Date(`${list.startsOn}T12:00:00`), 'd MMM yyyy')],
+						[
+							'Revision in force',
+							rev ? `r${rev.number} (${format(new Date(rev.savedAt), 'd MMM yyyy')})` : 'none',
+						],
+						['Units', list.units === 'imperial' ? 'feet, inches, AWG' : 'metres, centimetres, mm²'],
+					] as const
+				).map(([k, v]) => (
+					<div key={k} className="min-w-0">
+						<dt className="text-xs text-ink-soft">{k}</dt>
+						<dd className="font-semibold break-words">{v}</dd>
+					</div>
+				))}
+			</dl>
 			<p
-				className={`rounded-md border p-3 text-sm ${failing ? 'border-brick/40 bg-brick-tint/50' : 'border-teal/40 bg-teal-tint/60'}`}
+				className={`rounded-md border p-3 text-sm ${outstanding ? 'border-brick/40 bg-brick-tint/50' : 'border-teal/40 bg-teal-tint/60'}`}
 				role="status"
+				data-banner={outstanding ? 'open' : 'clear'}
 			>
-				{failing
-					? `⚠ ${failing} computed item${failing === 1 ? '' : 's'} fail${failing === 1 ? 's' : ''} and ${failing === 1 ? 'is' : 'are'} not signed off.`
-					: '✓ No failing computed item left unsigned.'}{' '}
-				Revision {list.revision ? `r${list.revision.number}` : '—'}; battery fuses within{' '}
-				{Math.round(list.fuseDistanceM * 100)} cm (common practice, no published source).
+				{outstanding
+					? `⚠ ${outstanding} item${outstanding === 1 ? '' : 's'} still open: a failing item needs a fix or a captain's waiver with a reason; a manual item needs a sign-off.`
+					: `✓ Every item passes${waived ? `, or is waived with a reason (${waived} waived)` : ''}${list.items.some((i) => i.kind === 'manual') ? ' or is signed off' : ''}.`}{' '}
+				Battery fuses within {formatShortDistance(list.fuseDistanceM, list.units)} (common practice,
+				no published source).
 			</p>
 			<ol className="flex flex-col divide-y divide-hairline rounded-md border border-hairline bg-card">
 				{list.items.map((item) => {
-					const icon = ICON[item.status];
+					const icon = iconOf(item);
+					const needsWaiver = item.kind === 'computed' && item.status === 'fail';
 					return (
 						<li
 							key={item.key}
@@ -60,8 +117,8 @@ export const ChecklistView = withQueryClient(function ChecklistView({
 							<span className={`text-lg font-bold ${icon.cls}`} aria-hidden="true">
 								{icon.mark}
 							</span>
-							<div className="min-w-64 flex-1">
-								<p className="font-semibold">
+							<div className="min-w-0 flex-1 basis-64">
+								<p className="font-semibold break-words">
 									{item.label}{' '}
 									<span className={`text-xs font-normal ${icon.cls}`}>
 										({item.kind === 'manual' ? 'manual, ' : ''}
@@ -75,22 +132,94 @@ export const ChecklistView = withQueryClient(function ChecklistView({
 										))}
 									</ul>
 								)}
-								{item.signoff && (
-									<p className="mt-1 text-sm text-teal">
-										Signed off by {item.signoff.by ?? 'someone'},{' '}
-										{format(new Date(item.signoff.at), 'd MMM yyyy HH:mm')}
-										{item.signoff.note && `: ${item.signoff.note}`}
-									</p>
+								{item.signoff &&
+									(item.signoff.waived ? (
+										<p className="mt-1 text-sm text-amber-text" data-waiver>
+											Waived by {item.signoff.by ?? 'someone'}, {when(item.signoff.at)}. Reason:{' '}
+											{item.signoff.note}
+										</p>
+									) : (
+										<p
+											className={`mt-1 text-sm ${item.outstanding ? 'text-ink-soft' : 'text-teal'}`}
+										>
+											Signed off by {item.signoff.by ?? 'someone'}, {when(item.signoff.at)}
+											{item.signoff.note && `: ${item.signoff.note}`}
+											{item.outstanding && ' — before it failed; it needs a waiver now.'}
+										</p>
+									))}
+								{waiving === item.key && (
+									<form
+										className="mt-2 flex flex-wrap items-end gap-2 print:hidden"
+										onSubmit={(e) => {
+											e.preventDefault();
+											if (reason.trim().length < WAIVER_MIN_CHARS)
+												setReasonError(
+													`Write the reason for the waiver (at least ${WAIVER_MIN_CHARS} characters)`,
+												);
+											else void sign(item, true, reason);
+										}}
+									>
+										<Field
+											label="Why the team accepts this failing item"
+											value={reason}
+											onChange={(e) => setReason(e.target.value)}
+											error={reasonError}
+											hint={`Kept on the sheet with your name; at least ${WAIVER_MIN_CHARS} characters.`}
+											className="min-w-0 flex-1 basis-64"
+											autoFocus
+										/>
+										<Button type="submit" busy={signOff.isPending}>
+											Waive with this reason
+										</Button>
+										<Button type="button" variant="secondary" onClick={() => setWaiving(null)}>
+											Cancel
+										</Button>
+									</form>
 								)}
 							</div>
-							{canSign && (
-								<Button
-									variant="secondary"
-									className="px-2 py-1 text-xs print:hidden"
-									onClick={() => void sign(item.key, !item.signoff)}
-								>
-									{item.signoff ? 'Withdraw sign-off' : 'Sign off'}
-								</Button>
+							{canSign && waiving !== item.key && (
+								<div className="print:hidden">
+									{item.signoff && (!needsWaiver || item.signoff.waived) ? (
+										(!item.signoff.waived || canWaive) && (
+											<Button
+												type="button"
+												variant="secondary"
+												className="px-2 py-1 text-xs"
+												onClick={() => void sign(item, false)}
+											>
+												{item.signoff.waived ? 'Withdraw the waiver' : 'Withdraw sign-off'}
+											</Button>
+										)
+									) : needsWaiver ? (
+										canWaive ? (
+											<Button
+												type="button"
+												variant="secondary"
+												className="px-2 py-1 text-xs"
+												onClick={() => {
+													setWaiving(item.key);
+													setReason('');
+													setReasonError(undefined);
+												}}
+											>
+												Waive…
+											</Button>
+										) : (
+											<span className="text-xs text-ink-soft">
+												Needs a fix or a captain’s waiver
+											</span>
+										)
+									) : (
+										<Button
+											type="button"
+											variant="secondary"
+											className="px-2 py-1 text-xs"
+											onClick={() => void sign(item, true)}
+										>
+											Sign off
+										</Button>
+									)}
+								</div>
 							)}
 							<span
 								className="hidden w-40 border-b border-ink print:inline-block"
@@ -103,6 +232,14 @@ export const ChecklistView = withQueryClient(function ChecklistView({
 				})}
 			</ol>
 			{error && <FormMessage tone="error">{error}</FormMessage>}
+			<div className="hidden grid-cols-3 gap-6 pt-6 text-sm print:grid" aria-hidden="true">
+				{['Inspector’s name', 'Inspector’s signature', 'Date and time'].map((l) => (
+					<div key={l}>
+						<div className="h-8 border-b border-ink" />
+						<p className="mt-1 text-xs">{l}</p>
+					</div>
+				))}
+			</div>
 			{canSign && (
 				<form
 					className="flex flex-wrap items-end gap-3 print:hidden"
@@ -124,7 +261,7 @@ export const ChecklistView = withQueryClient(function ChecklistView({
 						label="Add a manual item to every checklist of the team"
 						value={newItem}
 						onChange={(e) => setNewItem(e.target.value)}
-						className="min-w-96"
+						className="min-w-0 flex-1 basis-64"
 					/>
 					<Button type="submit" variant="secondary" busy={addItem.isPending}>
 						Add the item

@@ -6,7 +6,8 @@ import { fieldErrors } from '@/lib/client/form-errors';
 import { type EventDto, useLogRun, useUploadLogger } from '@/lib/client/queries/runs';
 import { loggerColumns } from '@/lib/logger-csv';
 import { measurementsFromTexts, measurementTexts } from '@/lib/schemas/run-measurements';
-import { newRunSchema } from '@/lib/schemas/runs';
+import { newRunSchema, revisionInForceAt } from '@/lib/schemas/runs';
+import type { RevisionSummary } from '@/lib/schemas/vehicles';
 import { MeasurementFields } from './MeasurementFields';
 
 const MAPPED = [
@@ -20,11 +21,14 @@ export function LogRunForm({
 	teamId,
 	vehicleId,
 	events,
+	revisions,
 	onLogged,
 }: {
 	teamId: string;
 	vehicleId: string;
 	events: EventDto[];
+	/** The build's revisions, newest first, for showing which one the run will be tied to. */
+	revisions: RevisionSummary[];
 	onLogged: (id: string) => void;
 }) {
 	const logRun = useLogRun(teamId, vehicleId);
@@ -33,6 +37,8 @@ export function LogRunForm({
 	const [ranAt, setRanAt] = useState(now);
 	const [duplicateOf, setDuplicateOf] = useState<string | null>(null);
 	const [eventId, setEventId] = useState('');
+	/** '' ties the run to the revision in force at its time; otherwise the revision chosen. */
+	const [revisionChoice, setRevisionChoice] = useState('');
 	const [numbers, setNumbers] = useState(() => measurementTexts());
 	const [notes, setNotes] = useState('');
 	const [file, setFile] = useState<File | null>(null);
@@ -64,6 +70,7 @@ export function LogRunForm({
 
 	function clear() {
 		setRanAt(now());
+		setRevisionChoice('');
 		setNumbers(measurementTexts());
 		setNotes('');
 		setFile(null);
@@ -72,6 +79,9 @@ export function LogRunForm({
 		const input = document.getElementById('logger-file') as HTMLInputElement | null;
 		if (input) input.value = '';
 	}
+
+	const inForce = revisionInForceAt(revisions, new Date(ranAt));
+	const chosen = revisions.find((r) => r.id === revisionChoice) ?? inForce;
 
 	async function submit(event: React.FormEvent | null, allowDuplicate = false) {
 		event?.preventDefault();
@@ -83,6 +93,7 @@ export function LogRunForm({
 			eventId: eventId || null,
 			// To the second, with this device's offset, so the run lands on the revision in force then.
 			ranAt: Number.isNaN(when.getTime()) ? '' : formatISO(when),
+			revisionId: revisionChoice || undefined,
 			allowDuplicate,
 			...measurementsFromTexts(numbers),
 			notes,
@@ -144,6 +155,34 @@ export function LogRunForm({
 						onChange={(e) => setRanAt(e.target.value)}
 						error={errors.ranAt}
 					/>
+					<div className="flex flex-col gap-1 sm:col-span-2">
+						<label htmlFor="run-revision" className="text-sm font-semibold">
+							Build revision
+						</label>
+						<select
+							id="run-revision"
+							value={revisionChoice}
+							onChange={(e) => setRevisionChoice(e.target.value)}
+							aria-describedby="run-revision-hint"
+							className="min-w-0 rounded-md border border-hairline bg-card px-3 py-2"
+						>
+							<option value="">
+								{inForce
+									? `In force then: r${inForce.number} · ${inForce.message}`
+									: 'In force then: none saved yet'}
+							</option>
+							{revisions.map((r) => (
+								<option key={r.id} value={r.id}>
+									r{r.number} · {r.message} ({format(new Date(r.createdAt), 'd MMM HH:mm:ss')})
+								</option>
+							))}
+						</select>
+						<p id="run-revision-hint" className="text-sm text-ink-soft" data-revision-hint>
+							{chosen
+								? `The run will be tied to r${chosen.number}, saved ${format(new Date(chosen.createdAt), 'd MMM yyyy HH:mm:ss')}${revisionChoice ? ' (chosen by hand)' : ''}.`
+								: 'No revision of the build was saved by this time: the run will have none.'}
+						</p>
+					</div>
 					<div className="flex flex-col gap-1">
 						<label htmlFor="run-event" className="text-sm font-semibold">
 							Event

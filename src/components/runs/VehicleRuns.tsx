@@ -4,6 +4,7 @@ import { useState } from 'react';
 import { getQueryClient } from '@/lib/client/query-client';
 import { type EventDto, type RunDto, vehicleRunsQueryOptions } from '@/lib/client/queries/runs';
 import { fmt } from '@/lib/format';
+import type { RevisionSummary } from '@/lib/schemas/vehicles';
 import { LogRunForm } from './LogRunForm';
 import { RunComparison } from './RunComparison';
 import { RunDetailPanel } from './RunDetailPanel';
@@ -16,6 +17,7 @@ export interface VehicleRunsProps {
 	canEdit: boolean;
 	initialRuns: RunDto[];
 	events: EventDto[];
+	revisions: RevisionSummary[];
 }
 
 export function VehicleRuns(props: VehicleRunsProps) {
@@ -32,6 +34,7 @@ export function VehicleRunsView({
 	canEdit,
 	initialRuns,
 	events,
+	revisions,
 }: VehicleRunsProps) {
 	const runs = useQuery({
 		...vehicleRunsQueryOptions(teamId, vehicleId),
@@ -55,6 +58,7 @@ export function VehicleRunsView({
 					teamId={teamId}
 					vehicleId={vehicleId}
 					events={events}
+					revisions={revisions}
 					onLogged={(id) => setSelected(id)}
 				/>
 			)}

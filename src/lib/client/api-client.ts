@@ -10,6 +10,8 @@ export class ApiError extends Error {
 		readonly code: string,
 		message: string,
 		readonly fieldErrors: FieldError[] = [],
+		/** The whole problem body, with any extension members (the current state a 409 carries). */
+		readonly body: Record<string, unknown> = {},
 	) {
 		super(message);
 	}
@@ -21,9 +23,12 @@ export class ApiError extends Error {
 }
 
 function problemOf(status: number, text: string): ApiError {
-	let body: { code?: string; detail?: string; errors?: FieldError[] } = {};
+	let body: { code?: string; detail?: string; errors?: FieldError[] } & Record<string, unknown> =
+		{};
 	try {
-		body = JSON.parse(text);
+		const parsed: unknown = JSON.parse(text);
+		if (parsed && typeof parsed === 'object' && !Array.isArray(parsed))
+			body = parsed as typeof body;
 	} catch {
 		// not JSON (a proxy error page, say)
 	}
@@ -32,6 +37,7 @@ function problemOf(status: number, text: string): ApiError {
 		body.code ?? 'internal',
 		body.detail ?? `The server answered ${status}`,
 		body.errors ?? [],
+		body,
 	);
 }
 

@@ -1,5 +1,14 @@
 import { z } from 'zod';
 
+export const checklistSignoffSchema = z.object({
+	by: z.string().nullable(),
+	at: z.string(),
+	/** The sign-off's note; for a waiver, the captain's reason. */
+	note: z.string(),
+	/** A failing computed item accepted by a captain with a reason: never shown as passed. */
+	waived: z.boolean(),
+});
+
 export const checklistItemSchema = z.object({
 	key: z.string(),
 	label: z.string(),
@@ -7,19 +16,30 @@ export const checklistItemSchema = z.object({
 	/** Computed result; manual items are 'open' until signed off. */
 	status: z.enum(['pass', 'fail', 'open']),
 	reasons: z.array(z.string()),
-	signoff: z.object({ by: z.string().nullable(), at: z.string(), note: z.string() }).nullable(),
+	signoff: checklistSignoffSchema.nullable(),
+	/** Whether the item still stands in the way: failing and not waived, or manual and unsigned. */
+	outstanding: z.boolean(),
 });
 export type ChecklistItem = z.infer<typeof checklistItemSchema>;
 
-/** A vehicle's pre-event checklist for one event. */
+/** A vehicle's pre-event checklist for one event, with what the printed sheet carries. */
 export const checklistSchema = z.object({
+	teamName: z.string(),
 	eventId: z.uuid(),
 	eventName: z.string(),
+	eventPlace: z.string(),
 	startsOn: z.string(),
 	vehicleId: z.uuid(),
 	vehicleName: z.string(),
-	revision: z.object({ id: z.uuid(), number: z.number().int() }).nullable(),
+	vehicleClass: z.string(),
+	revision: z
+		.object({ id: z.uuid(), number: z.number().int(), message: z.string(), savedAt: z.string() })
+		.nullable(),
 	fuseDistanceM: z.number(),
+	units: z.enum(['imperial', 'metric']),
 	items: z.array(checklistItemSchema),
 });
 export type Checklist = z.infer<typeof checklistSchema>;
+
+/** The words a waiver's reason must at least have, so "ok" does not pass for one. */
+export const WAIVER_MIN_CHARS = 10;

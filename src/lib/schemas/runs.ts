@@ -91,3 +91,25 @@ const optionalId = z
 	.optional()
 	.transform((s) => (s && z.uuid().safeParse(s).success ? s : undefined));
 export const runListQuerySchema = z.object({ vehicleId: optionalId, eventId: optionalId });
+
+/**
+ * The revision in force at an instant: the newest one saved at or before it, compared to the
+ * second (the database keeps microseconds, a run's time keeps seconds), as the server links it.
+ */
+export function revisionInForceAt<R extends { createdAt: string }>(
+	revisions: readonly R[],
+	at: Date,
+): R | null {
+	const t = at.getTime();
+	if (Number.isNaN(t)) return null;
+	let best: R | null = null;
+	let bestT = -Infinity;
+	for (const r of revisions) {
+		const saved = Math.floor(Date.parse(r.createdAt) / 1000) * 1000;
+		if (saved <= t && saved >= bestT) {
+			best = r;
+			bestT = saved;
+		}
+	}
+	return best;
+}

@@ -1,4 +1,4 @@
-import { buildReport, computedChecks, type BuildDocument } from '@/engine';
+import { buildReport, computedChecks, type BuildDocument, type UnitSystem } from '@/engine';
 import type { Checklist } from '@/lib/schemas/checklist';
 import { findRevision, revisionInForce } from '@/lib/server/db/builds';
 import { findCheckItems, findSignoffs, findVehicleWithBuild } from '@/lib/server/db/checklists';
@@ -15,13 +15,15 @@ export async function loadChecklist(
 	teamId: string,
 	eventId: string,
 	vehicleId: string,
+	units: UnitSystem,
 ): Promise<Checklist | null> {
 	const [event, vehicle] = await Promise.all([
 		findEvent(db, teamId, eventId),
 		findVehicleWithBuild(db, teamId, vehicleId),
 	]);
 	if (!event || !vehicle) return null;
-	const fuseDistanceM = (await findTeamSettingsRow(db, teamId)).fuse_distance_m;
+	const team = await findTeamSettingsRow(db, teamId);
+	const fuseDistanceM = team.fuse_distance_m;
 	const at = new Date(`${event.starts_on}T23:59:59Z`);
 	const revisionId =
 		(await revisionInForce(db, vehicle.id, at > new Date() ? new Date() : at)) ?? null;
@@ -38,12 +40,18 @@ export async function loadChecklist(
 						s.name ?? s.email ?? (s.imported_by ? `imported: ${s.imported_by}` : 'a former member'),
 					at: s.signed_at.toISOString(),
 					note: s.note,
+					waived: s.waived,
 				}
 			: null;
 	};
 	const computed = revision
 		? computedChecks(
-				buildReport(revision.document as BuildDocument, { fuseDistanceM }, { burpRun: false }),
+				buildReport(
+					revision.document as BuildDocument,
+					{ fuseDistanceM },
+					{ burpRun: false, units },
+				),
+				units,
 			)
 		: [
 				{
@@ -54,23 +62,48 @@ export async function loadChecklist(
 				},
 			];
 	return {
+		teamName: team.name,
 		eventId: event.id,
 		eventName: event.name,
+		eventPlace: event.place,
 		startsOn: event.starts_on,
 		vehicleId: vehicle.id,
 		vehicleName: vehicle.name,
-		revision: revision ? { id: revision.id, number: revision.number } : null,
+		vehicleClass: vehicle.competition_class,
+		revision: revision
+			? {
+					id: revision.id,
+					number: revision.number,
+					message: revision.message,
+					savedAt: revision.createdAt,
+				}
+			: null,
 		fuseDistanceM,
+		units,
 		items: [
-			...computed.map((c) => ({ ...c, kind: 'computed' as const, signoff: signoffOf(c.key) })),
-			...manual.map((m) => ({
-				key: `manual:${m.id}`,
-				label: m.label,
-				kind: 'manual' as const,
-				status: 'open' as const,
-				reasons: [],
-				signoff: signoffOf(`manual:${m.id}`),
-			})),
+			...computed.map((c) => {
+				const signoff = signoffOf(c.key);
+				// A failing item stands until a captain waives it; an older sign-off of it (given
+				// while it passed, or before the build changed) does not clear it.
+				return {
+					...c,
+					kind: 'computed' as const,
+					signoff,
+					outstanding: c.status === 'fail' && !signoff?.waived,
+				};
+			}),
+			...manual.map((m) => {
+				const signoff = signoffOf(`manual:${m.id}`);
+				return {
+					key: `manual:${m.id}`,
+					label: m.label,
+					kind: 'manual' as const,
+					status: 'open' as const,
+					reasons: [],
+					signoff,
+					outstanding: !signoff,
+				};
+			}),
 		],
 	};
 }

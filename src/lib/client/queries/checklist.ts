@@ -6,8 +6,14 @@ import { api } from '@/lib/client/api-client';
 /** Signs an item off (or withdraws the sign-off); answers the whole checklist as it now is. */
 export function useSignOff(teamId: string, eventId: string) {
 	return useMutation({
-		mutationFn: (input: { vehicleId: string; itemKey: string; signed: boolean; note?: string }) =>
-			api<Checklist>(`/api/teams/${teamId}/events/${eventId}/checks`, { json: input }),
+		mutationFn: (input: {
+			vehicleId: string;
+			itemKey: string;
+			signed: boolean;
+			note?: string;
+			/** What the member saw: a sheet that changed since then answers 409 with the current one. */
+			seen?: { revisionId: string | null; status: 'pass' | 'fail' | 'open' };
+		}) => api<Checklist>(`/api/teams/${teamId}/events/${eventId}/checks`, { json: input }),
 	});
 }
 

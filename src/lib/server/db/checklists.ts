@@ -27,7 +27,7 @@ export function findVehicleWithBuild(db: Db, teamId: string, vehicleId: string) 
 	return db
 		.selectFrom('vehicle as v')
 		.innerJoin('build as b', 'b.vehicle_id', 'v.id')
-		.select(['v.id', 'v.name', 'b.id as build_id'])
+		.select(['v.id', 'v.name', 'v.competition_class', 'b.id as build_id'])
 		.where('v.team_id', '=', teamId)
 		.where('v.id', '=', vehicleId)
 		.executeTakeFirst();
@@ -38,16 +38,34 @@ export function findSignoffs(db: Db, eventId: string, vehicleId: string) {
 	return db
 		.selectFrom('check_signoff as s')
 		.leftJoin('User as u', 'u.id', 's.signed_by')
-		.select(['s.item_key', 's.signed_at', 's.note', 's.imported_by', 'u.name', 'u.email'])
+		.select([
+			's.item_key',
+			's.signed_at',
+			's.note',
+			's.waived',
+			's.imported_by',
+			'u.name',
+			'u.email',
+		])
 		.where('s.event_id', '=', eventId)
 		.where('s.vehicle_id', '=', vehicleId)
 		.execute();
 }
 
-/** Signs an item off (again: the newest sign-off replaces the older one). */
+/**
+ * Signs an item off (again: the newest sign-off replaces the older one). A waiver is a captain's
+ * sign-off of a failing computed item, with the reason in the note.
+ */
 export async function upsertSignoff(
 	db: Db,
-	s: { eventId: string; vehicleId: string; itemKey: string; signedBy: string; note: string },
+	s: {
+		eventId: string;
+		vehicleId: string;
+		itemKey: string;
+		signedBy: string;
+		note: string;
+		waived: boolean;
+	},
 ): Promise<void> {
 	await db
 		.insertInto('check_signoff')
@@ -57,11 +75,15 @@ export async function upsertSignoff(
 			item_key: s.itemKey,
 			signed_by: s.signedBy,
 			note: s.note,
+			waived: s.waived,
 		})
 		.onConflict((oc) =>
-			oc
-				.columns(['event_id', 'vehicle_id', 'item_key'])
-				.doUpdateSet({ signed_by: s.signedBy, signed_at: new Date(), note: s.note }),
+			oc.columns(['event_id', 'vehicle_id', 'item_key']).doUpdateSet({
+				signed_by: s.signedBy,
+				signed_at: new Date(),
+				note: s.note,
+				waived: s.waived,
+			}),
 		)
 		.execute();
 }

@@ -347,7 +347,7 @@ export async function acceptInvitation(
 export function findTeamSettingsRow(db: Db, teamId: string) {
 	return db
 		.selectFrom('team')
-		.select(['currency', 'reminder_days', 'fuse_distance_m'])
+		.select(['name', 'currency', 'reminder_days', 'fuse_distance_m'])
 		.where('id', '=', teamId)
 		.executeTakeFirstOrThrow();
 }
