@@ -25,7 +25,7 @@ export const DEMO_VEHICLES = [
 		name: 'Pebble',
 		description: 'Small grey hatchback, daily driver',
 		competition_class: 'Commuter (up to 2 kW)',
-		notes: 'Stock 90 A alternator and its one AGM under the hood. Keeps its back seat.',
+		notes: 'Stock 105 A alternator and its one AGM under the hood. Keeps its back seat.',
 	},
 	{
 		name: 'Marlin',

@@ -73,9 +73,9 @@ export const pebbleBuild: BuildDocument = {
 			label: 'Stock alternator',
 			positive: 'alt_pos',
 			negative: 'engine',
-			ratedHotA: 90,
-			setPointV: 14.2,
-			pulleyRatio: 2.4,
+			ratedHotA: 105,
+			setPointV: 14.3,
+			pulleyRatio: 2.7,
 		}),
 	],
 	banks: [
@@ -85,8 +85,8 @@ export const pebbleBuild: BuildDocument = {
 			positive: 'front_pos',
 			negative: 'front_neg',
 			chemistry: 'agm',
-			unitCapacityAh: 70,
-			unitResistanceOhm: 0.005,
+			unitCapacityAh: 62,
+			unitResistanceOhm: 0.0055,
 			location: 'engine_bay',
 			stateOfCharge: 0.9,
 		}),
@@ -97,8 +97,8 @@ export const pebbleBuild: BuildDocument = {
 			label: 'Mono amplifier',
 			positive: 'amp_pos',
 			negative: 'amp_neg',
-			ratedPowerW: 1200,
-			efficiency: 0.82,
+			ratedPowerW: 1350,
+			efficiency: 0.8,
 		}),
 	],
 	loads: [
@@ -107,23 +107,23 @@ export const pebbleBuild: BuildDocument = {
 			label: 'Vehicle electrics',
 			positive: 'front_pos',
 			negative: 'chassis',
-			currentA: 22,
+			currentA: 19,
 		}),
 	],
 	cables: [
-		cable('charge', 'Alternator charge lead', 'alt_pos', 'front_pos', awg('4'), 3, {
-			fuses: [fuse(150, 'to', 6)],
+		cable('charge', 'Alternator charge lead', 'alt_pos', 'front_pos', awg('4'), 3.5, {
+			fuses: [fuse(175, 'to', 7)],
 		}),
-		cable('strap', 'Engine ground strap', 'engine', 'chassis', awg('4'), 1.5),
-		cable('front_gnd', 'Starting battery ground', 'front_neg', 'chassis', awg('4'), 1.5),
-		cable('run', 'Front-to-rear run', 'front_pos', 'rear_block', awg('4'), 15, {
+		cable('strap', 'Engine ground strap', 'engine', 'chassis', awg('4'), 1.8),
+		cable('front_gnd', 'Starting battery ground', 'front_neg', 'chassis', awg('4'), 1.2),
+		cable('run', 'Front-to-rear run', 'front_pos', 'rear_block', awg('4'), 16.5, {
 			material: 'cca10',
-			fuses: [fuse(150, 'from', 10)],
+			fuses: [fuse(125, 'from', 9)],
 		}),
-		cable('amp_feed', 'Amplifier feed', 'rear_block', 'amp_pos', awg('4'), 3, {
-			fuses: [fuse(150, 'from', 8)],
+		cable('amp_feed', 'Amplifier feed', 'rear_block', 'amp_pos', awg('4'), 2.5, {
+			fuses: [fuse(125, 'from', 8)],
 		}),
-		cable('amp_gnd', 'Amplifier ground', 'amp_neg', 'chassis', awg('4'), 2),
+		cable('amp_gnd', 'Amplifier ground', 'amp_neg', 'chassis', awg('4'), 2.5),
 	],
 };
 
@@ -410,7 +410,7 @@ const setCable = (d: BuildDocument, id: string, patch: Partial<Cable>) =>
 export const DEMO_HISTORIES: Record<keyof typeof DEMO_BUILDS, DemoRevision[]> = {
 	Pebble: [
 		{
-			message: 'First install: 1.2 kW mono off the starting battery, 8 AWG CCA kit wiring',
+			message: 'First install: 1.35 kW mono off the starting battery, 8 AWG CCA kit wiring',
 			author: 1,
 			on: '2026-04-11',
 			document: variant(pebbleBuild, (d) => {
