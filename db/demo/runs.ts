@@ -67,7 +67,14 @@ export interface DemoRun {
 	ambientC: number;
 	notes: string;
 	/** Synthetic logger trace: open-circuit voltage, source resistance and peak current. */
-	logger?: { ocvV: number; resistanceOhm: number; peakA: number; seconds: number };
+	logger?: {
+		ocvV: number;
+		resistanceOhm: number;
+		peakA: number;
+		seconds: number;
+		/** Seconds the logger ran at the resting draw before the burp (loggers start early). */
+		leadS: number;
+	};
 }
 
 export const DEMO_RUNS: DemoRun[] = [
@@ -92,7 +99,7 @@ export const DEMO_RUNS: DemoRun[] = [
 		minV: 11.5,
 		ambientC: 21,
 		notes: 'After the 4 AWG run.',
-		logger: { ocvV: 12.8, resistanceOhm: 0.0105, peakA: 125, seconds: 4 },
+		logger: { ocvV: 12.8, resistanceOhm: 0.0105, peakA: 125, seconds: 4, leadS: 0.8 },
 	},
 	{
 		vehicle: 'Pebble',
@@ -126,7 +133,7 @@ export const DEMO_RUNS: DemoRun[] = [
 		minV: 11.6,
 		ambientC: 22,
 		notes: 'Rear bank in.',
-		logger: { ocvV: 12.9, resistanceOhm: 0.0024, peakA: 560, seconds: 5 },
+		logger: { ocvV: 12.9, resistanceOhm: 0.0024, peakA: 560, seconds: 5, leadS: 1.35 },
 	},
 	{
 		vehicle: 'Marlin',
@@ -149,7 +156,7 @@ export const DEMO_RUNS: DemoRun[] = [
 		minV: 11.7,
 		ambientC: 14,
 		notes: 'Cold day; four-channel on.',
-		logger: { ocvV: 12.8, resistanceOhm: 0.0022, peakA: 600, seconds: 5 },
+		logger: { ocvV: 12.8, resistanceOhm: 0.0022, peakA: 600, seconds: 5, leadS: 0.45 },
 	},
 	{
 		vehicle: 'Old Oak',
@@ -172,7 +179,7 @@ export const DEMO_RUNS: DemoRun[] = [
 		minV: 15.4,
 		ambientC: 30,
 		notes: 'Second alternator.',
-		logger: { ocvV: 16.6, resistanceOhm: 0.0011, peakA: 980, seconds: 6 },
+		logger: { ocvV: 16.6, resistanceOhm: 0.0011, peakA: 980, seconds: 6, leadS: 2.1 },
 	},
 	{
 		vehicle: 'Old Oak',
@@ -187,20 +194,27 @@ export const DEMO_RUNS: DemoRun[] = [
 	},
 ];
 
-/** A synthetic burp trace at 20 samples per second: current steps up, voltage sags through R. */
+/**
+ * A synthetic burp trace at 20 samples per second: the resting draw for the lead, then the current
+ * ramps up, holds and ramps down while the voltage sags through R.
+ */
 export function demoTrace(
 	l: NonNullable<DemoRun['logger']>,
 ): Array<{ tS: number; volts: number; amps: number }> {
 	const out: Array<{ tS: number; volts: number; amps: number }> = [];
-	const n = l.seconds * 20;
+	const restA = 14;
+	const n = Math.round((l.leadS + l.seconds) * 20);
 	for (let i = 0; i <= n; i++) {
-		const t = i / 20;
-		const envelope = t < 0.5 ? t / 0.5 : t > l.seconds - 0.5 ? (l.seconds - t) / 0.5 : 1;
+		const tAll = i / 20;
+		const t = tAll - l.leadS;
+		const envelope =
+			t < 0 ? 0 : t < 0.5 ? t / 0.5 : t > l.seconds - 0.5 ? Math.max(0, (l.seconds - t) / 0.5) : 1;
 		const ripple = 1 + 0.03 * Math.sin(i * 1.7);
-		const amps = Math.max(0, l.peakA * envelope * ripple);
-		const volts = l.ocvV - l.resistanceOhm * amps - 0.0004 * i * (envelope > 0.9 ? 1 : 0);
+		const amps = Math.max(restA, l.peakA * envelope * ripple);
+		const sag = envelope > 0.9 ? 0.0004 * Math.max(0, t * 20) : 0;
+		const volts = l.ocvV - l.resistanceOhm * amps - sag;
 		out.push({
-			tS: Math.round(t * 1000) / 1000,
+			tS: Math.round(tAll * 1000) / 1000,
 			volts: Math.round(volts * 1000) / 1000,
 			amps: Math.round(amps * 10) / 10,
 		});

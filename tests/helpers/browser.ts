@@ -17,13 +17,18 @@ export interface Browser {
 
 /** Debian's chromium, headless, with a fresh profile; never a downloaded browser. */
 export async function openBrowser(
-	opts: { viewport?: { width: number; height: number } } = {},
+	opts: {
+		viewport?: { width: number; height: number };
+		/** The browser's own time zone (IANA name), e.g. one other than the server's. */
+		timezoneId?: string;
+	} = {},
 ): Promise<Browser> {
 	const profile = mkdtempSync(path.join(tmpdir(), 'sagwise-profile-'));
 	const context = await chromium.launchPersistentContext(profile, {
 		executablePath: CHROMIUM_PATH,
 		headless: true,
 		viewport: opts.viewport ?? { width: 1280, height: 900 },
+		...(opts.timezoneId ? { timezoneId: opts.timezoneId } : {}),
 		args: [
 			'--headless',
 			'--no-sandbox',

@@ -3,7 +3,7 @@ import type { RunDto } from '@/lib/client/queries/runs';
 import { fmt } from '@/lib/format';
 import { MEASUREMENT_FIELDS, RUN_MEASUREMENTS } from '@/lib/schemas/run-measurements';
 
-/** The vehicle's runs, newest first: choose one to open it, and two (A and B) to compare. */
+/** The vehicle's runs, newest first: choose one to open it, and up to four to compare. */
 export function RunsTable({
 	teamId,
 	vehicleId,
@@ -18,8 +18,8 @@ export function RunsTable({
 	runs: RunDto[];
 	selected: string | null;
 	onSelect: (id: string) => void;
-	compare: [string | null, string | null];
-	onCompare: (pair: [string | null, string | null]) => void;
+	compare: string[];
+	onCompare: (ids: string[]) => void;
 }) {
 	return (
 		<section aria-labelledby="runs-heading">
@@ -84,23 +84,26 @@ export function RunsTable({
 									))}
 									<td className="px-3 py-1.5 font-sans">{r.hasLogger ? '✓ file' : '—'}</td>
 									<td className="px-3 py-1.5 font-sans" onClick={(e) => e.stopPropagation()}>
-										<label className="mr-2 text-xs">
+										<label className="flex items-center gap-1 text-xs">
 											<input
-												type="radio"
-												name="cmp-a"
-												checked={compare[0] === r.id}
-												onChange={() => setCompare([r.id, compare[1]])}
-											/>{' '}
-											A
-										</label>
-										<label className="text-xs">
-											<input
-												type="radio"
-												name="cmp-b"
-												checked={compare[1] === r.id}
-												onChange={() => setCompare([compare[0], r.id])}
-											/>{' '}
-											B
+												type="checkbox"
+												checked={compare.includes(r.id)}
+												disabled={!compare.includes(r.id) && compare.length >= 4}
+												onChange={(e) =>
+													setCompare(
+														e.target.checked
+															? [...compare, r.id]
+															: compare.filter((x) => x !== r.id),
+													)
+												}
+											/>
+											{compare.includes(r.id)
+												? String.fromCharCode(65 + compare.indexOf(r.id))
+												: 'add'}
+											<span className="sr-only">
+												{' '}
+												to the comparison (run of {format(new Date(r.ranAt), 'd MMM yyyy HH:mm')})
+											</span>
 										</label>
 									</td>
 								</tr>

@@ -6,7 +6,7 @@ import { type EventDto, type RunDto, vehicleRunsQueryOptions } from '@/lib/clien
 import { fmt } from '@/lib/format';
 import type { RevisionSummary } from '@/lib/schemas/vehicles';
 import { LogRunForm } from './LogRunForm';
-import { RunComparison } from './RunComparison';
+import { RunTraceComparison } from './RunTraceComparison';
 import { RunDetailPanel } from './RunDetailPanel';
 import { ScoresOverTimeChart, ScoreVsVoltageChart } from './RunCharts';
 import { RunsTable } from './RunsTable';
@@ -42,7 +42,7 @@ export function VehicleRunsView({
 	});
 	const [selected, setSelected] = useState<string | null>(initialRuns.at(-1)?.id ?? null);
 	const [referenceId, setReferenceId] = useState<string | null>(null);
-	const [compare, setCompare] = useState<[string | null, string | null]>([null, null]);
+	const [compare, setCompare] = useState<string[]>([]);
 	const list = runs.data;
 	const reference =
 		list.find((r) => r.id === referenceId) ??
@@ -118,14 +118,12 @@ export function VehicleRunsView({
 				</section>
 			)}
 
-			{compare[0] && compare[1] && (
-				<RunComparison
-					teamId={teamId}
-					vehicleId={vehicleId}
-					a={list.find((r) => r.id === compare[0])!}
-					b={list.find((r) => r.id === compare[1])!}
-				/>
-			)}
+			<RunTraceComparison
+				teamId={teamId}
+				vehicleRuns={list}
+				ids={compare}
+				onIdsChange={setCompare}
+			/>
 		</div>
 	);
 }

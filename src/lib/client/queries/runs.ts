@@ -17,11 +17,19 @@ export interface RunDetail {
 export const runKeys = {
 	all: ['runs'] as const,
 	byVehicle: (vehicleId: string) => [...runKeys.all, 'vehicle', vehicleId] as const,
+	byTeam: (teamId: string) => [...runKeys.all, 'team', teamId] as const,
 	detail: (runId: string) => [...runKeys.all, 'detail', runId] as const,
 	photos: (runId: string) => [...runKeys.all, 'photos', runId] as const,
 	revision: (revisionId: string | null) => [...runKeys.all, 'revision', revisionId] as const,
 	diff: (from: string | null, to: string | null) => [...runKeys.all, 'diff', from, to] as const,
 };
+
+/** Every run of the team (all vehicles), for comparing runs across vehicles. */
+export const teamRunsQueryOptions = (teamId: string) =>
+	queryOptions({
+		queryKey: runKeys.byTeam(teamId),
+		queryFn: ({ signal }) => getJson<RunDto[]>(`/api/teams/${teamId}/runs`, { signal }),
+	});
 
 export const vehicleRunsQueryOptions = (teamId: string, vehicleId: string) =>
 	queryOptions({
