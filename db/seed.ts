@@ -162,8 +162,11 @@ export async function seedDemo(db: Kysely<Database>, storage?: Storage): Promise
 					event_id: r.event ? eventIds.get(r.event)! : null,
 					revision_id: rev?.id ?? null,
 					ran_at: ranAt,
+					ran_at_offset_min: 0,
 					...measurementColumns(r),
 					author_id: userIds[1]!,
+					// Logged a quarter of an hour after the run, at the lanes.
+					created_at: new Date(ranAt.getTime() + 15 * 60_000),
 				})
 				.returning('id')
 				.executeTakeFirstOrThrow();

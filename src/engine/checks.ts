@@ -57,14 +57,25 @@ const CHECKS: Array<{
 	},
 ];
 
+/** A computed item's short name, for lists that show no report (the team's activity). */
+export const CHECK_TITLES: Record<string, string> = {
+	battery_fusing: 'battery fusing',
+	fuse_sizes: 'fuse sizes',
+	cable_capacity: 'cable capacity',
+	drops: 'voltage drops',
+	charge_voltage: 'charging voltage',
+	batteries_secured: 'batteries secured',
+	venting: 'battery venting',
+	operating_point: 'operating point at burp',
+	solvable: 'solvable network',
+	has_build: 'saved build',
+};
+
 /**
  * The pre-event checklist items computed from a build's report: each passes, or fails with the
  * findings that concern it. A build the engine cannot solve fails a single item with its issues.
  */
-export function computedChecks(
-	report: BuildReport,
-	units: UnitSystem = 'metric',
-): ComputedCheck[] {
+export function computedChecks(report: BuildReport, units: UnitSystem = 'metric'): ComputedCheck[] {
 	if (!report.ok) {
 		return [
 			{

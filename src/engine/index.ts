@@ -22,6 +22,7 @@ export * from './diff';
 export * from './hints';
 export * from './run-analysis';
 export * from './checks';
+export * from './headline';
 export * from './compare';
 export * from './merge';
 export * from './defaults';

@@ -1,9 +1,10 @@
-import { buildReport, computedChecks, type BuildDocument, type UnitSystem } from '@/engine';
+import type { BuildDocument, UnitSystem } from '@/engine';
 import type { Checklist } from '@/lib/schemas/checklist';
 import { findRevision, revisionInForce } from '@/lib/server/db/builds';
 import { findCheckItems, findSignoffs, findVehicleWithBuild } from '@/lib/server/db/checklists';
 import { findEvent } from '@/lib/server/db/events';
 import { findTeamSettingsRow } from '@/lib/server/db/teams';
+import { revisionFigures } from '@/lib/server/engine/summaries';
 
 /**
  * The pre-event checklist of a vehicle for an event: items computed from the revision in force on
@@ -45,14 +46,11 @@ export async function loadChecklist(
 			: null;
 	};
 	const computed = revision
-		? computedChecks(
-				buildReport(
-					revision.document as BuildDocument,
-					{ fuseDistanceM },
-					{ burpRun: false, units },
-				),
+		? revisionFigures(
+				{ id: revision.id, document: revision.document as BuildDocument },
+				fuseDistanceM,
 				units,
-			)
+			).checks
 		: [
 				{
 					key: 'has_build',

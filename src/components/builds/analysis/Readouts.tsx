@@ -1,17 +1,14 @@
-import type { BuildReport } from '@/engine';
+import { type BuildReport, headlineFigures } from '@/engine';
 import { fmt } from '@/lib/format';
 
 /** The key figures of the report, large. */
 export function Readouts({ report }: { report: Extract<BuildReport, { ok: true }> }) {
-	const minBurp = Math.min(...report.amplifiers.map((a) => a.burpTerminalV));
-	const worstDb = Math.min(0, ...report.amplifiers.map((a) => a.burpOutputLossDb));
-	const altShare = report.burp.alternators.reduce((s, a) => s + a.share, 0);
-	const bankDraw = report.sustained.banks.reduce((s, b) => s + b.currentA, 0);
-	const bus = Math.max(
-		0,
-		...report.burp.banks.map((b) => b.terminalV),
-		...report.burp.alternators.filter((a) => a.mode !== 'off').map((a) => a.terminalV),
-	);
+	const h = headlineFigures(report);
+	const minBurp = h.lowestAmpV ?? NaN;
+	const worstDb = h.worstLossDb;
+	const altShare = h.alternatorShare;
+	const bankDraw = h.bankCurrentA;
+	const bus = h.settleV ?? NaN;
 	const items = [
 		{
 			label: 'System settles at, burp',

@@ -113,3 +113,26 @@ export async function insertVehicleWithBuild(
 		return { vehicle, buildId: build.id };
 	});
 }
+
+/** Each vehicle of the team in use with its head revision (document included), if it has one. */
+export function findVehiclesWithHead(db: Db, teamId: string) {
+	return db
+		.selectFrom('vehicle as v')
+		.innerJoin('build as b', 'b.vehicle_id', 'v.id')
+		.leftJoin('revision as r', 'r.id', 'b.head_revision_id')
+		.select([
+			'v.id',
+			'v.name',
+			'v.description',
+			'v.competition_class',
+			'r.id as revision_id',
+			'r.number as revision_number',
+			'r.message as revision_message',
+			'r.created_at as revision_created_at',
+			'r.document',
+		])
+		.where('v.team_id', '=', teamId)
+		.where('v.archived_at', 'is', null)
+		.orderBy('v.name')
+		.execute();
+}
