@@ -3,6 +3,7 @@
 import node from '@astrojs/node';
 import react from '@astrojs/react';
 import tailwindcss from '@tailwindcss/vite';
+import AstroPWA from '@vite-pwa/astro';
 import auth from 'auth-astro';
 import { defineConfig, envField } from 'astro/config';
 
@@ -14,7 +15,71 @@ const allowedHosts = (process.env.ALLOWED_HOSTS ?? '127.0.0.1,localhost')
 export default defineConfig({
 	output: 'server',
 	adapter: node({ mode: 'standalone' }),
-	integrations: [react(), auth()],
+	integrations: [
+		react(),
+		auth(),
+		// The app installs to a phone's home screen and keeps working at the lanes with no signal:
+		// the service worker holds the app's files, and the pages and data a member opened before
+		// (network first, the copy when the network fails). Writes made offline wait in the page's
+		// outbox (src/lib/client/outbox.ts), never in the worker.
+		AstroPWA({
+			registerType: 'autoUpdate',
+			injectRegister: false,
+			includeAssets: ['favicon.svg', 'icons/apple-touch-icon.png'],
+			manifest: {
+				id: '/teams',
+				name: 'Sagwise',
+				short_name: 'Sagwise',
+				description: 'Power budgets, builds, runs and checks for car-audio competition teams',
+				start_url: '/teams',
+				scope: '/',
+				display: 'standalone',
+				background_color: '#f7f5f0',
+				theme_color: '#16202a',
+				icons: [
+					{ src: '/icons/icon-192.png', sizes: '192x192', type: 'image/png' },
+					{ src: '/icons/icon-512.png', sizes: '512x512', type: 'image/png' },
+					{
+						src: '/icons/maskable-512.png',
+						sizes: '512x512',
+						type: 'image/png',
+						purpose: 'maskable',
+					},
+				],
+			},
+			workbox: {
+				navigateFallback: null,
+				globPatterns: ['**/*.{js,css,woff2,svg,png,webmanifest}'],
+				cleanupOutdatedCaches: true,
+				runtimeCaching: [
+					{
+						urlPattern: ({ request, url }) =>
+							request.mode === 'navigate' && url.pathname.startsWith('/teams'),
+						handler: 'NetworkFirst',
+						options: {
+							cacheName: 'sagwise-pages',
+							networkTimeoutSeconds: 6,
+							expiration: { maxEntries: 60, maxAgeSeconds: 14 * 24 * 3600 },
+							cacheableResponse: { statuses: [200] },
+						},
+					},
+					{
+						urlPattern: ({ request, url }) =>
+							request.method === 'GET' &&
+							/^\/api\/teams\/[^/]+\/(runs|events|vehicles)(\/|$)/.test(url.pathname) &&
+							!/\/(export|files|photos)(\/|\.|$)|\.csv$/.test(url.pathname),
+						handler: 'NetworkFirst',
+						options: {
+							cacheName: 'sagwise-data',
+							networkTimeoutSeconds: 6,
+							expiration: { maxEntries: 200, maxAgeSeconds: 14 * 24 * 3600 },
+							cacheableResponse: { statuses: [200] },
+						},
+					},
+				],
+			},
+		}),
+	],
 	server: { host: '127.0.0.1', port: 4321 },
 	// Astro 5 ignores the Host header unless it is listed; without this, request.url loses its port.
 	security: { checkOrigin: true, allowedDomains: allowedHosts },

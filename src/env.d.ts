@@ -1,4 +1,6 @@
 /// <reference types="astro/client" />
+/// <reference types="vite-plugin-pwa/client" />
+/// <reference types="vite-plugin-pwa/info" />
 
 declare namespace App {
 	interface Locals {

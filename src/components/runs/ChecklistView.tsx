@@ -1,11 +1,29 @@
-import { useState } from 'react';
+import { useQuery, useQueryClient } from '@tanstack/react-query';
+import { useEffect, useState } from 'react';
 import { format } from 'date-fns';
 import { formatShortDistance } from '@/engine';
 import { ApiError } from '@/lib/client/api-client';
-import { useAddCheckItem, useSignOff } from '@/lib/client/queries/checklist';
+import {
+	currentUserId,
+	enqueue,
+	isOffline,
+	onSent,
+	type SignoffEntry,
+	startOutbox,
+	useOnLeave,
+	useOutbox,
+} from '@/lib/client/outbox';
+import {
+	checklistKeys,
+	checklistQueryOptions,
+	useAddCheckItem,
+	useSignOff,
+} from '@/lib/client/queries/checklist';
 import { withQueryClient } from '@/lib/client/query-client';
 import { WAIVER_MIN_CHARS, type Checklist, type ChecklistItem } from '@/lib/schemas/checklist';
 import { Button, Field, FormMessage } from '@/components/ui/Field';
+import { OutboxList } from './OutboxList';
+import { useLocalFormat } from '@/lib/client/local-time';
 
 const ICON = {
 	pass: { mark: '✓', word: 'passes', cls: 'text-teal' },
@@ -13,8 +31,6 @@ const ICON = {
 	open: { mark: '○', word: 'to check', cls: 'text-ink-soft' },
 	waived: { mark: '!', word: 'fails, waived', cls: 'text-amber-text' },
 } as const;
-
-const when = (iso: string) => format(new Date(iso), 'd MMM yyyy HH:mm');
 
 function iconOf(item: ChecklistItem) {
 	return item.status === 'fail' && item.signoff?.waived ? ICON.waived : ICON[item.status];
@@ -35,7 +51,36 @@ export const ChecklistView = withQueryClient(function ChecklistView({
 	canSign: boolean;
 	canWaive: boolean;
 }) {
-	const [list, setList] = useState(initial);
+	const qc = useQueryClient();
+	const fmtTime = useLocalFormat();
+	const when = (iso: string) => fmtTime(iso, 'd MMM yyyy HH:mm');
+	const key = checklistKeys.sheet(initial.eventId, initial.vehicleId);
+	const list =
+		useQuery({
+			...checklistQueryOptions(teamId, initial.eventId, initial.vehicleId),
+			initialData: initial,
+		}).data ?? initial;
+	const setList = (l: Checklist) => qc.setQueryData(key, l);
+	const pending = useOutbox().filter(
+		(e): e is SignoffEntry =>
+			e.kind === 'signoff' && e.eventId === list.eventId && e.vehicleId === list.vehicleId,
+	);
+	const pendingFor = (itemKey: string) => pending.find((e) => e.body.itemKey === itemKey);
+	useOnLeave(
+		pending.map((e) => e.id),
+		() => void qc.invalidateQueries({ queryKey: key }),
+	);
+	useEffect(() => {
+		startOutbox();
+		return onSent((e, result) => {
+			if (e.kind !== 'signoff' || e.eventId !== initial.eventId) return;
+			if (e.vehicleId !== initial.vehicleId) return;
+			qc.setQueryData(key, result as Checklist);
+			// A fetch begun when the connection returned may answer the sheet from before the send.
+			void qc.invalidateQueries({ queryKey: key });
+		});
+		// eslint-disable-next-line react-hooks/exhaustive-deps -- key is derived from the ids listed
+	}, [qc, initial.eventId, initial.vehicleId]);
 	const signOff = useSignOff(teamId, initial.eventId);
 	const addItem = useAddCheckItem(teamId);
 	const [error, setError] = useState<string | null>(null);
@@ -46,16 +91,33 @@ export const ChecklistView = withQueryClient(function ChecklistView({
 
 	async function sign(item: ChecklistItem, signed: boolean, note = '') {
 		setError(null);
+		const body = {
+			vehicleId: list.vehicleId,
+			itemKey: item.key,
+			signed,
+			note,
+			seen: { revisionId: list.revision?.id ?? null, status: item.status },
+		};
 		try {
-			setList(
-				await signOff.mutateAsync({
+			try {
+				setList(await signOff.mutateAsync(body));
+			} catch (e) {
+				const userId = currentUserId();
+				if (!isOffline(e) || !userId) throw e;
+				// No connection: kept on this device with what the member saw, sent when it returns.
+				await enqueue({
+					kind: 'signoff',
+					id: crypto.randomUUID(),
+					teamId,
+					eventId: list.eventId,
 					vehicleId: list.vehicleId,
-					itemKey: item.key,
-					signed,
-					note,
-					seen: { revisionId: list.revision?.id ?? null, status: item.status },
-				}),
-			);
+					userId,
+					createdAt: new Date().toISOString(),
+					state: 'waiting',
+					label: item.label,
+					body,
+				});
+			}
 			setWaiving(null);
 			setReason('');
 			setReasonError(undefined);
@@ -82,7 +144,7 @@ export const ChecklistView = withQueryClient(function ChecklistView({
 						['Date', format(new Date(`${list.startsOn}T12:00:00`), 'd MMM yyyy')],
 						[
 							'Revision in force',
-							rev ? `r${rev.number} (${format(new Date(rev.savedAt), 'd MMM yyyy')})` : 'none',
+							rev ? `r${rev.number} (${fmtTime(rev.savedAt, 'd MMM yyyy')})` : 'none',
 						],
 						['Units', list.units === 'imperial' ? 'feet, inches, AWG' : 'metres, centimetres, mm²'],
 					] as const
@@ -104,6 +166,7 @@ export const ChecklistView = withQueryClient(function ChecklistView({
 				Battery fuses within {formatShortDistance(list.fuseDistanceM, list.units)} (common practice,
 				no published source).
 			</p>
+			<OutboxList entries={pending} title="Sign-offs waiting to be sent" />
 			<ol className="flex flex-col divide-y divide-hairline rounded-md border border-hairline bg-card">
 				{list.items.map((item) => {
 					const icon = iconOf(item);
@@ -147,6 +210,13 @@ export const ChecklistView = withQueryClient(function ChecklistView({
 											{item.outstanding && ' — before it failed; it needs a waiver now.'}
 										</p>
 									))}
+								{pendingFor(item.key) && (
+									<p className="mt-1 text-sm font-semibold text-amber-text" data-pending>
+										{pendingFor(item.key)!.body.signed
+											? 'Signed off on this device, not yet sent'
+											: 'Sign-off withdrawn on this device, not yet sent'}
+									</p>
+								)}
 								{waiving === item.key && (
 									<form
 										className="mt-2 flex flex-wrap items-end gap-2 print:hidden"
@@ -177,7 +247,7 @@ export const ChecklistView = withQueryClient(function ChecklistView({
 									</form>
 								)}
 							</div>
-							{canSign && waiving !== item.key && (
+							{canSign && waiving !== item.key && !pendingFor(item.key) && (
 								<div className="print:hidden">
 									{item.signoff && (!needsWaiver || item.signoff.waived) ? (
 										(!item.signoff.waived || canWaive) && (

@@ -1,7 +1,8 @@
 import { format, formatISO } from 'date-fns';
-import { useState } from 'react';
+import { useEffect, useState } from 'react';
 import { Button, Field, FormMessage } from '@/components/ui/Field';
 import { ApiError } from '@/lib/client/api-client';
+import { currentUserId, enqueue, isOffline } from '@/lib/client/outbox';
 import { fieldErrors } from '@/lib/client/form-errors';
 import { type EventDto, useLogRun, useUploadLogger } from '@/lib/client/queries/runs';
 import { loggerColumns } from '@/lib/logger-csv';
@@ -9,6 +10,7 @@ import { measurementsFromTexts, measurementTexts } from '@/lib/schemas/run-measu
 import { newRunSchema, revisionInForceAt } from '@/lib/schemas/runs';
 import type { RevisionSummary } from '@/lib/schemas/vehicles';
 import { MeasurementFields } from './MeasurementFields';
+import { useLocalFormat } from '@/lib/client/local-time';
 
 const MAPPED = [
 	{ key: 'timeColumn', label: 'Time' },
@@ -33,9 +35,14 @@ export function LogRunForm({
 }) {
 	const logRun = useLogRun(teamId, vehicleId);
 	const uploadLogger = useUploadLogger(teamId, vehicleId);
+	const fmtTime = useLocalFormat();
 	const now = () => format(new Date(), "yyyy-MM-dd'T'HH:mm:ss");
-	const [ranAt, setRanAt] = useState(now);
+	// The device's own clock and zone: set once mounted, so the server's page and the first render agree.
+	const [ranAt, setRanAt] = useState('');
+	useEffect(() => setRanAt(now()), []);
 	const [duplicateOf, setDuplicateOf] = useState<string | null>(null);
+	/** Made once per run being logged: a retry (or the outbox) sends the same key, never a second run. */
+	const [clientKey, setClientKey] = useState(() => crypto.randomUUID());
 	const [eventId, setEventId] = useState('');
 	/** '' ties the run to the revision in force at its time; otherwise the revision chosen. */
 	const [revisionChoice, setRevisionChoice] = useState('');
@@ -70,6 +77,7 @@ export function LogRunForm({
 
 	function clear() {
 		setRanAt(now());
+		setClientKey(crypto.randomUUID());
 		setRevisionChoice('');
 		setNumbers(measurementTexts());
 		setNotes('');
@@ -94,20 +102,53 @@ export function LogRunForm({
 			// To the second, with this device's offset, so the run lands on the revision in force then.
 			ranAt: Number.isNaN(when.getTime()) ? '' : formatISO(when),
 			revisionId: revisionChoice || undefined,
+			clientKey,
 			allowDuplicate,
 			...measurementsFromTexts(numbers),
 			notes,
 		});
 		if (!parsed.success) return setErrors(fieldErrors(parsed.error));
 		setErrors({});
+		const keep = async (runId?: string) => {
+			const userId = currentUserId();
+			if (!userId) return false;
+			await enqueue({
+				kind: 'run',
+				id: clientKey,
+				teamId,
+				vehicleId,
+				userId,
+				createdAt: new Date().toISOString(),
+				state: 'waiting',
+				body: { ...parsed.data, clientKey },
+				file: file ? { blob: file, name: file.name, mapping } : undefined,
+				runId,
+			});
+			clear();
+			setMessage({
+				tone: 'ok',
+				text: runId
+					? 'The run is logged; its logger file is kept on this device and goes out when the connection returns.'
+					: 'No connection: the run is kept on this device, marked as not yet sent, and goes out by itself when the connection returns.',
+			});
+			return true;
+		};
 		try {
-			const run = await logRun.mutateAsync(parsed.data);
+			let run;
+			try {
+				run = await logRun.mutateAsync(parsed.data);
+			} catch (e) {
+				if (isOffline(e) && (await keep())) return;
+				throw e;
+			}
 			let note: string | null = null;
 			if (file) {
 				setProgress(0);
 				try {
 					await uploadLogger.mutateAsync({ runId: run.id, file, mapping, onProgress: setProgress });
 				} catch (e) {
+					setProgress(null);
+					if (isOffline(e) && (await keep(run.id))) return onLogged(run.id);
 					note = `The run is logged, but the logger file was refused: ${(e as Error).message}`;
 				}
 				setProgress(null);
@@ -173,13 +214,13 @@ export function LogRunForm({
 							</option>
 							{revisions.map((r) => (
 								<option key={r.id} value={r.id}>
-									r{r.number} · {r.message} ({format(new Date(r.createdAt), 'd MMM HH:mm:ss')})
+									r{r.number} · {r.message} ({fmtTime(r.createdAt, 'd MMM HH:mm:ss')})
 								</option>
 							))}
 						</select>
 						<p id="run-revision-hint" className="text-sm text-ink-soft" data-revision-hint>
 							{chosen
-								? `The run will be tied to r${chosen.number}, saved ${format(new Date(chosen.createdAt), 'd MMM yyyy HH:mm:ss')}${revisionChoice ? ' (chosen by hand)' : ''}.`
+								? `The run will be tied to r${chosen.number}, saved ${fmtTime(chosen.createdAt, 'd MMM yyyy HH:mm:ss')}${revisionChoice ? ' (chosen by hand)' : ''}.`
 								: 'No revision of the build was saved by this time: the run will have none.'}
 						</p>
 					</div>

@@ -1,5 +1,4 @@
 import { useQuery } from '@tanstack/react-query';
-import { format } from 'date-fns';
 import { useMemo } from 'react';
 import { Button, FormMessage } from '@/components/ui/Field';
 import { buildReport } from '@/engine';
@@ -15,6 +14,7 @@ import { MISMATCH_MARGIN_V } from '@/lib/schemas/runs';
 import { fmt } from '@/lib/format';
 import { EditRunForm } from './EditRunForm';
 import { SamplesChart } from './RunCharts';
+import { useLocalFormat } from '@/lib/client/local-time';
 
 /** One run: its logger trace and analysis, photos, the model beside the measurement, edit and delete. */
 export function RunDetailPanel({
@@ -31,6 +31,7 @@ export function RunDetailPanel({
 	onDeleted: () => void;
 }) {
 	const detail = useQuery(runDetailQueryOptions(teamId, runId));
+	const fmtTime = useLocalFormat();
 	const revisionId = detail.data?.run.revisionId ?? null;
 	const revision = useQuery(runRevisionQueryOptions(teamId, vehicleId, revisionId));
 	const deleteRun = useDeleteRun(teamId, vehicleId);
@@ -60,7 +61,7 @@ export function RunDetailPanel({
 			className="rounded-md border border-hairline bg-card p-4"
 		>
 			<h2 id="detail-heading" className="text-xl font-bold">
-				Run of {format(new Date(run.ranAt), 'd MMM yyyy HH:mm')}{' '}
+				Run of {fmtTime(run.ranAt, 'd MMM yyyy HH:mm')}{' '}
 				{run.eventName && <span className="font-normal text-ink-soft">· {run.eventName}</span>}
 			</h2>
 			{run.notes && <p className="mt-1 text-sm">{run.notes}</p>}

@@ -7,7 +7,6 @@ import {
 	PointElement,
 	Tooltip,
 } from 'chart.js';
-import { format } from 'date-fns';
 import { useState } from 'react';
 import { Scatter } from 'react-chartjs-2';
 import {
@@ -28,6 +27,7 @@ import {
 	toTraceChartData,
 	TRACE_SLOTS,
 } from './trace-comparison-data';
+import { useLocalFormat } from '@/lib/client/local-time';
 
 ChartJS.register(LinearScale, PointElement, LineElement, Tooltip, Legend);
 
@@ -67,8 +67,8 @@ const dbOptions = {
 	plugins: { legend: { position: 'bottom' as const, labels: { usePointStyle: true } } },
 };
 
-const runLabel = (r: RunDto) =>
-	`${r.vehicleName} · ${format(new Date(r.ranAt), 'd MMM yyyy HH:mm')}${r.scoreDb !== null ? ` · ${fmt(r.scoreDb, 1)} dB` : ''}`;
+const runLabel = (r: RunDto, fmtTime: ReturnType<typeof useLocalFormat>) =>
+	`${r.vehicleName} · ${fmtTime(r.ranAt, 'd MMM yyyy HH:mm')}${r.scoreDb !== null ? ` · ${fmt(r.scoreDb, 1)} dB` : ''}`;
 
 /**
  * Up to four runs (of this vehicle or others of the team) compared trace by trace: their logger
@@ -90,6 +90,7 @@ export function RunTraceComparison({
 }) {
 	const setIds = (f: (xs: string[]) => string[]) => onIdsChange(f(ids).slice(0, MAX_COMPARED));
 	const [shift, setShift] = useState<Record<string, number>>({});
+	const fmtTime = useLocalFormat();
 	const teamRuns = useQuery(teamRunsQueryOptions(teamId));
 	const choices = teamRuns.data ?? vehicleRuns;
 	const byId = new Map(choices.map((r) => [r.id, r]));
@@ -152,7 +153,7 @@ export function RunTraceComparison({
 							<optgroup key={vehicle} label={vehicle}>
 								{rs.map((r) => (
 									<option key={r.id} value={r.id}>
-										{runLabel(r)}
+										{runLabel(r, fmtTime)}
 										{r.hasLogger ? '' : ' (no logger file)'}
 									</option>
 								))}
@@ -186,7 +187,7 @@ export function RunTraceComparison({
 									</span>
 									<span className="min-w-0 flex-1 basis-48 break-words">
 										<span className="sr-only">Run {slot.letter}: </span>
-										{runLabel(r)}
+										{runLabel(r, fmtTime)}
 										{r.revisionNumber ? ` · r${r.revisionNumber}` : ''}
 									</span>
 									{r.hasLogger ? (
@@ -256,7 +257,7 @@ export function RunTraceComparison({
 								{(
 									[
 										['Vehicle', (r) => r.vehicleName],
-										['When', (r) => format(new Date(r.ranAt), 'd MMM yyyy HH:mm')],
+										['When', (r) => fmtTime(r.ranAt, 'd MMM yyyy HH:mm')],
 										['Revision', (r) => (r.revisionNumber ? `r${r.revisionNumber}` : '—')],
 										...MEASUREMENT_FIELDS.map(
 											(f) =>

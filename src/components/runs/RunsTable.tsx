@@ -1,7 +1,7 @@
-import { format } from 'date-fns';
 import type { RunDto } from '@/lib/client/queries/runs';
 import { fmt } from '@/lib/format';
 import { MEASUREMENT_FIELDS, RUN_MEASUREMENTS } from '@/lib/schemas/run-measurements';
+import { useLocalFormat } from '@/lib/client/local-time';
 
 /** The vehicle's runs, newest first: choose one to open it, and up to four to compare. */
 export function RunsTable({
@@ -21,6 +21,7 @@ export function RunsTable({
 	compare: string[];
 	onCompare: (ids: string[]) => void;
 }) {
+	const fmtTime = useLocalFormat();
 	return (
 		<section aria-labelledby="runs-heading">
 			<div className="flex items-center gap-3">
@@ -69,7 +70,7 @@ export function RunsTable({
 											className="underline-offset-2 hover:underline"
 											onClick={() => setSelected(r.id)}
 										>
-											{format(new Date(r.ranAt), 'd MMM yyyy HH:mm')}
+											{fmtTime(r.ranAt, 'd MMM yyyy HH:mm')}
 										</button>
 									</td>
 									<td className="px-3 py-1.5 font-sans">
@@ -102,7 +103,7 @@ export function RunsTable({
 												: 'add'}
 											<span className="sr-only">
 												{' '}
-												to the comparison (run of {format(new Date(r.ranAt), 'd MMM yyyy HH:mm')})
+												to the comparison (run of {fmtTime(r.ranAt, 'd MMM yyyy HH:mm')})
 											</span>
 										</label>
 									</td>

@@ -1,15 +1,22 @@
-import { QueryClientProvider, useQuery } from '@tanstack/react-query';
-import { format } from 'date-fns';
-import { useState } from 'react';
+import { QueryClientProvider, useQuery, useQueryClient } from '@tanstack/react-query';
+import { useEffect, useState } from 'react';
+import { onSent, startOutbox, useOnLeave, useOutbox } from '@/lib/client/outbox';
 import { getQueryClient } from '@/lib/client/query-client';
-import { type EventDto, type RunDto, vehicleRunsQueryOptions } from '@/lib/client/queries/runs';
+import {
+	type EventDto,
+	type RunDto,
+	runKeys,
+	vehicleRunsQueryOptions,
+} from '@/lib/client/queries/runs';
 import { fmt } from '@/lib/format';
 import type { RevisionSummary } from '@/lib/schemas/vehicles';
 import { LogRunForm } from './LogRunForm';
+import { OutboxList } from './OutboxList';
 import { RunTraceComparison } from './RunTraceComparison';
 import { RunDetailPanel } from './RunDetailPanel';
 import { ScoresOverTimeChart, ScoreVsVoltageChart } from './RunCharts';
 import { RunsTable } from './RunsTable';
+import { useLocalFormat } from '@/lib/client/local-time';
 
 export interface VehicleRunsProps {
 	teamId: string;
@@ -43,6 +50,22 @@ export function VehicleRunsView({
 	const [selected, setSelected] = useState<string | null>(initialRuns.at(-1)?.id ?? null);
 	const [referenceId, setReferenceId] = useState<string | null>(null);
 	const [compare, setCompare] = useState<string[]>([]);
+	const fmtTime = useLocalFormat();
+	const qc = useQueryClient();
+	const waiting = useOutbox().filter((e) => e.kind === 'run' && e.vehicleId === vehicleId);
+	useOnLeave(
+		waiting.map((e) => e.id),
+		() => void qc.invalidateQueries({ queryKey: runKeys.byVehicle(vehicleId) }),
+	);
+	useEffect(() => {
+		startOutbox();
+		return onSent((e, result) => {
+			if (e.kind !== 'run' || e.vehicleId !== vehicleId) return;
+			void qc.invalidateQueries({ queryKey: runKeys.byVehicle(vehicleId) });
+			const id = (result as { id?: string } | null)?.id;
+			if (id) setSelected(id);
+		});
+	}, [qc, vehicleId]);
 	const list = runs.data;
 	const reference =
 		list.find((r) => r.id === referenceId) ??
@@ -63,6 +86,7 @@ export function VehicleRunsView({
 				/>
 			)}
 
+			<OutboxList entries={waiting} title="Runs waiting to be sent" />
 			<RunsTable
 				teamId={teamId}
 				vehicleId={vehicleId}
@@ -107,8 +131,7 @@ export function VehicleRunsView({
 										.filter((r) => r.scoreDb !== null && r.minV !== null)
 										.map((r) => (
 											<option key={r.id} value={r.id}>
-												{format(new Date(r.ranAt), 'd MMM yyyy')} · {fmt(r.scoreDb, 1)} dB at{' '}
-												{fmt(r.minV)} V
+												{fmtTime(r.ranAt, 'd MMM yyyy')} · {fmt(r.scoreDb, 1)} dB at {fmt(r.minV)} V
 											</option>
 										))}
 								</select>

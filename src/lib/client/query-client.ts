@@ -11,6 +11,9 @@ function makeQueryClient(): QueryClient {
 				retry: (count, error) =>
 					!(error instanceof ApiError && error.status >= 400 && error.status < 500) && count < 2,
 			},
+			// A write is tried even when the browser says it is offline: a failed one then lands in the
+			// outbox (src/lib/client/outbox.ts) instead of hanging as a paused mutation.
+			mutations: { networkMode: 'always' },
 		},
 	});
 }
