@@ -200,7 +200,9 @@ describe('vehicles, builds and revisions', () => {
 				id: 'mono',
 				label: 'Mono amplifier',
 				kind: 'changed',
-				fields: [{ field: 'ratedPowerW', before: 1200, after: 2000 }],
+				fields: [
+					{ field: 'ratedPowerW', before: pebbleBuild.amplifiers[0]!.ratedPowerW, after: 2000 },
+				],
 			},
 			{
 				group: 'cables',

@@ -187,7 +187,7 @@ export function LogRunForm({
 				aria-label="Log a run"
 				className="mt-3 flex flex-col gap-3 rounded-md border border-hairline bg-card p-4"
 			>
-				<div className="grid gap-3 sm:grid-cols-3 lg:grid-cols-4">
+				<div className="grid grid-cols-1 gap-3 sm:grid-cols-3 lg:grid-cols-4">
 					<Field
 						label="When"
 						type="datetime-local"
@@ -205,7 +205,7 @@ export function LogRunForm({
 							value={revisionChoice}
 							onChange={(e) => setRevisionChoice(e.target.value)}
 							aria-describedby="run-revision-hint"
-							className="min-w-0 rounded-md border border-hairline bg-card px-3 py-2"
+							className="w-full min-w-0 rounded-md border border-hairline bg-card px-3 py-2"
 						>
 							<option value="">
 								{inForce
@@ -232,7 +232,7 @@ export function LogRunForm({
 							id="run-event"
 							value={eventId}
 							onChange={(e) => setEventId(e.target.value)}
-							className="rounded-md border border-hairline bg-card px-3 py-2"
+							className="w-full min-w-0 rounded-md border border-hairline bg-card px-3 py-2"
 						>
 							<option value="">practice (no event)</option>
 							{events.map((e) => (

@@ -136,13 +136,13 @@ export function RunTraceComparison({
 				</p>
 			</div>
 			<div className="flex flex-wrap items-end gap-3">
-				<label className="flex min-w-0 flex-col gap-1 text-sm font-semibold">
+				<label className="flex w-full min-w-0 flex-col gap-1 text-sm font-semibold sm:w-auto sm:max-w-xl">
 					Add a run
 					<select
 						value=""
 						disabled={ids.length >= MAX_COMPARED}
 						onChange={(e) => e.target.value && setIds((xs) => [...xs, e.target.value])}
-						className="max-w-full min-w-0 rounded-md border border-hairline bg-card px-3 py-2 font-normal"
+						className="w-full max-w-full min-w-0 rounded-md border border-hairline bg-card px-3 py-2 font-normal"
 					>
 						<option value="">
 							{ids.length >= MAX_COMPARED
