@@ -78,6 +78,18 @@ describe('burp chart data', () => {
 		expect(withRule.datasets.at(-1)!.label).toBe('Drop target (13.25 V)');
 		expect(new Set(withRule.datasets.at(-1)!.data)).toEqual(new Set([13.25]));
 	});
+
+	it('draws two banks in different colours and dashes, and starts the axis just below the lowest line', () => {
+		const data = toBurpChartData(burpRun(50), { front: 'Front bank', rear: 'Rear bank' }, null);
+		const [front, rear] = data.datasets.slice(1) as Array<{
+			borderColor: string;
+			borderDash: number[];
+		}>;
+		expect(front!.borderColor).not.toBe(rear!.borderColor);
+		expect(front!.borderDash).not.toEqual(rear!.borderDash);
+		// The lowest line ends at 14 − 0.49 = 13.51 V: the axis starts at 13 V, not at 0 and not above it.
+		expect(data.yMin).toBe(13);
+	});
 });
 
 describe('run charts', () => {

@@ -92,6 +92,14 @@ export function BuildWorkspaceView({
 
 	const errors = useMemo(() => validateDraft(draft), [draft]);
 	const valid = Object.keys(errors).length === 0;
+	/** Why Save is not available, in words (null when it is). */
+	const saveBlocked = !dirty
+		? 'Nothing to save: the draft matches the saved revision.'
+		: !valid
+			? `Fix the ${Object.keys(errors).length === 1 ? 'marked field' : `${Object.keys(errors).length} marked fields`} to save.`
+			: message.trim() === ''
+				? 'Add a message saying what changed to save.'
+				: null;
 	const changes = useMemo(() => (head ? diffBuilds(head.document, draft) : []), [head, draft]);
 
 	async function save(parentId: string | null) {
@@ -203,10 +211,16 @@ export function BuildWorkspaceView({
 						<Button
 							type="submit"
 							busy={saveState.busy}
-							disabled={!dirty || !valid || message.trim() === ''}
+							disabled={saveBlocked !== null}
+							aria-describedby={saveBlocked ? 'save-blocked' : undefined}
 						>
 							Save revision
 						</Button>
+						{saveBlocked && (
+							<span id="save-blocked" className="text-sm text-ink-soft" data-save-blocked>
+								{saveBlocked}
+							</span>
+						)}
 						<label className="cursor-pointer rounded-md border border-hairline bg-card px-3 py-2 text-sm font-semibold hover:border-copper">
 							Load a JSON file
 							<input
@@ -302,6 +316,7 @@ export function BuildWorkspaceView({
 				errors={errors}
 				units={units}
 				canEdit={canEdit}
+				baseline={head ? baseDoc : null}
 				onChange={(next: (d: BuildDocument) => BuildDocument) => {
 					setDraft(next);
 					setSaveState((st) => ({ ...st, ok: null }));

@@ -64,11 +64,27 @@ export function BurpChart({
 	ruleV: number | null;
 }) {
 	const data = useMemo(() => toBurpChartData(run, bankLabels, ruleV), [run, bankLabels, ruleV]);
+	const options = useMemo(
+		() => ({
+			...burpOptions,
+			scales: {
+				...burpOptions.scales,
+				y: {
+					min: data.yMin,
+					title: {
+						display: true,
+						text: data.yMin > 0 ? `Voltage (V), axis from ${data.yMin} V` : 'Voltage (V)',
+					},
+				},
+			},
+		}),
+		[data.yMin],
+	);
 	return (
 		<div className="h-64">
 			<Line
 				data={data}
-				options={burpOptions}
+				options={options}
 				aria-label="Voltages over the time of a burp"
 				role="img"
 			/>

@@ -1,6 +1,6 @@
 import { useMemo } from 'react';
 import { cableAreaMm2 } from '@/engine';
-import type { BuildDocument, NodeKind } from '@/engine';
+import type { BuildDocument, NodeKind, PartGroup } from '@/engine';
 
 const COLUMN: Record<NodeKind, number> = {
 	alternator: 0,
@@ -48,13 +48,22 @@ export function layoutNetwork(doc: BuildDocument) {
 	return { pos, ground };
 }
 
-export function NetworkDiagram({ doc, flagged }: { doc: BuildDocument; flagged: Set<string> }) {
+export function NetworkDiagram({
+	doc,
+	flagged,
+	onSelect,
+}: {
+	doc: BuildDocument;
+	flagged: Set<string>;
+	/** A click on a cable or a part opens it (the part lists beside are the keyboard's way in). */
+	onSelect?: (group: PartGroup, id: string) => void;
+}) {
 	const { pos, ground } = useMemo(() => layoutNetwork(doc), [doc]);
 	const parts = [
-		...doc.banks.map((b) => ({ ...b, colour: '#0f7076', tag: 'bank' })),
-		...doc.alternators.map((a) => ({ ...a, colour: '#0f7076', tag: 'alt' })),
-		...doc.amplifiers.map((a) => ({ ...a, colour: '#a85a23', tag: 'amp' })),
-		...doc.loads.map((l) => ({ ...l, colour: '#55616b', tag: 'load' })),
+		...doc.banks.map((b) => ({ ...b, colour: '#0f7076', group: 'banks' as const })),
+		...doc.alternators.map((a) => ({ ...a, colour: '#0f7076', group: 'alternators' as const })),
+		...doc.amplifiers.map((a) => ({ ...a, colour: '#a85a23', group: 'amplifiers' as const })),
+		...doc.loads.map((l) => ({ ...l, colour: '#55616b', group: 'loads' as const })),
 	];
 	return (
 		<svg
@@ -88,6 +97,8 @@ export function NetworkDiagram({ doc, flagged }: { doc: BuildDocument; flagged: 
 						strokeWidth={width}
 						strokeLinecap="round"
 						strokeDasharray={flagged.has(c.id) ? '7 3' : undefined}
+						onClick={onSelect && (() => onSelect('cables', c.id))}
+						className={onSelect ? 'cursor-pointer' : undefined}
 					>
 						<title>{`${c.label}${flagged.has(c.id) ? ' — has a finding' : ''}`}</title>
 					</line>
@@ -98,7 +109,11 @@ export function NetworkDiagram({ doc, flagged }: { doc: BuildDocument; flagged: 
 				const b = pos.get(p.negative);
 				if (!a || !b) return null;
 				return (
-					<g key={p.id}>
+					<g
+						key={p.id}
+						onClick={onSelect && (() => onSelect(p.group, p.id))}
+						className={onSelect ? 'cursor-pointer' : undefined}
+					>
 						<line
 							x1={a.x}
 							y1={a.y}

@@ -1,3 +1,4 @@
+import { useState } from 'react';
 import type { BuildDocument, PartGroup } from '@/engine';
 import type { UnitSystem } from '@/lib/format';
 import { useHydrated } from '@/lib/client/use-hydrated';
@@ -9,7 +10,7 @@ import {
 	loadColumns,
 	nodeColumns,
 } from './editor-columns';
-import { newAlternator, newAmplifier, newBank, newCable, newLoad, newNode } from './new-parts';
+import { AddPartForm } from './AddPartForm';
 import { PartTable } from './PartTable';
 
 /** The part tables of a build or plan: every part editable in place, added and removed by group. */
@@ -35,12 +36,21 @@ export function PartEditor({
 	function update<G extends PartGroup>(group: G, index: number, next: BuildDocument[G][number]) {
 		onChange((d) => ({ ...d, [group]: d[group].map((x, i) => (i === index ? next : x)) }));
 	}
-	function add<G extends PartGroup>(
-		group: G,
-		make: (d: BuildDocument) => BuildDocument[G][number],
-	) {
-		onChange((d) => ({ ...d, [group]: [...d[group], make(d)] }));
-	}
+	const [adding, setAdding] = useState<PartGroup | null>(null);
+	/** The group's "+ Add" opens a form that asks where the part goes. */
+	const add = (group: PartGroup) => (canEdit ? () => setAdding(group) : undefined);
+	const addForm = (group: PartGroup) =>
+		adding === group && (
+			<AddPartForm
+				group={group}
+				draft={draft}
+				onCancel={() => setAdding(null)}
+				onAdd={(change) => {
+					onChange(change);
+					setAdding(null);
+				}}
+			/>
+		);
 	function remove(group: PartGroup, index: number) {
 		onChange((d) => ({ ...d, [group]: d[group].filter((_, i) => i !== index) }));
 	}
@@ -63,7 +73,8 @@ export function PartEditor({
 				</p>
 			) : (
 				<>
-					<EditGroup title="Cables" onAdd={canEdit ? () => add('cables', newCable) : undefined}>
+					<EditGroup title="Cables" onAdd={add('cables')}>
+						{addForm('cables')}
 						<PartTable
 							caption="Cables"
 							rows={draft.cables}
@@ -76,10 +87,8 @@ export function PartEditor({
 							rowFlag={(c) => (flagged.has(c.id) ? 'flag' : null)}
 						/>
 					</EditGroup>
-					<EditGroup
-						title="Battery banks"
-						onAdd={canEdit ? () => add('banks', newBank) : undefined}
-					>
+					<EditGroup title="Battery banks" onAdd={add('banks')}>
+						{addForm('banks')}
 						<PartTable
 							caption="Battery banks"
 							rows={draft.banks}
@@ -91,10 +100,8 @@ export function PartEditor({
 							onRemove={canEdit ? (i) => remove('banks', i) : undefined}
 						/>
 					</EditGroup>
-					<EditGroup
-						title="Alternators"
-						onAdd={canEdit ? () => add('alternators', newAlternator) : undefined}
-					>
+					<EditGroup title="Alternators" onAdd={add('alternators')}>
+						{addForm('alternators')}
 						<PartTable
 							caption="Alternators"
 							rows={draft.alternators}
@@ -106,10 +113,8 @@ export function PartEditor({
 							onRemove={canEdit ? (i) => remove('alternators', i) : undefined}
 						/>
 					</EditGroup>
-					<EditGroup
-						title="Amplifiers"
-						onAdd={canEdit ? () => add('amplifiers', newAmplifier) : undefined}
-					>
+					<EditGroup title="Amplifiers" onAdd={add('amplifiers')}>
+						{addForm('amplifiers')}
 						<PartTable
 							caption="Amplifiers"
 							rows={draft.amplifiers}
@@ -121,7 +126,8 @@ export function PartEditor({
 							onRemove={canEdit ? (i) => remove('amplifiers', i) : undefined}
 						/>
 					</EditGroup>
-					<EditGroup title="Steady loads" onAdd={canEdit ? () => add('loads', newLoad) : undefined}>
+					<EditGroup title="Steady loads" onAdd={add('loads')}>
+						{addForm('loads')}
 						<PartTable
 							caption="Steady loads"
 							rows={draft.loads}
@@ -133,7 +139,8 @@ export function PartEditor({
 							onRemove={canEdit ? (i) => remove('loads', i) : undefined}
 						/>
 					</EditGroup>
-					<EditGroup title="Nodes" onAdd={canEdit ? () => add('nodes', newNode) : undefined}>
+					<EditGroup title="Nodes" onAdd={add('nodes')}>
+						{addForm('nodes')}
 						<PartTable
 							caption="Nodes"
 							rows={draft.nodes}
@@ -170,7 +177,7 @@ function EditGroup({
 						onClick={onAdd}
 						className="rounded-md border border-hairline bg-card px-2 py-0.5 text-sm hover:border-copper"
 					>
-						+ Add
+						+ Add<span className="sr-only"> to {title.toLowerCase()}</span>
 					</button>
 				)}
 			</div>

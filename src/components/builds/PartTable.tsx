@@ -83,7 +83,7 @@ function NumberInput({
  * One field of one part. A component of its own (never a function made during a render), so
  * React keeps the same input across edits: typing, clearing and retyping keep focus and caret.
  */
-function PartCell<T extends { id: string; label: string }>({
+export function PartCell<T extends { id: string; label: string }>({
 	col,
 	part,
 	index: i,
@@ -91,6 +91,7 @@ function PartCell<T extends { id: string; label: string }>({
 	pathPrefix,
 	readOnly,
 	onChange,
+	labelPrefix = '',
 }: {
 	col: PartColumn<T>;
 	part: T;
@@ -99,10 +100,12 @@ function PartCell<T extends { id: string; label: string }>({
 	pathPrefix: string;
 	readOnly: boolean;
 	onChange: (index: number, next: T) => void;
+	/** Put before the field's accessible name where the same field shows twice (the inspector). */
+	labelPrefix?: string;
 }) {
 	const path = `${pathPrefix}.${i}.${typeof col.errorPath === 'function' ? col.errorPath(part) : col.errorPath}`;
 	const error = Object.entries(errors).find(([p]) => p === path || p.startsWith(`${path}.`))?.[1];
-	const label = `${part.label || part.id}: ${col.header}`;
+	const label = `${labelPrefix}${part.label || part.id}: ${col.header}`;
 	const c = col.cell;
 	let input: React.ReactNode;
 	if (c.kind === 'text') {

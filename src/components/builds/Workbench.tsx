@@ -1,4 +1,5 @@
 import { useMemo, useRef, useState } from 'react';
+import type { PartGroup } from '@/engine';
 import {
 	buildReport,
 	type BuildDocument,
@@ -7,16 +8,17 @@ import {
 	type Scenario,
 } from '@/engine';
 import { buildDocumentSchema } from '@/lib/schemas/build-document';
-import { partOfPath, type UnitSystem } from '@/lib/format';
+import { GROUP_NAMES, partOfPath, type UnitSystem } from '@/lib/format';
 import { FormMessage } from '@/components/ui/Field';
 import { AmplifiersSection } from './analysis/AmplifiersSection';
 import { BudgetSection } from './analysis/BudgetSection';
 import { BurpSection } from './analysis/BurpSection';
 import { CableChecksSection } from './analysis/CableChecksSection';
 import { Findings } from './analysis/Findings';
-import { Readouts } from './analysis/Readouts';
+import { SummaryStrip } from './analysis/SummaryStrip';
 import { ScenarioControls } from './analysis/ScenarioControls';
 import { UpgradeHintsSection } from './analysis/UpgradeHintsSection';
+import { Inspector, type Selection } from './Inspector';
 import { NetworkDiagram } from './NetworkDiagram';
 import { PartEditor } from './PartEditor';
 import { useDeferredAnalysis } from './use-deferred-analysis';
@@ -41,7 +43,18 @@ export interface WorkbenchProps {
 	onChange: (update: (d: BuildDocument) => BuildDocument) => void;
 	/** What the editing section is called ("Edit the build", "Edit the plan"). */
 	subject?: string;
+	/** The saved document the draft is compared with (before → after); none for a first revision. */
+	baseline?: BuildDocument | null;
 }
+
+const KIND_GROUP = {
+	cable: 'cables',
+	amplifier: 'amplifiers',
+	bank: 'banks',
+	alternator: 'alternators',
+	load: 'loads',
+	node: 'nodes',
+} as const;
 
 /**
  * The shared build editor and its live analysis: conditions, key figures, findings, the network,
@@ -55,13 +68,20 @@ export function Workbench({
 	canEdit,
 	onChange,
 	subject = 'build',
+	baseline = null,
 }: WorkbenchProps) {
 	const [scenario, setScenario] = useState<Scenario>(DEFAULT_SCENARIO);
+	const [selection, setSelection] = useState<Selection | null>(null);
 	const valid = Object.keys(errors).length === 0;
 	const report = useMemo(
 		() => (valid ? buildReport(draft, scenario, { burpRun: false, units }) : null),
 		[draft, scenario, valid, units],
 	);
+	const baseReport = useMemo(() => {
+		if (!baseline) return null;
+		const r = buildReport(baseline, scenario, { burpRun: false, units });
+		return r.ok ? r : null;
+	}, [baseline, scenario, units]);
 	// The heavy part (burp, upgrades) runs in the engine worker once typing pauses.
 	const { burp, hints } = useDeferredAnalysis(draft, scenario, valid);
 
@@ -105,7 +125,22 @@ export function Workbench({
 				)}
 			</div>
 
-			{ok && <Readouts report={ok} />}
+			{ok && (
+				<SummaryStrip
+					report={ok}
+					baseline={baseReport}
+					stale={stale}
+					partLabel={(w) => {
+						const group = KIND_GROUP[w.element.kind as keyof typeof KIND_GROUP];
+						const part = group
+							? (draft[group] as Array<{ id: string; label?: string }>).find(
+									(p) => p.id === w.element.id,
+								)
+							: undefined;
+						return part && group ? `${GROUP_NAMES[group]} “${part.label || part.id}”` : 'the build';
+					}}
+				/>
+			)}
 			{ok && <Findings warnings={ok.warnings} />}
 
 			<section aria-labelledby="diagram-heading">
@@ -113,8 +148,19 @@ export function Workbench({
 					The network
 				</h2>
 				<div className="mt-3">
-					<NetworkDiagram doc={draft} flagged={flagged} />
+					<NetworkDiagram
+						doc={draft}
+						flagged={flagged}
+						onSelect={(group, id) => setSelection({ group, id })}
+					/>
 				</div>
+				<PartLists
+					draft={draft}
+					flagged={flagged}
+					warned={ok?.warnings ?? []}
+					selected={selection}
+					onSelect={setSelection}
+				/>
 				<p className="mt-1 text-xs text-ink-soft">
 					Copper: supply side. Slate: ground side. Dashed red: a cable with a finding. Dashed links:
 					banks, alternators, amplifiers and loads between their terminals.
@@ -147,6 +193,19 @@ export function Workbench({
 			)}
 			{ok && <UpgradeHintsSection hints={hints} />}
 
+			{selection && (
+				<Inspector
+					selection={selection}
+					draft={draft}
+					report={ok}
+					errors={errors}
+					units={units}
+					canEdit={canEdit}
+					onChange={onChange}
+					onClose={() => setSelection(null)}
+				/>
+			)}
+
 			<PartEditor
 				draft={draft}
 				errors={errors}
@@ -157,5 +216,68 @@ export function Workbench({
 				flagged={flagged}
 			/>
 		</>
+	);
+}
+
+const LIST_GROUPS: Array<[PartGroup, string]> = [
+	['cables', 'cable'],
+	['amplifiers', 'amplifier'],
+	['banks', 'bank'],
+	['alternators', 'alternator'],
+	['loads', 'load'],
+];
+
+/** Every part as a button, by group, marked when it has a finding: the way into the inspector. */
+function PartLists({
+	draft,
+	warned,
+	selected,
+	onSelect,
+}: {
+	draft: BuildDocument;
+	flagged: Set<string>;
+	warned: Array<{ element: { kind: string; id: string }; severity: string }>;
+	selected: Selection | null;
+	onSelect: (s: Selection) => void;
+}) {
+	const worst = (kind: string, id: string) => {
+		const ws = warned.filter((w) => w.element.kind === kind && w.element.id === id);
+		return ws.some((w) => w.severity === 'danger')
+			? 'danger'
+			: ws.some((w) => w.severity === 'warning')
+				? 'warning'
+				: null;
+	};
+	return (
+		<nav aria-label="Parts of the build" className="mt-3 flex flex-col gap-2 text-sm">
+			{LIST_GROUPS.filter(([g]) => draft[g].length > 0).map(([group, kind]) => (
+				<div key={group} className="flex flex-wrap items-center gap-1.5">
+					<span className="w-24 shrink-0 text-xs font-semibold text-ink-soft uppercase">
+						{GROUP_NAMES[group]}s
+					</span>
+					{(draft[group] as Array<{ id: string; label: string }>).map((p) => {
+						const w = worst(kind, p.id);
+						const on = selected?.group === group && selected.id === p.id;
+						return (
+							<button
+								key={p.id}
+								type="button"
+								aria-pressed={on}
+								onClick={() => onSelect({ group, id: p.id })}
+								className={`max-w-full truncate rounded-md border px-2 py-0.5 ${on ? 'border-copper bg-copper-tint' : 'border-hairline bg-card hover:border-copper'}`}
+							>
+								{w && (
+									<span className={w === 'danger' ? 'text-brick' : 'text-amber-text'}>
+										{w === 'danger' ? '✕ ' : '! '}
+										<span className="sr-only">{w === 'danger' ? 'danger: ' : 'warning: '}</span>
+									</span>
+								)}
+								{p.label || p.id}
+							</button>
+						);
+					})}
+				</div>
+			))}
+		</nav>
 	);
 }

@@ -60,14 +60,18 @@ export function toBurpChartData(
 	const step = Math.max(1, Math.ceil(run.timeS.length / 200));
 	const pick = <T>(xs: T[]) => xs.filter((_, i) => i % step === 0 || i === xs.length - 1);
 	const labels = pick(run.timeS).map((t) => t.toFixed(1));
-	const banks = Object.entries(run.bankV).map(([id, volts], i) => ({
-		label: `${bankLabels[id] ?? id} (V)`,
-		data: pick(volts),
-		borderColor: i % 2 ? 'rgba(19,124,130,0.6)' : CHART_COLOURS.teal,
-		backgroundColor: CHART_COLOURS.teal,
-		pointRadius: 0,
-		borderWidth: 1.5,
-	}));
+	const banks = Object.entries(run.bankV).map(([id, volts], i) => {
+		const look = BANK_LINES[i % BANK_LINES.length]!;
+		return {
+			label: `${bankLabels[id] ?? id} (V)`,
+			data: pick(volts),
+			borderColor: look.colour,
+			backgroundColor: look.colour,
+			borderDash: look.dash,
+			pointRadius: 0,
+			borderWidth: 1.5,
+		};
+	});
 	const datasets = [
 		{
 			label: 'Lowest amplifier (V)',
@@ -90,5 +94,16 @@ export function toBurpChartData(
 			borderDash: [6, 4],
 		} as never);
 	}
-	return { labels, datasets };
+	// Volts sit far from zero: the axis starts a little below the lowest line, and says so.
+	const lowest = Math.min(...datasets.flatMap((d) => d.data as number[]).filter(Number.isFinite));
+	const yMin = Number.isFinite(lowest) ? Math.max(0, Math.floor(lowest - 0.5)) : 0;
+	return { labels, datasets, yMin };
 }
+
+/** Each bank's line: its own colour and dash, so two banks never look alike (nor rely on hue). */
+const BANK_LINES = [
+	{ colour: CHART_COLOURS.teal, dash: [] as number[] },
+	{ colour: CHART_COLOURS.ink, dash: [6, 3] },
+	{ colour: CHART_COLOURS.soft, dash: [2, 3] },
+	{ colour: CHART_COLOURS.brick, dash: [10, 3, 2, 3] },
+];

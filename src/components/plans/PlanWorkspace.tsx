@@ -489,6 +489,7 @@ function PlanWorkspaceView({
 				units={units}
 				canEdit={canEdit}
 				subject="plan"
+				baseline={baseDocument}
 				onChange={(next) => setDraft(next)}
 			/>
 		</div>

@@ -1,4 +1,10 @@
-import type { BuildDocument, CableReport, ReportWarning } from '@/engine';
+import {
+	type BuildDocument,
+	type Cable,
+	type CableReport,
+	MATERIAL_PROPS,
+	type ReportWarning,
+} from '@/engine';
 import { fmt, lengthUnit, toLengthDisplay, type UnitSystem } from '@/lib/format';
 import { WarningList } from './Findings';
 import { type ResultColumn, ResultTable, Unit } from './ResultTable';
@@ -10,6 +16,17 @@ function fuseAdvice(c: CableReport) {
 	if (c.fuseAdvice.status === 'cable_too_small')
 		return <span className="text-brick">✕ cable too small</span>;
 	return 'capacity unknown';
+}
+
+/** A cable's size, metal and length as a person reads them: "1/0 AWG, CCA (10 % Cu), 16.0 ft". */
+function sizeText(c: Cable, units: UnitSystem): string {
+	const size =
+		c.size.kind === 'awg'
+			? `${c.size.awg} AWG`
+			: `${fmt(c.size.kind === 'mm2' ? c.size.mm2 : c.size.areaMm2, 1)} mm²`;
+	const runs = c.parallelRuns > 1 ? ` × ${c.parallelRuns}` : '';
+	const length = fmt(toLengthDisplay(c.lengthM, units), units === 'imperial' ? 1 : 2);
+	return `${size}${runs}, ${MATERIAL_PROPS[c.material].label}, ${length} ${lengthUnit(units)}`;
 }
 
 /** Every cable under the burp: current, drop, loss, size against the rule, capacity, fuse advice, findings. */
@@ -34,6 +51,19 @@ export function CableChecksSection({
 			numeric: false,
 			tone: () => 'font-semibold',
 			cell: (c) => c.label,
+		},
+		{
+			key: 'size',
+			header: 'Size, metal, length',
+			numeric: false,
+			cell: (c) => {
+				const cable = draft.cables.find((x) => x.id === c.id);
+				return cable ? (
+					<span className="whitespace-nowrap text-ink-soft">{sizeText(cable, units)}</span>
+				) : (
+					'—'
+				);
+			},
 		},
 		{
 			key: 'current',

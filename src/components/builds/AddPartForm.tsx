@@ -1,0 +1,268 @@
+import { useId, useState } from 'react';
+import {
+	type BuildDocument,
+	type BuildNode,
+	type Cable,
+	NODE_KINDS,
+	type NodeKind,
+	type PartGroup,
+} from '@/engine';
+import { GROUP_NAMES } from '@/lib/format';
+import { Button, Field } from '@/components/ui/Field';
+import {
+	freshId,
+	newAlternator,
+	newAmplifier,
+	newBank,
+	newCable,
+	newLoad,
+	newNode,
+} from './new-parts';
+
+const NEW = '__new__';
+
+type Terminal = { key: 'from' | 'to' | 'positive' | 'negative'; label: string };
+const TERMINALS: Record<Exclude<PartGroup, 'nodes'>, Terminal[]> = {
+	cables: [
+		{ key: 'from', label: 'From node' },
+		{ key: 'to', label: 'To node' },
+	],
+	banks: [
+		{ key: 'positive', label: 'Positive terminal' },
+		{ key: 'negative', label: 'Negative terminal' },
+	],
+	alternators: [
+		{ key: 'positive', label: 'Output (B+)' },
+		{ key: 'negative', label: 'Case ground' },
+	],
+	amplifiers: [
+		{ key: 'positive', label: 'Power input (+)' },
+		{ key: 'negative', label: 'Ground input (−)' },
+	],
+	loads: [
+		{ key: 'positive', label: 'Fed from' },
+		{ key: 'negative', label: 'Returns to' },
+	],
+};
+
+/** The kind a node made for a part's terminal gets. */
+const NEW_NODE_KIND: Record<Exclude<PartGroup, 'nodes'>, NodeKind> = {
+	cables: 'block',
+	banks: 'battery',
+	alternators: 'alternator',
+	amplifiers: 'amplifier',
+	loads: 'block',
+};
+
+const MAKE = {
+	cables: newCable,
+	banks: newBank,
+	alternators: newAlternator,
+	amplifiers: newAmplifier,
+	loads: newLoad,
+} as const;
+
+const byKind = (d: BuildDocument, kind: NodeKind) => d.nodes.find((n) => n.kind === kind)?.id;
+
+/** Where a new part most likely connects: its suggestion for each terminal. */
+function suggest(d: BuildDocument, group: Exclude<PartGroup, 'nodes'>): Record<string, string> {
+	const chassis = byKind(d, 'chassis') ?? d.nodes[0]?.id ?? NEW;
+	const battery = byKind(d, 'battery') ?? d.nodes[0]?.id ?? NEW;
+	switch (group) {
+		case 'cables': {
+			const wired = new Set(d.cables.flatMap((c) => [c.from, c.to]));
+			const loose = d.nodes.find((n) => !wired.has(n.id) && n.id !== battery)?.id;
+			return { from: battery, to: loose ?? byKind(d, 'block') ?? NEW };
+		}
+		case 'banks':
+			return { positive: NEW, negative: chassis };
+		case 'alternators':
+			return {
+				positive: byKind(d, 'alternator') ?? NEW,
+				negative: byKind(d, 'junction') ?? chassis,
+			};
+		case 'amplifiers':
+			return { positive: NEW, negative: NEW };
+		case 'loads':
+			return { positive: battery, negative: chassis };
+	}
+}
+
+/**
+ * Adds a part by asking where it goes: its name and the node at each terminal, with suggestions
+ * (a new amplifier gets terminals of its own, and its feed and ground cables if the member wants
+ * them), so nothing is wired silently to another part's terminals.
+ */
+export function AddPartForm({
+	group,
+	draft,
+	onAdd,
+	onCancel,
+}: {
+	group: PartGroup;
+	draft: BuildDocument;
+	onAdd: (change: (d: BuildDocument) => BuildDocument) => void;
+	onCancel: () => void;
+}) {
+	const id = useId();
+	const noun = GROUP_NAMES[group].toLowerCase();
+	const [label, setLabel] = useState(
+		() => `${GROUP_NAMES[group]} ${(draft[group] as unknown[]).length + 1}`,
+	);
+	const [kind, setKind] = useState<NodeKind>('block');
+	const [ends, setEnds] = useState<Record<string, string>>(() =>
+		group === 'nodes' ? {} : suggest(draft, group),
+	);
+	const [wire, setWire] = useState(group === 'amplifiers');
+	const [feedFrom, setFeedFrom] = useState(
+		() => byKind(draft, 'block') ?? byKind(draft, 'battery') ?? draft.nodes[0]?.id ?? '',
+	);
+	const [error, setError] = useState<string | undefined>();
+
+	function submit(e: React.FormEvent) {
+		e.preventDefault();
+		const name = label.trim();
+		if (!name) return setError(`Name the ${noun}`);
+		if (group !== 'nodes') {
+			const [a, b] = TERMINALS[group].map((t) => ends[t.key]);
+			if (a !== NEW && a === b) return setError('The two ends must be different nodes');
+		}
+		onAdd((d) => {
+			if (group === 'nodes')
+				return { ...d, nodes: [...d.nodes, { ...newNode(d), label: name, kind }] };
+			const nodes: BuildNode[] = [...d.nodes];
+			const at: Record<string, string> = {};
+			for (const t of TERMINALS[group]) {
+				if (ends[t.key] !== NEW) {
+					at[t.key] = ends[t.key]!;
+					continue;
+				}
+				const sign = t.key === 'negative' || t.key === 'to' ? '−' : '+';
+				const node: BuildNode = {
+					id: freshId({ ...d, nodes }, 'node'),
+					label: group === 'cables' ? `${name} end` : `${name} ${sign}`,
+					kind: t.key === 'negative' && group !== 'amplifiers' ? 'block' : NEW_NODE_KIND[group],
+				};
+				nodes.push(node);
+				at[t.key] = node.id;
+			}
+			const withNodes = { ...d, nodes };
+			const part = { ...MAKE[group](withNodes), label: name, ...at };
+			const next = { ...withNodes, [group]: [...withNodes[group], part] } as BuildDocument;
+			if (group !== 'amplifiers' || !wire) return next;
+			const chassis = byKind(next, 'chassis');
+			const extra: Cable[] = [];
+			if (feedFrom && feedFrom !== at.positive)
+				extra.push({
+					...newCable(next),
+					id: freshId(next, 'cable'),
+					label: `${name} feed`,
+					from: feedFrom,
+					to: at.positive!,
+				});
+			const withFeed = { ...next, cables: [...next.cables, ...extra] };
+			if (chassis && chassis !== at.negative)
+				withFeed.cables.push({
+					...newCable(withFeed),
+					id: freshId(withFeed, 'cable'),
+					label: `${name} ground`,
+					from: at.negative!,
+					to: chassis,
+				});
+			return withFeed;
+		});
+	}
+
+	const nodeSelect = (key: string, label: string, allowNew = true) => (
+		<div key={key} className="flex min-w-0 flex-col gap-1">
+			<label htmlFor={`${id}-${key}`} className="text-sm font-semibold">
+				{label}
+			</label>
+			<select
+				id={`${id}-${key}`}
+				value={ends[key] ?? ''}
+				onChange={(e) => setEnds((x) => ({ ...x, [key]: e.target.value }))}
+				className="w-full min-w-0 rounded-md border border-hairline bg-card px-3 py-2"
+			>
+				{allowNew && <option value={NEW}>A new node for it</option>}
+				{draft.nodes.map((n) => (
+					<option key={n.id} value={n.id}>
+						{n.label || n.id}
+					</option>
+				))}
+			</select>
+		</div>
+	);
+
+	return (
+		<form
+			onSubmit={submit}
+			aria-label={`Add ${noun === 'steady load' ? 'a steady load' : `a ${noun}`}`}
+			className="mb-3 flex flex-col gap-3 rounded-md border border-copper/50 bg-copper-tint/30 p-3"
+		>
+			<div className="grid grid-cols-1 gap-3 sm:grid-cols-3">
+				<Field
+					label="Name"
+					value={label}
+					onChange={(e) => {
+						setLabel(e.target.value);
+						setError(undefined);
+					}}
+					error={error}
+					autoFocus
+				/>
+				{group === 'nodes' ? (
+					<div className="flex min-w-0 flex-col gap-1">
+						<label htmlFor={`${id}-kind`} className="text-sm font-semibold">
+							Kind
+						</label>
+						<select
+							id={`${id}-kind`}
+							value={kind}
+							onChange={(e) => setKind(e.target.value as NodeKind)}
+							className="w-full rounded-md border border-hairline bg-card px-3 py-2"
+						>
+							{NODE_KINDS.map((k) => (
+								<option key={k} value={k}>
+									{k}
+								</option>
+							))}
+						</select>
+					</div>
+				) : (
+					TERMINALS[group].map((t) => nodeSelect(t.key, t.label))
+				)}
+			</div>
+			{group === 'amplifiers' && (
+				<div className="flex flex-wrap items-end gap-3 text-sm">
+					<label className="flex items-center gap-2">
+						<input type="checkbox" checked={wire} onChange={(e) => setWire(e.target.checked)} />
+						Also add its feed cable from
+					</label>
+					<select
+						aria-label="Feed the amplifier from"
+						value={feedFrom}
+						disabled={!wire}
+						onChange={(e) => setFeedFrom(e.target.value)}
+						className="min-w-0 rounded-md border border-hairline bg-card px-2 py-1"
+					>
+						{draft.nodes.map((n) => (
+							<option key={n.id} value={n.id}>
+								{n.label || n.id}
+							</option>
+						))}
+					</select>
+					<span className="text-ink-soft">
+						and its ground to the chassis (set gauge and length in the cables)
+					</span>
+				</div>
+			)}
+			<div className="flex flex-wrap gap-2">
+				<Button type="submit">Add the {noun}</Button>
+				<Button type="button" variant="secondary" onClick={onCancel}>
+					Cancel
+				</Button>
+			</div>
+		</form>
+	);
+}

@@ -1,0 +1,217 @@
+import { useEffect, useRef } from 'react';
+import type { BuildDocument, BuildReport, PartGroup, ReportWarning } from '@/engine';
+import { fmt, GROUP_NAMES, lengthUnit, toLengthDisplay, type UnitSystem } from '@/lib/format';
+import { Button } from '@/components/ui/Field';
+import {
+	alternatorColumns,
+	amplifierColumns,
+	bankColumns,
+	cableColumns,
+	loadColumns,
+	nodeColumns,
+} from './editor-columns';
+import { WarningList } from './analysis/Findings';
+import { type PartColumn, PartCell } from './PartTable';
+
+type Ok = Extract<BuildReport, { ok: true }>;
+export interface Selection {
+	group: PartGroup;
+	id: string;
+}
+
+const ELEMENT_KIND: Partial<Record<PartGroup, string>> = {
+	cables: 'cable',
+	amplifiers: 'amplifier',
+	banks: 'bank',
+	alternators: 'alternator',
+	loads: 'load',
+};
+
+/** The part's own computed figures, in words and units. */
+function figuresOf(sel: Selection, report: Ok, doc: BuildDocument, units: UnitSystem) {
+	const rows: Array<[string, string]> = [];
+	if (sel.group === 'cables') {
+		const c = report.cables.find((x) => x.id === sel.id);
+		const cable = doc.cables.find((x) => x.id === sel.id);
+		if (!c || !cable) return rows;
+		rows.push(
+			['Current under burp', `${fmt(Math.abs(c.burp.currentA), 0)} A`],
+			['Drop under burp', `${fmt(Math.abs(c.burp.dropV), 3)} V`],
+			['Loss under burp', `${fmt(c.burp.lossW, 0)} W`],
+			[
+				'Circular mils per amp',
+				`${Number.isFinite(c.cmilPerAmp) ? fmt(c.cmilPerAmp, 0) : '—'} (rule ${fmt(c.requiredCmilPerAmp, 0)})`,
+			],
+			['Carries (capacity)', c.ampacity ? `${fmt(c.ampacity.currentA, 0)} A` : 'unknown'],
+			[
+				'Fuse advice',
+				c.fuseAdvice === null
+					? 'ground side: no fuse'
+					: c.fuseAdvice.status === 'ok'
+						? `${c.fuseAdvice.recommendedA} A (at most ${fmt(c.fuseAdvice.maxA, 0)} A)`
+						: c.fuseAdvice.status === 'cable_too_small'
+							? 'the cable is too small for its current'
+							: 'capacity unknown',
+			],
+			[
+				'Length',
+				`${fmt(toLengthDisplay(cable.lengthM, units), units === 'imperial' ? 1 : 2)} ${lengthUnit(units)}`,
+			],
+		);
+	} else if (sel.group === 'amplifiers') {
+		const a = report.amplifiers.find((x) => x.id === sel.id);
+		if (!a) return rows;
+		rows.push(
+			['Terminal voltage, burp', `${fmt(a.burpTerminalV)} V`],
+			['Terminal voltage, music', `${fmt(a.sustainedTerminalV)} V`],
+			['Current, burp', `${fmt(a.burpCurrentA, 0)} A`],
+			['Output, burp', `${fmt(a.burpOutputW, 0)} W (${fmt(a.burpOutputLossDb)} dB)`],
+			['Drop from the strongest source', `${fmt(a.burpDropV)} V`],
+			['Output model', a.outputModel === 'regulated' ? 'regulated' : 'unregulated, (V/V_rated)²'],
+		);
+	} else if (sel.group === 'banks') {
+		const b = report.banks.find((x) => x.id === sel.id);
+		if (!b) return rows;
+		rows.push(
+			['Open-circuit voltage', `${fmt(b.ocvV)} V`],
+			['Internal resistance', `${fmt(b.resistanceOhm * 1000, 2)} mΩ`],
+			['Capacity', `${fmt(b.capacityAh, 0)} Ah`],
+			['Current, burp', `${fmt(b.burpCurrentA, 0)} A out`],
+			[
+				'Current, music',
+				b.sustainedCurrentA >= 0
+					? `${fmt(b.sustainedCurrentA, 0)} A out`
+					: `${fmt(-b.sustainedCurrentA, 0)} A in`,
+			],
+			['Charge acceptance', `${fmt(b.chargeAcceptanceA, 0)} A`],
+		);
+	} else if (sel.group === 'alternators') {
+		const a = report.alternators.find((x) => x.id === sel.id);
+		if (!a) return rows;
+		rows.push(
+			['Output limit at this engine speed', `${fmt(a.limitA, 0)} A`],
+			['Current, burp', `${fmt(a.burpCurrentA, 0)} A (${a.burpMode})`],
+			['Current, music', `${fmt(a.sustainedCurrentA, 0)} A`],
+		);
+	}
+	return rows;
+}
+
+/**
+ * One part, opened from the diagram or the part lists: its fields in words and units, its own
+ * computed figures and its findings. A side panel on wide screens, a sheet from the bottom on
+ * phones; Escape closes it and the focus goes back where it was.
+ */
+export function Inspector({
+	selection,
+	draft,
+	report,
+	errors,
+	units,
+	canEdit,
+	onChange,
+	onClose,
+}: {
+	selection: Selection;
+	draft: BuildDocument;
+	report: Ok | null;
+	errors: Record<string, string>;
+	units: UnitSystem;
+	canEdit: boolean;
+	onChange: (update: (d: BuildDocument) => BuildDocument) => void;
+	onClose: () => void;
+}) {
+	const { group, id } = selection;
+	const index = (draft[group] as Array<{ id: string }>).findIndex((p) => p.id === id);
+	const part = (draft[group] as Array<{ id: string; label: string }>)[index];
+	const panel = useRef<HTMLElement>(null);
+	useEffect(() => {
+		const back = document.activeElement as HTMLElement | null;
+		panel.current?.querySelector<HTMLElement>('input, select, button')?.focus();
+		const onKey = (e: KeyboardEvent) => e.key === 'Escape' && onClose();
+		window.addEventListener('keydown', onKey);
+		return () => {
+			window.removeEventListener('keydown', onKey);
+			back?.focus?.();
+		};
+		// eslint-disable-next-line react-hooks/exhaustive-deps -- once per part opened
+	}, [group, id]);
+	if (!part) return null;
+	const nodeOptions = draft.nodes.map((n) => ({ value: n.id, label: n.label || n.id }));
+	const columns = (
+		{
+			cables: cableColumns(nodeOptions, units),
+			banks: bankColumns(nodeOptions),
+			alternators: alternatorColumns(nodeOptions),
+			amplifiers: amplifierColumns(nodeOptions),
+			loads: loadColumns(nodeOptions),
+			nodes: nodeColumns(),
+		} as unknown as Record<PartGroup, PartColumn<{ id: string; label: string }>[]>
+	)[group];
+	const kind = ELEMENT_KIND[group];
+	const findings: ReportWarning[] = report
+		? report.warnings.filter((w) => w.element.kind === kind && w.element.id === id)
+		: [];
+	const figures = report ? figuresOf(selection, report, draft, units) : [];
+	return (
+		<aside
+			ref={panel}
+			aria-label={`${GROUP_NAMES[group]} “${part.label || part.id}”`}
+			className="fixed inset-x-0 bottom-0 z-40 max-h-[70vh] overflow-y-auto rounded-t-xl border-t-2 border-copper bg-card p-4 shadow-2xl lg:inset-x-auto lg:top-0 lg:right-0 lg:bottom-0 lg:max-h-none lg:w-96 lg:rounded-none lg:border-t-0 lg:border-l-2"
+			data-inspector
+		>
+			<div className="flex items-start gap-2">
+				<div className="min-w-0 flex-1">
+					<p className="text-xs font-semibold tracking-wide text-copper-dark uppercase">
+						{GROUP_NAMES[group]}
+					</p>
+					<h2 className="text-lg font-bold break-words">{part.label || part.id}</h2>
+				</div>
+				<Button type="button" variant="secondary" className="px-2 py-1 text-xs" onClick={onClose}>
+					Close
+				</Button>
+			</div>
+			{figures.length > 0 && (
+				<dl className="mt-3 grid grid-cols-2 gap-x-3 gap-y-1 rounded-md bg-paper p-2 text-sm">
+					{figures.map(([k, v]) => (
+						<div key={k} className="min-w-0">
+							<dt className="text-xs text-ink-soft">{k}</dt>
+							<dd className="num font-semibold break-words">{v}</dd>
+						</div>
+					))}
+				</dl>
+			)}
+			{findings.length > 0 && (
+				<div className="mt-3">
+					<h3 className="text-sm font-semibold">Findings</h3>
+					<WarningList warnings={findings} />
+				</div>
+			)}
+			<div className="mt-3 flex flex-col gap-2">
+				{columns.map((col) => (
+					<div key={col.id} className="grid grid-cols-[8rem_1fr] items-start gap-2 text-sm">
+						<span className="pt-1 text-ink-soft">
+							{col.header}
+							{col.unit && ` (${col.unit})`}
+						</span>
+						<PartCell
+							col={col}
+							part={part}
+							index={index}
+							errors={errors}
+							pathPrefix={group}
+							readOnly={!canEdit}
+							labelPrefix="Inspector · "
+							onChange={(i, next) =>
+								onChange((d) => ({
+									...d,
+									[group]: (d[group] as unknown[]).map((x, j) => (j === i ? next : x)),
+								}))
+							}
+						/>
+					</div>
+				))}
+			</div>
+		</aside>
+	);
+}

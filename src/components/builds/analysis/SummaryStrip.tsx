@@ -1,0 +1,218 @@
+import {
+	type BuildReport,
+	headlineFigures as headline,
+	type HeadlineFigures,
+	type ReportWarning,
+} from '@/engine';
+import { fmt } from '@/lib/format';
+
+type Ok = Extract<BuildReport, { ok: true }>;
+
+interface Figure {
+	key: string;
+	label: string;
+	unit: string;
+	digits: number;
+	/** Which way is better: up (more volts) or down (less loss). */
+	better: 'up' | 'down';
+	value: (h: HeadlineFigures) => number | null;
+	show?: (x: number) => string;
+}
+
+const FIGURES: Figure[] = [
+	{
+		key: 'settle',
+		label: 'Settles at, burp',
+		unit: 'V',
+		digits: 2,
+		better: 'up',
+		value: (h) => h.settleV,
+	},
+	{
+		key: 'lowest',
+		label: 'Lowest amplifier',
+		unit: 'V',
+		digits: 2,
+		better: 'up',
+		value: (h) => h.lowestAmpV,
+	},
+	{
+		key: 'loss',
+		label: 'Worst output loss',
+		unit: 'dB',
+		digits: 2,
+		better: 'up',
+		value: (h) => h.worstLossDb,
+	},
+	{
+		key: 'alt',
+		label: 'Alternators carry',
+		unit: '%',
+		digits: 0,
+		better: 'up',
+		value: (h) => h.alternatorShare * 100,
+	},
+	{
+		key: 'bank',
+		label: 'Banks in music',
+		unit: 'A',
+		digits: 0,
+		better: 'down',
+		value: (h) => h.bankCurrentA,
+		show: (x) => (x > 0.5 ? `${fmt(x, 0)} out` : `${fmt(-x, 0)} in`),
+	},
+	{
+		key: 'cable',
+		label: 'Cable loss, burp',
+		unit: 'W',
+		digits: 0,
+		better: 'down',
+		value: (h) => h.cableLossW,
+	},
+];
+
+const findingKey = (w: ReportWarning) => `${w.code}|${w.element.kind}|${w.element.id}`;
+
+/**
+ * The figures that matter, kept in view while editing anywhere on the page: each with its change
+ * against the saved revision (before → after, better or worse in words and colour), and the
+ * findings the change brought, next to the part that has them.
+ */
+export function SummaryStrip({
+	report,
+	baseline,
+	stale,
+	partLabel,
+}: {
+	report: Ok;
+	/** The saved revision's report (null for a first revision or one that cannot be solved). */
+	baseline: Ok | null;
+	stale: boolean;
+	/** A part's name for a finding's element, as the editor shows it. */
+	partLabel: (w: ReportWarning) => string;
+}) {
+	const now = headline(report);
+	const before = baseline ? headline(baseline) : null;
+	const beforeKeys = new Set(baseline?.warnings.map(findingKey) ?? []);
+	const added = baseline
+		? report.warnings.filter((w) => w.severity !== 'info' && !beforeKeys.has(findingKey(w)))
+		: [];
+	const nowKeys = new Set(report.warnings.map(findingKey));
+	const cleared = baseline
+		? baseline.warnings.filter((w) => w.severity !== 'info' && !nowKeys.has(findingKey(w)))
+		: [];
+	return (
+		<section
+			aria-label="Summary of the draft"
+			className={`sticky top-0 z-30 -mx-gutter border-b border-hairline bg-paper/95 px-gutter py-2 backdrop-blur ${stale ? 'opacity-70' : ''}`}
+			data-summary
+		>
+			<div className="grid grid-cols-3 gap-x-3 gap-y-1 sm:grid-cols-4 lg:grid-cols-7">
+				{FIGURES.map((f) => {
+					const a = f.value(now);
+					const b = before ? f.value(before) : null;
+					return (
+						<Cell
+							key={f.key}
+							figure={f}
+							after={now.collapse && f.unit === 'V' ? null : a}
+							before={before && !(before.collapse && f.unit === 'V') ? b : null}
+							collapse={now.collapse && f.unit === 'V'}
+						/>
+					);
+				})}
+				<div className="min-w-0" data-figure="findings">
+					<p className="truncate text-[11px] font-semibold tracking-wide text-ink-soft uppercase">
+						Findings
+					</p>
+					<p className="num text-sm font-semibold">
+						<span className={now.findings.danger ? 'text-brick' : ''}>
+							{now.findings.danger} danger
+						</span>{' '}
+						·{' '}
+						<span className={now.findings.warning ? 'text-amber-text' : ''}>
+							{now.findings.warning} warn
+						</span>
+					</p>
+					<p className="num h-4 text-[11px] leading-4 text-ink-soft">
+						{before &&
+						(before.findings.danger !== now.findings.danger ||
+							before.findings.warning !== now.findings.warning)
+							? `was ${before.findings.danger} · ${before.findings.warning}`
+							: ''}
+					</p>
+				</div>
+			</div>
+			{/* One line, always there: what it says changes, its height never does, so nothing below moves. */}
+			<p className="mt-1 h-4 truncate text-xs leading-4" aria-label="What the change did">
+				{stale ? (
+					<span className="font-semibold text-amber-text" role="status">
+						Out of date: these are the last figures that could be computed.
+					</span>
+				) : added.length > 0 ? (
+					<span className="text-brick" data-finding="new">
+						<span aria-hidden="true">✕ </span>New on {partLabel(added[0]!)}: {added[0]!.message}
+						{added.length > 1 && ` (and ${added.length - 1} more)`}
+					</span>
+				) : cleared.length > 0 ? (
+					<span className="text-teal" data-finding="cleared">
+						<span aria-hidden="true">✓ </span>Cleared on {partLabel(cleared[0]!)}:{' '}
+						{cleared[0]!.message}
+						{cleared.length > 1 && ` (and ${cleared.length - 1} more)`}
+					</span>
+				) : (
+					<span className="text-ink-soft">
+						{baseline ? 'Against the saved revision: no finding added or cleared.' : '\u00a0'}
+					</span>
+				)}
+			</p>
+		</section>
+	);
+}
+
+function Cell({
+	figure: f,
+	after,
+	before,
+	collapse,
+}: {
+	figure: Figure;
+	after: number | null;
+	before: number | null;
+	collapse: boolean;
+}) {
+	const show = (x: number) => (f.show ? f.show(x) : fmt(x, f.digits));
+	const changed =
+		after !== null && before !== null && show(after) !== show(before) ? after - before : null;
+	const better = changed !== null && (f.better === 'up' ? changed > 0 : changed < 0);
+	return (
+		<div className="min-w-0" data-figure={f.key}>
+			<p className="truncate text-[11px] font-semibold tracking-wide text-ink-soft uppercase">
+				{f.label}
+			</p>
+			<p className="num text-sm font-semibold whitespace-nowrap">
+				{collapse ? (
+					<span className="text-brick">collapse</span>
+				) : after === null ? (
+					'—'
+				) : (
+					<>
+						{show(after)} <span className="text-xs font-normal text-ink-soft">{f.unit}</span>
+					</>
+				)}
+			</p>
+			{changed !== null && before !== null ? (
+				<p
+					className={`num h-4 text-[11px] leading-4 whitespace-nowrap ${better ? 'text-teal' : 'text-brick'}`}
+					data-change={better ? 'better' : 'worse'}
+				>
+					{show(before)} → {show(after!)}{' '}
+					<span className="sr-only">{better ? 'better' : 'worse'}</span>
+					<span aria-hidden="true">{better ? '▲' : '▼'}</span>
+				</p>
+			) : (
+				<p className="h-4" aria-hidden="true" />
+			)}
+		</div>
+	);
+}
