@@ -1,4 +1,4 @@
-import { useState } from 'react';
+import { useMemo, useState } from 'react';
 import type { BuildDocument, PartGroup } from '@/engine';
 import type { UnitSystem } from '@/lib/format';
 import { useHydrated } from '@/lib/client/use-hydrated';
@@ -32,7 +32,20 @@ export function PartEditor({
 	flagged: Set<string>;
 }) {
 	const hydrated = useHydrated();
-	const nodeOptions = draft.nodes.map((n) => ({ value: n.id, label: n.label || n.id }));
+	// Columns stay the same objects while the nodes and units do, so unchanged rows skip rendering.
+	const nodesKey = draft.nodes.map((n) => `${n.id}\u0000${n.label}`).join('\u0001');
+	const cols = useMemo(() => {
+		const nodeOptions = draft.nodes.map((n) => ({ value: n.id, label: n.label || n.id }));
+		return {
+			cables: cableColumns(nodeOptions, units),
+			banks: bankColumns(nodeOptions),
+			alternators: alternatorColumns(nodeOptions),
+			amplifiers: amplifierColumns(nodeOptions),
+			loads: loadColumns(nodeOptions),
+			nodes: nodeColumns(),
+		};
+		// eslint-disable-next-line react-hooks/exhaustive-deps -- nodesKey stands for draft.nodes
+	}, [nodesKey, units]);
 	function update<G extends PartGroup>(group: G, index: number, next: BuildDocument[G][number]) {
 		onChange((d) => ({ ...d, [group]: d[group].map((x, i) => (i === index ? next : x)) }));
 	}
@@ -78,7 +91,7 @@ export function PartEditor({
 						<PartTable
 							caption="Cables"
 							rows={draft.cables}
-							columns={cableColumns(nodeOptions, units)}
+							columns={cols.cables}
 							pathPrefix="cables"
 							errors={errors}
 							readOnly={!canEdit}
@@ -92,7 +105,7 @@ export function PartEditor({
 						<PartTable
 							caption="Battery banks"
 							rows={draft.banks}
-							columns={bankColumns(nodeOptions)}
+							columns={cols.banks}
 							pathPrefix="banks"
 							errors={errors}
 							readOnly={!canEdit}
@@ -105,7 +118,7 @@ export function PartEditor({
 						<PartTable
 							caption="Alternators"
 							rows={draft.alternators}
-							columns={alternatorColumns(nodeOptions)}
+							columns={cols.alternators}
 							pathPrefix="alternators"
 							errors={errors}
 							readOnly={!canEdit}
@@ -118,7 +131,7 @@ export function PartEditor({
 						<PartTable
 							caption="Amplifiers"
 							rows={draft.amplifiers}
-							columns={amplifierColumns(nodeOptions)}
+							columns={cols.amplifiers}
 							pathPrefix="amplifiers"
 							errors={errors}
 							readOnly={!canEdit}
@@ -131,7 +144,7 @@ export function PartEditor({
 						<PartTable
 							caption="Steady loads"
 							rows={draft.loads}
-							columns={loadColumns(nodeOptions)}
+							columns={cols.loads}
 							pathPrefix="loads"
 							errors={errors}
 							readOnly={!canEdit}
@@ -144,7 +157,7 @@ export function PartEditor({
 						<PartTable
 							caption="Nodes"
 							rows={draft.nodes}
-							columns={nodeColumns()}
+							columns={cols.nodes}
 							pathPrefix="nodes"
 							errors={errors}
 							readOnly={!canEdit}

@@ -1,5 +1,5 @@
 import { type ColumnDef, flexRender, getCoreRowModel, useReactTable } from '@tanstack/react-table';
-import { useEffect, useState } from 'react';
+import { memo, useEffect, useMemo, useState } from 'react';
 
 export type CellSpec<T> =
 	| { kind: 'text'; get: (row: T) => string; set: (row: T, v: string) => T }
@@ -196,15 +196,20 @@ export function PartTable<T extends { id: string; label: string }>({
 	readOnly: boolean;
 	rowFlag?: (row: T) => string | null;
 }) {
-	const defs: ColumnDef<T>[] = columns.map((col) => ({
-		id: col.id,
-		header: () => (
-			<span>
-				{col.header}
-				{col.unit && <span className="font-normal text-ink-soft"> ({col.unit})</span>}
-			</span>
-		),
-	}));
+	// The same column objects while the columns are, so the table does not rebuild them per edit.
+	const defs: ColumnDef<T>[] = useMemo(
+		() =>
+			columns.map((col) => ({
+				id: col.id,
+				header: () => (
+					<span>
+						{col.header}
+						{col.unit && <span className="font-normal text-ink-soft"> ({col.unit})</span>}
+					</span>
+				),
+			})),
+		[columns],
+	);
 	const table = useReactTable({
 		data: rows,
 		columns: defs,
@@ -232,44 +237,106 @@ export function PartTable<T extends { id: string; label: string }>({
 					))}
 				</thead>
 				<tbody>
-					{table.getRowModel().rows.map((row) => {
-						const flag = rowFlag?.(row.original) ?? null;
-						return (
-							<tr
-								key={row.id}
-								className={`border-b border-hairline align-top last:border-0 ${flag ? 'bg-brick-tint/40' : ''}`}
-								data-part-id={row.original.id}
-							>
-								{columns.map((col) => (
-									<td key={col.id} className="px-2 py-1.5">
-										<PartCell
-											col={col}
-											part={row.original}
-											index={row.index}
-											errors={errors}
-											pathPrefix={pathPrefix}
-											readOnly={readOnly}
-											onChange={onChange}
-										/>
-									</td>
-								))}
-								{!readOnly && onRemove && (
-									<td className="px-2 py-1.5">
-										<button
-											type="button"
-											onClick={() => onRemove(row.index)}
-											aria-label={`Remove ${row.original.label || row.original.id}`}
-											className="rounded px-2 py-1 text-ink-soft hover:bg-brick-tint hover:text-brick"
-										>
-											✕
-										</button>
-									</td>
-								)}
-							</tr>
-						);
-					})}
+					{table.getRowModel().rows.map((row) => (
+						<PartRow
+							key={row.id}
+							part={row.original}
+							index={row.index}
+							columns={columns}
+							errors={errors}
+							errorsKey={rowErrorsKey(errors, `${pathPrefix}.${row.index}.`)}
+							pathPrefix={pathPrefix}
+							readOnly={readOnly}
+							onChange={onChange}
+							onRemove={onRemove}
+							flag={rowFlag?.(row.original) ?? null}
+						/>
+					))}
 				</tbody>
 			</table>
 		</div>
 	);
 }
+
+/** The errors of one row as text: a row re-renders only when its own errors change. */
+function rowErrorsKey(errors: Record<string, string>, prefix: string): string {
+	let key = '';
+	for (const [p, m] of Object.entries(errors)) if (p.startsWith(prefix)) key += `${p}=${m};`;
+	return key;
+}
+
+interface PartRowProps<T> {
+	part: T;
+	index: number;
+	columns: PartColumn<T>[];
+	errors: Record<string, string>;
+	errorsKey: string;
+	pathPrefix: string;
+	readOnly: boolean;
+	onChange: (index: number, next: T) => void;
+	onRemove?: (index: number) => void;
+	flag: string | null;
+}
+
+function PartRowView<T extends { id: string; label: string }>({
+	part,
+	index,
+	columns,
+	errors,
+	pathPrefix,
+	readOnly,
+	onChange,
+	onRemove,
+	flag,
+}: PartRowProps<T>) {
+	return (
+		<tr
+			className={`border-b border-hairline align-top last:border-0 ${flag ? 'bg-brick-tint/40' : ''}`}
+			data-part-id={part.id}
+		>
+			{columns.map((col) => (
+				<td key={col.id} className="px-2 py-1.5">
+					<PartCell
+						col={col}
+						part={part}
+						index={index}
+						errors={errors}
+						pathPrefix={pathPrefix}
+						readOnly={readOnly}
+						onChange={onChange}
+					/>
+				</td>
+			))}
+			{!readOnly && onRemove && (
+				<td className="px-2 py-1.5">
+					<button
+						type="button"
+						onClick={() => onRemove(index)}
+						aria-label={`Remove ${part.label || part.id}`}
+						className="rounded px-2 py-1 text-ink-soft hover:bg-brick-tint hover:text-brick"
+					>
+						✕
+					</button>
+				</td>
+			)}
+		</tr>
+	);
+}
+
+/**
+ * A row re-renders when its part, place, columns, own errors or flag change — not on every edit
+ * elsewhere in the build. The callbacks update the draft through functional updates, so a row
+ * kept from an earlier render still writes to the current draft.
+ */
+const PartRow = memo(
+	PartRowView,
+	(a, b) =>
+		a.part === b.part &&
+		a.index === b.index &&
+		a.columns === b.columns &&
+		a.errorsKey === b.errorsKey &&
+		a.readOnly === b.readOnly &&
+		a.flag === b.flag &&
+		a.pathPrefix === b.pathPrefix &&
+		Boolean(a.onRemove) === Boolean(b.onRemove),
+) as typeof PartRowView;

@@ -1,4 +1,5 @@
-import { useMemo, useRef, useState } from 'react';
+import { memo, useMemo, useRef, useState } from 'react';
+import { useAfterPaint } from '@/lib/client/use-after-paint';
 import type { PartGroup } from '@/engine';
 import {
 	buildReport,
@@ -72,6 +73,10 @@ export function Workbench({
 }: WorkbenchProps) {
 	const [scenario, setScenario] = useState<Scenario>(DEFAULT_SCENARIO);
 	const [selection, setSelection] = useState<Selection | null>(null);
+	const setSelectionFromDiagram = useMemo(
+		() => (group: PartGroup, id: string) => setSelection({ group, id }),
+		[],
+	);
 	const valid = Object.keys(errors).length === 0;
 	const report = useMemo(
 		() => (valid ? buildReport(draft, scenario, { burpRun: false, units }) : null),
@@ -92,16 +97,20 @@ export function Workbench({
 	if (fresh) lastGood.current = fresh;
 	const ok = fresh ?? lastGood.current;
 	const stale = !fresh && ok !== null;
+	// The summary and the field being typed in follow every keystroke; the long tables, charts and
+	// the diagram follow at a lower priority, in slices React can interrupt, so typing never waits.
+	const later = useAfterPaint(ok);
+	const laterDraft = useAfterPaint(draft);
 	const flagged = useMemo(
 		() =>
 			new Set(
-				ok
-					? ok.warnings
+				later
+					? later.warnings
 							.filter((w) => w.element.kind === 'cable' && w.severity !== 'info')
 							.map((w) => w.element.id)
 					: [],
 			),
-		[ok],
+		[later],
 	);
 
 	return (
@@ -141,23 +150,23 @@ export function Workbench({
 					}}
 				/>
 			)}
-			{ok && <Findings warnings={ok.warnings} />}
+			{later && <FindingsMemo warnings={later.warnings} />}
 
 			<section aria-labelledby="diagram-heading">
 				<h2 id="diagram-heading" className="text-xl font-bold">
 					The network
 				</h2>
 				<div className="mt-3">
-					<NetworkDiagram
-						doc={draft}
+					<NetworkDiagramMemo
+						doc={laterDraft}
 						flagged={flagged}
-						onSelect={(group, id) => setSelection({ group, id })}
+						onSelect={setSelectionFromDiagram}
 					/>
 				</div>
 				<PartLists
-					draft={draft}
+					draft={laterDraft}
 					flagged={flagged}
-					warned={ok?.warnings ?? []}
+					warned={later?.warnings ?? []}
 					selected={selection}
 					onSelect={setSelection}
 				/>
@@ -167,31 +176,36 @@ export function Workbench({
 				</p>
 			</section>
 
-			{ok && <BudgetSection rows={ok.budget} />}
-			{ok && (
-				<AmplifiersSection
-					amplifiers={ok.amplifiers}
+			{later && <BudgetSectionMemo rows={later.budget} />}
+			{later && (
+				<AmplifiersSectionMemo
+					amplifiers={later.amplifiers}
 					dropTargetV={scenario.dropTargetV}
 					burpSeconds={scenario.burpSeconds}
 					burp={burp}
 				/>
 			)}
-			{ok && (
-				<CableChecksSection cables={ok.cables} warnings={ok.warnings} draft={draft} units={units} />
+			{later && (
+				<CableChecksSectionMemo
+					cables={later.cables}
+					warnings={later.warnings}
+					draft={laterDraft}
+					units={units}
+				/>
 			)}
-			{ok && (
-				<BurpSection
+			{later && (
+				<BurpSectionMemo
 					burp={burp}
 					burpSeconds={scenario.burpSeconds}
-					draft={draft}
+					draft={laterDraft}
 					ruleV={
-						ok.amplifiers.length
-							? Math.max(...ok.banks.map((b) => b.ocvV), 0) - scenario.dropTargetV
+						later.amplifiers.length
+							? Math.max(...later.banks.map((b) => b.ocvV), 0) - scenario.dropTargetV
 							: null
 					}
 				/>
 			)}
-			{ok && <UpgradeHintsSection hints={hints} />}
+			{later && <UpgradeHintsSectionMemo hints={hints} />}
 
 			{selection && (
 				<Inspector
@@ -218,6 +232,15 @@ export function Workbench({
 		</>
 	);
 }
+
+// Each analysis section renders again only when its own figures change.
+const FindingsMemo = memo(Findings);
+const NetworkDiagramMemo = memo(NetworkDiagram);
+const BudgetSectionMemo = memo(BudgetSection);
+const AmplifiersSectionMemo = memo(AmplifiersSection);
+const CableChecksSectionMemo = memo(CableChecksSection);
+const BurpSectionMemo = memo(BurpSection);
+const UpgradeHintsSectionMemo = memo(UpgradeHintsSection);
 
 const LIST_GROUPS: Array<[PartGroup, string]> = [
 	['cables', 'cable'],

@@ -106,6 +106,8 @@ export function SummaryStrip({
 			aria-label="Summary of the draft"
 			className={`sticky top-0 z-30 -mx-gutter border-b border-hairline bg-paper/95 px-gutter py-2 backdrop-blur ${stale ? 'opacity-70' : ''}`}
 			data-summary
+			// Changes with every recomputed figure: what the page bench waits for after a keystroke.
+			data-figures={`${now.settleV}|${now.lowestAmpV}|${now.cableLossW}|${now.bankCurrentA}`}
 		>
 			<div className="grid grid-cols-3 gap-x-3 gap-y-1 sm:grid-cols-4 lg:grid-cols-7">
 				{FIGURES.map((f) => {
