@@ -86,8 +86,13 @@ export function BuildWorkspaceView({
 
 	const dirty = JSON.stringify(draft) !== JSON.stringify(baseDoc) || baseId !== (head?.id ?? null);
 	useEffect(() => {
-		if (canEdit && dirty)
-			buildDrafts.store(vehicleId, { baseRevisionId: baseId, document: draft, message });
+		if (!canEdit || !dirty) return;
+		// Kept in the next task, after the keystroke's frame is painted: every keystroke is kept, none
+		// waits for the write.
+		const t = setTimeout(() =>
+			buildDrafts.store(vehicleId, { baseRevisionId: baseId, document: draft, message }),
+		);
+		return () => clearTimeout(t);
 	}, [canEdit, dirty, vehicleId, baseId, draft, message]);
 
 	const errors = useMemo(() => validateDraft(draft), [draft]);

@@ -25,7 +25,7 @@ const budgetOptions = {
 		y: { beginAtZero: true, title: { display: true, text: 'Current (A)' } },
 		x: { title: { display: true, text: 'Supply voltage' } },
 	},
-	plugins: { legend: { position: 'bottom' as const } },
+	plugins: { legend: { position: 'bottom' as const, labels: { usePointStyle: true } } },
 };
 
 const burpOptions = {
@@ -37,7 +37,7 @@ const burpOptions = {
 		y: { title: { display: true, text: 'Voltage (V)' } },
 		x: { title: { display: true, text: 'Time into the burp (s)' }, ticks: { maxTicksLimit: 11 } },
 	},
-	plugins: { legend: { position: 'bottom' as const } },
+	plugins: { legend: { position: 'bottom' as const, labels: { usePointStyle: true } } },
 };
 
 export function BudgetChart({ rows }: { rows: BudgetRow[] }) {

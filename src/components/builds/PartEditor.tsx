@@ -11,7 +11,7 @@ import {
 	nodeColumns,
 } from './editor-columns';
 import { AddPartForm } from './AddPartForm';
-import { PartTable } from './PartTable';
+import { MemoPartTable as PartTable } from './PartTable';
 
 /** The part tables of a build or plan: every part editable in place, added and removed by group. */
 export function PartEditor({
@@ -98,6 +98,7 @@ export function PartEditor({
 							onChange={(i, v) => update('cables', i, v)}
 							onRemove={canEdit ? (i) => remove('cables', i) : undefined}
 							rowFlag={(c) => (flagged.has(c.id) ? 'flag' : null)}
+							refreshKey={flagged}
 						/>
 					</EditGroup>
 					<EditGroup title="Battery banks" onAdd={add('banks')}>

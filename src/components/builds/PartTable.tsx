@@ -8,6 +8,8 @@ export type CellSpec<T> =
 			get: (row: T) => number | null;
 			set: (row: T, v: number | null) => T;
 			step?: string;
+			/** Decimals the value is shown with when it comes from outside (not while typing). */
+			digits?: number;
 			blankAllowed?: boolean;
 	  }
 	| {
@@ -35,6 +37,7 @@ function NumberInput({
 	invalid,
 	step,
 	readOnly,
+	digits,
 }: {
 	value: number | null;
 	onChange: (v: number | null) => void;
@@ -42,10 +45,13 @@ function NumberInput({
 	invalid: boolean;
 	step?: string;
 	readOnly: boolean;
+	digits?: number;
 }) {
-	const [text, setText] = useState(
-		value === null || Number.isNaN(value) ? '' : String(Number(value.toPrecision(8))),
-	);
+	const shown = (v: number | null) =>
+		v === null || Number.isNaN(v)
+			? ''
+			: String(Number(digits === undefined ? v.toPrecision(8) : v.toFixed(digits)));
+	const [text, setText] = useState(() => shown(value));
 	useEffect(() => {
 		const parsed = text.trim() === '' ? null : Number(text);
 		if (
@@ -56,7 +62,7 @@ function NumberInput({
 				Math.abs(parsed - value) < 1e-9 * Math.max(1, Math.abs(value))
 			)
 		) {
-			setText(value === null || Number.isNaN(value) ? '' : String(Number(value.toPrecision(8))));
+			setText(shown(value));
 		}
 		// eslint-disable-next-line react-hooks/exhaustive-deps -- follows the value from outside only; the text being typed must not reset it
 	}, [value]);
@@ -127,6 +133,7 @@ export function PartCell<T extends { id: string; label: string }>({
 				onChange={(v) => onChange(i, c.set(part, v))}
 				invalid={!!error}
 				step={c.step}
+				digits={c.digits}
 				readOnly={readOnly}
 			/>
 		);
@@ -195,6 +202,8 @@ export function PartTable<T extends { id: string; label: string }>({
 	pathPrefix: string;
 	readOnly: boolean;
 	rowFlag?: (row: T) => string | null;
+	/** Whatever `rowFlag` reads (compared by identity): a change renders the rows' flags again. */
+	refreshKey?: unknown;
 }) {
 	// The same column objects while the columns are, so the table does not rebuild them per edit.
 	const defs: ColumnDef<T>[] = useMemo(
@@ -340,3 +349,19 @@ const PartRow = memo(
 		a.pathPrefix === b.pathPrefix &&
 		Boolean(a.onRemove) === Boolean(b.onRemove),
 ) as typeof PartRowView;
+
+/**
+ * A part table that renders again only when its own rows, columns, errors or flags change: typing
+ * into one cable leaves the bank, alternator, amplifier, load and node tables alone.
+ */
+export const MemoPartTable = memo(
+	PartTable,
+	(a, b) =>
+		a.rows === b.rows &&
+		a.columns === b.columns &&
+		a.readOnly === b.readOnly &&
+		a.refreshKey === b.refreshKey &&
+		a.pathPrefix === b.pathPrefix &&
+		Boolean(a.onRemove) === Boolean(b.onRemove) &&
+		rowErrorsKey(a.errors, `${a.pathPrefix}.`) === rowErrorsKey(b.errors, `${b.pathPrefix}.`),
+) as typeof PartTable;

@@ -40,6 +40,9 @@ export function toBudgetChartData(rows: BudgetRow[]) {
 				data: rows.map((r) => r.burpDemandA),
 				borderColor: CHART_COLOURS.ink,
 				backgroundColor: CHART_COLOURS.ink,
+				// Dashed with square marks, so it is told from the sustained line without its colour.
+				borderDash: [6, 3],
+				pointStyle: 'rect' as const,
 				fill: false,
 				pointRadius: 3,
 			},

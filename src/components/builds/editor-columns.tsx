@@ -162,6 +162,8 @@ export function cableColumns(nodes: Opt, units: UnitSystem): PartColumn<Cable>[]
 			errorPath: 'lengthM',
 			cell: {
 				kind: 'number',
+				// Shown as people measure: 1 decimal in feet, 2 in metres (typing keeps what is typed).
+				digits: units === 'imperial' ? 1 : 2,
 				get: (c) => toLengthDisplay(c.lengthM, units),
 				set: (c, v) => ({ ...c, lengthM: fromLengthDisplay(num(v), units) }),
 			},
@@ -194,6 +196,7 @@ export function cableColumns(nodes: Opt, units: UnitSystem): PartColumn<Cable>[]
 			errorPath: 'fuses',
 			cell: {
 				kind: 'number',
+				digits: 1,
 				get: (c) =>
 					fuseAt(c, 'from') ? toShortDisplay(fuseAt(c, 'from')!.distanceM, units) : null,
 				set: (c, v) =>
@@ -220,6 +223,7 @@ export function cableColumns(nodes: Opt, units: UnitSystem): PartColumn<Cable>[]
 			errorPath: 'fuses',
 			cell: {
 				kind: 'number',
+				digits: 1,
 				get: (c) => (fuseAt(c, 'to') ? toShortDisplay(fuseAt(c, 'to')!.distanceM, units) : null),
 				set: (c, v) =>
 					fuseAt(c, 'to') ? setFuse(c, 'to', { distanceM: fromShortDisplay(num(v), units) }) : c,

@@ -1,4 +1,4 @@
-import { useEffect, useState } from 'react';
+import { startTransition, useEffect, useState } from 'react';
 import type { BurpRun, BuildDocument, Scenario, UpgradeHint } from '@/engine';
 import { burpInWorker, hintsInWorker } from '@/lib/client/engine-worker';
 
@@ -23,11 +23,11 @@ export function useDeferredAnalysis(draft: BuildDocument, scenario: Scenario, va
 	});
 	useEffect(() => {
 		if (!valid) {
-			setState((s) => ({ ...s, stale: true }));
+			setState((s) => (s.stale ? s : { ...s, stale: true }));
 			return;
 		}
 		let current = true;
-		setState((s) => ({ ...s, stale: true }));
+		setState((s) => (s.stale ? s : { ...s, stale: true }));
 		const conditions = {
 			engineRpm: scenario.engineRpm,
 			demand: scenario.burpDemand,
@@ -42,7 +42,11 @@ export function useDeferredAnalysis(draft: BuildDocument, scenario: Scenario, va
 				}),
 				hintsInWorker(draft, conditions),
 			])
-				.then(([burp, hints]) => current && setState({ burp, hints, stale: false }))
+				// At transition priority: the burp chart and the hints render in slices, never blocking a key.
+				.then(
+					([burp, hints]) =>
+						current && startTransition(() => setState({ burp, hints, stale: false })),
+				)
 				.catch(() => current && setState((s) => ({ ...s, stale: true })));
 		}, SETTLE_MS);
 		return () => {
