@@ -127,7 +127,7 @@ export function SummaryStrip({
 					<p className="truncate text-[11px] font-semibold tracking-wide text-ink-soft uppercase">
 						Findings
 					</p>
-					<p className="num text-sm font-semibold">
+					<p className="num truncate text-sm font-semibold whitespace-nowrap">
 						<span className={now.findings.danger ? 'text-brick' : ''}>
 							{now.findings.danger} danger
 						</span>{' '}
