@@ -75,7 +75,12 @@ async function main() {
 
 	if (buildIsStale()) {
 		log('building the app (first run or sources changed)…');
-		const build = spawnSync('npx', ['astro', 'build'], { stdio: 'inherit' });
+		// Always the production build: a build made under another NODE_ENV (a test run's) compiles JSX
+		// for React's development runtime, which the production server does not load.
+		const build = spawnSync('npx', ['astro', 'build'], {
+			stdio: 'inherit',
+			env: { ...process.env, NODE_ENV: 'production' },
+		});
 		if (build.status !== 0) throw new Error('astro build failed');
 	}
 

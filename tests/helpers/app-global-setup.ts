@@ -29,7 +29,12 @@ export default async function setup(project: TestProject) {
 		);
 	}
 	if (buildIsStale()) {
-		const build = spawnSync('npx', ['astro', 'build'], { stdio: 'inherit' });
+		// The production build, as `npm start` serves it (vitest's NODE_ENV=test would compile JSX
+		// for React's development runtime and leave a dist/ that `npm start` cannot serve).
+		const build = spawnSync('npx', ['astro', 'build'], {
+			stdio: 'inherit',
+			env: { ...process.env, NODE_ENV: 'production' },
+		});
 		if (build.status !== 0) throw new Error('astro build failed; browser tests need the built app');
 	}
 	const cluster = await ensureCluster(TEST_CLUSTER);

@@ -23,6 +23,8 @@ export async function startAppServer(
 			AUTH_SECRET: 'test-secret-not-for-production-0123456789',
 			AUTH_TRUST_HOST: 'true',
 			PUBLIC_URL: url,
+			// Served as in production (React's production build), whatever the test runner's NODE_ENV.
+			NODE_ENV: 'production',
 			...env,
 		},
 		stdio: ['ignore', 'ignore', 'pipe'],

@@ -151,7 +151,7 @@ export function BuildWorkspaceView({
 			{/* Status and save */}
 			<section
 				aria-label="Draft and saving"
-				className="sticky top-0 z-10 -mx-2 flex flex-col gap-2 rounded-md border border-hairline bg-card/95 p-3 shadow-sm backdrop-blur"
+				className="-mx-2 flex flex-col gap-2 rounded-md border border-hairline bg-card/95 p-3 shadow-sm backdrop-blur"
 			>
 				<div className="flex flex-wrap items-center gap-3">
 					<span className="text-sm">
@@ -322,6 +322,28 @@ export function BuildWorkspaceView({
 				units={units}
 				canEdit={canEdit}
 				baseline={head ? baseDoc : null}
+				summaryExtra={
+					// Always one line tall (a change appearing must not move the page under the cursor).
+					canEdit &&
+					(dirty ? (
+						<button
+							type="button"
+							className="mt-1 block h-5 w-full truncate rounded bg-amber-tint px-2 text-left text-xs font-semibold text-ink"
+							onClick={() => {
+								const field = document.getElementById('revision-message');
+								field?.scrollIntoView({ block: 'center' });
+								field?.focus({ preventScroll: true });
+							}}
+						>
+							● {changes.length} unsaved change{changes.length === 1 ? '' : 's'}:{' '}
+							{saveBlocked ?? 'ready to save'} — go to Save
+						</button>
+					) : (
+						<p className="mt-1 h-5 truncate px-2 text-xs text-ink-soft">
+							No unsaved change: the draft is revision {head?.number ?? '—'}.
+						</p>
+					))
+				}
 				onChange={(next: (d: BuildDocument) => BuildDocument) => {
 					setDraft(next);
 					setSaveState((st) => ({ ...st, ok: null }));

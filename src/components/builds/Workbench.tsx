@@ -46,6 +46,8 @@ export interface WorkbenchProps {
 	subject?: string;
 	/** The saved document the draft is compared with (before → after); none for a first revision. */
 	baseline?: BuildDocument | null;
+	/** Shown in the sticky summary (the build page's unsaved-changes note and way to Save). */
+	summaryExtra?: React.ReactNode;
 }
 
 const KIND_GROUP = {
@@ -70,6 +72,7 @@ export function Workbench({
 	onChange,
 	subject = 'build',
 	baseline = null,
+	summaryExtra,
 }: WorkbenchProps) {
 	const [scenario, setScenario] = useState<Scenario>(DEFAULT_SCENARIO);
 	const [selection, setSelection] = useState<Selection | null>(null);
@@ -139,6 +142,7 @@ export function Workbench({
 					report={ok}
 					baseline={baseReport}
 					stale={stale}
+					extra={summaryExtra}
 					partLabel={(w) => {
 						const group = KIND_GROUP[w.element.kind as keyof typeof KIND_GROUP];
 						const part = group

@@ -256,7 +256,7 @@ function PlanWorkspaceView({
 		<div className="flex flex-col gap-8">
 			<section
 				aria-label="Plan and saving"
-				className="sticky top-0 z-10 -mx-2 flex flex-col gap-2 rounded-md border border-hairline bg-card/95 p-3 shadow-sm backdrop-blur"
+				className="-mx-2 flex flex-col gap-2 rounded-md border border-hairline bg-card/95 p-3 shadow-sm backdrop-blur"
 			>
 				<div className="flex flex-wrap items-center gap-3">
 					<label htmlFor="plan-name" className="sr-only">

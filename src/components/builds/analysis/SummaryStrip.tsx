@@ -83,6 +83,7 @@ export function SummaryStrip({
 	baseline,
 	stale,
 	partLabel,
+	extra,
 }: {
 	report: Ok;
 	/** The saved revision's report (null for a first revision or one that cannot be solved). */
@@ -90,6 +91,8 @@ export function SummaryStrip({
 	stale: boolean;
 	/** A part's name for a finding's element, as the editor shows it. */
 	partLabel: (w: ReportWarning) => string;
+	/** Shown at the strip's end (the build page's way back to Save). */
+	extra?: React.ReactNode;
 }) {
 	const now = headline(report);
 	const before = baseline ? headline(baseline) : null;
@@ -129,11 +132,19 @@ export function SummaryStrip({
 					</p>
 					<p className="num truncate text-sm font-semibold whitespace-nowrap">
 						<span className={now.findings.danger ? 'text-brick' : ''}>
-							{now.findings.danger} danger
+							{now.findings.danger} <span className="hidden sm:inline">danger</span>
+							<span className="sm:hidden" aria-hidden="true">
+								✕
+							</span>
+							<span className="sr-only sm:hidden">danger</span>
 						</span>{' '}
 						·{' '}
 						<span className={now.findings.warning ? 'text-amber-text' : ''}>
-							{now.findings.warning} warn
+							{now.findings.warning} <span className="hidden sm:inline">warn</span>
+							<span className="sm:hidden" aria-hidden="true">
+								!
+							</span>
+							<span className="sr-only sm:hidden">warnings</span>
 						</span>
 					</p>
 					<p className="num h-4 text-[11px] leading-4 text-ink-soft">
@@ -145,6 +156,7 @@ export function SummaryStrip({
 					</p>
 				</div>
 			</div>
+			{extra}
 			{/* One line, always there: what it says changes, its height never does, so nothing below moves. */}
 			<p className="mt-1 h-4 truncate text-xs leading-4" aria-label="What the change did">
 				{stale ? (
