@@ -27,8 +27,8 @@ const CHECKS: Array<{
 	},
 	{
 		key: 'cable_capacity',
-		label: () => 'No cable carries more than its current capacity',
-		codes: ['over_capacity'],
+		label: () => 'No cable carries more than its capacity or heats past its insulation in a burp',
+		codes: ['over_capacity', 'cable_hot_in_burp'],
 	},
 	{
 		key: 'drops',

@@ -23,6 +23,7 @@ export * from './hints';
 export * from './run-analysis';
 export * from './checks';
 export * from './headline';
+export * from './heating';
 export * from './compare';
 export * from './merge';
 export * from './defaults';

@@ -12,6 +12,7 @@ import {
 	requiredCmilPerAmp,
 } from './conductors';
 import { adviseFuse, type FuseAdvice, MAX_FUSE_FACTOR } from './fuses';
+import { adiabaticFinalC } from './heating';
 import { type NetworkSolution, solveNetwork } from './solve';
 import { checkTopology, type TopologyIssue } from './topology';
 import type { BuildDocument, Scenario } from './types';
@@ -53,7 +54,8 @@ export type WarningCode =
 	| 'sustained_deficit'
 	| 'bank_not_secured'
 	| 'flooded_unvented'
-	| 'bank_charge_limited';
+	| 'bank_charge_limited'
+	| 'cable_hot_in_burp';
 
 export interface ReportWarning {
 	code: WarningCode;
@@ -82,6 +84,12 @@ export interface CableReport {
 	/** 'supply' carries the positive side; 'return' is ground (both ends near chassis potential). */
 	side: 'supply' | 'return';
 	leavesBattery: boolean;
+	/**
+	 * The conductor's temperature at the end of a burp of the scenario's length at the burp current,
+	 * from the scenario's conductor temperature, by the adiabatic relation (IEC 60949): an upper
+	 * bound, since no heat is let out. `limitC` is the insulation's rating.
+	 */
+	burpHeating: { finalC: number; riseC: number; limitC: number };
 }
 
 export interface AmplifierReport {
@@ -294,6 +302,22 @@ export function buildReport(
 				});
 			}
 		}
+		const finalC = adiabaticFinalC(
+			cable.material,
+			cableAreaMm2(cable.size) * cable.parallelRuns,
+			Math.abs(bc.currentA),
+			scenario.burpSeconds,
+			scenario.conductorTempC,
+		);
+		if (finalC > cable.insulationC) {
+			warn({
+				code: 'cable_hot_in_burp',
+				severity: 'danger',
+				element: el,
+				safety: true,
+				message: `"${cable.label}" would heat from ${fmt(scenario.conductorTempC, 0)} °C to ${finalC > 999 ? 'over 999' : fmt(finalC, 0)} °C over a ${fmt(scenario.burpSeconds, 0)} s burp at ${fmt(Math.abs(bc.currentA), 0)} A, past its ${fmt(cable.insulationC, 0)} °C insulation (adiabatic estimate, IEC 60949).`,
+			});
+		}
 		if (fuseAdvice?.status === 'cable_too_small') {
 			warn({
 				code: 'cable_too_small',
@@ -318,6 +342,11 @@ export function buildReport(
 			fuseAdvice,
 			side,
 			leavesBattery: batteryEnds.length > 0,
+			burpHeating: {
+				finalC,
+				riseC: finalC - scenario.conductorTempC,
+				limitC: cable.insulationC,
+			},
 		};
 	});
 

@@ -44,6 +44,10 @@ function figuresOf(sel: Selection, report: Ok, doc: BuildDocument, units: UnitSy
 			],
 			['Carries (capacity)', c.ampacity ? `${fmt(c.ampacity.currentA, 0)} A` : 'unknown'],
 			[
+				'Heats to in the burp',
+				`${c.burpHeating.finalC > 999 ? 'over 999' : fmt(c.burpHeating.finalC, 0)} °C (insulation ${fmt(c.burpHeating.limitC, 0)} °C)`,
+			],
+			[
 				'Fuse advice',
 				c.fuseAdvice === null
 					? 'ground side: no fuse'

@@ -117,6 +117,18 @@ export function CableChecksSection({
 				</>
 			),
 		},
+		{
+			key: 'heat',
+			header: 'Heats to in the burp',
+			align: 'right',
+			tone: (c) => (c.burpHeating.finalC > c.burpHeating.limitC ? 'text-brick font-semibold' : ''),
+			cell: (c) => (
+				<>
+					{c.burpHeating.finalC > 999 ? '> 999' : fmt(c.burpHeating.finalC, 0)} <Unit>°C</Unit>{' '}
+					<Unit>(of {fmt(c.burpHeating.limitC, 0)})</Unit>
+				</>
+			),
+		},
 		{ key: 'fuse', header: 'Fuse advice', numeric: false, cell: fuseAdvice },
 		{
 			key: 'checks',
@@ -148,7 +160,9 @@ export function CableChecksSection({
 			<p className="mt-1 text-xs text-ink-soft">
 				Capacity from 33 CFR 183.425 Table 5 by insulation rating at 30 °C, no bundling derate; fuse
 				up to 150 % of it (33 CFR 183.455). 300 cmil/A for copper is common practice, scaled for
-				other metals. Lengths in {lu}: {cables.length} cables,{' '}
+				other metals. Burp heating: the adiabatic estimate of IEC 60949 (no heat let out, so an
+				upper bound) over the burp's length from the cable temperature above, against the
+				insulation's rating; CCA taken as aluminium. Lengths in {lu}: {cables.length} cables,{' '}
 				{fmt(
 					draft.cables.reduce((s, c) => s + toLengthDisplay(c.lengthM, units), 0),
 					1,
