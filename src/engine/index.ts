@@ -24,6 +24,7 @@ export * from './run-analysis';
 export * from './checks';
 export * from './headline';
 export * from './heating';
+export * from './sweep';
 export * from './compare';
 export * from './merge';
 export * from './defaults';

@@ -10,8 +10,8 @@ import {
 } from 'chart.js';
 import { useMemo } from 'react';
 import { Line } from 'react-chartjs-2';
-import type { BudgetRow, BurpRun } from '@/engine';
-import { toBudgetChartData, toBurpChartData } from './chart-data';
+import type { BudgetRow, BurpRun, SpeedPoint } from '@/engine';
+import { toBudgetChartData, toBurpChartData, toSweepChartData } from './chart-data';
 
 ChartJS.register(CategoryScale, LinearScale, PointElement, LineElement, Filler, Tooltip, Legend);
 ChartJS.defaults.font.family = "'Public Sans Variable', system-ui, sans-serif";
@@ -86,6 +86,43 @@ export function BurpChart({
 				data={data}
 				options={options}
 				aria-label="Voltages over the time of a burp"
+				role="img"
+			/>
+		</div>
+	);
+}
+
+const sweepOptions = {
+	responsive: true,
+	maintainAspectRatio: false,
+	animation: false as const,
+	interaction: { mode: 'index' as const, intersect: false },
+	scales: {
+		x: { title: { display: true, text: 'Engine speed (rpm)' }, ticks: { maxTicksLimit: 10 } },
+		y: {
+			type: 'linear' as const,
+			position: 'left' as const,
+			title: { display: true, text: 'Voltage (V), solid' },
+		},
+		y1: {
+			type: 'linear' as const,
+			position: 'right' as const,
+			beginAtZero: true,
+			title: { display: true, text: 'Current (A), dashed' },
+			grid: { drawOnChartArea: false },
+		},
+	},
+	plugins: { legend: { position: 'bottom' as const, labels: { usePointStyle: true } } },
+};
+
+export function SweepChart({ points }: { points: SpeedPoint[] }) {
+	const data = useMemo(() => toSweepChartData(points), [points]);
+	return (
+		<div className="h-64">
+			<Line
+				data={data as never}
+				options={sweepOptions}
+				aria-label="Settle voltage, lowest amplifier, alternator output and bank current from idle to high engine speed"
 				role="img"
 			/>
 		</div>

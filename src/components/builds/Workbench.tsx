@@ -18,6 +18,7 @@ import { CableChecksSection } from './analysis/CableChecksSection';
 import { Findings } from './analysis/Findings';
 import { SummaryStrip } from './analysis/SummaryStrip';
 import { ScenarioControls } from './analysis/ScenarioControls';
+import { SpeedSweepSection } from './analysis/SpeedSweepSection';
 import { UpgradeHintsSection } from './analysis/UpgradeHintsSection';
 import { Inspector, type Selection } from './Inspector';
 import { NetworkDiagram } from './NetworkDiagram';
@@ -91,7 +92,7 @@ export function Workbench({
 		return r.ok ? r : null;
 	}, [baseline, scenario, units]);
 	// The heavy part (burp, upgrades) runs in the engine worker once typing pauses.
-	const { burp, hints } = useDeferredAnalysis(draft, scenario, valid);
+	const { burp, hints, sweep } = useDeferredAnalysis(draft, scenario, valid);
 
 	const fresh = report && report.ok ? report : null;
 	// While a field is cleared or mistyped the last figures that could be computed stay on screen,
@@ -209,6 +210,7 @@ export function Workbench({
 					}
 				/>
 			)}
+			{later && <SpeedSweepSectionMemo sweep={sweep} />}
 			{later && <UpgradeHintsSectionMemo hints={hints} />}
 
 			{selection && (
@@ -245,6 +247,7 @@ const AmplifiersSectionMemo = memo(AmplifiersSection);
 const CableChecksSectionMemo = memo(CableChecksSection);
 const BurpSectionMemo = memo(BurpSection);
 const UpgradeHintsSectionMemo = memo(UpgradeHintsSection);
+const SpeedSweepSectionMemo = memo(SpeedSweepSection);
 
 const LIST_GROUPS: Array<[PartGroup, string]> = [
 	['cables', 'cable'],

@@ -1,4 +1,4 @@
-import type { BudgetRow, BurpRun } from '@/engine';
+import type { BudgetRow, BurpRun, SpeedPoint } from '@/engine';
 
 /** Token colours (the @theme palette), for Chart.js which cannot read CSS variables. */
 export const CHART_COLOURS = {
@@ -110,3 +110,54 @@ const BANK_LINES = [
 	{ colour: CHART_COLOURS.soft, dash: [2, 3] },
 	{ colour: CHART_COLOURS.brick, dash: [10, 3, 2, 3] },
 ];
+
+/**
+ * The engine-speed sweep as chart data: what the system settles at and the lowest amplifier under
+ * burp (volts, left axis, solid), the alternators' output and what the banks carry under burp
+ * (amps, right axis, dashed), one point per engine speed.
+ */
+export function toSweepChartData(points: SpeedPoint[]) {
+	return {
+		labels: points.map((p) => String(p.engineRpm)),
+		datasets: [
+			{
+				label: 'Settles at, burp (V)',
+				data: points.map((p) => p.settleV),
+				borderColor: CHART_COLOURS.teal,
+				backgroundColor: CHART_COLOURS.teal,
+				yAxisID: 'y',
+				pointStyle: 'circle' as const,
+				pointRadius: 2,
+			},
+			{
+				label: 'Lowest amplifier, burp (V)',
+				data: points.map((p) => p.lowestAmpV),
+				borderColor: CHART_COLOURS.copper,
+				backgroundColor: CHART_COLOURS.copper,
+				yAxisID: 'y',
+				pointStyle: 'triangle' as const,
+				pointRadius: 3,
+			},
+			{
+				label: 'Alternators, burp (A)',
+				data: points.map((p) => p.alternatorA),
+				borderColor: CHART_COLOURS.ink,
+				backgroundColor: CHART_COLOURS.ink,
+				yAxisID: 'y1',
+				borderDash: [6, 3],
+				pointStyle: 'rect' as const,
+				pointRadius: 2,
+			},
+			{
+				label: 'Banks carry, burp (A)',
+				data: points.map((p) => p.bankA),
+				borderColor: CHART_COLOURS.brick,
+				backgroundColor: CHART_COLOURS.brick,
+				yAxisID: 'y1',
+				borderDash: [2, 3],
+				pointStyle: 'crossRot' as const,
+				pointRadius: 3,
+			},
+		],
+	};
+}

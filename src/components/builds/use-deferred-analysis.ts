@@ -1,6 +1,6 @@
 import { startTransition, useEffect, useState } from 'react';
-import type { BurpRun, BuildDocument, Scenario, UpgradeHint } from '@/engine';
-import { burpInWorker, hintsInWorker } from '@/lib/client/engine-worker';
+import type { BurpRun, BuildDocument, Scenario, SpeedPoint, UpgradeHint } from '@/engine';
+import { burpInWorker, hintsInWorker, sweepInWorker } from '@/lib/client/engine-worker';
 
 /** How long typing must pause before the heavy analysis starts again (ms). */
 const SETTLE_MS = 150;
@@ -15,10 +15,12 @@ export function useDeferredAnalysis(draft: BuildDocument, scenario: Scenario, va
 	const [state, setState] = useState<{
 		burp: BurpRun | null;
 		hints: UpgradeHint[] | null;
+		sweep: { burp: SpeedPoint[]; sustained: SpeedPoint[] } | null;
 		stale: boolean;
 	}>({
 		burp: null,
 		hints: null,
+		sweep: null,
 		stale: true,
 	});
 	useEffect(() => {
@@ -41,11 +43,12 @@ export function useDeferredAnalysis(draft: BuildDocument, scenario: Scenario, va
 					stepS: scenario.burpStepS,
 				}),
 				hintsInWorker(draft, conditions),
+				sweepInWorker(draft, scenario),
 			])
 				// At transition priority: the burp chart and the hints render in slices, never blocking a key.
 				.then(
-					([burp, hints]) =>
-						current && startTransition(() => setState({ burp, hints, stale: false })),
+					([burp, hints, sweep]) =>
+						current && startTransition(() => setState({ burp, hints, sweep, stale: false })),
 				)
 				.catch(() => current && setState((s) => ({ ...s, stale: true })));
 		}, SETTLE_MS);

@@ -1,5 +1,5 @@
 import { type Remote, wrap } from 'comlink';
-import { type BuildDocument, runBurp, upgradeHints } from '@/engine';
+import { type BuildDocument, runBurp, speedSweep, upgradeHints } from '@/engine';
 import type { EngineWorkerApi } from './engine.worker';
 
 let remote: Remote<EngineWorkerApi> | null | undefined;
@@ -15,6 +15,9 @@ interface Engine {
 	hints: (
 		...a: Parameters<EngineWorkerApi['hints']>
 	) => Promise<ReturnType<EngineWorkerApi['hints']>> | ReturnType<EngineWorkerApi['hints']>;
+	sweep: (
+		...a: Parameters<EngineWorkerApi['sweep']>
+	) => Promise<ReturnType<EngineWorkerApi['sweep']>> | ReturnType<EngineWorkerApi['sweep']>;
 }
 
 function engine(): Engine {
@@ -35,6 +38,7 @@ function engine(): Engine {
 			burp: (doc: BuildDocument, opts: Parameters<typeof runBurp>[1]) => runBurp(doc, opts),
 			hints: (doc: BuildDocument, c: Parameters<typeof upgradeHints>[1]) =>
 				upgradeHints(doc, c).slice(0, 5),
+			sweep: (doc: BuildDocument, s: Parameters<typeof speedSweep>[1]) => speedSweep(doc, s),
 		}
 	);
 }
@@ -43,3 +47,5 @@ export const burpInWorker = (doc: BuildDocument, opts: Parameters<typeof runBurp
 	Promise.resolve(engine().burp(doc, opts));
 export const hintsInWorker = (doc: BuildDocument, conditions: Parameters<typeof upgradeHints>[1]) =>
 	Promise.resolve(engine().hints(doc, conditions));
+export const sweepInWorker = (doc: BuildDocument, scenario: Parameters<typeof speedSweep>[1]) =>
+	Promise.resolve(engine().sweep(doc, scenario));
