@@ -217,15 +217,11 @@ export function BuildWorkspaceView({
 							type="submit"
 							busy={saveState.busy}
 							disabled={saveBlocked !== null}
-							aria-describedby={saveBlocked ? 'save-blocked' : undefined}
+							aria-describedby="save-blocked"
 						>
 							Save revision
 						</Button>
-						{saveBlocked && (
-							<span id="save-blocked" className="text-sm text-ink-soft" data-save-blocked>
-								{saveBlocked}
-							</span>
-						)}
+
 						<label className="cursor-pointer rounded-md border border-hairline bg-card px-3 py-2 text-sm font-semibold hover:border-copper">
 							Load a JSON file
 							<input
@@ -282,6 +278,17 @@ export function BuildWorkspaceView({
 							</Button>
 						)}
 					</form>
+				)}
+				{canEdit && (
+					// Always there and one line tall: its words change as the draft does, its height never.
+					<p
+						id="save-blocked"
+						className="h-5 truncate text-sm text-ink-soft"
+						data-save-blocked
+						aria-live="polite"
+					>
+						{saveBlocked ?? 'Ready to save.'}
+					</p>
 				)}
 				{restored && <FormMessage tone="info">{restored}</FormMessage>}
 				{saveState.ok && (

@@ -98,13 +98,18 @@ export function Workbench({
 	// While a field is cleared or mistyped the last figures that could be computed stay on screen,
 	// marked as out of date, so the page neither blanks nor jumps under the member's cursor.
 	const lastGood = useRef<typeof fresh>(null);
-	if (fresh) lastGood.current = fresh;
+	// The draft those figures came from: the tables beside them describe it, not a half-typed one.
+	const lastGoodDraft = useRef<BuildDocument>(draft);
+	if (fresh) {
+		lastGood.current = fresh;
+		lastGoodDraft.current = draft;
+	}
 	const ok = fresh ?? lastGood.current;
 	const stale = !fresh && ok !== null;
 	// The summary and the field being typed in follow every keystroke; the long tables, charts and
 	// the diagram follow at a lower priority, in slices React can interrupt, so typing never waits.
 	const later = useAfterPaint(ok);
-	const laterDraft = useAfterPaint(draft);
+	const laterDraft = useAfterPaint(fresh ? draft : lastGoodDraft.current);
 	const flagged = useMemo(
 		() =>
 			new Set(

@@ -27,7 +27,7 @@ export function BurpSection({
 							bankLabels={Object.fromEntries(draft.banks.map((b) => [b.id, b.label]))}
 							ruleV={ruleV}
 						/>
-						<p className="num mt-2 text-sm">
+						<p className="num mt-2 h-10 text-sm line-clamp-2">
 							Energy: {fmt(burp.energyWh.amplifiers, 1)} Wh into the amplifiers,{' '}
 							{fmt(burp.energyWh.banks, 1)} Wh from the banks, {fmt(burp.energyWh.alternators, 1)}{' '}
 							Wh from the alternators, {fmt(burp.energyWh.cableLoss, 1)} Wh lost in cables.
@@ -40,7 +40,8 @@ export function BurpSection({
 						</p>
 					</>
 				) : (
-					<p role="status" className="text-sm text-ink-soft">
+					// As tall as the chart and its line, so nothing below moves when they arrive.
+					<p role="status" className="h-[19rem] text-sm text-ink-soft">
 						Computing the burp…
 					</p>
 				)}

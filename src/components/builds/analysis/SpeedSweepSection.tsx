@@ -19,14 +19,15 @@ export function SpeedSweepSection({
 				{sweep ? (
 					<>
 						<SweepChart points={sweep.burp} />
-						<p className="mt-2 text-sm" data-sweep-summary>
+						<p className="mt-2 h-10 text-sm line-clamp-2" data-sweep-summary>
 							{carries
 								? `From ${carries.engineRpm} rpm the alternators carry the music without the banks.`
 								: `At no speed up to ${sweep.sustained.at(-1)?.engineRpm ?? '—'} rpm do the alternators carry the music alone: the banks make up ${fmt(Math.max(0, sweep.sustained.at(-1)?.bankA ?? 0), 0)} A even there.`}
 						</p>
 					</>
 				) : (
-					<p role="status" className="text-sm text-ink-soft">
+					// As tall as the chart and its line, so nothing below moves when they arrive.
+					<p role="status" className="h-[19rem] text-sm text-ink-soft">
 						Sweeping the engine speed…
 					</p>
 				)}
