@@ -3,6 +3,7 @@ import { banksCarryHours } from './budget';
 import { runBurp } from './burp';
 import { buildReport, DEFAULT_SCENARIO } from './report';
 import { type NetworkSolution, solveNetwork } from './solve';
+import { speedSweep } from './sweep';
 import type { BuildDocument, Scenario } from './types';
 
 export interface PlanCandidate {
@@ -47,6 +48,10 @@ export interface ComparisonColumn {
 	cableWarnings: string[];
 	safetyFindings: number;
 	cost: number;
+	/** The cable that runs hottest in the burp (adiabatic, IEC 60949) against its insulation. */
+	hottestCable: { label: string; finalC: number; limitC: number } | null;
+	/** The lowest swept engine speed at which the alternators carry the music alone (null: none). */
+	carriesMusicFromRpm: number | null;
 	/** dB gained per unit of money (null when free or not louder). */
 	dbPerMoney: number | null;
 }
@@ -163,6 +168,19 @@ export function comparePlans(
 				: [],
 			safetyFindings: report.ok ? report.warnings.filter((w) => w.safety).length : 0,
 			cost,
+			hottestCable: report.ok
+				? report.cables.reduce<ComparisonColumn['hottestCable']>(
+						(h, c) =>
+							h === null || c.burpHeating.finalC - c.burpHeating.limitC > h.finalC - h.limitC
+								? { label: c.label, finalC: c.burpHeating.finalC, limitC: c.burpHeating.limitC }
+								: h,
+						null,
+					)
+				: null,
+			carriesMusicFromRpm: report.ok
+				? (speedSweep(doc, scenario).sustained.find((p) => !p.collapse && p.bankA <= 0.5)
+						?.engineRpm ?? null)
+				: null,
 			dbPerMoney: deltaDb !== null && deltaDb > 0 && cost > 0 ? deltaDb / cost : null,
 		};
 	};

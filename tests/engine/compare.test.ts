@@ -52,3 +52,35 @@ describe('comparePlans', () => {
 		expect(p1.dbPerMoney).toBeCloseTo(expected / 400, 12);
 	});
 });
+
+describe('comparePlans: cable heating and the engine speed at which the alternators keep up', () => {
+	it('names each column’s hottest cable against its insulation and the first swept speed that needs no bank', async () => {
+		const { speedSweep } = await import('../../src/engine/sweep');
+		// A plan that thins the four-channel feed to 14 AWG: it runs hotter than anything in the build.
+		const thin = structuredClone(marlinBuild);
+		thin.cables.find((c) => c.id === 'mids_feed')!.size = { kind: 'awg', awg: '14' };
+		const [current, plan] = comparePlans(
+			marlinBuild,
+			[{ id: 'thin', name: 'Thin feed', document: thin, cost: 0 }],
+			{ engineRpm: 1500, conductorTempC: 25 },
+		);
+		const report = buildReport(thin, { engineRpm: 1500, conductorTempC: 25 }, { burpRun: false });
+		if (!report.ok) throw new Error('does not solve');
+		const hottest = report.cables.reduce((h, c) =>
+			c.burpHeating.finalC - c.burpHeating.limitC > h.burpHeating.finalC - h.burpHeating.limitC
+				? c
+				: h,
+		);
+		expect(plan!.hottestCable).toEqual({
+			label: hottest.label,
+			finalC: hottest.burpHeating.finalC,
+			limitC: hottest.burpHeating.limitC,
+		});
+		expect(plan!.hottestCable!.label).toBe('Four-channel feed');
+		expect(plan!.hottestCable!.finalC).toBeGreaterThan(current!.hottestCable!.finalC);
+		const sweep = speedSweep(marlinBuild, { engineRpm: 1500, conductorTempC: 25 });
+		expect(current!.carriesMusicFromRpm).toBe(
+			sweep.sustained.find((p) => !p.collapse && p.bankA <= 0.5)?.engineRpm ?? null,
+		);
+	});
+});

@@ -133,6 +133,29 @@ export function ComparisonTable({ data, canInstall, installing, installed, onIns
 						<Row label="Lowest amplifier, music">
 							{columns.map((c) => cell(c.id, volts(c.lowestAmplifierV.sustained)))}
 						</Row>
+						<Row label="Hottest cable in the burp" hint="adiabatic estimate · insulation rating">
+							{columns.map((c) =>
+								cell(
+									c.id,
+									c.hottestCable
+										? `${c.hottestCable.label}: ${c.hottestCable.finalC > 999 ? '> 999' : c.hottestCable.finalC.toFixed(0)} °C of ${c.hottestCable.limitC.toFixed(0)} °C`
+										: '—',
+									c.hottestCable && c.hottestCable.finalC > c.hottestCable.limitC
+										? 'text-brick'
+										: '',
+								),
+							)}
+						</Row>
+						<Row label="Alternators carry the music from" hint="engine speed, swept 600–4,000 rpm">
+							{columns.map((c) =>
+								cell(
+									c.id,
+									c.carriesMusicFromRpm === null
+										? 'not up to 4,000 rpm'
+										: `${c.carriesMusicFromRpm} rpm`,
+								),
+							)}
+						</Row>
 						{ampIds.map(([id, label]) => (
 							<Row
 								key={id}
