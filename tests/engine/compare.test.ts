@@ -56,9 +56,9 @@ describe('comparePlans', () => {
 describe('comparePlans: cable heating and the engine speed at which the alternators keep up', () => {
 	it('names each column’s hottest cable against its insulation and the first swept speed that needs no bank', async () => {
 		const { speedSweep } = await import('../../src/engine/sweep');
-		// A plan that thins the four-channel feed to 14 AWG: it runs hotter than anything in the build.
+		// A plan that thins the four-channel feed to 12 AWG: it runs hotter than anything in the build.
 		const thin = structuredClone(marlinBuild);
-		thin.cables.find((c) => c.id === 'mids_feed')!.size = { kind: 'awg', awg: '14' };
+		thin.cables.find((c) => c.id === 'mids_feed')!.size = { kind: 'awg', awg: '12' };
 		const [current, plan] = comparePlans(
 			marlinBuild,
 			[{ id: 'thin', name: 'Thin feed', document: thin, cost: 0 }],
