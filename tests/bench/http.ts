@@ -9,16 +9,8 @@
  * view) ≥ 0.3, build page ≥ 0.25, team page ≥ 0.4, each p99 < 100 ms.
  */
 import autocannon from 'autocannon';
-import { mkdtempSync } from 'node:fs';
-import { tmpdir } from 'node:os';
-import path from 'node:path';
-import { DEMO_PASSWORD, DEMO_USERS, seedDemo } from '../../db/seed';
-import { ensureCluster } from '../../db/cluster';
-import { migrateToLatest } from '../../db/migrator';
-import { startS3Fake } from '../../cli/s3-fake';
-import { startSmtpFake } from '../../cli/smtp-fake';
-import { createDb } from '../../src/lib/server/db/client';
-import { startAppServer } from '../helpers/app-server';
+import { DEMO_PASSWORD, DEMO_USERS } from '../../db/seed';
+import { startBenchApp } from './bench-app';
 import { HttpSession } from '../helpers/http-session';
 
 const PORT = Number(process.env.SAGWISE_BENCH_PORT ?? 4394);
@@ -26,33 +18,7 @@ const SECONDS = Number(process.env.SAGWISE_BENCH_SECONDS ?? 10);
 const ROUNDS = Number(process.env.SAGWISE_BENCH_ROUNDS ?? 3);
 const CONNECTIONS = 10;
 
-const cluster = await ensureCluster({
-	dir: '.data/bench-pg',
-	port: Number(process.env.SAGWISE_BENCH_PG_PORT ?? 54359),
-	database: 'sagwise_bench',
-});
-const dbUrl = cluster.url('sagwise_bench');
-const db = createDb(dbUrl, 1);
-await migrateToLatest(db);
-const seeded = await db.selectFrom('team').select('id').executeTakeFirst();
-if (!seeded) await seedDemo(db);
-await db.destroy();
-
-const smtp = await startSmtpFake({
-	port: 0,
-	dir: mkdtempSync(path.join(tmpdir(), 'sagwise-bench-mail-')),
-});
-const s3 = await startS3Fake({
-	port: 0,
-	dir: mkdtempSync(path.join(tmpdir(), 'sagwise-bench-s3-')),
-	bucket: 'sagwise-files',
-});
-const server = await startAppServer(PORT, {
-	DATABASE_URL: dbUrl,
-	SMTP_URL: `smtp://127.0.0.1:${smtp.port}`,
-	S3_ENDPOINT: s3.endpoint,
-	S3_BUCKET: 'sagwise-files',
-});
+const { server, stop } = await startBenchApp(PORT);
 
 try {
 	const session = new HttpSession(server.url);
@@ -134,7 +100,5 @@ try {
 		);
 	}
 } finally {
-	await server.stop();
-	await smtp.close();
-	await s3.close();
+	await stop();
 }

@@ -8,18 +8,10 @@
  *
  * Targets: median under 16 ms, p95 under 50 ms, no long task over 50 ms. Needs `npm run build`.
  */
-import { mkdtempSync } from 'node:fs';
-import { tmpdir } from 'node:os';
-import path from 'node:path';
-import { DEMO_PASSWORD, DEMO_TEAM_NAME, DEMO_USERS, seedDemo } from '../../db/seed';
-import { ensureCluster } from '../../db/cluster';
-import { migrateToLatest } from '../../db/migrator';
-import { startS3Fake } from '../../cli/s3-fake';
-import { startSmtpFake } from '../../cli/smtp-fake';
+import { DEMO_PASSWORD, DEMO_TEAM_NAME, DEMO_USERS } from '../../db/seed';
+import { startBenchApp } from './bench-app';
 import { appendRevision } from '../../src/lib/server/db/builds';
-import { createDb } from '../../src/lib/server/db/client';
 import { insertVehicleWithBuild } from '../../src/lib/server/db/vehicles';
-import { startAppServer } from '../helpers/app-server';
 import { openBrowser, signInToTeam } from '../helpers/browser';
 import { forty } from './fixtures';
 
@@ -27,33 +19,28 @@ const PORT = Number(process.env.SAGWISE_BENCH_PAGE_PORT ?? 4395);
 const VALUES = ['12.5', '7.25', '31', '4.8', '19.75', '2.6', '15', '9.4'];
 const ROUNDS = Number(process.env.SAGWISE_BENCH_ROUNDS ?? 4);
 
-const cluster = await ensureCluster({
-	dir: '.data/bench-pg',
-	port: Number(process.env.SAGWISE_BENCH_PG_PORT ?? 54359),
-	database: 'sagwise_bench',
-});
-const dbUrl = cluster.url('sagwise_bench');
-const db = createDb(dbUrl, 1);
-await migrateToLatest(db);
-let team = await db.selectFrom('team').select('id').executeTakeFirst();
-if (!team) {
-	await seedDemo(db);
-	team = await db.selectFrom('team').select('id').executeTakeFirstOrThrow();
-}
 const name = 'Forty-cable bench car';
-let vehicle = await db
-	.selectFrom('vehicle')
-	.select('id')
-	.where('name', '=', name)
-	.executeTakeFirst();
-if (!vehicle) {
+let teamId = '';
+let vehicleId = '';
+const { server, stop } = await startBenchApp(PORT, async (db) => {
+	const team = await db.selectFrom('team').select('id').executeTakeFirstOrThrow();
+	teamId = team.id;
+	const existing = await db
+		.selectFrom('vehicle')
+		.select('id')
+		.where('name', '=', name)
+		.executeTakeFirst();
+	if (existing) {
+		vehicleId = existing.id;
+		return;
+	}
 	const owner = await db
 		.selectFrom('User')
 		.select('id')
 		.where('email', '=', DEMO_USERS[1].email)
 		.executeTakeFirstOrThrow();
 	const made = await insertVehicleWithBuild(db, {
-		teamId: team.id,
+		teamId,
 		name,
 		description: '40 cables, for the page bench',
 		competitionClass: '',
@@ -67,26 +54,12 @@ if (!vehicle) {
 		message: 'Bench network',
 		authorId: owner.id,
 	});
-	vehicle = made.vehicle;
-}
-await db.destroy();
-
-const smtp = await startSmtpFake({ port: 0, dir: mkdtempSync(path.join(tmpdir(), 'sagwise-pb-')) });
-const s3 = await startS3Fake({
-	port: 0,
-	dir: mkdtempSync(path.join(tmpdir(), 'sagwise-pb-s3-')),
-	bucket: 'sagwise-files',
-});
-const server = await startAppServer(PORT, {
-	DATABASE_URL: dbUrl,
-	SMTP_URL: `smtp://127.0.0.1:${smtp.port}`,
-	S3_ENDPOINT: s3.endpoint,
-	S3_BUCKET: 'sagwise-files',
+	vehicleId = made.vehicle.id;
 });
 const b = await openBrowser({ viewport: { width: 1366, height: 900 } });
 try {
 	await signInToTeam(b, server.url, DEMO_USERS[1].email, DEMO_PASSWORD, DEMO_TEAM_NAME);
-	await b.page.goto(`${server.url}/teams/${team.id}/vehicles/${vehicle.id}`);
+	await b.page.goto(`${server.url}/teams/${teamId}/vehicles/${vehicleId}`);
 	await b.page.waitForSelector('astro-island[component-export="BuildWorkspace"]:not([ssr])', {
 		state: 'attached',
 	});
@@ -182,7 +155,5 @@ try {
 	if (b.problems.length) console.log('browser problems:', b.problems);
 } finally {
 	await b.close();
-	await server.stop();
-	await smtp.close();
-	await s3.close();
+	await stop();
 }

@@ -6,6 +6,20 @@ import { type Browser, openBrowser, SCREENSHOT_DIR, signInToTeam } from '../help
 
 const appUrl = inject('appUrl');
 
+/** Signs a demo user in and opens Marlin's checklist for the first event listed. */
+async function openMarlinChecks(b: Browser, email: string) {
+	await signInToTeam(b, appUrl, email, DEMO_PASSWORD, DEMO_TEAM_NAME);
+	await b.page.getByRole('link', { name: 'Events', exact: true }).click();
+	await b.page.getByRole('link', { name: 'Pre-event checks' }).first().click();
+	await b.page
+		.getByRole('navigation', { name: 'Vehicles' })
+		.getByRole('link', { name: 'Marlin' })
+		.click();
+	await b.page.waitForSelector('astro-island[component-export="ChecklistView"]:not([ssr])', {
+		state: 'attached',
+	});
+}
+
 describe('pre-event checklist in chromium', () => {
 	let b: Browser | undefined;
 	afterAll(async () => b?.close());
@@ -13,16 +27,7 @@ describe('pre-event checklist in chromium', () => {
 	it('a member opens the next event’s checks, signs off a manual item and prints the sheet to PDF', async () => {
 		b = await openBrowser();
 		const { page } = b;
-		await signInToTeam(b, appUrl, DEMO_USERS[1].email, DEMO_PASSWORD, DEMO_TEAM_NAME);
-		await page.getByRole('link', { name: 'Events', exact: true }).click();
-		await page.getByRole('link', { name: 'Pre-event checks' }).first().click();
-		await page
-			.getByRole('navigation', { name: 'Vehicles' })
-			.getByRole('link', { name: 'Marlin' })
-			.click();
-		await page.waitForSelector('astro-island[component-export="ChecklistView"]:not([ssr])', {
-			state: 'attached',
-		});
+		await openMarlinChecks(b, DEMO_USERS[1].email);
 
 		// The demo builds run their amplifier feeds past the drop target: that computed item fails,
 		// and a member cannot sign it off, only a captain can waive it.
@@ -62,16 +67,7 @@ describe('pre-event checklist in chromium', () => {
 		const c = await openBrowser();
 		try {
 			const { page } = c;
-			await signInToTeam(c, appUrl, DEMO_USERS[0].email, DEMO_PASSWORD, DEMO_TEAM_NAME);
-			await page.getByRole('link', { name: 'Events', exact: true }).click();
-			await page.getByRole('link', { name: 'Pre-event checks' }).first().click();
-			await page
-				.getByRole('navigation', { name: 'Vehicles' })
-				.getByRole('link', { name: 'Marlin' })
-				.click();
-			await page.waitForSelector('astro-island[component-export="ChecklistView"]:not([ssr])', {
-				state: 'attached',
-			});
+			await openMarlinChecks(c, DEMO_USERS[0].email);
 			const drops = page.locator('[data-item="drops"]');
 			await drops.getByRole('button', { name: 'Waive…' }).click();
 			const reason = drops.getByLabel('Why the team accepts this failing item');

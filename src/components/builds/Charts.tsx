@@ -1,20 +1,11 @@
-import {
-	CategoryScale,
-	Chart as ChartJS,
-	Filler,
-	Legend,
-	LinearScale,
-	LineElement,
-	PointElement,
-	Tooltip,
-} from 'chart.js';
+import { CategoryScale, Chart as ChartJS, Filler } from 'chart.js';
+import '@/components/ui/chart-setup';
 import { useMemo } from 'react';
 import { Line } from 'react-chartjs-2';
 import type { BudgetRow, BurpRun, SpeedPoint } from '@/engine';
 import { toBudgetChartData, toBurpChartData, toSweepChartData } from './chart-data';
 
-ChartJS.register(CategoryScale, LinearScale, PointElement, LineElement, Filler, Tooltip, Legend);
-ChartJS.defaults.font.family = "'Public Sans Variable', system-ui, sans-serif";
+ChartJS.register(CategoryScale, Filler);
 
 const budgetOptions = {
 	responsive: true,

@@ -7,7 +7,6 @@ import {
 	currentUserId,
 	enqueue,
 	isOffline,
-	onSent,
 	type SignoffEntry,
 	startOutbox,
 	useOnLeave,
@@ -70,17 +69,8 @@ export const ChecklistView = withQueryClient(function ChecklistView({
 		pending.map((e) => e.id),
 		() => void qc.invalidateQueries({ queryKey: key }),
 	);
-	useEffect(() => {
-		startOutbox();
-		return onSent((e, result) => {
-			if (e.kind !== 'signoff' || e.eventId !== initial.eventId) return;
-			if (e.vehicleId !== initial.vehicleId) return;
-			qc.setQueryData(key, result as Checklist);
-			// A fetch begun when the connection returned may answer the sheet from before the send.
-			void qc.invalidateQueries({ queryKey: key });
-		});
-		// eslint-disable-next-line react-hooks/exhaustive-deps -- key is derived from the ids listed
-	}, [qc, initial.eventId, initial.vehicleId]);
+	// Sends what waits on this device; useOnLeave above fetches the sheet again as entries go out.
+	useEffect(() => startOutbox(), []);
 	const signOff = useSignOff(teamId, initial.eventId);
 	const addItem = useAddCheckItem(teamId);
 	const [error, setError] = useState<string | null>(null);

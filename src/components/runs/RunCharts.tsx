@@ -1,39 +1,11 @@
-import {
-	Chart as ChartJS,
-	Legend,
-	LinearScale,
-	LineElement,
-	PointElement,
-	Tooltip,
-} from 'chart.js';
+import { voltsAndAmpsOptions } from '@/components/ui/chart-setup';
 import { useMemo } from 'react';
 import { Scatter } from 'react-chartjs-2';
 import type { Sample } from '@/engine';
 import type { RunDto } from '@/lib/schemas/runs';
 import { toSamplesChartData, toScoresOverTime, toScoreVsVoltage } from './run-chart-data';
 
-ChartJS.register(LinearScale, PointElement, LineElement, Tooltip, Legend);
-
-const samplesOptions = {
-	responsive: true,
-	maintainAspectRatio: false,
-	animation: false as const,
-	scales: {
-		x: { type: 'linear' as const, title: { display: true, text: 'Time (s)' } },
-		y: {
-			type: 'linear' as const,
-			position: 'left' as const,
-			title: { display: true, text: 'Voltage (V)' },
-		},
-		y1: {
-			type: 'linear' as const,
-			position: 'right' as const,
-			title: { display: true, text: 'Current (A)' },
-			grid: { drawOnChartArea: false },
-		},
-	},
-	plugins: { legend: { position: 'bottom' as const } },
-};
+const samplesOptions = voltsAndAmpsOptions('Time (s)', 'Voltage (V)', 'Current (A)');
 
 const overTimeOptions = {
 	responsive: true,

@@ -1,12 +1,4 @@
 import { useQueries, useQuery } from '@tanstack/react-query';
-import {
-	Chart as ChartJS,
-	Legend,
-	LinearScale,
-	LineElement,
-	PointElement,
-	Tooltip,
-} from 'chart.js';
 import { useState } from 'react';
 import { Scatter } from 'react-chartjs-2';
 import {
@@ -18,6 +10,7 @@ import {
 import { fmt } from '@/lib/format';
 import { MEASUREMENT_FIELDS, RUN_MEASUREMENTS } from '@/lib/schemas/run-measurements';
 import { burpStartS } from '@/lib/trace-align';
+import { voltsAndAmpsOptions } from '@/components/ui/chart-setup';
 import { Button } from '@/components/ui/Field';
 import {
 	type ComparedTrace,
@@ -29,29 +22,12 @@ import {
 } from './trace-comparison-data';
 import { useLocalFormat } from '@/lib/client/local-time';
 
-ChartJS.register(LinearScale, PointElement, LineElement, Tooltip, Legend);
-
-const traceOptions = {
-	responsive: true,
-	maintainAspectRatio: false,
-	animation: false as const,
-	scales: {
-		x: { type: 'linear' as const, title: { display: true, text: 'Time since the burp began (s)' } },
-		y: {
-			type: 'linear' as const,
-			position: 'left' as const,
-			title: { display: true, text: 'Voltage (V), solid lines' },
-		},
-		y1: {
-			type: 'linear' as const,
-			position: 'right' as const,
-			min: 0,
-			title: { display: true, text: 'Current (A), dashed lines' },
-			grid: { drawOnChartArea: false },
-		},
-	},
-	plugins: { legend: { position: 'bottom' as const, labels: { usePointStyle: true } } },
-};
+const traceOptions = voltsAndAmpsOptions(
+	'Time since the burp began (s)',
+	'Voltage (V), solid lines',
+	'Current (A), dashed lines',
+	{ pointLegend: true, ampsFromZero: true },
+);
 
 const dbOptions = {
 	responsive: true,

@@ -1,16 +1,7 @@
-import {
-	Chart as ChartJS,
-	Legend,
-	LinearScale,
-	LineElement,
-	PointElement,
-	Tooltip,
-} from 'chart.js';
+import '@/components/ui/chart-setup';
 import { format } from 'date-fns';
 import { Scatter } from 'react-chartjs-2';
 import { TRACE_SLOTS } from '@/components/runs/trace-comparison-data';
-
-ChartJS.register(LinearScale, PointElement, LineElement, Tooltip, Legend);
 
 const DASHES = [[], [6, 4], [2, 3], [10, 3, 2, 3]];
 
