@@ -7,7 +7,8 @@ import {
 import { alternatorLimitA } from './alternator';
 import { bankThevenin, chargeAcceptanceA } from './battery';
 import { cableResistanceOhm } from './conductors';
-import { solveDense } from './linear';
+import { DenseSystem } from './linear';
+import { type FactorResult, SparseLdl, type SymmetricSystem } from './sparse';
 import type { BuildDocument } from './types';
 
 /** A tiny conductance from every node to the chassis (as SPICE's gmin) keeps the matrix regular. */
@@ -16,6 +17,12 @@ const MAX_ITERATIONS = 80;
 const RESIDUAL_TOL_A = 1e-8;
 /** Newton steps smaller than this are taken whole (the quadratic-convergence zone). */
 const LOCAL_STEP_V = 1e-3;
+/**
+ * After a last step this small in the same operating modes, the pivots of that step's
+ * factorisation answer the stability question: the Jacobian moved by far less than it would take
+ * to change sign (a constant-power load's slope changes by 2·ΔV/V of itself).
+ */
+const SETTLED_STEP_V = 1e-6;
 
 export interface SolveConditions {
 	/** Engine speed (rpm); 0 = engine off. */
@@ -31,6 +38,22 @@ export interface SolveConditions {
 interface TwoTerminal {
 	p: number; // node index, -1 = chassis
 	n: number;
+	/** Slots of the element's Jacobian entries (p,p), (n,n) and (p,n); -1 where a terminal is the chassis. */
+	spp: number;
+	snn: number;
+	spn: number;
+}
+
+/** Buffers one network's solves reuse (Newton iterations, time steps): allocated once. */
+interface Workspace {
+	f: Float64Array;
+	step: Float64Array;
+	trial: Float64Array;
+	/** Each bank's and alternator's operating mode at the last assembly, and at the last factorisation. */
+	modes: Int8Array;
+	factoredModes: Int8Array;
+	/** Lowest amplifier terminal voltage seen; non-positive means no physical solution here. */
+	minAmpV: number;
 }
 
 /** The network reduced to numbers: node indices and per-element parameters. */
@@ -55,9 +78,23 @@ export interface CompiledNetwork {
 	loads: Array<TwoTerminal & { id: string; currentA: number }>;
 	/** Highest source voltage: the scale for initial guesses and collapse checks. */
 	nominalV: number;
+	/** The nodal Jacobian's pattern and factorisation, made once per network. */
+	system: SymmetricSystem;
+	/** Slot of each node's diagonal entry. */
+	diagSlot: Int32Array;
+	work: Workspace;
 }
 
-export function compileNetwork(doc: BuildDocument, conditions: SolveConditions): CompiledNetwork {
+/**
+ * Reduces a build to numbers for the solver. `linear: 'dense'` holds the Jacobian dense (the
+ * reference the sparse factorisation is tested against); the default is sparse LDLᵀ with a
+ * minimum-degree order.
+ */
+export function compileNetwork(
+	doc: BuildDocument,
+	conditions: SolveConditions,
+	opts: { linear?: 'sparse' | 'dense' } = {},
+): CompiledNetwork {
 	const chassis = doc.nodes.find((n) => n.kind === 'chassis');
 	const nodeIds = doc.nodes.filter((n) => n !== chassis).map((n) => n.id);
 	const index = new Map(nodeIds.map((id, i) => [id, i]));
@@ -75,6 +112,7 @@ export function compileNetwork(doc: BuildDocument, conditions: SolveConditions):
 			id: b.id,
 			p: at(b.positive),
 			n: at(b.negative),
+			...NO_SLOTS,
 			ocvV: th.ocvV,
 			resistanceOhm: th.resistanceOhm,
 			// A charging bank presents its own internal resistance (one Thevenin source and resistance
@@ -89,6 +127,7 @@ export function compileNetwork(doc: BuildDocument, conditions: SolveConditions):
 		id: a.id,
 		p: at(a.positive),
 		n: at(a.negative),
+		...NO_SLOTS,
 		setPointV: a.setPointV,
 		resistanceOhm: a.sourceResistanceOhm,
 		limitA: alternatorLimitA(a, conditions.engineRpm),
@@ -98,28 +137,60 @@ export function compileNetwork(doc: BuildDocument, conditions: SolveConditions):
 		...banks.map((b) => b.ocvV),
 		...alternators.filter((a) => a.limitA > 0).map((a) => a.setPointV),
 	);
+	const cables = doc.cables.map((c) => {
+		const r = cableResistanceOhm(c, conditions.conductorTempC);
+		return { id: c.id, p: at(c.from), n: at(c.to), g: 1 / r, resistanceOhm: r, ...NO_SLOTS };
+	});
+	const amplifiers = doc.amplifiers.map((a) => {
+		const draw = amplifierDraw(a, conditions.demand);
+		const terminals = { p: at(a.positive), n: at(a.negative), ...NO_SLOTS };
+		return { id: a.id, ...terminals, powerW: draw.powerW, draw };
+	});
+	const loads = doc.loads.map((l) => ({
+		id: l.id,
+		p: at(l.positive),
+		n: at(l.negative),
+		currentA: l.currentA,
+		...NO_SLOTS,
+	}));
+	const elements: TwoTerminal[] = [...cables, ...banks, ...alternators, ...amplifiers, ...loads];
+	const n = nodeIds.length;
+	const system: SymmetricSystem =
+		opts.linear === 'dense'
+			? new DenseSystem(n)
+			: new SparseLdl(
+					n,
+					elements.map((e) => [e.p, e.n] as const),
+				);
+	for (const e of elements) {
+		e.spp = system.slot(e.p, e.p);
+		e.snn = system.slot(e.n, e.n);
+		e.spn = e.p === e.n ? -1 : system.slot(e.p, e.n);
+	}
+	const modeCount = banks.length + alternators.length;
 	return {
 		nodeIds,
 		index,
-		cables: doc.cables.map((c) => {
-			const r = cableResistanceOhm(c, conditions.conductorTempC);
-			return { id: c.id, p: at(c.from), n: at(c.to), g: 1 / r, resistanceOhm: r };
-		}),
+		cables,
 		banks,
 		alternators,
-		amplifiers: doc.amplifiers.map((a) => {
-			const draw = amplifierDraw(a, conditions.demand);
-			return { id: a.id, p: at(a.positive), n: at(a.negative), powerW: draw.powerW, draw };
-		}),
-		loads: doc.loads.map((l) => ({
-			id: l.id,
-			p: at(l.positive),
-			n: at(l.negative),
-			currentA: l.currentA,
-		})),
+		amplifiers,
+		loads,
 		nominalV,
+		system,
+		diagSlot: Int32Array.from({ length: n }, (_, i) => system.slot(i, i)),
+		work: {
+			f: new Float64Array(n),
+			step: new Float64Array(n),
+			trial: new Float64Array(n),
+			modes: new Int8Array(modeCount),
+			factoredModes: new Int8Array(modeCount),
+			minAmpV: 0,
+		},
 	};
 }
+
+const NO_SLOTS = { spp: -1, snn: -1, spn: -1 };
 
 const volt = (v: Float64Array, i: number) => (i < 0 ? 0 : v[i]!);
 
@@ -147,45 +218,54 @@ export function alternatorCurrent(
 	return [i, -1 / a.resistanceOhm];
 }
 
-interface Assembled {
-	f: Float64Array;
-	j: Float64Array;
-	/** Lowest amplifier terminal voltage seen; non-positive means no physical solution here. */
-	minAmpV: number;
+/** Operating mode codes for the mode signature (a change means the Jacobian's form changed). */
+function bankMode(b: CompiledNetwork['banks'][number], x: number): number {
+	if (x <= b.ocvV) return 0;
+	return -(b.ocvV - x) / b.chargeResistanceOhm >= b.chargeAcceptanceA ? 2 : 1;
 }
 
-function assemble(net: CompiledNetwork, v: Float64Array, lambda: number, out: Assembled) {
+function alternatorMode(a: CompiledNetwork['alternators'][number], x: number): number {
+	if (a.limitA <= 0) return 0;
+	const i = (a.setPointV - x) / a.resistanceOhm;
+	return i <= 0 ? 0 : i >= a.limitA ? 2 : 1;
+}
+
+/** Residual f (current out of each node) into `net.work.f` and the Jacobian into `net.system`. */
+function assemble(net: CompiledNetwork, v: Float64Array, lambda: number) {
 	const n = net.nodeIds.length;
-	const { f, j } = out;
-	f.fill(0);
-	j.fill(0);
+	const { work, system, diagSlot } = net;
+	const f = work.f;
+	const j = system.values;
+	system.clear();
 	for (let i = 0; i < n; i++) {
 		f[i] = GMIN_S * v[i]!;
-		j[i * n + i] = GMIN_S;
+		j[diagSlot[i]!] += GMIN_S;
 	}
 	// Adds a two-terminal element drawing `cur` into p (out of n) with incremental conductance `g`.
-	const stamp = (p: number, q: number, cur: number, g: number) => {
-		if (p >= 0) {
-			f[p] += cur;
-			j[p * n + p] += g;
+	const stamp = (e: TwoTerminal, cur: number, g: number) => {
+		if (e.p >= 0) {
+			f[e.p] += cur;
+			j[e.spp] += g;
 		}
-		if (q >= 0) {
-			f[q] -= cur;
-			j[q * n + q] += g;
+		if (e.n >= 0) {
+			f[e.n] -= cur;
+			j[e.snn] += g;
 		}
-		if (p >= 0 && q >= 0) {
-			j[p * n + q] -= g;
-			j[q * n + p] -= g;
-		}
+		if (e.spn >= 0) j[e.spn] -= g;
 	};
-	for (const c of net.cables) stamp(c.p, c.n, c.g * (volt(v, c.p) - volt(v, c.n)), c.g);
+	for (const c of net.cables) stamp(c, c.g * (volt(v, c.p) - volt(v, c.n)), c.g);
+	let m = 0;
 	for (const b of net.banks) {
-		const [i, di] = bankCurrent(b, volt(v, b.p) - volt(v, b.n));
-		stamp(b.p, b.n, -i, -di);
+		const x = volt(v, b.p) - volt(v, b.n);
+		const [i, di] = bankCurrent(b, x);
+		stamp(b, -i, -di);
+		work.modes[m++] = bankMode(b, x);
 	}
 	for (const a of net.alternators) {
-		const [i, di] = alternatorCurrent(a, volt(v, a.p) - volt(v, a.n));
-		stamp(a.p, a.n, -i, -di);
+		const x = volt(v, a.p) - volt(v, a.n);
+		const [i, di] = alternatorCurrent(a, x);
+		stamp(a, -i, -di);
+		work.modes[m++] = alternatorMode(a, x);
 	}
 	let minAmpV = Number.POSITIVE_INFINITY;
 	for (const a of net.amplifiers) {
@@ -193,27 +273,14 @@ function assemble(net: CompiledNetwork, v: Float64Array, lambda: number, out: As
 		minAmpV = Math.min(minAmpV, vpn);
 		if (a.powerW === 0) continue;
 		const [i, di] = amplifierDrawCurrent(a.draw, vpn, lambda);
-		stamp(a.p, a.n, i, di);
+		stamp(a, i, di);
 	}
-	for (const l of net.loads) stamp(l.p, l.n, l.currentA, 0);
-	out.minAmpV = minAmpV;
+	for (const l of net.loads) stamp(l, l.currentA, 0);
+	work.minAmpV = minAmpV;
 }
 
-/** Cholesky test of the (symmetric) Jacobian: positive definite ⇔ a stable operating point. */
-function isPositiveDefinite(a: Float64Array, n: number): boolean {
-	const l = new Float64Array(a);
-	for (let k = 0; k < n; k++) {
-		let d = l[k * n + k]!;
-		for (let m = 0; m < k; m++) d -= l[k * n + m]! ** 2;
-		if (!(d > 0)) return false;
-		const s = Math.sqrt(d);
-		l[k * n + k] = s;
-		for (let i = k + 1; i < n; i++) {
-			let x = l[i * n + k]!;
-			for (let m = 0; m < k; m++) x -= l[i * n + m]! * l[k * n + m]!;
-			l[i * n + k] = x / s;
-		}
-	}
+function sameModes(a: Int8Array, b: Int8Array): boolean {
+	for (let i = 0; i < a.length; i++) if (a[i] !== b[i]) return false;
 	return true;
 }
 
@@ -274,32 +341,42 @@ function maxAbs(x: Float64Array): number {
 	return m;
 }
 
-function newton(
-	net: CompiledNetwork,
-	lambda: number,
-	start: Float64Array,
-	work: Assembled,
-): NewtonResult {
+/**
+ * Newton iteration from `start`, line-searched on the co-content. One symmetric factorisation per
+ * iteration gives the step, and its pivots say whether the Jacobian is positive definite: at the
+ * converged point that is the stability test (no separate one unless the last step was large or
+ * crossed into other operating modes).
+ */
+function newton(net: CompiledNetwork, lambda: number, start: Float64Array): NewtonResult {
 	const n = net.nodeIds.length;
-	let v = new Float64Array(start);
-	const trial = new Float64Array(n);
+	const { work, system } = net;
+	const { f, step, trial } = work;
+	const v = new Float64Array(start);
 	const floorV = 0.02 * net.nominalV;
+	let lastFactor: FactorResult | null = null;
+	let lastStepV = Number.POSITIVE_INFINITY;
 	for (let iter = 1; iter <= MAX_ITERATIONS; iter++) {
-		assemble(net, v, lambda, work);
+		assemble(net, v, lambda);
 		if (lambda > 0 && work.minAmpV < floorV)
 			return { ok: false, v, iterations: iter, residualA: Number.NaN };
-		const residual = maxAbs(work.f);
+		const residual = maxAbs(f);
 		if (residual < RESIDUAL_TOL_A) {
-			return { ok: isPositiveDefinite(work.j, n), v, iterations: iter, residualA: residual };
+			const settled =
+				lastFactor !== null &&
+				lastStepV < SETTLED_STEP_V &&
+				sameModes(work.modes, work.factoredModes);
+			const verdict = settled ? lastFactor : system.factor();
+			return { ok: verdict === 'positive-definite', v, iterations: iter, residualA: residual };
 		}
-		const step = new Float64Array(n);
-		for (let i = 0; i < n; i++) step[i] = -work.f[i]!;
+		for (let i = 0; i < n; i++) step[i] = -f[i]!;
+		const verdict = system.factor();
+		if (verdict === 'singular') return { ok: false, v, iterations: iter, residualA: residual };
+		system.solve(step);
+		lastFactor = verdict;
+		work.factoredModes.set(work.modes);
+		// Directional derivative of the co-content along the step.
 		let slope = 0;
-		for (let i = 0; i < n; i++) slope += work.f[i]! * step[i]!; // directional derivative of the co-content
-		if (!solveDense(work.j, step, n))
-			return { ok: false, v, iterations: iter, residualA: residual };
-		slope = 0;
-		for (let i = 0; i < n; i++) slope += work.f[i]! * step[i]!;
+		for (let i = 0; i < n; i++) slope += f[i]! * step[i]!;
 		if (!(slope < 0)) return { ok: false, v, iterations: iter, residualA: residual };
 		const stepSize = maxAbs(step);
 		let t = 1;
@@ -329,9 +406,8 @@ function newton(
 			if (coContent(net, trial, lambda, floorV) === Number.POSITIVE_INFINITY)
 				return { ok: false, v, iterations: iter, residualA: residual };
 		}
-		const next = new Float64Array(n);
-		for (let i = 0; i < n; i++) next[i] = v[i]! + t * step[i]!;
-		v = next;
+		for (let i = 0; i < n; i++) v[i] = v[i]! + t * step[i]!;
+		lastStepV = t * stepSize;
 	}
 	return { ok: false, v, iterations: MAX_ITERATIONS, residualA: Number.NaN };
 }
@@ -354,31 +430,32 @@ export interface RawSolution {
  */
 function dischargeGuess(net: CompiledNetwork, lambda: number): Float64Array | null {
 	const n = net.nodeIds.length;
-	const j = new Float64Array(n * n);
+	const { system, diagSlot } = net;
+	const j = system.values;
 	const b = new Float64Array(n);
-	for (let i = 0; i < n; i++) j[i * n + i] = GMIN_S;
-	const stampG = (p: number, q: number, g: number) => {
-		if (p >= 0) j[p * n + p] += g;
-		if (q >= 0) j[q * n + q] += g;
-		if (p >= 0 && q >= 0) {
-			j[p * n + q] -= g;
-			j[q * n + p] -= g;
-		}
+	system.clear();
+	for (let i = 0; i < n; i++) j[diagSlot[i]!] += GMIN_S;
+	const stampG = (e: TwoTerminal, g: number) => {
+		if (e.spp >= 0) j[e.spp] += g;
+		if (e.snn >= 0) j[e.snn] += g;
+		if (e.spn >= 0) j[e.spn] -= g;
 	};
-	const inject = (p: number, q: number, amps: number) => {
-		if (p >= 0) b[p] += amps;
-		if (q >= 0) b[q] -= amps;
+	const inject = (e: TwoTerminal, amps: number) => {
+		if (e.p >= 0) b[e.p] += amps;
+		if (e.n >= 0) b[e.n] -= amps;
 	};
-	for (const c of net.cables) stampG(c.p, c.n, c.g);
+	for (const c of net.cables) stampG(c, c.g);
 	for (const bank of net.banks) {
-		stampG(bank.p, bank.n, 1 / bank.resistanceOhm);
-		inject(bank.p, bank.n, bank.ocvV / bank.resistanceOhm);
+		stampG(bank, 1 / bank.resistanceOhm);
+		inject(bank, bank.ocvV / bank.resistanceOhm);
 	}
-	for (const a of net.alternators) inject(a.p, a.n, a.limitA);
+	for (const a of net.alternators) inject(a, a.limitA);
 	const vRef = Math.min(net.nominalV, ...net.banks.map((x) => x.ocvV));
-	for (const a of net.amplifiers) stampG(a.p, a.n, (lambda * a.powerW) / (vRef * vRef));
-	for (const l of net.loads) inject(l.p, l.n, -l.currentA);
-	return solveDense(j, b, n) ? b : null;
+	for (const a of net.amplifiers) stampG(a, (lambda * a.powerW) / (vRef * vRef));
+	for (const l of net.loads) inject(l, -l.currentA);
+	if (system.factor() === 'singular') return null;
+	system.solve(b);
+	return b;
 }
 
 function minAmplifierVoltage(net: CompiledNetwork, v: Float64Array): number {
@@ -395,11 +472,10 @@ function minAmplifierVoltage(net: CompiledNetwork, v: Float64Array): number {
  */
 export function solveCompiled(net: CompiledNetwork, start?: Float64Array): RawSolution {
 	const n = net.nodeIds.length;
-	const work: Assembled = { f: new Float64Array(n), j: new Float64Array(n * n), minAmpV: 0 };
 	let iterations = 0;
 	const attempt = (lambda: number, from: Float64Array | null): NewtonResult | null => {
 		if (!from) return null;
-		const r = newton(net, lambda, from, work);
+		const r = newton(net, lambda, from);
 		iterations += r.iterations;
 		return r.ok ? r : null;
 	};
@@ -408,7 +484,7 @@ export function solveCompiled(net: CompiledNetwork, start?: Float64Array): RawSo
 		if (warm)
 			return { v: warm.v, lambda: 1, collapsed: false, iterations, residualA: warm.residualA };
 	}
-	const unloaded = newton(net, 0, new Float64Array(n).fill(net.nominalV * 0.5), work);
+	const unloaded = newton(net, 0, new Float64Array(n).fill(net.nominalV * 0.5));
 	iterations += unloaded.iterations;
 	if (!unloaded.ok) throw new Error('the unloaded network did not solve; check its topology');
 	// The same network with every bank on its discharge resistance both ways has no soft charging
@@ -421,7 +497,7 @@ export function solveCompiled(net: CompiledNetwork, start?: Float64Array): RawSo
 	const fromStiff = (lambda: number) => {
 		const guess = dischargeGuess(net, lambda);
 		if (!guess) return null;
-		const r = newton(stiffBanks, lambda, guess, work);
+		const r = newton(stiffBanks, lambda, guess);
 		iterations += r.iterations;
 		return r.ok ? r.v : null;
 	};

@@ -12,7 +12,7 @@ import { comparePlans } from '../../src/engine/compare';
 import { upgradeHints } from '../../src/engine/hints';
 import { mergePlan } from '../../src/engine/merge';
 import { DEMO_PLANS } from '../../db/demo/plans';
-import { forty, synthetic200 } from './fixtures';
+import { forty, synthetic200, syntheticNetwork } from './fixtures';
 
 const bench = new Bench({ time: 1500, warmupTime: 300, retainSamples: true });
 for (const [name, d] of Object.entries(DEMO_BUILDS)) {
@@ -79,6 +79,17 @@ bench.add(
 	() => void buildReport(big, {}, { burpRun: false }),
 );
 
+// How a solve grows with the network: the sparse factorisation should keep it near linear
+// (target: exponent ≤ 1.5 between 500 and 2,000 cables).
+const SCALE = [500, 1000, 2000] as const;
+for (const count of SCALE) {
+	const d = syntheticNetwork(count);
+	bench.add(
+		`one network solve: synthetic ${count} cables`,
+		() => void solveNetwork(d, { engineRpm: 1500, demand: 1, conductorTempC: 25 }),
+	);
+}
+
 await bench.run();
 const rows = bench.tasks.map((t) => {
 	const r = t.result as
@@ -95,6 +106,15 @@ const rows = bench.tasks.map((t) => {
 	};
 });
 console.table(rows);
+const scaleMs = SCALE.map((count) =>
+	Number(
+		rows.find((r) => r.case === `one network solve: synthetic ${count} cables`)?.['median ms'],
+	),
+);
+const exponent = Math.log(scaleMs[2]! / scaleMs[0]!) / Math.log(SCALE[2] / SCALE[0]);
+console.log(
+	`solve time grows as n^${exponent.toFixed(2)} from ${SCALE[0]} to ${SCALE[2]} cables (target ≤ n^1.5)`,
+);
 console.log(
 	`synthetic network solved: ${bigCheck.status}, ${bigCheck.iterations} Newton iterations`,
 );
