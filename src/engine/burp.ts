@@ -1,5 +1,5 @@
-import { bankPeukertK, bankThevenin, chargeAcceptanceA, peukertEffectiveCurrentA } from './battery';
-import { compileNetwork, type CompiledNetwork, solveCompiled } from './network';
+import { compileNetwork, solveCompiled } from './network';
+import { advanceSoc, setBankStates } from './session';
 import { describeSolution } from './solve';
 import type { BuildDocument } from './types';
 
@@ -20,16 +20,6 @@ export interface BurpRun {
 	endSoc: Record<string, number>;
 	/** Time (s) at which the system had no operating point any more, or null. */
 	collapsedAtS: number | null;
-}
-
-function updateBanks(net: CompiledNetwork, doc: BuildDocument, soc: Record<string, number>) {
-	doc.banks.forEach((bank, i) => {
-		const compiled = net.banks[i]!;
-		const th = bankThevenin(bank, soc[bank.id]!);
-		compiled.ocvV = th.ocvV;
-		compiled.chargeAcceptanceA = chargeAcceptanceA(bank, soc[bank.id]!);
-		compiled.chargeResistanceOhm = th.resistanceOhm;
-	});
 }
 
 /**
@@ -68,7 +58,7 @@ export function runBurp(
 	let warm: Float64Array | undefined;
 	let collapsedAtS: number | null = null;
 	for (let k = 1; k <= steps; k++) {
-		updateBanks(net, doc, soc);
+		setBankStates(net, doc.banks, soc);
 		const raw = solveCompiled(net, warm);
 		warm = raw.v;
 		const s = describeSolution(net, raw);
@@ -88,14 +78,7 @@ export function runBurp(
 			const bank = doc.banks[i]!;
 			bankV[b.id]!.push(b.terminalV);
 			energyWh.banks += (b.currentA * b.terminalV * opts.stepS) / 3600;
-			const { capacityAh } = bankThevenin(bank);
-			const eff = peukertEffectiveCurrentA(
-				capacityAh,
-				bank.ratedHours,
-				b.currentA,
-				bankPeukertK(bank),
-			);
-			soc[b.id] = Math.min(1, Math.max(0, soc[b.id]! - (eff * opts.stepS) / 3600 / capacityAh));
+			soc[b.id] = advanceSoc(bank, soc[b.id]!, b.currentA, opts.stepS);
 		});
 		if (raw.collapsed) {
 			collapsedAtS = t;

@@ -1,6 +1,8 @@
 import { outputLossDb } from './amplifier';
 import { banksCarryHours } from './budget';
+import { bankThevenin } from './battery';
 import { runBurp } from './burp';
+import { engineOffPlayTime, runSession } from './session';
 import { buildReport, DEFAULT_SCENARIO } from './report';
 import { type NetworkSolution, solveNetwork } from './solve';
 import { speedSweep } from './sweep';
@@ -52,6 +54,21 @@ export interface ComparisonColumn {
 	hottestCable: { label: string; finalC: number; limitC: number } | null;
 	/** The lowest swept engine speed at which the alternators carry the music alone (null: none). */
 	carriesMusicFromRpm: number | null;
+	/**
+	 * The default session of burps (state of charge carried, recharged in the rests): the lowest
+	 * amplifier voltage in the first and the last burp, the charge left in all banks at the end
+	 * (Ah and the lowest bank's %), and where it collapsed (s) if it did.
+	 */
+	session: {
+		burps: number;
+		firstBurpV: number | null;
+		lastBurpV: number | null;
+		chargeLeftAh: number;
+		lowestSocPct: number;
+		collapsedAtS: number | null;
+	} | null;
+	/** Engine off at the music level: seconds until a bank's cut-off (null: more than six hours). */
+	engineOffPlayS: number | null;
 	/** dB gained per unit of money (null when free or not louder). */
 	dbPerMoney: number | null;
 }
@@ -133,6 +150,27 @@ export function comparePlans(
 			burp !== null && baseBurp !== null && ampDoc
 				? outputLossDb(ampDoc, burp) - outputLossDb(ampDoc, baseBurp)
 				: null;
+		const session = report.ok
+			? runSession(doc, {
+					burpDemand: scenario.burpDemand,
+					burpS: scenario.burpSeconds,
+					engineRpm: scenario.engineRpm,
+					conductorTempC: scenario.conductorTempC,
+				})
+			: null;
+		const sessionSummary: ComparisonColumn['session'] = session
+			? {
+					burps: session.burps.length,
+					firstBurpV: session.burps[0]?.lowestAmplifierV ?? null,
+					lastBurpV: session.burps.at(-1)?.lowestAmplifierV ?? null,
+					chargeLeftAh: doc.banks.reduce(
+						(t, b) => t + session.endSoc[b.id]! * bankThevenin(b).capacityAh,
+						0,
+					),
+					lowestSocPct: Math.min(100, ...doc.banks.map((b) => session.endSoc[b.id]! * 100)),
+					collapsedAtS: session.collapsedAtS,
+				}
+			: null;
 		const bankDraw = report.ok ? report.sustained.banks.reduce((s, b) => s + b.currentA, 0) : 0;
 		return {
 			id,
@@ -180,6 +218,14 @@ export function comparePlans(
 			carriesMusicFromRpm: report.ok
 				? (speedSweep(doc, scenario).sustained.find((p) => !p.collapse && p.bankA <= 0.5)
 						?.engineRpm ?? null)
+				: null,
+			session: sessionSummary,
+			engineOffPlayS: report.ok
+				? engineOffPlayTime(doc, {
+						demand: scenario.sustainedDemand,
+						conductorTempC: scenario.conductorTempC,
+						cutoffV: scenario.cutoffV,
+					}).seconds
 				: null,
 			dbPerMoney: deltaDb !== null && deltaDb > 0 && cost > 0 ? deltaDb / cost : null,
 		};

@@ -15,6 +15,7 @@ export {
 export * from './solve';
 export * from './budget';
 export * from './burp';
+export * from './session';
 export * from './report';
 export * from './spice';
 export * from './units';

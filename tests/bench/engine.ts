@@ -7,6 +7,7 @@ import { Bench } from 'tinybench';
 import { DEMO_BUILDS } from '../../db/demo/builds';
 import { buildReport, DEFAULT_SCENARIO } from '../../src/engine/report';
 import { runBurp } from '../../src/engine/burp';
+import { engineOffPlayTime, runSession } from '../../src/engine/session';
 import { solveNetwork } from '../../src/engine/solve';
 import { comparePlans } from '../../src/engine/compare';
 import { upgradeHints } from '../../src/engine/hints';
@@ -77,6 +78,20 @@ bench.add(
 bench.add(
 	`report, no time-stepping: synthetic ${big.cables.length} cables`,
 	() => void buildReport(big, {}, { burpRun: false }),
+);
+
+// A whole session: 10 burps of 30 s with 60 s rests at 10 ms steps (90,000 solves), run in the
+// build page's worker (target < 1.5 s); the build page's default session (target < 50 ms) and
+// the engine-off play time (target < 50 ms).
+const oak = DEMO_BUILDS['Old Oak'];
+bench.add(
+	'session 10 × 30 s burps, 60 s rests at 10 ms: Old Oak',
+	() => void runSession(oak, { burps: 10, burpS: 30, restS: 60, stepS: 0.01, restStepS: 0.01 }),
+);
+bench.add('default session (5 × 10 s burps): Old Oak', () => void runSession(oak));
+bench.add(
+	'engine-off play time to the cut-off: Old Oak',
+	() => void engineOffPlayTime(oak, { demand: 1 / 8, conductorTempC: 25, cutoffV: null }),
 );
 
 // How a solve grows with the network: the sparse factorisation should keep it near linear

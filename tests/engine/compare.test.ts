@@ -84,3 +84,18 @@ describe('comparePlans: cable heating and the engine speed at which the alternat
 		);
 	});
 });
+
+describe('comparePlans and the banks', () => {
+	it('shows what a bigger bank buys, where the single-point figures read the same', () => {
+		// Doubling every bank's strings doubles its capacity (bankThevenin: C = Np·C_unit), so the
+		// engine-off play time must grow and the session must end with more charge in hand.
+		const bigger = structuredClone(marlinBuild);
+		for (const b of bigger.banks) b.stringsInParallel *= 2;
+		const [now, plan] = comparePlans(marlinBuild, [
+			{ id: 'bank', name: 'Twice the bank', document: bigger, cost: 900 },
+		]);
+		expect(plan!.engineOffPlayS ?? Number.POSITIVE_INFINITY).toBeGreaterThan(now!.engineOffPlayS!);
+		expect(plan!.session!.chargeLeftAh).toBeGreaterThan(now!.session!.chargeLeftAh);
+		expect(plan!.session!.lastBurpV!).toBeGreaterThan(now!.session!.lastBurpV! - 1e-9);
+	});
+});

@@ -2,8 +2,13 @@ import { CategoryScale, Chart as ChartJS, Filler } from 'chart.js';
 import '@/components/ui/chart-setup';
 import { useMemo } from 'react';
 import { Line } from 'react-chartjs-2';
-import type { BudgetRow, BurpRun, SpeedPoint } from '@/engine';
-import { toBudgetChartData, toBurpChartData, toSweepChartData } from './chart-data';
+import type { BudgetRow, BurpRun, SessionRun, SpeedPoint } from '@/engine';
+import {
+	toBudgetChartData,
+	toBurpChartData,
+	toSessionChartData,
+	toSweepChartData,
+} from './chart-data';
 
 ChartJS.register(CategoryScale, Filler);
 
@@ -114,6 +119,53 @@ export function SweepChart({ points }: { points: SpeedPoint[] }) {
 				data={data as never}
 				options={sweepOptions}
 				aria-label="Settle voltage, lowest amplifier, alternator output and bank current from idle to high engine speed"
+				role="img"
+			/>
+		</div>
+	);
+}
+
+const sessionOptions = {
+	responsive: true,
+	maintainAspectRatio: false,
+	animation: false as const,
+	parsing: false as const,
+	interaction: { mode: 'nearest' as const, axis: 'x' as const, intersect: false },
+	scales: {
+		x: {
+			type: 'linear' as const,
+			title: { display: true, text: 'Time from the first burp (s)' },
+			ticks: { maxTicksLimit: 10 },
+		},
+		y: {
+			type: 'linear' as const,
+			position: 'left' as const,
+			title: { display: true, text: 'Voltage (V), solid' },
+		},
+		y1: {
+			type: 'linear' as const,
+			position: 'right' as const,
+			title: { display: true, text: 'State of charge (%), dashed' },
+			grid: { drawOnChartArea: false },
+		},
+	},
+	plugins: { legend: { position: 'bottom' as const, labels: { usePointStyle: true } } },
+};
+
+export function SessionChart({
+	run,
+	bankLabels,
+}: {
+	run: SessionRun;
+	bankLabels: Record<string, string>;
+}) {
+	const data = useMemo(() => toSessionChartData(run, bankLabels), [run, bankLabels]);
+	return (
+		<div className="h-64">
+			<Line
+				data={data as never}
+				options={sessionOptions}
+				aria-label="Bus voltage, lowest amplifier voltage and each bank's state of charge through the session"
 				role="img"
 			/>
 		</div>

@@ -18,6 +18,7 @@ import { CableChecksSection } from './analysis/CableChecksSection';
 import { Findings } from './analysis/Findings';
 import { SummaryStrip } from './analysis/SummaryStrip';
 import { ScenarioControls } from './analysis/ScenarioControls';
+import { SessionSection } from './analysis/SessionSection';
 import { SpeedSweepSection } from './analysis/SpeedSweepSection';
 import { UpgradeHintsSection } from './analysis/UpgradeHintsSection';
 import { Inspector, type Selection } from './Inspector';
@@ -216,6 +217,7 @@ export function Workbench({
 				/>
 			)}
 			{later && <SpeedSweepSectionMemo sweep={sweep} />}
+			{later && <SessionSectionMemo draft={laterDraft} scenario={scenario} valid={valid} />}
 			{later && <UpgradeHintsSectionMemo hints={hints} />}
 
 			{selection && (
@@ -253,6 +255,7 @@ const CableChecksSectionMemo = memo(CableChecksSection);
 const BurpSectionMemo = memo(BurpSection);
 const UpgradeHintsSectionMemo = memo(UpgradeHintsSection);
 const SpeedSweepSectionMemo = memo(SpeedSweepSection);
+const SessionSectionMemo = memo(SessionSection);
 
 const LIST_GROUPS: Array<[PartGroup, string]> = [
 	['cables', 'cable'],

@@ -1,4 +1,4 @@
-import type { BudgetRow, BurpRun, SpeedPoint } from '@/engine';
+import type { BudgetRow, BurpRun, SessionRun, SpeedPoint } from '@/engine';
 
 /** Token colours (the @theme palette), for Chart.js which cannot read CSS variables. */
 export const CHART_COLOURS = {
@@ -158,6 +158,47 @@ export function toSweepChartData(points: SpeedPoint[]) {
 				pointStyle: 'crossRot' as const,
 				pointRadius: 3,
 			},
+		],
+	};
+}
+
+/**
+ * A session of burps as chart data: the bus and the lowest amplifier voltage (solid, left axis)
+ * and each bank's state of charge (dashed, right axis) against time from the session's start.
+ */
+export function toSessionChartData(run: SessionRun, bankLabels: Record<string, string>) {
+	const dashes = [
+		[6, 3],
+		[2, 3],
+		[8, 2, 2, 2],
+	];
+	return {
+		datasets: [
+			{
+				label: 'Bus (V)',
+				data: run.trace.timeS.map((t, i) => ({ x: t, y: run.trace.busV[i]! })),
+				borderColor: CHART_COLOURS.teal,
+				backgroundColor: CHART_COLOURS.teal,
+				yAxisID: 'y',
+				pointRadius: 0,
+			},
+			{
+				label: 'Lowest amplifier (V)',
+				data: run.trace.timeS.map((t, i) => ({ x: t, y: run.trace.lowestAmplifierV[i] ?? null })),
+				borderColor: CHART_COLOURS.copper,
+				backgroundColor: CHART_COLOURS.copper,
+				yAxisID: 'y',
+				pointRadius: 0,
+			},
+			...Object.entries(run.trace.soc).map(([id, soc], k) => ({
+				label: `${bankLabels[id] ?? id}, charge (%)`,
+				data: run.trace.timeS.map((t, i) => ({ x: t, y: soc[i]! * 100 })),
+				borderColor: k % 2 ? CHART_COLOURS.soft : CHART_COLOURS.ink,
+				backgroundColor: k % 2 ? CHART_COLOURS.soft : CHART_COLOURS.ink,
+				borderDash: dashes[k % dashes.length],
+				yAxisID: 'y1',
+				pointRadius: 0,
+			})),
 		],
 	};
 }

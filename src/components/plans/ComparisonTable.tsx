@@ -212,6 +212,44 @@ export function ComparisonTable({ data, canInstall, installing, installed, onIns
 								),
 							)}
 						</Row>
+						<Row
+							label="Session of burps, lowest amplifier"
+							hint="first burp · last burp, charge carried between"
+						>
+							{columns.map((c) =>
+								cell(
+									c.id,
+									c.session === null
+										? '—'
+										: c.session.collapsedAtS !== null
+											? `collapse at ${fmt(c.session.collapsedAtS, 0)} s`
+											: `${volts(c.session.firstBurpV)} · ${volts(c.session.lastBurpV)}`,
+									c.session?.collapsedAtS != null ? 'text-brick' : '',
+								),
+							)}
+						</Row>
+						<Row label="Charge left after the session" hint="all banks · lowest bank">
+							{columns.map((c) =>
+								cell(
+									c.id,
+									c.session === null
+										? '—'
+										: `${fmt(c.session.chargeLeftAh, 0)} Ah · ${fmt(c.session.lowestSocPct, 0)} %`,
+								),
+							)}
+						</Row>
+						<Row label="Music with the engine off" hint="until a bank reaches its cut-off">
+							{columns.map((c) =>
+								cell(
+									c.id,
+									c.engineOffPlayS === null
+										? 'over 6 h'
+										: c.engineOffPlayS >= 3600
+											? `${fmt(c.engineOffPlayS / 3600, 1)} h`
+											: `${fmt(c.engineOffPlayS / 60, 0)} min`,
+								),
+							)}
+						</Row>
 						{voltages.map((v, vi) => (
 							<Row
 								key={v}

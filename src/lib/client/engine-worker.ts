@@ -1,25 +1,25 @@
 import { type Remote, wrap } from 'comlink';
-import { type BuildDocument, runBurp, speedSweep, upgradeHints } from '@/engine';
+import {
+	type BuildDocument,
+	engineOffPlayTime,
+	runBurp,
+	runSession,
+	speedSweep,
+	upgradeHints,
+} from '@/engine';
 import type { EngineWorkerApi } from './engine.worker';
 
 let remote: Remote<EngineWorkerApi> | null | undefined;
+
+type Maybe<F extends (...a: never[]) => unknown> = (
+	...a: Parameters<F>
+) => Promise<ReturnType<F>> | ReturnType<F>;
+type Engine = { [K in keyof EngineWorkerApi]: Maybe<EngineWorkerApi[K]> };
 
 /**
  * The editor's engine worker, started on first use; where a browser (or a test) has no module
  * workers, the same functions run here instead, so the answer is the same either way.
  */
-interface Engine {
-	burp: (
-		...a: Parameters<EngineWorkerApi['burp']>
-	) => Promise<ReturnType<EngineWorkerApi['burp']>> | ReturnType<EngineWorkerApi['burp']>;
-	hints: (
-		...a: Parameters<EngineWorkerApi['hints']>
-	) => Promise<ReturnType<EngineWorkerApi['hints']>> | ReturnType<EngineWorkerApi['hints']>;
-	sweep: (
-		...a: Parameters<EngineWorkerApi['sweep']>
-	) => Promise<ReturnType<EngineWorkerApi['sweep']>> | ReturnType<EngineWorkerApi['sweep']>;
-}
-
 function engine(): Engine {
 	if (remote === undefined) {
 		try {
@@ -39,6 +39,9 @@ function engine(): Engine {
 			hints: (doc: BuildDocument, c: Parameters<typeof upgradeHints>[1]) =>
 				upgradeHints(doc, c).slice(0, 5),
 			sweep: (doc: BuildDocument, s: Parameters<typeof speedSweep>[1]) => speedSweep(doc, s),
+			session: (doc: BuildDocument, s: Parameters<typeof runSession>[1]) => runSession(doc, s),
+			playTime: (doc: BuildDocument, o: Parameters<typeof engineOffPlayTime>[1]) =>
+				engineOffPlayTime(doc, o),
 		}
 	);
 }
@@ -49,3 +52,9 @@ export const hintsInWorker = (doc: BuildDocument, conditions: Parameters<typeof 
 	Promise.resolve(engine().hints(doc, conditions));
 export const sweepInWorker = (doc: BuildDocument, scenario: Parameters<typeof speedSweep>[1]) =>
 	Promise.resolve(engine().sweep(doc, scenario));
+export const sessionInWorker = (doc: BuildDocument, schedule: Parameters<typeof runSession>[1]) =>
+	Promise.resolve(engine().session(doc, schedule));
+export const playTimeInWorker = (
+	doc: BuildDocument,
+	opts: Parameters<typeof engineOffPlayTime>[1],
+) => Promise.resolve(engine().playTime(doc, opts));

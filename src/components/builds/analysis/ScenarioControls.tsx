@@ -83,7 +83,7 @@ export function ScenarioControls({
 	);
 }
 
-function ScenarioNumber({
+export function ScenarioNumber({
 	label,
 	unit,
 	value,
