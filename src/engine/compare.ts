@@ -48,6 +48,13 @@ export interface ComparisonColumn {
 	warnings: number;
 	/** Findings raised against cables (drop, cmil per amp, capacity, fusing). */
 	cableWarnings: string[];
+	/**
+	 * Findings raised against amplifiers (drop along the feed, output), each with how that
+	 * amplifier's own burp voltage moved against the current build (V; + is higher, null in the
+	 * current build's column or where the amplifier is new or a side collapsed): a plan can raise
+	 * every amplifier's voltage and still leave a drop finding standing.
+	 */
+	amplifierFindings: { amplifierId: string; message: string; changeV: number | null }[];
 	safetyFindings: number;
 	cost: number;
 	/** The cable that runs hottest in the burp (adiabatic, IEC 60949) against its insulation. */
@@ -118,6 +125,7 @@ export function comparePlans(
 		doc: BuildDocument,
 		cost: number,
 		baseBurpIn: number | null | undefined,
+		baseAmps: ComparisonColumn['amplifiers'] | null,
 	): ComparisonColumn => {
 		const report = buildReport(doc, scenario, { burpRun: false });
 		const run = report.ok
@@ -204,6 +212,22 @@ export function comparePlans(
 						.filter((w) => w.element.kind === 'cable' && w.severity !== 'info')
 						.map((w) => w.message)
 				: [],
+			amplifierFindings: report.ok
+				? report.warnings
+						.filter((w) => w.element.kind === 'amplifier' && w.severity !== 'info')
+						.map((w) => {
+							const now = report.amplifiers.find((a) => a.id === w.element.id);
+							const before = baseAmps?.find((a) => a.id === w.element.id);
+							return {
+								amplifierId: w.element.id,
+								message: w.message,
+								changeV:
+									now && before && report.burp.status === 'ok' && baseBurpIn !== null
+										? now.burpTerminalV - before.burpV
+										: null,
+							};
+						})
+				: [],
 			safetyFindings: report.ok ? report.warnings.filter((w) => w.safety).length : 0,
 			cost,
 			hottestCable: report.ok
@@ -231,7 +255,10 @@ export function comparePlans(
 		};
 	};
 	// The current build is its own baseline; each plan is measured against its burp voltage.
-	const base = column('current', 'Current build', current, 0, undefined);
+	const base = column('current', 'Current build', current, 0, undefined, null);
 	const baseBurp = base.lowestAmplifierV.burp;
-	return [base, ...plans.map((p) => column(p.id, p.name, p.document, p.cost, baseBurp))];
+	return [
+		base,
+		...plans.map((p) => column(p.id, p.name, p.document, p.cost, baseBurp, base.amplifiers)),
+	];
 }

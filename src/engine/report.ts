@@ -13,6 +13,7 @@ import {
 } from './conductors';
 import { adviseFuse, type FuseAdvice, MAX_FUSE_FACTOR } from './fuses';
 import { adiabaticFinalC } from './heating';
+import { describeFeed, type FeedReference, traceFeeds } from './feed';
 import { type NetworkSolution, solveNetwork } from './solve';
 import { checkTopology, type TopologyIssue } from './topology';
 import type { BuildDocument, Scenario } from './types';
@@ -97,8 +98,13 @@ export interface AmplifierReport {
 	label: string;
 	sustainedTerminalV: number;
 	burpTerminalV: number;
-	/** Voltage lost between the strongest source's terminals and this amplifier's, under burp (V). */
+	/**
+	 * Voltage lost under burp between the terminals of the sources that feed this amplifier
+	 * (weighted by their shares of its current) and its own: what its feed and return lose (V).
+	 */
 	burpDropV: number;
+	/** The sources the drop is measured from, with their shares (see traceFeeds). */
+	burpDropReference: FeedReference;
 	burpCurrentA: number;
 	/** Output one unit delivers at its burp terminal voltage (W) and the loss against its rating (dB). */
 	burpOutputW: number;
@@ -350,22 +356,18 @@ export function buildReport(
 		};
 	});
 
-	const strongest = (s: NetworkSolution) =>
-		Math.max(
-			0,
-			...s.banks.map((b) => b.terminalV),
-			...s.alternators.filter((a) => a.mode !== 'off').map((a) => a.terminalV),
-		);
+	const feeds = traceFeeds(doc, burp);
 	const amplifiers: AmplifierReport[] = doc.amplifiers.map((amp, i) => {
 		const b = burp.amplifiers[i]!;
-		const dropV = strongest(burp) - b.terminalV;
+		const feed = feeds.get(amp.id)!;
+		const dropV = feed.referenceV - b.terminalV;
 		if (dropV > scenario.dropTargetV) {
 			warn({
 				code: 'drop_over_target',
 				severity: 'warning',
 				element: { kind: 'amplifier', id: amp.id },
 				safety: false,
-				message: `"${amp.label}" sees ${fmt(dropV)} V less than the strongest source under burp (target ${fmt(scenario.dropTargetV)} V): ${fmt(-outputLossDb(amp, b.terminalV))} dB below its rating.`,
+				message: `"${amp.label}" sees ${fmt(dropV)} V less under burp than the terminals of ${describeFeed(feed)}, lost in its feed and return (target ${fmt(scenario.dropTargetV)} V): ${fmt(-outputLossDb(amp, b.terminalV))} dB below its rating.`,
 			});
 		}
 		return {
@@ -374,6 +376,7 @@ export function buildReport(
 			sustainedTerminalV: sustained.amplifiers[i]!.terminalV,
 			burpTerminalV: b.terminalV,
 			burpDropV: dropV,
+			burpDropReference: feed,
 			burpCurrentA: b.currentA,
 			burpOutputW: availableOutputW(amp, b.terminalV),
 			burpOutputLossDb: outputLossDb(amp, b.terminalV),

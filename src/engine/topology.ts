@@ -8,7 +8,9 @@ export interface TopologyIssue {
 		| 'same_terminals'
 		| 'not_connected'
 		| 'no_source'
-		| 'duplicate_id';
+		| 'duplicate_id'
+		/** A field the schema refuses (a document handed to the engine without validation). */
+		| 'invalid_field';
 	/** Path of the offending field, e.g. `cables.3.to`. */
 	path: string;
 	message: string;

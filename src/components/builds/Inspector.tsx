@@ -70,7 +70,15 @@ function figuresOf(sel: Selection, report: Ok, doc: BuildDocument, units: UnitSy
 			['Terminal voltage, music', `${fmt(a.sustainedTerminalV)} V`],
 			['Current, burp', `${fmt(a.burpCurrentA, 0)} A`],
 			['Output, burp', `${fmt(a.burpOutputW, 0)} W (${fmt(a.burpOutputLossDb)} dB)`],
-			['Drop from the strongest source', `${fmt(a.burpDropV)} V`],
+			['Lost in its feed and return, burp', `${fmt(a.burpDropV)} V`],
+			[
+				'Fed by',
+				a.burpDropReference.kind === 'strongest'
+					? 'no source current reaches it'
+					: a.burpDropReference.sources
+							.map((s) => `${s.label} ${Math.round(s.share * 100)} %`)
+							.join(', '),
+			],
 			['Output model', a.outputModel === 'regulated' ? 'regulated' : 'unregulated, (V/V_rated)²'],
 		);
 	} else if (sel.group === 'banks') {

@@ -286,6 +286,31 @@ export function ComparisonTable({ data, canInstall, installing, installed, onIns
 								</td>
 							))}
 						</Row>
+						<Row
+							label="Amplifier findings"
+							hint="beside each: its own burp voltage against the current build"
+						>
+							{columns.map((c) => (
+								<td key={c.id} className="px-3 py-2 text-right align-top">
+									{c.amplifierFindings.length === 0 ? (
+										<span className="text-teal">✓ none</span>
+									) : (
+										<details>
+											<summary className="cursor-pointer text-amber-text">
+												⚠ {c.amplifierFindings.length}
+											</summary>
+											<ul className="mt-1 space-y-1 text-left text-xs">
+												{c.amplifierFindings.map((f, i) => (
+													<li key={i}>
+														<VoltageTrend changeV={f.changeV} /> {f.message}
+													</li>
+												))}
+											</ul>
+										</details>
+									)}
+								</td>
+							))}
+						</Row>
 						<Row label="All findings" hint="of them safety findings">
 							{columns.map((c) =>
 								cell(
@@ -400,5 +425,21 @@ function InstallButton({
 		>
 			Install as next revision
 		</Button>
+	);
+}
+
+/** How an amplifier's own burp voltage moved against the current build, in words and an arrow. */
+function VoltageTrend({ changeV }: { changeV: number | null }) {
+	if (changeV === null) return null;
+	if (Math.abs(changeV) < 0.005)
+		return <span className="font-semibold whitespace-nowrap">= same voltage ·</span>;
+	const better = changeV > 0;
+	return (
+		<span
+			className={`font-semibold whitespace-nowrap ${better ? 'text-teal' : 'text-brick'}`}
+			title="This amplifier's burp voltage against the current build"
+		>
+			{better ? '▲' : '▼'} {signed(changeV)} V, {better ? 'better' : 'worse'} ·
+		</span>
 	);
 }

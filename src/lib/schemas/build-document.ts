@@ -1,14 +1,16 @@
 import { z } from 'zod';
 import { lineText } from './text';
+// From the engine's modules, not its index (the engine's input guard uses this schema), and
+// relative: the engine worker's bundler does not read the @/ alias.
+import { checkTopology } from '../../engine/topology';
 import {
 	AWG_SIZES,
 	type BuildDocument,
-	checkTopology,
 	CHEMISTRIES,
 	MATERIALS,
 	NODE_KINDS,
 	TERMINAL_PART_GROUPS,
-} from '@/engine';
+} from '../../engine/types';
 
 const id = z
 	.string()

@@ -1,0 +1,129 @@
+import { z } from 'zod';
+import { buildDocumentSchema } from '../lib/schemas/build-document';
+import { checkTopology } from './topology';
+import type { BuildDocument } from './types';
+
+/** One thing wrong with what an engine function was given: the field's path and what is wrong. */
+export interface EngineProblem {
+	/** e.g. `cables.2.lengthM`, `nodes`, `scenario.burpStepS`. */
+	path: string;
+	message: string;
+}
+
+/**
+ * What the engine's public functions throw when given a document or options they cannot compute
+ * with (a document that skipped the schema, a step of zero): never a bare Error, never NaN out.
+ * `problems` names each field.
+ */
+export class EngineInputError extends Error {
+	readonly code = 'invalid_engine_input' as const;
+	constructor(readonly problems: EngineProblem[]) {
+		super(
+			`The engine cannot compute with this input: ${problems
+				.slice(0, 3)
+				.map((p) => `${p.path || '(document)'}: ${p.message}`)
+				.join('; ')}${problems.length > 3 ? ` and ${problems.length - 3} more` : ''}`,
+		);
+		this.name = 'EngineInputError';
+	}
+}
+
+const finite = (what: string, min: number, max: number) =>
+	z
+		.number({ error: `${what} must be a number` })
+		.min(min, `${what} must be at least ${min}`)
+		.max(max, `${what} must be at most ${max}`);
+const seconds = (what: string) =>
+	z
+		.number({ error: `${what} must be a number` })
+		.positive(`${what} must be more than zero`)
+		.max(7 * 86_400, `${what} must be at most a week`);
+const demand = (what: string) => finite(what, 0, 100);
+
+/**
+ * The options every engine function takes (conditions, scenario, schedule) share their names:
+ * one set of ranges for all of them. Unknown keys pass; the functions ignore them.
+ */
+const optionsSchema = z.looseObject({
+	engineRpm: finite('Engine speed', 0, 100_000).optional(),
+	engineRpms: z
+		.array(finite('Engine speed', 0, 100_000))
+		.max(1000)
+		.optional(),
+	demand: demand('Demand').optional(),
+	sustainedDemand: demand('Music demand').optional(),
+	burpDemand: demand('Burp demand').optional(),
+	restDemand: demand('Rest demand').optional(),
+	conductorTempC: finite('Conductor temperature', -80, 400).optional(),
+	voltagesV: z
+		.array(finite('Supply voltage', 0.1, 100))
+		.max(50)
+		.optional(),
+	dropTargetV: finite('Drop target', 0, 100).optional(),
+	cutoffV: finite('Cut-off voltage', 0, 100).nullable().optional(),
+	fuseDistanceM: finite('Fuse distance', 0, 1000).optional(),
+	burpSeconds: seconds('Burp length').optional(),
+	burpStepS: seconds('Burp step').optional(),
+	durationS: seconds('Duration').optional(),
+	stepS: seconds('Step').optional(),
+	restStepS: seconds('Rest step').optional(),
+	burpS: seconds('Burp length').optional(),
+	restS: finite('Rest', 0, 7 * 86_400).optional(),
+	maxS: seconds('Longest time').optional(),
+	burps: z.number().int('Burps must be a whole number').min(0).max(1000).optional(),
+	stateOfCharge: z.record(z.string(), finite('State of charge', 0, 1)).optional(),
+});
+
+/** Most time steps one run may take: beyond this a step is too small for the time asked. */
+const MAX_STEPS = 2_000_000;
+
+function toProblems(issues: readonly z.core.$ZodIssue[], prefix: string): EngineProblem[] {
+	return issues.map((i) => ({
+		path: [prefix, ...i.path.map(String)].filter(Boolean).join('.'),
+		message: i.message,
+	}));
+}
+
+/** Everything wrong with a document the engine is handed: fields (the schema), then topology. */
+export function documentProblems(doc: unknown, prefix = ''): EngineProblem[] {
+	const parsed = buildDocumentSchema.safeParse(doc);
+	if (!parsed.success) return toProblems(parsed.error.issues, prefix);
+	return checkTopology(parsed.data).map((t) => ({
+		path: [prefix, t.path].filter(Boolean).join('.'),
+		message: t.message,
+	}));
+}
+
+/** Everything wrong with an options object (conditions, scenario or schedule). */
+export function optionsProblems(options: unknown, name: string): EngineProblem[] {
+	if (options === undefined) return [];
+	const parsed = optionsSchema.safeParse(options);
+	if (!parsed.success) return toProblems(parsed.error.issues, name);
+	const o = parsed.data;
+	const problems: EngineProblem[] = [];
+	const steps = (duration: number | undefined, step: number | undefined, key: string) => {
+		if (duration !== undefined && step !== undefined && duration / step > MAX_STEPS)
+			problems.push({
+				path: `${name}.${key}`,
+				message: `A step this small would take more than ${MAX_STEPS.toLocaleString('en')} steps`,
+			});
+	};
+	steps(o.durationS, o.stepS, 'stepS');
+	steps(o.burpSeconds, o.burpStepS, 'burpStepS');
+	steps(o.burpS !== undefined ? o.burpS * (o.burps ?? 1) : undefined, o.stepS, 'stepS');
+	steps(o.restS !== undefined ? o.restS * (o.burps ?? 1) : undefined, o.restStepS, 'restStepS');
+	steps(o.maxS, o.stepS, 'stepS');
+	return problems;
+}
+
+/** Throws EngineInputError naming every bad field unless `doc` is a solvable build document. */
+export function assertEngineInput(
+	doc: unknown,
+	options: Record<string, unknown> = {},
+): asserts doc is BuildDocument {
+	const problems = [
+		...documentProblems(doc),
+		...Object.entries(options).flatMap(([name, value]) => optionsProblems(value, name)),
+	];
+	if (problems.length > 0) throw new EngineInputError(problems);
+}
