@@ -100,13 +100,17 @@ export function resistancePerMetre(size: CableSize, material: Material, tempC = 
 	return solidResistancePerMetre(size, material, tempC) * STRANDING_FACTOR;
 }
 
-/** Resistance of a whole cable (Ω): ρ(T)·k_lay·L / (A·runs), runs in parallel. */
+/**
+ * Resistance of a whole cable (Ω): ρ(T)·k_lay·L / (A·runs), runs in parallel, plus the resistance
+ * of its terminations when one is stated.
+ */
 export function cableResistanceOhm(
-	cable: Pick<Cable, 'size' | 'material' | 'lengthM' | 'parallelRuns'>,
+	cable: Pick<Cable, 'size' | 'material' | 'lengthM' | 'parallelRuns' | 'connectionResistanceOhm'>,
 	tempC = 20,
 ): number {
 	return (
-		(resistancePerMetre(cable.size, cable.material, tempC) * cable.lengthM) / cable.parallelRuns
+		(resistancePerMetre(cable.size, cable.material, tempC) * cable.lengthM) / cable.parallelRuns +
+		(cable.connectionResistanceOhm ?? 0)
 	);
 }
 

@@ -56,6 +56,11 @@ export interface Cable {
 	fuses: Fuse[];
 	/** Insulation temperature rating, °C (e.g. 105). */
 	insulationC: number;
+	/**
+	 * Resistance of its terminations and joints beyond the conductor (Ω), for all runs together:
+	 * a tired crimp or a loose lug, measured or fitted from a run's log. Absent means none.
+	 */
+	connectionResistanceOhm?: number;
 }
 
 /** Alternator output limit (A) against alternator shaft speed (rpm), hot or cold as stated. */

@@ -13,6 +13,7 @@ import { comparePlans } from '../../src/engine/compare';
 import { upgradeHints } from '../../src/engine/hints';
 import { mergePlan } from '../../src/engine/merge';
 import { DEMO_PLANS } from '../../db/demo/plans';
+import { applyCalibration, calibrateFromRun } from '../../src/engine/calibrate';
 import { forty, synthetic200, syntheticNetwork } from './fixtures';
 
 const bench = new Bench({ time: 1500, warmupTime: 300, retainSamples: true });
@@ -92,6 +93,36 @@ bench.add('default session (5 × 10 s burps): Old Oak', () => void runSession(oa
 bench.add(
 	'engine-off play time to the cut-off: Old Oak',
 	() => void engineOffPlayTime(oak, { demand: 1 / 8, conductorTempC: 25, cutoffV: null }),
+);
+
+// Calibration: fitting bank resistance and alternator output to a 81-sample log made by the
+// engine from the Marlin build with both changed (target < 500 ms, in the run page's worker).
+const marlin = DEMO_BUILDS.Marlin;
+const tired = applyCalibration(
+	marlin,
+	{ bankResistance: 1.4, alternatorOutput: 0.85, connectionMilliohm: 0 },
+	undefined,
+);
+const log = Array.from({ length: 81 }, (_, i) => {
+	const s = solveNetwork(tired, {
+		engineRpm: 1500,
+		demand: 0.05 + 0.95 * Math.abs(Math.sin((i / 80) * Math.PI)),
+		conductorTempC: 25,
+	});
+	return {
+		tS: i * 0.1,
+		volts: Math.min(...s.amplifiers.map((a) => a.terminalV)),
+		amps: s.amplifiers.reduce((t, a) => t + a.currentA, 0),
+	};
+});
+bench.add(
+	'calibration fit (bank resistance, alternator output) to an 81-sample log: Marlin',
+	() =>
+		void calibrateFromRun(marlin, log, {
+			engineRpm: 1500,
+			conductorTempC: 25,
+			fit: ['bankResistance', 'alternatorOutput'],
+		}),
 );
 
 // How a solve grows with the network: the sparse factorisation should keep it near linear

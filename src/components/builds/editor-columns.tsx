@@ -240,6 +240,25 @@ export function cableColumns(nodes: Opt, units: UnitSystem): PartColumn<Cable>[]
 				set: (c, v) => ({ ...c, insulationC: num(v) }),
 			},
 		},
+		{
+			id: 'connection',
+			header: 'Joints',
+			unit: 'mΩ',
+			errorPath: 'connectionResistanceOhm',
+			cell: {
+				kind: 'number',
+				digits: 2,
+				get: (c) =>
+					c.connectionResistanceOhm === undefined ? null : c.connectionResistanceOhm * 1000,
+				set: (c, v) => {
+					if (v === null) {
+						const { connectionResistanceOhm: _, ...rest } = c;
+						return rest;
+					}
+					return { ...c, connectionResistanceOhm: num(v) / 1000 };
+				},
+			},
+		},
 	];
 }
 

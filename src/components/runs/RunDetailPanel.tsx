@@ -12,6 +12,7 @@ import {
 } from '@/lib/client/queries/runs';
 import { MISMATCH_MARGIN_V } from '@/lib/schemas/runs';
 import { fmt } from '@/lib/format';
+import { CalibrationSection } from './CalibrationSection';
 import { EditRunForm } from './EditRunForm';
 import { SamplesChart } from './RunCharts';
 import { useLocalFormat } from '@/lib/client/local-time';
@@ -153,6 +154,20 @@ export function RunDetailPanel({
 					</>
 				)}
 			</div>
+			{analysis && revision.data && run.revisionId && run.revisionNumber !== null && (
+				<CalibrationSection
+					teamId={teamId}
+					vehicleId={vehicleId}
+					revision={{
+						id: run.revisionId,
+						number: run.revisionNumber,
+						document: revision.data.document,
+					}}
+					samples={samples}
+					canPlan={canEdit}
+					runLabel={fmtTime(run.ranAt, 'd MMM yyyy HH:mm')}
+				/>
+			)}
 		</section>
 	);
 }

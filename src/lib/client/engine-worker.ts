@@ -1,6 +1,7 @@
 import { type Remote, wrap } from 'comlink';
 import {
 	type BuildDocument,
+	calibrateFromRun,
 	engineOffPlayTime,
 	runBurp,
 	runSession,
@@ -42,6 +43,11 @@ function engine(): Engine {
 			session: (doc: BuildDocument, s: Parameters<typeof runSession>[1]) => runSession(doc, s),
 			playTime: (doc: BuildDocument, o: Parameters<typeof engineOffPlayTime>[1]) =>
 				engineOffPlayTime(doc, o),
+			calibrate: (
+				doc: BuildDocument,
+				s: Parameters<typeof calibrateFromRun>[1],
+				o: Parameters<typeof calibrateFromRun>[2],
+			) => calibrateFromRun(doc, s, o),
 		}
 	);
 }
@@ -58,3 +64,9 @@ export const playTimeInWorker = (
 	doc: BuildDocument,
 	opts: Parameters<typeof engineOffPlayTime>[1],
 ) => Promise.resolve(engine().playTime(doc, opts));
+/** Fits the model to a run's log off the page's main thread (a few hundred milliseconds). */
+export const calibrateInWorker = (
+	doc: BuildDocument,
+	samples: Parameters<typeof calibrateFromRun>[1],
+	opts: Parameters<typeof calibrateFromRun>[2],
+) => Promise.resolve(engine().calibrate(doc, samples, opts));

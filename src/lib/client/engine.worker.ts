@@ -3,6 +3,7 @@ import { expose } from 'comlink';
 // Relative on purpose: Vite bundles workers with their own resolver, which does not read the @/ alias.
 import {
 	type BuildDocument,
+	calibrateFromRun,
 	engineOffPlayTime,
 	runBurp,
 	runSession,
@@ -24,6 +25,11 @@ const api = {
 		runSession(doc, schedule),
 	playTime: (doc: BuildDocument, opts: Parameters<typeof engineOffPlayTime>[1]) =>
 		engineOffPlayTime(doc, opts),
+	calibrate: (
+		doc: BuildDocument,
+		samples: Parameters<typeof calibrateFromRun>[1],
+		opts: Parameters<typeof calibrateFromRun>[2],
+	) => calibrateFromRun(doc, samples, opts),
 };
 
 export type EngineWorkerApi = typeof api;

@@ -91,6 +91,9 @@ export const cableSchema = z.object({
 		250,
 		'Insulation rating above 250 °C is not plausible',
 	),
+	connectionResistanceOhm: nonNegative('Connection resistance')
+		.max(1, 'A connection above 1 Ω is an open circuit')
+		.optional(),
 });
 
 const twoTerminal = { id, label, positive: id, negative: id };

@@ -33,6 +33,11 @@ export const newPlanSchema = z.object({
 	/** The revision the plan starts from; the build's head when left out. */
 	fromRevisionId: z.uuid({ error: 'fromRevisionId must be a revision id' }).optional(),
 	notes: notesText(2000).default(''),
+	/**
+	 * The plan's document when it is not a plain copy of the base revision (a calibration's fitted
+	 * values); left out, the plan starts as that revision's document.
+	 */
+	document: buildDocumentSchema.optional(),
 });
 
 export const updatePlanSchema = z.object({

@@ -1,5 +1,5 @@
 import { queryOptions, useMutation, useQueryClient } from '@tanstack/react-query';
-import type { ComparisonColumn } from '@/engine';
+import type { BuildDocument, ComparisonColumn } from '@/engine';
 import type { PlanDto, PlanSummary, UpdatePlanInput } from '@/lib/schemas/plans';
 import type { RevisionDto } from '@/lib/schemas/vehicles';
 import { api, getJson } from '@/lib/client/api-client';
@@ -45,8 +45,12 @@ export const compareQueryOptions = (
 
 export function useCreatePlan(teamId: string, vehicleId: string) {
 	return useMutation({
-		mutationFn: (input: { name: string; fromRevisionId?: string }) =>
-			api<PlanDto>(`/api/teams/${teamId}/vehicles/${vehicleId}/plans`, { json: input }),
+		mutationFn: (input: {
+			name: string;
+			fromRevisionId?: string;
+			document?: BuildDocument;
+			notes?: string;
+		}) => api<PlanDto>(`/api/teams/${teamId}/vehicles/${vehicleId}/plans`, { json: input }),
 	});
 }
 
