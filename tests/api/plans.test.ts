@@ -99,6 +99,38 @@ describe('upgrade plans', () => {
 		expect(list.map((x: { name: string }) => x.name)).toContain('Bigger run');
 	});
 
+	it('starts a plan with a document of its own (a calibration’s fitted values) and refuses one that cannot solve', async () => {
+		const fitted = structuredClone(marlinBuild);
+		fitted.cables.find((c) => c.id === 'block_feed')!.connectionResistanceOhm = 0.0015;
+		const created = await call(
+			plans,
+			'POST',
+			{},
+			{ name: 'Fitted to a run', document: fitted, notes: 'joint 1.50 mΩ' },
+		);
+		expect(created.status).toBe(201);
+		const p = await created.json();
+		expect(p.baseRevisionNumber).toBe(1);
+		expect(
+			p.document.cables.find((c: { id: string }) => c.id === 'block_feed').connectionResistanceOhm,
+		).toBe(0.0015);
+		// The build's head is untouched.
+		const head = await findHeadRevision(t.db, buildId);
+		expect(
+			head!.document.cables.find((c) => c.id === 'block_feed')!.connectionResistanceOhm,
+		).toBeUndefined();
+
+		const island = structuredClone(marlinBuild);
+		island.cables = island.cables.filter((c) => c.id !== 'block_feed');
+		const refused = await call(plans, 'POST', {}, { name: 'Broken', document: island });
+		expect(refused.status).toBe(400);
+		const negative = structuredClone(marlinBuild);
+		negative.cables[0]!.connectionResistanceOhm = -1;
+		const bad = await call(plans, 'POST', {}, { name: 'Negative', document: negative });
+		expect(bad.status).toBe(400);
+		expect(JSON.stringify(await bad.json())).toContain('connectionResistanceOhm');
+	});
+
 	it('refuses a save on top of a newer version with 409, keeping both', async () => {
 		const created = await (await call(plans, 'POST', {}, { name: 'Race' })).json();
 		const body = {

@@ -50,4 +50,46 @@ describe('logging a run in chromium', () => {
 		await b.screenshot('run-logged');
 		expect(b.problems).toEqual([]);
 	});
+
+	it('member fits the model to a logged run and starts a plan from the fitted values', async () => {
+		await b?.close();
+		b = await openBrowser();
+		const p = b.page;
+		await signInToTeam(b, appUrl, DEMO_USERS[1].email, DEMO_PASSWORD, DEMO_TEAM_NAME);
+		await p.getByRole('link', { name: 'Marlin', exact: true }).click();
+		await p.getByRole('link', { name: 'Runs', exact: true }).click();
+		await p.waitForSelector('astro-island[component-export="VehicleRuns"]:not([ssr])', {
+			state: 'attached',
+		});
+		// The demo's runs of this vehicle carry logger files; the first listed will do.
+		await p.locator('table button').first().click();
+		const section = p.getByRole('region', { name: 'Calibrate the model from this log' });
+		await section.getByLabel('Engine speed during the run (rpm)').fill('');
+		await expect(
+			section.getByRole('button', { name: 'Fit the model to this log' }).isDisabled(),
+		).resolves.toBe(true);
+		await section.getByLabel('Engine speed during the run (rpm)').fill('1500');
+		await section.getByRole('button', { name: 'Fit the model to this log' }).click();
+		const summary = section.getByText(/The model missed the log by/);
+		await summary.waitFor();
+		const [before, after] = [...((await summary.textContent()) ?? '').matchAll(/([\d.]+) V/g)].map(
+			(m) => Number(m[1]),
+		);
+		// A least-squares fit that starts from the revision's values can only lower the error.
+		expect(after!).toBeLessThanOrEqual(before!);
+		await expect(
+			section.getByRole('table', { name: 'Fitted values' }).getByRole('row').count(),
+		).resolves.toBe(3);
+		await section.getByRole('button', { name: 'Start a plan from these values' }).click();
+		const link = section.getByRole('link', { name: /Open the plan/ });
+		await link.waitFor();
+		await b.screenshot('run-calibrated');
+		await link.click();
+		await p.waitForURL(/\/plans\//);
+		await p
+			.getByText(/Fitted to the run of/)
+			.first()
+			.waitFor();
+		expect(b.problems).toEqual([]);
+	});
 });
