@@ -17,6 +17,17 @@ export default defineConfig({
 	adapter: node({ mode: 'standalone' }),
 	integrations: [
 		react(),
+		{
+			name: 'sagwise-client-directives',
+			hooks: {
+				'astro:config:setup': ({ addClientDirective }) => {
+					addClientDirective({
+						name: 'interact',
+						entrypoint: './src/lib/client/directives/interact.ts',
+					});
+				},
+			},
+		},
 		auth(),
 		// The app installs to a phone's home screen and keeps working at the lanes with no signal:
 		// the service worker holds the app's files, and the pages and data a member opened before

@@ -30,13 +30,14 @@ export * from './compare';
 export * from './merge';
 export * from './defaults';
 export { describeFeed, type FeedReference, type FeedShare } from './feed';
-export {
-	applyCalibration,
-	type CalibrationOptions,
-	type CalibrationParameter,
-	type CalibrationPoint,
-	type CalibrationResult,
-	type FittedParameter,
+// The calibration fit is its own entry, `@/engine/calibration` (it brings a fitting library that
+// pages without a log should not load); only its types are here.
+export type {
+	CalibrationOptions,
+	CalibrationParameter,
+	CalibrationPoint,
+	CalibrationResult,
+	FittedParameter,
 } from './calibrate';
 export { EngineInputError, type EngineProblem, documentProblems } from './guard';
 
@@ -58,7 +59,6 @@ import { upgradeHints as upgradeHintsUnchecked } from './hints';
 import { comparePlans as comparePlansUnchecked } from './compare';
 import { toSpiceNetlist as toSpiceNetlistUnchecked } from './spice';
 import { traceFeeds as traceFeedsUnchecked } from './feed';
-import { calibrateFromRun as calibrateFromRunUnchecked } from './calibrate';
 
 /** A report, or `ok: false` with every problem (a field's path, or the topology's). */
 export const buildReport: typeof buildReportUnchecked = (doc, scenario, opts) => {
@@ -114,19 +114,4 @@ export const toSpiceNetlist: typeof toSpiceNetlistUnchecked = (doc, conditions, 
 export const traceFeeds: typeof traceFeedsUnchecked = (doc, solution) => {
 	assertEngineInput(doc);
 	return traceFeedsUnchecked(doc, solution);
-};
-/** Logs longer than this are thinned by the caller first; a fit never needs more. */
-const MAX_CALIBRATION_SAMPLES = 500_000;
-export const calibrateFromRun: typeof calibrateFromRunUnchecked = (doc, samples, options) => {
-	assertEngineInput(doc, { calibration: options });
-	if (!Array.isArray(samples) || samples.length > MAX_CALIBRATION_SAMPLES)
-		throw new EngineInputError([
-			{ path: 'samples', message: `Give up to ${MAX_CALIBRATION_SAMPLES} samples` },
-		]);
-	const fits = ['bankResistance', 'alternatorOutput', 'connection'];
-	if (!Array.isArray(options.fit) || options.fit.some((f) => !fits.includes(f)))
-		throw new EngineInputError([
-			{ path: 'calibration.fit', message: `Fit any of ${fits.join(', ')}` },
-		]);
-	return calibrateFromRunUnchecked(doc, samples, options);
 };

@@ -37,7 +37,11 @@ async function settle(b: Browser, url: string) {
 	await b.page.waitForLoadState('networkidle');
 	// Islands render their figures after hydration; wait until none is still server-only.
 	await b.page
-		.waitForFunction(() => !document.querySelector('astro-island[ssr]'), null, { timeout: 15_000 })
+		.waitForFunction(
+			() => !document.querySelector('astro-island[ssr]:not([client="interact"])'),
+			null,
+			{ timeout: 15_000 },
+		)
 		.catch(() => undefined);
 }
 

@@ -22,9 +22,6 @@ describe('team backup in chromium', () => {
 		const file = await download.path();
 
 		await page.goto(`${appUrl}/teams`);
-		await page.waitForSelector('astro-island[component-export="ImportTeamForm"]:not([ssr])', {
-			state: 'attached',
-		});
 		const form = page.getByRole('form', { name: 'Restore a team from a backup' });
 		await form.getByLabel('Backup file').setInputFiles(file);
 		await form.getByLabel('Name for the restored team (optional)').fill('Backup drill');
@@ -42,9 +39,6 @@ describe('team backup in chromium', () => {
 
 		// A file that is not a backup is refused with the reason, and no team is added.
 		await page.goto(`${appUrl}/teams`);
-		await page.waitForSelector('astro-island[component-export="ImportTeamForm"]:not([ssr])', {
-			state: 'attached',
-		});
 		const teamsBefore = await page.getByRole('listitem').count();
 		await form.getByLabel('Backup file').setInputFiles({
 			name: 'notes.json',

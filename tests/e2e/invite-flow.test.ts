@@ -3,8 +3,11 @@ import { DEMO_PASSWORD, DEMO_TEAM_NAME, DEMO_USERS } from '../../db/seed';
 import { type Browser, openBrowser, signInToTeam } from '../helpers/browser';
 
 const appUrl = inject('appUrl');
+/** Waits until the page's islands are live; forms that wake on use (client:interact) count as ready. */
 const ready = (b: Browser) =>
-	b.page.waitForSelector('astro-island:not([ssr])', { state: 'attached' });
+	b.page.waitForFunction(
+		() => !document.querySelector('astro-island[ssr]:not([client="interact"])'),
+	);
 
 describe('inviting a new member, in chromium', () => {
 	const opened: Browser[] = [];

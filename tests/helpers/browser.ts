@@ -77,7 +77,7 @@ export async function signInToTeam(
 	teamName: string,
 ): Promise<void> {
 	await b.page.goto(`${appUrl}/sign-in?callbackUrl=/teams`);
-	await b.page.waitForSelector('astro-island:not([ssr])', { state: 'attached' });
+	// The form is live HTML at once; its script loads when it is used (client:interact).
 	await b.page.getByLabel('E-mail').fill(email);
 	await b.page.getByLabel('Password').fill(password);
 	await b.page.getByRole('button', { name: 'Sign in' }).click();

@@ -1,4 +1,5 @@
 import { useState } from 'react';
+import { useTypedState } from '@/lib/client/typed-before-hydration';
 import { passwordResetConfirmSchema, passwordResetRequestSchema } from '@/lib/schemas/account';
 import { ApiError } from '@/lib/client/api-client';
 import { useConfirmPasswordReset, useRequestPasswordReset } from '@/lib/client/queries/account';
@@ -8,7 +9,7 @@ import { Button, Field, FormMessage } from '@/components/ui/Field';
 
 export const ForgotPasswordForm = withQueryClient(function ForgotPasswordForm() {
 	const request = useRequestPasswordReset();
-	const [email, setEmail] = useState('');
+	const [email, setEmail] = useTypedState('Reset the password', 'email', '');
 	const [error, setError] = useState<string | undefined>();
 	const [sent, setSent] = useState(false);
 
@@ -61,7 +62,7 @@ export const ResetPasswordForm = withQueryClient(function ResetPasswordForm({
 	token: string;
 }) {
 	const confirm = useConfirmPasswordReset();
-	const [password, setPassword] = useState('');
+	const [password, setPassword] = useTypedState('Choose a new password', 'password', '');
 	const [error, setError] = useState<string | undefined>();
 	const [message, setMessage] = useState<{ tone: 'error' | 'ok'; text: string } | null>(null);
 

@@ -1,4 +1,5 @@
 import { useState } from 'react';
+import { useTypedState } from '@/lib/client/typed-before-hydration';
 import { emailSchema, signInSchema } from '@/lib/schemas/account';
 import { requestSignInLink, signInWithPassword } from '@/lib/client/auth-client';
 import { fieldErrors } from '@/lib/client/form-errors';
@@ -12,8 +13,8 @@ export interface SignInFormProps {
 /** E-mail + password, or a one-time link by e-mail. */
 export function SignInForm({ callbackUrl, initialError }: SignInFormProps) {
 	const [mode, setMode] = useState<'password' | 'link'>('password');
-	const [email, setEmail] = useState('');
-	const [password, setPassword] = useState('');
+	const [email, setEmail] = useTypedState('Sign in', 'email', '');
+	const [password, setPassword] = useTypedState('Sign in', 'password', '');
 	const [errors, setErrors] = useState<Record<string, string>>({});
 	const [message, setMessage] = useState<{ tone: 'error' | 'ok'; text: string } | null>(
 		initialError ? { tone: 'error', text: initialError } : null,

@@ -1,4 +1,7 @@
 import { useState } from 'react';
+import { typedValue } from '@/lib/client/typed-before-hydration';
+
+const FORM = 'Create an account';
 import { signUpSchema } from '@/lib/schemas/account';
 import { ApiError } from '@/lib/client/api-client';
 import { useSignUp } from '@/lib/client/queries/account';
@@ -27,11 +30,11 @@ export const SignUpForm = withQueryClient(function SignUpForm({
 }: SignUpFormProps) {
 	const signUp = useSignUp();
 	const [signingIn, setSigningIn] = useState(false);
-	const [values, setValues] = useState({
-		name: initial?.name ?? '',
-		email: invitedEmail ?? initial?.email ?? '',
-		password: '',
-	});
+	const [values, setValues] = useState(() => ({
+		name: typedValue(FORM, 'name') ?? initial?.name ?? '',
+		email: typedValue(FORM, 'email') ?? invitedEmail ?? initial?.email ?? '',
+		password: typedValue(FORM, 'password') ?? '',
+	}));
 	const [errors, setErrors] = useState<Record<string, string>>(initial?.errors ?? {});
 	const [message, setMessage] = useState<string | null>(initial?.message ?? null);
 	const set = (key: keyof typeof values) => (e: React.ChangeEvent<HTMLInputElement>) =>
@@ -70,7 +73,7 @@ export const SignUpForm = withQueryClient(function SignUpForm({
 			onSubmit={submit}
 			noValidate
 			className="flex flex-col gap-4"
-			aria-label="Create an account"
+			aria-label={FORM}
 		>
 			<Field
 				label="Your name"

@@ -1,4 +1,5 @@
 import { useState } from 'react';
+import { useTypedState } from '@/lib/client/typed-before-hydration';
 import { newTeamSchema } from '@/lib/schemas/account';
 import { ApiError } from '@/lib/client/api-client';
 import { useCreateTeam } from '@/lib/client/queries/teams';
@@ -8,7 +9,7 @@ import { Button, Field } from '@/components/ui/Field';
 
 export const CreateTeamForm = withQueryClient(function CreateTeamForm() {
 	const create = useCreateTeam();
-	const [name, setName] = useState('');
+	const [name, setName] = useTypedState('Create a team', 'name', '');
 	const [error, setError] = useState<string | undefined>();
 	async function submit(event: React.FormEvent) {
 		event.preventDefault();
@@ -32,6 +33,7 @@ export const CreateTeamForm = withQueryClient(function CreateTeamForm() {
 		>
 			<Field
 				label="New team name"
+				name="name"
 				value={name}
 				onChange={(e) => setName(e.target.value)}
 				error={error}

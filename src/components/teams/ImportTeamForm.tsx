@@ -1,4 +1,5 @@
-import { useState } from 'react';
+import { useEffect, useState } from 'react';
+import { useTypedState } from '@/lib/client/typed-before-hydration';
 import { useImportTeam } from '@/lib/client/queries/teams';
 import { withQueryClient } from '@/lib/client/query-client';
 import type { ImportSummary } from '@/lib/schemas/teams';
@@ -9,8 +10,14 @@ const count = (n: number, noun: string) => `${n} ${noun}${n === 1 ? '' : 's'}`;
 
 export const ImportTeamForm = withQueryClient(function ImportTeamForm() {
 	const importTeam = useImportTeam();
+	// A file or a name given before the island woke (client:interact) is kept: the name from the
+	// first render, the file once hydrated (a state the server did not render must not be hydrated).
 	const [file, setFile] = useState<File | null>(null);
-	const [name, setName] = useState('');
+	useEffect(() => {
+		const chosen = document.querySelector<HTMLInputElement>('#backup-file')?.files?.[0];
+		if (chosen) setFile(chosen);
+	}, []);
+	const [name, setName] = useTypedState('Restore a team from a backup', 'name', '');
 	const [progress, setProgress] = useState<number | null>(null);
 	const [error, setError] = useState<string | null>(null);
 	const [done, setDone] = useState<ImportSummary | null>(null);
@@ -49,6 +56,7 @@ export const ImportTeamForm = withQueryClient(function ImportTeamForm() {
 				</div>
 				<Field
 					label="Name for the restored team (optional)"
+					name="name"
 					value={name}
 					onChange={(e) => setName(e.target.value)}
 					maxLength={80}

@@ -1,13 +1,5 @@
 import { type Remote, wrap } from 'comlink';
-import {
-	type BuildDocument,
-	calibrateFromRun,
-	engineOffPlayTime,
-	runBurp,
-	runSession,
-	speedSweep,
-	upgradeHints,
-} from '@/engine';
+import type { BuildDocument } from '@/engine';
 import type { EngineWorkerApi } from './engine.worker';
 
 let remote: Remote<EngineWorkerApi> | null | undefined;
@@ -15,6 +7,7 @@ let remote: Remote<EngineWorkerApi> | null | undefined;
 type Maybe<F extends (...a: never[]) => unknown> = (
 	...a: Parameters<F>
 ) => Promise<ReturnType<F>> | ReturnType<F>;
+type Api = EngineWorkerApi;
 type Engine = { [K in keyof EngineWorkerApi]: Maybe<EngineWorkerApi[K]> };
 
 /**
@@ -36,37 +29,31 @@ function engine(): Engine {
 	}
 	return (
 		remote ?? {
-			burp: (doc: BuildDocument, opts: Parameters<typeof runBurp>[1]) => runBurp(doc, opts),
-			hints: (doc: BuildDocument, c: Parameters<typeof upgradeHints>[1]) =>
-				upgradeHints(doc, c).slice(0, 5),
-			sweep: (doc: BuildDocument, s: Parameters<typeof speedSweep>[1]) => speedSweep(doc, s),
-			session: (doc: BuildDocument, s: Parameters<typeof runSession>[1]) => runSession(doc, s),
-			playTime: (doc: BuildDocument, o: Parameters<typeof engineOffPlayTime>[1]) =>
-				engineOffPlayTime(doc, o),
-			calibrate: (
-				doc: BuildDocument,
-				s: Parameters<typeof calibrateFromRun>[1],
-				o: Parameters<typeof calibrateFromRun>[2],
-			) => calibrateFromRun(doc, s, o),
+			// Loaded only here, when there is no worker: the page itself never needs these modules.
+			burp: async (doc, opts) => (await import('@/engine')).runBurp(doc, opts),
+			hints: async (doc, c) => (await import('@/engine')).upgradeHints(doc, c).slice(0, 5),
+			sweep: async (doc, s) => (await import('@/engine')).speedSweep(doc, s),
+			session: async (doc, s) => (await import('@/engine')).runSession(doc, s),
+			playTime: async (doc, o) => (await import('@/engine')).engineOffPlayTime(doc, o),
+			calibrate: async (doc, s, o) =>
+				(await import('@/engine/calibration')).calibrateFromRun(doc, s, o),
 		}
 	);
 }
 
-export const burpInWorker = (doc: BuildDocument, opts: Parameters<typeof runBurp>[1]) =>
+export const burpInWorker = (doc: BuildDocument, opts: Parameters<Api['burp']>[1]) =>
 	Promise.resolve(engine().burp(doc, opts));
-export const hintsInWorker = (doc: BuildDocument, conditions: Parameters<typeof upgradeHints>[1]) =>
+export const hintsInWorker = (doc: BuildDocument, conditions: Parameters<Api['hints']>[1]) =>
 	Promise.resolve(engine().hints(doc, conditions));
-export const sweepInWorker = (doc: BuildDocument, scenario: Parameters<typeof speedSweep>[1]) =>
+export const sweepInWorker = (doc: BuildDocument, scenario: Parameters<Api['sweep']>[1]) =>
 	Promise.resolve(engine().sweep(doc, scenario));
-export const sessionInWorker = (doc: BuildDocument, schedule: Parameters<typeof runSession>[1]) =>
+export const sessionInWorker = (doc: BuildDocument, schedule: Parameters<Api['session']>[1]) =>
 	Promise.resolve(engine().session(doc, schedule));
-export const playTimeInWorker = (
-	doc: BuildDocument,
-	opts: Parameters<typeof engineOffPlayTime>[1],
-) => Promise.resolve(engine().playTime(doc, opts));
+export const playTimeInWorker = (doc: BuildDocument, opts: Parameters<Api['playTime']>[1]) =>
+	Promise.resolve(engine().playTime(doc, opts));
 /** Fits the model to a run's log off the page's main thread (a few hundred milliseconds). */
 export const calibrateInWorker = (
 	doc: BuildDocument,
-	samples: Parameters<typeof calibrateFromRun>[1],
-	opts: Parameters<typeof calibrateFromRun>[2],
+	samples: Parameters<Api['calibrate']>[1],
+	opts: Parameters<Api['calibrate']>[2],
 ) => Promise.resolve(engine().calibrate(doc, samples, opts));

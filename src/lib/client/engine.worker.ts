@@ -3,13 +3,13 @@ import { expose } from 'comlink';
 // Relative on purpose: Vite bundles workers with their own resolver, which does not read the @/ alias.
 import {
 	type BuildDocument,
-	calibrateFromRun,
 	engineOffPlayTime,
 	runBurp,
 	runSession,
 	speedSweep,
 	upgradeHints,
 } from '../../engine';
+import { calibrateFromRun } from '../../engine/calibration';
 
 /**
  * The editor's heavy engine work, off the page's main thread: the time-stepped burp (a thousand

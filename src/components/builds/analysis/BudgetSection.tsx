@@ -1,6 +1,6 @@
 import type { BudgetRow } from '@/engine';
 import { fmt } from '@/lib/format';
-import { BudgetChart } from '../Charts';
+import { BudgetChart } from '../LazyCharts';
 import { type ResultColumn, ResultTable, Unit } from './ResultTable';
 
 const carry = (s: number | null) =>

@@ -1,6 +1,6 @@
 import type { BurpRun, BuildDocument } from '@/engine';
 import { fmt } from '@/lib/format';
-import { BurpChart } from '../Charts';
+import { BurpChart } from '../LazyCharts';
 
 /** The time-stepped burp: each amplifier's and bank's voltage through it, and where the energy went. */
 export function BurpSection({

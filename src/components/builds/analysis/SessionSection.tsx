@@ -9,7 +9,7 @@ import {
 } from '@/engine';
 import { playTimeInWorker, sessionInWorker } from '@/lib/client/engine-worker';
 import { fmt } from '@/lib/format';
-import { SessionChart } from '../Charts';
+import { SessionChart } from '../LazyCharts';
 import { ScenarioNumber } from './ScenarioControls';
 
 /** How long a schedule must sit still before the session runs again (ms). */

@@ -1,6 +1,6 @@
 import type { SpeedPoint } from '@/engine';
 import { fmt } from '@/lib/format';
-import { SweepChart } from '../Charts';
+import { SweepChart } from '../LazyCharts';
 
 /** The system from idle to high engine speed under burp: a chart and where the banks stop draining. */
 export function SpeedSweepSection({
