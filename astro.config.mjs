@@ -5,6 +5,8 @@ import react from '@astrojs/react';
 import tailwindcss from '@tailwindcss/vite';
 import AstroPWA from '@vite-pwa/astro';
 import auth from 'auth-astro';
+import { fileURLToPath } from 'node:url';
+import { precompress } from './cli/precompress.ts';
 import { defineConfig, envField } from 'astro/config';
 
 const allowedHosts = (process.env.ALLOWED_HOSTS ?? '127.0.0.1,localhost')
@@ -17,6 +19,19 @@ export default defineConfig({
 	adapter: node({ mode: 'standalone' }),
 	integrations: [
 		react(),
+		{
+			name: 'sagwise-precompress',
+			hooks: {
+				// Static files go out precompressed (brotli and gzip written once, here; cli/serve.ts
+				// picks the one the browser accepts).
+				'astro:build:done': ({ dir, logger }) => {
+					// With server output `dir` is the client folder (dist/client); be sure of it.
+					const out = fileURLToPath(dir);
+					const clientDir = /[\\/]client[\\/]?$/.test(out) ? out : `${out}/client`;
+					logger.info(`precompressed ${precompress(clientDir)} static files`);
+				},
+			},
+		},
 		{
 			name: 'sagwise-client-directives',
 			hooks: {

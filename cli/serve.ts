@@ -7,14 +7,18 @@
  * - the client's address comes from the socket, and from X-Forwarded-For only when the request
  *   arrives from a proxy named in TRUST_PROXY (otherwise forwarded headers are dropped);
  * - doubled slashes in a path answer 404 plainly;
- * - answers to reads are compressed (brotli or gzip, as the client accepts) when their type
+ * - the build's hashed static files (/_astro/…) go out precompressed, brotli or gzip as the client
+ *   accepts (written at build time by cli/precompress.ts), immutable for a year;
+ * - other answers to reads are compressed (brotli or gzip, as the client accepts) when their type
  *   compresses and they are larger than 1 KB: pages, JSON, scripts, styles, CSV.
  */
 import http from 'node:http';
 import { isIP } from 'node:net';
 import path from 'node:path';
 import { pathToFileURL } from 'node:url';
+import { existsSync, readdirSync, statSync, createReadStream } from 'node:fs';
 import compression from 'compression';
+import { PRECOMPRESSED_TYPES } from './precompress';
 import { bodyLimitFor } from '../src/lib/server/body-limits';
 
 type Handler = (req: http.IncomingMessage, res: http.ServerResponse) => void;
@@ -80,11 +84,74 @@ export function clientAddress(req: http.IncomingMessage, trusted: (a: string) =>
 	return forwarded[0] ?? socket;
 }
 
+/**
+ * The precompressed hashed assets of a build, by URL path: which encodings each has on disk.
+ * Read once at start; a build's assets never change while it runs.
+ */
+export function precompressedAssets(clientDir: string): Map<string, { br: boolean; gz: boolean }> {
+	const found = new Map<string, { br: boolean; gz: boolean }>();
+	const assets = path.join(clientDir, '_astro');
+	if (!existsSync(assets)) return found;
+	for (const name of readdirSync(assets)) {
+		if (!(path.extname(name) in PRECOMPRESSED_TYPES)) continue;
+		const br = existsSync(path.join(assets, `${name}.br`));
+		const gz = existsSync(path.join(assets, `${name}.gz`));
+		if (br || gz) found.set(`/_astro/${name}`, { br, gz });
+	}
+	return found;
+}
+
+/** Which encoding of a precompressed file to send: brotli, then gzip, when the client accepts it. */
+function pickEncoding(accept: string, has: { br: boolean; gz: boolean }): 'br' | 'gzip' | null {
+	const accepts = (coding: string) =>
+		accept
+			.split(',')
+			.map((part) => part.trim().split(';'))
+			.some(
+				([name, ...params]) =>
+					name?.trim().toLowerCase() === coding &&
+					!params.some((p) => /^\s*q\s*=\s*0(\.0*)?\s*$/.test(p)),
+			);
+	if (has.br && accepts('br')) return 'br';
+	if (has.gz && accepts('gzip')) return 'gzip';
+	return null;
+}
+
 export function createFront(
 	astro: Handler,
 	env: Record<string, string | undefined> = process.env,
+	clientDir?: string,
 ): Handler {
 	const trusted = parseTrustedProxies(env.TRUST_PROXY);
+	const assets = clientDir ? precompressedAssets(clientDir) : new Map();
+	const servePrecompressed = (req: http.IncomingMessage, res: http.ServerResponse): boolean => {
+		const pathname = (req.url ?? '/').split('?')[0]!;
+		const has = assets.get(pathname);
+		if (!has || !clientDir) return false;
+		const encoding = pickEncoding(String(req.headers['accept-encoding'] ?? ''), has);
+		if (!encoding) return false;
+		const file = path.join(clientDir, `${pathname}.${encoding === 'br' ? 'br' : 'gz'}`);
+		let size: number;
+		try {
+			size = statSync(file).size;
+		} catch {
+			return false;
+		}
+		res.writeHead(200, {
+			'content-type': PRECOMPRESSED_TYPES[path.extname(pathname)]!,
+			'content-encoding': encoding,
+			'content-length': size,
+			vary: 'Accept-Encoding',
+			'cache-control': 'public, max-age=31536000, immutable',
+			'x-content-type-options': 'nosniff',
+		});
+		if (req.method === 'HEAD') res.end();
+		else
+			createReadStream(file)
+				.on('error', () => res.destroy())
+				.pipe(res);
+		return true;
+	};
 	const compress = compression({ threshold: 1024 }) as unknown as (
 		req: http.IncomingMessage,
 		res: http.ServerResponse,
@@ -92,10 +159,11 @@ export function createFront(
 	) => void;
 	// Reads only: what a page, a report or a script sends back. A write's answer is small, and the
 	// compressor's hold on the response must not meet a request body still being read.
-	return (req, res) =>
-		req.method === 'GET' || req.method === 'HEAD'
-			? compress(req, res, () => handle(req, res))
-			: handle(req, res);
+	return (req, res) => {
+		if (req.method !== 'GET' && req.method !== 'HEAD') return handle(req, res);
+		if (servePrecompressed(req, res)) return;
+		compress(req, res, () => handle(req, res));
+	};
 
 	function handle(req: http.IncomingMessage, res: http.ServerResponse) {
 		const pathname = (req.url ?? '/').split('?')[0]!;
@@ -150,7 +218,10 @@ async function main() {
 	)) as { handler: Handler };
 	const host = process.env.HOST ?? '127.0.0.1';
 	const port = Number(process.env.PORT ?? 4321);
-	const server = http.createServer(createFront(entry.handler));
+	const dist = path.resolve(process.env.SAGWISE_DIST ?? 'dist');
+	const server = http.createServer(
+		createFront(entry.handler, process.env, path.join(dist, 'client')),
+	);
 	server.headersTimeout = 30_000;
 	server.requestTimeout = 15 * 60_000;
 	server.listen(port, host, () => console.log(`[sagwise] serving on http://${host}:${port}`));
