@@ -44,30 +44,25 @@ export function traceFeeds(doc: BuildDocument, sol: NetworkSolution): Map<string
 		currentA: number;
 		terminalV: number;
 	}> = [];
-	doc.banks.forEach((b, i) => {
-		const r = sol.banks[i];
-		if (r && r.currentA > TRACE_FLOOR_A)
-			sources.push({
-				kind: 'bank',
-				id: b.id,
-				label: b.label,
-				node: b.positive,
-				currentA: r.currentA,
-				terminalV: r.terminalV,
-			});
-	});
-	doc.alternators.forEach((a, i) => {
-		const r = sol.alternators[i];
-		if (r && r.currentA > TRACE_FLOOR_A)
-			sources.push({
-				kind: 'alternator',
-				id: a.id,
-				label: a.label,
-				node: a.positive,
-				currentA: r.currentA,
-				terminalV: r.terminalV,
-			});
-	});
+	const collect = (
+		kind: 'bank' | 'alternator',
+		parts: ReadonlyArray<{ id: string; label: string; positive: string }>,
+		results: ReadonlyArray<{ currentA: number; terminalV: number } | undefined>,
+	) =>
+		parts.forEach((p, i) => {
+			const r = results[i];
+			if (r && r.currentA > TRACE_FLOOR_A)
+				sources.push({
+					kind,
+					id: p.id,
+					label: p.label,
+					node: p.positive,
+					currentA: r.currentA,
+					terminalV: r.terminalV,
+				});
+		});
+	collect('bank', doc.banks, sol.banks);
+	collect('alternator', doc.alternators, sol.alternators);
 	const nodeIds = doc.nodes.map((n) => n.id);
 	const slot = new Map(nodeIds.map((id, i) => [id, i]));
 	const count = sources.length;

@@ -12,6 +12,15 @@ import {
 
 ChartJS.register(CategoryScale, Filler);
 
+/** One chart's frame: its height, and the canvas named for a screen reader. */
+function LineFrame({ data, options, label }: { data: unknown; options: object; label: string }) {
+	return (
+		<div className="h-64">
+			<Line data={data as never} options={options} aria-label={label} role="img" />
+		</div>
+	);
+}
+
 const budgetOptions = {
 	responsive: true,
 	maintainAspectRatio: false,
@@ -39,14 +48,11 @@ const burpOptions = {
 export function BudgetChart({ rows }: { rows: BudgetRow[] }) {
 	const data = useMemo(() => toBudgetChartData(rows), [rows]);
 	return (
-		<div className="h-64">
-			<Line
-				data={data}
-				options={budgetOptions}
-				aria-label="Current demand against alternator supply at each supply voltage"
-				role="img"
-			/>
-		</div>
+		<LineFrame
+			data={data}
+			options={budgetOptions}
+			label="Current demand against alternator supply at each supply voltage"
+		/>
 	);
 }
 
@@ -76,16 +82,7 @@ export function BurpChart({
 		}),
 		[data.yMin],
 	);
-	return (
-		<div className="h-64">
-			<Line
-				data={data}
-				options={options}
-				aria-label="Voltages over the time of a burp"
-				role="img"
-			/>
-		</div>
-	);
+	return <LineFrame data={data} options={options} label="Voltages over the time of a burp" />;
 }
 
 const sweepOptions = {
@@ -114,14 +111,11 @@ const sweepOptions = {
 export function SweepChart({ points }: { points: SpeedPoint[] }) {
 	const data = useMemo(() => toSweepChartData(points), [points]);
 	return (
-		<div className="h-64">
-			<Line
-				data={data as never}
-				options={sweepOptions}
-				aria-label="Settle voltage, lowest amplifier, alternator output and bank current from idle to high engine speed"
-				role="img"
-			/>
-		</div>
+		<LineFrame
+			data={data}
+			options={sweepOptions}
+			label="Settle voltage, lowest amplifier, alternator output and bank current from idle to high engine speed"
+		/>
 	);
 }
 
@@ -161,13 +155,10 @@ export function SessionChart({
 }) {
 	const data = useMemo(() => toSessionChartData(run, bankLabels), [run, bankLabels]);
 	return (
-		<div className="h-64">
-			<Line
-				data={data as never}
-				options={sessionOptions}
-				aria-label="Bus voltage, lowest amplifier voltage and each bank's state of charge through the session"
-				role="img"
-			/>
-		</div>
+		<LineFrame
+			data={data}
+			options={sessionOptions}
+			label="Bus voltage, lowest amplifier voltage and each bank's state of charge through the session"
+		/>
 	);
 }

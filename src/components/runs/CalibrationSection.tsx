@@ -1,4 +1,4 @@
-import '@/components/ui/chart-setup';
+import { xyOptions } from '@/components/ui/chart-setup';
 import { useMemo, useState } from 'react';
 import { Scatter } from 'react-chartjs-2';
 import { CHART_COLOURS } from '@/components/builds/chart-data';
@@ -38,19 +38,7 @@ const CHOICES: { key: CalibrationParameter; label: string; hint: string }[] = [
 	},
 ];
 
-const chartOptions = {
-	responsive: true,
-	maintainAspectRatio: false,
-	animation: false as const,
-	scales: {
-		x: {
-			type: 'linear' as const,
-			title: { display: true, text: 'Current into the amplifiers (A)' },
-		},
-		y: { type: 'linear' as const, title: { display: true, text: 'Lowest amplifier voltage (V)' } },
-	},
-	plugins: { legend: { position: 'bottom' as const } },
-};
+const chartOptions = xyOptions('Current into the amplifiers (A)', 'Lowest amplifier voltage (V)');
 
 /**
  * Fits the revision's model to this run's log: which bank resistance, alternator output or

@@ -1,4 +1,4 @@
-import { voltsAndAmpsOptions } from '@/components/ui/chart-setup';
+import { voltsAndAmpsOptions, xyOptions } from '@/components/ui/chart-setup';
 import { useMemo } from 'react';
 import { Scatter } from 'react-chartjs-2';
 import type { Sample } from '@/engine';
@@ -7,34 +7,11 @@ import { toSamplesChartData, toScoresOverTime, toScoreVsVoltage } from './run-ch
 
 const samplesOptions = voltsAndAmpsOptions('Time (s)', 'Voltage (V)', 'Current (A)');
 
-const overTimeOptions = {
-	responsive: true,
-	maintainAspectRatio: false,
-	animation: false as const,
-	scales: {
-		x: {
-			type: 'linear' as const,
-			title: { display: true, text: 'Date' },
-			ticks: { callback: (v: number | string) => new Date(Number(v)).toISOString().slice(0, 10) },
-		},
-		y: { title: { display: true, text: 'Score (dB)' } },
-	},
-	plugins: { legend: { position: 'bottom' as const } },
-};
+const overTimeOptions = xyOptions('Date', 'Score (dB)', {
+	xTicks: (v) => new Date(Number(v)).toISOString().slice(0, 10),
+});
 
-const vsVoltageOptions = {
-	responsive: true,
-	maintainAspectRatio: false,
-	animation: false as const,
-	scales: {
-		x: {
-			type: 'linear' as const,
-			title: { display: true, text: 'Minimum voltage during the run (V)' },
-		},
-		y: { title: { display: true, text: 'Score (dB)' } },
-	},
-	plugins: { legend: { position: 'bottom' as const } },
-};
+const vsVoltageOptions = xyOptions('Minimum voltage during the run (V)', 'Score (dB)');
 
 export function SamplesChart({ samples }: { samples: Sample[] }) {
 	const data = useMemo(() => toSamplesChartData(samples), [samples]);

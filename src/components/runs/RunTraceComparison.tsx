@@ -10,7 +10,7 @@ import {
 import { fmt } from '@/lib/format';
 import { MEASUREMENT_FIELDS, RUN_MEASUREMENTS } from '@/lib/schemas/run-measurements';
 import { burpStartS } from '@/lib/trace-align';
-import { voltsAndAmpsOptions } from '@/components/ui/chart-setup';
+import { voltsAndAmpsOptions, xyOptions } from '@/components/ui/chart-setup';
 import { Button } from '@/components/ui/Field';
 import {
 	type ComparedTrace,
@@ -29,19 +29,11 @@ const traceOptions = voltsAndAmpsOptions(
 	{ pointLegend: true, ampsFromZero: true },
 );
 
-const dbOptions = {
-	responsive: true,
-	maintainAspectRatio: false,
-	animation: false as const,
-	scales: {
-		x: {
-			type: 'linear' as const,
-			title: { display: true, text: 'Expected from the volts: 20·log10(V_min / V_min of A) (dB)' },
-		},
-		y: { type: 'linear' as const, title: { display: true, text: 'Measured score change (dB)' } },
-	},
-	plugins: { legend: { position: 'bottom' as const, labels: { usePointStyle: true } } },
-};
+const dbOptions = xyOptions(
+	'Expected from the volts: 20·log10(V_min / V_min of A) (dB)',
+	'Measured score change (dB)',
+	{ pointLegend: true },
+);
 
 const runLabel = (r: RunDto, fmtTime: ReturnType<typeof useLocalFormat>) =>
 	`${r.vehicleName} · ${fmtTime(r.ranAt, 'd MMM yyyy HH:mm')}${r.scoreDb !== null ? ` · ${fmt(r.scoreDb, 1)} dB` : ''}`;

@@ -44,3 +44,30 @@ export function voltsAndAmpsOptions(
 		},
 	};
 }
+
+/** One linear axis against another (a scatter or a line through points), legend below. */
+export function xyOptions(
+	xTitle: string,
+	yTitle: string,
+	opts: { pointLegend?: boolean; xTicks?: (v: number | string) => string } = {},
+) {
+	return {
+		responsive: true,
+		maintainAspectRatio: false,
+		animation: false as const,
+		scales: {
+			x: {
+				type: 'linear' as const,
+				title: { display: true, text: xTitle },
+				...(opts.xTicks ? { ticks: { callback: opts.xTicks } } : {}),
+			},
+			y: { type: 'linear' as const, title: { display: true, text: yTitle } },
+		},
+		plugins: {
+			legend: {
+				position: 'bottom' as const,
+				...(opts.pointLegend ? { labels: { usePointStyle: true } } : {}),
+			},
+		},
+	};
+}
