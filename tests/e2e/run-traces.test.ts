@@ -1,6 +1,6 @@
 import { afterAll, describe, expect, inject, it } from 'vitest';
 import { DEMO_PASSWORD, DEMO_TEAM_NAME, DEMO_USERS } from '../../db/seed';
-import { type Browser, openBrowser, signInToTeam } from '../helpers/browser';
+import { type Browser, openBrowser, openVehicleRuns } from '../helpers/browser';
 
 const appUrl = inject('appUrl');
 
@@ -11,12 +11,7 @@ describe('runs compared trace by trace in chromium', () => {
 	it('a member compares four runs of two vehicles: traces aligned at the burp, measurements, revision changes and dB against the volts', async () => {
 		b = await openBrowser();
 		const p = b.page;
-		await signInToTeam(b, appUrl, DEMO_USERS[1].email, DEMO_PASSWORD, DEMO_TEAM_NAME);
-		await p.getByRole('link', { name: 'Marlin', exact: true }).click();
-		await p.getByRole('link', { name: 'Runs', exact: true }).click();
-		await p.waitForSelector('astro-island[component-export="VehicleRuns"]:not([ssr])', {
-			state: 'attached',
-		});
+		await openVehicleRuns(b, appUrl, DEMO_USERS[1].email, DEMO_PASSWORD, DEMO_TEAM_NAME, 'Marlin');
 		const table = p.getByRole('table').first();
 		// The demo's Marlin runs: May (logger), June (no logger), September (logger).
 		for (const day of ['16 May 2026', '20 Jun 2026', '19 Sep 2026'])

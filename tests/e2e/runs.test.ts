@@ -3,7 +3,7 @@ import { tmpdir } from 'node:os';
 import path from 'node:path';
 import { afterAll, describe, expect, inject, it } from 'vitest';
 import { DEMO_PASSWORD, DEMO_TEAM_NAME, DEMO_USERS } from '../../db/seed';
-import { type Browser, openBrowser, signInToTeam } from '../helpers/browser';
+import { type Browser, openBrowser, openVehicleRuns } from '../helpers/browser';
 import { HAND_CSV } from '../helpers/logger-fixtures';
 
 const appUrl = inject('appUrl');
@@ -15,12 +15,7 @@ describe('logging a run in chromium', () => {
 	it('member logs a run with a logger file, sees the chart and the analysis, and the comparison gains the point', async () => {
 		b = await openBrowser();
 		const p = b.page;
-		await signInToTeam(b, appUrl, DEMO_USERS[1].email, DEMO_PASSWORD, DEMO_TEAM_NAME);
-		await p.getByRole('link', { name: 'Pebble', exact: true }).click();
-		await p.getByRole('link', { name: 'Runs', exact: true }).click();
-		await p.waitForSelector('astro-island[component-export="VehicleRuns"]:not([ssr])', {
-			state: 'attached',
-		});
+		await openVehicleRuns(b, appUrl, DEMO_USERS[1].email, DEMO_PASSWORD, DEMO_TEAM_NAME, 'Pebble');
 		const chart = p.getByTestId('score-vs-voltage');
 		const before = Number(await chart.getAttribute('data-points'));
 
@@ -55,12 +50,7 @@ describe('logging a run in chromium', () => {
 		await b?.close();
 		b = await openBrowser();
 		const p = b.page;
-		await signInToTeam(b, appUrl, DEMO_USERS[1].email, DEMO_PASSWORD, DEMO_TEAM_NAME);
-		await p.getByRole('link', { name: 'Marlin', exact: true }).click();
-		await p.getByRole('link', { name: 'Runs', exact: true }).click();
-		await p.waitForSelector('astro-island[component-export="VehicleRuns"]:not([ssr])', {
-			state: 'attached',
-		});
+		await openVehicleRuns(b, appUrl, DEMO_USERS[1].email, DEMO_PASSWORD, DEMO_TEAM_NAME, 'Marlin');
 		// The demo's runs of this vehicle carry logger files; the first listed will do.
 		await p.locator('table button').first().click();
 		const section = p.getByRole('region', { name: 'Calibrate the model from this log' });

@@ -84,3 +84,20 @@ export async function signInToTeam(
 	await b.page.waitForURL(`${appUrl}/teams`);
 	await b.page.getByRole('link', { name: new RegExp(teamName) }).click();
 }
+
+/** Signs the demo member in and opens a vehicle's runs page, its island live. */
+export async function openVehicleRuns(
+	b: Browser,
+	appUrl: string,
+	email: string,
+	password: string,
+	teamName: string,
+	vehicle: string,
+): Promise<void> {
+	await signInToTeam(b, appUrl, email, password, teamName);
+	await b.page.getByRole('link', { name: vehicle, exact: true }).click();
+	await b.page.getByRole('link', { name: 'Runs', exact: true }).click();
+	await b.page.waitForSelector('astro-island[component-export="VehicleRuns"]:not([ssr])', {
+		state: 'attached',
+	});
+}

@@ -6,7 +6,7 @@ import {
 	LinearScale,
 	Tooltip,
 } from 'chart.js';
-import { useMemo } from 'react';
+import { type ReactNode, useMemo } from 'react';
 import { Bar } from 'react-chartjs-2';
 import type { ComparisonColumn, ComparisonDto } from '@/lib/client/queries/plans';
 import { fmt, formatMoney } from '@/lib/format';
@@ -268,22 +268,12 @@ export function ComparisonTable({ data, canInstall, installing, installed, onIns
 						))}
 						<Row label="Cable warnings">
 							{columns.map((c) => (
-								<td key={c.id} className="px-3 py-2 text-right align-top">
-									{c.cableWarnings.length === 0 ? (
-										<span className="text-teal">✓ none</span>
-									) : (
-										<details>
-											<summary className="cursor-pointer text-amber-text">
-												⚠ {c.cableWarnings.length}
-											</summary>
-											<ul className="mt-1 text-left text-xs">
-												{c.cableWarnings.map((w, i) => (
-													<li key={i}>{w}</li>
-												))}
-											</ul>
-										</details>
-									)}
-								</td>
+								<FindingsCell
+									key={c.id}
+									items={c.cableWarnings.map((w) => (
+										<>{w}</>
+									))}
+								/>
 							))}
 						</Row>
 						<Row
@@ -291,24 +281,14 @@ export function ComparisonTable({ data, canInstall, installing, installed, onIns
 							hint="beside each: its own burp voltage against the current build"
 						>
 							{columns.map((c) => (
-								<td key={c.id} className="px-3 py-2 text-right align-top">
-									{c.amplifierFindings.length === 0 ? (
-										<span className="text-teal">✓ none</span>
-									) : (
-										<details>
-											<summary className="cursor-pointer text-amber-text">
-												⚠ {c.amplifierFindings.length}
-											</summary>
-											<ul className="mt-1 space-y-1 text-left text-xs">
-												{c.amplifierFindings.map((f, i) => (
-													<li key={i}>
-														<VoltageTrend changeV={f.changeV} /> {f.message}
-													</li>
-												))}
-											</ul>
-										</details>
-									)}
-								</td>
+								<FindingsCell
+									key={c.id}
+									items={c.amplifierFindings.map((f) => (
+										<>
+											<VoltageTrend changeV={f.changeV} /> {f.message}
+										</>
+									))}
+								/>
 							))}
 						</Row>
 						<Row label="All findings" hint="of them safety findings">
@@ -441,5 +421,25 @@ function VoltageTrend({ changeV }: { changeV: number | null }) {
 		>
 			{better ? '▲' : '▼'} {signed(changeV)} V, {better ? 'better' : 'worse'} ·
 		</span>
+	);
+}
+
+/** A column's findings of one kind: "✓ none", or their count opening onto the list. */
+function FindingsCell({ items }: { items: ReactNode[] }) {
+	return (
+		<td className="px-3 py-2 text-right align-top">
+			{items.length === 0 ? (
+				<span className="text-teal">✓ none</span>
+			) : (
+				<details>
+					<summary className="cursor-pointer text-amber-text">⚠ {items.length}</summary>
+					<ul className="mt-1 space-y-1 text-left text-xs">
+						{items.map((item, i) => (
+							<li key={i}>{item}</li>
+						))}
+					</ul>
+				</details>
+			)}
+		</td>
 	);
 }

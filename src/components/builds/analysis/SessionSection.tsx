@@ -12,6 +12,13 @@ import { fmt } from '@/lib/format';
 import { SessionChart } from '../LazyCharts';
 import { ScenarioNumber } from './ScenarioControls';
 
+/** The schedule a member sets: how many burps, how long each, how long the rest between. */
+const SCHEDULE_FIELDS = [
+	{ key: 'burps', label: 'Burps', unit: 'count', min: 1, max: 30, step: 1 },
+	{ key: 'burpS', label: 'Each burp', unit: 's', min: 1, max: 120, step: 1 },
+	{ key: 'restS', label: 'Rest between', unit: 's', min: 0, max: 600, step: 5 },
+] as const;
+
 /** How long a schedule must sit still before the session runs again (ms). */
 const SETTLE_MS = 200;
 
@@ -92,33 +99,18 @@ export function SessionSection({
 			</h2>
 			<div className="mt-3 rounded-md border border-hairline bg-card p-3">
 				<div className="grid gap-3 sm:grid-cols-3">
-					<ScenarioNumber
-						label="Burps"
-						unit="count"
-						value={schedule.burps}
-						onChange={set('burps')}
-						min={1}
-						max={30}
-						step={1}
-					/>
-					<ScenarioNumber
-						label="Each burp"
-						unit="s"
-						value={schedule.burpS}
-						onChange={set('burpS')}
-						min={1}
-						max={120}
-						step={1}
-					/>
-					<ScenarioNumber
-						label="Rest between"
-						unit="s"
-						value={schedule.restS}
-						onChange={set('restS')}
-						min={0}
-						max={600}
-						step={5}
-					/>
+					{SCHEDULE_FIELDS.map((f) => (
+						<ScenarioNumber
+							key={f.key}
+							label={f.label}
+							unit={f.unit}
+							value={schedule[f.key]}
+							onChange={set(f.key)}
+							min={f.min}
+							max={f.max}
+							step={f.step}
+						/>
+					))}
 				</div>
 				<p className="mt-2 text-xs text-ink-soft">
 					At the conditions above: burp level during each burp, amplifiers idle in the rests, engine
