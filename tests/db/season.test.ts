@@ -5,6 +5,7 @@ import { DEMO_USERS, seedDemo } from '../../db/seed';
 import { buildReport, headlineFigures } from '../../src/engine';
 import { upsertSignoff } from '../../src/lib/server/db/checklists';
 import { insertRun } from '../../src/lib/server/db/runs';
+import { loadChecklist } from '../../src/lib/server/checklist';
 import { loadSeason } from '../../src/lib/server/season';
 import { createTestDb, type TestDb } from '../helpers/test-db';
 
@@ -37,6 +38,12 @@ describe('the team page’s season at a glance', () => {
 			expect(v.lastRun?.scoreDb).toBe(runs.at(-1)!.scoreDb);
 			expect(v.lastRun?.ranAt.toISOString().slice(0, 10)).toBe(runs.at(-1)!.on);
 			expect(v.nextChecks?.total).toBeGreaterThan(2);
+			// The counts are those of the checklist the event's checks page shows for the vehicle.
+			const list = await loadChecklist(t.db, teamId, season.nextEvent!.id, v.id, 'metric');
+			expect(v.nextChecks).toEqual({
+				outstanding: list!.items.filter((x) => x.outstanding).length,
+				total: list!.items.length,
+			});
 		}
 		// Marlin's feeds run past the drop target and nobody has signed the manual items yet.
 		expect(season.vehicles[0]!.nextChecks!.outstanding).toBeGreaterThanOrEqual(3);

@@ -38,6 +38,24 @@ export function validateDraft(doc: BuildDocument): Record<string, string> {
 	return errors;
 }
 
+/**
+ * The report of a document under a scenario, remembered per document object: an unedited draft is
+ * its baseline, so the page as first served (and the first render after hydration) solves once.
+ */
+const reports = new WeakMap<BuildDocument, Map<string, ReturnType<typeof buildReport>>>();
+function reportOf(doc: BuildDocument, scenario: Scenario, units: UnitSystem) {
+	const key = `${JSON.stringify(scenario)}|${units}`;
+	let byKey = reports.get(doc);
+	if (!byKey) reports.set(doc, (byKey = new Map()));
+	let r = byKey.get(key);
+	if (!r) {
+		r = buildReport(doc, scenario, { burpRun: false, units });
+		if (byKey.size >= 8) byKey.delete(byKey.keys().next().value!);
+		byKey.set(key, r);
+	}
+	return r;
+}
+
 export interface WorkbenchProps {
 	draft: BuildDocument;
 	errors: Record<string, string>;
@@ -84,12 +102,12 @@ export function Workbench({
 	);
 	const valid = Object.keys(errors).length === 0;
 	const report = useMemo(
-		() => (valid ? buildReport(draft, scenario, { burpRun: false, units }) : null),
+		() => (valid ? reportOf(draft, scenario, units) : null),
 		[draft, scenario, valid, units],
 	);
 	const baseReport = useMemo(() => {
 		if (!baseline) return null;
-		const r = buildReport(baseline, scenario, { burpRun: false, units });
+		const r = reportOf(baseline, scenario, units);
 		return r.ok ? r : null;
 	}, [baseline, scenario, units]);
 	// The heavy part (burp, upgrades) runs in the engine worker once typing pauses.

@@ -1,10 +1,22 @@
 import type { BuildDocument, UnitSystem } from '@/engine';
 import type { Checklist } from '@/lib/schemas/checklist';
-import { findRevision, revisionInForce } from '@/lib/server/db/builds';
-import { findCheckItems, findSignoffs, findVehicleWithBuild } from '@/lib/server/db/checklists';
+import {
+	findRevision,
+	findRevisionDocuments,
+	revisionInForce,
+	revisionsInForce,
+} from '@/lib/server/db/builds';
+import {
+	findCheckItems,
+	findEventSignoffs,
+	findSignoffs,
+	findVehicleWithBuild,
+} from '@/lib/server/db/checklists';
 import { findEvent } from '@/lib/server/db/events';
 import { findTeamSettingsRow } from '@/lib/server/db/teams';
-import { revisionFigures } from '@/lib/server/engine/summaries';
+import { cachedRevisionFigures, revisionFigures } from '@/lib/server/engine/summaries';
+import type { ComputedCheck } from '@/engine';
+import type { CheckItemDto } from '@/lib/schemas/teams';
 
 /**
  * The pre-event checklist of a vehicle for an event: items computed from the revision in force on
@@ -25,40 +37,20 @@ export async function loadChecklist(
 	if (!event || !vehicle) return null;
 	const team = await findTeamSettingsRow(db, teamId);
 	const fuseDistanceM = team.fuse_distance_m;
-	const at = new Date(`${event.starts_on}T23:59:59Z`);
 	const revisionId =
-		(await revisionInForce(db, vehicle.id, at > new Date() ? new Date() : at)) ?? null;
+		(await revisionInForce(db, vehicle.id, checklistMoment(event.starts_on))) ?? null;
 	const revision = revisionId ? await findRevision(db, vehicle.build_id, revisionId) : undefined;
 	const [signoffs, manual] = await Promise.all([
 		findSignoffs(db, event.id, vehicle.id),
 		findCheckItems(db, teamId),
 	]);
-	const signoffOf = (key: string) => {
-		const s = signoffs.find((x) => x.item_key === key);
-		return s
-			? {
-					by:
-						s.name ?? s.email ?? (s.imported_by ? `imported: ${s.imported_by}` : 'a former member'),
-					at: s.signed_at.toISOString(),
-					note: s.note,
-					waived: s.waived,
-				}
-			: null;
-	};
 	const computed = revision
 		? revisionFigures(
 				{ id: revision.id, document: revision.document as BuildDocument },
 				fuseDistanceM,
 				units,
 			).checks
-		: [
-				{
-					key: 'has_build',
-					label: 'The vehicle has a saved build',
-					status: 'fail' as const,
-					reasons: ['No revision of the build existed by the event.'],
-				},
-			];
+		: null;
 	return {
 		teamName: team.name,
 		eventId: event.id,
@@ -78,30 +70,117 @@ export async function loadChecklist(
 			: null,
 		fuseDistanceM,
 		units,
-		items: [
-			...computed.map((c) => {
-				const signoff = signoffOf(c.key);
-				// A failing item stands until a captain waives it; an older sign-off of it (given
-				// while it passed, or before the build changed) does not clear it.
-				return {
-					...c,
-					kind: 'computed' as const,
-					signoff,
-					outstanding: c.status === 'fail' && !signoff?.waived,
-				};
-			}),
-			...manual.map((m) => {
-				const signoff = signoffOf(`manual:${m.id}`);
-				return {
-					key: `manual:${m.id}`,
-					label: m.label,
-					kind: 'manual' as const,
-					status: 'open' as const,
-					reasons: [],
-					signoff,
-					outstanding: !signoff,
-				};
-			}),
-		],
+		items: checklistItems(computed, manual, signoffs),
 	};
+}
+
+type SignoffRow = Awaited<ReturnType<typeof findSignoffs>>[number];
+
+/** The day a checklist is computed for: the event's first day, or now when that is ahead. */
+function checklistMoment(startsOn: string): Date {
+	const at = new Date(`${startsOn}T23:59:59Z`);
+	return at > new Date() ? new Date() : at;
+}
+
+/**
+ * A checklist's items: the computed checks of the revision in force (null: there was none), then
+ * the team's manual items, each with its sign-off.
+ */
+function checklistItems(
+	computed: ComputedCheck[] | null,
+	manual: CheckItemDto[],
+	signoffs: SignoffRow[],
+): Checklist['items'] {
+	const signoffOf = (key: string) => {
+		const s = signoffs.find((x) => x.item_key === key);
+		return s
+			? {
+					by:
+						s.name ?? s.email ?? (s.imported_by ? `imported: ${s.imported_by}` : 'a former member'),
+					at: s.signed_at.toISOString(),
+					note: s.note,
+					waived: s.waived,
+				}
+			: null;
+	};
+	return [
+		...(
+			computed ?? [
+				{
+					key: 'has_build',
+					label: 'The vehicle has a saved build',
+					status: 'fail' as const,
+					reasons: ['No revision of the build existed by the event.'],
+				},
+			]
+		).map((c) => {
+			const signoff = signoffOf(c.key);
+			// A failing item stands until a captain waives it; an older sign-off of it (given
+			// while it passed, or before the build changed) does not clear it.
+			return {
+				...c,
+				kind: 'computed' as const,
+				signoff,
+				outstanding: c.status === 'fail' && !signoff?.waived,
+			};
+		}),
+		...manual.map((m) => {
+			const signoff = signoffOf(`manual:${m.id}`);
+			return {
+				key: `manual:${m.id}`,
+				label: m.label,
+				kind: 'manual' as const,
+				status: 'open' as const,
+				reasons: [],
+				signoff,
+				outstanding: !signoff,
+			};
+		}),
+	];
+}
+
+/**
+ * How many items of each vehicle's checklist for an event are still open, for many vehicles at
+ * once (the team page): the same items as `loadChecklist`, from a fixed handful of queries
+ * whatever the number of vehicles, and engine work only for revisions this instance has not
+ * summarised yet.
+ */
+export async function checklistCounts(
+	db: App.Locals['db'],
+	teamId: string,
+	event: { id: string; startsOn: string },
+	vehicleIds: string[],
+	fuseDistanceM: number,
+	units: UnitSystem,
+): Promise<Map<string, { outstanding: number; total: number }>> {
+	const [inForce, signoffs, manual] = await Promise.all([
+		revisionsInForce(db, teamId, checklistMoment(event.startsOn)),
+		findEventSignoffs(db, event.id),
+		findCheckItems(db, teamId),
+	]);
+	const missing = vehicleIds
+		.map((v) => inForce.get(v))
+		.filter((id): id is string => !!id && !cachedRevisionFigures(id, fuseDistanceM, units));
+	const documents = await findRevisionDocuments(db, missing);
+	const counts = new Map<string, { outstanding: number; total: number }>();
+	for (const vehicleId of vehicleIds) {
+		const revisionId = inForce.get(vehicleId);
+		const document = revisionId ? documents.get(revisionId) : undefined;
+		const computed = revisionId
+			? ((
+					cachedRevisionFigures(revisionId, fuseDistanceM, units) ??
+					(document ? revisionFigures({ id: revisionId, document }, fuseDistanceM, units) : null)
+				)?.checks ?? null)
+			: null;
+		const items = checklistItems(
+			computed,
+			manual,
+			signoffs.filter((s) => s.vehicle_id === vehicleId),
+		);
+		counts.set(vehicleId, {
+			outstanding: items.filter((x) => x.outstanding).length,
+			total: items.length,
+		});
+	}
+	return counts;
 }

@@ -1,11 +1,12 @@
-import type { BuildDocument, HeadlineFigures, UnitSystem } from '@/engine';
-import { loadChecklist } from '@/lib/server/checklist';
+import type { HeadlineFigures, UnitSystem } from '@/engine';
+import { checklistCounts } from '@/lib/server/checklist';
+import { findRevisionDocuments } from '@/lib/server/db/builds';
 import { findRecentActivity, type ActivityEntry } from '@/lib/server/db/activity';
 import { findEvents } from '@/lib/server/db/events';
 import { findLastRuns, findRuns } from '@/lib/server/db/runs';
 import { findTeamSettingsRow } from '@/lib/server/db/teams';
 import { findVehiclesWithHead } from '@/lib/server/db/vehicles';
-import { revisionFigures } from '@/lib/server/engine/summaries';
+import { cachedRevisionFigures, revisionFigures } from '@/lib/server/engine/summaries';
 import type { EventDto } from '@/lib/schemas/events';
 
 export interface SeasonVehicle {
@@ -26,6 +27,8 @@ export interface SeasonVehicle {
 }
 
 export interface Season {
+	/** Every event of the team, by start date. */
+	events: EventDto[];
 	nextEvent: EventDto | null;
 	vehicles: SeasonVehicle[];
 	activity: ActivityEntry[];
@@ -52,14 +55,40 @@ export async function loadSeason(
 		findRuns(db, teamId),
 	]);
 	const nextEvent = events.find((e) => e.endsOn >= today) ?? null;
-	const checklists = nextEvent
-		? await Promise.all(vehicles.map((v) => loadChecklist(db, teamId, nextEvent.id, v.id, units)))
-		: [];
+	const fuseDistanceM = settings.fuse_distance_m;
+	// Head documents come from the database only for revisions this instance has not summarised.
+	const [checklists, documents] = await Promise.all([
+		nextEvent
+			? checklistCounts(
+					db,
+					teamId,
+					nextEvent,
+					vehicles.map((v) => v.id),
+					fuseDistanceM,
+					units,
+				)
+			: null,
+		findRevisionDocuments(
+			db,
+			vehicles
+				.map((v) => v.revision_id)
+				.filter((id): id is string => !!id && !cachedRevisionFigures(id, fuseDistanceM, units)),
+		),
+	]);
+	const headFigures = (revisionId: string) => {
+		const hit = cachedRevisionFigures(revisionId, fuseDistanceM, units);
+		if (hit) return hit.headline;
+		const document = documents.get(revisionId);
+		return document
+			? revisionFigures({ id: revisionId, document }, fuseDistanceM, units).headline
+			: null;
+	};
 	return {
+		events,
 		nextEvent,
-		vehicles: vehicles.map((v, i) => {
+		vehicles: vehicles.map((v) => {
 			const last = lastRuns.find((r) => r.vehicle_id === v.id);
-			const list = checklists[i];
+			const list = checklists?.get(v.id);
 			return {
 				id: v.id,
 				name: v.name,
@@ -71,20 +100,11 @@ export async function loadSeason(
 								number: v.revision_number,
 								message: v.revision_message ?? '',
 								savedAt: v.revision_created_at,
-								figures: revisionFigures(
-									{ id: v.revision_id, document: v.document as BuildDocument },
-									settings.fuse_distance_m,
-									units,
-								).headline,
+								figures: headFigures(v.revision_id),
 							}
 						: null,
 				lastRun: last ? { ranAt: last.ran_at, scoreDb: last.score_db, minV: last.min_v } : null,
-				nextChecks: list
-					? {
-							outstanding: list.items.filter((x) => x.outstanding).length,
-							total: list.items.length,
-						}
-					: null,
+				nextChecks: list ?? null,
 			};
 		}),
 		activity,

@@ -167,6 +167,47 @@ export async function revisionInForce(db: Db, vehicleId: string, at: Date): Prom
 	return row?.id ?? null;
 }
 
+/**
+ * For each vehicle of the team, the revision in force at `at` (as `revisionInForce`), in one
+ * query: vehicle id → revision id. Vehicles with no revision by then are absent.
+ */
+export async function revisionsInForce(
+	db: Db,
+	teamId: string,
+	at: Date,
+): Promise<Map<string, string>> {
+	const rows = await db
+		.selectFrom('revision as r')
+		.innerJoin('build as b', 'b.id', 'r.build_id')
+		.innerJoin('vehicle as v', 'v.id', 'b.vehicle_id')
+		.distinctOn('b.vehicle_id')
+		.select(['b.vehicle_id', 'r.id'])
+		.where('v.team_id', '=', teamId)
+		.where(
+			sql<Date>`date_trunc('second', r.created_at)`,
+			'<=',
+			sql<Date>`date_trunc('second', ${at.toISOString()}::timestamptz)`,
+		)
+		.orderBy('b.vehicle_id')
+		.orderBy('r.created_at', 'desc')
+		.execute();
+	return new Map(rows.map((r) => [r.vehicle_id, r.id]));
+}
+
+/** The documents of the given revisions (any build), by revision id. */
+export async function findRevisionDocuments(
+	db: Db,
+	revisionIds: string[],
+): Promise<Map<string, BuildDocument>> {
+	if (revisionIds.length === 0) return new Map();
+	const rows = await db
+		.selectFrom('revision')
+		.select(['id', 'document'])
+		.where('id', 'in', revisionIds)
+		.execute();
+	return new Map(rows.map((r) => [r.id, r.document as BuildDocument]));
+}
+
 export async function revisionBelongsTo(
 	db: Db,
 	vehicleId: string,

@@ -52,6 +52,25 @@ export function findSignoffs(db: Db, eventId: string, vehicleId: string) {
 		.execute();
 }
 
+/** Every sign-off given for an event, all vehicles: the vehicle id with each. */
+export function findEventSignoffs(db: Db, eventId: string) {
+	return db
+		.selectFrom('check_signoff as s')
+		.leftJoin('User as u', 'u.id', 's.signed_by')
+		.select([
+			's.vehicle_id',
+			's.item_key',
+			's.signed_at',
+			's.note',
+			's.waived',
+			's.imported_by',
+			'u.name',
+			'u.email',
+		])
+		.where('s.event_id', '=', eventId)
+		.execute();
+}
+
 /**
  * Signs an item off (again: the newest sign-off replaces the older one). A waiver is a captain's
  * sign-off of a failing computed item, with the reason in the note.

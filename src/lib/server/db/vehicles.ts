@@ -129,7 +129,6 @@ export function findVehiclesWithHead(db: Db, teamId: string) {
 			'r.number as revision_number',
 			'r.message as revision_message',
 			'r.created_at as revision_created_at',
-			'r.document',
 		])
 		.where('v.team_id', '=', teamId)
 		.where('v.archived_at', 'is', null)

@@ -22,6 +22,15 @@ export interface RevisionSummaryFigures {
  */
 const cache = new LRUCache<string, RevisionSummaryFigures>({ max: 2000 });
 
+/** The figures of a revision when this instance holds them already (no engine work). */
+export function cachedRevisionFigures(
+	revisionId: string,
+	fuseDistanceM: number,
+	units: UnitSystem,
+): RevisionSummaryFigures | undefined {
+	return cache.get(`${revisionId}|${fuseDistanceM}|${units}`);
+}
+
 export function revisionFigures(
 	revision: { id: string; document: BuildDocument },
 	fuseDistanceM: number,
