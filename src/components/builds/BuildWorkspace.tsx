@@ -18,7 +18,7 @@ import {
 import { fieldName, formatFieldValue, GROUP_NAMES, type UnitSystem } from '@/lib/format';
 import { Button, FormMessage } from '@/components/ui/Field';
 import { starterDocument } from './new-parts';
-import { validateDraft, Workbench } from './Workbench';
+import { rememberForRevision, validateDraft, Workbench } from './Workbench';
 
 export interface BuildWorkspaceProps {
 	teamId: string;
@@ -95,7 +95,13 @@ export function BuildWorkspaceView({
 		return () => clearTimeout(t);
 	}, [canEdit, dirty, vehicleId, baseId, draft, message]);
 
-	const errors = useMemo(() => validateDraft(draft), [draft]);
+	const errors = useMemo(
+		() =>
+			head && draft === head.document
+				? rememberForRevision(`errors|${head.id}`, () => validateDraft(draft))
+				: validateDraft(draft),
+		[draft, head],
+	);
 	const valid = Object.keys(errors).length === 0;
 	/** Why Save is not available, in words (null when it is). */
 	const saveBlocked = !dirty
@@ -329,6 +335,7 @@ export function BuildWorkspaceView({
 				units={units}
 				canEdit={canEdit}
 				baseline={head ? baseDoc : null}
+				baselineRevisionId={head?.id ?? null}
 				summaryExtra={
 					// Always one line tall (a change appearing must not move the page under the cursor).
 					canEdit &&

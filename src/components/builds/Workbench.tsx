@@ -39,17 +39,43 @@ export function validateDraft(doc: BuildDocument): Record<string, string> {
 }
 
 /**
- * The report of a document under a scenario, remembered per document object: an unedited draft is
- * its baseline, so the page as first served (and the first render after hydration) solves once.
+ * Answers about saved revisions, by revision id and what else they depend on: a revision never
+ * changes, so every render in this process (each request's server render, above all) shares them.
+ * Bounded, least recently used out first.
+ */
+const bySavedRevision = new Map<string, unknown>();
+export function rememberForRevision<T>(key: string, make: () => T): T {
+	if (bySavedRevision.has(key)) {
+		const hit = bySavedRevision.get(key) as T;
+		bySavedRevision.delete(key);
+		bySavedRevision.set(key, hit);
+		return hit;
+	}
+	const made = make();
+	bySavedRevision.set(key, made);
+	if (bySavedRevision.size > 64) bySavedRevision.delete(bySavedRevision.keys().next().value!);
+	return made;
+}
+
+/**
+ * The report of a document under a scenario, remembered per document object (an unedited draft is
+ * its baseline, so the page as first served solves once) and, for a saved revision's own document,
+ * by its id across renders.
  */
 const reports = new WeakMap<BuildDocument, Map<string, ReturnType<typeof buildReport>>>();
-function reportOf(doc: BuildDocument, scenario: Scenario, units: UnitSystem) {
+function reportOf(
+	doc: BuildDocument,
+	scenario: Scenario,
+	units: UnitSystem,
+	revisionId: string | null,
+) {
 	const key = `${JSON.stringify(scenario)}|${units}`;
 	let byKey = reports.get(doc);
 	if (!byKey) reports.set(doc, (byKey = new Map()));
 	let r = byKey.get(key);
 	if (!r) {
-		r = buildReport(doc, scenario, { burpRun: false, units });
+		const solve = () => buildReport(doc, scenario, { burpRun: false, units });
+		r = revisionId ? rememberForRevision(`report|${revisionId}|${key}`, solve) : solve();
 		if (byKey.size >= 8) byKey.delete(byKey.keys().next().value!);
 		byKey.set(key, r);
 	}
@@ -66,6 +92,8 @@ export interface WorkbenchProps {
 	subject?: string;
 	/** The saved document the draft is compared with (before → after); none for a first revision. */
 	baseline?: BuildDocument | null;
+	/** The saved revision `baseline` is (its answers are shared across renders); none for a plan. */
+	baselineRevisionId?: string | null;
 	/** Shown in the sticky summary (the build page's unsaved-changes note and way to Save). */
 	summaryExtra?: React.ReactNode;
 }
@@ -92,6 +120,7 @@ export function Workbench({
 	onChange,
 	subject = 'build',
 	baseline = null,
+	baselineRevisionId = null,
 	summaryExtra,
 }: WorkbenchProps) {
 	const [scenario, setScenario] = useState<Scenario>(DEFAULT_SCENARIO);
@@ -102,14 +131,17 @@ export function Workbench({
 	);
 	const valid = Object.keys(errors).length === 0;
 	const report = useMemo(
-		() => (valid ? reportOf(draft, scenario, units) : null),
-		[draft, scenario, valid, units],
+		() =>
+			valid
+				? reportOf(draft, scenario, units, draft === baseline ? baselineRevisionId : null)
+				: null,
+		[draft, scenario, valid, units, baseline, baselineRevisionId],
 	);
 	const baseReport = useMemo(() => {
 		if (!baseline) return null;
-		const r = reportOf(baseline, scenario, units);
+		const r = reportOf(baseline, scenario, units, baselineRevisionId);
 		return r.ok ? r : null;
-	}, [baseline, scenario, units]);
+	}, [baseline, scenario, units, baselineRevisionId]);
 	// The heavy part (burp, upgrades) runs in the engine worker once typing pauses.
 	const { burp, hints, sweep } = useDeferredAnalysis(draft, scenario, valid);
 

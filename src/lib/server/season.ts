@@ -3,7 +3,7 @@ import { checklistCounts } from '@/lib/server/checklist';
 import { findRevisionDocuments } from '@/lib/server/db/builds';
 import { findRecentActivity, type ActivityEntry } from '@/lib/server/db/activity';
 import { findEvents } from '@/lib/server/db/events';
-import { findLastRuns, findRuns } from '@/lib/server/db/runs';
+import { findRuns } from '@/lib/server/db/runs';
 import { findTeamSettingsRow } from '@/lib/server/db/teams';
 import { findVehiclesWithHead } from '@/lib/server/db/vehicles';
 import { cachedRevisionFigures, revisionFigures } from '@/lib/server/engine/summaries';
@@ -46,14 +46,15 @@ export async function loadSeason(
 	units: UnitSystem,
 	today = new Date().toISOString().slice(0, 10),
 ): Promise<Season> {
-	const [vehicles, lastRuns, events, settings, activity, runs] = await Promise.all([
+	const [vehicles, events, settings, activity, runs] = await Promise.all([
 		findVehiclesWithHead(db, teamId),
-		findLastRuns(db, teamId),
 		findEvents(db, teamId),
 		findTeamSettingsRow(db, teamId),
 		findRecentActivity(db, teamId),
 		findRuns(db, teamId),
 	]);
+	// Each vehicle's newest run, from the season's runs (oldest first) rather than another query.
+	const lastRuns = new Map(runs.map((r) => [r.vehicleId, r]));
 	const nextEvent = events.find((e) => e.endsOn >= today) ?? null;
 	const fuseDistanceM = settings.fuse_distance_m;
 	// Head documents come from the database only for revisions this instance has not summarised.
@@ -87,7 +88,7 @@ export async function loadSeason(
 		events,
 		nextEvent,
 		vehicles: vehicles.map((v) => {
-			const last = lastRuns.find((r) => r.vehicle_id === v.id);
+			const last = lastRuns.get(v.id);
 			const list = checklists?.get(v.id);
 			return {
 				id: v.id,
@@ -103,7 +104,9 @@ export async function loadSeason(
 								figures: headFigures(v.revision_id),
 							}
 						: null,
-				lastRun: last ? { ranAt: last.ran_at, scoreDb: last.score_db, minV: last.min_v } : null,
+				lastRun: last
+					? { ranAt: new Date(last.ranAt), scoreDb: last.scoreDb, minV: last.minV }
+					: null,
 				nextChecks: list ?? null,
 			};
 		}),

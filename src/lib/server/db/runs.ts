@@ -277,16 +277,3 @@ export async function replaceLoggerData(
 		return { ok: true, replacedKeys: old.map((f) => f.object_key) };
 	});
 }
-
-/** Each vehicle's latest run (by when it ran), for the team page. */
-export function findLastRuns(db: Db, teamId: string) {
-	return db
-		.selectFrom('run as r')
-		.innerJoin('vehicle as v', 'v.id', 'r.vehicle_id')
-		.distinctOn('r.vehicle_id')
-		.select(['r.vehicle_id', 'r.id', 'r.ran_at', 'r.score_db', 'r.min_v'])
-		.where('v.team_id', '=', teamId)
-		.orderBy('r.vehicle_id')
-		.orderBy('r.ran_at', 'desc')
-		.execute();
-}
