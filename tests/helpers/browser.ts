@@ -45,7 +45,7 @@ export async function openBrowser(
 	page.on('console', (msg) => {
 		if (msg.type() === 'error') problems.push(`console: ${msg.text()}`);
 	});
-	page.on('pageerror', (error) => problems.push(`page error: ${error.message}`));
+	page.on('pageerror', (error) => problems.push(`page error on ${page.url()}: ${error.message}`));
 	page.on('requestfailed', (req) => {
 		// A navigation or reload cancels what the old page was still loading: not a fault.
 		if (req.failure()?.errorText === 'net::ERR_ABORTED') return;

@@ -1,5 +1,4 @@
 import { QueryClientProvider, useQuery } from '@tanstack/react-query';
-import { formatDistanceToNow } from 'date-fns';
 import { useEffect, useMemo, useState } from 'react';
 import { diffBuilds } from '@/engine';
 import type { BuildDocument } from '@/engine';
@@ -19,6 +18,7 @@ import { fieldName, formatFieldValue, GROUP_NAMES, type UnitSystem } from '@/lib
 import { Button, FormMessage } from '@/components/ui/Field';
 import { starterDocument } from './new-parts';
 import { rememberForRevision, validateDraft, Workbench } from './Workbench';
+import { RelativeTime } from '@/components/ui/RelativeTime';
 
 export interface BuildWorkspaceProps {
 	teamId: string;
@@ -377,8 +377,7 @@ export function BuildWorkspaceView({
 								<span className="num font-semibold">r{r.number}</span>
 								<span className="flex-1">{r.message}</span>
 								<span className="text-ink-soft">
-									{r.authorName ?? 'someone'} ·{' '}
-									{formatDistanceToNow(new Date(r.createdAt), { addSuffix: true })}
+									{r.authorName ?? 'someone'} · <RelativeTime at={r.createdAt} />
 								</span>
 							</li>
 						))}

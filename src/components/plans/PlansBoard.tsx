@@ -1,5 +1,4 @@
 import { QueryClientProvider, useQuery } from '@tanstack/react-query';
-import { formatDistanceToNow } from 'date-fns';
 import { useEffect, useState } from 'react';
 import { ApiError } from '@/lib/client/api-client';
 import { getQueryClient } from '@/lib/client/query-client';
@@ -14,6 +13,7 @@ import {
 import { formatMoney } from '@/lib/format';
 import { Button, Field, FormMessage } from '@/components/ui/Field';
 import { ComparisonTable } from './ComparisonTable';
+import { RelativeTime } from '@/components/ui/RelativeTime';
 
 export interface PlansBoardProps {
 	teamId: string;
@@ -152,8 +152,7 @@ function PlansBoardView({
 											</td>
 											<td className="px-3 py-2 text-ink-soft">
 												{p.baseRevisionNumber ? `revision ${p.baseRevisionNumber}` : '—'} ·{' '}
-												{p.authorName ?? 'someone'},{' '}
-												{formatDistanceToNow(new Date(p.updatedAt), { addSuffix: true })}
+												{p.authorName ?? 'someone'}, <RelativeTime at={p.updatedAt} />
 											</td>
 											<td className="num px-3 py-2 text-right">{p.partCount}</td>
 											<td className="num px-3 py-2 text-right">{formatMoney(p.total, currency)}</td>

@@ -1,5 +1,4 @@
 import { useQuery } from '@tanstack/react-query';
-import { formatDistanceToNow } from 'date-fns';
 import {
 	type MemberDto,
 	membersQueryOptions,
@@ -8,6 +7,7 @@ import {
 } from '@/lib/client/queries/teams';
 import { Button } from '@/components/ui/Field';
 import { ErrorNote } from './ErrorNote';
+import { RelativeTime } from '@/components/ui/RelativeTime';
 
 export const ROLES: Role[] = ['captain', 'member', 'viewer'];
 export const ROLE_HELP: Record<Role, string> = {
@@ -89,7 +89,7 @@ export function MembersSection({
 									)}
 								</td>
 								<td className="px-4 py-2 text-ink-soft">
-									{formatDistanceToNow(new Date(m.joinedAt), { addSuffix: true })}
+									<RelativeTime at={m.joinedAt} />
 								</td>
 								{captain && (
 									<td className="px-4 py-2 text-right">

@@ -1,8 +1,8 @@
 import { useQuery } from '@tanstack/react-query';
-import { formatDistanceToNow } from 'date-fns';
 import { invitationsQueryOptions, useInvitationAction } from '@/lib/client/queries/teams';
 import { Button } from '@/components/ui/Field';
 import { ErrorNote } from './ErrorNote';
+import { RelativeTime } from '@/components/ui/RelativeTime';
 
 export function PendingSection({ teamId }: { teamId: string }) {
 	const pending = useQuery(invitationsQueryOptions(teamId));
@@ -32,9 +32,13 @@ export function PendingSection({ teamId }: { teamId: string }) {
 							<span className="font-semibold">{inv.email}</span>
 							<span className="rounded bg-paper px-2 py-0.5 capitalize">{inv.role}</span>
 							<span className={inv.expired ? 'text-amber-text' : 'text-ink-soft'}>
-								{inv.expired
-									? '⏱ expired'
-									: `expires ${formatDistanceToNow(new Date(inv.expiresAt), { addSuffix: true })}`}
+								{inv.expired ? (
+									'⏱ expired'
+								) : (
+									<>
+										expires <RelativeTime at={inv.expiresAt} />
+									</>
+								)}
 							</span>
 							<span className="flex-1" />
 							<Button
