@@ -5,6 +5,7 @@ import { db } from '@/lib/server/db/index';
 import { problem, unavailable } from '@/lib/server/http';
 import { signInLimited } from '@/lib/server/rate-limit';
 import { runWithRequest } from '@/lib/server/request-context';
+import { pageCache } from '@/lib/server/page-cache';
 import { securityHeaders } from '@/lib/server/security-headers';
 import { config, mailer, storage } from '@/lib/server/services';
 import { isDatabaseUnavailable, isStorageUnavailable } from '@/lib/server/unavailable';
@@ -152,4 +153,5 @@ export const onRequest = sequence(
 	limitPasswordSignIn,
 	attachUser,
 	guardPages,
+	pageCache(normalPath),
 );

@@ -88,7 +88,8 @@ async function snapshot(db: Kysely<Database>, storage: Storage, teamId: string) 
 			sha256: bytes ? createHash('sha256').update(bytes).digest('hex') : 'missing',
 		});
 	}
-	const { id, name, last_digest_at, ...teamRest } = team;
+	// The data version counts the writes that made the team, not what it holds.
+	const { id, name, last_digest_at, data_version, ...teamRest } = team;
 	return {
 		team: teamRest,
 		// Members and invitations together: a restored team invites everyone but its importer.

@@ -1,4 +1,5 @@
 import type { AstroGlobal } from 'astro';
+import type { UnitSystem } from '@/engine';
 import type { Role } from '@/lib/server/db/schema';
 import type { RunInput } from '@/lib/schemas/runs';
 import { parseUuid } from '@/lib/schemas/ids';
@@ -36,6 +37,10 @@ export interface TeamAccess {
 	teamName: string;
 	userId: string;
 	role: Role;
+	/** The team's data version as this request read it (see the team_data_version migration). */
+	dataVersion: string;
+	/** The caller's unit system, for what the page shows. */
+	units: UnitSystem;
 }
 
 const notFound = (what: string) => ({
@@ -76,6 +81,8 @@ export async function requireTeamRole(
 			teamName: membership.team_name,
 			userId: membership.user_id,
 			role: membership.role,
+			dataVersion: membership.data_version,
+			units: membership.unitSystem,
 		},
 	};
 }
@@ -95,13 +102,15 @@ export async function requireVehicle(
 	params: Params,
 	min: Role,
 ): Promise<Access<VehicleAccess>> {
-	const auth = await requireTeamRole(locals, params.teamId, min);
-	if (!auth.ok) return auth;
+	const teamId = parseUuid(params.teamId);
 	const vehicleId = parseUuid(params.vehicleId);
-	const vehicle = vehicleId
-		? await findVehicle(locals.db, auth.value.teamId, vehicleId)
-		: undefined;
-	const build = vehicle ? await findBuildForVehicle(locals.db, vehicle.id) : undefined;
+	// The three lookups at once; the vehicle and its build are only looked at once the role passes.
+	const [auth, vehicle, build] = await Promise.all([
+		requireTeamRole(locals, params.teamId, min),
+		locals.user && teamId && vehicleId ? findVehicle(locals.db, teamId, vehicleId) : undefined,
+		locals.user && teamId && vehicleId ? findBuildForVehicle(locals.db, vehicleId) : undefined,
+	]);
+	if (!auth.ok) return auth;
 	if (!vehicle || !build) return notFound('vehicle');
 	return { ok: true, value: { access: auth.value, vehicle, build } };
 }

@@ -1,4 +1,6 @@
+import { LRUCache } from 'lru-cache';
 import type { HeadlineFigures, UnitSystem } from '@/engine';
+import type { TeamAccess } from '@/lib/server/access';
 import { checklistCounts } from '@/lib/server/checklist';
 import { findRevisionDocuments } from '@/lib/server/db/builds';
 import { findRecentActivity, type ActivityEntry } from '@/lib/server/db/activity';
@@ -115,4 +117,31 @@ export async function loadSeason(
 			.filter((r) => r.scoreDb !== null)
 			.map((r) => ({ vehicleName: r.vehicleName, ranAt: r.ranAt, scoreDb: r.scoreDb! })),
 	};
+}
+
+/**
+ * Seasons worked out by this instance, by team, the team's data version, units and day. The
+ * database bumps the version in the same commit as any change the season reads, and every request
+ * reads it with its membership check, so an entry is never served after a change, whichever
+ * instance made it. A load is shared by the requests that arrive while it runs; a failed one is
+ * dropped so the next request tries again.
+ */
+const seasons = new LRUCache<string, Promise<Season>>({ max: 200 });
+
+/** loadSeason, or what this instance already loaded for the same team version, units and day. */
+export function loadSeasonCached(
+	db: App.Locals['db'],
+	access: Pick<TeamAccess, 'teamId' | 'dataVersion'>,
+	units: UnitSystem,
+	today = new Date().toISOString().slice(0, 10),
+): Promise<Season> {
+	const key = `${access.teamId}|${access.dataVersion}|${units}|${today}`;
+	const hit = seasons.get(key);
+	if (hit) return hit;
+	const loading = loadSeason(db, access.teamId, units, today);
+	seasons.set(key, loading);
+	loading.catch(() => {
+		if (seasons.get(key) === loading) seasons.delete(key);
+	});
+	return loading;
 }

@@ -183,6 +183,67 @@ describe('two app instances behind one database', () => {
 			await admin.destroy();
 		}
 	});
+
+	it('a page one instance keeps is never served once the other changes what it shows', async () => {
+		const captain = new HttpSession(a.url);
+		await captain.signInWithPassword(DEMO_USERS[0].email, DEMO_PASSWORD);
+		const captainOnB = sameCookiesOn(captain, b.url);
+		const member = new HttpSession(a.url);
+		await member.signInWithPassword(DEMO_USERS[1].email, DEMO_PASSWORD);
+		const [team] = (await (await captain.fetch('/api/teams')).json()) as Array<{ id: string }>;
+		const vehicles = (await (
+			await captain.fetch(`/api/teams/${team!.id}/vehicles`)
+		).json()) as Array<{
+			id: string;
+			name: string;
+		}>;
+		const marlin = vehicles.find((v) => v.name === 'Marlin')!;
+		const teamPage = `/teams/${team!.id}`;
+		const buildPage = `${teamPage}/vehicles/${marlin.id}`;
+
+		// Kept on A: the same answer twice, and 304 for a browser that holds it.
+		const first = await captain.fetch(teamPage);
+		const etag = first.headers.get('etag');
+		expect(first.status).toBe(200);
+		expect(etag).toBeTruthy();
+		expect((await captain.fetch(teamPage)).headers.get('etag')).toBe(etag);
+		expect((await captain.fetch(teamPage, { headers: { 'if-none-match': etag! } })).status).toBe(
+			304,
+		);
+		expect(await (await captain.fetch(buildPage)).text()).not.toContain('Night-shift wiring');
+		// The member's copy is the member's own.
+		expect((await member.fetch(teamPage)).headers.get('etag')).not.toBe(etag);
+
+		// B renames the vehicle and changes its description: A's next answers show it.
+		const patched = await captainOnB.fetch(`/api/teams/${team!.id}/vehicles/${marlin.id}`, {
+			method: 'PATCH',
+			headers: { 'content-type': 'application/json' },
+			body: JSON.stringify({ name: 'Marlin Mk2', description: 'Night-shift wiring' }),
+		});
+		expect(patched.status).toBe(200);
+		const after = await captain.fetch(teamPage, { headers: { 'if-none-match': etag! } });
+		expect(after.status).toBe(200);
+		expect(after.headers.get('etag')).not.toBe(etag);
+		expect(await after.text()).toContain('Marlin Mk2');
+		expect(await (await captain.fetch(buildPage)).text()).toContain('Night-shift wiring');
+
+		// B removes the member: A no longer shows the member the team, kept page or not.
+		const members = (await (
+			await captain.fetch(`/api/teams/${team!.id}/members`)
+		).json()) as Array<{
+			userId: string;
+			email: string;
+		}>;
+		const gone = members.find((m) => m.email === DEMO_USERS[1].email)!;
+		expect(
+			(
+				await captainOnB.fetch(`/api/teams/${team!.id}/members/${gone.userId}`, {
+					method: 'DELETE',
+				})
+			).status,
+		).toBeLessThan(300);
+		expect((await member.fetch(teamPage)).status).toBe(404);
+	});
 });
 
 /** The URL of another database on the same cluster. */

@@ -21,6 +21,8 @@ export interface TeamTable {
 	currency: Generated<string>;
 	last_digest_at: Timestamp | null;
 	created_at: DefaultTimestamp;
+	/** Bumped by the database at each commit that changes what the team page reads (pg bigint: a string). */
+	data_version: ColumnType<string, never, never>;
 }
 
 export interface NotificationSentTable {

@@ -38,7 +38,15 @@ export function findMembership(db: Db, teamId: string, userId: string) {
 	return db
 		.selectFrom('membership as m')
 		.innerJoin('team as t', 't.id', 'm.team_id')
-		.select(['m.team_id', 'm.user_id', 'm.role', 't.name as team_name'])
+		.innerJoin('User as u', 'u.id', 'm.user_id')
+		.select([
+			'm.team_id',
+			'm.user_id',
+			'm.role',
+			't.name as team_name',
+			't.data_version',
+			'u.unitSystem',
+		])
 		.where('m.team_id', '=', teamId)
 		.where('m.user_id', '=', userId)
 		.executeTakeFirst();

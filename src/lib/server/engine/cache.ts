@@ -43,7 +43,8 @@ export function acceptedEncoding(accept: string | null): 'br' | 'gzip' | null {
 	return null;
 }
 
-function encode(key: string, body: string, encoding: 'br' | 'gzip'): Buffer {
+/** `body` compressed for `encoding`, made once per key and encoding and kept (bounded). */
+export function encode(key: string, body: string, encoding: 'br' | 'gzip'): Buffer {
 	const k = `${encoding}|${key}`;
 	const hit = encoded.get(k);
 	if (hit) return hit;
@@ -83,10 +84,12 @@ export function keyPart(value: unknown): string {
 		.join(',')}}`;
 }
 
-const etagOf = (key: string) =>
+/** The ETag of an answer known by its key: it names the key and this build of the app. */
+export const etagOf = (key: string) =>
 	`"${createHash('sha256').update(`${BUILD}\n${key}`).digest('base64url').slice(0, 32)}"`;
 
-function matches(ifNoneMatch: string | null, etag: string): boolean {
+/** Whether an If-None-Match header names `etag` (or `*`). */
+export function matches(ifNoneMatch: string | null, etag: string): boolean {
 	if (!ifNoneMatch) return false;
 	return ifNoneMatch.split(',').some((t) => {
 		const tag = t.trim().replace(/^W\//, '');
