@@ -1,4 +1,4 @@
-import { z } from 'zod';
+import * as z from 'zod/mini';
 import { buildDocumentSchema } from '../lib/schemas/build-document';
 import { checkTopology } from './topology';
 import type { BuildDocument } from './types';
@@ -31,13 +31,17 @@ export class EngineInputError extends Error {
 const finite = (what: string, min: number, max: number) =>
 	z
 		.number({ error: `${what} must be a number` })
-		.min(min, `${what} must be at least ${min}`)
-		.max(max, `${what} must be at most ${max}`);
+		.check(
+			z.gte(min, `${what} must be at least ${min}`),
+			z.lte(max, `${what} must be at most ${max}`),
+		);
 const seconds = (what: string) =>
 	z
 		.number({ error: `${what} must be a number` })
-		.positive(`${what} must be more than zero`)
-		.max(7 * 86_400, `${what} must be at most a week`);
+		.check(
+			z.positive(`${what} must be more than zero`),
+			z.lte(7 * 86_400, `${what} must be at most a week`),
+		);
 const demand = (what: string) => finite(what, 0, 100);
 
 /**
@@ -45,33 +49,27 @@ const demand = (what: string) => finite(what, 0, 100);
  * one set of ranges for all of them. Unknown keys pass; the functions ignore them.
  */
 const optionsSchema = z.looseObject({
-	engineRpm: finite('Engine speed', 0, 100_000).optional(),
-	engineRpms: z
-		.array(finite('Engine speed', 0, 100_000))
-		.max(1000)
-		.optional(),
-	demand: demand('Demand').optional(),
-	sustainedDemand: demand('Music demand').optional(),
-	burpDemand: demand('Burp demand').optional(),
-	restDemand: demand('Rest demand').optional(),
-	conductorTempC: finite('Conductor temperature', -80, 400).optional(),
-	voltagesV: z
-		.array(finite('Supply voltage', 0.1, 100))
-		.max(50)
-		.optional(),
-	dropTargetV: finite('Drop target', 0, 100).optional(),
-	cutoffV: finite('Cut-off voltage', 0, 100).nullable().optional(),
-	fuseDistanceM: finite('Fuse distance', 0, 1000).optional(),
-	burpSeconds: seconds('Burp length').optional(),
-	burpStepS: seconds('Burp step').optional(),
-	durationS: seconds('Duration').optional(),
-	stepS: seconds('Step').optional(),
-	restStepS: seconds('Rest step').optional(),
-	burpS: seconds('Burp length').optional(),
-	restS: finite('Rest', 0, 7 * 86_400).optional(),
-	maxS: seconds('Longest time').optional(),
-	burps: z.number().int('Burps must be a whole number').min(0).max(1000).optional(),
-	stateOfCharge: z.record(z.string(), finite('State of charge', 0, 1)).optional(),
+	engineRpm: z.optional(finite('Engine speed', 0, 100_000)),
+	engineRpms: z.optional(z.array(finite('Engine speed', 0, 100_000)).check(z.maxLength(1000))),
+	demand: z.optional(demand('Demand')),
+	sustainedDemand: z.optional(demand('Music demand')),
+	burpDemand: z.optional(demand('Burp demand')),
+	restDemand: z.optional(demand('Rest demand')),
+	conductorTempC: z.optional(finite('Conductor temperature', -80, 400)),
+	voltagesV: z.optional(z.array(finite('Supply voltage', 0.1, 100)).check(z.maxLength(50))),
+	dropTargetV: z.optional(finite('Drop target', 0, 100)),
+	cutoffV: z.optional(z.nullable(finite('Cut-off voltage', 0, 100))),
+	fuseDistanceM: z.optional(finite('Fuse distance', 0, 1000)),
+	burpSeconds: z.optional(seconds('Burp length')),
+	burpStepS: z.optional(seconds('Burp step')),
+	durationS: z.optional(seconds('Duration')),
+	stepS: z.optional(seconds('Step')),
+	restStepS: z.optional(seconds('Rest step')),
+	burpS: z.optional(seconds('Burp length')),
+	restS: z.optional(finite('Rest', 0, 7 * 86_400)),
+	maxS: z.optional(seconds('Longest time')),
+	burps: z.optional(z.number().check(z.int('Burps must be a whole number'), z.gte(0), z.lte(1000))),
+	stateOfCharge: z.optional(z.record(z.string(), finite('State of charge', 0, 1))),
 });
 
 /** Most time steps one run may take: beyond this a step is too small for the time asked. */

@@ -1,4 +1,6 @@
-import { M_PER_FT, M_PER_IN, MM2_PER_CMIL, type PartGroup, type UnitSystem } from '@/engine';
+import type { PartGroup, UnitSystem } from '@/engine';
+import { MM2_PER_CMIL } from '@/engine/conductors';
+import { M_PER_FT, M_PER_IN } from '@/engine/units';
 
 export type { UnitSystem };
 

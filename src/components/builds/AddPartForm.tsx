@@ -1,12 +1,6 @@
 import { useId, useState } from 'react';
-import {
-	type BuildDocument,
-	type BuildNode,
-	type Cable,
-	NODE_KINDS,
-	type NodeKind,
-	type PartGroup,
-} from '@/engine';
+import type { BuildDocument, BuildNode, Cable, NodeKind, PartGroup } from '@/engine';
+import { NODE_KINDS } from '@/engine/types';
 import { GROUP_NAMES } from '@/lib/format';
 import { Button, Field } from '@/components/ui/Field';
 import {

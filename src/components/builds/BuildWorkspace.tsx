@@ -1,8 +1,7 @@
 import { QueryClientProvider, useQuery } from '@tanstack/react-query';
 import { useEffect, useMemo, useState } from 'react';
-import { diffBuilds } from '@/engine';
+import { diffBuilds } from '@/engine/diff';
 import type { BuildDocument } from '@/engine';
-import { parseBuildDocument } from '@/lib/schemas/build-document';
 import { ApiError } from '@/lib/client/api-client';
 import { buildDrafts } from '@/lib/client/draft-store';
 import { useSetUnits } from '@/lib/client/queries/account';
@@ -17,7 +16,8 @@ import {
 import { fieldName, formatFieldValue, GROUP_NAMES, type UnitSystem } from '@/lib/format';
 import { Button, FormMessage } from '@/components/ui/Field';
 import { starterDocument } from './new-parts';
-import { rememberForRevision, validateDraft, Workbench } from './Workbench';
+import { loadDraftCheck, useDraftCheck } from '@/lib/client/use-draft-check';
+import { Workbench } from './Workbench';
 import { RelativeTime } from '@/components/ui/RelativeTime';
 
 export interface BuildWorkspaceProps {
@@ -26,9 +26,13 @@ export interface BuildWorkspaceProps {
 	vehicleName: string;
 	canEdit: boolean;
 	head: RevisionDto | null;
+	/** The server's field check of `head` (empty when it reads): the page need not load its own. */
+	headErrors?: Record<string, string>;
 	revisions: RevisionSummary[];
 	units: UnitSystem;
 }
+
+const NO_ERRORS: Record<string, string> = {};
 
 export function BuildWorkspace(props: BuildWorkspaceProps) {
 	return (
@@ -44,6 +48,7 @@ export function BuildWorkspaceView({
 	vehicleName,
 	canEdit,
 	head: initialHead,
+	headErrors = NO_ERRORS,
 	revisions: initialRevisions,
 	units: initialUnits,
 }: BuildWorkspaceProps) {
@@ -95,22 +100,37 @@ export function BuildWorkspaceView({
 		return () => clearTimeout(t);
 	}, [canEdit, dirty, vehicleId, baseId, draft, message]);
 
+	// A document the server handed over was checked there (the first head by this page's render, a
+	// saved or conflicting one by the save); any other draft by the field check, once it is in.
+	const { check, want } = useDraftCheck();
+	const checked = head !== null && draft === head.document;
 	const errors = useMemo(
 		() =>
-			head && draft === head.document
-				? rememberForRevision(`errors|${head.id}`, () => validateDraft(draft))
-				: validateDraft(draft),
-		[draft, head],
+			checked
+				? head.id === initialHead?.id
+					? headErrors
+					: NO_ERRORS
+				: check
+					? check.validateDraft(draft)
+					: null,
+		[checked, head, initialHead, headErrors, check, draft],
 	);
-	const valid = Object.keys(errors).length === 0;
+	useEffect(() => {
+		if (!checked) want();
+	}, [checked, want]);
+	const checking = errors === null;
+	const errorCount = errors ? Object.keys(errors).length : 0;
+	const valid = !checking && errorCount === 0;
 	/** Why Save is not available, in words (null when it is). */
 	const saveBlocked = !dirty
 		? 'Nothing to save: the draft matches the saved revision.'
-		: !valid
-			? `Fix the ${Object.keys(errors).length === 1 ? 'marked field' : `${Object.keys(errors).length} marked fields`} to save.`
-			: message.trim() === ''
-				? 'Add a message saying what changed to save.'
-				: null;
+		: checking
+			? 'Checking the change…'
+			: !valid
+				? `Fix the ${errorCount === 1 ? 'marked field' : `${errorCount} marked fields`} to save.`
+				: message.trim() === ''
+					? 'Add a message saying what changed to save.'
+					: null;
 	const changes = useMemo(() => (head ? diffBuilds(head.document, draft) : []), [head, draft]);
 
 	async function save(parentId: string | null) {
@@ -153,7 +173,12 @@ export function BuildWorkspaceView({
 	}
 
 	return (
-		<div className="flex flex-col gap-8">
+		<div
+			className="flex flex-col gap-8"
+			// The field check arrives while the member reaches for a field, before the first keystroke.
+			onFocusCapture={canEdit ? want : undefined}
+			onPointerDownCapture={canEdit ? want : undefined}
+		>
 			{/* Status and save */}
 			<section
 				aria-label="Draft and saving"
@@ -174,10 +199,9 @@ export function BuildWorkspaceView({
 							● {changes.length} unsaved change{changes.length === 1 ? '' : 's'}
 						</span>
 					)}
-					{!valid && (
+					{errorCount > 0 && (
 						<span className="rounded bg-brick-tint px-2 py-0.5 text-xs font-semibold text-brick">
-							✕ {Object.keys(errors).length} field{Object.keys(errors).length === 1 ? '' : 's'} to
-							fix
+							✕ {errorCount} field{errorCount === 1 ? '' : 's'} to fix
 						</span>
 					)}
 					<span className="flex-1" />
@@ -248,6 +272,7 @@ export function BuildWorkspaceView({
 											ok: null,
 										}));
 									}
+									const { parseBuildDocument } = await loadDraftCheck();
 									const parsed = parseBuildDocument(raw);
 									if (!parsed.ok) {
 										return setSaveState((s) => ({
@@ -331,7 +356,8 @@ export function BuildWorkspaceView({
 
 			<Workbench
 				draft={draft}
-				errors={errors}
+				errors={errors ?? NO_ERRORS}
+				checking={checking}
 				units={units}
 				canEdit={canEdit}
 				baseline={head ? baseDoc : null}

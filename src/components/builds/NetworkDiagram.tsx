@@ -1,5 +1,5 @@
 import { useMemo } from 'react';
-import { cableAreaMm2 } from '@/engine';
+import { cableAreaMm2 } from '@/engine/conductors';
 import type { BuildDocument, NodeKind, PartGroup } from '@/engine';
 
 const COLUMN: Record<NodeKind, number> = {

@@ -1,14 +1,10 @@
 import { memo, useMemo, useRef, useState } from 'react';
 import { useAfterPaint } from '@/lib/client/use-after-paint';
-import type { PartGroup } from '@/engine';
-import {
-	buildReport,
-	type BuildDocument,
-	checkTopology,
-	DEFAULT_SCENARIO,
-	type Scenario,
-} from '@/engine';
-import { buildDocumentSchema } from '@/lib/schemas/build-document';
+import type { BuildDocument, PartGroup, Scenario } from '@/engine';
+// The engine's modules, unchecked: the draft is computed only once its field check passed (or,
+// as first shown, the server checked it), and the scenario's inputs are bounded where typed.
+// The checked public surface would bring the schema library with it to every page view.
+import { buildReport, DEFAULT_SCENARIO } from '@/engine/report';
 import { GROUP_NAMES, partOfPath, type UnitSystem } from '@/lib/format';
 import { FormMessage } from '@/components/ui/Field';
 import { AmplifiersSection } from './analysis/AmplifiersSection';
@@ -25,18 +21,6 @@ import { Inspector, type Selection } from './Inspector';
 import { NetworkDiagram } from './NetworkDiagram';
 import { PartEditor } from './PartEditor';
 import { useDeferredAnalysis } from './use-deferred-analysis';
-
-/** Field errors of a draft by dotted path: the schema first, then the network's topology. */
-export function validateDraft(doc: BuildDocument): Record<string, string> {
-	const parsed = buildDocumentSchema.safeParse(doc);
-	const errors: Record<string, string> = {};
-	if (!parsed.success) {
-		for (const i of parsed.error.issues) errors[i.path.map(String).join('.')] ??= i.message;
-		return errors;
-	}
-	for (const i of checkTopology(parsed.data)) errors[i.path] ??= i.message;
-	return errors;
-}
 
 /**
  * Answers about saved revisions, by revision id and what else they depend on: a revision never
@@ -85,6 +69,8 @@ function reportOf(
 export interface WorkbenchProps {
 	draft: BuildDocument;
 	errors: Record<string, string>;
+	/** The draft's field check is still loading: the last computed figures stay meanwhile. */
+	checking?: boolean;
 	units: UnitSystem;
 	canEdit: boolean;
 	onChange: (update: (d: BuildDocument) => BuildDocument) => void;
@@ -115,6 +101,7 @@ const KIND_GROUP = {
 export function Workbench({
 	draft,
 	errors,
+	checking = false,
 	units,
 	canEdit,
 	onChange,
@@ -129,7 +116,7 @@ export function Workbench({
 		() => (group: PartGroup, id: string) => setSelection({ group, id }),
 		[],
 	);
-	const valid = Object.keys(errors).length === 0;
+	const valid = !checking && Object.keys(errors).length === 0;
 	const report = useMemo(
 		() =>
 			valid
@@ -181,6 +168,8 @@ export function Workbench({
 			<div className="h-16 overflow-hidden sm:h-11 [&_p]:line-clamp-2">
 				{valid ? (
 					<FormMessage tone="info">Every field reads: the figures below are current.</FormMessage>
+				) : checking ? (
+					<FormMessage tone="info">Checking your change…</FormMessage>
 				) : (
 					<FormMessage tone="error">
 						{stale

@@ -1,17 +1,7 @@
-import {
-	type Alternator,
-	type Amplifier,
-	AWG_SIZES,
-	type BatteryBank,
-	type BuildNode,
-	type Cable,
-	CHEMISTRIES,
-	CHEMISTRY_PROPS,
-	MATERIAL_PROPS,
-	MATERIALS,
-	NODE_KINDS,
-	type SteadyLoad,
-} from '@/engine';
+import type { Alternator, Amplifier, BatteryBank, BuildNode, Cable, SteadyLoad } from '@/engine';
+import { CHEMISTRY_PROPS } from '@/engine/battery';
+import { MATERIAL_PROPS } from '@/engine/conductors';
+import { AWG_SIZES, CHEMISTRIES, MATERIALS, NODE_KINDS } from '@/engine/types';
 import {
 	fromLengthDisplay,
 	fromShortDisplay,

@@ -1,4 +1,4 @@
-import { alternatorWithDefaults, amplifierWithDefaults, bankWithDefaults } from '@/engine';
+import { alternatorWithDefaults, amplifierWithDefaults, bankWithDefaults } from '@/engine/defaults';
 import type {
 	Alternator,
 	Amplifier,

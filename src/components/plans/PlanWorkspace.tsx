@@ -21,7 +21,8 @@ import {
 } from '@/lib/format';
 import { planPartSchema } from '@/lib/schemas/plans';
 import { Button, FormMessage } from '@/components/ui/Field';
-import { validateDraft, Workbench } from '@/components/builds/Workbench';
+import { Workbench } from '@/components/builds/Workbench';
+import { validateDraft } from '@/lib/client/draft-check';
 
 export interface PlanWorkspaceProps {
 	teamId: string;

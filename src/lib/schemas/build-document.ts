@@ -1,5 +1,9 @@
-import { z } from 'zod';
-import { lineText } from './text';
+// zod's small build: the build page validates every keystroke with this schema in the browser,
+// and the full build would nearly double the script that page loads. Schemas of the full build
+// take these as they are (`z.object({ document: buildDocumentSchema })`).
+import * as z from 'zod/mini';
+import en from 'zod/v4/locales/en.js';
+import { hasLineControl, LINE_MESSAGE } from './text-rules';
 // From the engine's modules, not its index (the engine's input guard uses this schema), and
 // relative: the engine worker's bundler does not read the @/ alias.
 import { checkTopology } from '../../engine/topology';
@@ -12,26 +16,34 @@ import {
 	TERMINAL_PART_GROUPS,
 } from '../../engine/types';
 
+// The small build carries no messages of its own; these are the full build's English ones.
+z.config(en());
+
 const id = z
 	.string()
-	.trim()
-	.min(1, 'Give it an id')
-	.max(64, 'Keep ids to 64 characters')
-	.regex(/^[A-Za-z0-9_.-]+$/, 'Use letters, digits, dots, dashes and underscores only');
-const label = lineText(80, {
-	required: 'Give it a name',
-	maxMessage: 'Keep names to 80 characters',
-});
-/** zod 4 numbers already refuse NaN and ±Infinity; these add the physical ranges. */
-const positive = (what: string) =>
-	z.number({ error: `${what} must be a number` }).positive(`${what} must be more than zero`);
-const nonNegative = (what: string) =>
-	z.number({ error: `${what} must be a number` }).min(0, `${what} cannot be negative`);
+	.check(
+		z.trim(),
+		z.minLength(1, 'Give it an id'),
+		z.maxLength(64, 'Keep ids to 64 characters'),
+		z.regex(/^[A-Za-z0-9_.-]+$/, 'Use letters, digits, dots, dashes and underscores only'),
+	);
+const label = z.string({ error: 'Must be text' }).check(
+	z.trim(),
+	z.minLength(1, 'Give it a name'),
+	z.maxLength(80, 'Keep names to 80 characters'),
+	z.refine((v) => !hasLineControl(v), LINE_MESSAGE),
+);
+/** A number with bounds: zod 4 numbers already refuse NaN and ±Infinity. */
+const num = (what: string | null, ...checks: z.core.$ZodCheck<number>[]) =>
+	z.number(what ? { error: `${what} must be a number` } : undefined).check(...checks);
+const positive = (what: string, max: number, maxMessage: string) =>
+	num(what, z.positive(`${what} must be more than zero`), z.lte(max, maxMessage));
+const nonNegative = (what: string, max: number, maxMessage: string) =>
+	num(what, z.gte(0, `${what} cannot be negative`), z.lte(max, maxMessage));
 const fraction = (what: string) =>
-	z
-		.number({ error: `${what} must be a number` })
-		.min(0, `${what} runs from 0 to 1`)
-		.max(1, `${what} runs from 0 to 1`);
+	num(what, z.gte(0, `${what} runs from 0 to 1`), z.lte(1, `${what} runs from 0 to 1`));
+const whole = (message: string, min: [number, string], max: [number, string]) =>
+	num(null, z.int(message), z.gte(min[0], min[1]), z.lte(max[0], max[1]));
 
 export const buildNodeSchema = z.object({
 	id,
@@ -48,14 +60,12 @@ export const cableSizeSchema = z.discriminatedUnion(
 		}),
 		z.object({
 			kind: z.literal('mm2'),
-			mm2: positive('Cross-section').max(
-				1000,
-				'Cross-section above 1000 mm² is not a vehicle cable',
-			),
+			mm2: positive('Cross-section', 1000, 'Cross-section above 1000 mm² is not a vehicle cable'),
 		}),
 		z.object({
 			kind: z.literal('measured'),
-			areaMm2: positive('Measured cross-section').max(
+			areaMm2: positive(
+				'Measured cross-section',
 				1000,
 				'Cross-section above 1000 mm² is not a vehicle cable',
 			),
@@ -65,9 +75,9 @@ export const cableSizeSchema = z.discriminatedUnion(
 );
 
 export const fuseSchema = z.object({
-	ratingA: positive('Fuse rating').max(2000, 'Fuse rating above 2000 A is not plausible'),
+	ratingA: positive('Fuse rating', 2000, 'Fuse rating above 2000 A is not plausible'),
 	end: z.enum(['from', 'to'], { error: 'Fuse end is "from" or "to"' }),
-	distanceM: nonNegative('Fuse distance').max(10, 'Fuse distance above 10 m is not plausible'),
+	distanceM: nonNegative('Fuse distance', 10, 'Fuse distance above 10 m is not plausible'),
 });
 
 export const cableSchema = z.object({
@@ -77,46 +87,48 @@ export const cableSchema = z.object({
 	to: id,
 	size: cableSizeSchema,
 	material: z.enum(MATERIALS, { error: `Unknown material; use one of ${MATERIALS.join(', ')}` }),
-	lengthM: positive('Length').max(100, 'Length above 100 m is not a vehicle cable'),
-	parallelRuns: z
-		.number()
-		.int('Parallel runs is a whole number')
-		.min(1, 'At least one run')
-		.max(16, 'At most 16 runs'),
-	fuses: z
-		.array(fuseSchema)
-		.max(2, 'At most one fuse per end')
-		.refine((f) => new Set(f.map((x) => x.end)).size === f.length, 'At most one fuse per end'),
-	insulationC: positive('Insulation rating').max(
+	lengthM: positive('Length', 100, 'Length above 100 m is not a vehicle cable'),
+	parallelRuns: whole(
+		'Parallel runs is a whole number',
+		[1, 'At least one run'],
+		[16, 'At most 16 runs'],
+	),
+	fuses: z.array(fuseSchema).check(
+		z.maxLength(2, 'At most one fuse per end'),
+		z.refine((f) => new Set(f.map((x) => x.end)).size === f.length, 'At most one fuse per end'),
+	),
+	insulationC: positive(
+		'Insulation rating',
 		250,
 		'Insulation rating above 250 °C is not plausible',
 	),
-	connectionResistanceOhm: nonNegative('Connection resistance')
-		.max(1, 'A connection above 1 Ω is an open circuit')
-		.optional(),
+	connectionResistanceOhm: z.optional(
+		nonNegative('Connection resistance', 1, 'A connection above 1 Ω is an open circuit'),
+	),
 });
 
 const twoTerminal = { id, label, positive: id, negative: id };
 
 export const alternatorSchema = z.object({
 	...twoTerminal,
-	ratedHotA: positive('Rated hot output').max(2000, 'Rated output above 2000 A is not plausible'),
+	ratedHotA: positive('Rated hot output', 2000, 'Rated output above 2000 A is not plausible'),
 	curve: z
 		.array(
 			z.object({
-				rpm: nonNegative('Curve speed').max(30000, 'Curve speed above 30 000 rpm'),
-				currentA: nonNegative('Curve current').max(2000, 'Curve current above 2000 A'),
+				rpm: nonNegative('Curve speed', 30000, 'Curve speed above 30 000 rpm'),
+				currentA: nonNegative('Curve current', 2000, 'Curve current above 2000 A'),
 			}),
 		)
-		.max(40, 'At most 40 curve points'),
+		.check(z.maxLength(40, 'At most 40 curve points')),
 	curveIsCold: z.boolean(),
-	hotFactor: positive('Hot factor').max(1, 'Hot factor is at most 1'),
-	pulleyRatio: positive('Pulley ratio').max(6, 'Pulley ratio above 6:1 is not plausible'),
-	setPointV: positive('Set point').max(20, 'Set point above 20 V is outside a 12–16 V system'),
-	sourceResistanceOhm: z
-		.number()
-		.min(1e-6, 'Source resistance must be at least 1 µΩ')
-		.max(1, 'Source resistance above 1 Ω'),
+	hotFactor: positive('Hot factor', 1, 'Hot factor is at most 1'),
+	pulleyRatio: positive('Pulley ratio', 6, 'Pulley ratio above 6:1 is not plausible'),
+	setPointV: positive('Set point', 20, 'Set point above 20 V is outside a 12–16 V system'),
+	sourceResistanceOhm: num(
+		null,
+		z.gte(1e-6, 'Source resistance must be at least 1 µΩ'),
+		z.lte(1, 'Source resistance above 1 Ω'),
+	),
 });
 
 export const batteryBankSchema = z.object({
@@ -124,33 +136,35 @@ export const batteryBankSchema = z.object({
 	chemistry: z.enum(CHEMISTRIES, {
 		error: `Unknown chemistry; use one of ${CHEMISTRIES.join(', ')}`,
 	}),
-	cellsPerUnit: z
-		.number()
-		.int('Cells is a whole number')
-		.min(1, 'At least one cell')
-		.max(8, 'At most 8 cells per unit'),
-	unitsInSeries: z
-		.number()
-		.int('Units in series is a whole number')
-		.min(1, 'At least one unit')
-		.max(4, 'At most 4 units in series'),
-	stringsInParallel: z
-		.number()
-		.int('Strings is a whole number')
-		.min(1, 'At least one string')
-		.max(40, 'At most 40 strings'),
-	unitCapacityAh: positive('Capacity').max(5000, 'Capacity above 5000 Ah is not plausible'),
-	ratedHours: positive('Rated hours').max(100, 'Rated hours above 100 h'),
-	unitResistanceOhm: positive('Internal resistance').max(1, 'Internal resistance above 1 Ω'),
+	cellsPerUnit: whole(
+		'Cells is a whole number',
+		[1, 'At least one cell'],
+		[8, 'At most 8 cells per unit'],
+	),
+	unitsInSeries: whole(
+		'Units in series is a whole number',
+		[1, 'At least one unit'],
+		[4, 'At most 4 units in series'],
+	),
+	stringsInParallel: whole(
+		'Strings is a whole number',
+		[1, 'At least one string'],
+		[40, 'At most 40 strings'],
+	),
+	unitCapacityAh: positive('Capacity', 5000, 'Capacity above 5000 Ah is not plausible'),
+	ratedHours: positive('Rated hours', 100, 'Rated hours above 100 h'),
+	unitResistanceOhm: positive('Internal resistance', 1, 'Internal resistance above 1 Ω'),
 	stateOfCharge: fraction('State of charge'),
-	peukertK: z
-		.number()
-		.min(1, 'Peukert exponent is at least 1')
-		.max(2, 'Peukert exponent above 2 is not plausible')
-		.nullable(),
-	absorptionV: positive('Absorption voltage').max(25, 'Absorption voltage above 25 V').nullable(),
-	floatV: positive('Float voltage').max(25, 'Float voltage above 25 V').nullable(),
-	maxChargeC: positive('Charge acceptance').max(10, 'Charge acceptance above 10 C').nullable(),
+	peukertK: z.nullable(
+		num(
+			null,
+			z.gte(1, 'Peukert exponent is at least 1'),
+			z.lte(2, 'Peukert exponent above 2 is not plausible'),
+		),
+	),
+	absorptionV: z.nullable(positive('Absorption voltage', 25, 'Absorption voltage above 25 V')),
+	floatV: z.nullable(positive('Float voltage', 25, 'Float voltage above 25 V')),
+	maxChargeC: z.nullable(positive('Charge acceptance', 10, 'Charge acceptance above 10 C')),
 	location: z.enum(['engine_bay', 'cabin', 'trunk', 'exterior'], { error: 'Unknown location' }),
 	secured: z.boolean(),
 	vented: z.boolean(),
@@ -158,27 +172,25 @@ export const batteryBankSchema = z.object({
 
 export const amplifierSchema = z.object({
 	...twoTerminal,
-	ratedPowerW: positive('Rated power').max(100000, 'Rated power above 100 kW per amplifier'),
-	ratedVoltageV: positive('Rated voltage').max(20, 'Rated voltage above 20 V'),
-	efficiency: positive('Efficiency').max(1, 'Efficiency is at most 1 (100 %)'),
-	quantity: z
-		.number()
-		.int('Quantity is a whole number')
-		.min(1, 'At least one')
-		.max(50, 'At most 50'),
+	ratedPowerW: positive('Rated power', 100000, 'Rated power above 100 kW per amplifier'),
+	ratedVoltageV: positive('Rated voltage', 20, 'Rated voltage above 20 V'),
+	efficiency: positive('Efficiency', 1, 'Efficiency is at most 1 (100 %)'),
+	quantity: whole('Quantity is a whole number', [1, 'At least one'], [50, 'At most 50']),
 	regulated: z.boolean(),
-	maxOutputW: positive('Maximum output')
-		.max(200000, 'Maximum output above 200 kW per amplifier')
-		.nullable()
-		.optional(),
+	maxOutputW: z.optional(
+		z.nullable(positive('Maximum output', 200000, 'Maximum output above 200 kW per amplifier')),
+	),
 });
 
 export const steadyLoadSchema = z.object({
 	...twoTerminal,
-	currentA: nonNegative('Current').max(1000, 'Current above 1000 A'),
+	currentA: nonNegative('Current', 1000, 'Current above 1000 A'),
 });
 
-function checkReferences(doc: z.infer<typeof looseBuildSchema>, ctx: z.RefinementCtx) {
+function checkReferences(
+	doc: z.infer<typeof looseBuildSchema>,
+	ctx: z.core.$RefinementCtx<z.infer<typeof looseBuildSchema>>,
+) {
 	const nodes = new Set<string>();
 	doc.nodes.forEach((n, i) => {
 		if (nodes.has(n.id))
@@ -245,12 +257,14 @@ function checkReferences(doc: z.infer<typeof looseBuildSchema>, ctx: z.Refinemen
 
 const looseBuildSchema = z.object({
 	schemaVersion: z.literal(1, { error: 'Unsupported build document version; this is version 1' }),
-	nodes: z.array(buildNodeSchema).min(1, 'A build needs nodes').max(500, 'At most 500 nodes'),
-	alternators: z.array(alternatorSchema).max(8, 'At most 8 alternators'),
-	banks: z.array(batteryBankSchema).max(40, 'At most 40 banks'),
-	amplifiers: z.array(amplifierSchema).max(100, 'At most 100 amplifiers'),
-	loads: z.array(steadyLoadSchema).max(100, 'At most 100 loads'),
-	cables: z.array(cableSchema).max(1000, 'At most 1000 cables'),
+	nodes: z
+		.array(buildNodeSchema)
+		.check(z.minLength(1, 'A build needs nodes'), z.maxLength(500, 'At most 500 nodes')),
+	alternators: z.array(alternatorSchema).check(z.maxLength(8, 'At most 8 alternators')),
+	banks: z.array(batteryBankSchema).check(z.maxLength(40, 'At most 40 banks')),
+	amplifiers: z.array(amplifierSchema).check(z.maxLength(100, 'At most 100 amplifiers')),
+	loads: z.array(steadyLoadSchema).check(z.maxLength(100, 'At most 100 loads')),
+	cables: z.array(cableSchema).check(z.maxLength(1000, 'At most 1000 cables')),
 });
 
 /**
@@ -258,8 +272,9 @@ const looseBuildSchema = z.object({
  * Topology — every node reaching the chassis, every load fed by a source — is the engine's
  * `checkTopology`, which `parseBuildDocument` also runs.
  */
-export const buildDocumentSchema: z.ZodType<BuildDocument> =
-	looseBuildSchema.superRefine(checkReferences);
+export const buildDocumentSchema: z.ZodMiniType<BuildDocument> = looseBuildSchema.check(
+	z.superRefine(checkReferences),
+);
 
 export interface BuildDocumentProblem {
 	path: string;

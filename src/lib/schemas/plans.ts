@@ -37,7 +37,7 @@ export const newPlanSchema = z.object({
 	 * The plan's document when it is not a plain copy of the base revision (a calibration's fitted
 	 * values); left out, the plan starts as that revision's document.
 	 */
-	document: buildDocumentSchema.optional(),
+	document: z.optional(buildDocumentSchema),
 });
 
 export const updatePlanSchema = z.object({

@@ -1,10 +1,5 @@
-import {
-	type BuildDocument,
-	type Cable,
-	type CableReport,
-	MATERIAL_PROPS,
-	type ReportWarning,
-} from '@/engine';
+import type { BuildDocument, Cable, CableReport, ReportWarning } from '@/engine';
+import { MATERIAL_PROPS } from '@/engine/conductors';
 import { fmt, lengthUnit, toLengthDisplay, type UnitSystem } from '@/lib/format';
 import { WarningList } from './Findings';
 import { type ResultColumn, ResultTable, Unit } from './ResultTable';

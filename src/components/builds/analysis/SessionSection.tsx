@@ -1,12 +1,6 @@
 import { useEffect, useMemo, useState } from 'react';
-import {
-	type BuildDocument,
-	DEFAULT_SESSION,
-	type PlayTime,
-	RECOVERY_TOLERANCE_V,
-	type Scenario,
-	type SessionRun,
-} from '@/engine';
+import type { BuildDocument, PlayTime, Scenario, SessionRun } from '@/engine';
+import { DEFAULT_SESSION, RECOVERY_TOLERANCE_V } from '@/engine/session';
 import { playTimeInWorker, sessionInWorker } from '@/lib/client/engine-worker';
 import { fmt } from '@/lib/format';
 import { SessionChart } from '../LazyCharts';

@@ -1,9 +1,5 @@
-import {
-	type BuildReport,
-	headlineFigures as headline,
-	type HeadlineFigures,
-	type ReportWarning,
-} from '@/engine';
+import type { BuildReport, HeadlineFigures, ReportWarning } from '@/engine';
+import { headlineFigures as headline } from '@/engine/headline';
 import { fmt } from '@/lib/format';
 
 type Ok = Extract<BuildReport, { ok: true }>;
