@@ -230,6 +230,23 @@ function alternatorMode(a: CompiledNetwork['alternators'][number], x: number): n
 	return i <= 0 ? 0 : i >= a.limitA ? 2 : 1;
 }
 
+/**
+ * Adds a two-terminal element drawing `cur` into p (out of n) with incremental conductance `g` to
+ * the residual `f` and the Jacobian's values `j` (a module function: assembly runs thousands of
+ * times a burp, and a closure per call would be made as often).
+ */
+function stamp(f: Float64Array, j: Float64Array, e: TwoTerminal, cur: number, g: number) {
+	if (e.p >= 0) {
+		f[e.p] += cur;
+		j[e.spp] += g;
+	}
+	if (e.n >= 0) {
+		f[e.n] -= cur;
+		j[e.snn] += g;
+	}
+	if (e.spn >= 0) j[e.spn] -= g;
+}
+
 /** Residual f (current out of each node) into `net.work.f` and the Jacobian into `net.system`. */
 function assemble(net: CompiledNetwork, v: Float64Array, lambda: number) {
 	const n = net.nodeIds.length;
@@ -241,30 +258,18 @@ function assemble(net: CompiledNetwork, v: Float64Array, lambda: number) {
 		f[i] = GMIN_S * v[i]!;
 		j[diagSlot[i]!] += GMIN_S;
 	}
-	// Adds a two-terminal element drawing `cur` into p (out of n) with incremental conductance `g`.
-	const stamp = (e: TwoTerminal, cur: number, g: number) => {
-		if (e.p >= 0) {
-			f[e.p] += cur;
-			j[e.spp] += g;
-		}
-		if (e.n >= 0) {
-			f[e.n] -= cur;
-			j[e.snn] += g;
-		}
-		if (e.spn >= 0) j[e.spn] -= g;
-	};
-	for (const c of net.cables) stamp(c, c.g * (volt(v, c.p) - volt(v, c.n)), c.g);
+	for (const c of net.cables) stamp(f, j, c, c.g * (volt(v, c.p) - volt(v, c.n)), c.g);
 	let m = 0;
 	for (const b of net.banks) {
 		const x = volt(v, b.p) - volt(v, b.n);
 		const [i, di] = bankCurrent(b, x);
-		stamp(b, -i, -di);
+		stamp(f, j, b, -i, -di);
 		work.modes[m++] = bankMode(b, x);
 	}
 	for (const a of net.alternators) {
 		const x = volt(v, a.p) - volt(v, a.n);
 		const [i, di] = alternatorCurrent(a, x);
-		stamp(a, -i, -di);
+		stamp(f, j, a, -i, -di);
 		work.modes[m++] = alternatorMode(a, x);
 	}
 	let minAmpV = Number.POSITIVE_INFINITY;
@@ -273,9 +278,9 @@ function assemble(net: CompiledNetwork, v: Float64Array, lambda: number) {
 		minAmpV = Math.min(minAmpV, vpn);
 		if (a.powerW === 0) continue;
 		const [i, di] = amplifierDrawCurrent(a.draw, vpn, lambda);
-		stamp(a, i, di);
+		stamp(f, j, a, i, di);
 	}
-	for (const l of net.loads) stamp(l, l.currentA, 0);
+	for (const l of net.loads) stamp(f, j, l, l.currentA, 0);
 	work.minAmpV = minAmpV;
 }
 
