@@ -26,6 +26,12 @@ describe('editing a build in chromium', () => {
 		const b = await openBrowser();
 		opened.push(b);
 		await signInAndOpen(b, DEMO_USERS[1].email, 'Pebble');
+		// The details form wakes on its first click, and that one click opens it.
+		await b.page.getByRole('button', { name: 'Vehicle details' }).click();
+		await expect
+			.poll(() => b.page.getByRole('textbox', { name: 'Name', exact: true }).inputValue())
+			.toBe('Pebble');
+		await b.page.getByRole('button', { name: 'Close', exact: true }).click();
 		const before = await dropOf(b, 'run');
 		expect(before).toBeGreaterThan(0.3);
 
