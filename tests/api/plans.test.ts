@@ -190,6 +190,15 @@ describe('upgrade plans', () => {
 				)
 			).status,
 		).toBe(400);
+		const unknown = await call(
+			compare,
+			'GET',
+			{},
+			undefined,
+			`?plans=${bigger.id},00000000-0000-4000-8000-000000000000`,
+		);
+		expect(unknown.status).toBe(404);
+		expect((await unknown.json()).errors[0].path).toBe('plans');
 	});
 
 	it('recomputes a cached comparison when a plan is saved again (its version is part of the key)', async () => {

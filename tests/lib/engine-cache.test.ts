@@ -1,6 +1,10 @@
 import { brotliDecompressSync, gunzipSync } from 'node:zlib';
 import { describe, expect, it } from 'vitest';
-import { acceptedEncoding, cachedEngineJson } from '../../src/lib/server/engine/cache';
+import {
+	ComputeRefused,
+	acceptedEncoding,
+	cachedEngineJson,
+} from '../../src/lib/server/engine/cache';
 
 describe('cached engine answers', () => {
 	it('picks brotli, then gzip, as the request accepts them (RFC 9110 §12.5.3; q=0 refuses)', () => {
@@ -41,5 +45,18 @@ describe('cached engine answers', () => {
 			compute,
 		);
 		expect(again.status).toBe(304);
+	});
+
+	it('answers a refused computation with its own response and caches nothing for the key', async () => {
+		const key = `refused|${Date.now()}`;
+		const request = new Request('http://x/');
+		const refused = await cachedEngineJson(request, key, async () => {
+			throw new ComputeRefused(() => new Response('{"error":"conflict"}', { status: 409 }));
+		});
+		expect(refused.status).toBe(409);
+		// The next ask computes afresh: the refusal was not kept.
+		const next = await cachedEngineJson(request, key, async () => '{"ok":true}');
+		expect(next.status).toBe(200);
+		await expect(next.json()).resolves.toEqual({ ok: true });
 	});
 });

@@ -131,6 +131,23 @@ export async function requireRevision(
 	return { ok: true, value: { ...found.value, revision } };
 }
 
+/**
+ * requireVehicle, then only the id of the URL's revision once it is known to be in that vehicle's
+ * build: for answers cached by revision, whose document is read only on a miss.
+ */
+export async function requireRevisionId(
+	locals: Locals,
+	params: Params,
+	min: Role,
+): Promise<Access<VehicleAccess & { revisionId: string }>> {
+	const found = await requireVehicle(locals, params, min);
+	if (!found.ok) return found;
+	const id = parseUuid(params.revisionId);
+	if (!id || !(await revisionBelongsTo(locals.db, found.value.vehicle.id, id)))
+		return notFound('revision');
+	return { ok: true, value: { ...found.value, revisionId: id } };
+}
+
 type PlanRow = NonNullable<Awaited<ReturnType<typeof findPlan>>>;
 
 /** requireVehicle, then the plan of the URL (a plan of another vehicle is a 404). */

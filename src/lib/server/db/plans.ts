@@ -112,6 +112,22 @@ export async function findPlan(
 	};
 }
 
+/** Each named plan's version, for the vehicle's plans among `planIds` (others are absent). */
+export async function findPlanVersions(
+	db: Db,
+	vehicleId: string,
+	planIds: string[],
+): Promise<Map<string, number>> {
+	if (planIds.length === 0) return new Map();
+	const rows = await db
+		.selectFrom('plan')
+		.select(['id', 'version'])
+		.where('vehicle_id', '=', vehicleId)
+		.where('id', 'in', planIds)
+		.execute();
+	return new Map(rows.map((r) => [r.id, r.version]));
+}
+
 async function writeParts(trx: Db, planId: string, parts: PlanPartInput[]) {
 	await trx.deleteFrom('plan_part').where('plan_id', '=', planId).execute();
 	if (parts.length) {

@@ -98,6 +98,16 @@ export function matches(ifNoneMatch: string | null, etag: string): boolean {
 }
 
 /**
+ * Thrown by a `compute()` that finds its inputs gone or changed since the key was made: nothing is
+ * cached, and the request is answered with `answer` (a 404 or 409) instead.
+ */
+export class ComputeRefused extends Error {
+	constructor(readonly answer: () => Response) {
+		super('the inputs of a cached engine answer changed while it was computed');
+	}
+}
+
+/**
  * Answers engine JSON for `key`: 304 when the client already holds it (the ETag is known without
  * computing anything), the cached text on a hit, and `compute()` once on a miss. Call only after
  * the access check: the key names the data, not who may see it.
@@ -111,7 +121,13 @@ export async function cachedEngineJson(
 	const headers = { etag, 'cache-control': 'private, no-cache' };
 	if (matches(request.headers.get('if-none-match'), etag))
 		return new Response(null, { status: 304, headers });
-	const body = (await cache.fetch(key, { context: compute })) ?? (await compute());
+	let body: string;
+	try {
+		body = (await cache.fetch(key, { context: compute })) ?? (await compute());
+	} catch (error) {
+		if (error instanceof ComputeRefused) return error.answer();
+		throw error;
+	}
 	const encoding =
 		body.length >= 1024 ? acceptedEncoding(request.headers.get('accept-encoding')) : null;
 	if (encoding)
