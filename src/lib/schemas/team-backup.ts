@@ -14,7 +14,7 @@ export const BACKUP_VERSION = 1;
 const iso = z.iso.datetime({ offset: true });
 const day = z.iso.date();
 const key = z.string().min(1).max(40);
-const email = z.string().email().max(320);
+const email = z.email().max(320);
 const role = z.enum(['captain', 'member', 'viewer']);
 
 export const backupFileSchema = z.object({
