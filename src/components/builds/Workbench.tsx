@@ -165,7 +165,7 @@ export function Workbench({
 			<ScenarioControls scenario={scenario} onChange={setScenario} />
 
 			{/* Always one line tall, error or not: a message appearing here must not push the part being edited down the page. */}
-			<div className="h-16 overflow-hidden sm:h-11 [&_p]:line-clamp-2">
+			<div className="h-16 overflow-hidden sm:h-11 [&_p>span:last-child]:line-clamp-2">
 				{valid ? (
 					<FormMessage tone="info">Every field reads: the figures below are current.</FormMessage>
 				) : checking ? (

@@ -24,6 +24,9 @@ export interface Storage {
 export const STORAGE_TIMEOUT_MS = Number(process.env.SAGWISE_S3_TIMEOUT_MS ?? 15_000);
 
 function clientFor(s3: ServerConfig['s3'], timeoutMs: number): S3Client {
+	// The SDK release pinned in package.json supports the Node 20 this project runs on; its notice
+	// about later releases needing Node 22 would only bury the start command's own output.
+	process.env.AWS_SDK_JS_NODE_VERSION_SUPPORT_WARNING_DISABLED ??= 'true';
 	return new S3Client({
 		region: s3.region,
 		endpoint: s3.endpoint ?? undefined,

@@ -7,18 +7,23 @@ type Ok = Extract<BuildReport, { ok: true }>;
 interface Figure {
 	key: string;
 	label: string;
+	/** The label on a phone, where a third of the width holds it. */
+	short: string;
 	unit: string;
 	digits: number;
 	/** Which way is better: up (more volts) or down (less loss). */
 	better: 'up' | 'down';
 	value: (h: HeadlineFigures) => number | null;
 	show?: (x: number) => string;
+	/** A word after the unit (which way the current goes). */
+	word?: (x: number) => string;
 }
 
 const FIGURES: Figure[] = [
 	{
 		key: 'settle',
 		label: 'Settles at, burp',
+		short: 'Settles, burp',
 		unit: 'V',
 		digits: 2,
 		better: 'up',
@@ -27,6 +32,7 @@ const FIGURES: Figure[] = [
 	{
 		key: 'lowest',
 		label: 'Lowest amplifier',
+		short: 'Lowest amp',
 		unit: 'V',
 		digits: 2,
 		better: 'up',
@@ -35,6 +41,7 @@ const FIGURES: Figure[] = [
 	{
 		key: 'loss',
 		label: 'Worst output loss',
+		short: 'Worst loss',
 		unit: 'dB',
 		digits: 2,
 		better: 'up',
@@ -43,6 +50,7 @@ const FIGURES: Figure[] = [
 	{
 		key: 'alt',
 		label: 'Alternators carry',
+		short: 'Alt. carry',
 		unit: '%',
 		digits: 0,
 		better: 'up',
@@ -50,16 +58,19 @@ const FIGURES: Figure[] = [
 	},
 	{
 		key: 'bank',
-		label: 'Banks in music',
+		label: 'Banks at music level',
+		short: 'Banks, music',
 		unit: 'A',
 		digits: 0,
 		better: 'down',
 		value: (h) => h.bankCurrentA,
-		show: (x) => (x > 0.5 ? `${fmt(x, 0)} out` : `${fmt(-x, 0)} in`),
+		show: (x) => fmt(Math.abs(x), 0),
+		word: (x) => (x > 0.5 ? 'out' : 'in'),
 	},
 	{
 		key: 'cable',
 		label: 'Cable loss, burp',
+		short: 'Cable loss',
 		unit: 'W',
 		digits: 0,
 		better: 'down',
@@ -124,23 +135,18 @@ export function SummaryStrip({
 				})}
 				<div className="min-w-0" data-figure="findings">
 					<p className="truncate text-[11px] font-semibold tracking-wide text-ink-soft uppercase">
-						Findings
+						<span className="sm:hidden" aria-hidden="true">
+							Danger · warn
+						</span>
+						<span className="max-sm:sr-only">Findings</span>
 					</p>
 					<p className="num truncate text-sm font-semibold whitespace-nowrap">
 						<span className={now.findings.danger ? 'text-brick' : ''}>
-							{now.findings.danger} <span className="hidden sm:inline">danger</span>
-							<span className="sm:hidden" aria-hidden="true">
-								✕
-							</span>
-							<span className="sr-only sm:hidden">danger</span>
+							{now.findings.danger} <span className="max-sm:sr-only">danger</span>
 						</span>{' '}
 						·{' '}
 						<span className={now.findings.warning ? 'text-amber-text' : ''}>
-							{now.findings.warning} <span className="hidden sm:inline">warn</span>
-							<span className="sm:hidden" aria-hidden="true">
-								!
-							</span>
-							<span className="sr-only sm:hidden">warnings</span>
+							{now.findings.warning} <span className="max-sm:sr-only">warn</span>
 						</span>
 					</p>
 					<p className="num h-4 text-[11px] leading-4 text-ink-soft">
@@ -192,13 +198,17 @@ function Cell({
 	collapse: boolean;
 }) {
 	const show = (x: number) => (f.show ? f.show(x) : fmt(x, f.digits));
+	const said = (x: number) => (f.word ? `${show(x)} ${f.word(x)}` : show(x));
 	const changed =
-		after !== null && before !== null && show(after) !== show(before) ? after - before : null;
+		after !== null && before !== null && said(after) !== said(before) ? after - before : null;
 	const better = changed !== null && (f.better === 'up' ? changed > 0 : changed < 0);
 	return (
 		<div className="min-w-0" data-figure={f.key}>
 			<p className="truncate text-[11px] font-semibold tracking-wide text-ink-soft uppercase">
-				{f.label}
+				<span className="sm:hidden" aria-hidden="true">
+					{f.short}
+				</span>
+				<span className="max-sm:sr-only">{f.label}</span>
 			</p>
 			<p className="num text-sm font-semibold whitespace-nowrap">
 				{collapse ? (
@@ -208,6 +218,7 @@ function Cell({
 				) : (
 					<>
 						{show(after)} <span className="text-xs font-normal text-ink-soft">{f.unit}</span>
+						{f.word && <span className="text-xs font-normal"> {f.word(after)}</span>}
 					</>
 				)}
 			</p>
@@ -216,7 +227,7 @@ function Cell({
 					className={`num h-4 text-[11px] leading-4 whitespace-nowrap ${better ? 'text-teal' : 'text-brick'}`}
 					data-change={better ? 'better' : 'worse'}
 				>
-					{show(before)} → {show(after!)}{' '}
+					{said(before)} → {said(after!)}{' '}
 					<span className="sr-only">{better ? 'better' : 'worse'}</span>
 					<span aria-hidden="true">{better ? '▲' : '▼'}</span>
 				</p>
