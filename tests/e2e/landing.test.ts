@@ -27,6 +27,10 @@ describe('landing page in chromium', () => {
 		expect(fontLoaded).toBe(true);
 		const file = await browser.screenshot('landing');
 		expect(existsSync(file)).toBe(true);
+		// A newcomer's way in: the landing page leads to making an account.
+		await page.getByRole('link', { name: 'Create an account' }).click();
+		await page.waitForURL(/\/sign-up$/);
+		await expect(page.locator('h1').textContent()).resolves.toMatch(/account/i);
 		expect(browser.problems).toEqual([]);
 	});
 
