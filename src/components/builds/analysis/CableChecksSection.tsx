@@ -157,7 +157,8 @@ export function CableChecksSection({
 				up to 150 % of it (33 CFR 183.455). 300 cmil/A for copper is common practice, scaled for
 				other metals. Burp heating: the adiabatic estimate of IEC 60949 (no heat let out, so an
 				upper bound) over the burp's length from the cable temperature above, against the
-				insulation's rating; CCA taken as aluminium. Lengths in {lu}: {cables.length} cables,{' '}
+				insulation's rating; CCA taken as aluminium. Lengths in {lu}: {cables.length}{' '}
+				{cables.length === 1 ? 'cable' : 'cables'},{' '}
 				{fmt(
 					draft.cables.reduce((s, c) => s + toLengthDisplay(c.lengthM, units), 0),
 					1,
