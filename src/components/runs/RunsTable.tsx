@@ -67,10 +67,12 @@ export function RunsTable({
 									<td className="px-3 py-1.5 font-sans">
 										<button
 											type="button"
-											className="underline-offset-2 hover:underline"
+											className="text-left underline-offset-2 hover:underline"
 											onClick={() => setSelected(r.id)}
 										>
-											{fmtTime(r.ranAt, 'd MMM yyyy HH:mm')}
+											{/* Date and time each kept whole: on a phone they take two lines, not four. */}
+											<span className="whitespace-nowrap">{fmtTime(r.ranAt, 'd MMM yyyy')}</span>{' '}
+											<span className="whitespace-nowrap">{fmtTime(r.ranAt, 'HH:mm')}</span>
 										</button>
 									</td>
 									<td className="px-3 py-1.5 font-sans">
