@@ -117,36 +117,36 @@ export async function requireVehicle(
 
 type RevisionRow = NonNullable<Awaited<ReturnType<typeof findRevision>>>;
 
-/** requireVehicle, then the revision of the URL in that vehicle's build. */
-export async function requireRevision(
+/** requireVehicle, then what `find` makes of the URL's revision id (a 404 when it finds nothing). */
+async function requireVehicleRevision<T>(
 	locals: Locals,
 	params: Params,
 	min: Role,
-): Promise<Access<VehicleAccess & { revision: RevisionRow }>> {
+	find: (found: VehicleAccess, revisionId: string) => Promise<T | undefined>,
+): Promise<Access<VehicleAccess & T>> {
 	const found = await requireVehicle(locals, params, min);
 	if (!found.ok) return found;
 	const id = parseUuid(params.revisionId);
-	const revision = id ? await findRevision(locals.db, found.value.build.id, id) : undefined;
-	if (!revision) return notFound('revision');
-	return { ok: true, value: { ...found.value, revision } };
+	const value = id ? await find(found.value, id) : undefined;
+	if (!value) return notFound('revision');
+	return { ok: true, value: { ...found.value, ...value } };
 }
+
+/** requireVehicle, then the revision of the URL in that vehicle's build. */
+export const requireRevision = (locals: Locals, params: Params, min: Role) =>
+	requireVehicleRevision(locals, params, min, async ({ build }, id) => {
+		const revision: RevisionRow | undefined = await findRevision(locals.db, build.id, id);
+		return revision && { revision };
+	});
 
 /**
  * requireVehicle, then only the id of the URL's revision once it is known to be in that vehicle's
  * build: for answers cached by revision, whose document is read only on a miss.
  */
-export async function requireRevisionId(
-	locals: Locals,
-	params: Params,
-	min: Role,
-): Promise<Access<VehicleAccess & { revisionId: string }>> {
-	const found = await requireVehicle(locals, params, min);
-	if (!found.ok) return found;
-	const id = parseUuid(params.revisionId);
-	if (!id || !(await revisionBelongsTo(locals.db, found.value.vehicle.id, id)))
-		return notFound('revision');
-	return { ok: true, value: { ...found.value, revisionId: id } };
-}
+export const requireRevisionId = (locals: Locals, params: Params, min: Role) =>
+	requireVehicleRevision(locals, params, min, async ({ vehicle }, id) =>
+		(await revisionBelongsTo(locals.db, vehicle.id, id)) ? { revisionId: id } : undefined,
+	);
 
 type PlanRow = NonNullable<Awaited<ReturnType<typeof findPlan>>>;
 
