@@ -12,15 +12,6 @@ export function amplifierInputPowerW(
 	return (demand * amp.ratedPowerW * amp.quantity) / amp.efficiency;
 }
 
-/** Supply current at terminal voltage V for a constant-power draw: I = P_in / V (A). */
-export function amplifierCurrentA(
-	amp: Pick<Amplifier, 'ratedPowerW' | 'efficiency' | 'quantity'>,
-	demand: number,
-	voltageV: number,
-): number {
-	return amplifierInputPowerW(amp, demand) / voltageV;
-}
-
 /**
  * Output of an unregulated (fixed-ratio converter) amplifier at clipping: rails follow the supply,
  * so P(V) = P_rated · (V / V_rated)².
@@ -94,6 +85,24 @@ export function amplifierDrawCurrent(d: AmplifierDraw, v: number, lambda = 1): [
 	const pMax = lambda * d.maxPowerW;
 	if (g * v * v >= pMax) return [pMax / v, -pMax / (v * v)];
 	return [g * v, g];
+}
+
+/**
+ * Supply current (A) an amplifier draws at terminal voltage V when driven at demand d: the one
+ * amplifier law every view reads (the solver, the fixed-voltage table, the sweep, the session).
+ * Constant input power P = d·P_rated·n/η up to the rated voltage (I = P/V); above it an
+ * unregulated amplifier's draw grows as (V/V_rated)² (I = P·V/V_rated²) until its stated maximum
+ * output; a regulated one stays at constant power.
+ */
+export function amplifierCurrentA(
+	amp: Pick<
+		Amplifier,
+		'ratedPowerW' | 'ratedVoltageV' | 'efficiency' | 'quantity' | 'regulated' | 'maxOutputW'
+	>,
+	demand: number,
+	voltageV: number,
+): number {
+	return amplifierDrawCurrent(amplifierDraw(amp, demand), voltageV)[0];
 }
 
 /** ∫ I dv from 1 V: the amplifier's share of the network's co-content (for the line search). */

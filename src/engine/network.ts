@@ -7,6 +7,7 @@ import {
 import { alternatorLimitA } from './alternator';
 import { bankThevenin, chargeAcceptanceA } from './battery';
 import { cableResistanceOhm } from './conductors';
+import { EngineInputError } from './errors';
 import { DenseSystem } from './linear';
 import { type FactorResult, SparseLdl, type SymmetricSystem } from './sparse';
 import type { BuildDocument } from './types';
@@ -23,6 +24,12 @@ const LOCAL_STEP_V = 1e-3;
  * to change sign (a constant-power load's slope changes by 2·ΔV/V of itself).
  */
 const SETTLED_STEP_V = 1e-6;
+/**
+ * Smallest move the line search tries (V), in absolute terms: a source at its limit with a
+ * micro-ohm resistance has a linear region only microvolts wide, so a relative floor on the step
+ * fraction would give up on a Newton step of 1e11 V long before the line reaches it.
+ */
+const MIN_MOVE_V = 1e-13;
 
 export interface SolveConditions {
 	/** Engine speed (rpm); 0 = engine off. */
@@ -99,19 +106,19 @@ export function compileNetwork(
 	const nodeIds = doc.nodes.filter((n) => n !== chassis).map((n) => n.id);
 	const index = new Map(nodeIds.map((id, i) => [id, i]));
 	if (chassis) index.set(chassis.id, -1);
-	const at = (id: string) => {
+	const at = (id: string, path: string) => {
 		const i = index.get(id);
-		if (i === undefined) throw new Error(`unknown node ${id}`);
+		if (i === undefined) throw new EngineInputError([{ path, message: `No node named "${id}"` }]);
 		return i;
 	};
-	const banks = doc.banks.map((b) => {
+	const banks = doc.banks.map((b, k) => {
 		const soc = conditions.stateOfCharge?.[b.id] ?? b.stateOfCharge;
 		const th = bankThevenin(b, soc);
 		const acceptA = chargeAcceptanceA(b, soc);
 		return {
 			id: b.id,
-			p: at(b.positive),
-			n: at(b.negative),
+			p: at(b.positive, `banks.${k}.positive`),
+			n: at(b.negative, `banks.${k}.negative`),
 			...NO_SLOTS,
 			ocvV: th.ocvV,
 			resistanceOhm: th.resistanceOhm,
@@ -123,10 +130,10 @@ export function compileNetwork(
 			chargeAcceptanceA: acceptA,
 		};
 	});
-	const alternators = doc.alternators.map((a) => ({
+	const alternators = doc.alternators.map((a, k) => ({
 		id: a.id,
-		p: at(a.positive),
-		n: at(a.negative),
+		p: at(a.positive, `alternators.${k}.positive`),
+		n: at(a.negative, `alternators.${k}.negative`),
 		...NO_SLOTS,
 		setPointV: a.setPointV,
 		resistanceOhm: a.sourceResistanceOhm,
@@ -137,19 +144,30 @@ export function compileNetwork(
 		...banks.map((b) => b.ocvV),
 		...alternators.filter((a) => a.limitA > 0).map((a) => a.setPointV),
 	);
-	const cables = doc.cables.map((c) => {
+	const cables = doc.cables.map((c, k) => {
 		const r = cableResistanceOhm(c, conditions.conductorTempC);
-		return { id: c.id, p: at(c.from), n: at(c.to), g: 1 / r, resistanceOhm: r, ...NO_SLOTS };
+		return {
+			id: c.id,
+			p: at(c.from, `cables.${k}.from`),
+			n: at(c.to, `cables.${k}.to`),
+			g: 1 / r,
+			resistanceOhm: r,
+			...NO_SLOTS,
+		};
 	});
-	const amplifiers = doc.amplifiers.map((a) => {
+	const amplifiers = doc.amplifiers.map((a, k) => {
 		const draw = amplifierDraw(a, conditions.demand);
-		const terminals = { p: at(a.positive), n: at(a.negative), ...NO_SLOTS };
+		const terminals = {
+			p: at(a.positive, `amplifiers.${k}.positive`),
+			n: at(a.negative, `amplifiers.${k}.negative`),
+			...NO_SLOTS,
+		};
 		return { id: a.id, ...terminals, powerW: draw.powerW, draw };
 	});
-	const loads = doc.loads.map((l) => ({
+	const loads = doc.loads.map((l, k) => ({
 		id: l.id,
-		p: at(l.positive),
-		n: at(l.negative),
+		p: at(l.positive, `loads.${k}.positive`),
+		n: at(l.negative, `loads.${k}.negative`),
 		currentA: l.currentA,
 		...NO_SLOTS,
 	}));
@@ -202,7 +220,9 @@ const volt = (v: Float64Array, i: number) => (i < 0 ? 0 : v[i]!);
 export function bankCurrent(b: CompiledNetwork['banks'][number], v: number): [number, number] {
 	if (v <= b.ocvV) return [(b.ocvV - v) / b.resistanceOhm, -1 / b.resistanceOhm];
 	const i = (b.ocvV - v) / b.chargeResistanceOhm;
-	if (-i >= b.chargeAcceptanceA) return [-b.chargeAcceptanceA, 0];
+	// Each boundary belongs to the side with a slope: a Newton step that lands exactly on a knee
+	// (it does, when a limited step is halved onto a set point) must still see the source there.
+	if (-i > b.chargeAcceptanceA) return [-b.chargeAcceptanceA, 0];
 	return [i, -1 / b.chargeResistanceOhm];
 }
 
@@ -213,21 +233,21 @@ export function alternatorCurrent(
 ): [number, number] {
 	if (a.limitA <= 0) return [0, 0];
 	const i = (a.setPointV - v) / a.resistanceOhm;
-	if (i <= 0) return [0, 0];
-	if (i >= a.limitA) return [a.limitA, 0];
+	if (i < 0) return [0, 0];
+	if (i > a.limitA) return [a.limitA, 0];
 	return [i, -1 / a.resistanceOhm];
 }
 
 /** Operating mode codes for the mode signature (a change means the Jacobian's form changed). */
 function bankMode(b: CompiledNetwork['banks'][number], x: number): number {
 	if (x <= b.ocvV) return 0;
-	return -(b.ocvV - x) / b.chargeResistanceOhm >= b.chargeAcceptanceA ? 2 : 1;
+	return -(b.ocvV - x) / b.chargeResistanceOhm > b.chargeAcceptanceA ? 2 : 1;
 }
 
 function alternatorMode(a: CompiledNetwork['alternators'][number], x: number): number {
 	if (a.limitA <= 0) return 0;
 	const i = (a.setPointV - x) / a.resistanceOhm;
-	return i <= 0 ? 0 : i >= a.limitA ? 2 : 1;
+	return i < 0 ? 0 : i > a.limitA ? 2 : 1;
 }
 
 /**
@@ -383,7 +403,17 @@ function newton(net: CompiledNetwork, lambda: number, start: Float64Array): Newt
 		let slope = 0;
 		for (let i = 0; i < n; i++) slope += f[i]! * step[i]!;
 		if (!(slope < 0)) return { ok: false, v, iterations: iter, residualA: residual };
-		const stepSize = maxAbs(step);
+		// Voltage limiting (as SPICE limits junction steps): where every source is at a limit the
+		// Jacobian is only the background conductance and the raw step runs to ~1e11 V; a step longer
+		// than the network's own voltage scale carries no information beyond its direction.
+		let stepSize = maxAbs(step);
+		const maxStepV = Math.max(1, net.nominalV);
+		if (stepSize > maxStepV) {
+			const k = maxStepV / stepSize;
+			for (let i = 0; i < n; i++) step[i] = step[i]! * k;
+			slope *= k;
+			stepSize = maxStepV;
+		}
 		let t = 1;
 		// Close to the solution Newton converges quadratically; the co-content's differences are then
 		// below its rounding, so a line search would only stall. Far from it, search the line.
@@ -395,11 +425,12 @@ function newton(net: CompiledNetwork, lambda: number, start: Float64Array): Newt
 			};
 			// Backtrack to sufficient decrease, then keep halving while that still lowers the co-content.
 			let e = at(t);
-			while (!(e <= e0 + 1e-4 * t * slope) && t > 1e-14) {
+			while (!(e <= e0 + 1e-4 * t * slope) && t * stepSize > MIN_MOVE_V) {
 				t /= 2;
 				e = at(t);
 			}
-			if (t <= 1e-14) return { ok: false, v, iterations: iter, residualA: residual };
+			if (t * stepSize <= MIN_MOVE_V)
+				return { ok: false, v, iterations: iter, residualA: residual };
 			for (let k = 0; k < 60; k++) {
 				const eHalf = at(t / 2);
 				if (!(eHalf < e)) break;
@@ -491,7 +522,17 @@ export function solveCompiled(net: CompiledNetwork, start?: Float64Array): RawSo
 	}
 	const unloaded = newton(net, 0, new Float64Array(n).fill(net.nominalV * 0.5));
 	iterations += unloaded.iterations;
-	if (!unloaded.ok) throw new Error('the unloaded network did not solve; check its topology');
+	// With no amplifier drawing, the co-content is strictly convex (every element is monotone and
+	// the background conductance is positive), so a minimum exists and the damped, step-limited
+	// Newton finds it; were it ever not found, the caller hears why, not a bare exception.
+	if (!unloaded.ok)
+		throw new EngineInputError([
+			{
+				path: '',
+				message:
+					'The network did not settle even with every amplifier off: look for sources whose limits fight each other (set points, charge limits)',
+			},
+		]);
 	// The same network with every bank on its discharge resistance both ways has no soft charging
 	// side, so its stable point moves smoothly with demand; where banks end up discharging it is
 	// also the real network's solution, and a good start for it in any case.

@@ -1,3 +1,4 @@
+import { EngineInputError } from './errors';
 /** One logger sample: time (s), supply voltage (V), current (A). */
 export interface Sample {
 	tS: number;
@@ -24,7 +25,10 @@ export interface RunAnalysis {
 
 /** Analysis of a logged run (samples in time order). */
 export function analyseRun(samples: Sample[]): RunAnalysis {
-	if (samples.length === 0) throw new Error('no samples');
+	if (samples.length === 0)
+		throw new EngineInputError([
+			{ path: 'samples', message: 'A logger file needs at least one sample' },
+		]);
 	const n = samples.length;
 	let minV = Number.POSITIVE_INFINITY;
 	let sumV = 0;

@@ -1,4 +1,5 @@
 import { solveDense } from './linear';
+import { EngineInputError } from './errors';
 
 /** Largest network the dense fallback takes (its cost grows as n³). */
 const DENSE_FALLBACK_MAX = 400;
@@ -178,7 +179,10 @@ export class SparseLdl implements SymmetricSystem {
 		const b = this.inv[j]!;
 		if (a === b) return a;
 		const s = this.slots.get(a > b ? a * this.n + b : b * this.n + a);
-		if (s === undefined) throw new Error(`entry (${i}, ${j}) is outside the network's pattern`);
+		if (s === undefined)
+			throw new EngineInputError([
+				{ path: '', message: `Entry (${i}, ${j}) is outside the network's pattern` },
+			]);
 		return s;
 	}
 

@@ -23,16 +23,43 @@ const amp = {
 
 describe('unregulatedOutputW and supply current', () => {
 	it.each([
-		[12.0, 1388.9, 144.68],
-		[12.6, 1531.2, 151.91],
-		[13.8, 1836.8, 166.38],
-		[14.4, 2000.0, 173.61],
-		[16.0, 2469.1, 192.9],
-	])('at %f V gives %f W out and draws %f A', (v, outW, inA) => {
-		const out = unregulatedOutputW(2000, 14.4, v);
-		expect(out).toBeCloseTo(outW, 1);
-		// the output fraction is the demand level: d = P_out/P_rated
-		expect(amplifierCurrentA(amp, out / 2000, v)).toBeCloseTo(inA, 2);
+		[12.0, 1388.9],
+		[12.6, 1531.2],
+		[13.8, 1836.8],
+		[14.4, 2000.0],
+		[16.0, 2469.1],
+	])('at %f V gives %f W out', (v, outW) => {
+		expect(unregulatedOutputW(2000, 14.4, v)).toBeCloseTo(outW, 1);
+	});
+
+	// The engine's law, hand-computed: at and below the rating the input is constant power,
+	// P_in = 2000/0.8 = 2500 W, so I = 2500/V; above it an unregulated amplifier's input follows
+	// (V/V_rated)², I = 2500·V/14.4².
+	it.each([
+		[12.0, 208.33],
+		[12.6, 198.41],
+		[13.8, 181.16],
+		[14.4, 173.61],
+		[16.0, 192.9],
+	])('at full drive draws, unregulated, at %f V %f A', (v, a) => {
+		expect(amplifierCurrentA(amp, 1, v)).toBeCloseTo(a, 2);
+	});
+
+	// A 1000 W amplifier rated at 14.4 V, η = 0.75 (P_in = 1333.3 W): 83.3 A at constant power
+	// would understate the draw at 16.0 V; the (V/V_rated)² law gives 1333.3·16/14.4² = 102.9 A.
+	it('grows as (V/V_rated)² above the rating, the figure cables are sized from', () => {
+		const a1000 = { ...amp, ratedPowerW: 1000, efficiency: 0.75 };
+		expect(amplifierCurrentA(a1000, 1, 16)).toBeCloseTo(102.88, 2);
+	});
+
+	it('agrees with the solver law (amplifierDrawCurrent) at every voltage and demand', () => {
+		for (const d of [1 / 8, 0.5, 1])
+			for (const v of [9, 12, 14.4, 15, 16, 18]) {
+				const capped = { ...amp, maxOutputW: 2300 };
+				expect(amplifierCurrentA(capped, d, v)).toBe(
+					amplifierDrawCurrent(amplifierDraw(capped, d), v)[0],
+				);
+			}
 	});
 
 	it('draws 2500 W / V at every voltage when regulated (constant-power input)', () => {
@@ -43,7 +70,7 @@ describe('unregulatedOutputW and supply current', () => {
 			[14.4, 173.61],
 			[16.0, 156.25],
 		] as const) {
-			expect(amplifierCurrentA(amp, 1, v)).toBeCloseTo(a, 2);
+			expect(amplifierCurrentA({ ...amp, regulated: true }, 1, v)).toBeCloseTo(a, 2);
 		}
 	});
 
