@@ -372,7 +372,12 @@ function maxAbs(x: Float64Array): number {
  * converged point that is the stability test (no separate one unless the last step was large or
  * crossed into other operating modes).
  */
-function newton(net: CompiledNetwork, lambda: number, start: Float64Array): NewtonResult {
+function newton(
+	net: CompiledNetwork,
+	lambda: number,
+	start: Float64Array,
+	exactLine = false,
+): NewtonResult {
 	const n = net.nodeIds.length;
 	const { work, system } = net;
 	const { f, step, trial } = work;
@@ -436,6 +441,40 @@ function newton(net: CompiledNetwork, lambda: number, start: Float64Array): Newt
 				if (!(eHalf < e)) break;
 				t /= 2;
 				e = eHalf;
+			}
+			if (exactLine) {
+				// Where a source flips between its limit and off on successive steps (its linear region
+				// microvolts wide), halving alone overshoots the kink every time and the iteration
+				// ping-pongs. A golden-section search for the line's minimum (the co-content is convex
+				// along it for the unloaded network, and locally near a stable point) lands on the kink.
+				let lo = 0;
+				let hi = 1;
+				const g = (Math.sqrt(5) - 1) / 2;
+				let x1 = hi - g * (hi - lo);
+				let x2 = lo + g * (hi - lo);
+				let e1 = at(x1);
+				let e2 = at(x2);
+				while ((hi - lo) * stepSize > MIN_MOVE_V && hi - lo > 1e-12) {
+					if (e1 <= e2) {
+						hi = x2;
+						x2 = x1;
+						e2 = e1;
+						x1 = hi - g * (hi - lo);
+						e1 = at(x1);
+					} else {
+						lo = x1;
+						x1 = x2;
+						e1 = e2;
+						x2 = lo + g * (hi - lo);
+						e2 = at(x2);
+					}
+				}
+				const tg = e1 <= e2 ? x1 : x2;
+				const eg = Math.min(e1, e2);
+				if (eg < e) {
+					t = tg;
+					e = eg;
+				}
 			}
 		} else if (lambda > 0) {
 			for (let i = 0; i < n; i++) trial[i] = v[i]! + step[i]!;
@@ -509,9 +548,13 @@ function minAmplifierVoltage(net: CompiledNetwork, v: Float64Array): number {
 export function solveCompiled(net: CompiledNetwork, start?: Float64Array): RawSolution {
 	const n = net.nodeIds.length;
 	let iterations = 0;
-	const attempt = (lambda: number, from: Float64Array | null): NewtonResult | null => {
+	const attempt = (
+		lambda: number,
+		from: Float64Array | null,
+		exactLine = false,
+	): NewtonResult | null => {
 		if (!from) return null;
-		const r = newton(net, lambda, from);
+		const r = newton(net, lambda, from, exactLine);
 		iterations += r.iterations;
 		return r.ok ? r : null;
 	};
@@ -520,8 +563,13 @@ export function solveCompiled(net: CompiledNetwork, start?: Float64Array): RawSo
 		if (warm)
 			return { v: warm.v, lambda: 1, collapsed: false, iterations, residualA: warm.residualA };
 	}
-	const unloaded = newton(net, 0, new Float64Array(n).fill(net.nominalV * 0.5));
+	const first = new Float64Array(n).fill(net.nominalV * 0.5);
+	let unloaded = newton(net, 0, first);
 	iterations += unloaded.iterations;
+	if (!unloaded.ok) {
+		unloaded = newton(net, 0, first, true);
+		iterations += unloaded.iterations;
+	}
 	// With no amplifier drawing, the co-content is strictly convex (every element is monotone and
 	// the background conductance is positive), so a minimum exists and the damped, step-limited
 	// Newton finds it; were it ever not found, the caller hears why, not a bare exception.
@@ -554,7 +602,9 @@ export function solveCompiled(net: CompiledNetwork, start?: Float64Array): RawSo
 		if (a && b) return minAmplifierVoltage(net, b.v) > minAmplifierVoltage(net, a.v) + 1e-6 ? b : a;
 		return a ?? b;
 	};
-	const direct = best(1, unloaded.v);
+	// Before concluding the demand is too much, try once more with the exact line search (a
+	// source flipping between limit and off can stall the cheaper one short of a real solution).
+	const direct = best(1, unloaded.v) ?? attempt(1, unloaded.v, true);
 	if (direct)
 		return { v: direct.v, lambda: 1, collapsed: false, iterations, residualA: direct.residualA };
 
