@@ -62,7 +62,9 @@ const extremes = fc.record({
 	demand: edge(1 / 8, 1),
 });
 
-function extremeNetwork(x: fc.RecordValue<typeof extremes>): BuildDocument {
+type Extremes = typeof extremes extends fc.Arbitrary<infer T> ? T : never;
+
+function extremeNetwork(x: Extremes): BuildDocument {
 	const d = randomNetwork(x.seed);
 	return {
 		...d,

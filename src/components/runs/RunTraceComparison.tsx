@@ -21,6 +21,7 @@ import {
 	TRACE_SLOTS,
 } from './trace-comparison-data';
 import { useLocalFormat } from '@/lib/client/local-time';
+import { runVoltage } from '@/lib/run-figures';
 
 const traceOptions = voltsAndAmpsOptions(
 	'Time since the burp began (s)',
@@ -231,13 +232,22 @@ export function RunTraceComparison({
 											(f) =>
 												[
 													RUN_MEASUREMENTS[f].label,
-													(r: RunDto) =>
-														r[f] === null
-															? '—'
-															: `${fmt(r[f], RUN_MEASUREMENTS[f].decimals)} ${RUN_MEASUREMENTS[f].unit}`,
+													(r: RunDto) => {
+														// Voltages from the logger where there is one, the typed figure beside.
+														const v =
+															f === 'restingV' || f === 'minV'
+																? runVoltage(r, f)
+																: { value: r[f], fromLogger: false, typed: null };
+														if (v.value === null) return '—';
+														const { decimals, unit } = RUN_MEASUREMENTS[f];
+														const shown = `${fmt(v.value, decimals)} ${unit}`;
+														if (!v.fromLogger) return shown;
+														return v.typed === null
+															? `${shown} (logger)`
+															: `${shown} (logger; typed ${fmt(v.typed, decimals)})`;
+													},
 												] as const,
 										),
-										['Logger minimum', (r) => (r.logger ? `${fmt(r.logger.minV)} V` : '—')],
 									] as Array<readonly [string, (r: RunDto) => string]>
 								).map(([label, f]) => (
 									<tr key={label} className="border-t border-hairline">

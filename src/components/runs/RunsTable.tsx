@@ -1,6 +1,7 @@
 import type { RunDto } from '@/lib/client/queries/runs';
 import { fmt } from '@/lib/format';
 import { MEASUREMENT_FIELDS, RUN_MEASUREMENTS } from '@/lib/schemas/run-measurements';
+import { runVoltage } from '@/lib/run-figures';
 import { useLocalFormat } from '@/lib/client/local-time';
 
 /** The vehicle's runs, newest first: choose one to open it, and up to four to compare. */
@@ -79,12 +80,27 @@ export function RunsTable({
 										{r.eventName ?? <span className="text-ink-soft">practice</span>}
 									</td>
 									<td className="px-3 py-1.5">{r.revisionNumber ? `r${r.revisionNumber}` : '—'}</td>
-									{MEASUREMENT_FIELDS.map((f) => (
-										<td key={f} className="px-3 py-1.5 text-right">
-											{fmt(r[f], RUN_MEASUREMENTS[f].decimals)}{' '}
-											<span className="text-xs text-ink-soft">{RUN_MEASUREMENTS[f].unit}</span>
-										</td>
-									))}
+									{MEASUREMENT_FIELDS.map((f) => {
+										// Voltages from the logger file where the run has one, the typed figure beside.
+										const v =
+											f === 'restingV' || f === 'minV'
+												? runVoltage(r, f)
+												: { value: r[f], fromLogger: false, typed: null };
+										return (
+											<td key={f} className="px-3 py-1.5 text-right">
+												{fmt(v.value, RUN_MEASUREMENTS[f].decimals)}{' '}
+												<span className="text-xs text-ink-soft">{RUN_MEASUREMENTS[f].unit}</span>
+												{v.typed !== null && (
+													<span
+														className="block text-xs text-ink-soft"
+														title="Typed on the run form"
+													>
+														typed {fmt(v.typed, RUN_MEASUREMENTS[f].decimals)}
+													</span>
+												)}
+											</td>
+										);
+									})}
 									<td className="px-3 py-1.5 font-sans">{r.hasLogger ? '✓ file' : '—'}</td>
 									<td className="px-3 py-1.5 font-sans" onClick={(e) => e.stopPropagation()}>
 										<label className="flex items-center gap-1 text-xs">

@@ -9,6 +9,7 @@ import {
 	vehicleRunsQueryOptions,
 } from '@/lib/client/queries/runs';
 import { fmt } from '@/lib/format';
+import { runVoltage } from '@/lib/run-figures';
 import type { RevisionSummary } from '@/lib/schemas/vehicles';
 import { LogRunForm } from './LogRunForm';
 import { OutboxList } from './OutboxList';
@@ -70,7 +71,7 @@ export function VehicleRunsView({
 	const reference =
 		list.find((r) => r.id === referenceId) ??
 		[...list]
-			.filter((r) => r.scoreDb !== null && r.minV !== null)
+			.filter((r) => r.scoreDb !== null && runVoltage(r, 'minV').value !== null)
 			.sort((a, b) => b.scoreDb! - a.scoreDb!)[0] ??
 		null;
 
@@ -128,10 +129,11 @@ export function VehicleRunsView({
 									className="rounded border border-hairline px-2 py-1"
 								>
 									{list
-										.filter((r) => r.scoreDb !== null && r.minV !== null)
+										.filter((r) => r.scoreDb !== null && runVoltage(r, 'minV').value !== null)
 										.map((r) => (
 											<option key={r.id} value={r.id}>
-												{fmtTime(r.ranAt, 'd MMM yyyy')} · {fmt(r.scoreDb, 1)} dB at {fmt(r.minV)} V
+												{fmtTime(r.ranAt, 'd MMM yyyy')} · {fmt(r.scoreDb, 1)} dB at{' '}
+												{fmt(runVoltage(r, 'minV').value)} V
 											</option>
 										))}
 								</select>

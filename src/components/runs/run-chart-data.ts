@@ -1,6 +1,7 @@
 import type { Sample } from '@/engine';
 import { voltageRatioDb } from '@/engine';
 import type { RunDto } from '@/lib/schemas/runs';
+import { runVoltage } from '@/lib/run-figures';
 import { CHART_COLOURS } from '@/components/builds/chart-data';
 
 /** Volts and amps over time, thinned to at most ~400 points. */
@@ -68,27 +69,32 @@ export function toScoresOverTime(runs: RunDto[]) {
  * reference run: score_ref + 20·log10(V / V_ref) (an unregulated amplifier, P ∝ V²).
  */
 export function toScoreVsVoltage(runs: RunDto[], reference: RunDto | null) {
-	const pts = runs.filter((r) => r.scoreDb !== null && r.minV !== null);
+	const minOf = (r: RunDto) => runVoltage(r, 'minV').value;
+	const pts = runs.flatMap((r) => {
+		const v = minOf(r);
+		return r.scoreDb !== null && v !== null ? [{ x: v, y: r.scoreDb }] : [];
+	});
 	const datasets: Array<Record<string, unknown>> = [
 		{
 			label: 'Runs (score at the measured minimum voltage)',
-			data: pts.map((r) => ({ x: r.minV!, y: r.scoreDb! })),
+			data: pts,
 			borderColor: CHART_COLOURS.copper,
 			backgroundColor: CHART_COLOURS.copper,
 			pointRadius: 5,
 			showLine: false,
 		},
 	];
-	if (reference && reference.scoreDb !== null && reference.minV !== null) {
-		const xs = pts.map((r) => r.minV!);
-		const lo = Math.min(...xs, reference.minV) - 0.3;
-		const hi = Math.max(...xs, reference.minV) + 0.3;
+	const refV = reference ? minOf(reference) : null;
+	if (reference && reference.scoreDb !== null && refV !== null) {
+		const xs = pts.map((p) => p.x);
+		const lo = Math.min(...xs, refV) - 0.3;
+		const hi = Math.max(...xs, refV) + 0.3;
 		const line = Array.from({ length: 21 }, (_, i) => lo + ((hi - lo) * i) / 20).map((v) => ({
 			x: v,
-			y: reference.scoreDb! + voltageRatioDb(v, reference.minV!),
+			y: reference.scoreDb! + voltageRatioDb(v, refV),
 		}));
 		datasets.push({
-			label: `Expected from the reference run (+20·log10 V/${reference.minV.toFixed(2)} V)`,
+			label: `Expected from the reference run (+20·log10 V/${refV.toFixed(2)} V)`,
 			data: line,
 			borderColor: CHART_COLOURS.teal,
 			backgroundColor: CHART_COLOURS.teal,

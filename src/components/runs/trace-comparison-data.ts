@@ -2,6 +2,7 @@ import { voltageRatioDb, type Sample } from '@/engine';
 import { CHART_COLOURS } from '@/components/builds/chart-data';
 import { alignTrace } from '@/lib/trace-align';
 import type { RunDto } from '@/lib/schemas/runs';
+import { runVoltage } from '@/lib/run-figures';
 
 /** The letters runs are called by in the comparison, and what tells their lines apart. */
 export const TRACE_SLOTS = [
@@ -69,13 +70,17 @@ export interface DbAgainstVolts {
 
 export function dbAgainstVolts(runs: RunDto[]): DbAgainstVolts[] {
 	const a = runs[0];
-	if (!a || a.scoreDb === null || a.minV === null) return [];
+	// The logger's minimum where a run has a file (the typed one only where it has none).
+	const minOf = (r: RunDto) => runVoltage(r, 'minV').value;
+	const aMin = a ? minOf(a) : null;
+	if (!a || a.scoreDb === null || aMin === null) return [];
 	const out: DbAgainstVolts[] = [];
 	runs.forEach((r, i) => {
-		if (i === 0 || r.scoreDb === null || r.minV === null) return;
+		const rMin = minOf(r);
+		if (i === 0 || r.scoreDb === null || rMin === null) return;
 		out.push({
 			letter: TRACE_SLOTS[i]!.letter,
-			expectedDb: voltageRatioDb(r.minV, a.minV!),
+			expectedDb: voltageRatioDb(rMin, aMin),
 			measuredDb: r.scoreDb - a.scoreDb!,
 		});
 	});

@@ -6,6 +6,7 @@ import { findRevisionDocuments } from '@/lib/server/db/builds';
 import { findRecentActivity, type ActivityEntry } from '@/lib/server/db/activity';
 import { findEvents } from '@/lib/server/db/events';
 import { findRuns } from '@/lib/server/db/runs';
+import { runVoltage } from '@/lib/run-figures';
 import { findTeamSettingsRow } from '@/lib/server/db/teams';
 import { findVehiclesWithHead } from '@/lib/server/db/vehicles';
 import { cachedRevisionFigures, revisionFigures } from '@/lib/server/engine/summaries';
@@ -107,7 +108,11 @@ export async function loadSeason(
 							}
 						: null,
 				lastRun: last
-					? { ranAt: new Date(last.ranAt), scoreDb: last.scoreDb, minV: last.minV }
+					? {
+							ranAt: new Date(last.ranAt),
+							scoreDb: last.scoreDb,
+							minV: runVoltage(last, 'minV').value,
+						}
 					: null,
 				nextChecks: list ?? null,
 			};

@@ -5,6 +5,7 @@ import { RUN_MEASUREMENTS, MEASUREMENT_FIELDS } from '@/lib/schemas/run-measurem
 import { readQuery } from '@/lib/server/http';
 import { requireTeamRole } from '@/lib/server/access';
 import { findRuns } from '@/lib/server/db/runs';
+import { runVoltage } from '@/lib/run-figures';
 
 /** The team's runs (or one vehicle's) as CSV. */
 export const GET: APIRoute = async ({ params, locals, url }) => {
@@ -19,9 +20,16 @@ export const GET: APIRoute = async ({ params, locals, url }) => {
 			vehicle: r.vehicleName,
 			event: r.eventName ?? '',
 			revision: r.revisionNumber ?? '',
+			// Voltages from the logger file where the run has one; what was typed in its own column.
 			...Object.fromEntries(
-				MEASUREMENT_FIELDS.map((f) => [RUN_MEASUREMENTS[f].column, r[f] ?? '']),
+				MEASUREMENT_FIELDS.map((f) => [
+					RUN_MEASUREMENTS[f].column,
+					(f === 'restingV' || f === 'minV' ? runVoltage(r, f).value : r[f]) ?? '',
+				]),
 			),
+			resting_v_typed: r.restingV ?? '',
+			min_v_typed: r.minV ?? '',
+			voltages_from: r.logger ? 'logger' : 'typed',
 			notes: r.notes,
 		})),
 		{
@@ -31,6 +39,9 @@ export const GET: APIRoute = async ({ params, locals, url }) => {
 				'event',
 				'revision',
 				...MEASUREMENT_FIELDS.map((f) => RUN_MEASUREMENTS[f].column),
+				'resting_v_typed',
+				'min_v_typed',
+				'voltages_from',
 				'notes',
 			],
 			escapeFormulae: true,
