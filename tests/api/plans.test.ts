@@ -300,6 +300,39 @@ describe('upgrade plans', () => {
 		expect((await findHeadRevision(t.db, buildId))!.id).toBe(now.id);
 	});
 
+	it('refuses an install whose merge breaks a schema limit, naming the rule, and writes nothing', async () => {
+		// Two plans from the same revision each add four alternators beside the one the build has:
+		// each alone gives 5 (the schema allows 8); merged one after the other they would give 9.
+		const withAlternators = (prefix: string) => (d: BuildDocument) => ({
+			...d,
+			alternators: [
+				...d.alternators,
+				...[1, 2, 3, 4].map((k) => ({
+					...d.alternators[0]!,
+					id: `${prefix}${k}`,
+					label: `${prefix}${k}`,
+				})),
+			],
+		});
+		const first = await newPlan('Four more', withAlternators('x'), []);
+		const second = await newPlan('Four others', withAlternators('y'), []);
+		const head = (await findHeadRevision(t.db, buildId))!;
+		const one = await call(install, 'POST', { planId: first.id }, { parentId: head.id });
+		expect(one.status).toBe(201);
+		const now = await one.json();
+		expect(now.document.alternators).toHaveLength(5);
+		const two = await call(install, 'POST', { planId: second.id }, { parentId: now.id });
+		expect(two.status).toBe(422);
+		const body = await two.json();
+		expect(body.code).toBe('invalid_merge');
+		expect(body.detail).toMatch(/At most 8 alternators/);
+		expect(body.errors).toContainEqual({
+			path: 'document.alternators',
+			message: 'At most 8 alternators',
+		});
+		expect((await findHeadRevision(t.db, buildId))!.id).toBe(now.id);
+	});
+
 	it('refuses a nameless plan and a starting revision of another vehicle, naming the field', async () => {
 		const before = (await (await call(plans, 'GET')).json()).length;
 		const nameless = await call(plans, 'POST', {}, { name: '   ' });

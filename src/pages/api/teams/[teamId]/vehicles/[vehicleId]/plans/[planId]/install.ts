@@ -1,5 +1,5 @@
 import type { APIRoute } from 'astro';
-import { checkTopology, mergePlan } from '@/engine';
+import { documentProblems, mergePlan } from '@/engine';
 import type { RevisionDto } from '@/lib/schemas/vehicles';
 import { findHeadRevision, findRevision } from '@/lib/server/db/builds';
 import { installPlan } from '@/lib/server/db/plans';
@@ -39,12 +39,14 @@ export const POST: APIRoute = async ({ params, request, locals }) => {
 		}
 		if (merged) document = merged.document;
 	}
-	const issues = checkTopology(document);
+	// The whole schema, not the topology alone: merging plans started from one old revision can
+	// add their parts together past a limit (a cable count, say) that no single save could.
+	const issues = documentProblems(document);
 	if (issues.length)
 		return problem(
-			400,
-			'invalid_input',
-			'The result cannot be solved as drawn; fix the plan in its editor first',
+			422,
+			'invalid_merge',
+			`Installing this plan would make a build Sagwise cannot accept: ${issues[0]!.message}${issues.length > 1 ? ` (and ${issues.length - 1} more)` : ''}. Nothing was saved; fix the plan in its editor first.`,
 			issues.map((i) => ({ path: `document.${i.path}`, message: i.message })),
 		);
 	const message = body.data.message || `Installed plan “${plan.name}”`;
