@@ -19,6 +19,7 @@ import { starterDocument } from './new-parts';
 import { loadDraftCheck, useDraftCheck } from '@/lib/client/use-draft-check';
 import { Workbench } from './Workbench';
 import { RelativeTime } from '@/components/ui/RelativeTime';
+import { sameJson } from '@/lib/same-json';
 
 export interface BuildWorkspaceProps {
 	teamId: string;
@@ -76,7 +77,7 @@ export function BuildWorkspaceView({
 	useEffect(() => {
 		if (!canEdit) return;
 		const stored = buildDrafts.load(vehicleId);
-		if (stored && JSON.stringify(stored.document) !== JSON.stringify(baseDoc)) {
+		if (stored && !sameJson(stored.document, baseDoc)) {
 			setDraft(stored.document);
 			setMessage(stored.message);
 			setBaseId(stored.baseRevisionId);
@@ -89,6 +90,7 @@ export function BuildWorkspaceView({
 		// eslint-disable-next-line react-hooks/exhaustive-deps -- once, on mount: what changes later is the member's own editing
 	}, []);
 
+	// Per keystroke: plain JSON (the draft is made from the base by spreads, so key order holds).
 	const dirty = JSON.stringify(draft) !== JSON.stringify(baseDoc) || baseId !== (head?.id ?? null);
 	useEffect(() => {
 		if (!canEdit || !dirty) return;

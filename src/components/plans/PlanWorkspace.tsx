@@ -23,6 +23,7 @@ import { planPartSchema } from '@/lib/schemas/plans';
 import { Button, FormMessage } from '@/components/ui/Field';
 import { Workbench } from '@/components/builds/Workbench';
 import { validateDraft } from '@/lib/client/draft-check';
+import { sameJson } from '@/lib/same-json';
 
 export interface PlanWorkspaceProps {
 	teamId: string;
@@ -112,7 +113,7 @@ function PlanWorkspaceView({
 		document: plan.document,
 		parts: plan.parts.map(toDraft),
 	};
-	const dirty = JSON.stringify({ name, notes, document: draft, parts }) !== JSON.stringify(saved);
+	const dirty = !sameJson({ name, notes, document: draft, parts }, saved);
 	const changes = useMemo(
 		() => (baseDocument ? diffBuilds(baseDocument, draft) : []),
 		[baseDocument, draft],
@@ -135,12 +136,15 @@ function PlanWorkspaceView({
 		const stored = planDrafts.load(plan.id);
 		if (!stored) return;
 		if (
-			JSON.stringify({
-				name: stored.name,
-				notes: stored.notes,
-				document: stored.document,
-				parts: stored.parts,
-			}) === JSON.stringify(saved)
+			sameJson(
+				{
+					name: stored.name,
+					notes: stored.notes,
+					document: stored.document,
+					parts: stored.parts,
+				},
+				saved,
+			)
 		)
 			return planDrafts.clear(plan.id);
 		setName(stored.name);
@@ -182,6 +186,10 @@ function PlanWorkspaceView({
 			setRestored(null);
 			setBaseVersion(next.version);
 			setPlan(next);
+			// What the server kept is now the draft too, so nothing reads as unsaved after saving.
+			setName(next.name);
+			setNotes(next.notes);
+			setDraft(next.document);
 			setParts(next.parts.map(toDraft));
 			setState({ busy: null, error: null, ok: 'Plan saved.', serverErrors: {} });
 			return true;
