@@ -7,6 +7,11 @@ export interface ComputedCheck {
 	status: 'pass' | 'fail';
 	/** Why it failed, naming the parts concerned. */
 	reasons: string[];
+	/**
+	 * The item's figure where it has one, larger being worse (the worst drop under burp, V): what a
+	 * waiver is measured against. Null for items judged by their findings alone.
+	 */
+	measure: { value: number; text: string } | null;
 }
 
 const CHECKS: Array<{
@@ -83,9 +88,16 @@ export function computedChecks(report: BuildReport, units: UnitSystem = 'metric'
 				label: 'The build is a network the engine can solve',
 				status: 'fail',
 				reasons: report.issues.map((i) => i.message),
+				measure: null,
 			},
 		];
 	}
+	// The worst drop under burp: an amplifier's from its feeding sources, or one cable's.
+	const worstDropV = Math.max(
+		0,
+		...report.amplifiers.map((a) => a.burpDropV),
+		...report.cables.map((c) => Math.abs(c.burp.dropV)),
+	);
 	return CHECKS.map((c) => {
 		const reasons = report.warnings.filter((w) => c.codes.includes(w.code)).map((w) => w.message);
 		return {
@@ -93,6 +105,25 @@ export function computedChecks(report: BuildReport, units: UnitSystem = 'metric'
 			label: c.label(report, units),
 			status: reasons.length ? 'fail' : 'pass',
 			reasons,
+			measure: c.key === 'drops' ? { value: worstDropV, text: `${worstDropV.toFixed(2)} V` } : null,
 		};
 	});
+}
+
+/**
+ * Whether a waiver given on one revision still covers the item as it reads now: on the same
+ * revision always; on a later one only if the item got no worse — its figure no higher (to the
+ * hundredth it is shown to), or, for an item without a figure, no finding it did not name.
+ */
+export function waiverStillHolds(
+	waiver: { revisionId: string | null; value: number | null; reasons: string[] | null },
+	now: { revisionId: string | null; check: Pick<ComputedCheck, 'measure' | 'reasons'> },
+): boolean {
+	if (waiver.revisionId === null) return true; // given before waivers were scoped: kept as given
+	if (waiver.revisionId === now.revisionId) return true;
+	if (now.check.measure && waiver.value !== null)
+		return now.check.measure.value <= waiver.value + 0.005;
+	if (waiver.reasons === null) return false;
+	const accepted = new Set(waiver.reasons);
+	return now.check.reasons.every((r) => accepted.has(r));
 }

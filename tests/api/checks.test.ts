@@ -188,14 +188,73 @@ describe('pre-event checks', () => {
 			outstanding: false,
 			signoff: { waived: true, by: 'Lead', note: 'Fuse block moved next week; inspector agreed' },
 		});
-		// Withdrawing only reopens the item, so a member may do it; the sheet is open again.
-		const withdrawn = await call(
+		// A waiver is the captain's: a member cannot withdraw it; the captain can.
+		const byMemberWithdraw = await call(
 			checks,
 			'POST',
 			{ eventId },
 			{ vehicleId, itemKey: 'battery_fusing', signed: false },
 		);
+		expect(byMemberWithdraw.status).toBe(403);
+		expect(fusing(await sheet()).signoff).toMatchObject({ waived: true });
+		const withdrawn = await call(
+			checks,
+			'POST',
+			{ eventId },
+			{ vehicleId, itemKey: 'battery_fusing', signed: false },
+			'',
+			captain,
+		);
 		expect(fusing(await withdrawn.json())).toMatchObject({ outstanding: true, signoff: null });
+	});
+
+	it('re-opens a waiver when a later revision makes the item worse, saying what it accepted', async () => {
+		const drops = (l: { items: Item[] }) =>
+			l.items.find((i) => i.key === 'drops') as Item & {
+				measure: { value: number; text: string } | null;
+				signoff: { reopened: string | null; revisionNumber: number | null } | null;
+			};
+		// Twice the length of the front-to-rear run: by Ohm's law its drop doubles, past the
+		// 0.5 V target (common practice, no published source).
+		const longer = (k: number) => {
+			const d = structuredClone(pebbleBuild);
+			const run = d.cables.find((c) => c.id === 'run')!;
+			run.lengthM *= k;
+			return d;
+		};
+		const save = async (document: typeof pebbleBuild, message: string) => {
+			const before = await sheet();
+			await appendRevision(t.db, {
+				buildId,
+				parentId: before.revision!.id,
+				document,
+				message,
+				authorId: member.id,
+			});
+			return sheet(captain);
+		};
+		const first = drops(await save(longer(2), 'Longer run'));
+		expect(first.status).toBe('fail');
+		const givenOn = (await sheet()).revision!.number;
+		const waived = drops(
+			await (
+				await sign({ itemKey: 'drops', note: 'Rear run rerouted after this event' }, captain)
+			).json(),
+		);
+		expect(waived).toMatchObject({
+			outstanding: false,
+			signoff: { waived: true, revisionNumber: givenOn, reopened: null },
+		});
+		// The same figure on a later revision (only the message differs): still waived.
+		const same = drops(await save(longer(2), 'Same wiring, notes tidied'));
+		expect(same).toMatchObject({ outstanding: false, signoff: { reopened: null } });
+		// A longer run still: the worst drop grows, and the waiver no longer covers it.
+		const worse = drops(await save(longer(3), 'Run rerouted the long way'));
+		expect(worse.measure!.value).toBeGreaterThan(first.measure!.value);
+		expect(worse.outstanding).toBe(true);
+		expect(worse.signoff!.reopened).toBe(
+			`Waived on r${givenOn} at ${first.measure!.value.toFixed(2)} V; now ${worse.measure!.text}`,
+		);
 	});
 
 	it('does not let an old sign-off of a passing item clear it once the build makes it fail', async () => {

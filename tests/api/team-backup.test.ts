@@ -191,8 +191,9 @@ async function snapshot(db: Kysely<Database>, storage: Storage, teamId: string) 
 		signoffs: sorted(
 			(
 				await db.selectFrom('check_signoff').selectAll().where('vehicle_id', 'in', vIds).execute()
-			).map(({ event_id, vehicle_id, item_key, signed_by, imported_by, ...s }) => ({
+			).map(({ event_id, vehicle_id, item_key, signed_by, imported_by, revision_id, ...s }) => ({
 				...s,
+				revision: rev(revision_id),
 				event: eName.get(event_id),
 				vehicle: vName.get(vehicle_id),
 				item: itemName.get(item_key) ?? item_key,
@@ -322,6 +323,24 @@ describe('team backup', () => {
 					item_key: `manual:${item.id}`,
 					signed_by: viewer.id,
 				},
+				{
+					// A waiver scoped to the revision it was given on, with what it accepted.
+					event_id: event.id,
+					vehicle_id: oak.id,
+					item_key: 'drops',
+					signed_by: captain.id,
+					note: 'Accepted for this event only',
+					waived: true,
+					revision_id: (
+						await t.db
+							.selectFrom('build')
+							.select('head_revision_id')
+							.where('id', '=', oak.build_id)
+							.executeTakeFirstOrThrow()
+					).head_revision_id,
+					waived_value: 0.61,
+					waived_reasons: JSON.stringify(['"Rear feed" drops 0.61 V under burp']),
+				},
 			])
 			.execute();
 		await t.db
@@ -391,7 +410,7 @@ describe('team backup', () => {
 		expect(before.revisions.length).toBe(10);
 		expect(before.files.length).toBeGreaterThanOrEqual(6);
 		expect(before.files.join()).toContain('"kind":"thumbnail"');
-		expect(before.signoffs.length).toBe(2);
+		expect(before.signoffs.length).toBe(3);
 		expect(before.parts.length).toBe(10);
 	});
 

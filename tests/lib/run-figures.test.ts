@@ -4,26 +4,27 @@ import { dbAgainstVolts } from '../../src/components/runs/trace-comparison-data'
 import { toScoreVsVoltage } from '../../src/components/runs/run-chart-data';
 import type { RunDto } from '../../src/lib/schemas/runs';
 
-const run = (over: Partial<RunDto>): RunDto => ({
-	id: crypto.randomUUID(),
-	vehicleId: crypto.randomUUID(),
-	vehicleName: 'Test',
-	eventId: null,
-	eventName: null,
-	revisionId: null,
-	revisionNumber: null,
-	ranAt: '2026-06-01T10:00:00.000Z',
-	ranAtOffsetMin: 0,
-	scoreDb: null,
-	frequencyHz: null,
-	restingV: null,
-	minV: null,
-	notes: '',
-	hasLogger: false,
-	logger: null,
-	mismatches: [],
-	...over,
-});
+const run = (over: Partial<RunDto>): RunDto =>
+	({
+		id: crypto.randomUUID(),
+		vehicleId: crypto.randomUUID(),
+		vehicleName: 'Test',
+		eventId: null,
+		eventName: null,
+		revisionId: null,
+		revisionNumber: null,
+		ranAt: '2026-06-01T10:00:00.000Z',
+		ranAtOffsetMin: 0,
+		scoreDb: null,
+		frequencyHz: null,
+		restingV: null,
+		minV: null,
+		notes: '',
+		hasLogger: false,
+		logger: null,
+		mismatches: [],
+		...over,
+	}) as RunDto;
 
 describe('a run’s voltages come from its logger file where it has one', () => {
 	it('shows the logger’s figure and keeps the typed one beside when they differ', () => {

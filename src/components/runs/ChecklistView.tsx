@@ -28,11 +28,16 @@ const ICON = {
 	pass: { mark: '✓', word: 'passes', cls: 'text-teal' },
 	fail: { mark: '✕', word: 'fails', cls: 'text-brick' },
 	open: { mark: '○', word: 'to check', cls: 'text-ink-soft' },
+	signed: { mark: '✓', word: 'signed off', cls: 'text-teal' },
 	waived: { mark: '!', word: 'fails, waived', cls: 'text-amber-text' },
+	reopened: { mark: '✕', word: 'fails, worse than waived', cls: 'text-brick' },
 } as const;
 
 function iconOf(item: ChecklistItem) {
-	return item.status === 'fail' && item.signoff?.waived ? ICON.waived : ICON[item.status];
+	if (item.status === 'fail' && item.signoff?.waived)
+		return item.signoff.reopened ? ICON.reopened : ICON.waived;
+	if (item.kind === 'manual' && item.signoff) return ICON.signed;
+	return ICON[item.status];
 }
 
 /**
@@ -120,7 +125,9 @@ export const ChecklistView = withQueryClient(function ChecklistView({
 	}
 
 	const outstanding = list.items.filter((i) => i.outstanding).length;
-	const waived = list.items.filter((i) => i.status === 'fail' && i.signoff?.waived).length;
+	const waived = list.items.filter(
+		(i) => i.status === 'fail' && i.signoff?.waived && !i.signoff.reopened,
+	).length;
 	const rev = list.revision;
 	return (
 		<div className="flex flex-col gap-4">
@@ -187,10 +194,18 @@ export const ChecklistView = withQueryClient(function ChecklistView({
 								)}
 								{item.signoff &&
 									(item.signoff.waived ? (
-										<p className="mt-1 text-sm text-amber-text" data-waiver>
-											Waived by {item.signoff.by ?? 'someone'}, {when(item.signoff.at)}. Reason:{' '}
-											{item.signoff.note}
-										</p>
+										<>
+											<p className="mt-1 text-sm text-amber-text" data-waiver>
+												Waived by {item.signoff.by ?? 'someone'}, {when(item.signoff.at)}
+												{item.signoff.revisionNumber ? ` on r${item.signoff.revisionNumber}` : ''}.
+												Reason: {item.signoff.note}
+											</p>
+											{item.signoff.reopened && (
+												<p className="mt-1 text-sm font-semibold text-brick" data-reopened>
+													✕ {item.signoff.reopened}: open again until fixed or waived anew.
+												</p>
+											)}
+										</>
 									) : (
 										<p
 											className={`mt-1 text-sm ${item.outstanding ? 'text-ink-soft' : 'text-teal'}`}
@@ -239,7 +254,8 @@ export const ChecklistView = withQueryClient(function ChecklistView({
 							</div>
 							{canSign && waiving !== item.key && !pendingFor(item.key) && (
 								<div className="print:hidden">
-									{item.signoff && (!needsWaiver || item.signoff.waived) ? (
+									{item.signoff &&
+									(!needsWaiver || (item.signoff.waived && !item.signoff.reopened)) ? (
 										(!item.signoff.waived || canWaive) && (
 											<Button
 												type="button"

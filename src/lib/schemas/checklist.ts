@@ -7,6 +7,13 @@ export const checklistSignoffSchema = z.object({
 	note: z.string(),
 	/** A failing computed item accepted by a captain with a reason: never shown as passed. */
 	waived: z.boolean(),
+	/** The revision the sign-off or waiver was given on (null: from before it was kept). */
+	revisionNumber: z.number().int().nullable().default(null),
+	/**
+	 * A waiver a later revision made worse: what it accepted and what the item reads now ("Waived on
+	 * r3 at 0.60 V; now 2.74 V"). The item is outstanding again. Null while the waiver holds.
+	 */
+	reopened: z.string().nullable().default(null),
 });
 
 export const checklistItemSchema = z.object({
@@ -16,6 +23,8 @@ export const checklistItemSchema = z.object({
 	/** Computed result; manual items are 'open' until signed off. */
 	status: z.enum(['pass', 'fail', 'open']),
 	reasons: z.array(z.string()),
+	/** The item's figure where it has one (the worst drop, V), larger being worse. */
+	measure: z.object({ value: z.number(), text: z.string() }).nullable().default(null),
 	signoff: checklistSignoffSchema.nullable(),
 	/** Whether the item still stands in the way: failing and not waived, or manual and unsigned. */
 	outstanding: z.boolean(),

@@ -128,6 +128,11 @@ export const teamBackupContentSchema = z.object({
 			note: z.string().max(500),
 			/** A failing computed item accepted with a reason (the note); older files have none. */
 			waived: z.boolean().default(false),
+			/** The revision (its number) the sign-off was given on; older files have none. */
+			revision: z.number().int().positive().nullable().default(null),
+			/** What a waiver accepted: the item's figure and its findings then; older files have none. */
+			waivedValue: z.number().nullable().default(null),
+			waivedReasons: z.array(z.string().max(2000)).max(500).nullable().default(null),
 		}),
 	),
 });

@@ -15,7 +15,7 @@ import {
 import { findEvent } from '@/lib/server/db/events';
 import { findTeamSettingsRow } from '@/lib/server/db/teams';
 import { cachedRevisionFigures, revisionFigures } from '@/lib/server/engine/summaries';
-import type { ComputedCheck } from '@/engine';
+import { type ComputedCheck, waiverStillHolds } from '@/engine';
 import type { CheckItemDto } from '@/lib/schemas/teams';
 
 /**
@@ -70,7 +70,7 @@ export async function loadChecklist(
 			: null,
 		fuseDistanceM,
 		units,
-		items: checklistItems(computed, manual, signoffs),
+		items: checklistItems(computed, manual, signoffs, revision?.id ?? null),
 	};
 }
 
@@ -90,16 +90,24 @@ function checklistItems(
 	computed: ComputedCheck[] | null,
 	manual: CheckItemDto[],
 	signoffs: SignoffRow[],
+	revisionId: string | null,
 ): Checklist['items'] {
 	const signoffOf = (key: string) => {
 		const s = signoffs.find((x) => x.item_key === key);
 		return s
 			? {
-					by:
-						s.name ?? s.email ?? (s.imported_by ? `imported: ${s.imported_by}` : 'a former member'),
-					at: s.signed_at.toISOString(),
-					note: s.note,
-					waived: s.waived,
+					row: s,
+					dto: {
+						by:
+							s.name ??
+							s.email ??
+							(s.imported_by ? `imported: ${s.imported_by}` : 'a former member'),
+						at: s.signed_at.toISOString(),
+						note: s.note,
+						waived: s.waived,
+						revisionNumber: s.revision_number ?? null,
+						reopened: null as string | null,
+					},
 				}
 			: null;
 	};
@@ -111,17 +119,39 @@ function checklistItems(
 					label: 'The vehicle has a saved build',
 					status: 'fail' as const,
 					reasons: ['No revision of the build existed by the event.'],
+					measure: null,
 				},
 			]
 		).map((c) => {
-			const signoff = signoffOf(c.key);
-			// A failing item stands until a captain waives it; an older sign-off of it (given
-			// while it passed, or before the build changed) does not clear it.
+			const found = signoffOf(c.key);
+			const signoff = found?.dto ?? null;
+			// A failing item stands until a captain waives it; an older sign-off of it (given while it
+			// passed, or before the build changed) does not clear it. A waiver covers the revision it
+			// was given on, and later ones only while they make the item no worse.
+			let waived = !!signoff?.waived;
+			if (found && signoff?.waived && c.status === 'fail') {
+				const holds = waiverStillHolds(
+					{
+						revisionId: found.row.revision_id,
+						value: found.row.waived_value,
+						reasons: found.row.waived_reasons,
+					},
+					{ revisionId, check: c },
+				);
+				if (!holds) {
+					waived = false;
+					const on = signoff.revisionNumber ? ` on r${signoff.revisionNumber}` : '';
+					signoff.reopened =
+						c.measure && found.row.waived_value !== null
+							? `Waived${on} at ${found.row.waived_value.toFixed(2)} V; now ${c.measure.text}`
+							: `Waived${on}; it now fails for more than the waiver accepted`;
+				}
+			}
 			return {
 				...c,
 				kind: 'computed' as const,
 				signoff,
-				outstanding: c.status === 'fail' && !signoff?.waived,
+				outstanding: c.status === 'fail' && !waived,
 			};
 		}),
 		...manual.map((m) => {
@@ -132,7 +162,8 @@ function checklistItems(
 				kind: 'manual' as const,
 				status: 'open' as const,
 				reasons: [],
-				signoff,
+				measure: null,
+				signoff: signoff?.dto ?? null,
 				outstanding: !signoff,
 			};
 		}),
@@ -176,6 +207,7 @@ export async function checklistCounts(
 			computed,
 			manual,
 			signoffs.filter((s) => s.vehicle_id === vehicleId),
+			revisionId ?? null,
 		);
 		counts.set(vehicleId, {
 			outstanding: items.filter((x) => x.outstanding).length,

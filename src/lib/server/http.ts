@@ -20,6 +20,8 @@ export type ErrorCode =
 	| 'last_captain'
 	| 'confirmation_mismatch'
 	| 'invalid_backup'
+	| 'invalid_merge'
+	| 'confirm_findings'
 	| 'unsupported_version'
 	| 'too_large'
 	| 'storage_unavailable'

@@ -155,6 +155,9 @@ export async function exportTeam(db: Db, storage: Storage, teamId: string): Prom
 				signedAt: iso(s.signed_at),
 				note: s.note,
 				waived: s.waived,
+				revision: num(s.revision_id),
+				waivedValue: s.waived_value,
+				waivedReasons: s.waived_reasons,
 			})),
 	};
 	return {
@@ -288,6 +291,9 @@ function crossCheck(t: TeamBackupContent): { path: string; message: string }[] {
 			out.push({ path: `team.signoffs.${i}`, message: 'Refers to a missing event or vehicle' });
 		if (s.item.startsWith('manual:') && !items.has(s.item))
 			out.push({ path: `team.signoffs.${i}.item`, message: `No check item ${s.item}` });
+		const nums = vehicles.get(s.vehicle);
+		if (nums && s.revision !== null && !nums.has(s.revision))
+			out.push({ path: `team.signoffs.${i}.revision`, message: `No revision ${s.revision}` });
 	});
 	return out;
 }

@@ -425,6 +425,10 @@ export async function insertTeamFromBackup(
 					signed_at: s.signedAt,
 					note: s.note,
 					waived: s.waived,
+					revision_id:
+						s.revision === null ? null : (revisionIds.get(`${s.vehicle}#${s.revision}`) ?? null),
+					waived_value: s.waivedValue,
+					waived_reasons: s.waivedReasons === null ? null : JSON.stringify(s.waivedReasons),
 				})
 				.execute();
 		}

@@ -38,7 +38,12 @@ export function findSignoffs(db: Db, eventId: string, vehicleId: string) {
 	return db
 		.selectFrom('check_signoff as s')
 		.leftJoin('User as u', 'u.id', 's.signed_by')
+		.leftJoin('revision as r', 'r.id', 's.revision_id')
 		.select([
+			's.revision_id',
+			's.waived_value',
+			's.waived_reasons',
+			'r.number as revision_number',
 			's.item_key',
 			's.signed_at',
 			's.note',
@@ -57,7 +62,12 @@ export function findEventSignoffs(db: Db, eventId: string) {
 	return db
 		.selectFrom('check_signoff as s')
 		.leftJoin('User as u', 'u.id', 's.signed_by')
+		.leftJoin('revision as r', 'r.id', 's.revision_id')
 		.select([
+			's.revision_id',
+			's.waived_value',
+			's.waived_reasons',
+			'r.number as revision_number',
 			's.vehicle_id',
 			's.item_key',
 			's.signed_at',
@@ -84,8 +94,17 @@ export async function upsertSignoff(
 		signedBy: string;
 		note: string;
 		waived: boolean;
+		/** The revision in force, and for a waiver what it accepts (the figure, the findings). */
+		revisionId?: string | null;
+		waivedValue?: number | null;
+		waivedReasons?: string[] | null;
 	},
 ): Promise<void> {
+	const scope = {
+		revision_id: s.revisionId ?? null,
+		waived_value: s.waivedValue ?? null,
+		waived_reasons: s.waivedReasons ? JSON.stringify(s.waivedReasons) : null,
+	};
 	await db
 		.insertInto('check_signoff')
 		.values({
@@ -95,6 +114,7 @@ export async function upsertSignoff(
 			signed_by: s.signedBy,
 			note: s.note,
 			waived: s.waived,
+			...scope,
 		})
 		.onConflict((oc) =>
 			oc.columns(['event_id', 'vehicle_id', 'item_key']).doUpdateSet({
@@ -102,6 +122,7 @@ export async function upsertSignoff(
 				signed_at: new Date(),
 				note: s.note,
 				waived: s.waived,
+				...scope,
 			}),
 		)
 		.execute();

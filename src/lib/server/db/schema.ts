@@ -232,6 +232,12 @@ export interface CheckSignoffTable {
 	note: Generated<string>;
 	/** A failing computed item accepted by a captain with a reason: shown as waived, never as passed. */
 	waived: Generated<boolean>;
+	/** The revision in force when the item was signed off or waived (null: from before it was kept). */
+	revision_id: string | null;
+	/** A waiver's figure when it was given (e.g. the worst drop, V), where the item has one. */
+	waived_value: number | null;
+	/** The findings a waiver accepted, as they read when it was given. */
+	waived_reasons: ColumnType<string[] | null, string | null, string | null>;
 }
 
 export interface PlanTable {

@@ -83,6 +83,9 @@ export const POST: APIRoute = async ({ params, request, locals }) => {
 		);
 	const where = { eventId: list.eventId, vehicleId: list.vehicleId, itemKey: item.key };
 	if (!body.data.signed) {
+		// A waiver is a captain's decision: only a captain takes it back.
+		if (item.signoff?.waived && !roleAtLeast(auth.value.role, 'captain'))
+			return problem(403, 'forbidden', 'Only a captain can withdraw a captain’s waiver.');
 		await removeSignoff(locals.db, where);
 	} else {
 		const waiver = item.kind === 'computed' && item.status === 'fail';
@@ -104,6 +107,11 @@ export const POST: APIRoute = async ({ params, request, locals }) => {
 			signedBy: auth.value.userId,
 			note: body.data.note,
 			waived: waiver,
+			// What the sign-off was given on, and for a waiver what it accepts: a later revision that
+			// makes the item worse re-opens it.
+			revisionId: list.revision?.id ?? null,
+			waivedValue: waiver ? (item.measure?.value ?? null) : null,
+			waivedReasons: waiver ? item.reasons : null,
 		});
 	}
 	return Response.json(
