@@ -5,23 +5,24 @@ import { useCreateEvent } from '@/lib/client/queries/events';
 import { withQueryClient } from '@/lib/client/query-client';
 import { fieldErrors } from '@/lib/client/form-errors';
 import { Button, Field } from '@/components/ui/Field';
+import { useTypedState } from '@/lib/client/typed-before-hydration';
 
 export const NewEventForm = withQueryClient(function NewEventForm({ teamId }: { teamId: string }) {
 	const create = useCreateEvent(teamId);
-	const [values, setValues] = useState({
-		name: '',
-		startsOn: '',
-		endsOn: '',
-		place: '',
-		format: '',
-	});
+	// Each field starts from what was typed before the island woke (client:visible can wake it
+	// while someone is already typing), so nothing typed is lost to hydration.
+	const FORM = 'Add an event';
+	const [name, setName] = useTypedState(FORM, 'name', '');
+	const [startsOn, setStartsOn] = useTypedState(FORM, 'startsOn', '');
+	const [endsOn, setEndsOn] = useTypedState(FORM, 'endsOn', '');
+	const [place, setPlace] = useTypedState(FORM, 'place', '');
+	const [format, setFormat] = useTypedState(FORM, 'format', '');
+	const values = { name, startsOn, endsOn, place, format };
 	const [errors, setErrors] = useState<Record<string, string>>({});
-	const set = (k: keyof typeof values) => (e: React.ChangeEvent<HTMLInputElement>) =>
-		setValues((v) => ({
-			...v,
-			[k]: e.target.value,
-			...(k === 'startsOn' && !v.endsOn ? { endsOn: e.target.value } : {}),
-		}));
+	const on =
+		(set: (v: string) => void) =>
+		(e: React.ChangeEvent<HTMLInputElement>): void =>
+			set(e.target.value);
 	return (
 		<form
 			noValidate
@@ -43,26 +44,41 @@ export const NewEventForm = withQueryClient(function NewEventForm({ teamId }: { 
 				}
 			}}
 		>
-			<Field label="Event" value={values.name} onChange={set('name')} error={errors.name} />
+			<Field label="Event" name="name" value={name} onChange={on(setName)} error={errors.name} />
 			<Field
 				label="From"
+				name="startsOn"
 				type="date"
-				value={values.startsOn}
-				onChange={set('startsOn')}
+				value={startsOn}
+				onChange={on(setStartsOn)}
+				// A one-day event ends when it starts: To follows From once From is complete and left
+				// (while its year is being typed, From passes through years like 0002).
+				onBlur={() => {
+					if (!endsOn && /^\d{4}-\d{2}-\d{2}$/.test(startsOn) && startsOn >= '1900')
+						setEndsOn(startsOn);
+				}}
 				error={errors.startsOn}
 			/>
 			<Field
 				label="To"
+				name="endsOn"
 				type="date"
-				value={values.endsOn}
-				onChange={set('endsOn')}
+				value={endsOn}
+				onChange={on(setEndsOn)}
 				error={errors.endsOn}
 			/>
-			<Field label="Place" value={values.place} onChange={set('place')} error={errors.place} />
+			<Field
+				label="Place"
+				name="place"
+				value={place}
+				onChange={on(setPlace)}
+				error={errors.place}
+			/>
 			<Field
 				label="Format or class"
-				value={values.format}
-				onChange={set('format')}
+				name="format"
+				value={format}
+				onChange={on(setFormat)}
 				error={errors.format}
 			/>
 			<Button type="submit" busy={create.isPending || create.isSuccess}>

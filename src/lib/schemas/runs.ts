@@ -94,21 +94,25 @@ export const runListQuerySchema = z.object({ vehicleId: optionalId, eventId: opt
 
 /**
  * The revision in force at an instant: the newest one saved at or before it, compared to the
- * second (the database keeps microseconds, a run's time keeps seconds), as the server links it.
+ * second (the database keeps microseconds, a run's time keeps seconds). Among revisions saved in
+ * the same second the newest wins (latest save time, then highest number), as the server links
+ * it (`revisionInForce`): one rule for the run form and the server.
  */
-export function revisionInForceAt<R extends { createdAt: string }>(
+export function revisionInForceAt<R extends { createdAt: string; number?: number }>(
 	revisions: readonly R[],
 	at: Date,
 ): R | null {
 	const t = at.getTime();
 	if (Number.isNaN(t)) return null;
 	let best: R | null = null;
-	let bestT = -Infinity;
+	let bestAt = -Infinity;
 	for (const r of revisions) {
-		const saved = Math.floor(Date.parse(r.createdAt) / 1000) * 1000;
-		if (saved <= t && saved >= bestT) {
+		const savedAt = Date.parse(r.createdAt);
+		if (Math.floor(savedAt / 1000) * 1000 > t) continue;
+		const newer = savedAt > bestAt || (savedAt === bestAt && (r.number ?? 0) > (best?.number ?? 0));
+		if (newer) {
 			best = r;
-			bestT = saved;
+			bestAt = savedAt;
 		}
 	}
 	return best;

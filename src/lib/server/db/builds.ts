@@ -162,6 +162,7 @@ export async function revisionInForce(db: Db, vehicleId: string, at: Date): Prom
 			sql<Date>`date_trunc('second', ${at.toISOString()}::timestamptz)`,
 		)
 		.orderBy('r.created_at', 'desc')
+		.orderBy('r.number', 'desc')
 		.limit(1)
 		.executeTakeFirst();
 	return row?.id ?? null;
@@ -190,6 +191,7 @@ export async function revisionsInForce(
 		)
 		.orderBy('b.vehicle_id')
 		.orderBy('r.created_at', 'desc')
+		.orderBy('r.number', 'desc')
 		.execute();
 	return new Map(rows.map((r) => [r.vehicle_id, r.id]));
 }
