@@ -3,7 +3,8 @@ import { banksCarryHours } from './budget';
 import { bankThevenin } from './battery';
 import { runBurp } from './burp';
 import { engineOffPlayTime, runSession } from './session';
-import { buildReport, DEFAULT_SCENARIO } from './report';
+import { addedFindings, findingCounts, findingKey } from './findings';
+import { buildReport, DEFAULT_SCENARIO, type ReportWarning, type Severity } from './report';
 import { type NetworkSolution, solveNetwork } from './solve';
 import { speedSweep } from './sweep';
 import type { BuildDocument, Scenario } from './types';
@@ -46,6 +47,13 @@ export interface ComparisonColumn {
 		burpCarrySeconds: number | null;
 	}[];
 	warnings: number;
+	/** Findings by severity: the same counts as the build page's summary strip. */
+	findings: Record<Severity, number>;
+	/**
+	 * Danger findings this column has that the current build does not (the messages): a plan that
+	 * brings one is named for it, never marked best value, and asks before it is installed.
+	 */
+	addedDangers: { key: string; message: string }[];
 	/** Findings raised against cables (drop, cmil per amp, capacity, fusing). */
 	cableWarnings: string[];
 	/**
@@ -119,6 +127,7 @@ export function comparePlans(
 	scenarioIn: Partial<Scenario> = {},
 ): ComparisonColumn[] {
 	const scenario: Scenario = { ...DEFAULT_SCENARIO, ...scenarioIn };
+	let currentWarnings: ReportWarning[] | null = null;
 	const column = (
 		id: string,
 		name: string,
@@ -128,6 +137,9 @@ export function comparePlans(
 		baseAmps: ComparisonColumn['amplifiers'] | null,
 	): ComparisonColumn => {
 		const report = buildReport(doc, scenario, { burpRun: false });
+		// The current build's findings are every plan's reference for what a plan brings.
+		const baseWarnings = baseAmps === null ? undefined : (currentWarnings ?? []);
+		if (baseAmps === null) currentWarnings = report.ok ? report.warnings : null;
 		const run = report.ok
 			? runBurp(doc, {
 					engineRpm: scenario.engineRpm,
@@ -207,6 +219,14 @@ export function comparePlans(
 					}))
 				: [],
 			warnings: report.ok ? report.warnings.length : 0,
+			findings: report.ok ? findingCounts(report.warnings) : { danger: 0, warning: 0, info: 0 },
+			addedDangers:
+				report.ok && baseWarnings !== undefined
+					? addedFindings(baseWarnings, report.warnings, ['danger']).map((w) => ({
+							key: findingKey(w),
+							message: w.message,
+						}))
+					: [],
 			cableWarnings: report.ok
 				? report.warnings
 						.filter((w) => w.element.kind === 'cable' && w.severity !== 'info')

@@ -1,3 +1,4 @@
+import { findingCounts } from './findings';
 import type { BuildReport, Severity } from './report';
 
 /** The figures a team looks at first, from one report (the summary strip, the team page). */
@@ -22,8 +23,7 @@ export interface HeadlineFigures {
 export function headlineFigures(report: Extract<BuildReport, { ok: true }>): HeadlineFigures {
 	const { burp, sustained } = report;
 	const collapse = burp.status === 'collapse';
-	const findings: Record<Severity, number> = { danger: 0, warning: 0, info: 0 };
-	for (const w of report.warnings) findings[w.severity]++;
+	const findings = findingCounts(report.warnings);
 	return {
 		collapse,
 		settleV: collapse

@@ -24,6 +24,7 @@ export * from './hints';
 export * from './run-analysis';
 export * from './checks';
 export * from './headline';
+export * from './findings';
 export * from './heating';
 export * from './sweep';
 export * from './compare';

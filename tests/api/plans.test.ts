@@ -317,7 +317,16 @@ describe('upgrade plans', () => {
 		const first = await newPlan('Four more', withAlternators('x'), []);
 		const second = await newPlan('Four others', withAlternators('y'), []);
 		const head = (await findHeadRevision(t.db, buildId))!;
-		const one = await call(install, 'POST', { planId: first.id }, { parentId: head.id });
+		// Five alternators overload the charge lead: that danger is named and accepted first.
+		const asked = await call(install, 'POST', { planId: first.id }, { parentId: head.id });
+		expect(asked.status).toBe(409);
+		const keys = (await asked.json()).findings.map((f: { key: string }) => f.key);
+		const one = await call(
+			install,
+			'POST',
+			{ planId: first.id },
+			{ parentId: head.id, acceptDangers: keys },
+		);
 		expect(one.status).toBe(201);
 		const now = await one.json();
 		expect(now.document.alternators).toHaveLength(5);
@@ -331,6 +340,75 @@ describe('upgrade plans', () => {
 			message: 'At most 8 alternators',
 		});
 		expect((await findHeadRevision(t.db, buildId))!.id).toBe(now.id);
+	});
+
+	it('names a danger finding a plan brings, never marks it best value, and installs it only once confirmed', async () => {
+		// A third bank joined to the rear bank's post by a cable with no fuse at either battery end:
+		// the fusing rule (common practice, no published source) makes it a danger finding.
+		const withBank = (d: BuildDocument): BuildDocument => ({
+			...d,
+			nodes: [
+				...d.nodes,
+				{ id: 'extra_pos', label: 'Extra bank +', kind: 'battery' },
+				{ id: 'extra_neg', label: 'Extra bank −', kind: 'battery' },
+			],
+			banks: [
+				...d.banks,
+				{
+					...d.banks[1]!,
+					id: 'extra',
+					label: 'Extra bank',
+					positive: 'extra_pos',
+					negative: 'extra_neg',
+				},
+			],
+			cables: [
+				...d.cables,
+				{
+					...d.cables[0]!,
+					id: 'extra_link',
+					label: 'Extra bank link',
+					from: 'extra_pos',
+					to: 'rear_pos',
+					fuses: [],
+				},
+				{
+					...d.cables[0]!,
+					id: 'extra_gnd',
+					label: 'Extra bank ground',
+					from: 'extra_neg',
+					to: 'chassis',
+					fuses: [],
+				},
+			],
+		});
+		const p = await newPlan('Unfused extra bank', withBank, [
+			{ item: 'AGM battery', quantity: 1, unitPrice: 10 },
+		]);
+		const cmp = await call(compare, 'GET', {}, undefined, `?plans=${p.id}`);
+		expect(cmp.status).toBe(200);
+		const columns = (await cmp.json()).columns;
+		const col = columns[1];
+		expect(col.addedDangers.length).toBeGreaterThan(0);
+		expect(col.addedDangers.map((d: { message: string }) => d.message).join(' ')).toMatch(
+			/Extra bank link/,
+		);
+		expect(col.findings.danger).toBe(columns[0].findings.danger + col.addedDangers.length);
+
+		const head = (await findHeadRevision(t.db, buildId))!;
+		const unconfirmed = await call(install, 'POST', { planId: p.id }, { parentId: head.id });
+		expect(unconfirmed.status).toBe(409);
+		const body = await unconfirmed.json();
+		expect(body.code).toBe('confirm_findings');
+		expect(body.detail).toMatch(/Extra bank link/);
+		expect((await findHeadRevision(t.db, buildId))!.id).toBe(head.id);
+		const confirmed = await call(
+			install,
+			'POST',
+			{ planId: p.id },
+			{ parentId: head.id, acceptDangers: body.findings.map((f: { key: string }) => f.key) },
+		);
+		expect(confirmed.status).toBe(201);
 	});
 
 	it('refuses a nameless plan and a starting revision of another vehicle, naming the field', async () => {

@@ -4,7 +4,7 @@ import { pebbleBuild } from '../../db/demo/builds';
 import { revisionInForceAt } from '../../src/lib/schemas/runs';
 import { appendRevision, listRevisions, revisionInForce } from '../../src/lib/server/db/builds';
 import { insertVehicleWithBuild } from '../../src/lib/server/db/vehicles';
-import { makeTeam } from '../helpers/fixtures';
+import { makeTeam, makeUser } from '../helpers/fixtures';
 import { createTestDb, type TestDb } from '../helpers/test-db';
 
 describe('the revision in force: one rule for the run form and the server', () => {
@@ -24,6 +24,7 @@ describe('the revision in force: one rule for the run form and the server', () =
 		});
 		vehicleId = v.vehicle.id;
 		buildId = v.buildId;
+		const author = await makeUser(t.db, 'quick@sagwise.test', 'Quick');
 		let parentId: string | null = null;
 		for (const message of ['one', 'two', 'three']) {
 			const saved = await appendRevision(t.db, {
@@ -31,7 +32,7 @@ describe('the revision in force: one rule for the run form and the server', () =
 				parentId,
 				document: pebbleBuild,
 				message,
-				authorId: null,
+				authorId: author.id,
 			});
 			if (!saved.ok) throw new Error('save refused');
 			parentId = saved.revision.id;

@@ -12,6 +12,7 @@ import type { ComparisonColumn, ComparisonDto } from '@/lib/client/queries/plans
 import { fmt, formatMoney } from '@/lib/format';
 import { CHART_COLOURS } from '@/components/builds/chart-data';
 import { Button } from '@/components/ui/Field';
+import { installQuestion } from '@/lib/client/install-plan';
 
 ChartJS.register(CategoryScale, LinearScale, BarElement, Tooltip, Legend);
 
@@ -42,11 +43,16 @@ export function ComparisonTable({ data, canInstall, installing, installed, onIns
 		return [...seen];
 	}, [columns]);
 	const voltages = columns[0]?.budget.map((b) => b.voltageV) ?? [];
+	// A plan that brings a danger finding is never the best value, however many dB it buys.
 	const best = columns
 		.slice(1)
 		.reduce<ComparisonColumn | null>(
 			(b, c) =>
-				c.dbPerMoney !== null && (b === null || (b.dbPerMoney ?? 0) < c.dbPerMoney) ? c : b,
+				c.dbPerMoney !== null &&
+				c.addedDangers.length === 0 &&
+				(b === null || (b.dbPerMoney ?? 0) < c.dbPerMoney)
+					? c
+					: b,
 			null,
 		);
 
@@ -291,18 +297,31 @@ export function ComparisonTable({ data, canInstall, installing, installed, onIns
 								/>
 							))}
 						</Row>
-						<Row label="All findings" hint="of them safety findings">
-							{columns.map((c) =>
-								cell(
-									c.id,
-									<>
-										{c.warnings}
-										{c.safetyFindings > 0 && (
-											<span className="text-brick"> · {c.safetyFindings} safety</span>
-										)}
-									</>,
-								),
-							)}
+						<Row
+							label="All findings"
+							hint="danger · warnings, as the build page counts them; a danger a plan brings is named"
+						>
+							{columns.map((c) => (
+								<td key={c.id} className="px-3 py-2 text-right align-top" data-findings={c.id}>
+									<span className="num">
+										<span className={c.findings.danger ? 'text-brick' : ''}>
+											{c.findings.danger} danger
+										</span>{' '}
+										· {c.findings.warning} warning{c.findings.warning === 1 ? '' : 's'}
+									</span>
+									{c.addedDangers.length > 0 && (
+										<ul className="mt-1 text-left text-xs text-brick" data-added-dangers>
+											{c.addedDangers.map((d) => (
+												<li key={d.key}>
+													<span aria-hidden="true">✕ </span>
+													<span className="sr-only">New safety finding: </span>
+													{d.message}
+												</li>
+											))}
+										</ul>
+									)}
+								</td>
+							))}
 						</Row>
 						{canInstall && (
 							<tr className="border-t border-hairline print:hidden">
@@ -318,6 +337,7 @@ export function ComparisonTable({ data, canInstall, installing, installed, onIns
 										) : (
 											<InstallButton
 												name={c.name}
+												dangers={c.addedDangers.map((d) => d.message)}
 												busy={installing === c.id}
 												disabled={installing !== null}
 												onConfirm={() => onInstall(c)}
@@ -379,11 +399,14 @@ function cell(key: string, content: React.ReactNode, tone = '') {
 
 function InstallButton({
 	name,
+	dangers,
 	busy,
 	disabled,
 	onConfirm,
 }: {
 	name: string;
+	/** Danger findings the plan brings: named in the question, so nobody installs one unawares. */
+	dangers: string[];
 	busy: boolean;
 	disabled: boolean;
 	onConfirm: () => void;
@@ -395,12 +418,7 @@ function InstallButton({
 			disabled={disabled}
 			className="px-3 py-1 text-xs"
 			onClick={() => {
-				if (
-					window.confirm(
-						`Install “${name}” as the next revision of the build? Its changes are saved on top of the current revision.`,
-					)
-				)
-					onConfirm();
+				if (window.confirm(installQuestion(name, dangers))) onConfirm();
 			}}
 		>
 			Install as next revision

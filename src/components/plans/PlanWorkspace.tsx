@@ -24,6 +24,7 @@ import { Button, FormMessage } from '@/components/ui/Field';
 import { Workbench } from '@/components/builds/Workbench';
 import { validateDraft } from '@/lib/client/draft-check';
 import { sameJson } from '@/lib/same-json';
+import { installConfirmed } from '@/lib/client/install-plan';
 
 export interface PlanWorkspaceProps {
 	teamId: string;
@@ -226,7 +227,17 @@ function PlanWorkspaceView({
 		if (dirty && !(await save())) return;
 		setState((s) => ({ ...s, busy: 'install', error: null, ok: null }));
 		try {
-			const revision = await installPlan.mutateAsync({ planId: plan.id, parentId: head.id });
+			// A danger finding the plan brings is named by the server and asked about before saving.
+			const revision = await installConfirmed(
+				(acceptDangers) =>
+					installPlan.mutateAsync({ planId: plan.id, parentId: head.id, acceptDangers }),
+				plan.name,
+				[],
+			);
+			if (!revision) {
+				setState((s) => ({ ...s, busy: null, error: 'Not installed.' }));
+				return;
+			}
 			window.location.assign(`/teams/${teamId}/vehicles/${vehicleId}/history#r${revision.number}`);
 		} catch (e) {
 			setState((s) => ({

@@ -14,6 +14,7 @@ import { formatMoney } from '@/lib/format';
 import { Button, Field, FormMessage } from '@/components/ui/Field';
 import { ComparisonTable } from './ComparisonTable';
 import { RelativeTime } from '@/components/ui/RelativeTime';
+import { type AddedDanger, installConfirmed } from '@/lib/client/install-plan';
 
 export interface PlansBoardProps {
 	teamId: string;
@@ -72,16 +73,22 @@ function PlansBoardView({
 	const installPlan = useInstallPlan(teamId, vehicleId);
 	const install = {
 		...installPlan,
-		mutate: (plan: { id: string; name: string }) =>
-			installPlan.mutate(
-				{ planId: plan.id, parentId: head?.id ?? null },
-				{
-					onSuccess: (revision) => {
-						setHead({ id: revision.id, number: revision.number, message: revision.message });
-						setInstalled(`“${plan.name}” is now revision ${revision.number} of the build.`);
-					},
-				},
-			),
+		// The danger findings the comparison showed in its question are accepted; any other the
+		// server finds is named in a second question (installConfirmed).
+		mutate: (plan: { id: string; name: string; addedDangers: AddedDanger[] }) =>
+			void installConfirmed(
+				(acceptDangers) =>
+					installPlan.mutateAsync({ planId: plan.id, parentId: head?.id ?? null, acceptDangers }),
+				plan.name,
+				plan.addedDangers,
+			)
+				.then((revision) => {
+					if (!revision) return;
+					setHead({ id: revision.id, number: revision.number, message: revision.message });
+					setInstalled(`“${plan.name}” is now revision ${revision.number} of the build.`);
+				})
+				// Shown from the mutation's own error state below.
+				.catch(() => undefined),
 	};
 
 	return (
@@ -254,7 +261,9 @@ function PlansBoardView({
 										.map((p) => [p.id, p.installedRevisionNumber!]),
 								)
 							}
-							onInstall={(col) => install.mutate({ id: col.id, name: col.name })}
+							onInstall={(col) =>
+								install.mutate({ id: col.id, name: col.name, addedDangers: col.addedDangers })
+							}
 						/>
 					)}
 				</div>

@@ -54,6 +54,11 @@ export const installPlanSchema = z.object({
 	/** The build's head when the captain pressed install; a stale head answers 409. */
 	parentId: z.uuid().nullable(),
 	message: notesText(500).optional(),
+	/**
+	 * The danger findings (their keys) the installer was shown and accepts; any other the result
+	 * brings answers 409 `confirm_findings` naming them, and nothing is saved.
+	 */
+	acceptDangers: z.array(lineText(300)).max(500).default([]),
 });
 
 export const compareQuerySchema = z.object({

@@ -1,4 +1,5 @@
 import type { ReportWarning } from '@/engine';
+import { findingCounts, orderedFindings } from '@/engine/findings';
 
 export const SAFETY_LINE =
 	'These figures are estimates. Local codes, event rules and licensed practice govern high-current work.';
@@ -23,22 +24,43 @@ export function WarningList({ warnings }: { warnings: ReportWarning[] }) {
 	);
 }
 
-/** The build's findings that are not about one cable (those sit in the cable table). */
+/**
+ * Every finding of the build, danger first: the same set the summary strip counts, the part tables
+ * and the inspector show beside their parts, and the checks sheet and the plan comparison read.
+ */
 export function Findings({ warnings }: { warnings: ReportWarning[] }) {
-	const build = warnings.filter((w) => w.element.kind !== 'cable');
-	if (build.length === 0) return null;
-	const safety = build.some((w) => w.safety);
+	const all = orderedFindings(warnings).filter((w) => w.severity !== 'info');
+	if (all.length === 0) return null;
+	const counts = findingCounts(all);
+	const safety = all.some((w) => w.safety);
 	return (
 		<section
 			aria-labelledby="findings-heading"
-			className={`rounded-md border p-4 ${safety ? 'border-brick/40 bg-brick-tint/40' : 'border-amber/40 bg-amber-tint/50'}`}
+			className={`rounded-md border p-4 ${safety || counts.danger ? 'border-brick/40 bg-brick-tint/40' : 'border-amber/40 bg-amber-tint/50'}`}
+			data-findings={`${counts.danger}|${counts.warning}`}
 		>
 			<h2 id="findings-heading" className="font-semibold">
-				Findings
+				Findings{' '}
+				<span className="text-sm font-normal text-ink-soft">
+					{counts.danger} danger · {counts.warning} warning{counts.warning === 1 ? '' : 's'}
+				</span>
 			</h2>
-			<div className="mt-2">
-				<WarningList warnings={build} />
-			</div>
+			<ul className="mt-2 flex flex-col gap-1">
+				{all.map((w, i) => (
+					<li
+						key={i}
+						className={`text-xs ${w.severity === 'danger' ? 'text-brick' : 'text-ink'}`}
+						data-finding={w.severity}
+					>
+						<span aria-hidden="true">{w.severity === 'danger' ? '✕ ' : '⚠ '}</span>
+						<span className="sr-only">
+							{w.severity === 'danger' ? 'Safety finding: ' : 'Warning: '}
+						</span>
+						{w.message}
+					</li>
+				))}
+				{safety && <li className="text-xs italic text-ink-soft">{SAFETY_LINE}</li>}
+			</ul>
 		</section>
 	);
 }

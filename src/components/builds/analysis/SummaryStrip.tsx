@@ -1,5 +1,6 @@
 import type { BuildReport, HeadlineFigures, ReportWarning } from '@/engine';
 import { headlineFigures as headline } from '@/engine/headline';
+import { addedFindings } from '@/engine/findings';
 import { fmt } from '@/lib/format';
 
 type Ok = Extract<BuildReport, { ok: true }>;
@@ -78,7 +79,6 @@ const FIGURES: Figure[] = [
 	},
 ];
 
-const findingKey = (w: ReportWarning) => `${w.code}|${w.element.kind}|${w.element.id}`;
 
 /**
  * The figures that matter, kept in view while editing anywhere on the page: each with its change
@@ -103,14 +103,8 @@ export function SummaryStrip({
 }) {
 	const now = headline(report);
 	const before = baseline ? headline(baseline) : null;
-	const beforeKeys = new Set(baseline?.warnings.map(findingKey) ?? []);
-	const added = baseline
-		? report.warnings.filter((w) => w.severity !== 'info' && !beforeKeys.has(findingKey(w)))
-		: [];
-	const nowKeys = new Set(report.warnings.map(findingKey));
-	const cleared = baseline
-		? baseline.warnings.filter((w) => w.severity !== 'info' && !nowKeys.has(findingKey(w)))
-		: [];
+	const added = baseline ? addedFindings(baseline.warnings, report.warnings) : [];
+	const cleared = baseline ? addedFindings(report.warnings, baseline.warnings) : [];
 	return (
 		<section
 			aria-label="Summary of the draft"

@@ -73,9 +73,18 @@ export const fetchPlan = (teamId: string, vehicleId: string, planId: string) =>
 export function useInstallPlan(teamId: string, vehicleId: string) {
 	const qc = useQueryClient();
 	return useMutation({
-		mutationFn: ({ planId, parentId }: { planId: string; parentId: string | null }) =>
+		mutationFn: ({
+			planId,
+			parentId,
+			acceptDangers = [],
+		}: {
+			planId: string;
+			parentId: string | null;
+			/** Keys of the danger findings the installer was shown and accepts. */
+			acceptDangers?: string[];
+		}) =>
 			api<RevisionDto>(`/api/teams/${teamId}/vehicles/${vehicleId}/plans/${planId}/install`, {
-				json: { parentId },
+				json: { parentId, acceptDangers },
 			}),
 		onSuccess: () =>
 			Promise.all([

@@ -1,5 +1,7 @@
 import {
+	addedFindings,
 	buildReport,
+	findingKey,
 	type BuildDocument,
 	comparePlans,
 	type PlanCandidate,
@@ -33,6 +35,18 @@ export const ENGINE_TASKS = {
 			head: { id: a.head.id, number: a.head.number, message: a.head.message },
 			columns: comparePlans(a.head.document, a.plans, a.scenario),
 		}),
+	/** Danger findings `after` has that `before` does not, as the plan comparison names them. */
+	addedDangers: (a: { before: BuildDocument | null; after: BuildDocument }) => {
+		const warningsOf = (d: BuildDocument) => {
+			const r = buildReport(d, {}, { burpRun: false });
+			return r.ok ? r.warnings : [];
+		};
+		return JSON.stringify(
+			addedFindings(a.before ? warningsOf(a.before) : [], warningsOf(a.after), ['danger']).map(
+				(w) => ({ key: findingKey(w), message: w.message }),
+			),
+		);
+	},
 } satisfies Record<string, (args: never) => string>;
 
 export type EngineTask = keyof typeof ENGINE_TASKS;

@@ -6,6 +6,7 @@ import { installPlan } from '@/lib/server/db/plans';
 import { conflict, problem, readJson } from '@/lib/server/http';
 import { installPlanSchema } from '@/lib/schemas/plans';
 import { requirePlan } from '@/lib/server/access';
+import { runEngine } from '@/lib/server/engine/pool';
 
 /**
  * The plan's document becomes the build's next revision, with a message naming the plan. The body
@@ -48,6 +49,22 @@ export const POST: APIRoute = async ({ params, request, locals }) => {
 			'invalid_merge',
 			`Installing this plan would make a build Sagwise cannot accept: ${issues[0]!.message}${issues.length > 1 ? ` (and ${issues.length - 1} more)` : ''}. Nothing was saved; fix the plan in its editor first.`,
 			issues.map((i) => ({ path: `document.${i.path}`, message: i.message })),
+		);
+	// A plan that brings a danger finding the head does not have is installed only once the
+	// installer has seen it named (the comparison and the plan page ask, then send its key).
+	const dangers = JSON.parse(
+		await runEngine('addedDangers', { before: head?.document ?? null, after: document }),
+	) as { key: string; message: string }[];
+	const accepted = new Set(body.data.acceptDangers);
+	const unseen = dangers.filter((d) => !accepted.has(d.key));
+	if (unseen.length)
+		return problem(
+			409,
+			'confirm_findings',
+			`Installing “${plan.name}” brings ${unseen.length === 1 ? 'a safety finding' : `${unseen.length} safety findings`} the build does not have: ${unseen.map((d) => d.message).join(' ')} Confirm to install it anyway.`,
+			undefined,
+			{},
+			{ findings: dangers },
 		);
 	const message = body.data.message || `Installed plan “${plan.name}”`;
 	const result = await installPlan(locals.db, {
