@@ -171,7 +171,7 @@ export async function seedDemo(db: Kysely<Database>, storage?: Storage): Promise
 				.returning('id')
 				.executeTakeFirstOrThrow();
 			if (r.logger) {
-				const trace = demoTrace(r.logger);
+				const trace = demoTrace(r);
 				await trx
 					.insertInto('run_sample')
 					.values(

@@ -1,6 +1,12 @@
+import { applyCalibration, loggedVoltageModel } from '../../src/engine/calibrate';
+import { solveNetwork } from '../../src/engine/solve';
+import type { BuildDocument } from '../../src/engine/types';
+import { DEMO_HISTORIES } from './builds';
+
 /**
- * The demo season: invented events and runs with invented numbers, and synthetic logger traces
- * (a burp drawn against a sagging supply) for some runs.
+ * The demo season: invented events and runs with invented numbers, and logger traces for some
+ * runs, made by the engine from the revision in force that day at the run's recorded conditions
+ * (so the calibration of a demo run closes on its own log).
  */
 export interface DemoEvent {
 	key: string;
@@ -66,13 +72,19 @@ export interface DemoRun {
 	minV: number;
 	ambientC: number;
 	notes: string;
-	/** Synthetic logger trace: open-circuit voltage, source resistance and peak current. */
+	/**
+	 * A logger trace, made by the engine from the revision in force that day: the engine speed of
+	 * the run, the banks' state of charge and how far their resistance had drifted from the build's
+	 * figure (what a calibration of the run should find), the burp's length, and the seconds the
+	 * logger ran at the resting draw before it (loggers start early).
+	 */
 	logger?: {
-		ocvV: number;
-		resistanceOhm: number;
-		peakA: number;
+		engineRpm: number;
+		stateOfCharge: number;
+		bankResistanceFactor: number;
+		/** Peak current as a fraction of what the amplifiers draw at full demand. */
+		peakShare: number;
 		seconds: number;
-		/** Seconds the logger ran at the resting draw before the burp (loggers start early). */
 		leadS: number;
 	};
 }
@@ -95,11 +107,18 @@ export const DEMO_RUNS: DemoRun[] = [
 		on: '2026-05-16',
 		scoreDb: 139.6,
 		frequencyHz: 42,
-		restingV: 12.8,
-		minV: 11.5,
+		restingV: 12.1,
+		minV: 10.3,
 		ambientC: 21,
 		notes: 'After the 4 AWG run.',
-		logger: { ocvV: 12.8, resistanceOhm: 0.0105, peakA: 125, seconds: 4, leadS: 0.8 },
+		logger: {
+			engineRpm: 0,
+			stateOfCharge: 0.8,
+			bankResistanceFactor: 1.25,
+			peakShare: 0.35,
+			seconds: 4,
+			leadS: 0.8,
+		},
 	},
 	{
 		vehicle: 'Pebble',
@@ -129,11 +148,18 @@ export const DEMO_RUNS: DemoRun[] = [
 		on: '2026-05-16',
 		scoreDb: 147.9,
 		frequencyHz: 38,
-		restingV: 12.9,
-		minV: 11.6,
+		restingV: 12.6,
+		minV: 11.9,
 		ambientC: 22,
 		notes: 'Rear bank in.',
-		logger: { ocvV: 12.9, resistanceOhm: 0.0024, peakA: 560, seconds: 5, leadS: 1.35 },
+		logger: {
+			engineRpm: 0,
+			stateOfCharge: 0.86,
+			bankResistanceFactor: 1.1,
+			peakShare: 0.75,
+			seconds: 5,
+			leadS: 1.35,
+		},
 	},
 	{
 		vehicle: 'Marlin',
@@ -156,7 +182,14 @@ export const DEMO_RUNS: DemoRun[] = [
 		minV: 11.7,
 		ambientC: 14,
 		notes: 'Cold day; four-channel on.',
-		logger: { ocvV: 12.8, resistanceOhm: 0.0022, peakA: 600, seconds: 5, leadS: 0.45 },
+		logger: {
+			engineRpm: 0,
+			stateOfCharge: 0.78,
+			bankResistanceFactor: 1.35,
+			peakShare: 0.8,
+			seconds: 5,
+			leadS: 0.45,
+		},
 	},
 	{
 		vehicle: 'Old Oak',
@@ -175,11 +208,18 @@ export const DEMO_RUNS: DemoRun[] = [
 		on: '2026-06-20',
 		scoreDb: 155.2,
 		frequencyHz: 33,
-		restingV: 16.6,
-		minV: 15.4,
+		restingV: 17.2,
+		minV: 16.6,
 		ambientC: 30,
 		notes: 'Second alternator.',
-		logger: { ocvV: 16.6, resistanceOhm: 0.0011, peakA: 980, seconds: 6, leadS: 2.1 },
+		logger: {
+			engineRpm: 1500,
+			stateOfCharge: 0.98,
+			bankResistanceFactor: 1.15,
+			peakShare: 0.8,
+			seconds: 6,
+			leadS: 2.1,
+		},
 	},
 	{
 		vehicle: 'Old Oak',
@@ -194,13 +234,38 @@ export const DEMO_RUNS: DemoRun[] = [
 	},
 ];
 
+/** The revision of a demo vehicle in force on a day: the newest of its history saved by then. */
+export function demoDocumentOn(vehicle: DemoRun['vehicle'], on: string): BuildDocument {
+	const history = DEMO_HISTORIES[vehicle as keyof typeof DEMO_HISTORIES];
+	const inForce = history.filter((h) => h.on <= on).at(-1) ?? history[0]!;
+	return inForce.document;
+}
+
 /**
- * A synthetic burp trace at 20 samples per second: the resting draw for the lead, then the current
- * ramps up, holds and ramps down while the voltage sags through R.
+ * A burp trace at 20 samples per second, as a logger on the lowest amplifier would record it: the
+ * resting draw for the lead, then the current ramps up, holds and ramps down, and each sample's
+ * voltage is the engine's for that current on the revision in force, with the banks at the run's
+ * state of charge and drifted resistance, read to the millivolt with a few millivolts of scatter.
  */
-export function demoTrace(
-	l: NonNullable<DemoRun['logger']>,
-): Array<{ tS: number; volts: number; amps: number }> {
+export function demoTrace(run: DemoRun): Array<{ tS: number; volts: number; amps: number }> {
+	const l = run.logger!;
+	const doc = applyCalibration(
+		demoDocumentOn(run.vehicle, run.on),
+		{
+			bankResistance: l.bankResistanceFactor,
+			alternatorOutput: 1,
+			connectionMilliohm: 0,
+			stateOfCharge: l.stateOfCharge,
+		},
+		undefined,
+	);
+	const conditions = { engineRpm: l.engineRpm, conductorTempC: 25 };
+	const volts = loggedVoltageModel(doc, conditions);
+	const fullA = solveNetwork(doc, { ...conditions, demand: 1 }).amplifiers.reduce(
+		(t, a) => t + a.currentA,
+		0,
+	);
+	const peakA = fullA * l.peakShare;
 	const out: Array<{ tS: number; volts: number; amps: number }> = [];
 	const restA = 14;
 	const n = Math.round((l.leadS + l.seconds) * 20);
@@ -210,13 +275,13 @@ export function demoTrace(
 		const envelope =
 			t < 0 ? 0 : t < 0.5 ? t / 0.5 : t > l.seconds - 0.5 ? Math.max(0, (l.seconds - t) / 0.5) : 1;
 		const ripple = 1 + 0.03 * Math.sin(i * 1.7);
-		const amps = Math.max(restA, l.peakA * envelope * ripple);
-		const sag = envelope > 0.9 ? 0.0004 * Math.max(0, t * 20) : 0;
-		const volts = l.ocvV - l.resistanceOhm * amps - sag;
+		const amps = Math.round(Math.max(restA, peakA * envelope * ripple) * 10) / 10;
+		// A logger's scatter: a few millivolts, deterministic so the demo is the same every time.
+		const scatter = 0.003 * Math.sin(i * 12.9898 + 78.233);
 		out.push({
 			tS: Math.round(tAll * 1000) / 1000,
-			volts: Math.round(volts * 1000) / 1000,
-			amps: Math.round(amps * 10) / 10,
+			volts: Math.round((volts(amps) + scatter) * 1000) / 1000,
+			amps,
 		});
 	}
 	return out;

@@ -7,6 +7,7 @@ import type { BuildDocument, CalibrationParameter, CalibrationResult, Sample } f
 import { ApiError } from '@/lib/client/api-client';
 import { calibrateInWorker } from '@/lib/client/engine-worker';
 import { useCreatePlan } from '@/lib/client/queries/plans';
+import { defaultCalibrationFit, engineSpeedGuess } from '@/lib/engine-speed-guess';
 import { fmt } from '@/lib/format';
 
 interface Props {
@@ -25,6 +26,11 @@ const CHOICES: { key: CalibrationParameter; label: string; hint: string }[] = [
 		key: 'bankResistance',
 		label: 'Bank internal resistance',
 		hint: 'one factor for every bank: age, cold, a weak cell',
+	},
+	{
+		key: 'bankCharge',
+		label: 'Banks’ state of charge',
+		hint: 'where the log rests before the burp: banks are rarely full at the lanes',
 	},
 	{
 		key: 'alternatorOutput',
@@ -53,9 +59,15 @@ export function CalibrationSection({
 	canPlan,
 	runLabel,
 }: Props) {
-	const [fit, setFit] = useState<CalibrationParameter[]>(['bankResistance', 'alternatorOutput']);
+	const engineGuess = useMemo(
+		() => engineSpeedGuess(revision.document, samples),
+		[revision.document, samples],
+	);
+	const [fit, setFit] = useState<CalibrationParameter[]>(() =>
+		defaultCalibrationFit(engineGuess.rpm),
+	);
 	const [cableId, setCableId] = useState(revision.document.cables[0]?.id ?? '');
-	const [rpmText, setRpmText] = useState('1500');
+	const [rpmText, setRpmText] = useState(String(engineGuess.rpm));
 	const [state, setState] = useState<
 		| { kind: 'idle' }
 		| { kind: 'running' }
@@ -178,6 +190,9 @@ export function CalibrationSection({
 					Fit the model to this log
 				</Button>
 			</div>
+			<p className="mt-1 text-ink-soft" data-engine-guess>
+				{engineGuess.why}
+			</p>
 			{!rpmOk && (
 				<p id="calibration-rpm-error" className="mt-1 text-brick">
 					Give the engine speed as a number from 0 to 10 000.
@@ -241,6 +256,17 @@ export function CalibrationSection({
 							</tbody>
 						</table>
 					</div>
+					{result.parameters.some((p) => p.reason) && (
+						<ul className="mt-2 flex flex-col gap-1 text-ink-soft" data-undetermined>
+							{result.parameters
+								.filter((p) => p.reason)
+								.map((p) => (
+									<li key={p.key}>
+										<span className="font-semibold text-ink">{p.label}:</span> {p.reason}
+									</li>
+								))}
+						</ul>
+					)}
 					<div className="mt-3 h-64">
 						<Scatter
 							data={chart as never}
@@ -249,7 +275,12 @@ export function CalibrationSection({
 							aria-label="Logged voltage against current, with the model as drawn and with the fitted values"
 						/>
 					</div>
-					{canPlan && (
+					{canPlan && !result.parameters.some((p) => p.determined) && (
+						<p className="mt-3 text-ink-soft">
+							Nothing was fitted, so there is no plan to start from these values.
+						</p>
+					)}
+					{canPlan && result.parameters.some((p) => p.determined) && (
 						<div className="mt-3 flex flex-wrap items-center gap-3">
 							<Button
 								type="button"
