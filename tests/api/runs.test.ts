@@ -6,6 +6,7 @@ import { pebbleBuild } from '../../db/demo/builds';
 import { type S3Fake, startS3Fake } from '../../cli/s3-fake';
 import * as events from '../../src/pages/api/teams/[teamId]/events/index';
 import * as exportCsv from '../../src/pages/api/teams/[teamId]/runs/export.csv';
+import Papa from 'papaparse';
 import * as runs from '../../src/pages/api/teams/[teamId]/runs/index';
 import * as run from '../../src/pages/api/teams/[teamId]/runs/[runId]/index';
 import * as logger from '../../src/pages/api/teams/[teamId]/runs/[runId]/logger';
@@ -305,10 +306,30 @@ describe('events, runs and logger uploads (PostgreSQL + the S3 fake)', () => {
 		expect(res.headers.get('content-type')).toMatch(/text\/csv/);
 		const text = await res.text();
 		expect(text.split(/\r?\n/)[0]).toBe(
-			'ran_at,vehicle,event,revision,score_db,frequency_hz,resting_v,min_v,ambient_c,notes',
+			'ran_at,vehicle,event,revision,score_db,frequency_hz,resting_v,min_v,ambient_c,resting_v_typed,min_v_typed,voltages_from,notes',
 		);
 		expect(text).toContain('150.1');
 		expect(text).not.toMatch(/,=HYPERLINK/);
+	});
+
+	it('exports a run’s voltages from its logger file, with the typed ones beside', async () => {
+		const r = await newRun(new Date(Date.now() - 3_600_000).toISOString());
+		expect((await upload(r.id, new Blob([HAND_CSV]), 'burp.csv')).status).toBe(201);
+		const list = (await (
+			await call(runs, 'GET', {}, undefined, `?vehicleId=${vehicleId}`)
+		).json()) as {
+			id: string;
+			ranAt: string;
+			logger: { minV: number } | null;
+		}[];
+		const mine = list.find((x) => x.id === r.id)!;
+		const logged = mine.logger!;
+		const res = await call(exportCsv, 'GET', {}, undefined, `?vehicleId=${vehicleId}`);
+		const rows = Papa.parse<Record<string, string>>(await res.text(), { header: true }).data;
+		const row = rows.find((x) => x.ran_at === mine.ranAt)!;
+		expect(Number(row.min_v)).toBeCloseTo(logged.minV, 9);
+		expect(Number(row.min_v_typed)).toBe(11.9);
+		expect(row.voltages_from).toBe('logger');
 	});
 
 	it('deletes a run with its samples and stored file', async () => {
