@@ -228,6 +228,29 @@ describe('events, runs and logger uploads (PostgreSQL + the S3 fake)', () => {
 		expect(Number(made.n)).toBe(1);
 	});
 
+	it('answers ten identical posts made at once with one run, all 2xx, and a different key still asks', async () => {
+		const clientKey = crypto.randomUUID();
+		const keyed = { vehicleId, ranAt: '2026-05-10T09:08:07Z', scoreDb: 141.7, clientKey };
+		const answers = await Promise.all(
+			Array.from({ length: 10 }, () => call(runs, 'POST', {}, keyed)),
+		);
+		const statuses = answers.map((a) => a.status).sort();
+		expect(statuses.filter((s) => s === 201)).toHaveLength(1);
+		expect(statuses.every((s) => s === 200 || s === 201)).toBe(true);
+		const ids = new Set(await Promise.all(answers.map(async (a) => (await a.json()).id)));
+		expect(ids.size).toBe(1);
+		const made = await t.db
+			.selectFrom('run')
+			.select((eb) => eb.fn.countAll().as('n'))
+			.where('client_key', '=', clientKey)
+			.executeTakeFirstOrThrow();
+		expect(Number(made.n)).toBe(1);
+		// Another device's run at the same second with the same score is still a likely duplicate.
+		const other = await call(runs, 'POST', {}, { ...keyed, clientKey: crypto.randomUUID() });
+		expect(other.status).toBe(409);
+		expect((await other.json()).code).toBe('possible_duplicate');
+	});
+
 	it('flags typed voltages that disagree with the logger file, keeping both', async () => {
 		const created = await (
 			await call(

@@ -96,9 +96,14 @@ export async function findLikelyDuplicate(
 	vehicleId: string,
 	ranAt: string,
 	scoreDb: number | null | undefined,
+	/** The caller's own client key: a run made with it is the same run, never its duplicate. */
+	clientKey?: string,
 ): Promise<RunDto | undefined> {
 	const r = await runQuery(db, teamId)
 		.where('r.vehicle_id', '=', vehicleId)
+		.$if(clientKey !== undefined, (q) =>
+			q.where(sql<boolean>`r.client_key is distinct from ${clientKey ?? null}::uuid`),
+		)
 		.where(
 			sql<Date>`date_trunc('second', r.ran_at)`,
 			'=',

@@ -39,7 +39,17 @@ export const POST: APIRoute = async ({ params, request, locals }) => {
 		if (made) return Response.json(await findRun(locals.db, teamId, made), { status: 200 });
 	}
 	if (!allowDuplicate) {
-		const twin = await findLikelyDuplicate(locals.db, teamId, r.vehicleId, r.ranAt, r.scoreDb);
+		// A run made with this request's own key is not a duplicate of it: concurrent retries of
+		// one run all reach the insert, where the unique index on (vehicle, client key) lets one
+		// row in and the others answer it.
+		const twin = await findLikelyDuplicate(
+			locals.db,
+			teamId,
+			r.vehicleId,
+			r.ranAt,
+			r.scoreDb,
+			clientKey,
+		);
 		if (twin)
 			return problem(
 				409,
