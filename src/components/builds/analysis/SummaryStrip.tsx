@@ -79,7 +79,6 @@ const FIGURES: Figure[] = [
 	},
 ];
 
-
 /**
  * The figures that matter, kept in view while editing anywhere on the page: each with its change
  * against the saved revision (before → after, better or worse in words and colour), and the
