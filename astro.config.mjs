@@ -14,6 +14,26 @@ const allowedHosts = (process.env.ALLOWED_HOSTS ?? '127.0.0.1,localhost')
 	.map((hostname) => ({ hostname: hostname.trim() }))
 	.filter((entry) => entry.hostname);
 
+/**
+ * A workbox plugin (serialised into the service worker): an answer is kept only when it was made
+ * for the member signed in on the device now (its `x-sagwise-user`; one that arrives after a
+ * sign-out is dropped), and a kept answer is served only to that member. `self.sagwiseCurrentUser`
+ * comes from public/sw-user.js.
+ */
+/** @type {import('workbox-core/types').WorkboxPlugin} */
+const ownAnswersOnly = {
+	cacheWillUpdate: async ({ response }) => {
+		const who = response.headers.get('x-sagwise-user');
+		const me = await /** @type {any} */ (self).sagwiseCurrentUser();
+		return who && me && who === me ? response : null;
+	},
+	cachedResponseWillBeUsed: async ({ cachedResponse }) => {
+		if (!cachedResponse) return null;
+		const me = await /** @type {any} */ (self).sagwiseCurrentUser();
+		return me && cachedResponse.headers.get('x-sagwise-user') === me ? cachedResponse : null;
+	},
+};
+
 export default defineConfig({
 	output: 'server',
 	adapter: node({ mode: 'standalone' }),
@@ -76,7 +96,10 @@ export default defineConfig({
 			workbox: {
 				navigateFallback: null,
 				globPatterns: ['**/*.{js,css,woff2,svg,png,webmanifest}'],
+				globIgnores: ['sw-user.js'],
 				cleanupOutdatedCaches: true,
+				// Kept pages and data belong to one member (public/sw-user.js and the plugin below).
+				importScripts: ['/sw-user.js'],
 				runtimeCaching: [
 					{
 						urlPattern: ({ request, url }) =>
@@ -87,6 +110,7 @@ export default defineConfig({
 							networkTimeoutSeconds: 6,
 							expiration: { maxEntries: 60, maxAgeSeconds: 14 * 24 * 3600 },
 							cacheableResponse: { statuses: [200] },
+							plugins: [ownAnswersOnly],
 						},
 					},
 					{
@@ -100,6 +124,7 @@ export default defineConfig({
 							networkTimeoutSeconds: 6,
 							expiration: { maxEntries: 200, maxAgeSeconds: 14 * 24 * 3600 },
 							cacheableResponse: { statuses: [200] },
+							plugins: [ownAnswersOnly],
 						},
 					},
 				],

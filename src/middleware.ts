@@ -132,8 +132,28 @@ const attachUser = defineMiddleware(async (context, next) => {
 	if (!SKIP_SESSION.some((re) => re.test(normalPath(context.url.pathname)))) {
 		context.locals.user = toAppUser(await getSession(context.request));
 	}
-	return next();
+	const response = await next();
+	// Whose answer this is: the service worker keeps a copy for offline use only while that member
+	// is the one signed in on the device, and serves a kept copy only to them (public/sw-user.js).
+	const who = context.locals.user?.id;
+	return who ? withHeader(response, 'x-sagwise-user', who) : response;
 });
+
+/** The response with one more header (a copy when its headers are immutable). */
+function withHeader(response: Response, name: string, value: string): Response {
+	try {
+		response.headers.set(name, value);
+		return response;
+	} catch {
+		const headers = new Headers(response.headers);
+		headers.set(name, value);
+		return new Response(response.body, {
+			status: response.status,
+			statusText: response.statusText,
+			headers,
+		});
+	}
+}
 
 const APP_PAGES = [/^\/teams(\/|$)/, /^\/account(\/|$)/];
 

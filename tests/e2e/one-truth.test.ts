@@ -83,44 +83,60 @@ function expectedStrip(report: Ok): Record<string, string> {
 }
 
 describe('one truth per figure, in chromium', () => {
+	/** The demo captain, who only reads the demo team here. */
 	let captain: Browser;
-	let member: Browser;
+	/** A captain of a team of its own, where the vehicles these tests make and change live. */
+	let own: Browser;
 	let teamId: string;
+	let ownTeamId: string;
 	beforeAll(async () => {
 		captain = await openBrowser();
 		await signInToTeam(captain, appUrl, DEMO_USERS[0].email, DEMO_PASSWORD, DEMO_TEAM_NAME);
 		await captain.page.waitForURL(/\/teams\/[0-9a-f-]{36}/);
 		teamId = teamIdOf(captain);
-		member = await openBrowser();
-		await signInToTeam(member, appUrl, DEMO_USERS[1].email, DEMO_PASSWORD, DEMO_TEAM_NAME);
+		own = await openBrowser();
+		await own.page.goto(`${appUrl}/sign-up`);
+		await own.page.getByLabel('Your name').fill('Truth Captain');
+		await own.page.getByLabel('E-mail').fill(`truth-${Date.now()}@sagwise.test`);
+		await own.page.getByLabel('Password').fill('a truth long password');
+		await own.page.getByRole('button', { name: 'Create the account' }).click();
+		await own.page.waitForURL(/\/teams/);
+		await own.page.getByLabel('New team name').fill('Truth Test Crew');
+		await own.page.getByRole('button', { name: 'Create the team' }).click();
+		await own.page.getByRole('heading', { name: 'Truth Test Crew', level: 1 }).waitFor();
+		ownTeamId = teamIdOf(own);
 	});
 	afterAll(async () => {
 		await captain?.close();
-		await member?.close();
+		await own?.close();
 	});
 
 	it('reads each headline figure the same from the API, the served page, the live strip, the findings list, the inspector and the team page', async () => {
-		const { page } = captain;
 		const vehicles = (
 			await api<{ id: string; name: string }[]>(captain, 'GET', `/api/teams/${teamId}/vehicles`)
 		).body;
-		const generated = await vehicleWith(captain, teamId, 'Generated network 7', randomNetwork(7));
-		const cases = [
-			...['Pebble', 'Marlin', 'Old Oak'].map((n) => vehicles.find((v) => v.name === n)!.id),
-			generated.vehicleId,
+		const generated = await vehicleWith(own, ownTeamId, 'Generated network 7', randomNetwork(7));
+		const cases: { who: Browser; team: string; vehicleId: string }[] = [
+			...['Pebble', 'Marlin', 'Old Oak'].map((n) => ({
+				who: captain,
+				team: teamId,
+				vehicleId: vehicles.find((v) => v.name === n)!.id,
+			})),
+			{ who: own, team: ownTeamId, vehicleId: generated.vehicleId },
 		];
-		const teamHtml = await (await page.request.get(`${appUrl}/teams/${teamId}`)).text();
-		for (const vehicleId of cases) {
+		for (const { who, team: teamId, vehicleId } of cases) {
+			const page = who.page;
+			const teamHtml = await (await page.request.get(`${appUrl}/teams/${teamId}`)).text();
 			const revisions = (
 				await api<{ id: string; number: number }[]>(
-					captain,
+					who,
 					'GET',
 					`/api/teams/${teamId}/vehicles/${vehicleId}/revisions`,
 				)
 			).body;
 			const head = revisions.reduce((a, r) => (r.number > a.number ? r : a));
 			const fromApi = await api<{ report: Ok }>(
-				captain,
+				who,
 				'GET',
 				`/api/teams/${teamId}/vehicles/${vehicleId}/revisions/${head.id}/report`,
 			);
@@ -130,7 +146,7 @@ describe('one truth per figure, in chromium', () => {
 			// The page as the server sends it, before any script runs.
 			const url = `${appUrl}/teams/${teamId}/vehicles/${vehicleId}`;
 			const served = await (await page.request.get(url)).text();
-			await expect(stripTexts(captain, served), `served page of ${vehicleId}`).resolves.toEqual(
+			await expect(stripTexts(who, served), `served page of ${vehicleId}`).resolves.toEqual(
 				expected,
 			);
 
@@ -140,7 +156,7 @@ describe('one truth per figure, in chromium', () => {
 				state: 'attached',
 			});
 			await page.locator('[data-findings], [data-summary]').first().waitFor();
-			await expect(stripTexts(captain), `live strip of ${vehicleId}`).resolves.toEqual(expected);
+			await expect(stripTexts(who), `live strip of ${vehicleId}`).resolves.toEqual(expected);
 			// The findings list counts what the strip counts.
 			const h = headlineFigures(fromApi.body.report);
 			if (h.findings.danger + h.findings.warning > 0)
@@ -167,15 +183,16 @@ describe('one truth per figure, in chromium', () => {
 				await inspector.getByRole('button', { name: 'Close' }).click();
 			}
 			// The team page's card for the vehicle.
-			const text = await teamCardText(captain, teamHtml, `/teams/${teamId}/vehicles/${vehicleId}`);
+			const text = await teamCardText(who, teamHtml, `/teams/${teamId}/vehicles/${vehicleId}`);
 			expect(text).toContain(`Settles at, burp${expected.settle}`);
 			expect(text).toContain(`Lowest amplifier, burp${expected.lowest}`);
 			expect(text).toContain(`${h.findings.danger} danger ${h.findings.warning} warning`);
 		}
 		expect(captain.problems).toEqual([]);
+		expect(own.problems).toEqual([]);
 	});
 
-	it('re-opens a captain’s waiver when a member saves a revision that makes the item worse', async () => {
+	it('re-opens a captain’s waiver when a later revision makes the item worse', async () => {
 		// Pebble's front-to-rear run made twice as long: the drop target fails (by Ohm's law the run's
 		// drop doubles); three times as long, it fails worse.
 		const longer = (k: number) => {
@@ -184,13 +201,22 @@ describe('one truth per figure, in chromium', () => {
 			return d;
 		};
 		const { vehicleId, revisionId } = await vehicleWith(
-			captain,
-			teamId,
+			own,
+			ownTeamId,
 			'Waiver test car',
 			longer(2),
 		);
-		const { page } = captain;
-		await page.goto(`${appUrl}/teams/${teamId}/events`);
+		const tomorrow = new Date(Date.now() + 86_400_000).toISOString().slice(0, 10);
+		const event = await api(own, 'POST', `/api/teams/${ownTeamId}/events`, {
+			name: 'Next meet',
+			startsOn: tomorrow,
+			endsOn: tomorrow,
+			place: '',
+			format: '',
+		});
+		expect(event.status).toBe(201);
+		const { page } = own;
+		await page.goto(`${appUrl}/teams/${ownTeamId}/events`);
 		await page.getByRole('link', { name: 'Pre-event checks' }).first().click();
 		await page
 			.getByRole('navigation', { name: 'Vehicles' })
@@ -205,14 +231,14 @@ describe('one truth per figure, in chromium', () => {
 			.getByLabel('Why the team accepts this failing item')
 			.fill('Run shortened after this event; inspector agreed');
 		await drops.getByRole('button', { name: 'Waive with this reason' }).click();
-		await drops.getByText(/Waived by Demo Captain, .* on r1\./).waitFor();
+		await drops.getByText(/Waived by Truth Captain, .* on r1\./).waitFor();
 		await expect(drops.textContent()).resolves.toMatch(/fails, waived/);
 
-		// A member saves a revision with the run longer still.
+		// A later revision with the run longer still.
 		const worse = await api<{ number: number }>(
-			member,
+			own,
 			'POST',
-			`/api/teams/${teamId}/vehicles/${vehicleId}/revisions`,
+			`/api/teams/${ownTeamId}/vehicles/${vehicleId}/revisions`,
 			{ parentId: revisionId, message: 'Run rerouted the long way', document: longer(3) },
 		);
 		expect(worse.status).toBe(201);
@@ -228,16 +254,16 @@ describe('one truth per figure, in chromium', () => {
 			/worse than waived/,
 		);
 		await expect(page.locator('[data-banner]').getAttribute('data-banner')).resolves.toBe('open');
-		await captain.screenshot('checks-waiver-reopened');
-		expect(captain.problems).toEqual([]);
+		await own.screenshot('checks-waiver-reopened');
+		expect(own.problems).toEqual([]);
 	});
 
 	it('names a danger finding a plan brings in the comparison, withholds the best-value mark, and asks before installing', async () => {
-		const { vehicleId } = await vehicleWith(member, teamId, 'Plan danger car', pebbleBuild);
+		const { vehicleId } = await vehicleWith(own, ownTeamId, 'Plan danger car', pebbleBuild);
 		const created = await api<{ id: string; version: number; document: BuildDocument }>(
-			member,
+			own,
 			'POST',
-			`/api/teams/${teamId}/vehicles/${vehicleId}/plans`,
+			`/api/teams/${ownTeamId}/vehicles/${vehicleId}/plans`,
 			{ name: 'Second bank, no fuse' },
 		);
 		expect(created.status).toBe(201);
@@ -273,9 +299,9 @@ describe('one truth per figure, in chromium', () => {
 			},
 		);
 		const saved = await api(
-			member,
+			own,
 			'PUT',
-			`/api/teams/${teamId}/vehicles/${vehicleId}/plans/${created.body.id}`,
+			`/api/teams/${ownTeamId}/vehicles/${vehicleId}/plans/${created.body.id}`,
 			{
 				version: created.body.version,
 				name: 'Second bank, no fuse',
@@ -285,9 +311,9 @@ describe('one truth per figure, in chromium', () => {
 			},
 		);
 		expect(saved.status).toBe(200);
-		const { page } = member;
+		const { page } = own;
 		await page.goto(
-			`${appUrl}/teams/${teamId}/vehicles/${vehicleId}/plans?compare=${created.body.id}`,
+			`${appUrl}/teams/${ownTeamId}/vehicles/${vehicleId}/plans?compare=${created.body.id}`,
 		);
 		const dangers = page.locator(`[data-findings="${created.body.id}"] [data-added-dangers]`);
 		await dangers.waitFor();
@@ -305,25 +331,25 @@ describe('one truth per figure, in chromium', () => {
 		expect(questions[0]).toMatch(/Extra bank link/);
 		// Dismissed: nothing installed.
 		const revisions = await api<unknown[]>(
-			member,
+			own,
 			'GET',
-			`/api/teams/${teamId}/vehicles/${vehicleId}/revisions`,
+			`/api/teams/${ownTeamId}/vehicles/${vehicleId}/revisions`,
 		);
 		expect(revisions.body).toHaveLength(1);
-		await member.screenshot('comparison-danger-named');
-		expect(member.problems).toEqual([]);
+		await own.screenshot('comparison-danger-named');
+		expect(own.problems).toEqual([]);
 	});
 
 	it('a saved plan reads as saved, also after a reload', async () => {
-		const { vehicleId } = await vehicleWith(member, teamId, 'Plan save car', pebbleBuild);
+		const { vehicleId } = await vehicleWith(own, ownTeamId, 'Plan save car', pebbleBuild);
 		const created = await api<{ id: string }>(
-			member,
+			own,
 			'POST',
-			`/api/teams/${teamId}/vehicles/${vehicleId}/plans`,
+			`/api/teams/${ownTeamId}/vehicles/${vehicleId}/plans`,
 			{ name: 'Bigger run' },
 		);
-		const { page } = member;
-		await page.goto(`${appUrl}/teams/${teamId}/vehicles/${vehicleId}/plans/${created.body.id}`);
+		const { page } = own;
+		await page.goto(`${appUrl}/teams/${ownTeamId}/vehicles/${vehicleId}/plans/${created.body.id}`);
 		await page.waitForSelector('astro-island[component-export="PlanWorkspace"]:not([ssr])', {
 			state: 'attached',
 		});
@@ -339,12 +365,12 @@ describe('one truth per figure, in chromium', () => {
 		await expect(page.getByLabel('Plan name').inputValue()).resolves.toBe('Bigger run, 1/0');
 		await expect(page.getByText('● unsaved').count()).resolves.toBe(0);
 		await expect(page.getByText(/unsaved changes .* are back/).count()).resolves.toBe(0);
-		expect(member.problems).toEqual([]);
+		expect(own.problems).toEqual([]);
 	});
 
 	it('the new-event form keeps what was typed while its dates are set from the keyboard', async () => {
-		const { page } = captain;
-		await page.goto(`${appUrl}/teams/${teamId}/events`);
+		const { page } = own;
+		await page.goto(`${appUrl}/teams/${ownTeamId}/events`);
 		const form = page.getByRole('form', { name: 'Add an event' });
 		await form.scrollIntoViewIfNeeded();
 		await page.waitForSelector('astro-island[component-export="NewEventForm"]:not([ssr])', {
@@ -369,6 +395,6 @@ describe('one truth per figure, in chromium', () => {
 		await expect(values()).resolves.toEqual(['Harbour practice day', '2027-03-14', '2027-03-14']);
 		await page.keyboard.type('03152027');
 		await expect(values()).resolves.toEqual(['Harbour practice day', '2027-03-14', '2027-03-15']);
-		expect(captain.problems).toEqual([]);
+		expect(own.problems).toEqual([]);
 	});
 });

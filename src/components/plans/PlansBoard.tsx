@@ -124,8 +124,8 @@ function PlansBoardView({
 								<tr>
 									<th className="w-20 px-3 py-2 text-left">Compare</th>
 									<th className="px-3 py-2 text-left">Plan</th>
-									<th className="px-3 py-2 text-left">Starts from</th>
-									<th className="px-3 py-2 text-right">Parts</th>
+									<th className="px-3 py-2 text-left max-sm:hidden">Starts from</th>
+									<th className="px-3 py-2 text-right max-sm:hidden">Parts</th>
 									<th className="px-3 py-2 text-right">Cost</th>
 									<th className="px-3 py-2 text-left">Status</th>
 								</tr>
@@ -157,11 +157,11 @@ function PlansBoardView({
 												</a>
 												{p.notes && <p className="text-xs text-ink-soft">{p.notes}</p>}
 											</td>
-											<td className="px-3 py-2 text-ink-soft">
+											<td className="px-3 py-2 text-ink-soft max-sm:hidden">
 												{p.baseRevisionNumber ? `revision ${p.baseRevisionNumber}` : '—'} ·{' '}
 												{p.authorName ?? 'someone'}, <RelativeTime at={p.updatedAt} />
 											</td>
-											<td className="num px-3 py-2 text-right">{p.partCount}</td>
+											<td className="num px-3 py-2 text-right max-sm:hidden">{p.partCount}</td>
 											<td className="num px-3 py-2 text-right">{formatMoney(p.total, currency)}</td>
 											<td className="px-3 py-2">
 												{p.installedRevisionNumber ? (

@@ -10,6 +10,7 @@ import {
 	type SignoffEntry,
 	startOutbox,
 	useOnLeave,
+	useOthersOutbox,
 	useOutbox,
 } from '@/lib/client/outbox';
 import {
@@ -21,7 +22,7 @@ import {
 import { withQueryClient } from '@/lib/client/query-client';
 import { WAIVER_MIN_CHARS, type Checklist, type ChecklistItem } from '@/lib/schemas/checklist';
 import { Button, Field, FormMessage } from '@/components/ui/Field';
-import { OutboxList } from './OutboxList';
+import { OthersWaiting, OutboxList, SessionChangedNotice } from './OutboxList';
 import { useLocalFormat } from '@/lib/client/local-time';
 
 const ICON = {
@@ -65,6 +66,7 @@ export const ChecklistView = withQueryClient(function ChecklistView({
 			initialData: initial,
 		}).data ?? initial;
 	const setList = (l: Checklist) => qc.setQueryData(key, l);
+	const others = useOthersOutbox();
 	const pending = useOutbox().filter(
 		(e): e is SignoffEntry =>
 			e.kind === 'signoff' && e.eventId === list.eventId && e.vehicleId === list.vehicleId,
@@ -163,7 +165,14 @@ export const ChecklistView = withQueryClient(function ChecklistView({
 				Battery fuses within {formatShortDistance(list.fuseDistanceM, list.units)} (common practice,
 				no published source).
 			</p>
+			<SessionChangedNotice />
 			<OutboxList entries={pending} title="Sign-offs waiting to be sent" />
+			<OthersWaiting
+				entries={others.filter(
+					(e) =>
+						e.kind === 'signoff' && e.eventId === list.eventId && e.vehicleId === list.vehicleId,
+				)}
+			/>
 			<ol className="flex flex-col divide-y divide-hairline rounded-md border border-hairline bg-card">
 				{list.items.map((item) => {
 					const icon = iconOf(item);

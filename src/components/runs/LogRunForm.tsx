@@ -2,7 +2,7 @@ import { format, formatISO } from 'date-fns';
 import { useEffect, useState } from 'react';
 import { Button, Field, FormMessage } from '@/components/ui/Field';
 import { ApiError } from '@/lib/client/api-client';
-import { currentUserId, enqueue, isOffline } from '@/lib/client/outbox';
+import { currentUserId, enqueue, isOffline, onSent } from '@/lib/client/outbox';
 import { fieldErrors } from '@/lib/client/form-errors';
 import { type EventDto, useLogRun, useUploadLogger } from '@/lib/client/queries/runs';
 import { loggerColumns } from '@/lib/logger-csv';
@@ -40,6 +40,13 @@ export function LogRunForm({
 	// The device's own clock and zone: set once mounted, so the server's page and the first render agree.
 	const [ranAt, setRanAt] = useState('');
 	useEffect(() => setRanAt(now()), []);
+	// At the lanes the run belongs to the event happening today (by the device's own date): chosen
+	// for the member once mounted (the server does not know the device's day), changeable.
+	useEffect(() => {
+		const today = format(new Date(), 'yyyy-MM-dd');
+		const on = events.find((e) => e.startsOn <= today && today <= e.endsOn);
+		if (on) setEventId((current) => current || on.id);
+	}, [events]);
 	const [duplicateOf, setDuplicateOf] = useState<string | null>(null);
 	/** Made once per run being logged: a retry (or the outbox) sends the same key, never a second run. */
 	const [clientKey, setClientKey] = useState(() => crypto.randomUUID());
@@ -59,6 +66,16 @@ export function LogRunForm({
 	const [errors, setErrors] = useState<Record<string, string>>({});
 	const [progress, setProgress] = useState<number | null>(null);
 	const [message, setMessage] = useState<{ tone: 'ok' | 'error'; text: string } | null>(null);
+	/** The run last kept on the device: its notice gives way to "sent" once the outbox sends it. */
+	const [keptId, setKeptId] = useState<string | null>(null);
+	useEffect(() => {
+		if (!keptId) return;
+		return onSent((e) => {
+			if (e.id !== keptId) return;
+			setKeptId(null);
+			setMessage({ tone: 'ok', text: 'The run kept on this device has been sent.' });
+		});
+	}, [keptId]);
 
 	async function pick(f: File | null) {
 		setFile(f);
@@ -124,6 +141,7 @@ export function LogRunForm({
 				file: file ? { blob: file, name: file.name, mapping } : undefined,
 				runId,
 			});
+			setKeptId(clientKey);
 			clear();
 			setMessage({
 				tone: 'ok',
@@ -133,6 +151,8 @@ export function LogRunForm({
 			});
 			return true;
 		};
+		// No connection at all: kept at once, not after a request that cannot be answered.
+		if (typeof navigator !== 'undefined' && !navigator.onLine && (await keep())) return;
 		try {
 			let run;
 			try {
@@ -314,7 +334,7 @@ export function LogRunForm({
 						</div>
 					)}
 				</div>
-				<div className="flex items-center gap-3">
+				<div className="flex flex-wrap items-center gap-3">
 					<Button type="submit" busy={logRun.isPending || progress !== null}>
 						Log the run
 					</Button>

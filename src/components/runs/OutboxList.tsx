@@ -1,6 +1,13 @@
 import { format } from 'date-fns';
 import { Button } from '@/components/ui/Field';
-import { discard, type OutboxEntry, retry, sendOutbox } from '@/lib/client/outbox';
+import { useEffect, useState } from 'react';
+import {
+	discard,
+	onSessionChanged,
+	type OutboxEntry,
+	retry,
+	sendOutbox,
+} from '@/lib/client/outbox';
 import { fmt } from '@/lib/format';
 
 const STATE_WORDS: Record<OutboxEntry['state'], string> = {
@@ -91,5 +98,53 @@ export function OutboxList({ entries, title }: { entries: OutboxEntry[]; title: 
 				))}
 			</ul>
 		</section>
+	);
+}
+
+/**
+ * What other members left waiting on this device: whose, and how many, never what (a rival on a
+ * shared phone learns nothing of another team's runs). They go out when their author signs in.
+ */
+export function OthersWaiting({ entries }: { entries: OutboxEntry[] }) {
+	if (entries.length === 0) return null;
+	const byAuthor = new Map<string, number>();
+	for (const e of entries) {
+		const who = e.userName || 'another member';
+		byAuthor.set(who, (byAuthor.get(who) ?? 0) + 1);
+	}
+	return (
+		<p
+			className="rounded-md border border-hairline bg-paper p-2 text-xs text-ink-soft"
+			data-others-waiting
+		>
+			Also on this device, waiting for their author to sign in here again:{' '}
+			{[...byAuthor]
+				.map(([who, n]) => `${n} ${n === 1 ? 'entry' : 'entries'} by ${who}`)
+				.join(', ')}
+			. They are not sent with your session.
+		</p>
+	);
+}
+
+/**
+ * Said when the browser's session is no longer this page's member (signed out, or someone else
+ * signed in in another tab): this page's waiting entries stay on the device, unsent.
+ */
+export function SessionChangedNotice() {
+	const [changed, setChanged] = useState(false);
+	useEffect(() => onSessionChanged(() => setChanged(true)), []);
+	if (!changed) return null;
+	return (
+		<p
+			role="alert"
+			className="rounded-md border border-brick/40 bg-brick-tint p-2 text-sm"
+			data-session-changed
+		>
+			Someone else is signed in in this browser now. Entries made on this page stay on the device
+			and go out only when their author signs in again.{' '}
+			<a href="/teams" className="font-semibold underline">
+				Go to your teams
+			</a>
+		</p>
 	);
 }

@@ -2,6 +2,9 @@ import type { RunDto } from '@/lib/client/queries/runs';
 import { fmt } from '@/lib/format';
 import { MEASUREMENT_FIELDS, RUN_MEASUREMENTS } from '@/lib/schemas/run-measurements';
 import { runVoltage } from '@/lib/run-figures';
+
+/** On a phone the table keeps when, the score, the minimum voltage and the compare box in view. */
+const onPhone = (f: string) => (f === 'scoreDb' || f === 'minV' ? '' : 'max-sm:hidden');
 import { useLocalFormat } from '@/lib/client/local-time';
 
 /** The vehicle's runs, newest first: choose one to open it, and up to four to compare. */
@@ -46,14 +49,14 @@ export function RunsTable({
 						<thead className="bg-paper text-xs text-ink-soft">
 							<tr>
 								<th className="px-3 py-2 text-left">When</th>
-								<th className="px-3 py-2 text-left">Event</th>
-								<th className="px-3 py-2 text-left">Revision</th>
+								<th className="px-3 py-2 text-left max-sm:hidden">Event</th>
+								<th className="px-3 py-2 text-left max-sm:hidden">Revision</th>
 								{MEASUREMENT_FIELDS.map((f) => (
-									<th key={f} className="px-3 py-2 text-right">
+									<th key={f} className={`px-3 py-2 text-right ${onPhone(f)}`}>
 										{RUN_MEASUREMENTS[f].short}
 									</th>
 								))}
-								<th className="px-3 py-2 text-left">Logger</th>
+								<th className="px-3 py-2 text-left max-sm:hidden">Logger</th>
 								<th className="px-3 py-2 text-left">Compare</th>
 							</tr>
 						</thead>
@@ -76,10 +79,12 @@ export function RunsTable({
 											<span className="whitespace-nowrap">{fmtTime(r.ranAt, 'HH:mm')}</span>
 										</button>
 									</td>
-									<td className="px-3 py-1.5 font-sans">
+									<td className="px-3 py-1.5 font-sans max-sm:hidden">
 										{r.eventName ?? <span className="text-ink-soft">practice</span>}
 									</td>
-									<td className="px-3 py-1.5">{r.revisionNumber ? `r${r.revisionNumber}` : '—'}</td>
+									<td className="px-3 py-1.5 max-sm:hidden">
+										{r.revisionNumber ? `r${r.revisionNumber}` : '—'}
+									</td>
 									{MEASUREMENT_FIELDS.map((f) => {
 										// Voltages from the logger file where the run has one, the typed figure beside.
 										const v =
@@ -87,7 +92,7 @@ export function RunsTable({
 												? runVoltage(r, f)
 												: { value: r[f], fromLogger: false, typed: null };
 										return (
-											<td key={f} className="px-3 py-1.5 text-right">
+											<td key={f} className={`px-3 py-1.5 text-right ${onPhone(f)}`}>
 												{fmt(v.value, RUN_MEASUREMENTS[f].decimals)}{' '}
 												<span className="text-xs text-ink-soft">{RUN_MEASUREMENTS[f].unit}</span>
 												{v.typed !== null && (
@@ -101,7 +106,9 @@ export function RunsTable({
 											</td>
 										);
 									})}
-									<td className="px-3 py-1.5 font-sans">{r.hasLogger ? '✓ file' : '—'}</td>
+									<td className="px-3 py-1.5 font-sans max-sm:hidden">
+										{r.hasLogger ? '✓ file' : '—'}
+									</td>
 									<td className="px-3 py-1.5 font-sans" onClick={(e) => e.stopPropagation()}>
 										<label className="flex items-center gap-1 text-xs">
 											<input

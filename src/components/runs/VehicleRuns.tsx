@@ -1,6 +1,6 @@
 import { QueryClientProvider, useQuery, useQueryClient } from '@tanstack/react-query';
 import { useEffect, useState } from 'react';
-import { onSent, startOutbox, useOnLeave, useOutbox } from '@/lib/client/outbox';
+import { onSent, startOutbox, useOnLeave, useOthersOutbox, useOutbox } from '@/lib/client/outbox';
 import { getQueryClient } from '@/lib/client/query-client';
 import {
 	type EventDto,
@@ -12,7 +12,7 @@ import { fmt } from '@/lib/format';
 import { runVoltage } from '@/lib/run-figures';
 import type { RevisionSummary } from '@/lib/schemas/vehicles';
 import { LogRunForm } from './LogRunForm';
-import { OutboxList } from './OutboxList';
+import { OthersWaiting, OutboxList, SessionChangedNotice } from './OutboxList';
 import { RunTraceComparison } from './RunTraceComparison';
 import { RunDetailPanel } from './RunDetailPanel';
 import { ScoresOverTimeChart, ScoreVsVoltageChart } from './RunCharts';
@@ -54,6 +54,7 @@ export function VehicleRunsView({
 	const fmtTime = useLocalFormat();
 	const qc = useQueryClient();
 	const waiting = useOutbox().filter((e) => e.kind === 'run' && e.vehicleId === vehicleId);
+	const others = useOthersOutbox().filter((e) => e.kind === 'run' && e.vehicleId === vehicleId);
 	useOnLeave(
 		waiting.map((e) => e.id),
 		() => void qc.invalidateQueries({ queryKey: runKeys.byVehicle(vehicleId) }),
@@ -87,7 +88,9 @@ export function VehicleRunsView({
 				/>
 			)}
 
+			<SessionChangedNotice />
 			<OutboxList entries={waiting} title="Runs waiting to be sent" />
+			<OthersWaiting entries={others} />
 			<RunsTable
 				teamId={teamId}
 				vehicleId={vehicleId}

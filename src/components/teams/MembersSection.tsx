@@ -41,13 +41,13 @@ export function MembersSection({
 							<th scope="col" className="px-4 py-2">
 								Name
 							</th>
-							<th scope="col" className="px-4 py-2">
+							<th scope="col" className="px-4 py-2 max-sm:hidden">
 								E-mail
 							</th>
 							<th scope="col" className="px-4 py-2">
 								Role
 							</th>
-							<th scope="col" className="px-4 py-2">
+							<th scope="col" className="px-4 py-2 max-sm:hidden">
 								Joined
 							</th>
 							{captain && (
@@ -60,13 +60,17 @@ export function MembersSection({
 					<tbody>
 						{members.data.map((m) => (
 							<tr key={m.userId} className="border-b border-hairline last:border-0">
-								<td className="px-4 py-2 font-semibold">
+								<td className="px-4 py-2 font-semibold break-words max-sm:px-2">
 									{m.name ?? '—'}{' '}
 									{m.userId === myUserId && (
 										<span className="ml-1 rounded bg-paper px-1.5 text-xs text-ink-soft">you</span>
 									)}
+									{/* On a phone the e-mail sits under the name, so role and Remove stay in view. */}
+									<span className="block text-xs font-normal break-all text-ink-soft sm:hidden">
+										{m.email}
+									</span>
 								</td>
-								<td className="px-4 py-2">{m.email}</td>
+								<td className="px-4 py-2 max-sm:hidden">{m.email}</td>
 								<td className="px-4 py-2">
 									{captain ? (
 										<select
@@ -88,7 +92,7 @@ export function MembersSection({
 										<span className="capitalize">{m.role}</span>
 									)}
 								</td>
-								<td className="px-4 py-2 text-ink-soft">
+								<td className="px-4 py-2 text-ink-soft max-sm:hidden">
 									<RelativeTime at={m.joinedAt} />
 								</td>
 								{captain && (

@@ -78,7 +78,7 @@ export function Button({
 	}[variant];
 	return (
 		<button
-			className={`inline-flex items-center justify-center gap-2 rounded-md px-4 py-2 font-semibold disabled:opacity-60 ${styles} ${className}`}
+			className={`inline-flex shrink-0 items-center justify-center gap-2 rounded-md px-4 py-2 font-semibold whitespace-nowrap disabled:opacity-60 ${styles} ${className}`}
 			disabled={busy || rest.disabled}
 			aria-busy={busy || undefined}
 			{...rest}

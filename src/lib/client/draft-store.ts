@@ -1,9 +1,12 @@
 import type { BuildDocument } from '@/engine';
+import { pageUserId } from '@/lib/client/current-user';
 
 /**
  * Unsaved work lives in the browser until it is saved, so a reload, a crash or a lost connection
- * loses nothing. One store per kind of draft, keyed by the thing being edited; storage that is
- * full or disabled leaves the draft in memory only (never an error).
+ * loses nothing. One store per kind of draft, keyed by the signed-in member and the thing being
+ * edited (a vehicle or plan, which belongs to one team): on a shared phone nobody is offered
+ * someone else's edits, and signed out nothing is kept (`forgetDraftsExcept`). Storage that is full
+ * or disabled leaves the draft in memory only (never an error).
  */
 export interface DraftStore<T> {
 	load(id: string): (T & { savedAt: string }) | null;
@@ -11,21 +14,30 @@ export interface DraftStore<T> {
 	clear(id: string): void;
 }
 
-export function draftStore<T>(prefix: string): DraftStore<T> {
-	const key = (id: string) => `sagwise.${prefix}.${id}`;
+const DRAFT_PREFIXES = ['draft', 'plan-draft'] as const;
+
+export function draftStore<T>(prefix: (typeof DRAFT_PREFIXES)[number]): DraftStore<T> {
+	const key = (id: string) => {
+		const user = pageUserId();
+		return user ? `sagwise.${prefix}.${user}.${id}` : null;
+	};
 	return {
 		load(id) {
+			const k = key(id);
+			if (!k) return null;
 			try {
-				const raw = window.localStorage.getItem(key(id));
+				const raw = window.localStorage.getItem(k);
 				return raw ? (JSON.parse(raw) as T & { savedAt: string }) : null;
 			} catch {
 				return null;
 			}
 		},
 		store(id, draft) {
+			const k = key(id);
+			if (!k) return;
 			try {
 				window.localStorage.setItem(
-					key(id),
+					k,
 					JSON.stringify({ ...draft, savedAt: new Date().toISOString() }),
 				);
 			} catch {
@@ -33,13 +45,37 @@ export function draftStore<T>(prefix: string): DraftStore<T> {
 			}
 		},
 		clear(id) {
+			const k = key(id);
+			if (!k) return;
 			try {
-				window.localStorage.removeItem(key(id));
+				window.localStorage.removeItem(k);
 			} catch {
 				// storage disabled: nothing to clear
 			}
 		},
 	};
+}
+
+/**
+ * Removes every draft on this device that is not the given member's (all of them when null: on
+ * sign-out, and before another member's first page). Drafts from before they were filed by
+ * member belong to nobody known and go too.
+ */
+export function forgetDraftsExcept(userId: string | null): void {
+	try {
+		const store = window.localStorage;
+		const doomed: string[] = [];
+		for (let i = 0; i < store.length; i++) {
+			const k = store.key(i);
+			if (!k) continue;
+			const prefix = DRAFT_PREFIXES.find((p) => k.startsWith(`sagwise.${p}.`));
+			if (!prefix) continue;
+			if (userId === null || !k.startsWith(`sagwise.${prefix}.${userId}.`)) doomed.push(k);
+		}
+		for (const k of doomed) store.removeItem(k);
+	} catch {
+		// storage disabled: nothing kept, nothing to forget
+	}
 }
 
 /** A build's draft: the revision it started from, the edited document and the message typed so far. */

@@ -2,6 +2,7 @@ import { createStore, del, entries, set } from 'idb-keyval';
 import { useEffect, useRef, useSyncExternalStore } from 'react';
 import { api, ApiError } from '@/lib/client/api-client';
 import type { NewRun } from '@/lib/client/queries/runs';
+import { liveUserId, pageUserId, pageUserName } from '@/lib/client/current-user';
 
 /**
  * Writes made with no connection wait here, on the device (IndexedDB), until the server has them.
@@ -26,6 +27,8 @@ interface EntryBase {
 	vehicleId: string;
 	/** Who made it: only their session sends it (another member signed in on the phone does not). */
 	userId: string;
+	/** Their name, to say whose entries wait when someone else is signed in on the device. */
+	userName?: string | null;
 	/** When the member made it, on this device. */
 	createdAt: string;
 	/**
@@ -64,6 +67,13 @@ const store = () => createStore('sagwise-outbox', 'entries');
 let snapshot: OutboxEntry[] = [];
 const listeners = new Set<() => void>();
 const sentListeners = new Set<(e: OutboxEntry, result: unknown) => void>();
+const sessionListeners = new Set<(liveUserId: string) => void>();
+
+/** Called when this page's member is no longer the one signed in (the page is someone else's now). */
+export function onSessionChanged(listener: (liveUserId: string) => void): () => void {
+	sessionListeners.add(listener);
+	return () => sessionListeners.delete(listener);
+}
 
 /** Other tabs of the app hear of every change, so each shows what the device holds now. */
 const channel =
@@ -85,7 +95,7 @@ async function put(entry: OutboxEntry) {
 
 /** Keeps a write on the device until it can be sent; tries at once when online. */
 export async function enqueue(entry: OutboxEntry): Promise<void> {
-	await put(entry);
+	await put({ ...entry, userName: entry.userName ?? pageUserName() });
 	void sendOutbox();
 }
 
@@ -153,8 +163,17 @@ export function sendOutbox(): Promise<void> {
 	if (running) return running;
 	const work = async () => {
 		await reload();
-		const me = currentUserId();
-		for (const e of snapshot.filter((x) => x.state === 'waiting' && x.userId === me)) {
+		if (!snapshot.some((x) => x.state === 'waiting')) return;
+		// Whose session the request would carry is asked of the server at send time, not read from
+		// the page: a tab left open after a sign-out (or another member's sign-in in another tab)
+		// still says its old member. Only the live session's author's entries go; the rest wait.
+		const live = await liveUserId();
+		if (!live) return;
+		if (live !== pageUserId()) {
+			for (const l of sessionListeners) l(live);
+			return;
+		}
+		for (const e of snapshot.filter((x) => x.state === 'waiting' && x.userId === live)) {
 			try {
 				if (e.kind === 'run') await sendRun(e);
 				else await sendSignoff(e);
@@ -206,9 +225,7 @@ function subscribe(l: () => void) {
 const EMPTY: OutboxEntry[] = [];
 
 /** The signed-in member's id, as the page states it (BaseLayout's body element). */
-export function currentUserId(): string | null {
-	return typeof document === 'undefined' ? null : (document.body.dataset.userId ?? null);
-}
+export const currentUserId = pageUserId;
 
 /** The signed-in member's entries waiting on this device (filter by vehicle or event where shown). */
 export function useOutbox(): OutboxEntry[] {
@@ -219,6 +236,20 @@ export function useOutbox(): OutboxEntry[] {
 	);
 	const me = currentUserId();
 	return me ? all.filter((e) => e.userId === me) : EMPTY;
+}
+
+/**
+ * Entries on this device made by other members (another member used this phone): never shown in
+ * full here, never sent with this member's session; the page says whose they are.
+ */
+export function useOthersOutbox(): OutboxEntry[] {
+	const all = useSyncExternalStore(
+		subscribe,
+		() => snapshot,
+		() => EMPTY,
+	);
+	const me = currentUserId();
+	return all.filter((e) => e.userId !== me);
 }
 
 let started = false;
