@@ -12,6 +12,7 @@ import * as plan from '../../src/pages/api/teams/[teamId]/vehicles/[vehicleId]/p
 import * as install from '../../src/pages/api/teams/[teamId]/vehicles/[vehicleId]/plans/[planId]/install';
 import * as revisions from '../../src/pages/api/teams/[teamId]/vehicles/[vehicleId]/revisions/index';
 import { callEndpoint, type EndpointModule, jsonRequest } from '../helpers/container';
+import { withUnfusedBank } from '../helpers/networks';
 import { addMember, localsFor, makeTeam, makeUser } from '../helpers/fixtures';
 import { createTestDb, type TestDb } from '../helpers/test-db';
 
@@ -343,46 +344,7 @@ describe('upgrade plans', () => {
 	});
 
 	it('names a danger finding a plan brings, never marks it best value, and installs it only once confirmed', async () => {
-		// A third bank joined to the rear bank's post by a cable with no fuse at either battery end:
-		// the fusing rule (common practice, no published source) makes it a danger finding.
-		const withBank = (d: BuildDocument): BuildDocument => ({
-			...d,
-			nodes: [
-				...d.nodes,
-				{ id: 'extra_pos', label: 'Extra bank +', kind: 'battery' },
-				{ id: 'extra_neg', label: 'Extra bank −', kind: 'battery' },
-			],
-			banks: [
-				...d.banks,
-				{
-					...d.banks[1]!,
-					id: 'extra',
-					label: 'Extra bank',
-					positive: 'extra_pos',
-					negative: 'extra_neg',
-				},
-			],
-			cables: [
-				...d.cables,
-				{
-					...d.cables[0]!,
-					id: 'extra_link',
-					label: 'Extra bank link',
-					from: 'extra_pos',
-					to: 'rear_pos',
-					fuses: [],
-				},
-				{
-					...d.cables[0]!,
-					id: 'extra_gnd',
-					label: 'Extra bank ground',
-					from: 'extra_neg',
-					to: 'chassis',
-					fuses: [],
-				},
-			],
-		});
-		const p = await newPlan('Unfused extra bank', withBank, [
+		const p = await newPlan('Unfused extra bank', withUnfusedBank, [
 			{ item: 'AGM battery', quantity: 1, unitPrice: 10 },
 		]);
 		const cmp = await call(compare, 'GET', {}, undefined, `?plans=${p.id}`);

@@ -122,6 +122,17 @@ describe('events, runs and logger uploads (PostgreSQL + the S3 fake)', () => {
 				{ vehicleId, ranAt, scoreDb: 142.3, restingV: 12.8, minV: 11.9, allowDuplicate: true },
 			)
 		).json()) as { id: string; revisionId: string };
+	/** How many runs the database holds with a client key. */
+	const rowsWithKey = async (clientKey: string) =>
+		Number(
+			(
+				await t.db
+					.selectFrom('run')
+					.select((eb) => eb.fn.countAll().as('n'))
+					.where('client_key', '=', clientKey)
+					.executeTakeFirstOrThrow()
+			).n,
+		);
 	const storedKeys = async (runId: string) =>
 		(
 			await t.db
@@ -220,12 +231,7 @@ describe('events, runs and logger uploads (PostgreSQL + the S3 fake)', () => {
 		const retry = await call(runs, 'POST', {}, keyed);
 		expect([first.status, retry.status]).toEqual([201, 200]);
 		expect((await retry.json()).id).toBe((await first.json()).id);
-		const made = await t.db
-			.selectFrom('run')
-			.select((eb) => eb.fn.countAll().as('n'))
-			.where('client_key', '=', clientKey)
-			.executeTakeFirstOrThrow();
-		expect(Number(made.n)).toBe(1);
+		expect(await rowsWithKey(clientKey)).toBe(1);
 	});
 
 	it('answers ten identical posts made at once with one run, all 2xx, and a different key still asks', async () => {
@@ -239,12 +245,7 @@ describe('events, runs and logger uploads (PostgreSQL + the S3 fake)', () => {
 		expect(statuses.every((s) => s === 200 || s === 201)).toBe(true);
 		const ids = new Set(await Promise.all(answers.map(async (a) => (await a.json()).id)));
 		expect(ids.size).toBe(1);
-		const made = await t.db
-			.selectFrom('run')
-			.select((eb) => eb.fn.countAll().as('n'))
-			.where('client_key', '=', clientKey)
-			.executeTakeFirstOrThrow();
-		expect(Number(made.n)).toBe(1);
+		expect(await rowsWithKey(clientKey)).toBe(1);
 		// Another device's run at the same second with the same score is still a likely duplicate.
 		const other = await call(runs, 'POST', {}, { ...keyed, clientKey: crypto.randomUUID() });
 		expect(other.status).toBe(409);

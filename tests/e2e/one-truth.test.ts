@@ -4,8 +4,8 @@ import { DEMO_PASSWORD, DEMO_TEAM_NAME, DEMO_USERS } from '../../db/seed';
 import { type BuildReport, headlineFigures } from '../../src/engine';
 import type { BuildDocument } from '../../src/engine/types';
 import { fmt } from '../../src/lib/format';
-import { type Browser, openBrowser, signInToTeam } from '../helpers/browser';
-import { randomNetwork } from '../helpers/networks';
+import { type Browser, openBrowser, signInToTeam, signUpWithTeam } from '../helpers/browser';
+import { randomNetwork, withUnfusedBank } from '../helpers/networks';
 
 const appUrl = inject('appUrl');
 type Ok = Extract<BuildReport, { ok: true }>;
@@ -95,15 +95,12 @@ describe('one truth per figure, in chromium', () => {
 		await captain.page.waitForURL(/\/teams\/[0-9a-f-]{36}/);
 		teamId = teamIdOf(captain);
 		own = await openBrowser();
-		await own.page.goto(`${appUrl}/sign-up`);
-		await own.page.getByLabel('Your name').fill('Truth Captain');
-		await own.page.getByLabel('E-mail').fill(`truth-${Date.now()}@sagwise.test`);
-		await own.page.getByLabel('Password').fill('a truth long password');
-		await own.page.getByRole('button', { name: 'Create the account' }).click();
-		await own.page.waitForURL(/\/teams/);
-		await own.page.getByLabel('New team name').fill('Truth Test Crew');
-		await own.page.getByRole('button', { name: 'Create the team' }).click();
-		await own.page.getByRole('heading', { name: 'Truth Test Crew', level: 1 }).waitFor();
+		await signUpWithTeam(own, appUrl, {
+			name: 'Truth Captain',
+			email: `truth-${Date.now()}@sagwise.test`,
+			password: 'a truth long password',
+			team: 'Truth Test Crew',
+		});
 		ownTeamId = teamIdOf(own);
 	});
 	afterAll(async () => {
@@ -267,37 +264,7 @@ describe('one truth per figure, in chromium', () => {
 			{ name: 'Second bank, no fuse' },
 		);
 		expect(created.status).toBe(201);
-		const d = structuredClone(created.body.document);
-		const bank = d.banks[d.banks.length - 1]!;
-		d.nodes.push(
-			{ id: 'extra_pos', label: 'Extra bank +', kind: 'battery' },
-			{ id: 'extra_neg', label: 'Extra bank −', kind: 'battery' },
-		);
-		d.banks.push({
-			...bank,
-			id: 'extra',
-			label: 'Extra bank',
-			positive: 'extra_pos',
-			negative: 'extra_neg',
-		});
-		d.cables.push(
-			{
-				...d.cables[0]!,
-				id: 'extra_link',
-				label: 'Extra bank link',
-				from: 'extra_pos',
-				to: bank.positive,
-				fuses: [],
-			},
-			{
-				...d.cables[0]!,
-				id: 'extra_gnd',
-				label: 'Extra bank ground',
-				from: 'extra_neg',
-				to: 'chassis',
-				fuses: [],
-			},
-		);
+		const d = withUnfusedBank(created.body.document);
 		const saved = await api(
 			own,
 			'PUT',

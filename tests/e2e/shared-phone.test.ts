@@ -1,7 +1,7 @@
 import { afterAll, describe, expect, inject, it } from 'vitest';
 import { pebbleBuild } from '../../db/demo/builds';
 import { DEMO_PASSWORD, DEMO_TEAM_NAME, DEMO_USERS } from '../../db/seed';
-import { type Browser, openBrowser, signInToTeam } from '../helpers/browser';
+import { type Browser, openBrowser, signInToTeam, signUpWithTeam } from '../helpers/browser';
 
 const appUrl = inject('appUrl');
 
@@ -31,17 +31,13 @@ async function signOut(b: Browser) {
 }
 
 /** A member of another team: a fresh account that makes its own team. */
-async function signUpRival(b: Browser, email: string) {
-	await b.page.goto(`${appUrl}/sign-up`);
-	await b.page.getByLabel('Your name').fill('Rival Builder');
-	await b.page.getByLabel('E-mail').fill(email);
-	await b.page.getByLabel('Password').fill('a rival long password');
-	await b.page.getByRole('button', { name: 'Create the account' }).click();
-	await b.page.waitForURL(/\/teams/);
-	await b.page.getByLabel('New team name').fill('Rival Crew');
-	await b.page.getByRole('button', { name: 'Create the team' }).click();
-	await b.page.getByRole('heading', { name: 'Rival Crew', level: 1 }).waitFor();
-}
+const signUpRival = (b: Browser, email: string) =>
+	signUpWithTeam(b, appUrl, {
+		name: 'Rival Builder',
+		email,
+		password: 'a rival long password',
+		team: 'Rival Crew',
+	});
 
 describe('a shared phone at the lanes, in chromium', () => {
 	let b: Browser | undefined;
@@ -182,6 +178,19 @@ describe('a shared phone at the lanes, in chromium', () => {
 			await expect(within(runs.getByRole('columnheader', { name: 'Score' }))).resolves.toBe(true);
 			await expect(within(runs.getByRole('columnheader', { name: 'Minimum' }))).resolves.toBe(true);
 			await c.screenshot('phone-runs');
+
+			// The day on one screen: today's event, the checks open, the way to log, the last scores.
+			await p.goto(`${appUrl}/teams/${teamId}/day`);
+			await p.getByRole('heading', { name: 'Today: Lanes today' }).waitFor();
+			const card = p.locator(`[data-day-vehicle="${vehicleId}"]`);
+			await expect(card.getByRole('link', { name: 'Log a run' }).isVisible()).resolves.toBe(true);
+			await expect(
+				card.getByRole('link', { name: /checks open|checks done/ }).count(),
+			).resolves.toBe(1);
+			await expect(card.textContent()).resolves.toMatch(/147\.4 dB/);
+			const cardBox = (await card.boundingBox())!;
+			expect(cardBox.y + cardBox.height).toBeLessThanOrEqual(844);
+			await c.screenshot('phone-day');
 
 			expect(c.problems.filter((x) => !/ERR_INTERNET_DISCONNECTED/.test(x))).toEqual([]);
 

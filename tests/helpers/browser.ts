@@ -101,3 +101,20 @@ export async function openVehicleRuns(
 		state: 'attached',
 	});
 }
+
+/** A fresh account that makes a team of its own (for tests that change what they touch). */
+export async function signUpWithTeam(
+	b: Browser,
+	appUrl: string,
+	who: { name: string; email: string; password: string; team: string },
+): Promise<void> {
+	await b.page.goto(`${appUrl}/sign-up`);
+	await b.page.getByLabel('Your name').fill(who.name);
+	await b.page.getByLabel('E-mail').fill(who.email);
+	await b.page.getByLabel('Password').fill(who.password);
+	await b.page.getByRole('button', { name: 'Create the account' }).click();
+	await b.page.waitForURL(/\/teams/);
+	await b.page.getByLabel('New team name').fill(who.team);
+	await b.page.getByRole('button', { name: 'Create the team' }).click();
+	await b.page.getByRole('heading', { name: who.team, level: 1 }).waitFor();
+}

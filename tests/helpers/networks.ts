@@ -254,3 +254,40 @@ export function randomNetwork(seed: number, opts: RandomNetworkOptions = {}): Bu
 	void totalW;
 	return { schemaVersion: 1, nodes, banks, alternators, amplifiers, loads, cables };
 }
+
+/**
+ * The document with one more bank, a copy of its last, joined to that bank's positive by a cable
+ * with no fuse at either battery end (and grounded likewise): by the fusing rule (common practice,
+ * no published source) a danger finding the original does not have.
+ */
+export function withUnfusedBank(d: BuildDocument): BuildDocument {
+	const bank = d.banks[d.banks.length - 1]!;
+	const template = d.cables[0]!;
+	return {
+		...d,
+		nodes: [...d.nodes, node('extra_pos', 'battery'), node('extra_neg', 'battery')],
+		banks: [
+			...d.banks,
+			{ ...bank, id: 'extra', label: 'Extra bank', positive: 'extra_pos', negative: 'extra_neg' },
+		],
+		cables: [
+			...d.cables,
+			{
+				...template,
+				id: 'extra_link',
+				label: 'Extra bank link',
+				from: 'extra_pos',
+				to: bank.positive,
+				fuses: [],
+			},
+			{
+				...template,
+				id: 'extra_gnd',
+				label: 'Extra bank ground',
+				from: 'extra_neg',
+				to: 'chassis',
+				fuses: [],
+			},
+		],
+	};
+}

@@ -227,13 +227,18 @@ const EMPTY: OutboxEntry[] = [];
 /** The signed-in member's id, as the page states it (BaseLayout's body element). */
 export const currentUserId = pageUserId;
 
-/** The signed-in member's entries waiting on this device (filter by vehicle or event where shown). */
-export function useOutbox(): OutboxEntry[] {
-	const all = useSyncExternalStore(
+/** Every entry on the device, as a React store. */
+function useAllEntries(): OutboxEntry[] {
+	return useSyncExternalStore(
 		subscribe,
 		() => snapshot,
 		() => EMPTY,
 	);
+}
+
+/** The signed-in member's entries waiting on this device (filter by vehicle or event where shown). */
+export function useOutbox(): OutboxEntry[] {
+	const all = useAllEntries();
 	const me = currentUserId();
 	return me ? all.filter((e) => e.userId === me) : EMPTY;
 }
@@ -243,13 +248,8 @@ export function useOutbox(): OutboxEntry[] {
  * full here, never sent with this member's session; the page says whose they are.
  */
 export function useOthersOutbox(): OutboxEntry[] {
-	const all = useSyncExternalStore(
-		subscribe,
-		() => snapshot,
-		() => EMPTY,
-	);
 	const me = currentUserId();
-	return all.filter((e) => e.userId !== me);
+	return useAllEntries().filter((e) => e.userId !== me);
 }
 
 let started = false;

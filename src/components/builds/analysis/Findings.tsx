@@ -9,7 +9,11 @@ export function WarningList({ warnings }: { warnings: ReportWarning[] }) {
 	return (
 		<ul className="flex flex-col gap-1">
 			{warnings.map((w, i) => (
-				<li key={i} className={`text-xs ${w.severity === 'danger' ? 'text-brick' : 'text-ink'}`}>
+				<li
+					key={i}
+					className={`text-xs ${w.severity === 'danger' ? 'text-brick' : 'text-ink'}`}
+					data-finding={w.severity}
+				>
 					<span aria-hidden="true">{w.severity === 'danger' ? '✕ ' : '⚠ '}</span>
 					<span className="sr-only">
 						{w.severity === 'danger' ? 'Safety finding: ' : 'Warning: '}
@@ -45,22 +49,9 @@ export function Findings({ warnings }: { warnings: ReportWarning[] }) {
 					{counts.danger} danger · {counts.warning} warning{counts.warning === 1 ? '' : 's'}
 				</span>
 			</h2>
-			<ul className="mt-2 flex flex-col gap-1">
-				{all.map((w, i) => (
-					<li
-						key={i}
-						className={`text-xs ${w.severity === 'danger' ? 'text-brick' : 'text-ink'}`}
-						data-finding={w.severity}
-					>
-						<span aria-hidden="true">{w.severity === 'danger' ? '✕ ' : '⚠ '}</span>
-						<span className="sr-only">
-							{w.severity === 'danger' ? 'Safety finding: ' : 'Warning: '}
-						</span>
-						{w.message}
-					</li>
-				))}
-				{safety && <li className="text-xs italic text-ink-soft">{SAFETY_LINE}</li>}
-			</ul>
+			<div className="mt-2">
+				<WarningList warnings={all} />
+			</div>
 		</section>
 	);
 }
