@@ -1,6 +1,6 @@
 // @vitest-environment jsdom
-import { afterEach, describe, expect, it, vi } from 'vitest';
-import { buildDrafts, planDrafts } from '@/lib/client/draft-store';
+import { afterEach, beforeEach, describe, expect, it, vi } from 'vitest';
+import { buildDrafts, forgetDraftsExcept, planDrafts } from '@/lib/client/draft-store';
 import type { BuildDocument } from '@/engine';
 
 const doc = {
@@ -13,6 +13,13 @@ const doc = {
 	cables: [],
 } as BuildDocument;
 
+/** The member the page is for, as BaseLayout states it on the body. */
+const signedIn = (id: string | null) => {
+	if (id) document.body.dataset.userId = id;
+	else delete document.body.dataset.userId;
+};
+
+beforeEach(() => signedIn('member-a'));
 afterEach(() => {
 	vi.restoreAllMocks();
 	window.localStorage.clear();
@@ -48,7 +55,35 @@ describe('draft store', () => {
 			buildDrafts.store('v1', { baseRevisionId: null, document: doc, message: '' }),
 		).not.toThrow();
 		vi.restoreAllMocks();
-		window.localStorage.setItem('sagwise.draft.v9', '{not json');
+		window.localStorage.setItem('sagwise.draft.member-a.v9', '{not json');
 		expect(buildDrafts.load('v9')).toBeNull();
+	});
+
+	it('offers a draft only to the member who made it, and keeps none signed out', () => {
+		buildDrafts.store('v1', { baseRevisionId: 'r3', document: doc, message: 'by A' });
+		signedIn('member-b');
+		expect(buildDrafts.load('v1')).toBeNull();
+		buildDrafts.store('v1', { baseRevisionId: 'r3', document: doc, message: 'by B' });
+		signedIn('member-a');
+		expect(buildDrafts.load('v1')!.message).toBe('by A');
+		signedIn(null);
+		expect(buildDrafts.load('v1')).toBeNull();
+		buildDrafts.store('v2', { baseRevisionId: null, document: doc, message: 'nobody' });
+		expect(Object.keys(window.localStorage).filter((k) => k.includes('v2'))).toEqual([]);
+	});
+
+	it('forgets every other member’s drafts, and all of them at sign-out', () => {
+		buildDrafts.store('v1', { baseRevisionId: null, document: doc, message: 'A' });
+		signedIn('member-b');
+		planDrafts.store('p1', { version: 1, name: 'B plan', notes: '', document: doc, parts: [] });
+		window.localStorage.setItem('sagwise.draft.v7', '{}'); // from before drafts were filed by member
+		window.localStorage.setItem('sagwise.units', 'metric'); // not a draft: kept
+		forgetDraftsExcept('member-b');
+		expect(Object.keys(window.localStorage).sort()).toEqual([
+			'sagwise.plan-draft.member-b.p1',
+			'sagwise.units',
+		]);
+		forgetDraftsExcept(null);
+		expect(Object.keys(window.localStorage)).toEqual(['sagwise.units']);
 	});
 });

@@ -116,7 +116,7 @@ describe('every schema-valid document solves or is refused by name', () => {
 			}),
 			{ numRuns: 300 },
 		);
-	});
+	}, 60_000);
 
 	// The case that once threw a bare Error: a 1 µΩ alternator at its limit and a full bank that
 	// accepts no charge. Every source sits at a limit, so the Newton step sees only the 1 nS
