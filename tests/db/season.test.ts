@@ -4,7 +4,7 @@ import { DEMO_EVENTS, DEMO_RUNS } from '../../db/demo/runs';
 import { DEMO_USERS, seedDemo } from '../../db/seed';
 import { buildReport, headlineFigures } from '../../src/engine';
 import { upsertSignoff } from '../../src/lib/server/db/checklists';
-import { insertRun } from '../../src/lib/server/db/runs';
+import { findRuns, insertRun } from '../../src/lib/server/db/runs';
 import { loadChecklist } from '../../src/lib/server/checklist';
 import { loadSeason } from '../../src/lib/server/season';
 import { createTestDb, type TestDb } from '../helpers/test-db';
@@ -96,6 +96,17 @@ describe('the team page’s season at a glance', () => {
 			'Demo Member logged a run: 149.1 dB at 11.95 V · Marlin',
 		]);
 		expect(after.vehicles[0]!.lastRun?.scoreDb).toBe(149.1);
+		// A run with a logger file reads the logger's minimum in the activity and on the card, as
+		// everywhere else (the demo's Marlin finals run: typed 11.7 V).
+		const finals = after.activity.find(
+			(a) => a.kind === 'run' && a.vehicleName === 'Marlin' && /Season Finals/.test(a.text),
+		)!;
+		const logged = (await findRuns(t.db, teamId, { vehicleId: marlin.id })).find(
+			(r) => r.eventName === 'Season Finals',
+		)!;
+		expect(logged.logger).not.toBeNull();
+		expect(finals.text).toContain(`at ${logged.logger!.minV.toFixed(2)} V`);
+		expect(finals.text).not.toContain('at 11.70 V');
 		expect(after.vehicles[0]!.nextChecks!.outstanding).toBe(
 			before.vehicles[0]!.nextChecks!.outstanding - 1,
 		);

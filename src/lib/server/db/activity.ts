@@ -1,6 +1,7 @@
 import { type Kysely, sql } from 'kysely';
 import { CHECK_TITLES } from '@/engine';
 import type { Database } from '@/lib/server/db/schema';
+import { runVoltage } from '@/lib/run-figures';
 
 type Db = Kysely<Database>;
 
@@ -66,6 +67,7 @@ export async function findRecentActivity(
 				'r.ran_at',
 				'r.score_db',
 				'r.min_v',
+				'r.logger_min_v',
 				'v.id as vehicle_id',
 				'v.name as vehicle_name',
 				'e.name as event_name',
@@ -136,7 +138,7 @@ export async function findRecentActivity(
 			who: who(r.name, r.email, null),
 			vehicleId: r.vehicle_id,
 			vehicleName: r.vehicle_name,
-			text: `logged a run${r.event_name ? ` at ${r.event_name}` : ''}${r.score_db !== null ? `: ${r.score_db.toFixed(1)} dB` : ''}${r.min_v !== null ? ` at ${r.min_v.toFixed(2)} V` : ''}`,
+			text: `logged a run${r.event_name ? ` at ${r.event_name}` : ''}${r.score_db !== null ? `: ${r.score_db.toFixed(1)} dB` : ''}${minOf(r) !== null ? ` at ${minOf(r)!.toFixed(2)} V` : ''}`,
 		})),
 		...signoffs.map((s) => {
 			const item = s.manual_label ?? CHECK_TITLES[s.item_key] ?? s.item_key;
@@ -159,4 +161,16 @@ export async function findRecentActivity(
 		})),
 	];
 	return entries.sort((a, b) => b.at.getTime() - a.at.getTime()).slice(0, limit);
+}
+
+/** A run's minimum voltage as every view shows it: the logger file's where there is one. */
+function minOf(r: { min_v: number | null; logger_min_v: number | null }): number | null {
+	return runVoltage(
+		{
+			minV: r.min_v,
+			restingV: null,
+			logger: r.logger_min_v === null ? null : { minV: r.logger_min_v, restingV: null },
+		},
+		'minV',
+	).value;
 }
