@@ -39,6 +39,8 @@ describe('pre-event checklist in chromium', () => {
 		const manual = page.getByRole('listitem').filter({ hasText: 'Battery hold-downs torqued' });
 		await manual.getByRole('button', { name: 'Sign off' }).click();
 		await manual.getByText(/Signed off by Demo Member/).waitFor();
+		// Signed, the manual item reads as signed off, no longer "to check".
+		await expect(manual.textContent()).resolves.toMatch(/\(manual, signed off\)/);
 		await expect(status.textContent()).resolves.toMatch(/2 items still open/);
 
 		await page.emulateMedia({ media: 'print' });
