@@ -188,6 +188,8 @@ describe('a shared phone at the lanes, in chromium', () => {
 				card.getByRole('link', { name: /checks open|checks done/ }).count(),
 			).resolves.toBe(1);
 			await expect(card.textContent()).resolves.toMatch(/147\.4 dB/);
+			// The vehicle this member last logged for on this phone comes first, marked.
+			await expect(card.locator('[data-last-used]').isVisible()).resolves.toBe(true);
 			const cardBox = (await card.boundingBox())!;
 			expect(cardBox.y + cardBox.height).toBeLessThanOrEqual(844);
 			await c.screenshot('phone-day');

@@ -3,6 +3,7 @@ import { useEffect, useState } from 'react';
 import { Button, Field, FormMessage } from '@/components/ui/Field';
 import { ApiError } from '@/lib/client/api-client';
 import { currentUserId, enqueue, isOffline, onSent } from '@/lib/client/outbox';
+import { lastVehicles } from '@/lib/client/draft-store';
 import { fieldErrors } from '@/lib/client/form-errors';
 import { type EventDto, useLogRun, useUploadLogger } from '@/lib/client/queries/runs';
 import { loggerColumns } from '@/lib/logger-csv';
@@ -142,6 +143,7 @@ export function LogRunForm({
 				runId,
 			});
 			setKeptId(clientKey);
+			lastVehicles.store(teamId, { vehicleId });
 			clear();
 			setMessage({
 				tone: 'ok',
@@ -174,6 +176,8 @@ export function LogRunForm({
 				setProgress(null);
 			}
 			onLogged(run.id);
+			// Remembered on this device, for this member: the day page puts this vehicle first.
+			lastVehicles.store(teamId, { vehicleId });
 			clear();
 			setMessage(
 				note

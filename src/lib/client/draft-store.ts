@@ -14,9 +14,10 @@ export interface DraftStore<T> {
 	clear(id: string): void;
 }
 
-const DRAFT_PREFIXES = ['draft', 'plan-draft'] as const;
+/** What this device keeps per member in localStorage: drafts, and the vehicle last logged for. */
+const MEMBER_PREFIXES = ['draft', 'plan-draft', 'last-vehicle'] as const;
 
-export function draftStore<T>(prefix: (typeof DRAFT_PREFIXES)[number]): DraftStore<T> {
+export function draftStore<T>(prefix: (typeof MEMBER_PREFIXES)[number]): DraftStore<T> {
 	const key = (id: string) => {
 		const user = pageUserId();
 		return user ? `sagwise.${prefix}.${user}.${id}` : null;
@@ -57,9 +58,9 @@ export function draftStore<T>(prefix: (typeof DRAFT_PREFIXES)[number]): DraftSto
 }
 
 /**
- * Removes every draft on this device that is not the given member's (all of them when null: on
- * sign-out, and before another member's first page). Drafts from before they were filed by
- * member belong to nobody known and go too.
+ * Removes every draft (and every other per-member note) on this device that is not the given
+ * member's (all of them when null: on sign-out, and before another member's first page). Drafts
+ * from before they were filed by member belong to nobody known and go too.
  */
 export function forgetDraftsExcept(userId: string | null): void {
 	try {
@@ -68,7 +69,7 @@ export function forgetDraftsExcept(userId: string | null): void {
 		for (let i = 0; i < store.length; i++) {
 			const k = store.key(i);
 			if (!k) continue;
-			const prefix = DRAFT_PREFIXES.find((p) => k.startsWith(`sagwise.${p}.`));
+			const prefix = MEMBER_PREFIXES.find((p) => k.startsWith(`sagwise.${p}.`));
 			if (!prefix) continue;
 			if (userId === null || !k.startsWith(`sagwise.${prefix}.${userId}.`)) doomed.push(k);
 		}
@@ -96,3 +97,6 @@ export interface PlanDraft {
 
 export const buildDrafts = draftStore<BuildDraft>('draft');
 export const planDrafts = draftStore<PlanDraft>('plan-draft');
+
+/** The vehicle a member last logged a run for, per team (the day page puts it first). */
+export const lastVehicles = draftStore<{ vehicleId: string }>('last-vehicle');
