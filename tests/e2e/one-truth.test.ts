@@ -316,10 +316,17 @@ describe('one truth per figure, in chromium', () => {
 			{ name: 'Bigger run' },
 		);
 		const { page } = own;
-		await page.goto(`${appUrl}/teams/${ownTeamId}/vehicles/${vehicleId}/plans/${created.body.id}`);
+		const planUrl = `${appUrl}/teams/${ownTeamId}/vehicles/${vehicleId}/plans/${created.body.id}`;
+		// The server sends the plan page without working out its figures (no engine work on its
+		// request thread); the browser works them out once the page is live.
+		const served = await (await page.request.get(planUrl)).text();
+		expect(served).toContain('Working out the figures');
+		expect(served).not.toContain('data-summary');
+		await page.goto(planUrl);
 		await page.waitForSelector('astro-island[component-export="PlanWorkspace"]:not([ssr])', {
 			state: 'attached',
 		});
+		await page.locator('[data-summary]').waitFor();
 		await page.getByLabel('Plan name').fill('Bigger run, 1/0');
 		await page.getByText('● unsaved').waitFor();
 		await page.getByRole('button', { name: 'Save plan' }).click();

@@ -21,6 +21,7 @@ import { Inspector, type Selection } from './Inspector';
 import { NetworkDiagram } from './NetworkDiagram';
 import { PartEditor } from './PartEditor';
 import { useDeferredAnalysis } from './use-deferred-analysis';
+import { useHydrated } from '@/lib/client/use-hydrated';
 
 /**
  * Answers about saved revisions, by revision id and what else they depend on: a revision never
@@ -82,6 +83,12 @@ export interface WorkbenchProps {
 	baselineRevisionId?: string | null;
 	/** Shown in the sticky summary (the build page's unsaved-changes note and way to Save). */
 	summaryExtra?: React.ReactNode;
+	/**
+	 * Whether the figures are worked out during the server's render. The build page's saved head is
+	 * (its answers are kept per revision); a plan's document is not, so the plan page leaves all
+	 * engine work to the browser once the island is live, never to the server's request thread.
+	 */
+	computeOnServer?: boolean;
 }
 
 const KIND_GROUP = {
@@ -109,7 +116,10 @@ export function Workbench({
 	baseline = null,
 	baselineRevisionId = null,
 	summaryExtra,
+	computeOnServer = true,
 }: WorkbenchProps) {
+	const hydrated = useHydrated();
+	const canCompute = computeOnServer || hydrated;
 	const [scenario, setScenario] = useState<Scenario>(DEFAULT_SCENARIO);
 	const [selection, setSelection] = useState<Selection | null>(null);
 	const setSelectionFromDiagram = useMemo(
@@ -119,16 +129,16 @@ export function Workbench({
 	const valid = !checking && Object.keys(errors).length === 0;
 	const report = useMemo(
 		() =>
-			valid
+			valid && canCompute
 				? reportOf(draft, scenario, units, draft === baseline ? baselineRevisionId : null)
 				: null,
-		[draft, scenario, valid, units, baseline, baselineRevisionId],
+		[draft, scenario, valid, canCompute, units, baseline, baselineRevisionId],
 	);
 	const baseReport = useMemo(() => {
-		if (!baseline) return null;
+		if (!baseline || !canCompute) return null;
 		const r = reportOf(baseline, scenario, units, baselineRevisionId);
 		return r.ok ? r : null;
-	}, [baseline, scenario, units, baselineRevisionId]);
+	}, [baseline, scenario, units, baselineRevisionId, canCompute]);
 	// The heavy part (burp, upgrades) runs in the engine worker once typing pauses.
 	const { burp, hints, sweep } = useDeferredAnalysis(draft, scenario, valid);
 
@@ -166,7 +176,9 @@ export function Workbench({
 
 			{/* Always one line tall, error or not: a message appearing here must not push the part being edited down the page. */}
 			<div className="h-16 overflow-hidden sm:h-11 [&_p>span:last-child]:line-clamp-2">
-				{valid ? (
+				{valid && !canCompute ? (
+					<FormMessage tone="info">Working out the figures…</FormMessage>
+				) : valid ? (
 					<FormMessage tone="info">Every field reads: the figures below are current.</FormMessage>
 				) : checking ? (
 					<FormMessage tone="info">Checking your change…</FormMessage>

@@ -511,6 +511,8 @@ function PlanWorkspaceView({
 				subject="plan"
 				baseline={baseDocument}
 				onChange={(next) => setDraft(next)}
+				// A plan's figures are worked out in the browser, never on the server's request thread.
+				computeOnServer={false}
 			/>
 		</div>
 	);
