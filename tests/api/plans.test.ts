@@ -373,6 +373,26 @@ describe('upgrade plans', () => {
 		expect(confirmed.status).toBe(201);
 	});
 
+	it('refuses a hostile list of accepted findings before anything is computed or saved', async () => {
+		const head = (await findHeadRevision(t.db, buildId))!;
+		const p = await newPlan('Hostile accept', upsized, []);
+		for (const acceptDangers of [
+			['over_capacity|cable|run\u0000'],
+			Array.from({ length: 501 }, (_, i) => `k${i}`),
+			'not a list',
+		]) {
+			const res = await call(
+				install,
+				'POST',
+				{ planId: p.id },
+				{ parentId: head.id, acceptDangers },
+			);
+			expect(res.status).toBe(400);
+			expect((await res.json()).errors[0].path).toMatch(/^acceptDangers/);
+		}
+		expect((await findHeadRevision(t.db, buildId))!.id).toBe(head.id);
+	});
+
 	it('refuses a nameless plan and a starting revision of another vehicle, naming the field', async () => {
 		const before = (await (await call(plans, 'GET')).json()).length;
 		const nameless = await call(plans, 'POST', {}, { name: '   ' });
