@@ -59,12 +59,24 @@ export default tseslint.config(
 		},
 	},
 	{
+		// zod through src/lib/zod.ts, which keeps it from probing `new Function` in the browser.
+		files: ['src/**/*.{ts,tsx}'],
+		ignores: ['src/lib/zod.ts'],
+		rules: {
+			'no-restricted-imports': [
+				'error',
+				{ paths: [{ name: 'zod', message: "Import z from '@/lib/zod'" }] },
+			],
+		},
+	},
+	{
 		// Islands and the browser data layer see the contract (src/lib/schemas), never server code.
 		files: ['src/components/**', 'src/lib/client/**'],
 		rules: {
 			'no-restricted-imports': [
 				'error',
 				{
+					paths: [{ name: 'zod', message: "Import z from '@/lib/zod'" }],
 					patterns: [
 						{
 							group: ['@/lib/server/*', '**/lib/server/*'],

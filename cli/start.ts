@@ -90,6 +90,7 @@ async function main() {
 		PORT: String(port),
 		DATABASE_URL: databaseUrl,
 		AUTH_SECRET: process.env.AUTH_SECRET ?? secrets.AUTH_SECRET,
+		SAGWISE_METRICS_TOKEN: process.env.SAGWISE_METRICS_TOKEN ?? secrets.METRICS_TOKEN,
 		AUTH_TRUST_HOST: process.env.AUTH_TRUST_HOST ?? 'true',
 		PUBLIC_URL: publicUrl,
 		SMTP_URL: smtpUrl,
@@ -127,6 +128,7 @@ async function main() {
 		`  Demo sign-ins (password ${DEMO_PASSWORD}):`,
 		...DEMO_USERS.map((u) => `    ${u.role.padEnd(8)} ${u.email}`),
 		...(devOutbox ? [`  Mail the app sends:  ${publicUrl}/dev/outbox`] : []),
+		`  Metrics:             ${publicUrl}/api/metrics (bearer token: METRICS_TOKEN in .data/secrets.json)`,
 		'  Ctrl-C stops the server and the services it started.',
 		rule,
 	];

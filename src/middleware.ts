@@ -4,7 +4,12 @@ import { toAppUser } from '@/lib/server/auth';
 import { db } from '@/lib/server/db/index';
 import { problem, unavailable } from '@/lib/server/http';
 import { signInLimited } from '@/lib/server/rate-limit';
-import { runWithRequest } from '@/lib/server/request-context';
+import { randomUUID } from 'node:crypto';
+import { busyAnswer } from '@/lib/server/engine/cache';
+import { EngineBusy, isAbort } from '@/lib/server/engine/pool';
+import { errorField, log } from '@/lib/server/log';
+import { httpDuration } from '@/lib/server/metrics';
+import { noteRequestActor, runWithRequest } from '@/lib/server/request-context';
 import { pageCache } from '@/lib/server/page-cache';
 import { securityHeaders } from '@/lib/server/security-headers';
 import { config, mailer, storage } from '@/lib/server/services';
@@ -36,40 +41,82 @@ export const normalPath = (pathname: string) =>
 		.replace(/(.)\/+$/, '$1')
 		.toLowerCase();
 
+/** A request id the client sent that is safe to carry on (else we make our own). */
+const SAFE_REQUEST_ID = /^[\w.:-]{8,64}$/;
+
+const TEAM_IN_PATH = /^\/(?:api\/)?teams\/([0-9a-f-]{36})(?:\/|$)/i;
+
 /**
- * The outermost layer: security headers on every answer, the client's address for code that runs
- * inside libraries, and a 503 problem (not an HTML 500) while the database or the file store is
- * down; any other failure of an API route answers a problem too.
+ * The outermost layer: a request id (the client's `x-request-id` when it is a plain token, else a
+ * fresh one) on every log line of the request, in the `x-request-id` header of the answer and in
+ * every problem body; one access-log line and one latency observation per request; security
+ * headers on every answer; a 503 problem (not an HTML 500) while the database or the file store is
+ * down, or with Retry-After while the engine's line is full; any other failure of an API route
+ * answers a problem too.
  */
 const guardResponses = defineMiddleware(async (context, next) => {
+	const began = performance.now();
 	const https = context.url.protocol === 'https:';
 	const api = normalPath(context.url.pathname).startsWith('/api/');
+	const sent = context.request.headers.get('x-request-id') ?? '';
+	const requestId = SAFE_REQUEST_ID.test(sent) ? sent : randomUUID();
+	const facts = { client: clientOf(context), requestId };
 	// `//api/...` is no route of ours: refuse it plainly rather than let it reach a page.
 	if (/\/\//.test(context.url.pathname))
-		return securityHeaders(problem(404, 'not_found', 'No such page'), https);
+		return securityHeaders(
+			runWithRequest(facts, () => problem(404, 'not_found', 'No such page')),
+			https,
+		);
 	let response: Response;
+	let failure: unknown;
 	try {
-		response = await runWithRequest({ client: clientOf(context) }, () => next());
+		response = await runWithRequest(facts, () => next());
 	} catch (error) {
-		if (isDatabaseUnavailable(error)) response = unavailable('database');
-		else if (isStorageUnavailable(error)) response = unavailable('storage');
-		else if (api) {
-			console.error(`${context.request.method} ${context.url.pathname} failed:`, error);
-			response = problem(
-				500,
-				'internal',
-				'Something went wrong on our side. Nothing may have been saved; try again.',
+		failure = error;
+		response = await runWithRequest(facts, () => {
+			if (isDatabaseUnavailable(error)) return unavailable('database');
+			if (isStorageUnavailable(error)) return unavailable('storage');
+			if (error instanceof EngineBusy) return busyAnswer(error);
+			// The client went away while its page was computed: nobody reads this answer.
+			if (isAbort(error) && context.request.signal.aborted)
+				return new Response(null, { status: 499 });
+			if (api)
+				return problem(
+					500,
+					'internal',
+					'Something went wrong on our side. Nothing may have been saved; try again.',
+				);
+			log.error(
+				{ method: context.request.method, route: context.routePattern, err: errorField(error) },
+				'page failed',
 			);
-		} else throw error;
+			throw error;
+		});
 		if (response.status === 503) {
-			console.error(
-				`${context.request.method} ${context.url.pathname}: ${(error as Error).message}`,
-			);
 			if (!api && (context.request.headers.get('accept') ?? '').includes('text/html'))
 				response = unavailablePage(response);
 		}
 	}
-	return securityHeaders(response, https);
+	response = withHeader(securityHeaders(response, https), 'x-request-id', requestId);
+	const route = context.routePattern || 'unmatched';
+	const seconds = (performance.now() - began) / 1000;
+	httpDuration.observe(
+		{ route, method: context.request.method, status: `${Math.floor(response.status / 100)}xx` },
+		seconds,
+	);
+	runWithRequest(facts, () => {
+		const line = {
+			method: context.request.method,
+			route,
+			status: response.status,
+			ms: Math.round(seconds * 1000),
+			...(failure !== undefined && { err: errorField(failure) }),
+		};
+		if (response.status >= 500 && response.status !== 503) log.error(line, 'request failed');
+		else if (failure !== undefined) log.warn(line, 'request refused');
+		else log.info(line, 'request');
+	});
+	return response;
 });
 
 /** A person opening a page while a service is down gets a page that says so, not JSON. */
@@ -132,6 +179,11 @@ const attachUser = defineMiddleware(async (context, next) => {
 	if (!SKIP_SESSION.some((re) => re.test(normalPath(context.url.pathname)))) {
 		context.locals.user = toAppUser(await getSession(context.request));
 	}
+	// Ids only, for the logs of the rest of this request (access is checked by each route).
+	noteRequestActor({
+		userId: context.locals.user?.id,
+		teamId: TEAM_IN_PATH.exec(context.url.pathname)?.[1]?.toLowerCase(),
+	});
 	const response = await next();
 	// Whose answer this is: the service worker keeps a copy for offline use only while that member
 	// is the one signed in on the device, and serves a kept copy only to them (public/sw-user.js).

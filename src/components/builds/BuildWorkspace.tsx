@@ -27,10 +27,18 @@ export interface BuildWorkspaceProps {
 	vehicleName: string;
 	canEdit: boolean;
 	head: RevisionDto | null;
-	/** The server's field check of `head` (empty when it reads): the page need not load its own. */
-	headErrors?: Record<string, string>;
+	/**
+	 * The server's field check of `head` (empty when it reads): the page need not load its own.
+	 * Null when the server could not check it (the engine was busy): the browser checks it then.
+	 */
+	headErrors?: Record<string, string> | null;
 	revisions: RevisionSummary[];
 	units: UnitSystem;
+	/**
+	 * Whether the server worked out the saved head's figures for the first render (in the engine's
+	 * pool). When it did not (no head, or the engine was busy) the browser works them out once live.
+	 */
+	figuresServed?: boolean;
 }
 
 const NO_ERRORS: Record<string, string> = {};
@@ -52,6 +60,7 @@ export function BuildWorkspaceView({
 	headErrors = NO_ERRORS,
 	revisions: initialRevisions,
 	units: initialUnits,
+	figuresServed = false,
 }: BuildWorkspaceProps) {
 	const saveRevision = useSaveRevision(teamId, vehicleId);
 	const setUnitsOnAccount = useSetUnits();
@@ -105,12 +114,15 @@ export function BuildWorkspaceView({
 	// A document the server handed over was checked there (the first head by this page's render, a
 	// saved or conflicting one by the save); any other draft by the field check, once it is in.
 	const { check, want } = useDraftCheck();
-	const checked = head !== null && draft === head.document;
+	const checked =
+		head !== null &&
+		draft === head.document &&
+		(head.id !== initialHead?.id || headErrors !== null);
 	const errors = useMemo(
 		() =>
 			checked
 				? head.id === initialHead?.id
-					? headErrors
+					? (headErrors ?? NO_ERRORS)
 					: NO_ERRORS
 				: check
 					? check.validateDraft(draft)
@@ -364,6 +376,7 @@ export function BuildWorkspaceView({
 				canEdit={canEdit}
 				baseline={head ? baseDoc : null}
 				baselineRevisionId={head?.id ?? null}
+				computeOnServer={figuresServed}
 				summaryExtra={
 					// Always one line tall (a change appearing must not move the page under the cursor).
 					canEdit &&

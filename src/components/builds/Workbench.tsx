@@ -42,10 +42,29 @@ export function rememberForRevision<T>(key: string, make: () => T): T {
 	return made;
 }
 
+/** An answer about a saved revision when one is in place (no work). */
+export const peekForRevision = <T,>(key: string): T | undefined =>
+	bySavedRevision.get(key) as T | undefined;
+
+/** Puts an answer about a saved revision in place (the server's page, from the engine's pool). */
+export function primeForRevision<T>(key: string, value: T): void {
+	bySavedRevision.set(key, value);
+	if (bySavedRevision.size > 64) bySavedRevision.delete(bySavedRevision.keys().next().value!);
+}
+
+const reportKey = (scenario: Scenario, units: UnitSystem) => `${JSON.stringify(scenario)}|${units}`;
+
+/** Where the build page's server leaves its saved head's report for the first render. */
+export const savedReportKey = (revisionId: string, units: UnitSystem) =>
+	`report|${revisionId}|${reportKey(DEFAULT_SCENARIO, units)}`;
+
+const onServer = typeof window === 'undefined';
+
 /**
  * The report of a document under a scenario, remembered per document object (an unedited draft is
  * its baseline, so the page as first served solves once) and, for a saved revision's own document,
- * by its id across renders.
+ * by its id across renders. On the server nothing is solved here: a saved head's report is put in
+ * place beforehand by the page, from the engine's pool (null when it is not).
  */
 const reports = new WeakMap<BuildDocument, Map<string, ReturnType<typeof buildReport>>>();
 function reportOf(
@@ -53,8 +72,14 @@ function reportOf(
 	scenario: Scenario,
 	units: UnitSystem,
 	revisionId: string | null,
-) {
-	const key = `${JSON.stringify(scenario)}|${units}`;
+): ReturnType<typeof buildReport> | null {
+	const key = reportKey(scenario, units);
+	if (onServer) {
+		const k = `report|${revisionId}|${key}`;
+		return revisionId && bySavedRevision.has(k)
+			? (bySavedRevision.get(k) as ReturnType<typeof buildReport>)
+			: null;
+	}
 	let byKey = reports.get(doc);
 	if (!byKey) reports.set(doc, (byKey = new Map()));
 	let r = byKey.get(key);
@@ -84,9 +109,10 @@ export interface WorkbenchProps {
 	/** Shown in the sticky summary (the build page's unsaved-changes note and way to Save). */
 	summaryExtra?: React.ReactNode;
 	/**
-	 * Whether the figures are worked out during the server's render. The build page's saved head is
-	 * (its answers are kept per revision); a plan's document is not, so the plan page leaves all
-	 * engine work to the browser once the island is live, never to the server's request thread.
+	 * Whether the first render shows figures. The build page's server puts its saved head's report
+	 * in place from the engine's pool first (and says so here); a plan page does not, so its
+	 * figures are worked out in the browser once the island is live. The server's request thread
+	 * never solves anything.
 	 */
 	computeOnServer?: boolean;
 }
@@ -116,7 +142,7 @@ export function Workbench({
 	baseline = null,
 	baselineRevisionId = null,
 	summaryExtra,
-	computeOnServer = true,
+	computeOnServer = false,
 }: WorkbenchProps) {
 	const hydrated = useHydrated();
 	const canCompute = computeOnServer || hydrated;
@@ -137,7 +163,7 @@ export function Workbench({
 	const baseReport = useMemo(() => {
 		if (!baseline || !canCompute) return null;
 		const r = reportOf(baseline, scenario, units, baselineRevisionId);
-		return r.ok ? r : null;
+		return r?.ok ? r : null;
 	}, [baseline, scenario, units, baselineRevisionId, canCompute]);
 	// The heavy part (burp, upgrades) runs in the engine worker once typing pauses.
 	const { burp, hints, sweep } = useDeferredAnalysis(draft, scenario, valid);

@@ -1,4 +1,4 @@
-import type { z } from 'zod';
+import type { z } from '@/lib/zod';
 
 /** zod issues as { field: message }, first message per field. */
 export function fieldErrors(error: z.ZodError): Record<string, string> {

@@ -1,4 +1,4 @@
-import { z } from 'zod';
+import { z } from '@/lib/zod';
 import { lineText } from './text';
 
 export const emailSchema = z

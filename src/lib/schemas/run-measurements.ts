@@ -1,4 +1,4 @@
-import { z } from 'zod';
+import { z } from '@/lib/zod';
 
 /**
  * What a run measured: the one definition. The run table's columns, the API's fields and their

@@ -1,4 +1,4 @@
-import { z } from 'zod';
+import { z } from '@/lib/zod';
 import { buildDocumentSchema } from './build-document';
 import { measurementNumbersShape } from './run-measurements';
 

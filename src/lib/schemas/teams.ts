@@ -1,4 +1,4 @@
-import { z } from 'zod';
+import { z } from '@/lib/zod';
 
 export const roleSchema = z.enum(['captain', 'member', 'viewer']);
 export type Role = z.infer<typeof roleSchema>;

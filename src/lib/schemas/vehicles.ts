@@ -1,4 +1,4 @@
-import { z } from 'zod';
+import { z } from '@/lib/zod';
 import { lineText, notesText } from './text';
 import type { BuildDocument } from '@/engine';
 import { buildDocumentSchema } from './build-document';

@@ -45,10 +45,13 @@ export async function loadChecklist(
 		findCheckItems(db, teamId),
 	]);
 	const computed = revision
-		? revisionFigures(
-				{ id: revision.id, document: revision.document as BuildDocument },
-				fuseDistanceM,
-				units,
+		? (
+				await revisionFigures(
+					{ id: revision.id, document: revision.document as BuildDocument },
+					fuseDistanceM,
+					units,
+					{ team: teamId },
+				)
 			).checks
 		: null;
 	return {
@@ -194,15 +197,26 @@ export async function checklistCounts(
 		.filter((id): id is string => !!id && !cachedRevisionFigures(id, fuseDistanceM, units));
 	const documents = await findRevisionDocuments(db, missing);
 	const counts = new Map<string, { outstanding: number; total: number }>();
+	const figures = new Map(
+		await Promise.all(
+			vehicleIds.map(async (vehicleId) => {
+				const revisionId = inForce.get(vehicleId);
+				const document = revisionId ? documents.get(revisionId) : undefined;
+				const found = revisionId
+					? (cachedRevisionFigures(revisionId, fuseDistanceM, units) ??
+						(document
+							? await revisionFigures({ id: revisionId, document }, fuseDistanceM, units, {
+									team: teamId,
+								})
+							: null))
+					: null;
+				return [vehicleId, found?.checks ?? null] as const;
+			}),
+		),
+	);
 	for (const vehicleId of vehicleIds) {
 		const revisionId = inForce.get(vehicleId);
-		const document = revisionId ? documents.get(revisionId) : undefined;
-		const computed = revisionId
-			? ((
-					cachedRevisionFigures(revisionId, fuseDistanceM, units) ??
-					(document ? revisionFigures({ id: revisionId, document }, fuseDistanceM, units) : null)
-				)?.checks ?? null)
-			: null;
+		const computed = figures.get(vehicleId) ?? null;
 		const items = checklistItems(
 			computed,
 			manual,

@@ -1,6 +1,7 @@
-import type { z } from 'zod';
+import type { z } from '@/lib/zod';
 import { findControlCharacter, NOTES_MESSAGE } from '@/lib/schemas/text';
 import { BodyTooLargeError, MAX_JSON_BYTES, readBytes } from './body';
+import { currentRequestId } from './request-context';
 
 export type ErrorCode =
 	| 'invalid_input'
@@ -25,6 +26,7 @@ export type ErrorCode =
 	| 'unsupported_version'
 	| 'too_large'
 	| 'storage_unavailable'
+	| 'engine_busy'
 	| 'internal';
 
 export interface FieldError {
@@ -54,6 +56,7 @@ export interface ProblemBody {
 	code: ErrorCode;
 	detail: string;
 	errors?: FieldError[];
+	requestId?: string;
 }
 
 /** An RFC 9457 problem-details response with a stable lower-snake `code` extension. */
@@ -74,6 +77,8 @@ export function problem(
 		code,
 		detail,
 		errors,
+		// The request's id, as in the server's logs: what a member quotes when reporting a problem.
+		requestId: currentRequestId(),
 	};
 	return new Response(JSON.stringify(body), {
 		status,

@@ -2,6 +2,7 @@ import type { Kysely } from 'kysely';
 import type { Database } from '@/lib/server/db/schema';
 import { knownObjectKeys } from './db/files';
 import type { Storage } from './storage';
+import { errorField, log } from './log';
 
 /**
  * Every object a team owns lives under `teams/<team id>/` (the server makes every key itself), so
@@ -16,7 +17,7 @@ export async function removeTeamObjects(storage: Storage, teamId: string): Promi
 			removed++;
 		}
 	} catch (error) {
-		console.error(`team ${teamId}: stored files left for the sweep:`, (error as Error).message);
+		log.warn({ teamId, err: errorField(error) }, 'stored files left for the sweep');
 	}
 	return removed;
 }
@@ -27,7 +28,7 @@ export async function removeObjects(storage: Storage, keys: string[]): Promise<v
 		await storage
 			.remove(key)
 			.catch((error) =>
-				console.error(`stored file ${key} left for the sweep:`, (error as Error).message),
+				log.warn({ key, err: errorField(error) }, 'stored file left for the sweep'),
 			);
 }
 

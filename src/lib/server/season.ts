@@ -79,14 +79,30 @@ export async function loadSeason(
 				.filter((id): id is string => !!id && !cachedRevisionFigures(id, fuseDistanceM, units)),
 		),
 	]);
-	const headFigures = (revisionId: string) => {
-		const hit = cachedRevisionFigures(revisionId, fuseDistanceM, units);
-		if (hit) return hit.headline;
-		const document = documents.get(revisionId);
-		return document
-			? revisionFigures({ id: revisionId, document }, fuseDistanceM, units).headline
-			: null;
-	};
+	// Figures this instance has not summarised yet are worked out in the engine's pool, together.
+	const figures = new Map(
+		await Promise.all(
+			vehicles
+				.map((v) => v.revision_id)
+				.filter((id): id is string => !!id)
+				.map(async (revisionId) => {
+					const hit = cachedRevisionFigures(revisionId, fuseDistanceM, units);
+					if (hit) return [revisionId, hit.headline] as const;
+					const document = documents.get(revisionId);
+					return [
+						revisionId,
+						document
+							? (
+									await revisionFigures({ id: revisionId, document }, fuseDistanceM, units, {
+										team: teamId,
+									})
+								).headline
+							: null,
+					] as const;
+				}),
+		),
+	);
+	const headFigures = (revisionId: string) => figures.get(revisionId) ?? null;
 	return {
 		events,
 		nextEvent,

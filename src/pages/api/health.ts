@@ -1,6 +1,7 @@
 import type { APIRoute } from 'astro';
 import { checkDatabase, checkStorage, type HealthReport } from '@/lib/server/health';
 import { APP_VERSION } from '@/lib/version';
+import { log } from '@/lib/server/log';
 
 /**
  * The database and the file store, each asked once with a deadline: 200 when both answer, 503
@@ -19,8 +20,13 @@ export const GET: APIRoute = async ({ locals }) => {
 		storage,
 	};
 	if (!ok)
-		console.error(
-			`health: ${[database.status === 'down' && `database (${database.detail})`, storage.status === 'down' && `storage (${storage.detail})`].filter(Boolean).join(', ')} down`,
+		log.warn(
+			{
+				database: database.status,
+				storage: storage.status,
+				detail: [database.detail, storage.detail],
+			},
+			'health: a service is down',
 		);
 	return new Response(
 		JSON.stringify(

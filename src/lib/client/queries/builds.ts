@@ -1,5 +1,5 @@
 import { queryOptions, useMutation, useQueryClient } from '@tanstack/react-query';
-import type { z } from 'zod';
+import type { z } from '@/lib/zod';
 import type { BuildDocument } from '@/engine';
 import type {
 	newVehicleSchema,

@@ -1,7 +1,7 @@
 import { queryOptions, useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
 import type { RunAnalysis, Sample } from '@/engine';
 import type { EventDto } from '@/lib/schemas/events';
-import type { z } from 'zod';
+import type { z } from '@/lib/zod';
 import type { newRunSchema, RunDto, RunPhoto, updateRunSchema } from '@/lib/schemas/runs';
 import type { RevisionDto } from '@/lib/schemas/vehicles';
 import { api, getJson } from '@/lib/client/api-client';

@@ -1,26 +1,22 @@
 import { LRUCache } from 'lru-cache';
-import {
-	buildReport,
-	type BuildDocument,
-	computedChecks,
-	type ComputedCheck,
-	headlineFigures,
-	type HeadlineFigures,
-	type UnitSystem,
-} from '@/engine';
+import type { BuildDocument, UnitSystem } from '@/engine';
+import { cacheRequests } from '@/lib/server/metrics';
+import { sharedComputations } from './cache';
+import { runEngine, type EngineCall } from './pool';
+import type { RevisionSummaryFigures } from './tasks';
 
-export interface RevisionSummaryFigures {
-	/** Null when the engine cannot solve the build (its issues are in the checks). */
-	headline: HeadlineFigures | null;
-	checks: ComputedCheck[];
-}
+export type { RevisionSummaryFigures };
 
 /**
  * The small answers pages read from a revision's report (headline figures, computed checks),
  * kept per instance: a revision never changes, so they are keyed by the revision, the battery-fuse
- * distance and the reader's units. Bounded; each entry is a few hundred bytes.
+ * distance and the reader's units. Bounded; each entry is a few hundred bytes. Worked out in the
+ * engine's pool, never on the request thread.
  */
 const cache = new LRUCache<string, RevisionSummaryFigures>({ max: 2000 });
+const shared = sharedComputations<RevisionSummaryFigures>('figures', (key, value) =>
+	cache.set(key, value),
+);
 
 /** The figures of a revision when this instance holds them already (no engine work). */
 export function cachedRevisionFigures(
@@ -28,22 +24,31 @@ export function cachedRevisionFigures(
 	fuseDistanceM: number,
 	units: UnitSystem,
 ): RevisionSummaryFigures | undefined {
-	return cache.get(`${revisionId}|${fuseDistanceM}|${units}`);
+	const hit = cache.get(`${revisionId}|${fuseDistanceM}|${units}`);
+	if (hit) cacheRequests.inc({ cache: 'figures', result: 'hit' });
+	return hit;
 }
 
-export function revisionFigures(
+export async function revisionFigures(
 	revision: { id: string; document: BuildDocument },
 	fuseDistanceM: number,
 	units: UnitSystem,
-): RevisionSummaryFigures {
+	call: EngineCall = {},
+): Promise<RevisionSummaryFigures> {
 	const key = `${revision.id}|${fuseDistanceM}|${units}`;
 	const hit = cache.get(key);
-	if (hit) return hit;
-	const report = buildReport(revision.document, { fuseDistanceM }, { burpRun: false, units });
-	const figures = {
-		headline: report.ok ? headlineFigures(report) : null,
-		checks: computedChecks(report, units),
-	};
-	cache.set(key, figures);
-	return figures;
+	if (hit) {
+		cacheRequests.inc({ cache: 'figures', result: 'hit' });
+		return hit;
+	}
+	return shared(
+		key,
+		(signal) =>
+			runEngine(
+				'figures',
+				{ document: revision.document, fuseDistanceM, units },
+				{ team: call.team, signal },
+			),
+		call.signal,
+	);
 }

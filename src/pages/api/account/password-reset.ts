@@ -6,6 +6,7 @@ import { passwordResetMail } from '@/lib/server/mail-templates';
 import { takeRateSlot } from '@/lib/server/rate-limit';
 import { currentClient } from '@/lib/server/request-context';
 import { newToken } from '@/lib/server/tokens';
+import { errorField, log } from '@/lib/server/log';
 
 export const RESET_TTL_MS = 3600 * 1000;
 
@@ -39,6 +40,8 @@ export const POST: APIRoute = async ({ request, locals }) => {
 				url: `${config.publicUrl}/reset-password?token=${token}`,
 			}),
 		);
-	})().catch((error) => console.error('password reset mail failed:', error));
+	})().catch((error: unknown) =>
+		log.error({ err: errorField(error) }, 'password reset mail failed'),
+	);
 	return Response.json({ status: 'sent_if_known' }, { status: 202 });
 };

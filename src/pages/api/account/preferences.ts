@@ -1,5 +1,5 @@
 import type { APIRoute } from 'astro';
-import { z } from 'zod';
+import { z } from '@/lib/zod';
 import { setUnitSystem } from '@/lib/server/db/users';
 import { problem, readJson } from '@/lib/server/http';
 

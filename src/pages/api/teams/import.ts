@@ -1,10 +1,11 @@
 import type { APIRoute } from 'astro';
-import { z } from 'zod';
+import { z } from '@/lib/zod';
 import { teamNameSchema } from '@/lib/schemas/account';
 import { readMultipart } from '@/lib/server/body';
 import { problem, unavailable, validated } from '@/lib/server/http';
 import { importTeam, parseBackup, prepareBackupFiles } from '@/lib/server/team-backup';
 import { isDatabaseUnavailable, isStorageUnavailable } from '@/lib/server/unavailable';
+import { errorField, log } from '@/lib/server/log';
 
 export const MAX_BACKUP_BYTES = 200 * 1024 * 1024;
 const formSchema = z.object({
@@ -68,7 +69,7 @@ export const POST: APIRoute = async ({ request, locals }) => {
 	} catch (e) {
 		if (isDatabaseUnavailable(e)) return unavailable('database');
 		if (isStorageUnavailable(e)) return unavailable('storage');
-		console.error('team import failed', e);
+		log.error({ err: errorField(e) }, 'team import failed');
 		return problem(
 			500,
 			'internal',

@@ -1,5 +1,5 @@
 import type { APIRoute } from 'astro';
-import { z } from 'zod';
+import { z } from '@/lib/zod';
 import { lineText } from '@/lib/schemas/text';
 import { requireTeamRole } from '@/lib/server/access';
 import { findCheckItems, insertCheckItem } from '@/lib/server/db/checklists';

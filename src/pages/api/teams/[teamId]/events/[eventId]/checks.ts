@@ -1,5 +1,5 @@
 import type { APIRoute } from 'astro';
-import { z } from 'zod';
+import { z } from '@/lib/zod';
 import { WAIVER_MIN_CHARS } from '@/lib/schemas/checklist';
 import { lineText, notesText } from '@/lib/schemas/text';
 import { parseUuid } from '@/lib/schemas/ids';

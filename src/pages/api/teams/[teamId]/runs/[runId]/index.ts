@@ -1,6 +1,6 @@
 import type { APIRoute } from 'astro';
 import { offsetMinutesOf } from '@/lib/schemas/runs';
-import { analyseRun } from '@/engine';
+import { runEngine } from '@/lib/server/engine/pool';
 import { updateRunSchema } from '@/lib/schemas/runs';
 import { requireRun, resolveRunLinks } from '@/lib/server/access';
 import { objectKeysOfRun } from '@/lib/server/db/files';
@@ -9,12 +9,15 @@ import { problem, readJson } from '@/lib/server/http';
 import { removeObjects } from '@/lib/server/object-cleanup';
 
 /** A run with its logger samples and their analysis (when a logger file was uploaded). */
-export const GET: APIRoute = async ({ params, locals }) => {
+export const GET: APIRoute = async ({ params, locals, request }) => {
 	const found = await requireRun(locals, params, 'viewer');
 	if (!found.ok) return found.response;
-	const { run } = found.value;
+	const { run, access } = found.value;
 	const samples = await findSamples(locals.db, run.id);
-	return Response.json({ run, samples, analysis: samples.length ? analyseRun(samples) : null });
+	const analysis = samples.length
+		? await runEngine('analyseRun', { samples }, { team: access.teamId, signal: request.signal })
+		: null;
+	return Response.json({ run, samples, analysis });
 };
 
 export const PATCH: APIRoute = async ({ params, request, locals }) => {

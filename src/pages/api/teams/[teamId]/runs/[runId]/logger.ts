@@ -1,5 +1,5 @@
 import type { APIRoute } from 'astro';
-import { analyseRun } from '@/engine';
+import { EngineBusy, runEngine } from '@/lib/server/engine/pool';
 import { loggerMappingSchema } from '@/lib/schemas/runs';
 import { MAX_LOGGER_BYTES, parseLoggerCsv } from '@/lib/logger-csv';
 import { requireRun } from '@/lib/server/access';
@@ -85,7 +85,18 @@ export const POST: APIRoute = async ({ params, request, locals }) => {
 		throw error;
 	}
 	return Response.json(
-		{ samples: parsed.samples.length, analysis: analyseRun(parsed.samples) },
+		{
+			samples: parsed.samples.length,
+			// The samples are written: a busy engine leaves the analysis to the run's page, not the upload failed.
+			analysis: await runEngine(
+				'analyseRun',
+				{ samples: parsed.samples },
+				{ team: access.teamId },
+			).catch((error: unknown) => {
+				if (error instanceof EngineBusy) return null;
+				throw error;
+			}),
+		},
 		{ status: 201 },
 	);
 };

@@ -7,6 +7,7 @@ import { findTeamSettingsRow } from '@/lib/server/db/teams';
 import { ComputeRefused, cachedEngineJson, keyPart } from '@/lib/server/engine/cache';
 import { runEngine } from '@/lib/server/engine/pool';
 import { problem, readQuery } from '@/lib/server/http';
+import { canonicalScenario } from '@/lib/scenario-steps';
 
 /**
  * The build's current revision and up to three plans side by side (?plans=a,b,c), computed on the
@@ -32,12 +33,12 @@ export const GET: APIRoute = async ({ params, url, locals, request }) => {
 		return problem(404, 'not_found', 'No such plan', [
 			{ path: 'plans', message: `${missing} is not a plan of this vehicle` },
 		]);
-	const scenario = {
-		...(query.data.engineRpm !== undefined && { engineRpm: query.data.engineRpm }),
-		...(query.data.conductorTempC !== undefined && { conductorTempC: query.data.conductorTempC }),
-	};
+	const scenario = canonicalScenario({
+		engineRpm: query.data.engineRpm,
+		conductorTempC: query.data.conductorTempC,
+	});
 	const key = `compare|${headId}|${planIds.map((id) => `${id}:${versions.get(id)}`).join(',')}|${currency}|${keyPart(scenario)}`;
-	return cachedEngineJson(request, key, async () => {
+	return cachedEngineJson(request, key, async (signal) => {
 		const [head, plans] = await Promise.all([
 			findRevision(locals.db, build.id, headId),
 			Promise.all(planIds.map((id) => findPlan(locals.db, vehicle.id, id))),
@@ -51,16 +52,20 @@ export const GET: APIRoute = async ({ params, url, locals, request }) => {
 			throw new ComputeRefused(() =>
 				problem(409, 'conflict', 'A plan changed while it was being compared; try again'),
 			);
-		return runEngine('compare', {
-			currency,
-			head: { id: head.id, number: head.number, message: head.message, document: head.document },
-			plans: current.map((p) => ({
-				id: p.id,
-				name: p.name,
-				document: p.document,
-				cost: partsTotalMinor(p.parts) / 100,
-			})),
-			scenario,
-		});
+		return runEngine(
+			'compare',
+			{
+				currency,
+				head: { id: head.id, number: head.number, message: head.message, document: head.document },
+				plans: current.map((p) => ({
+					id: p.id,
+					name: p.name,
+					document: p.document,
+					cost: partsTotalMinor(p.parts) / 100,
+				})),
+				scenario,
+			},
+			{ team: access.teamId, signal },
+		);
 	});
 };

@@ -52,9 +52,11 @@ export const POST: APIRoute = async ({ params, request, locals }) => {
 		);
 	// A plan that brings a danger finding the head does not have is installed only once the
 	// installer has seen it named (the comparison and the plan page ask, then send its key).
-	const dangers = JSON.parse(
-		await runEngine('addedDangers', { before: head?.document ?? null, after: document }),
-	) as { key: string; message: string }[];
+	const dangers = await runEngine(
+		'addedDangers',
+		{ before: head?.document ?? null, after: document },
+		{ team: access.teamId, signal: request.signal },
+	);
 	const accepted = new Set(body.data.acceptDangers);
 	const unseen = dangers.filter((d) => !accepted.has(d.key));
 	if (unseen.length)

@@ -5,10 +5,11 @@ import { findRevision } from '@/lib/server/db/builds';
 import { ComputeRefused, cachedEngineJson, keyPart } from '@/lib/server/engine/cache';
 import { runEngine } from '@/lib/server/engine/pool';
 import { problem, readQuery } from '@/lib/server/http';
+import { canonicalScenario } from '@/lib/scenario-steps';
 
 /**
  * The power-budget report of a saved revision, computed on the server by the shared engine. A
- * revision never changes, so the answer is cached by (revision, scenario) and carries an ETag; the
+ * revision never changes, so the answer is cached by (revision, canonical scenario) and carries an ETag; the
  * revision's document is read only when the report has to be computed.
  */
 export const GET: APIRoute = async ({ params, locals, url, request }) => {
@@ -17,17 +18,20 @@ export const GET: APIRoute = async ({ params, locals, url, request }) => {
 	const { revisionId, build } = found.value;
 	const query = readQuery(url, scenarioQuerySchema);
 	if (!query.ok) return query.response;
-	const scenario = Object.fromEntries(
-		Object.entries(query.data).filter(([, v]) => v !== undefined),
-	);
-	return cachedEngineJson(request, `report|${revisionId}|${keyPart(scenario)}`, async () => {
+	// Computed for, and kept under, the conditions on the steps the form offers.
+	const scenario = canonicalScenario(query.data);
+	return cachedEngineJson(request, `report|${revisionId}|${keyPart(scenario)}`, async (signal) => {
 		const revision = await findRevision(locals.db, build.id, revisionId);
 		if (!revision) throw new ComputeRefused(() => problem(404, 'not_found', 'No such revision'));
-		return runEngine('report', {
-			revisionId: revision.id,
-			number: revision.number,
-			document: revision.document,
-			scenario,
-		});
+		return runEngine(
+			'report',
+			{
+				revisionId: revision.id,
+				number: revision.number,
+				document: revision.document,
+				scenario,
+			},
+			{ team: found.value.access.teamId, signal },
+		);
 	});
 };
