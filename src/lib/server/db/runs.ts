@@ -158,20 +158,27 @@ export async function insertRun(
  * is the mean voltage of the samples before it (none when the file starts mid-burp).
  */
 export async function refreshLoggerSummary(db: Db, runId: string): Promise<void> {
-	await sql`
+	await loggerSummaryQuery(runId).execute(db);
+}
+
+/**
+ * The summary's statement. Every read of `run_sample` names the run itself, so each is an index
+ * range on the run's own rows (the primary key leads with `run_id`): a join through the CTEs alone
+ * would not carry the filter, and every upload would scan every team's samples.
+ */
+export const loggerSummaryQuery = (runId: string) => sql`
 		with s as (
 			select run_id, min(amps) lo, max(amps) hi, min(volts) vmin from run_sample
 			where run_id = ${runId} group by run_id
 		), st as (
-			select rs.run_id, min(rs.t_s) t0 from run_sample rs join s using (run_id)
-			where rs.amps >= s.lo + 0.5 * (s.hi - s.lo) group by rs.run_id
+			select min(rs.t_s) t0 from run_sample rs, s
+			where rs.run_id = ${runId} and rs.amps >= s.lo + 0.5 * (s.hi - s.lo)
 		), rest as (
-			select rs.run_id, avg(rs.volts) v from run_sample rs join st using (run_id)
-			where rs.t_s < st.t0 group by rs.run_id
+			select avg(rs.volts) v from run_sample rs, st
+			where rs.run_id = ${runId} and rs.t_s < st.t0
 		)
 		update run set logger_min_v = s.vmin, logger_resting_v = rest.v
-		from s left join rest using (run_id) where run.id = s.run_id`.execute(db);
-}
+		from s, rest where run.id = ${runId}`;
 
 /** Changes a run's links and measurements; fields left out stay as they are. */
 export async function updateRun(
