@@ -1,3 +1,4 @@
+import { useState } from 'react';
 import type { RunDto } from '@/lib/client/queries/runs';
 import { fmt } from '@/lib/format';
 import { MEASUREMENT_FIELDS, RUN_MEASUREMENTS } from '@/lib/schemas/run-measurements';
@@ -6,6 +7,9 @@ import { runVoltage } from '@/lib/run-figures';
 /** On a phone the table keeps when, the score, the minimum voltage and the compare box in view. */
 const onPhone = (f: string) => (f === 'scoreDb' || f === 'minV' ? '' : 'max-sm:hidden');
 import { useLocalFormat } from '@/lib/client/local-time';
+
+/** Rows per page of the table: a season's runs are paged, not all laid out at once. */
+export const RUNS_PER_PAGE = 25;
 
 /** The vehicle's runs, newest first: choose one to open it, and up to four to compare. */
 export function RunsTable({
@@ -26,6 +30,11 @@ export function RunsTable({
 	onCompare: (ids: string[]) => void;
 }) {
 	const fmtTime = useLocalFormat();
+	const [page, setPage] = useState(0);
+	const pages = Math.max(1, Math.ceil(list.length / RUNS_PER_PAGE));
+	const at = Math.min(page, pages - 1);
+	const newestFirst = [...list].reverse();
+	const shown = newestFirst.slice(at * RUNS_PER_PAGE, (at + 1) * RUNS_PER_PAGE);
 	return (
 		<section aria-labelledby="runs-heading">
 			<div className="flex items-center gap-3">
@@ -61,7 +70,7 @@ export function RunsTable({
 							</tr>
 						</thead>
 						<tbody className="num">
-							{[...list].reverse().map((r) => (
+							{shown.map((r) => (
 								<tr
 									key={r.id}
 									className={`cursor-pointer border-t border-hairline ${selected === r.id ? 'bg-copper-tint/50' : 'hover:bg-paper'}`}
@@ -137,6 +146,29 @@ export function RunsTable({
 						</tbody>
 					</table>
 				</div>
+			)}
+			{pages > 1 && (
+				<nav aria-label="Pages of runs" className="mt-2 flex flex-wrap items-center gap-3 text-sm">
+					<button
+						type="button"
+						disabled={at === 0}
+						onClick={() => setPage(at - 1)}
+						className="rounded-md border border-hairline bg-card px-3 py-1 font-semibold hover:border-copper disabled:opacity-50"
+					>
+						← Newer
+					</button>
+					<span aria-live="polite">
+						Runs {at * RUNS_PER_PAGE + 1}–{at * RUNS_PER_PAGE + shown.length} of {list.length}
+					</span>
+					<button
+						type="button"
+						disabled={at === pages - 1}
+						onClick={() => setPage(at + 1)}
+						className="rounded-md border border-hairline bg-card px-3 py-1 font-semibold hover:border-copper disabled:opacity-50"
+					>
+						Older →
+					</button>
+				</nav>
 			)}
 		</section>
 	);

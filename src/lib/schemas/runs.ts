@@ -92,6 +92,20 @@ const optionalId = z
 	.transform((s) => (s && z.uuid().safeParse(s).success ? s : undefined));
 export const runListQuerySchema = z.object({ vehicleId: optionalId, eventId: optionalId });
 
+/** The most runs one page of the runs API holds. */
+export const RUNS_PAGE_MAX = 500;
+
+/**
+ * The runs API's query: the list's filters, and a page of at most `limit` runs (the newest ones,
+ * or those before `before`, a run's time from the previous page's `Link: rel="next"`).
+ */
+export const runPageQuerySchema = runListQuerySchema.extend({
+	limit: z.coerce.number().int().min(1).max(RUNS_PAGE_MAX).default(RUNS_PAGE_MAX),
+	before: z.iso.datetime({ offset: true, error: 'before must be a run’s time (ISO 8601)' }).optional(),
+	/** With `before`: the run at that time the page ended on (runs can share a second). */
+	beforeId: z.uuid({ error: 'beforeId must be a run id' }).optional(),
+});
+
 /**
  * The revision in force at an instant: the newest one saved at or before it, compared to the
  * second (the database keeps microseconds, a run's time keeps seconds). Among revisions saved in

@@ -5,7 +5,7 @@ import { checklistCounts } from '@/lib/server/checklist';
 import { findRevisionDocuments } from '@/lib/server/db/builds';
 import { findRecentActivity, type ActivityEntry } from '@/lib/server/db/activity';
 import { findEvents } from '@/lib/server/db/events';
-import { findRuns } from '@/lib/server/db/runs';
+import { findDailyBestScores, findLastRuns } from '@/lib/server/db/runs';
 import { runVoltage } from '@/lib/run-figures';
 import { findTeamSettingsRow } from '@/lib/server/db/teams';
 import { findVehiclesWithHead } from '@/lib/server/db/vehicles';
@@ -36,12 +36,13 @@ export interface Season {
 	vehicles: SeasonVehicle[];
 	activity: ActivityEntry[];
 	/** Every scored run of the team, oldest first, for the season chart. */
-	scores: Array<{ vehicleName: string; ranAt: string; scoreDb: number }>;
+	/** Each vehicle's best score of each day it scored (`runs`: how many scored runs that day). */
+	scores: Array<{ vehicleName: string; ranAt: string; scoreDb: number; runs: number }>;
 }
 
 /**
  * The team page's season at a glance: each vehicle's head revision figures, last run and checks
- * for the next event; the team's recent activity; every vehicle's scores over the season.
+ * for the next event; the team's recent activity; every vehicle's best score of each day.
  */
 export async function loadSeason(
 	db: App.Locals['db'],
@@ -49,15 +50,17 @@ export async function loadSeason(
 	units: UnitSystem,
 	today = new Date().toISOString().slice(0, 10),
 ): Promise<Season> {
-	const [vehicles, events, settings, activity, runs] = await Promise.all([
+	const [vehicles, events, settings, activity, lastRunList, scores] = await Promise.all([
 		findVehiclesWithHead(db, teamId),
 		findEvents(db, teamId),
 		findTeamSettingsRow(db, teamId),
 		findRecentActivity(db, teamId),
-		findRuns(db, teamId),
+		findLastRuns(db, teamId),
+		findDailyBestScores(db, teamId),
 	]);
-	// Each vehicle's newest run, from the season's runs (oldest first) rather than another query.
-	const lastRuns = new Map(runs.map((r) => [r.vehicleId, r]));
+	// Each vehicle's newest run and the chart's daily points come from the database ready-made: the
+	// page never reads the whole season's runs.
+	const lastRuns = new Map(lastRunList.map((r) => [r.vehicleId, r]));
 	const nextEvent = events.find((e) => e.endsOn >= today) ?? null;
 	const fuseDistanceM = settings.fuse_distance_m;
 	// Head documents come from the database only for revisions this instance has not summarised.
@@ -134,9 +137,7 @@ export async function loadSeason(
 			};
 		}),
 		activity,
-		scores: runs
-			.filter((r) => r.scoreDb !== null)
-			.map((r) => ({ vehicleName: r.vehicleName, ranAt: r.ranAt, scoreDb: r.scoreDb! })),
+		scores,
 	};
 }
 

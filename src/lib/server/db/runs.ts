@@ -69,6 +69,73 @@ export async function findRuns(
 	return (await q.orderBy('r.ran_at').execute()).map(toRunDto);
 }
 
+/** Each vehicle's latest run, one row per vehicle that has run (the team page). */
+export async function findLastRuns(db: Db, teamId: string): Promise<RunDto[]> {
+	const rows = await runQuery(db, teamId)
+		.distinctOn('r.vehicle_id')
+		.orderBy('r.vehicle_id')
+		.orderBy('r.ran_at', 'desc')
+		.execute();
+	return rows.map(toRunDto);
+}
+
+/**
+ * The season chart's points: each vehicle's best score of each day it scored (the time of that
+ * run), oldest first. A day of twenty runs is one point, so the chart carries what it can show
+ * whatever the season's volume.
+ */
+export async function findDailyBestScores(
+	db: Db,
+	teamId: string,
+): Promise<{ vehicleName: string; ranAt: string; scoreDb: number; runs: number }[]> {
+	const { rows } = await sql<{ vehicle_name: string; ran_at: Date; score_db: number; runs: number }>`
+		select v.name vehicle_name,
+			(array_agg(r.ran_at order by r.score_db desc, r.ran_at))[1] ran_at,
+			max(r.score_db) score_db,
+			count(*)::int runs
+		from run r join vehicle v on v.id = r.vehicle_id
+		where v.team_id = ${teamId} and r.score_db is not null
+		group by v.id, v.name, date_trunc('day', r.ran_at)
+		order by 2`.execute(db);
+	return rows.map((r) => ({
+		vehicleName: r.vehicle_name,
+		ranAt: new Date(r.ran_at).toISOString(),
+		scoreDb: r.score_db,
+		runs: r.runs,
+	}));
+}
+
+/**
+ * One page of runs, oldest first within it: the `limit` newest runs before `before` (all times
+ * when absent), and whether older ones remain.
+ */
+export async function findRunsPage(
+	db: Db,
+	teamId: string,
+	filter: {
+		vehicleId?: string;
+		eventId?: string;
+		limit: number;
+		before?: string;
+		beforeId?: string;
+	},
+): Promise<{ runs: RunDto[]; more: boolean }> {
+	let q = runQuery(db, teamId);
+	if (filter.vehicleId) q = q.where('r.vehicle_id', '=', filter.vehicleId);
+	if (filter.eventId) q = q.where('r.event_id', '=', filter.eventId);
+	if (filter.before)
+		q = filter.beforeId
+			? q.where(sql<boolean>`(r.ran_at, r.id) < (${new Date(filter.before)}, ${filter.beforeId})`)
+			: q.where('r.ran_at', '<', new Date(filter.before));
+	const rows = await q
+		.orderBy('r.ran_at', 'desc')
+		.orderBy('r.id', 'desc')
+		.limit(filter.limit + 1)
+		.execute();
+	const more = rows.length > filter.limit;
+	return { runs: rows.slice(0, filter.limit).reverse().map(toRunDto), more };
+}
+
 export async function findRun(db: Db, teamId: string, runId: string): Promise<RunDto | undefined> {
 	const r = await runQuery(db, teamId).where('r.id', '=', runId).executeTakeFirst();
 	return r && toRunDto(r);

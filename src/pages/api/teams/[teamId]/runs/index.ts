@@ -1,22 +1,35 @@
 import type { APIRoute } from 'astro';
-import { newRunSchema, runListQuerySchema } from '@/lib/schemas/runs';
+import { newRunSchema, runPageQuerySchema } from '@/lib/schemas/runs';
 import { requireTeamRole, resolveRunLinks } from '@/lib/server/access';
 import { offsetMinutesOf } from '@/lib/schemas/runs';
 import {
 	findLikelyDuplicate,
 	findRun,
 	findRunByClientKey,
-	findRuns,
+	findRunsPage,
 	insertRun,
 } from '@/lib/server/db/runs';
 import { problem, readJson, readQuery } from '@/lib/server/http';
 
+/**
+ * The team's runs (of a vehicle or an event when asked), oldest first, a page at a time: the newest
+ * `limit` (500 at most), with `Link: <…?before=…>; rel="next"` while older runs remain.
+ */
 export const GET: APIRoute = async ({ params, locals, url }) => {
 	const auth = await requireTeamRole(locals, params.teamId, 'viewer');
 	if (!auth.ok) return auth.response;
-	const query = readQuery(url, runListQuerySchema);
+	const query = readQuery(url, runPageQuerySchema);
 	if (!query.ok) return query.response;
-	return Response.json(await findRuns(locals.db, auth.value.teamId, query.data));
+	const { runs, more } = await findRunsPage(locals.db, auth.value.teamId, query.data);
+	const headers = new Headers();
+	if (more && runs[0]) {
+		const next = new URL(url);
+		next.searchParams.set('before', runs[0].ranAt);
+		next.searchParams.set('beforeId', runs[0].id);
+		next.searchParams.set('limit', String(query.data.limit));
+		headers.set('link', `<${next.pathname}${next.search}>; rel="next"`);
+	}
+	return Response.json(runs, { headers });
 };
 
 /**
