@@ -68,3 +68,19 @@ export function forty(): BuildDocument {
 	}
 	return d;
 }
+
+/**
+ * A build at the schema's limits: exactly `count` cables (1,000 at most) on at most 100 amplifiers
+ * and 500 nodes, the cables past the amplifiers' own being parallel runs along the trunk (a valid,
+ * heavy network a member can save in one request).
+ */
+export function heavyValidNetwork(count = 1000): BuildDocument {
+	const d = syntheticNetwork(280);
+	const trunk = d.cables.filter((c) => c.id.startsWith('run'));
+	let k = 0;
+	while (d.cables.length < count) {
+		const c = trunk[k % trunk.length]!;
+		d.cables.push({ ...c, id: `par${++k}`, label: `${c.label} (parallel ${k})` });
+	}
+	return d;
+}

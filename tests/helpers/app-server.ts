@@ -5,6 +5,8 @@ export interface AppServer {
 	process: ChildProcess;
 	/** Everything the server wrote to stderr so far. */
 	stderr: () => string;
+	/** The last 200 kB the server wrote to stdout (its JSON log lines, when LOG_LEVEL lets them out). */
+	stdout: () => string;
 	stop: () => Promise<void>;
 }
 
@@ -27,9 +29,13 @@ export async function startAppServer(
 			NODE_ENV: 'production',
 			...env,
 		},
-		stdio: ['ignore', 'ignore', 'pipe'],
+		stdio: ['ignore', 'pipe', 'pipe'],
 	});
 	let err = '';
+	let out = '';
+	child.stdout!.on('data', (d: Buffer) => {
+		out = (out + d.toString()).slice(-200_000);
+	});
 	child.stderr!.on('data', (d: Buffer) => {
 		err = (err + d.toString()).slice(-200_000);
 		if (process.env.SAGWISE_TEST_SERVER_LOG) process.stderr.write(d);
@@ -51,6 +57,7 @@ export async function startAppServer(
 		url,
 		process: child,
 		stderr: () => err,
+		stdout: () => out,
 		stop: async () => {
 			if (child.exitCode !== null) return;
 			child.kill('SIGTERM');
