@@ -61,6 +61,15 @@ export const savedReportKey = (revisionId: string, units: UnitSystem) =>
 const onServer = typeof window === 'undefined';
 
 /**
+ * Parts past which the first render (the server's, and the browser's hydration of it) leaves the
+ * diagram, the long tables and the part editor to the live page: laying out a thousand cables as
+ * HTML on the server would hold every other request behind it.
+ */
+const FIRST_RENDER_PARTS = 150;
+const partCount = (d: BuildDocument) =>
+	d.cables.length + d.amplifiers.length + d.banks.length + d.alternators.length + d.loads.length;
+
+/**
  * The report of a document under a scenario, remembered per document object (an unedited draft is
  * its baseline, so the page as first served solves once) and, for a saved revision's own document,
  * by its id across renders. On the server nothing is solved here: a saved head's report is put in
@@ -146,6 +155,8 @@ export function Workbench({
 }: WorkbenchProps) {
 	const hydrated = useHydrated();
 	const canCompute = computeOnServer || hydrated;
+	// A large build's diagram and tables wait for the live page (the summary and findings do not).
+	const layOut = hydrated || partCount(draft) <= FIRST_RENDER_PARTS;
 	const [scenario, setScenario] = useState<Scenario>(DEFAULT_SCENARIO);
 	const [selection, setSelection] = useState<Selection | null>(null);
 	const setSelectionFromDiagram = useMemo(
@@ -244,28 +255,37 @@ export function Workbench({
 				<h2 id="diagram-heading" className="text-xl font-bold">
 					The network
 				</h2>
-				<div className="mt-3">
-					<NetworkDiagramMemo
-						doc={laterDraft}
-						flagged={flagged}
-						onSelect={setSelectionFromDiagram}
-					/>
-				</div>
-				<PartLists
-					draft={laterDraft}
-					flagged={flagged}
-					warned={later?.warnings ?? []}
-					selected={selection}
-					onSelect={setSelection}
-				/>
+				{layOut ? (
+					<>
+						<div className="mt-3">
+							<NetworkDiagramMemo
+								doc={laterDraft}
+								flagged={flagged}
+								onSelect={setSelectionFromDiagram}
+							/>
+						</div>
+						<PartLists
+							draft={laterDraft}
+							flagged={flagged}
+							warned={later?.warnings ?? []}
+							selected={selection}
+							onSelect={setSelection}
+						/>
+					</>
+				) : (
+					<p className="mt-3 rounded-md border border-dashed border-hairline bg-card p-4 text-sm text-ink-soft">
+						A build of {partCount(draft)} parts: its diagram and tables are laid out once the page
+						is live…
+					</p>
+				)}
 				<p className="mt-1 text-xs text-ink-soft">
 					Copper: supply side. Slate: ground side. Dashed red: a cable with a finding. Dashed links:
 					banks, alternators, amplifiers and loads between their terminals.
 				</p>
 			</section>
 
-			{later && <BudgetSectionMemo rows={later.budget} />}
-			{later && (
+			{later && layOut && <BudgetSectionMemo rows={later.budget} />}
+			{later && layOut && (
 				<AmplifiersSectionMemo
 					amplifiers={later.amplifiers}
 					dropTargetV={scenario.dropTargetV}
@@ -273,7 +293,7 @@ export function Workbench({
 					burp={burp}
 				/>
 			)}
-			{later && (
+			{later && layOut && (
 				<CableChecksSectionMemo
 					cables={later.cables}
 					warnings={later.warnings}
@@ -281,7 +301,7 @@ export function Workbench({
 					units={units}
 				/>
 			)}
-			{later && (
+			{later && layOut && (
 				<BurpSectionMemo
 					burp={burp}
 					burpSeconds={scenario.burpSeconds}
@@ -293,9 +313,11 @@ export function Workbench({
 					}
 				/>
 			)}
-			{later && <SpeedSweepSectionMemo sweep={sweep} />}
-			{later && <SessionSectionMemo draft={laterDraft} scenario={scenario} valid={valid} />}
-			{later && <UpgradeHintsSectionMemo hints={hints} />}
+			{later && layOut && <SpeedSweepSectionMemo sweep={sweep} />}
+			{later && layOut && (
+				<SessionSectionMemo draft={laterDraft} scenario={scenario} valid={valid} />
+			)}
+			{later && layOut && <UpgradeHintsSectionMemo hints={hints} />}
 
 			{selection && (
 				<Inspector
@@ -310,15 +332,17 @@ export function Workbench({
 				/>
 			)}
 
-			<PartEditor
-				draft={draft}
-				errors={errors}
-				units={units}
-				canEdit={canEdit}
-				onChange={onChange}
-				subject={subject}
-				flagged={flagged}
-			/>
+			{layOut && (
+				<PartEditor
+					draft={draft}
+					errors={errors}
+					units={units}
+					canEdit={canEdit}
+					onChange={onChange}
+					subject={subject}
+					flagged={flagged}
+				/>
+			)}
 		</>
 	);
 }

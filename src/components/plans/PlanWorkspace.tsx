@@ -25,23 +25,57 @@ import { Workbench } from '@/components/builds/Workbench';
 import { validateDraft } from '@/lib/client/draft-check';
 import { sameJson } from '@/lib/same-json';
 import { installConfirmed } from '@/lib/client/install-plan';
+import { useHydrated } from '@/lib/client/use-hydrated';
+import { unpackJson } from '@/lib/packed-json';
 
 export interface PlanWorkspaceProps {
 	teamId: string;
 	vehicleId: string;
 	canEdit: boolean;
 	currency: string;
-	plan: PlanDto;
-	/** The document of the revision the plan started from, to show what the plan changes. */
-	baseDocument: BuildDocument | null;
+	/** The plan without its document, which comes as JSON text beside it. */
+	plan: Omit<PlanDto, 'document'>;
+	/**
+	 * The plan's document, packed (`packJson`): the page hands a large document over as one string
+	 * with nothing to escape, which costs the server's render a copy, not a walk through every field.
+	 */
+	documentPacked: string;
+	/** The document of the revision the plan started from (packed), to show what the plan changes. */
+	baseDocumentPacked: string | null;
 	head: { id: string; number: number } | null;
 	units: UnitSystem;
 }
 
-export function PlanWorkspace(props: PlanWorkspaceProps) {
+interface PlanWorkspaceViewProps extends Omit<
+	PlanWorkspaceProps,
+	'plan' | 'documentPacked' | 'baseDocumentPacked'
+> {
+	plan: PlanDto;
+	baseDocument: BuildDocument | null;
+}
+
+/** The field check before the page is live (nothing checked yet). */
+const NOT_CHECKED: Record<string, string> = {};
+/** Changes listed before "show all". */
+const CHANGES_SHOWN = 40;
+
+export function PlanWorkspace({
+	plan,
+	documentPacked,
+	baseDocumentPacked,
+	...rest
+}: PlanWorkspaceProps) {
+	const full = useMemo(
+		() => ({ ...plan, document: unpackJson<BuildDocument>(documentPacked) }),
+		[plan, documentPacked],
+	);
+	const baseDocument = useMemo(
+		() => (baseDocumentPacked ? unpackJson<BuildDocument>(baseDocumentPacked) : null),
+		[baseDocumentPacked],
+	);
 	return (
 		<QueryClientProvider client={getQueryClient()}>
-			<PlanWorkspaceView {...props} />
+			<PlanWorkspaceView {...rest} plan={full} baseDocument={baseDocument} />
 		</QueryClientProvider>
 	);
 }
@@ -76,7 +110,7 @@ function PlanWorkspaceView({
 	baseDocument,
 	head,
 	units,
-}: PlanWorkspaceProps) {
+}: PlanWorkspaceViewProps) {
 	const savePlan = useSavePlan(teamId, vehicleId, initialPlan.id);
 	const installPlan = useInstallPlan(teamId, vehicleId);
 	const deletePlan = useDeletePlan(teamId, vehicleId);
@@ -92,7 +126,13 @@ function PlanWorkspaceView({
 		serverErrors: Record<string, string>;
 	}>({ busy: null, error: null, ok: null, serverErrors: {} });
 
-	const docErrors = useMemo(() => validateDraft(draft), [draft]);
+	// The field check and the changes are worked out once the page is live: a plan at the limits
+	// (a thousand cables) must not hold the server's request thread while its page is rendered.
+	const hydrated = useHydrated();
+	const docErrors = useMemo(
+		() => (hydrated ? validateDraft(draft) : NOT_CHECKED),
+		[draft, hydrated],
+	);
 	const partErrors = useMemo(() => {
 		const out: Record<string, string> = {};
 		parts.forEach((p, i) => {
@@ -114,11 +154,13 @@ function PlanWorkspaceView({
 		document: plan.document,
 		parts: plan.parts.map(toDraft),
 	};
-	const dirty = !sameJson({ name, notes, document: draft, parts }, saved);
+	// Nothing is changed before the page is live (and comparing a large plan costs the render).
+	const dirty = hydrated && !sameJson({ name, notes, document: draft, parts }, saved);
 	const changes = useMemo(
-		() => (baseDocument ? diffBuilds(baseDocument, draft) : []),
-		[baseDocument, draft],
+		() => (!hydrated ? null : baseDocument ? diffBuilds(baseDocument, draft) : []),
+		[baseDocument, draft, hydrated],
 	);
+	const [allChanges, setAllChanges] = useState(false);
 	const total =
 		parts.reduce(
 			(s, p) =>
@@ -292,8 +334,11 @@ function PlanWorkspaceView({
 						aria-invalid={name.trim() === '' || undefined}
 					/>
 					<span className="text-sm text-ink-soft">
-						from revision {plan.baseRevisionNumber ?? '—'} · {changes.length} change
-						{changes.length === 1 ? '' : 's'} · parts {formatMoney(total, currency)}
+						from revision {plan.baseRevisionNumber ?? '—'} ·{' '}
+						{changes === null
+							? 'changes being worked out'
+							: `${changes.length} change${changes.length === 1 ? '' : 's'}`}{' '}
+						· parts {formatMoney(total, currency)}
 					</span>
 					{dirty && (
 						<span className="rounded bg-amber-tint px-2 py-0.5 text-xs font-semibold">
@@ -480,14 +525,16 @@ function PlanWorkspaceView({
 				<h2 id="changes-heading" className="text-xl font-bold">
 					What the plan changes
 				</h2>
-				{changes.length === 0 ? (
+				{changes === null ? (
+					<p className="mt-2 text-sm text-ink-soft">Working out what the plan changes…</p>
+				) : changes.length === 0 ? (
 					<p className="mt-2 text-sm text-ink-soft">
 						Nothing yet: the plan is the same as revision {plan.baseRevisionNumber}. Change it in
 						the editor below.
 					</p>
 				) : (
 					<ul className="mt-2 divide-y divide-hairline rounded-md border border-hairline bg-card text-sm">
-						{changes.map((c) => (
+						{(allChanges ? changes : changes.slice(0, CHANGES_SHOWN)).map((c) => (
 							<li key={`${c.group}.${c.id}`} className="px-4 py-2">
 								<span
 									className={`mr-2 rounded px-1.5 py-0.5 text-xs font-semibold ${c.kind === 'added' ? 'bg-teal-tint text-teal' : c.kind === 'removed' ? 'bg-brick-tint text-brick' : 'bg-amber-tint'}`}
@@ -499,6 +546,19 @@ function PlanWorkspaceView({
 									`: ${c.fields.map((f) => `${fieldName(f.field)} ${formatFieldValue(f.field, f.before, units)} → ${formatFieldValue(f.field, f.after, units)}`).join('; ')}`}
 							</li>
 						))}
+						{changes.length > CHANGES_SHOWN && (
+							<li className="px-4 py-2">
+								<button
+									type="button"
+									className="font-semibold text-copper-dark underline"
+									onClick={() => setAllChanges((v) => !v)}
+								>
+									{allChanges
+										? `Show the first ${CHANGES_SHOWN} only`
+										: `Show all ${changes.length} changes`}
+								</button>
+							</li>
+						)}
 					</ul>
 				)}
 			</section>
@@ -506,6 +566,7 @@ function PlanWorkspaceView({
 			<Workbench
 				draft={draft}
 				errors={docErrors}
+				checking={!hydrated}
 				units={units}
 				canEdit={canEdit}
 				subject="plan"

@@ -101,7 +101,9 @@ export const RUNS_PAGE_MAX = 500;
  */
 export const runPageQuerySchema = runListQuerySchema.extend({
 	limit: z.coerce.number().int().min(1).max(RUNS_PAGE_MAX).default(RUNS_PAGE_MAX),
-	before: z.iso.datetime({ offset: true, error: 'before must be a run’s time (ISO 8601)' }).optional(),
+	before: z.iso
+		.datetime({ offset: true, error: 'before must be a run’s time (ISO 8601)' })
+		.optional(),
 	/** With `before`: the run at that time the page ended on (runs can share a second). */
 	beforeId: z.uuid({ error: 'beforeId must be a run id' }).optional(),
 });

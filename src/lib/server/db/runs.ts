@@ -88,7 +88,12 @@ export async function findDailyBestScores(
 	db: Db,
 	teamId: string,
 ): Promise<{ vehicleName: string; ranAt: string; scoreDb: number; runs: number }[]> {
-	const { rows } = await sql<{ vehicle_name: string; ran_at: Date; score_db: number; runs: number }>`
+	const { rows } = await sql<{
+		vehicle_name: string;
+		ran_at: Date;
+		score_db: number;
+		runs: number;
+	}>`
 		select v.name vehicle_name,
 			(array_agg(r.ran_at order by r.score_db desc, r.ran_at))[1] ran_at,
 			max(r.score_db) score_db,
