@@ -6,8 +6,8 @@
  * the same round. Needs `npm run build` first.
  *
  * Targets (ratio to health; p99 at 10 connections): report API ≥ 0.5, plan comparison (repeat
- * view) ≥ 0.3, build page ≥ 0.25, team page ≥ 0.4, each p99 < 100 ms. The two pages are also
- * measured rendered afresh (a query string skips the kept copy), as after every change.
+ * view) ≥ 0.3, build page ≥ 0.25, team page ≥ 0.4, each p99 < 100 ms; the two pages rendered
+ * afresh (a query string skips the kept copy, as after every change): team ≥ 0.5, build ≥ 0.3.
  */
 import autocannon from 'autocannon';
 import { DEMO_PASSWORD, DEMO_USERS } from '../../db/seed';
@@ -42,7 +42,7 @@ try {
 		'report API': `/api/teams/${team!.id}/vehicles/${oak.id}/revisions/${oak.headRevisionId}/report`,
 		'plan comparison (repeat view)': `/api/teams/${team!.id}/vehicles/${oak.id}/plans/compare?plans=${plans.map((p) => p.id).join(',')}`,
 		'build page': `/teams/${team!.id}/vehicles/${oak.id}`,
-		// A query string bypasses the kept pages: what each view costs after a change (no target).
+		// A query string bypasses the kept pages: what each view costs after a change.
 		'team page, rendered afresh': `/teams/${team!.id}?afresh`,
 		'build page, rendered afresh': `/teams/${team!.id}/vehicles/${oak.id}?afresh`,
 	};
@@ -51,6 +51,8 @@ try {
 		'plan comparison (repeat view)': 0.3,
 		'build page': 0.25,
 		'team page': 0.4,
+		'team page, rendered afresh': 0.5,
+		'build page, rendered afresh': 0.3,
 	};
 
 	const run = (url: string) =>

@@ -1,10 +1,6 @@
 import { sql } from 'kysely';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import {
-	insertRun,
-	loggerSummaryQuery,
-	refreshLoggerSummary,
-} from '../../src/lib/server/db/runs';
+import { insertRun, loggerSummaryQuery, refreshLoggerSummary } from '../../src/lib/server/db/runs';
 import { insertVehicleWithBuild } from '../../src/lib/server/db/vehicles';
 import { makeTeam, makeUser } from '../helpers/fixtures';
 import { createTestDb, type TestDb } from '../helpers/test-db';
@@ -93,8 +89,7 @@ describe('the logger summary of one run', () => {
 				relation: n['Relation Name'] as string | undefined,
 				cond: (n['Index Cond'] ?? n['Recheck Cond']) as string | undefined,
 			});
-			for (const child of (n['Plans'] as Record<string, unknown>[] | undefined) ?? [])
-				walk(child);
+			for (const child of (n['Plans'] as Record<string, unknown>[] | undefined) ?? []) walk(child);
 		};
 		walk((JSON.parse(plan) as { Plan: Record<string, unknown> }[])[0]!.Plan);
 		const samples = nodes.filter((n) => n.relation === 'run_sample');

@@ -213,7 +213,7 @@ export function Workbench({
 
 			{/* Always one line tall, error or not: a message appearing here must not push the part being edited down the page. */}
 			<div className="h-16 overflow-hidden sm:h-11 [&_p>span:last-child]:line-clamp-2">
-				{valid && !canCompute ? (
+				{!canCompute ? (
 					<FormMessage tone="info">Working out the figures…</FormMessage>
 				) : valid ? (
 					<FormMessage tone="info">Every field reads: the figures below are current.</FormMessage>

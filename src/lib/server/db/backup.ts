@@ -8,17 +8,17 @@ import { refreshLoggerSummary } from '@/lib/server/db/runs';
 type Db = Kysely<Database>;
 
 /**
- * Every row of a team a backup holds, one query per table (never one per vehicle or run), each in
- * a fixed order so that equal teams read equally.
+ * What a streamed backup reads up front: the team and its small tables, each vehicle's revision
+ * numbers (not documents), the runs' rows (not samples) and the sign-offs. Documents, samples and
+ * files are read a vehicle or a batch of runs at a time (below), so memory holds one slice.
  */
-export async function readTeamForBackup(db: Db, teamId: string) {
+export async function readTeamOutline(db: Db, teamId: string) {
 	const team = await db
 		.selectFrom('team')
 		.selectAll()
 		.where('id', '=', teamId)
 		.executeTakeFirstOrThrow();
-	const [users, members, items, vehicles, events] = await Promise.all([
-		db.selectFrom('User').select(['id', 'email']).execute(),
+	const [members, items, vehicles, events] = await Promise.all([
 		db
 			.selectFrom('membership as m')
 			.innerJoin('User as u', 'u.id', 'm.user_id')
@@ -56,24 +56,12 @@ export async function readTeamForBackup(db: Db, teamId: string) {
 	]);
 	const buildIds = vehicles.map((v) => v.build_id);
 	const vehicleIds = vehicles.map((v) => v.id);
-	const [revisions, plans, runs, signoffs] = await Promise.all([
+	const [revisionNumbers, runs, signoffs] = await Promise.all([
 		buildIds.length
 			? db
 					.selectFrom('revision')
-					.selectAll()
+					.select(['id', 'number', 'author_id'])
 					.where('build_id', 'in', buildIds)
-					.orderBy('build_id')
-					.orderBy('number')
-					.execute()
-			: [],
-		vehicleIds.length
-			? db
-					.selectFrom('plan')
-					.selectAll()
-					.where('vehicle_id', 'in', vehicleIds)
-					.orderBy('created_at')
-					.orderBy('name')
-					.orderBy('id')
 					.execute()
 			: [],
 		vehicleIds.length
@@ -100,56 +88,79 @@ export async function readTeamForBackup(db: Db, teamId: string) {
 					.execute()
 			: [],
 	]);
-	const runIds = runs.map((r) => r.id);
-	const [parts, samples, files] = await Promise.all([
-		plans.length
-			? db
-					.selectFrom('plan_part')
-					.selectAll()
-					.where(
-						'plan_id',
-						'in',
-						plans.map((p) => p.id),
-					)
-					.orderBy('position')
-					.execute()
-			: [],
-		runIds.length
-			? db
-					.selectFrom('run_sample')
-					.select(['run_id', 't_s', 'volts', 'amps'])
-					.where('run_id', 'in', runIds)
-					.orderBy('run_id')
-					.orderBy('seq')
-					.execute()
-			: [],
-		runIds.length
-			? db
-					.selectFrom('stored_file')
-					.selectAll()
-					.where('run_id', 'in', runIds)
-					.orderBy('created_at')
-					.orderBy('kind')
-					.orderBy('object_key')
-					.execute()
-			: [],
+	return { team, members, items, vehicles, events, revisionNumbers, runs, signoffs };
+}
+
+/** The e-mail addresses of the accounts named by `ids` (authors, owners, signers). */
+export async function emailsOf(db: Db, ids: string[]): Promise<Map<string, string>> {
+	const unique = [...new Set(ids)];
+	if (unique.length === 0) return new Map();
+	const rows = await db
+		.selectFrom('User')
+		.select(['id', 'email'])
+		.where('id', 'in', unique)
+		.execute();
+	return new Map(rows.map((u) => [u.id, u.email]));
+}
+
+/** One vehicle's revisions with their documents, oldest first. */
+export function readBuildRevisions(db: Db, buildId: string) {
+	return db
+		.selectFrom('revision')
+		.selectAll()
+		.where('build_id', '=', buildId)
+		.orderBy('number')
+		.execute();
+}
+
+/** One vehicle's plans with their documents and parts. */
+export async function readVehiclePlans(db: Db, vehicleId: string) {
+	const plans = await db
+		.selectFrom('plan')
+		.selectAll()
+		.where('vehicle_id', '=', vehicleId)
+		.orderBy('created_at')
+		.orderBy('name')
+		.orderBy('id')
+		.execute();
+	const parts = plans.length
+		? await db
+				.selectFrom('plan_part')
+				.selectAll()
+				.where(
+					'plan_id',
+					'in',
+					plans.map((p) => p.id),
+				)
+				.orderBy('position')
+				.execute()
+		: [];
+	return { plans, partsByPlan: groupBy(parts, (x) => x.plan_id) };
+}
+
+/** The samples and stored files of a batch of runs. */
+export async function readRunsDetail(db: Db, runIds: string[]) {
+	if (runIds.length === 0) return { samplesByRun: new Map(), filesByRun: new Map() };
+	const [samples, files] = await Promise.all([
+		db
+			.selectFrom('run_sample')
+			.select(['run_id', 't_s', 'volts', 'amps'])
+			.where('run_id', 'in', runIds)
+			.orderBy('run_id')
+			.orderBy('seq')
+			.execute(),
+		db
+			.selectFrom('stored_file')
+			.selectAll()
+			.where('run_id', 'in', runIds)
+			.orderBy('created_at')
+			.orderBy('kind')
+			.orderBy('object_key')
+			.execute(),
 	]);
-	const samplesByRun = groupBy(samples, (s) => s.run_id);
-	const filesByRun = groupBy(files, (f) => f.run_id!);
 	return {
-		team,
-		emails: new Map(users.map((u) => [u.id, u.email])),
-		members,
-		items,
-		vehicles,
-		events,
-		revisions,
-		plans,
-		parts,
-		runs,
-		samplesByRun,
-		filesByRun,
-		signoffs,
+		samplesByRun: groupBy(samples, (x) => x.run_id),
+		filesByRun: groupBy(files, (f) => f.run_id!),
 	};
 }
 
