@@ -18,7 +18,7 @@ import type { BuildDocument } from '../src/engine/types';
 import { measurementColumns } from '../src/lib/schemas/run-measurements';
 import { createDb } from '../src/lib/server/db/client';
 import type { Database } from '../src/lib/server/db/schema';
-import { loggerSummaryQuery } from '../src/lib/server/db/runs';
+import { storeLoggerSummary } from '../src/lib/server/db/runs';
 import { hashPassword } from '../src/lib/server/passwords';
 import type { Storage } from '../src/lib/server/storage';
 import { DEFAULT_CLUSTER, ensureCluster } from './cluster';
@@ -321,7 +321,11 @@ export async function generateSeason(
 					from unnest(${s.t}::float8[], ${s.v}::float8[], ${s.a}::float8[]) with ordinality as g(t, v, a, i)`.execute(
 					trx,
 				);
-				await loggerSummaryQuery(run.id).execute(trx);
+				await storeLoggerSummary(
+					trx,
+					run.id,
+					s.t.map((tS, i) => ({ tS, volts: s.v[i]!, amps: s.a[i]! })),
+				);
 				loggerRuns++;
 				samples += samplesPerLog;
 				if (opts.storage) {

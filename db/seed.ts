@@ -8,7 +8,7 @@ import { fileURLToPath } from 'node:url';
 import type { Kysely } from 'kysely';
 import { createDb } from '../src/lib/server/db/client';
 import { measurementColumns } from '../src/lib/schemas/run-measurements';
-import { refreshLoggerSummary } from '../src/lib/server/db/runs';
+import { storeLoggerSummary } from '../src/lib/server/db/runs';
 import { hashPassword } from '../src/lib/server/passwords';
 import { DEFAULT_CLUSTER, ensureCluster } from './cluster';
 import { migrateToLatest } from './migrator';
@@ -184,7 +184,7 @@ export async function seedDemo(db: Kysely<Database>, storage?: Storage): Promise
 						})),
 					)
 					.execute();
-				await refreshLoggerSummary(trx, run.id);
+				await storeLoggerSummary(trx, run.id, trace);
 				if (storage) {
 					const csv = `time_s,volts,amps\n${trace.map((s) => `${s.tS},${s.volts},${s.amps}`).join('\n')}\n`;
 					const key = `teams/${team.id}/runs/${run.id}/logger-demo.csv`;

@@ -3,7 +3,7 @@ import type { Database, Role } from '@/lib/server/db/schema';
 import { measurementColumns } from '@/lib/schemas/run-measurements';
 import type { TeamBackupContent } from '@/lib/schemas/team-backup';
 import type { ImportSummary } from '@/lib/schemas/teams';
-import { refreshLoggerSummary } from '@/lib/server/db/runs';
+import { storeLoggerSummary } from '@/lib/server/db/runs';
 
 type Db = Kysely<Database>;
 
@@ -399,7 +399,12 @@ export async function insertTeamFromBackup(
 					)
 					.execute();
 			}
-			if (r.samples.length) await refreshLoggerSummary(trx, run.id);
+			if (r.samples.length)
+				await storeLoggerSummary(
+					trx,
+					run.id,
+					r.samples.map(([tS, volts, amps]) => ({ tS, volts, amps })),
+				);
 			// Photos first, so each thumbnail takes its photo's new name.
 			const runFiles = [...(p.files[i] ?? [])].sort(
 				(a, b) => Number(a.kind === 'thumbnail') - Number(b.kind === 'thumbnail'),

@@ -6,6 +6,7 @@ import {
 	type RunMeasurements,
 } from '@/lib/schemas/run-measurements';
 import { MISMATCH_MARGIN_V, type RunDto, type RunSample } from '@/lib/schemas/runs';
+import { type LoggerPoint, loggerSummary } from '@/lib/logger-summary';
 
 type Db = Kysely<Database>;
 
@@ -224,33 +225,26 @@ export async function insertRun(
 	return { id: existing!, created: false };
 }
 
-/**
- * Stores the logger's resting and minimum voltage from the run's samples: the burp starts at the
- * first sample whose current passes halfway from the file's lowest to its highest current; resting
- * is the mean voltage of the samples before it (none when the file starts mid-burp).
- */
-export async function refreshLoggerSummary(db: Db, runId: string): Promise<void> {
-	await loggerSummaryQuery(runId).execute(db);
+/** Stores the logger's resting and minimum voltage of a run, worked out from its samples in hand. */
+export async function storeLoggerSummary(
+	db: Db,
+	runId: string,
+	samples: readonly LoggerPoint[],
+): Promise<void> {
+	const summary = loggerSummary(samples);
+	await db
+		.updateTable('run')
+		.set({ logger_min_v: summary?.minV ?? null, logger_resting_v: summary?.restingV ?? null })
+		.where('id', '=', runId)
+		.execute();
 }
 
 /**
- * The summary's statement. Every read of `run_sample` names the run itself, so each is an index
- * range on the run's own rows (the primary key leads with `run_id`): a join through the CTEs alone
- * would not carry the filter, and every upload would scan every team's samples.
+ * The statement that clears a run's old samples before a new file's are written: it names the run,
+ * so it reaches `run_sample` through the run's index range (the primary key leads with `run_id`).
  */
-export const loggerSummaryQuery = (runId: string) => sql`
-		with s as (
-			select run_id, min(amps) lo, max(amps) hi, min(volts) vmin from run_sample
-			where run_id = ${runId} group by run_id
-		), st as (
-			select min(rs.t_s) t0 from run_sample rs, s
-			where rs.run_id = ${runId} and rs.amps >= s.lo + 0.5 * (s.hi - s.lo)
-		), rest as (
-			select avg(rs.volts) v from run_sample rs, st
-			where rs.run_id = ${runId} and rs.t_s < st.t0
-		)
-		update run set logger_min_v = s.vmin, logger_resting_v = rest.v
-		from s, rest where run.id = ${runId}`;
+export const clearSamplesQuery = (db: Db, runId: string) =>
+	db.deleteFrom('run_sample').where('run_id', '=', runId);
 
 /** Changes a run's links and measurements; fields left out stay as they are. */
 export async function updateRun(
@@ -325,7 +319,7 @@ export async function replaceLoggerData(
 			.where('run_id', '=', p.runId)
 			.where('kind', '=', 'logger')
 			.execute();
-		await trx.deleteFrom('run_sample').where('run_id', '=', p.runId).execute();
+		await clearSamplesQuery(trx, p.runId).execute();
 		await trx
 			.deleteFrom('stored_file')
 			.where('run_id', '=', p.runId)
@@ -357,7 +351,7 @@ export async function replaceLoggerData(
 				)
 				.execute();
 		}
-		await refreshLoggerSummary(trx, p.runId);
+		await storeLoggerSummary(trx, p.runId, p.samples);
 		return { ok: true, replacedKeys: old.map((f) => f.object_key) };
 	});
 }
