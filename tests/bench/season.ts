@@ -92,8 +92,9 @@ try {
 	}
 
 	// Logger uploads of 3,000 samples into runs without one.
+	// The second vehicle's runs (the generator logs every third run: the first vehicle's all are).
 	const runs = (await (
-		await captain.fetch(`/api/teams/${teamId}/runs?vehicleId=${v.id}&limit=60`)
+		await captain.fetch(`/api/teams/${teamId}/runs?vehicleId=${vehicles[1]!.id}&limit=60`)
 	).json()) as { id: string; hasLogger: boolean }[];
 	const csv = `time_s,volts,amps\n${Array.from({ length: 3000 }, (_, i) => `${(i / 20).toFixed(2)},${(i > 600 && i < 1800 ? 11.7 : 12.8).toFixed(3)},${i > 600 && i < 1800 ? 640 : 12}`).join('\n')}\n`;
 	const uploads: number[] = [];
@@ -112,6 +113,7 @@ try {
 		if (res.status !== 201) throw new Error(`upload answered ${res.status}`);
 		uploads.push(performance.now() - t0);
 	}
+	if (uploads.length === 0) throw new Error('no run without a logger file to upload to');
 	const median = pct(uploads, 50);
 	rows.push([
 		`logger upload, 3,000 samples (median of ${uploads.length})`,

@@ -34,7 +34,7 @@ const checksumOf = (team: unknown) =>
 const lastSegment = (key: string) => key.slice(key.lastIndexOf('/') + 1);
 
 /** Runs whose samples and files are read together while a backup streams. */
-const RUN_BATCH = 25;
+const RUN_BATCH = 10;
 
 /**
  * A whole team as a backup file, produced piece by piece: members by e-mail and role, manual check
@@ -103,7 +103,9 @@ export async function* exportTeamChunks(
 			.map((p) => p.created_by)
 			.filter((id): id is string => !!id && !emails.has(id));
 		for (const [id, email] of await emailsOf(db, missing)) emails.set(id, email);
-		const vehicle: TeamBackupContent['vehicles'][number] = {
+		// The vehicle's own fields, then its revisions and plans one piece each (its last two keys):
+		// no single piece is a whole vehicle's history.
+		const outline: Omit<TeamBackupContent['vehicles'][number], 'revisions' | 'plans'> = {
 			key: vehicleKey.get(v.id)!,
 			name: v.name,
 			description: v.description,
@@ -113,7 +115,10 @@ export async function* exportTeamChunks(
 			ownerEmail: emailOf(v.owner_id) ?? v.imported_by,
 			createdAt: iso(v.created_at),
 			headRevision: num(v.head_revision_id),
-			revisions: revisions.map((r) => ({
+		};
+		yield part(`${i ? ',' : ''}${JSON.stringify(outline).slice(0, -1)},"revisions":[`);
+		for (const [k, r] of revisions.entries()) {
+			const revision: TeamBackupContent['vehicles'][number]['revisions'][number] = {
 				number: r.number,
 				parent: num(r.parent_id),
 				restoredFrom: num(r.restored_from_id),
@@ -121,8 +126,12 @@ export async function* exportTeamChunks(
 				authorEmail: emailOf(r.author_id) ?? r.imported_by,
 				createdAt: iso(r.created_at),
 				document: r.document as BuildDocument,
-			})),
-			plans: plans.map((p) => ({
+			};
+			yield part(`${k ? ',' : ''}${JSON.stringify(revision)}`);
+		}
+		yield part('],"plans":[');
+		for (const [k, p] of plans.entries()) {
+			const plan: TeamBackupContent['vehicles'][number]['plans'][number] = {
 				name: p.name,
 				notes: p.notes,
 				baseRevision: num(p.base_revision_id),
@@ -139,9 +148,10 @@ export async function* exportTeamChunks(
 					unitPriceMinor: Number(x.unit_price_minor),
 					link: x.link,
 				})),
-			})),
-		};
-		yield part(`${i ? ',' : ''}${JSON.stringify(vehicle)}`);
+			};
+			yield part(`${k ? ',' : ''}${JSON.stringify(plan)}`);
+		}
+		yield part(']}');
 	}
 	yield part(']');
 

@@ -80,6 +80,31 @@ export async function findLastRuns(db: Db, teamId: string): Promise<RunDto[]> {
 	return rows.map(toRunDto);
 }
 
+/** Each vehicle's `perVehicle` latest runs, oldest first (the day page), never the whole season. */
+export async function findLatestRuns(
+	db: Db,
+	teamId: string,
+	perVehicle: number,
+): Promise<RunDto[]> {
+	const { rows } = await sql<{ id: string }>`
+		select id from (
+			select r.id, row_number() over (partition by r.vehicle_id order by r.ran_at desc, r.id desc) n
+			from run r join vehicle v on v.id = r.vehicle_id
+			where v.team_id = ${teamId}
+		) latest where n <= ${perVehicle}`.execute(db);
+	if (rows.length === 0) return [];
+	const found = await runQuery(db, teamId)
+		.where(
+			'r.id',
+			'in',
+			rows.map((r) => r.id),
+		)
+		.orderBy('r.ran_at')
+		.orderBy('r.id')
+		.execute();
+	return found.map(toRunDto);
+}
+
 /**
  * The season chart's points: each vehicle's best score of each day it scored (the time of that
  * run), oldest first. A day of twenty runs is one point, so the chart carries what it can show
