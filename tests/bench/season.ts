@@ -139,10 +139,33 @@ try {
 	const t0 = performance.now();
 	const res = await captain.fetch(`/api/teams/${teamId}/export`);
 	let size = 0;
-	for await (const chunk of res.body!) size += (chunk as Uint8Array).byteLength;
+	const pieces: Uint8Array[] = [];
+	for await (const chunk of res.body!) {
+		size += (chunk as Uint8Array).byteLength;
+		pieces.push(chunk as Uint8Array);
+	}
 	const took = performance.now() - t0;
 	polling = false;
 	await poller;
+
+	// The same file restored as a new team (how long, and what it costs the server's memory).
+	const rssBefore = rssMb();
+	let importPeak = rssBefore;
+	let importing = true;
+	const watcher = (async () => {
+		while (importing) {
+			importPeak = Math.max(importPeak, rssMb());
+			await new Promise((r) => setTimeout(r, 100));
+		}
+	})();
+	const form = new FormData();
+	form.set('file', new Blob(pieces as BlobPart[], { type: 'application/json' }), 'season.json');
+	const i0 = performance.now();
+	const imported = await captain.fetch('/api/teams/import', { method: 'POST', body: form });
+	await imported.arrayBuffer();
+	const importS = (performance.now() - i0) / 1000;
+	importing = false;
+	await watcher;
 	rows.push([
 		'backup export',
 		`${(size / 1048576).toFixed(1)} MB in ${(took / 1000).toFixed(1)} s`,
@@ -160,6 +183,19 @@ try {
 		`${pct(health, 99).toFixed(0)} ms`,
 		'< 200 ms',
 		pct(health, 99) < 200,
+	]);
+
+	rows.push([
+		'backup import (the same file)',
+		`${imported.status} in ${importS.toFixed(1)} s`,
+		'< 60 s',
+		imported.status === 201 && importS < 60,
+	]);
+	rows.push([
+		'memory growth during import',
+		`${(importPeak - rssBefore).toFixed(0)} MB`,
+		'< 200 MB',
+		importPeak - rssBefore < 200,
 	]);
 
 	console.log(`\nA season's volume (${TEAMS} season teams in the database)\n`);
