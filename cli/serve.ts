@@ -160,6 +160,13 @@ export function createFront(
 	// Reads only: what a page, a report or a script sends back. A write's answer is small, and the
 	// compressor's hold on the response must not meet a request body still being read.
 	return (req, res) => {
+		// A response whose body fails part way (a backup export whose file store stopped) is
+		// destroyed with that error: it ends that download, never the process.
+		res.on('error', (error) => {
+			process.stderr.write(
+				`${JSON.stringify({ level: 'warn', time: new Date().toISOString(), msg: 'response ended by an error', url: (req.url ?? '').split('?')[0], err: error.message })}\n`,
+			);
+		});
 		if (req.method !== 'GET' && req.method !== 'HEAD') return handle(req, res);
 		if (servePrecompressed(req, res)) return;
 		compress(req, res, () => handle(req, res));

@@ -35,11 +35,8 @@ export async function startBenchApp(
 		port: 0,
 		dir: mkdtempSync(path.join(tmpdir(), 'sagwise-bench-mail-')),
 	});
-	const s3 = await startS3Fake({
-		port: 0,
-		dir: mkdtempSync(path.join(tmpdir(), 'sagwise-bench-s3-')),
-		bucket: 'sagwise-files',
-	});
+	// Kept beside the bench cluster: files uploaded by one bench run are still there for the next.
+	const s3 = await startS3Fake({ port: 0, dir: '.data/bench-s3', bucket: 'sagwise-files' });
 	const server = await startAppServer(port, {
 		DATABASE_URL: dbUrl,
 		SMTP_URL: `smtp://127.0.0.1:${smtp.port}`,

@@ -217,6 +217,26 @@ describe('faults: the database and the file store go away under load', () => {
 		expect((await fetch(`${server.url}/api/health`)).status).toBe(200);
 	}, 60_000);
 
+	it('ends a backup download unfinished when the file store stops part way, and keeps serving', async () => {
+		expect((await postPhoto()).status).toBe(201);
+		await s3.close();
+		try {
+			const res = await member.fetch(`/api/teams/${teamId}/export`);
+			const text = await res.text();
+			// The answer began before the files were read: it ends, unfinished, and reads as no backup.
+			expect(res.status).toBe(200);
+			expect(() => JSON.parse(text)).toThrow();
+			expect(server.process.exitCode).toBeNull();
+			const health = await fetch(`${server.url}/api/health`);
+			expect(health.status).toBe(503);
+		} finally {
+			s3 = await startS3Fake({ port: s3Port, dir: s3Dir, bucket: 'sagwise-files' });
+		}
+		const again = await member.fetch(`/api/teams/${teamId}/export`);
+		expect(again.status).toBe(200);
+		expect(JSON.parse(await again.text())).toMatchObject({ format: expect.any(String) });
+	}, 60_000);
+
 	it('does not hang on a frozen file store: every storage call has a deadline', async () => {
 		proxy.freeze();
 		try {

@@ -7,7 +7,8 @@ import { exportTeamChunks } from '@/lib/server/team-backup';
  * The whole team as one versioned backup file (viewers and up), streamed: it is read and written
  * a vehicle or a batch of runs at a time, each piece sent when the client has taken the last, so
  * a season's backup neither fills the server's memory nor holds other requests. A failure part
- * way (the file store down) ends the download unfinished, which the import refuses as unreadable.
+ * way (the file store down) ends the download unfinished (not valid JSON), which the import
+ * refuses as unreadable; the server carries on.
  */
 export const GET: APIRoute = async ({ params, locals, request }) => {
 	const auth = await requireTeamRole(locals, params.teamId, 'viewer');
@@ -30,8 +31,9 @@ export const GET: APIRoute = async ({ params, locals, request }) => {
 				if (next.done) controller.close();
 				else controller.enqueue(encoder.encode(next.value));
 			} catch (error) {
+				// The answer has begun (200): the file ends unfinished, which no import accepts.
 				log.error({ err: errorField(error) }, 'team export stopped part way');
-				controller.error(error);
+				controller.close();
 			}
 		},
 		async cancel() {
