@@ -73,7 +73,7 @@ const guardResponses = defineMiddleware(async (context, next) => {
 		response = await runWithRequest(facts, () => next());
 	} catch (error) {
 		failure = error;
-		response = await runWithRequest(facts, () => {
+		response = runWithRequest(facts, () => {
 			if (isDatabaseUnavailable(error)) return unavailable('database');
 			if (isStorageUnavailable(error)) return unavailable('storage');
 			if (error instanceof EngineBusy) return busyAnswer(error);

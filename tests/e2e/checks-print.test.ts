@@ -62,6 +62,9 @@ describe('pre-event checklist in chromium', () => {
 		writeFileSync(path.join(SCREENSHOT_DIR, 'checklist.pdf'), pdf);
 		expect(pdf.subarray(0, 5).toString()).toBe('%PDF-');
 		expect(pdf.byteLength).toBeGreaterThan(10_000);
+		// The demo's sheet fits one A4 page, signature lines and all.
+		const pages = pdf.toString('latin1').match(/\/Type\s*\/Page(?!s)/g) ?? [];
+		expect(pages).toHaveLength(1);
 		expect(b.problems).toEqual([]);
 	});
 

@@ -193,181 +193,6 @@ export function BuildWorkspaceView({
 			onFocusCapture={canEdit ? want : undefined}
 			onPointerDownCapture={canEdit ? want : undefined}
 		>
-			{/* Status and save */}
-			<section
-				aria-label="Draft and saving"
-				className="-mx-2 flex flex-col gap-2 rounded-md border border-hairline bg-card/95 p-3 shadow-sm backdrop-blur"
-			>
-				<div className="flex flex-wrap items-center gap-3">
-					<span className="text-sm">
-						{head ? (
-							<>
-								Based on <strong>revision {head.number}</strong> · {head.message}
-							</>
-						) : (
-							<strong>No revision yet: this is a starting point</strong>
-						)}
-					</span>
-					{dirty && (
-						<span className="rounded bg-amber-tint px-2 py-0.5 text-xs font-semibold text-ink">
-							● {changes.length} unsaved change{changes.length === 1 ? '' : 's'}
-						</span>
-					)}
-					{errorCount > 0 && (
-						<span className="rounded bg-brick-tint px-2 py-0.5 text-xs font-semibold text-brick">
-							✕ {errorCount} field{errorCount === 1 ? '' : 's'} to fix
-						</span>
-					)}
-					<span className="flex-1" />
-					<fieldset className="flex items-center gap-1 text-sm">
-						<legend className="sr-only">Units</legend>
-						{(['imperial', 'metric'] as const).map((u) => (
-							<label
-								key={u}
-								className={`cursor-pointer rounded px-2 py-1 ${units === u ? 'bg-slate-deep text-paper' : 'bg-paper'}`}
-							>
-								<input
-									type="radio"
-									name="units"
-									className="sr-only"
-									checked={units === u}
-									onChange={() => void saveUnits(u)}
-								/>
-								{u === 'imperial' ? 'ft · AWG' : 'm · mm²'}
-							</label>
-						))}
-					</fieldset>
-				</div>
-				{canEdit && (
-					<form
-						className="flex flex-wrap items-center gap-2"
-						onSubmit={(e) => {
-							e.preventDefault();
-							void save(baseId);
-						}}
-					>
-						<label htmlFor="revision-message" className="sr-only">
-							What changed and why
-						</label>
-						<input
-							id="revision-message"
-							value={message}
-							onChange={(e) => setMessage(e.target.value)}
-							placeholder="What changed and why (e.g. run upgraded to 1/0 after the last event)"
-							className="min-w-72 flex-1 rounded-md border border-hairline bg-card px-3 py-2"
-							maxLength={500}
-						/>
-						<Button
-							type="submit"
-							busy={saveState.busy}
-							disabled={saveBlocked !== null}
-							aria-describedby="save-blocked"
-						>
-							Save revision
-						</Button>
-
-						<label className="cursor-pointer rounded-md border border-hairline bg-card px-3 py-2 text-sm font-semibold hover:border-copper">
-							Load a JSON file
-							<input
-								type="file"
-								accept="application/json,.json"
-								className="sr-only"
-								onChange={async (e) => {
-									const f = e.target.files?.[0];
-									e.target.value = '';
-									if (!f) return;
-									let raw: unknown;
-									try {
-										raw = JSON.parse(await f.text());
-									} catch {
-										return setSaveState((s) => ({
-											...s,
-											error: `${f.name} is not valid JSON.`,
-											ok: null,
-										}));
-									}
-									const { parseBuildDocument } = await loadDraftCheck();
-									const parsed = parseBuildDocument(raw);
-									if (!parsed.ok) {
-										return setSaveState((s) => ({
-											...s,
-											ok: null,
-											error: `${f.name} was not loaded: ${parsed.problems
-												.slice(0, 4)
-												.map((p) => `${p.path || 'document'}: ${p.message}`)
-												.join(' · ')}`,
-										}));
-									}
-									setDraft(parsed.doc);
-									setSaveState((s) => ({
-										...s,
-										error: null,
-										ok: `${f.name} is loaded into the draft; save it as a revision to keep it.`,
-									}));
-								}}
-							/>
-						</label>
-						{dirty && (
-							<Button
-								type="button"
-								variant="secondary"
-								onClick={() => {
-									if (!window.confirm('Throw away the unsaved changes?')) return;
-									buildDrafts.clear(vehicleId);
-									setDraft(baseDoc);
-									setBaseId(head?.id ?? null);
-									setRestored(null);
-								}}
-							>
-								Discard
-							</Button>
-						)}
-					</form>
-				)}
-				{canEdit && (
-					// Always there and one line tall: its words change as the draft does, its height never.
-					<p
-						id="save-blocked"
-						className="h-5 truncate text-sm text-ink-soft"
-						data-save-blocked
-						aria-live="polite"
-					>
-						{saveBlocked ?? 'Ready to save.'}
-					</p>
-				)}
-				{restored && <FormMessage tone="info">{restored}</FormMessage>}
-				{saveState.ok && (
-					<FormMessage tone="ok">
-						{saveState.ok}{' '}
-						<a
-							className="font-semibold underline"
-							href={`/teams/${teamId}/vehicles/${vehicleId}/history`}
-						>
-							See the history
-						</a>
-					</FormMessage>
-				)}
-				{saveState.error && <FormMessage tone="error">{saveState.error}</FormMessage>}
-				{saveState.conflict && (
-					<ConflictPanel
-						theirs={saveState.conflict}
-						mine={draft}
-						units={units}
-						onKeepMine={() => {
-							setHead(saveState.conflict);
-							void save(saveState.conflict!.id);
-						}}
-						onTakeTheirs={() => {
-							buildDrafts.clear(vehicleId);
-							setHead(saveState.conflict);
-							setBaseId(saveState.conflict!.id);
-							setDraft(saveState.conflict!.document);
-							setSaveState({ busy: false, error: null, ok: null, conflict: null });
-						}}
-					/>
-				)}
-			</section>
-
 			<Workbench
 				draft={draft}
 				errors={errors ?? NO_ERRORS}
@@ -377,6 +202,182 @@ export function BuildWorkspaceView({
 				baseline={head ? baseDoc : null}
 				baselineRevisionId={head?.id ?? null}
 				computeOnServer={figuresServed}
+				// The draft and its save box sit right under the key figures, not above them.
+				afterSummary={
+					<section
+						aria-label="Draft and saving"
+						className="-mx-2 flex flex-col gap-2 rounded-md border border-hairline bg-card/95 p-3 shadow-sm backdrop-blur"
+					>
+						<div className="flex flex-wrap items-center gap-3">
+							<span className="text-sm">
+								{head ? (
+									<>
+										Based on <strong>revision {head.number}</strong> · {head.message}
+									</>
+								) : (
+									<strong>No revision yet: this is a starting point</strong>
+								)}
+							</span>
+							{dirty && (
+								<span className="rounded bg-amber-tint px-2 py-0.5 text-xs font-semibold text-ink">
+									● {changes.length} unsaved change{changes.length === 1 ? '' : 's'}
+								</span>
+							)}
+							{errorCount > 0 && (
+								<span className="rounded bg-brick-tint px-2 py-0.5 text-xs font-semibold text-brick">
+									✕ {errorCount} field{errorCount === 1 ? '' : 's'} to fix
+								</span>
+							)}
+							<span className="flex-1" />
+							<fieldset className="flex items-center gap-1 text-sm">
+								<legend className="sr-only">Units</legend>
+								{(['imperial', 'metric'] as const).map((u) => (
+									<label
+										key={u}
+										className={`cursor-pointer rounded px-2 py-1 ${units === u ? 'bg-slate-deep text-paper' : 'bg-paper'}`}
+									>
+										<input
+											type="radio"
+											name="units"
+											className="sr-only"
+											checked={units === u}
+											onChange={() => void saveUnits(u)}
+										/>
+										{u === 'imperial' ? 'ft · AWG' : 'm · mm²'}
+									</label>
+								))}
+							</fieldset>
+						</div>
+						{canEdit && (
+							<form
+								className="flex flex-wrap items-center gap-2"
+								onSubmit={(e) => {
+									e.preventDefault();
+									void save(baseId);
+								}}
+							>
+								<label htmlFor="revision-message" className="sr-only">
+									What changed and why
+								</label>
+								<input
+									id="revision-message"
+									value={message}
+									onChange={(e) => setMessage(e.target.value)}
+									placeholder="What changed and why (e.g. run upgraded to 1/0 after the last event)"
+									className="min-w-72 flex-1 rounded-md border border-hairline bg-card px-3 py-2"
+									maxLength={500}
+								/>
+								<Button
+									type="submit"
+									busy={saveState.busy}
+									disabled={saveBlocked !== null}
+									aria-describedby="save-blocked"
+								>
+									Save revision
+								</Button>
+
+								<label className="cursor-pointer rounded-md border border-hairline bg-card px-3 py-2 text-sm font-semibold hover:border-copper">
+									Load a JSON file
+									<input
+										type="file"
+										accept="application/json,.json"
+										className="sr-only"
+										onChange={async (e) => {
+											const f = e.target.files?.[0];
+											e.target.value = '';
+											if (!f) return;
+											let raw: unknown;
+											try {
+												raw = JSON.parse(await f.text());
+											} catch {
+												return setSaveState((s) => ({
+													...s,
+													error: `${f.name} is not valid JSON.`,
+													ok: null,
+												}));
+											}
+											const { parseBuildDocument } = await loadDraftCheck();
+											const parsed = parseBuildDocument(raw);
+											if (!parsed.ok) {
+												return setSaveState((s) => ({
+													...s,
+													ok: null,
+													error: `${f.name} was not loaded: ${parsed.problems
+														.slice(0, 4)
+														.map((p) => `${p.path || 'document'}: ${p.message}`)
+														.join(' · ')}`,
+												}));
+											}
+											setDraft(parsed.doc);
+											setSaveState((s) => ({
+												...s,
+												error: null,
+												ok: `${f.name} is loaded into the draft; save it as a revision to keep it.`,
+											}));
+										}}
+									/>
+								</label>
+								{dirty && (
+									<Button
+										type="button"
+										variant="secondary"
+										onClick={() => {
+											if (!window.confirm('Throw away the unsaved changes?')) return;
+											buildDrafts.clear(vehicleId);
+											setDraft(baseDoc);
+											setBaseId(head?.id ?? null);
+											setRestored(null);
+										}}
+									>
+										Discard
+									</Button>
+								)}
+							</form>
+						)}
+						{canEdit && (
+							// Always there and one line tall: its words change as the draft does, its height never.
+							<p
+								id="save-blocked"
+								className="h-5 truncate text-sm text-ink-soft"
+								data-save-blocked
+								aria-live="polite"
+							>
+								{saveBlocked ?? 'Ready to save.'}
+							</p>
+						)}
+						{restored && <FormMessage tone="info">{restored}</FormMessage>}
+						{saveState.ok && (
+							<FormMessage tone="ok">
+								{saveState.ok}{' '}
+								<a
+									className="font-semibold underline"
+									href={`/teams/${teamId}/vehicles/${vehicleId}/history`}
+								>
+									See the history
+								</a>
+							</FormMessage>
+						)}
+						{saveState.error && <FormMessage tone="error">{saveState.error}</FormMessage>}
+						{saveState.conflict && (
+							<ConflictPanel
+								theirs={saveState.conflict}
+								mine={draft}
+								units={units}
+								onKeepMine={() => {
+									setHead(saveState.conflict);
+									void save(saveState.conflict!.id);
+								}}
+								onTakeTheirs={() => {
+									buildDrafts.clear(vehicleId);
+									setHead(saveState.conflict);
+									setBaseId(saveState.conflict!.id);
+									setDraft(saveState.conflict!.document);
+									setSaveState({ busy: false, error: null, ok: null, conflict: null });
+								}}
+							/>
+						)}
+					</section>
+				}
 				summaryExtra={
 					// Always one line tall (a change appearing must not move the page under the cursor).
 					canEdit &&

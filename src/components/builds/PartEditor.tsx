@@ -1,4 +1,4 @@
-import { useMemo, useState } from 'react';
+import { useEffect, useMemo, useState } from 'react';
 import type { BuildDocument, PartGroup } from '@/engine';
 import type { UnitSystem } from '@/lib/format';
 import { useHydrated } from '@/lib/client/use-hydrated';
@@ -50,6 +50,18 @@ export function PartEditor({
 		onChange((d) => ({ ...d, [group]: d[group].map((x, i) => (i === index ? next : x)) }));
 	}
 	const [adding, setAdding] = useState<PartGroup | null>(null);
+	// After a part is added, the work goes on in its row: focus moves to the new row's first field.
+	const [focusGroup, setFocusGroup] = useState<PartGroup | null>(null);
+	useEffect(() => {
+		if (!focusGroup) return;
+		const rows = document.querySelectorAll<HTMLElement>(
+			`table[data-part-group="${focusGroup}"] tbody tr`,
+		);
+		const field = rows[rows.length - 1]?.querySelector<HTMLElement>('input, select, textarea');
+		field?.focus();
+		field?.scrollIntoView?.({ block: 'center' });
+		setFocusGroup(null);
+	}, [draft, focusGroup]);
 	/** The group's "+ Add" opens a form that asks where the part goes. */
 	const add = (group: PartGroup) => (canEdit ? () => setAdding(group) : undefined);
 	const addForm = (group: PartGroup) =>
@@ -61,6 +73,7 @@ export function PartEditor({
 				onAdd={(change) => {
 					onChange(change);
 					setAdding(null);
+					setFocusGroup(group);
 				}}
 			/>
 		);
@@ -189,6 +202,8 @@ function EditGroup({
 					<button
 						type="button"
 						onClick={onAdd}
+						// A held key opens the form once, not again and again.
+						onKeyDown={(e) => e.repeat && e.preventDefault()}
 						className="rounded-md border border-hairline bg-card px-2 py-0.5 text-sm hover:border-copper"
 					>
 						+ Add<span className="sr-only"> to {title.toLowerCase()}</span>

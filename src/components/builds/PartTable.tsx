@@ -1,5 +1,6 @@
 import { type ColumnDef, flexRender, getCoreRowModel, useReactTable } from '@tanstack/react-table';
 import { memo, useEffect, useMemo, useState } from 'react';
+import { ScrollRegion } from '@/components/ui/ScrollRegion';
 
 export type CellSpec<T> =
 	| { kind: 'text'; get: (row: T) => string; set: (row: T, v: string) => T }
@@ -226,8 +227,8 @@ export function PartTable<T extends { id: string; label: string }>({
 		getRowId: (r) => r.id,
 	});
 	return (
-		<div className="overflow-x-auto rounded-md border border-hairline bg-card">
-			<table className="w-full text-sm">
+		<ScrollRegion label={caption} className="rounded-md border border-hairline bg-card">
+			<table className="w-full text-sm" data-part-group={pathPrefix}>
 				<caption className="sr-only">{caption}</caption>
 				<thead className="border-b border-hairline bg-paper text-left text-xs text-ink-soft">
 					{table.getHeaderGroups().map((hg) => (
@@ -263,7 +264,7 @@ export function PartTable<T extends { id: string; label: string }>({
 					))}
 				</tbody>
 			</table>
-		</div>
+		</ScrollRegion>
 	);
 }
 

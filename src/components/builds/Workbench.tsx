@@ -117,6 +117,8 @@ export interface WorkbenchProps {
 	baselineRevisionId?: string | null;
 	/** Shown in the sticky summary (the build page's unsaved-changes note and way to Save). */
 	summaryExtra?: React.ReactNode;
+	/** Right under the key figures (the build page's draft and save box). */
+	afterSummary?: React.ReactNode;
 	/**
 	 * Whether the first render shows figures. The build page's server puts its saved head's report
 	 * in place from the engine's pool first (and says so here); a plan page does not, so its
@@ -151,6 +153,7 @@ export function Workbench({
 	baseline = null,
 	baselineRevisionId = null,
 	summaryExtra,
+	afterSummary,
 	computeOnServer = false,
 }: WorkbenchProps) {
 	const hydrated = useHydrated();
@@ -209,8 +212,24 @@ export function Workbench({
 
 	return (
 		<>
-			<ScenarioControls scenario={scenario} onChange={setScenario} />
-
+			{ok && (
+				<SummaryStrip
+					report={ok}
+					baseline={baseReport}
+					stale={stale}
+					extra={summaryExtra}
+					besideInspector={selection !== null}
+					partLabel={(w) => {
+						const group = KIND_GROUP[w.element.kind as keyof typeof KIND_GROUP];
+						const part = group
+							? (draft[group] as Array<{ id: string; label?: string }>).find(
+									(p) => p.id === w.element.id,
+								)
+							: undefined;
+						return part && group ? `${GROUP_NAMES[group]} “${part.label || part.id}”` : 'the build';
+					}}
+				/>
+			)}
 			{/* Always one line tall, error or not: a message appearing here must not push the part being edited down the page. */}
 			<div className="h-16 overflow-hidden sm:h-11 [&_p>span:last-child]:line-clamp-2">
 				{!canCompute ? (
@@ -232,23 +251,10 @@ export function Workbench({
 				)}
 			</div>
 
-			{ok && (
-				<SummaryStrip
-					report={ok}
-					baseline={baseReport}
-					stale={stale}
-					extra={summaryExtra}
-					partLabel={(w) => {
-						const group = KIND_GROUP[w.element.kind as keyof typeof KIND_GROUP];
-						const part = group
-							? (draft[group] as Array<{ id: string; label?: string }>).find(
-									(p) => p.id === w.element.id,
-								)
-							: undefined;
-						return part && group ? `${GROUP_NAMES[group]} “${part.label || part.id}”` : 'the build';
-					}}
-				/>
-			)}
+			{afterSummary}
+
+			<ScenarioControls scenario={scenario} onChange={setScenario} />
+
 			{later && <FindingsMemo warnings={later.warnings} />}
 
 			<section aria-labelledby="diagram-heading">

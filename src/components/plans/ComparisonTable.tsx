@@ -13,6 +13,7 @@ import { fmt, formatMoney } from '@/lib/format';
 import { CHART_COLOURS } from '@/components/builds/chart-data';
 import { Button } from '@/components/ui/Field';
 import { installQuestion } from '@/lib/client/install-plan';
+import { ScrollRegion } from '@/components/ui/ScrollRegion';
 
 ChartJS.register(CategoryScale, LinearScale, BarElement, Tooltip, Legend);
 
@@ -95,7 +96,10 @@ export function ComparisonTable({ data, canInstall, installing, installed, onIns
 
 	return (
 		<div className="flex flex-col gap-4">
-			<div className="overflow-x-auto rounded-md border border-hairline bg-card">
+			<ScrollRegion
+				label="Current build and plans side by side"
+				className="rounded-md border border-hairline bg-card"
+			>
 				<table className="w-full text-sm" aria-label="Current build and plans side by side">
 					<thead>
 						<tr className="bg-slate-deep text-paper">
@@ -349,7 +353,7 @@ export function ComparisonTable({ data, canInstall, installing, installed, onIns
 						)}
 					</tbody>
 				</table>
-			</div>
+			</ScrollRegion>
 			<div className="rounded-md border border-hairline bg-card p-3">
 				<div className="h-64">
 					<Bar

@@ -27,6 +27,7 @@ import { sameJson } from '@/lib/same-json';
 import { installConfirmed } from '@/lib/client/install-plan';
 import { useHydrated } from '@/lib/client/use-hydrated';
 import { unpackJson } from '@/lib/packed-json';
+import { ScrollRegion } from '@/components/ui/ScrollRegion';
 
 export interface PlanWorkspaceProps {
 	teamId: string;
@@ -403,7 +404,10 @@ function PlanWorkspaceView({
 					Prices per unit in {currency}. The link is kept as text (a catalogue page, a shop's part
 					number).
 				</p>
-				<div className="mt-3 overflow-x-auto rounded-md border border-hairline bg-card">
+				<ScrollRegion
+					label="Parts to buy"
+					className="mt-3 rounded-md border border-hairline bg-card"
+				>
 					<table className="w-full text-sm">
 						<caption className="sr-only">Parts list</caption>
 						<thead className="bg-paper text-xs text-ink-soft">
@@ -413,7 +417,11 @@ function PlanWorkspaceView({
 								<th className="w-32 px-3 py-2 text-right">Unit price</th>
 								<th className="px-3 py-2 text-left">Link or reference</th>
 								<th className="w-32 px-3 py-2 text-right">Line total</th>
-								{canEdit && <th className="w-10 px-3 py-2" />}
+								{canEdit && (
+									<th className="w-10 px-3 py-2">
+										<span className="sr-only">Remove</span>
+									</th>
+								)}
 							</tr>
 						</thead>
 						<tbody>
@@ -504,7 +512,7 @@ function PlanWorkspaceView({
 							</tr>
 						</tfoot>
 					</table>
-				</div>
+				</ScrollRegion>
 				<div className="mt-3 flex flex-col gap-1">
 					<label htmlFor="plan-notes" className="text-sm font-semibold">
 						Notes

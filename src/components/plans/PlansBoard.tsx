@@ -15,6 +15,7 @@ import { Button, Field, FormMessage } from '@/components/ui/Field';
 import { ComparisonTable } from './ComparisonTable';
 import { RelativeTime } from '@/components/ui/RelativeTime';
 import { type AddedDanger, installConfirmed } from '@/lib/client/install-plan';
+import { ScrollRegion } from '@/components/ui/ScrollRegion';
 
 export interface PlansBoardProps {
 	teamId: string;
@@ -117,7 +118,7 @@ function PlansBoardView({
 							: 'Members and captains start plans.'}
 					</p>
 				) : (
-					<div className="mt-3 overflow-x-auto rounded-md border border-hairline bg-card">
+					<ScrollRegion label="Plans" className="mt-3 rounded-md border border-hairline bg-card">
 						<table className="w-full text-sm">
 							<caption className="sr-only">Plans</caption>
 							<thead className="bg-paper text-xs text-ink-soft">
@@ -177,7 +178,7 @@ function PlansBoardView({
 								})}
 							</tbody>
 						</table>
-					</div>
+					</ScrollRegion>
 				)}
 			</section>
 

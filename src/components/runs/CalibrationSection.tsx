@@ -9,6 +9,7 @@ import { calibrateInWorker } from '@/lib/client/engine-worker';
 import { useCreatePlan } from '@/lib/client/queries/plans';
 import { defaultCalibrationFit, engineSpeedGuess } from '@/lib/engine-speed-guess';
 import { fmt } from '@/lib/format';
+import { ScrollRegion } from '@/components/ui/ScrollRegion';
 
 interface Props {
 	teamId: string;
@@ -215,7 +216,7 @@ export function CalibrationSection({
 						drawn, and by <strong className="num">{fmt(result.rmsAfterV, 3)} V</strong> with the
 						fitted values, over {result.points} samples.
 					</p>
-					<div className="mt-2 overflow-x-auto">
+					<ScrollRegion label="Fitted values" className="mt-2">
 						<table className="num w-full text-left">
 							<caption className="sr-only">Fitted values</caption>
 							<thead>
@@ -255,7 +256,7 @@ export function CalibrationSection({
 								))}
 							</tbody>
 						</table>
-					</div>
+					</ScrollRegion>
 					{result.parameters.some((p) => p.reason) && (
 						<ul className="mt-2 flex flex-col gap-1 text-ink-soft" data-undetermined>
 							{result.parameters

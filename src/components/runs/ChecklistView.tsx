@@ -180,7 +180,7 @@ export const ChecklistView = withQueryClient(function ChecklistView({
 					return (
 						<li
 							key={item.key}
-							className="flex flex-wrap items-start gap-3 px-4 py-3 break-inside-avoid"
+							className="flex flex-wrap items-start gap-3 px-4 py-3 break-inside-avoid print:py-1.5 print:text-sm"
 							data-item={item.key}
 						>
 							<span className={`text-lg font-bold ${icon.cls}`} aria-hidden="true">
@@ -317,7 +317,11 @@ export const ChecklistView = withQueryClient(function ChecklistView({
 				})}
 			</ol>
 			{error && <FormMessage tone="error">{error}</FormMessage>}
-			<div className="hidden grid-cols-3 gap-6 pt-6 text-sm print:grid" aria-hidden="true">
+			{/* Printed: kept with the last item, never alone on a page of its own. */}
+			<div
+				className="hidden grid-cols-3 gap-6 pt-6 text-sm print:grid print:break-before-avoid print:break-inside-avoid print:pt-3"
+				aria-hidden="true"
+			>
 				{['Inspector’s name', 'Inspector’s signature', 'Date and time'].map((l) => (
 					<div key={l}>
 						<div className="h-8 border-b border-ink" />

@@ -22,6 +22,7 @@ import {
 } from './trace-comparison-data';
 import { useLocalFormat } from '@/lib/client/local-time';
 import { runVoltage } from '@/lib/run-figures';
+import { ScrollRegion } from '@/components/ui/ScrollRegion';
 
 const traceOptions = voltsAndAmpsOptions(
 	'Time since the burp began (s)',
@@ -207,7 +208,7 @@ export function RunTraceComparison({
 							<p className="text-sm text-ink-soft">None of the chosen runs has a logger file.</p>
 						)}
 					</div>
-					<div className="overflow-x-auto">
+					<ScrollRegion label="Measurements of the compared runs">
 						<table className="w-full rounded-md border border-hairline bg-card text-sm">
 							<caption className="sr-only">The chosen runs’ measurements side by side</caption>
 							<thead className="bg-paper text-xs text-ink-soft">
@@ -263,7 +264,7 @@ export function RunTraceComparison({
 								))}
 							</tbody>
 						</table>
-					</div>
+					</ScrollRegion>
 					{chosen.length > 1 && (
 						<div>
 							<h3 className="font-semibold">What changed between their revisions</h3>

@@ -7,6 +7,7 @@ import { runVoltage } from '@/lib/run-figures';
 /** On a phone the table keeps when, the score, the minimum voltage and the compare box in view. */
 const onPhone = (f: string) => (f === 'scoreDb' || f === 'minV' ? '' : 'max-sm:hidden');
 import { useLocalFormat } from '@/lib/client/local-time';
+import { ScrollRegion } from '@/components/ui/ScrollRegion';
 
 /** Rows per page of the table: a season's runs are paged, not all laid out at once. */
 export const RUNS_PER_PAGE = 25;
@@ -53,7 +54,7 @@ export function RunsTable({
 					No runs logged yet.
 				</p>
 			) : (
-				<div className="mt-3 overflow-x-auto rounded-md border border-hairline bg-card">
+				<ScrollRegion label="Runs" className="mt-3 rounded-md border border-hairline bg-card">
 					<table className="w-full text-sm">
 						<thead className="bg-paper text-xs text-ink-soft">
 							<tr>
@@ -145,7 +146,7 @@ export function RunsTable({
 							))}
 						</tbody>
 					</table>
-				</div>
+				</ScrollRegion>
 			)}
 			{pages > 1 && (
 				<nav aria-label="Pages of runs" className="mt-2 flex flex-wrap items-center gap-3 text-sm">

@@ -8,6 +8,7 @@ import {
 import { Button } from '@/components/ui/Field';
 import { ErrorNote } from './ErrorNote';
 import { RelativeTime } from '@/components/ui/RelativeTime';
+import { ScrollRegion } from '@/components/ui/ScrollRegion';
 
 export const ROLES: Role[] = ['captain', 'member', 'viewer'];
 export const ROLE_HELP: Record<Role, string> = {
@@ -34,7 +35,7 @@ export function MembersSection({
 			<h2 id="members-heading" className="text-xl font-bold">
 				Members
 			</h2>
-			<div className="mt-3 overflow-x-auto rounded-md border border-hairline bg-card">
+			<ScrollRegion label="Members" className="mt-3 rounded-md border border-hairline bg-card">
 				<table className="w-full text-left text-sm">
 					<thead className="border-b border-hairline bg-paper text-xs uppercase tracking-wide text-ink-soft">
 						<tr>
@@ -115,7 +116,7 @@ export function MembersSection({
 						))}
 					</tbody>
 				</table>
-			</div>
+			</ScrollRegion>
 			<div className="mt-2">
 				<ErrorNote error={action.error} />
 			</div>

@@ -1,4 +1,5 @@
 import type { ReactNode } from 'react';
+import { ScrollRegion } from '@/components/ui/ScrollRegion';
 
 /** One column of a results table: its heading, how a row fills it, and how it lines up. */
 export interface ResultColumn<Row> {
@@ -34,7 +35,10 @@ export function ResultTable<Row>({
 	className?: string;
 }) {
 	return (
-		<div className={`overflow-x-auto rounded-md border border-hairline bg-card ${className}`}>
+		<ScrollRegion
+			label={label ?? caption ?? 'Results'}
+			className={`rounded-md border border-hairline bg-card ${className}`}
+		>
 			<table className="w-full text-sm" aria-label={label}>
 				{caption && <caption className="sr-only">{caption}</caption>}
 				<thead className="bg-paper text-xs text-ink-soft">
@@ -69,7 +73,7 @@ export function ResultTable<Row>({
 					))}
 				</tbody>
 			</table>
-		</div>
+		</ScrollRegion>
 	);
 }
 

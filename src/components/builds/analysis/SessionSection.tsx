@@ -5,6 +5,7 @@ import { playTimeInWorker, sessionInWorker } from '@/lib/client/engine-worker';
 import { fmt } from '@/lib/format';
 import { SessionChart } from '../LazyCharts';
 import { ScenarioNumber } from './ScenarioControls';
+import { ScrollRegion } from '@/components/ui/ScrollRegion';
 
 /** The schedule a member sets: how many burps, how long each, how long the rest between. */
 const SCHEDULE_FIELDS = [
@@ -116,7 +117,7 @@ export function SessionSection({
 							<div className="mt-3">
 								<SessionChart run={run} bankLabels={bankLabels} />
 							</div>
-							<div className="mt-3 overflow-x-auto">
+							<ScrollRegion label="Session, burp by burp" className="mt-3">
 								<table className="num w-full text-sm">
 									<caption className="sr-only">Each burp of the session</caption>
 									<thead>
@@ -162,7 +163,7 @@ export function SessionSection({
 										))}
 									</tbody>
 								</table>
-							</div>
+							</ScrollRegion>
 							<p className="mt-2 text-sm" data-session-summary>
 								{run.collapsedAtS !== null ? (
 									<span className="text-brick">

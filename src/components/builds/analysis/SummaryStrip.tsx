@@ -90,6 +90,7 @@ export function SummaryStrip({
 	stale,
 	partLabel,
 	extra,
+	besideInspector = false,
 }: {
 	report: Ok;
 	/** The saved revision's report (null for a first revision or one that cannot be solved). */
@@ -99,6 +100,8 @@ export function SummaryStrip({
 	partLabel: (w: ReportWarning) => string;
 	/** Shown at the strip's end (the build page's way back to Save). */
 	extra?: React.ReactNode;
+	/** The inspector is open beside it (wide screens): the figures keep clear of its column. */
+	besideInspector?: boolean;
 }) {
 	const now = headline(report);
 	const before = baseline ? headline(baseline) : null;
@@ -107,7 +110,7 @@ export function SummaryStrip({
 	return (
 		<section
 			aria-label="Summary of the draft"
-			className={`sticky top-0 z-30 -mx-gutter border-b border-hairline bg-paper/95 px-gutter py-2 backdrop-blur ${stale ? 'opacity-70' : ''}`}
+			className={`sticky top-0 z-30 -mx-gutter border-b border-hairline bg-paper/95 px-gutter py-2 backdrop-blur ${stale ? 'opacity-70' : ''} ${besideInspector ? 'lg:pr-[25rem]' : ''}`}
 			data-summary
 			// Changes with every recomputed figure: what the page bench waits for after a keystroke.
 			data-figures={`${now.settleV}|${now.lowestAmpV}|${now.cableLossW}|${now.bankCurrentA}`}
