@@ -226,47 +226,90 @@ export function PartTable<T extends { id: string; label: string }>({
 		getCoreRowModel: getCoreRowModel(),
 		getRowId: (r) => r.id,
 	});
+	// A long group (a build at the limits) is paged: a thousand rows of fields would take the
+	// browser tens of seconds to lay out. A part just added is on the page shown.
+	const pages = Math.max(1, Math.ceil(rows.length / ROWS_PER_PAGE));
+	const [view, setView] = useState({ page: 0, count: rows.length });
+	let at = Math.min(view.page, pages - 1);
+	if (rows.length !== view.count) {
+		if (rows.length > view.count) at = pages - 1;
+		setView({ page: at, count: rows.length });
+	}
+	const all = table.getRowModel().rows;
+	const shown = pages > 1 ? all.slice(at * ROWS_PER_PAGE, (at + 1) * ROWS_PER_PAGE) : all;
 	return (
-		<ScrollRegion label={caption} className="rounded-md border border-hairline bg-card">
-			<table className="w-full text-sm" data-part-group={pathPrefix}>
-				<caption className="sr-only">{caption}</caption>
-				<thead className="border-b border-hairline bg-paper text-left text-xs text-ink-soft">
-					{table.getHeaderGroups().map((hg) => (
-						<tr key={hg.id}>
-							{hg.headers.map((h) => (
-								<th key={h.id} scope="col" className="px-2 py-2 font-semibold whitespace-nowrap">
-									{flexRender(h.column.columnDef.header, h.getContext())}
-								</th>
-							))}
-							{!readOnly && onRemove && (
-								<th className="px-2 py-2">
-									<span className="sr-only">Remove</span>
-								</th>
-							)}
-						</tr>
-					))}
-				</thead>
-				<tbody>
-					{table.getRowModel().rows.map((row) => (
-						<PartRow
-							key={row.id}
-							part={row.original}
-							index={row.index}
-							columns={columns}
-							errors={errors}
-							errorsKey={rowErrorsKey(errors, `${pathPrefix}.${row.index}.`)}
-							pathPrefix={pathPrefix}
-							readOnly={readOnly}
-							onChange={onChange}
-							onRemove={onRemove}
-							flag={rowFlag?.(row.original) ?? null}
-						/>
-					))}
-				</tbody>
-			</table>
-		</ScrollRegion>
+		<>
+			<ScrollRegion label={caption} className="rounded-md border border-hairline bg-card">
+				<table className="w-full text-sm" data-part-group={pathPrefix}>
+					<caption className="sr-only">{caption}</caption>
+					<thead className="border-b border-hairline bg-paper text-left text-xs text-ink-soft">
+						{table.getHeaderGroups().map((hg) => (
+							<tr key={hg.id}>
+								{hg.headers.map((h) => (
+									<th key={h.id} scope="col" className="px-2 py-2 font-semibold whitespace-nowrap">
+										{flexRender(h.column.columnDef.header, h.getContext())}
+									</th>
+								))}
+								{!readOnly && onRemove && (
+									<th className="px-2 py-2">
+										<span className="sr-only">Remove</span>
+									</th>
+								)}
+							</tr>
+						))}
+					</thead>
+					<tbody>
+						{shown.map((row) => (
+							<PartRow
+								key={row.id}
+								part={row.original}
+								index={row.index}
+								columns={columns}
+								errors={errors}
+								errorsKey={rowErrorsKey(errors, `${pathPrefix}.${row.index}.`)}
+								pathPrefix={pathPrefix}
+								readOnly={readOnly}
+								onChange={onChange}
+								onRemove={onRemove}
+								flag={rowFlag?.(row.original) ?? null}
+							/>
+						))}
+					</tbody>
+				</table>
+			</ScrollRegion>
+			{pages > 1 && (
+				<nav
+					aria-label={`Pages of ${caption.toLowerCase()}`}
+					className="mt-1 flex items-center gap-3 text-sm"
+				>
+					<button
+						type="button"
+						disabled={at === 0}
+						onClick={() => setView({ page: at - 1, count: rows.length })}
+						className="rounded-md border border-hairline bg-card px-2 py-0.5 disabled:opacity-50"
+					>
+						← Previous
+					</button>
+					<span aria-live="polite">
+						Rows {at * ROWS_PER_PAGE + 1}–{Math.min(rows.length, (at + 1) * ROWS_PER_PAGE)} of{' '}
+						{rows.length}
+					</span>
+					<button
+						type="button"
+						disabled={at === pages - 1}
+						onClick={() => setView({ page: at + 1, count: rows.length })}
+						className="rounded-md border border-hairline bg-card px-2 py-0.5 disabled:opacity-50"
+					>
+						Next →
+					</button>
+				</nav>
+			)}
+		</>
 	);
 }
+
+/** Rows of a part table shown at once; longer groups are paged. */
+export const ROWS_PER_PAGE = 50;
 
 /** The errors of one row as text: a row re-renders only when its own errors change. */
 function rowErrorsKey(errors: Record<string, string>, prefix: string): string {

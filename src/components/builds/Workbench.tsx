@@ -66,6 +66,10 @@ const onServer = typeof window === 'undefined';
  * HTML on the server would hold every other request behind it.
  */
 const FIRST_RENDER_PARTS = 150;
+/** Parts past which the network is listed rather than drawn. */
+const DIAGRAM_PARTS = 150;
+/** Parts of a group listed as buttons before "and N more". */
+const LISTED_PARTS = 60;
 const partCount = (d: BuildDocument) =>
 	d.cables.length + d.amplifiers.length + d.banks.length + d.alternators.length + d.loads.length;
 
@@ -264,11 +268,19 @@ export function Workbench({
 				{layOut ? (
 					<>
 						<div className="mt-3">
-							<NetworkDiagramMemo
-								doc={laterDraft}
-								flagged={flagged}
-								onSelect={setSelectionFromDiagram}
-							/>
+							{partCount(laterDraft) <= DIAGRAM_PARTS ? (
+								<NetworkDiagramMemo
+									doc={laterDraft}
+									flagged={flagged}
+									onSelect={setSelectionFromDiagram}
+								/>
+							) : (
+								<p className="rounded-md border border-dashed border-hairline bg-card p-4 text-sm text-ink-soft">
+									A build of {partCount(laterDraft)} parts is past what a diagram can show legibly (
+									{DIAGRAM_PARTS}); the lists below open every part, and the tables list every
+									connection.
+								</p>
+							)}
 						</div>
 						<PartLists
 							draft={laterDraft}
@@ -400,27 +412,34 @@ function PartLists({
 					<span className="w-24 shrink-0 text-xs font-semibold text-ink-soft uppercase">
 						{GROUP_NAMES[group]}s
 					</span>
-					{(draft[group] as Array<{ id: string; label: string }>).map((p) => {
-						const w = worst(kind, p.id);
-						const on = selected?.group === group && selected.id === p.id;
-						return (
-							<button
-								key={p.id}
-								type="button"
-								aria-pressed={on}
-								onClick={() => onSelect({ group, id: p.id })}
-								className={`max-w-full truncate rounded-md border px-2 py-0.5 ${on ? 'border-copper bg-copper-tint' : 'border-hairline bg-card hover:border-copper'}`}
-							>
-								{w && (
-									<span className={w === 'danger' ? 'text-brick' : 'text-amber-text'}>
-										{w === 'danger' ? '✕ ' : '! '}
-										<span className="sr-only">{w === 'danger' ? 'danger: ' : 'warning: '}</span>
-									</span>
-								)}
-								{p.label || p.id}
-							</button>
-						);
-					})}
+					{(draft[group] as Array<{ id: string; label: string }>)
+						.slice(0, LISTED_PARTS)
+						.map((p) => {
+							const w = worst(kind, p.id);
+							const on = selected?.group === group && selected.id === p.id;
+							return (
+								<button
+									key={p.id}
+									type="button"
+									aria-pressed={on}
+									onClick={() => onSelect({ group, id: p.id })}
+									className={`max-w-full truncate rounded-md border px-2 py-0.5 ${on ? 'border-copper bg-copper-tint' : 'border-hairline bg-card hover:border-copper'}`}
+								>
+									{w && (
+										<span className={w === 'danger' ? 'text-brick' : 'text-amber-text'}>
+											{w === 'danger' ? '✕ ' : '! '}
+											<span className="sr-only">{w === 'danger' ? 'danger: ' : 'warning: '}</span>
+										</span>
+									)}
+									{p.label || p.id}
+								</button>
+							);
+						})}
+					{draft[group].length > LISTED_PARTS && (
+						<span className="text-xs text-ink-soft">
+							and {draft[group].length - LISTED_PARTS} more (in the tables below)
+						</span>
+					)}
 				</div>
 			))}
 		</nav>
