@@ -65,3 +65,42 @@ describe('cable lengths in the editor', () => {
 		expect(stored).toBeCloseTo(16.25 * 0.3048, 12);
 	});
 });
+
+describe('a long part table', () => {
+	const many = (n: number) =>
+		Array.from({ length: n }, (_, i) => ({ ...cable, id: `c${i}`, label: `Cable ${i + 1}` }));
+	const nodes = [
+		{ value: 'a', label: 'A' },
+		{ value: 'b', label: 'B' },
+	];
+	const table = (rows: Cable[]) => (
+		<PartTable
+			caption="Cables"
+			rows={rows}
+			columns={cableColumns(nodes, 'metric')}
+			pathPrefix="cables"
+			errors={{}}
+			readOnly={false}
+			onChange={() => undefined}
+		/>
+	);
+
+	it('shows 50 rows a page, pages on, and shows the page of a part just added', () => {
+		const { rerender, container } = render(table(many(120)));
+		const rows = () => [...container.querySelectorAll('tbody tr')];
+		expect(rows()).toHaveLength(50);
+		expect(screen.getByText('Rows 1–50 of 120')).toBeTruthy();
+		fireEvent.click(screen.getByRole('button', { name: 'Next →' }));
+		expect(screen.getByText('Rows 51–100 of 120')).toBeTruthy();
+		expect(screen.getByLabelText('Cable 51: Length')).toBeTruthy();
+		// A part added at the end: the last page, with the new part on it.
+		rerender(table(many(121)));
+		expect(screen.getByText('Rows 101–121 of 121')).toBeTruthy();
+		expect(screen.getByLabelText('Cable 121: Length')).toBeTruthy();
+		expect(rows()).toHaveLength(21);
+		// A short group has no pages at all.
+		rerender(table(many(3)));
+		expect(rows()).toHaveLength(3);
+		expect(screen.queryByRole('button', { name: 'Next →' })).toBeNull();
+	});
+});
