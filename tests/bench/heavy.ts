@@ -11,23 +11,15 @@
  * server is. Targets: health p99 < 200 ms and max < 1 s meanwhile; the server's memory (RSS) grows < 300 MB;
  * every view answers within 60 s; a repeat view < 500 ms. Needs `npm run build` first.
  */
-import { readFileSync } from 'node:fs';
 import { DEMO_PASSWORD, DEMO_USERS } from '../../db/seed';
 import { HttpSession } from '../helpers/http-session';
 import { startBenchApp } from './bench-app';
 import { heavyValidNetwork } from './fixtures';
+import { pct, watchServer } from './watch';
 
 const PORT = Number(process.env.SAGWISE_BENCH_PORT ?? 4394);
 const { server, stop } = await startBenchApp(PORT);
 
-const rssMb = () => {
-	const status = readFileSync(`/proc/${server.process.pid}/status`, 'utf8');
-	return Number(/VmRSS:\s+(\d+)/.exec(status)![1]) / 1024;
-};
-const pct = (xs: number[], p: number) => {
-	const s = [...xs].sort((a, b) => a - b);
-	return s[Math.min(s.length - 1, Math.ceil((p / 100) * s.length) - 1)] ?? 0;
-};
 const timed = async (f: () => Promise<Response>) => {
 	const t0 = performance.now();
 	const res = await f();
@@ -71,27 +63,14 @@ try {
 		).arrayBuffer();
 	}
 
-	const rss0 = rssMb();
-	let peak = rss0;
-	const health: number[] = [];
-	let polling = true;
-	const poller = (async () => {
-		while (polling) {
-			const t0 = performance.now();
-			await fetch(`${server.url}/api/health`).then((r) => r.arrayBuffer());
-			health.push(performance.now() - t0);
-			peak = Math.max(peak, rssMb());
-			await new Promise((r) => setTimeout(r, 50));
-		}
-	})();
+	const watch = watchServer(server);
 	const t0 = performance.now();
 	const views = await Promise.all([
 		...Array.from({ length: 10 }, () => timed(() => viewer.fetch(page))),
 		...[1000, 2000, 3000, 4000].map((rpm) => timed(() => viewer.fetch(compare(rpm)))),
 	]);
 	const wall = performance.now() - t0;
-	polling = false;
-	await poller;
+	const { health, rss0, peak } = await watch.stop();
 	if (process.env.SAGWISE_BENCH_TRACE) console.log(health.map((h) => h.toFixed(0)).join(' '));
 	const repeatPage = await timed(() => viewer.fetch(page));
 	const repeatCompare = await timed(() => viewer.fetch(compare(2000)));

@@ -12,11 +12,11 @@
  *
  * Needs `npm run build` first.
  */
-import { readFileSync } from 'node:fs';
 import { DEMO_PASSWORD } from '../../db/seed';
 import { generateSeason } from '../../db/season';
 import { HttpSession } from '../helpers/http-session';
 import { startBenchApp } from './bench-app';
+import { pct, rssMb, watchServer } from './watch';
 
 const PORT = Number(process.env.SAGWISE_BENCH_PORT ?? 4394);
 const TEAMS = Number(process.env.SAGWISE_BENCH_SEASON_TEAMS ?? 10);
@@ -46,13 +46,7 @@ const { server, stop } = await startBenchApp(PORT, async (db) => {
 	captainEmail = captain.email;
 });
 
-const rssMb = () =>
-	Number(/VmRSS:\s+(\d+)/.exec(readFileSync(`/proc/${server.process.pid}/status`, 'utf8'))![1]) /
-	1024;
-const pct = (xs: number[], p: number) => {
-	const s = [...xs].sort((a, b) => a - b);
-	return s[Math.min(s.length - 1, Math.ceil((p / 100) * s.length) - 1)] ?? 0;
-};
+const rss = () => rssMb(server);
 const rows: [string, string, string, boolean][] = [];
 
 try {
@@ -123,19 +117,7 @@ try {
 	]);
 
 	// The backup's streamed export, with health polled.
-	const rss0 = rssMb();
-	let peak = rss0;
-	const health: number[] = [];
-	let polling = true;
-	const poller = (async () => {
-		while (polling) {
-			const t0 = performance.now();
-			await (await fetch(`${server.url}/api/health`)).arrayBuffer();
-			health.push(performance.now() - t0);
-			peak = Math.max(peak, rssMb());
-			await new Promise((r) => setTimeout(r, 50));
-		}
-	})();
+	const watch = watchServer(server);
 	const t0 = performance.now();
 	const res = await captain.fetch(`/api/teams/${teamId}/export`);
 	let size = 0;
@@ -145,16 +127,15 @@ try {
 		pieces.push(chunk as Uint8Array);
 	}
 	const took = performance.now() - t0;
-	polling = false;
-	await poller;
+	const { health, rss0, peak } = await watch.stop();
 
 	// The same file restored as a new team (how long, and what it costs the server's memory).
-	const rssBefore = rssMb();
+	const rssBefore = rss();
 	let importPeak = rssBefore;
 	let importing = true;
 	const watcher = (async () => {
 		while (importing) {
-			importPeak = Math.max(importPeak, rssMb());
+			importPeak = Math.max(importPeak, rss());
 			await new Promise((r) => setTimeout(r, 100));
 		}
 	})();
