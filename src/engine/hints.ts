@@ -1,3 +1,4 @@
+import { outputLossDb } from './amplifier';
 import { bankChargeTargets } from './battery';
 import { solveNetwork } from './solve';
 import { AWG_SIZES, type BuildDocument, type Cable, type CableSize } from './types';
@@ -16,6 +17,12 @@ export interface UpgradeHint {
 	beforeV: number;
 	afterV: number;
 	gainV: number;
+	/**
+	 * Output gained at the weakest amplifier of the changed build, in dB (its loss against its rating
+	 * at `afterV` less that at `beforeV`): the same figure the plan comparison shows for a plan made
+	 * of this change. Null when either build collapses under the burp.
+	 */
+	gainDb: number | null;
 	/** The changed build, ready to become a plan. */
 	document: BuildDocument;
 }
@@ -37,14 +44,15 @@ export function nextSize(cable: Cable): Pick<Cable, 'size' | 'parallelRuns'> {
 		: { size, parallelRuns: cable.parallelRuns + 1 };
 }
 
-function minAmpV(
+function weakestAmp(
 	doc: BuildDocument,
 	conditions: { engineRpm: number; demand: number; conductorTempC: number },
-): number {
+): { v: number; id: string | null } {
 	const s = solveNetwork(doc, conditions);
-	const v = Math.min(...s.amplifiers.map((a) => a.terminalV));
 	// A collapsed system has no operating point at this demand: count it as no voltage at all.
-	return s.status === 'collapse' ? 0 : v;
+	if (s.status === 'collapse') return { v: 0, id: null };
+	const weakest = s.amplifiers.reduce((w, a) => (a.terminalV < w.terminalV ? a : w));
+	return { v: weakest.terminalV, id: weakest.id };
 }
 
 function freshId(doc: BuildDocument, base: string): string {
@@ -63,7 +71,7 @@ export function upgradeHints(
 	conditions: { engineRpm: number; demand: number; conductorTempC: number },
 ): UpgradeHint[] {
 	if (doc.amplifiers.length === 0) return [];
-	const beforeV = minAmpV(doc, conditions);
+	const beforeV = weakestAmp(doc, conditions).v;
 	const hints: UpgradeHint[] = [];
 	const consider = (
 		kind: UpgradeHint['kind'],
@@ -73,7 +81,9 @@ export function upgradeHints(
 	) => {
 		const next = structuredClone(doc);
 		change(next);
-		const afterV = minAmpV(next, conditions);
+		const after = weakestAmp(next, conditions);
+		const afterV = after.v;
+		const amp = after.id ? next.amplifiers.find((a) => a.id === after.id) : undefined;
 		hints.push({
 			kind,
 			targetId,
@@ -81,6 +91,8 @@ export function upgradeHints(
 			beforeV,
 			afterV,
 			gainV: afterV - beforeV,
+			gainDb:
+				amp && beforeV > 0 ? outputLossDb(amp, afterV) - outputLossDb(amp, beforeV) : null,
 			document: next,
 		});
 	};

@@ -1,7 +1,9 @@
 import { describe, expect, it } from 'vitest';
 import { DEMO_BUILDS } from '../../db/demo/builds';
 import { bankChargeTargets } from '../../src/engine/battery';
+import { comparePlans } from '../../src/engine/compare';
 import { nextSize, upgradeHints } from '../../src/engine/hints';
+import { DEFAULT_SCENARIO } from '../../src/engine/report';
 import { solveNetwork } from '../../src/engine/solve';
 import { amp, bank, cable, doc, node } from '../helpers/networks';
 
@@ -41,6 +43,31 @@ describe('upgradeHints', () => {
 			expect(h.beforeV).toBeCloseTo(base, 9);
 			const after = Math.min(...solveNetwork(h.document, AT).amplifiers.map((a) => a.terminalV));
 			expect(h.afterV).toBeCloseTo(after, 9);
+		}
+	});
+
+	it('gives each change the same dB the plan comparison shows for a plan made of it', () => {
+		// One truth per figure: the ranked list's dB and the comparison's column for a plan holding
+		// the same document are one computation (the weakest amplifier's loss against its rating).
+		const at = {
+			engineRpm: DEFAULT_SCENARIO.engineRpm,
+			demand: DEFAULT_SCENARIO.burpDemand,
+			conductorTempC: DEFAULT_SCENARIO.conductorTempC,
+		};
+		for (const d of Object.values(DEMO_BUILDS)) {
+			const hints = upgradeHints(d, at);
+			const columns = comparePlans(
+				d,
+				hints.map((h, i) => ({ id: String(i), name: h.description, document: h.document, cost: 0 })),
+			);
+			hints.forEach((h, i) => {
+				const column = columns.find((c) => c.id === String(i))!;
+				expect(column.lowestAmplifierV.burp).toBeCloseTo(h.afterV, 9);
+				expect(h.gainDb).not.toBeNull();
+				expect(h.gainDb!).toBeCloseTo(column.deltaDb!, 9);
+				// A change that gives volts back gives output back, and one that costs volts costs output.
+				expect(Math.sign(Math.round(h.gainDb! * 1e6))).toBe(Math.sign(Math.round(h.gainV * 1e6)));
+			});
 		}
 	});
 

@@ -21,6 +21,11 @@ export async function openBrowser(
 		viewport?: { width: number; height: number };
 		/** The browser's own time zone (IANA name), e.g. one other than the server's. */
 		timezoneId?: string;
+		/**
+		 * The build page's sections as a member who has opened them all (`open`, what most tests
+		 * drive), or as a newcomer sees them (`default`: the page's own choice of open sections).
+		 */
+		sections?: 'open' | 'default';
 	} = {},
 ): Promise<Browser> {
 	const profile = mkdtempSync(path.join(tmpdir(), 'sagwise-profile-'));
@@ -40,6 +45,22 @@ export async function openBrowser(
 			'--disable-sync',
 		],
 	});
+	if ((opts.sections ?? 'open') === 'open')
+		await context.addInitScript(() => {
+			const key = 'sagwise.sections.build';
+			if (localStorage.getItem(key) === null)
+				localStorage.setItem(
+					key,
+					JSON.stringify({
+						network: true,
+						supply: true,
+						session: true,
+						speed: true,
+						heating: true,
+						parts: true,
+					}),
+				);
+		});
 	const page = context.pages()[0] ?? (await context.newPage());
 	const problems: string[] = [];
 	page.on('console', (msg) => {

@@ -1,7 +1,7 @@
 import { QueryClientProvider, useQuery } from '@tanstack/react-query';
 import { useEffect, useMemo, useState } from 'react';
 import { diffBuilds } from '@/engine/diff';
-import type { BuildDocument } from '@/engine';
+import type { BuildDocument, UpgradeHint } from '@/engine';
 import { ApiError } from '@/lib/client/api-client';
 import { buildDrafts } from '@/lib/client/draft-store';
 import { useSetUnits } from '@/lib/client/queries/account';
@@ -13,7 +13,8 @@ import {
 	revisionsQueryOptions,
 	useSaveRevision,
 } from '@/lib/client/queries/builds';
-import { fieldName, formatFieldValue, GROUP_NAMES, type UnitSystem } from '@/lib/format';
+import { fieldName, fmt, formatFieldValue, GROUP_NAMES, type UnitSystem } from '@/lib/format';
+import { useCreatePlan } from '@/lib/client/queries/plans';
 import { Button, FormMessage } from '@/components/ui/Field';
 import { starterDocument } from './new-parts';
 import { loadDraftCheck, useDraftCheck } from '@/lib/client/use-draft-check';
@@ -63,6 +64,7 @@ export function BuildWorkspaceView({
 	figuresServed = false,
 }: BuildWorkspaceProps) {
 	const saveRevision = useSaveRevision(teamId, vehicleId);
+	const createPlan = useCreatePlan(teamId, vehicleId);
 	const setUnitsOnAccount = useSetUnits();
 	const [head, setHead] = useState<RevisionDto | null>(initialHead);
 	const baseDoc = head?.document ?? starterDocument();
@@ -181,6 +183,28 @@ export function BuildWorkspaceView({
 		}
 	}
 
+	/** A ranked upgrade as a plan holding the change (and the draft's unsaved edits, if any). */
+	async function makePlan(hint: UpgradeHint): Promise<string> {
+		try {
+			const plan = await createPlan.mutateAsync({
+				name: hint.description.slice(0, 120),
+				...(baseId ? { fromRevisionId: baseId } : {}),
+				document: hint.document,
+				notes:
+					`Made from the ranked upgrades: ${hint.description}. At the weakest amplifier under the burp ` +
+					`${hint.gainV >= 0 ? '+' : ''}${fmt(hint.gainV, 3)} V (${fmt(hint.beforeV)} → ${fmt(hint.afterV)} V)` +
+					(hint.gainDb === null
+						? '.'
+						: `, ${hint.gainDb >= 0 ? '+' : ''}${fmt(hint.gainDb, 2)} dB.`),
+			});
+			return `/teams/${teamId}/vehicles/${vehicleId}/plans/${plan.id}`;
+		} catch (e) {
+			throw new Error(
+				e instanceof ApiError ? e.message : 'Could not reach the server to make the plan.',
+			);
+		}
+	}
+
 	async function saveUnits(next: UnitSystem) {
 		setUnits(next);
 		setUnitsOnAccount.mutate(next);
@@ -202,6 +226,8 @@ export function BuildWorkspaceView({
 				baseline={head ? baseDoc : null}
 				baselineRevisionId={head?.id ?? null}
 				computeOnServer={figuresServed}
+				sections="build"
+				onMakePlan={makePlan}
 				// The draft and its save box sit right under the key figures, not above them.
 				afterSummary={
 					<section

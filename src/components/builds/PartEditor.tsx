@@ -83,9 +83,9 @@ export function PartEditor({
 	return (
 		<section aria-labelledby="edit-heading" className="flex flex-col gap-6">
 			<div>
-				<h2 id="edit-heading" className="text-xl font-bold">
+				<h3 id="edit-heading" className="text-lg font-bold">
 					{canEdit ? `Edit the ${subject}` : `The ${subject}`}
-				</h2>
+				</h3>
 				<p className="text-sm text-ink-soft">
 					{canEdit
 						? `Every change recomputes the budget above. Nothing is stored until you save; the draft stays in this browser.`
@@ -197,7 +197,7 @@ function EditGroup({
 	return (
 		<div>
 			<div className="mb-2 flex items-center gap-3">
-				<h3 className="font-semibold">{title}</h3>
+				<h4 className="font-semibold">{title}</h4>
 				{onAdd && (
 					<button
 						type="button"

@@ -123,7 +123,8 @@ export function PartCell<T extends { id: string; label: string }>({
 				readOnly={readOnly}
 				value={c.get(part)}
 				onChange={(e) => onChange(i, c.set(part, e.target.value))}
-				className={`w-full min-w-28 rounded border bg-card px-2 py-1 ${error ? 'border-brick' : 'border-hairline'} ${readOnly ? 'bg-paper' : ''}`}
+				// Sized to what it holds: a part's whole name shows, however long.
+				className={`field-sizing-content min-w-28 rounded border bg-card px-2 py-1 ${error ? 'border-brick' : 'border-hairline'} ${readOnly ? 'bg-paper' : ''}`}
 			/>
 		);
 	} else if (c.kind === 'number') {
@@ -145,7 +146,7 @@ export function PartCell<T extends { id: string; label: string }>({
 				disabled={readOnly}
 				value={c.get(part)}
 				onChange={(e) => onChange(i, c.set(part, e.target.value))}
-				className={`w-full min-w-32 rounded border bg-card px-1 py-1 ${error ? 'border-brick' : 'border-hairline'}`}
+				className={`field-sizing-content min-w-32 rounded border bg-card px-1 py-1 ${error ? 'border-brick' : 'border-hairline'}`}
 			>
 				{c.options.map((o) => (
 					<option key={o.value} value={o.value}>

@@ -1,6 +1,6 @@
-import { memo, useMemo, useRef, useState } from 'react';
+import { memo, useCallback, useMemo, useRef, useState } from 'react';
 import { useAfterPaint } from '@/lib/client/use-after-paint';
-import type { BuildDocument, PartGroup, Scenario } from '@/engine';
+import type { BuildDocument, PartGroup, Scenario, UpgradeHint } from '@/engine';
 // The engine's modules, unchecked: the draft is computed only once its field check passed (or,
 // as first shown, the server checked it), and the scenario's inputs are bounded where typed.
 // The checked public surface would bring the schema library with it to every page view.
@@ -22,6 +22,7 @@ import { NetworkDiagram } from './NetworkDiagram';
 import { PartEditor } from './PartEditor';
 import { useDeferredAnalysis } from './use-deferred-analysis';
 import { useHydrated } from '@/lib/client/use-hydrated';
+import { PageSection, SectionNav, type SectionId, useOpenSections } from './PageSections';
 
 /**
  * Answers about saved revisions, by revision id and what else they depend on: a revision never
@@ -130,6 +131,10 @@ export interface WorkbenchProps {
 	 * never solves anything.
 	 */
 	computeOnServer?: boolean;
+	/** Which page's open sections (and defaults) these are. */
+	sections?: 'build' | 'plan';
+	/** Makes a plan of a ranked upgrade and answers its address (members and captains). */
+	onMakePlan?: (hint: UpgradeHint) => Promise<string>;
 }
 
 const KIND_GROUP = {
@@ -159,6 +164,8 @@ export function Workbench({
 	summaryExtra,
 	afterSummary,
 	computeOnServer = false,
+	sections = 'plan',
+	onMakePlan,
 }: WorkbenchProps) {
 	const hydrated = useHydrated();
 	const canCompute = computeOnServer || hydrated;
@@ -184,7 +191,14 @@ export function Workbench({
 		return r?.ok ? r : null;
 	}, [baseline, scenario, units, baselineRevisionId, canCompute]);
 	// The heavy part (burp, upgrades) runs in the engine worker once typing pauses.
-	const { burp, hints, sweep } = useDeferredAnalysis(draft, scenario, valid);
+	const { burp, hints, sweep, stale: hintsStale } = useDeferredAnalysis(draft, scenario, valid);
+	const { open, set: setOpenSection } = useOpenSections(sections);
+	const openFromNav = useCallback(
+		(id: SectionId) => {
+			if (id !== 'findings' && id !== 'upgrades') setOpenSection(id, true);
+		},
+		[setOpenSection],
+	);
 
 	const fresh = report && report.ok ? report : null;
 	// While a field is cleared or mistyped the last figures that could be computed stay on screen,
@@ -222,6 +236,7 @@ export function Workbench({
 					baseline={baseReport}
 					stale={stale}
 					extra={summaryExtra}
+					nav={<SectionNav onOpen={openFromNav} />}
 					besideInspector={selection !== null}
 					partLabel={(w) => {
 						const group = KIND_GROUP[w.element.kind as keyof typeof KIND_GROUP];
@@ -259,29 +274,39 @@ export function Workbench({
 
 			<ScenarioControls scenario={scenario} onChange={setScenario} />
 
-			{later && <FindingsMemo warnings={later.warnings} />}
+			<FindingsMemo warnings={later?.warnings ?? null} />
 
-			<section aria-labelledby="diagram-heading">
-				<h2 id="diagram-heading" className="text-xl font-bold">
-					The network
-				</h2>
+			{layOut && (
+				<UpgradeHintsSectionMemo
+					hints={hints}
+					stale={stale || hintsStale}
+					fromDraft={baseline !== null && draft !== baseline}
+					onMakePlan={canEdit ? onMakePlan : undefined}
+				/>
+			)}
+
+			<PageSection
+				id="network"
+				title="Network"
+				note={`${draft.nodes.length} nodes · ${draft.cables.length} cables · ${partCount(draft) - draft.cables.length} parts`}
+				open={open.network}
+				onToggle={(v) => setOpenSection('network', v)}
+			>
 				{layOut ? (
-					<>
-						<div className="mt-3">
-							{partCount(laterDraft) <= DIAGRAM_PARTS ? (
-								<NetworkDiagramMemo
-									doc={laterDraft}
-									flagged={flagged}
-									onSelect={setSelectionFromDiagram}
-								/>
-							) : (
-								<p className="rounded-md border border-dashed border-hairline bg-card p-4 text-sm text-ink-soft">
-									A build of {partCount(laterDraft)} parts is past what a diagram can show legibly (
-									{DIAGRAM_PARTS}); the lists below open every part, and the tables list every
-									connection.
-								</p>
-							)}
-						</div>
+					<div>
+						{partCount(laterDraft) <= DIAGRAM_PARTS ? (
+							<NetworkDiagramMemo
+								doc={laterDraft}
+								flagged={flagged}
+								onSelect={setSelectionFromDiagram}
+							/>
+						) : (
+							<p className="rounded-md border border-dashed border-hairline bg-card p-4 text-sm text-ink-soft">
+								A build of {partCount(laterDraft)} parts is past what a diagram can show legibly (
+								{DIAGRAM_PARTS}); the lists below open every part, and the tables list every
+								connection.
+							</p>
+						)}
 						<PartLists
 							draft={laterDraft}
 							flagged={flagged}
@@ -289,53 +314,113 @@ export function Workbench({
 							selected={selection}
 							onSelect={setSelection}
 						/>
-					</>
+					</div>
 				) : (
-					<p className="mt-3 rounded-md border border-dashed border-hairline bg-card p-4 text-sm text-ink-soft">
+					<p className="rounded-md border border-dashed border-hairline bg-card p-4 text-sm text-ink-soft">
 						A build of {partCount(draft)} parts: its diagram and tables are laid out once the page
 						is live…
 					</p>
 				)}
-				<p className="mt-1 text-xs text-ink-soft">
-					Copper: supply side. Slate: ground side. Dashed red: a cable with a finding. Dashed links:
-					banks, alternators, amplifiers and loads between their terminals.
-				</p>
-			</section>
+			</PageSection>
 
-			{later && layOut && <BudgetSectionMemo rows={later.budget} />}
-			{later && layOut && (
-				<AmplifiersSectionMemo
-					amplifiers={later.amplifiers}
-					dropTargetV={scenario.dropTargetV}
-					burpSeconds={scenario.burpSeconds}
-					burp={burp}
-				/>
-			)}
-			{later && layOut && (
-				<CableChecksSectionMemo
-					cables={later.cables}
-					warnings={later.warnings}
-					draft={laterDraft}
-					units={units}
-				/>
-			)}
-			{later && layOut && (
-				<BurpSectionMemo
-					burp={burp}
-					burpSeconds={scenario.burpSeconds}
-					draft={laterDraft}
-					ruleV={
-						later.amplifiers.length
-							? Math.max(...later.banks.map((b) => b.ocvV), 0) - scenario.dropTargetV
-							: null
-					}
-				/>
-			)}
-			{later && layOut && <SpeedSweepSectionMemo sweep={sweep} />}
-			{later && layOut && (
-				<SessionSectionMemo draft={laterDraft} scenario={scenario} valid={valid} />
-			)}
-			{later && layOut && <UpgradeHintsSectionMemo hints={hints} />}
+			<PageSection
+				id="supply"
+				title="Demand and supply"
+				note="the budget at fixed voltages and each amplifier under the burp"
+				open={open.supply}
+				onToggle={(v) => setOpenSection('supply', v)}
+			>
+				{later && layOut ? (
+					<>
+						<BudgetSectionMemo rows={later.budget} />
+						<AmplifiersSectionMemo
+							amplifiers={later.amplifiers}
+							dropTargetV={scenario.dropTargetV}
+							burpSeconds={scenario.burpSeconds}
+							burp={burp}
+						/>
+					</>
+				) : (
+					<Waiting />
+				)}
+			</PageSection>
+
+			<PageSection
+				id="session"
+				title="Session"
+				note={`a ${scenario.burpSeconds} s burp step by step, and burp after burp`}
+				open={open.session}
+				onToggle={(v) => setOpenSection('session', v)}
+			>
+				{later && layOut ? (
+					<>
+						<BurpSectionMemo
+							burp={burp}
+							burpSeconds={scenario.burpSeconds}
+							draft={laterDraft}
+							ruleV={
+								later.amplifiers.length
+									? Math.max(...later.banks.map((b) => b.ocvV), 0) - scenario.dropTargetV
+									: null
+							}
+						/>
+						<SessionSectionMemo draft={laterDraft} scenario={scenario} valid={valid} />
+					</>
+				) : (
+					<Waiting />
+				)}
+			</PageSection>
+
+			<PageSection
+				id="speed"
+				title="Speed"
+				note="from idle to high engine speed"
+				open={open.speed}
+				onToggle={(v) => setOpenSection('speed', v)}
+			>
+				{later && layOut ? <SpeedSweepSectionMemo sweep={sweep} /> : <Waiting />}
+			</PageSection>
+
+			<PageSection
+				id="heating"
+				title="Heating"
+				note="each cable's current, drop, temperature and protection"
+				open={open.heating}
+				onToggle={(v) => setOpenSection('heating', v)}
+			>
+				{later && layOut ? (
+					<CableChecksSectionMemo
+						cables={later.cables}
+						warnings={later.warnings}
+						draft={laterDraft}
+						units={units}
+					/>
+				) : (
+					<Waiting />
+				)}
+			</PageSection>
+
+			<PageSection
+				id="parts"
+				title="Parts"
+				note={canEdit ? `every part's fields: edit the ${subject} here` : `every part's fields`}
+				open={open.parts}
+				onToggle={(v) => setOpenSection('parts', v)}
+			>
+				{layOut ? (
+					<PartEditor
+						draft={draft}
+						errors={errors}
+						units={units}
+						canEdit={canEdit}
+						onChange={onChange}
+						subject={subject}
+						flagged={flagged}
+					/>
+				) : (
+					<Waiting />
+				)}
+			</PageSection>
 
 			{selection && (
 				<Inspector
@@ -347,18 +432,6 @@ export function Workbench({
 					canEdit={canEdit}
 					onChange={onChange}
 					onClose={() => setSelection(null)}
-				/>
-			)}
-
-			{layOut && (
-				<PartEditor
-					draft={draft}
-					errors={errors}
-					units={units}
-					canEdit={canEdit}
-					onChange={onChange}
-					subject={subject}
-					flagged={flagged}
 				/>
 			)}
 		</>
@@ -375,6 +448,15 @@ const BurpSectionMemo = memo(BurpSection);
 const UpgradeHintsSectionMemo = memo(UpgradeHintsSection);
 const SpeedSweepSectionMemo = memo(SpeedSweepSection);
 const SessionSectionMemo = memo(SessionSection);
+
+/** A section opened before its figures are in. */
+function Waiting() {
+	return (
+		<p role="status" className="text-sm text-ink-soft">
+			Working out the figures…
+		</p>
+	);
+}
 
 const LIST_GROUPS: Array<[PartGroup, string]> = [
 	['cables', 'cable'],

@@ -97,9 +97,9 @@ export function AmplifiersSection({
 	];
 	return (
 		<section aria-labelledby="amps-heading">
-			<h2 id="amps-heading" className="text-xl font-bold">
+			<h3 id="amps-heading" className="text-lg font-bold">
 				Amplifiers under the burp
-			</h2>
+			</h3>
 			<ResultTable rows={amplifiers} rowKey={(a) => a.id} columns={columns} className="mt-3" />
 		</section>
 	);

@@ -72,9 +72,9 @@ export function BudgetSection({ rows }: { rows: BudgetRow[] }) {
 	return (
 		<section aria-labelledby="budget-heading" className="grid gap-6 lg:grid-cols-2">
 			<div>
-				<h2 id="budget-heading" className="text-xl font-bold">
+				<h3 id="budget-heading" className="text-lg font-bold">
 					Demand and supply at fixed voltages
-				</h2>
+				</h3>
 				<div className="mt-3 rounded-md border border-hairline bg-card p-3">
 					<BudgetChart rows={rows} />
 				</div>

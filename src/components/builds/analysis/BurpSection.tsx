@@ -16,9 +16,9 @@ export function BurpSection({
 }) {
 	return (
 		<section aria-labelledby="burp-heading">
-			<h2 id="burp-heading" className="text-xl font-bold">
+			<h3 id="burp-heading" className="text-lg font-bold">
 				A {burpSeconds} s burp, step by step
-			</h2>
+			</h3>
 			<div className="mt-3 rounded-md border border-hairline bg-card p-3">
 				{burp ? (
 					<>

@@ -141,9 +141,9 @@ export function CableChecksSection({
 	];
 	return (
 		<section aria-labelledby="cables-heading">
-			<h2 id="cables-heading" className="text-xl font-bold">
+			<h3 id="cables-heading" className="text-lg font-bold">
 				Cables: current, drop and protection
-			</h2>
+			</h3>
 			<ResultTable
 				rows={cables}
 				rowKey={(c) => c.id}

@@ -89,9 +89,9 @@ export function SessionSection({
 		.filter((c) => c.finalC > c.limitC);
 	return (
 		<section aria-labelledby="session-heading">
-			<h2 id="session-heading" className="text-xl font-bold">
+			<h3 id="session-heading" className="text-lg font-bold">
 				A session of burps
-			</h2>
+			</h3>
 			<div className="mt-3 rounded-md border border-hairline bg-card p-3">
 				<div className="grid gap-3 sm:grid-cols-3">
 					{SCHEDULE_FIELDS.map((f) => (

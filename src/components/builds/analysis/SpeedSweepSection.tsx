@@ -12,9 +12,9 @@ export function SpeedSweepSection({
 	const carries = sweep?.sustained.find((p) => !p.collapse && p.bankA <= 0.5);
 	return (
 		<section aria-labelledby="sweep-heading">
-			<h2 id="sweep-heading" className="text-xl font-bold">
+			<h3 id="sweep-heading" className="text-lg font-bold">
 				From idle to high engine speed
-			</h2>
+			</h3>
 			<div className="mt-3 rounded-md border border-hairline bg-card p-3">
 				{sweep ? (
 					<>

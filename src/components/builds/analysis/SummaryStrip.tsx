@@ -91,6 +91,7 @@ export function SummaryStrip({
 	partLabel,
 	extra,
 	besideInspector = false,
+	nav,
 }: {
 	report: Ok;
 	/** The saved revision's report (null for a first revision or one that cannot be solved). */
@@ -102,6 +103,8 @@ export function SummaryStrip({
 	extra?: React.ReactNode;
 	/** The inspector is open beside it (wide screens): the figures keep clear of its column. */
 	besideInspector?: boolean;
+	/** The page's in-page navigation, at hand wherever the member has scrolled to. */
+	nav?: React.ReactNode;
 }) {
 	const now = headline(report);
 	const before = baseline ? headline(baseline) : null;
@@ -178,6 +181,7 @@ export function SummaryStrip({
 					</span>
 				)}
 			</p>
+			{nav}
 		</section>
 	);
 }
