@@ -31,6 +31,6 @@ describe('the summary strip', () => {
 		expect(change.textContent).toMatch(/^\d+ in → \d+ out/);
 		// Both labels are there: the full one for wide screens and readers, the short one for phones.
 		expect(screen.getAllByText('Banks at music level').length).toBe(1);
-		expect(screen.getAllByText('Banks, music').length).toBe(1);
+		expect(screen.getAllByText('Banks').length).toBe(1);
 	});
 });

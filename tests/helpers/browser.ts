@@ -47,19 +47,24 @@ export async function openBrowser(
 	});
 	if ((opts.sections ?? 'open') === 'open')
 		await context.addInitScript(() => {
-			const key = 'sagwise.sections.build';
-			if (localStorage.getItem(key) === null)
-				localStorage.setItem(
-					key,
-					JSON.stringify({
-						network: true,
-						supply: true,
-						session: true,
-						speed: true,
-						heating: true,
-						parts: true,
-					}),
-				);
+			// Not every document may touch storage (a sandboxed mail preview, an error page).
+			try {
+				const key = 'sagwise.sections.build';
+				if (localStorage.getItem(key) === null)
+					localStorage.setItem(
+						key,
+						JSON.stringify({
+							network: true,
+							supply: true,
+							session: true,
+							speed: true,
+							heating: true,
+							parts: true,
+						}),
+					);
+			} catch {
+				// Nothing to open there.
+			}
 		});
 	const page = context.pages()[0] ?? (await context.newPage());
 	const problems: string[] = [];

@@ -262,4 +262,30 @@ describe('team backup import treats the file as untrusted input', () => {
 		expect((await huge.json()).errors[0].path).toBe('team.vehicles.0.notes');
 		expect(await counts()).toEqual(start);
 	});
+
+	it('refuses logger samples that are not three finite numbers each, naming the run, writing nothing', async () => {
+		const start = await counts();
+		const refused = async (text: string) => {
+			const res = await upload(text);
+			expect(res.status).toBe(400);
+			const body = await res.json();
+			expect(body.code).toBe('invalid_backup');
+			expect(body.errors[0].path).toMatch(/^team\.runs\.0\.samples/);
+		};
+		await refused(edited((b) => (b.team.runs[0].samples = [[0, 12.6, 10, 99]])));
+		await refused(edited((b) => (b.team.runs[0].samples = [[0, '12.6', 10]])));
+		await refused(edited((b) => (b.team.runs[0].samples = { 0: [0, 12.6, 10] })));
+		// A number JSON can write but no sample can hold: 1e400 reads as Infinity. The checksum is
+		// the one a reader computes (JSON.stringify writes Infinity as null).
+		const b = JSON.parse(original);
+		b.team.runs[0].samples = [
+			[0, 12.6, 10],
+			[1, 'HUGE', 20],
+		];
+		b.checksum = createHash('sha256')
+			.update(JSON.stringify(b.team).replace('"HUGE"', 'null'))
+			.digest('hex');
+		await refused(JSON.stringify(b).replace('"HUGE"', '1e400'));
+		expect(await counts()).toEqual(start);
+	});
 });

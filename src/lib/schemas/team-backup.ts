@@ -17,6 +17,57 @@ const key = z.string().min(1).max(40);
 const email = z.email().max(320);
 const role = z.enum(['captain', 'member', 'viewer']);
 
+/**
+ * A run's logger samples held packed while a backup is read: seconds, volts and amps of each sample
+ * one after another in one Float64Array (24 bytes a sample, where three-number arrays cost about
+ * a hundred). It writes back as the file's `[[t, V, A], …]`, so the checksum of what was read is the
+ * checksum of the file.
+ */
+export class PackedSamples {
+	constructor(readonly values: Float64Array) {}
+	get length(): number {
+		return this.values.length / 3;
+	}
+	/** Packs `[[t, V, A], …]`, or answers null when it is anything else (left for the schema to refuse). */
+	static pack(value: unknown): PackedSamples | null {
+		if (!Array.isArray(value)) return null;
+		const out = new Float64Array(value.length * 3);
+		for (let i = 0; i < value.length; i++) {
+			const s: unknown = value[i];
+			if (!Array.isArray(s) || s.length !== 3) return null;
+			for (let j = 0; j < 3; j++) {
+				const x: unknown = s[j];
+				if (typeof x !== 'number' || !Number.isFinite(x)) return null;
+				out[i * 3 + j] = x;
+			}
+		}
+		return new PackedSamples(out);
+	}
+	toJSON(): Array<[number, number, number]> {
+		const out: Array<[number, number, number]> = [];
+		for (let i = 0; i < this.values.length; i += 3)
+			out.push([this.values[i]!, this.values[i + 1]!, this.values[i + 2]!]);
+		return out;
+	}
+}
+
+/** Samples as a run's `[[t, V, A], …]` (what an export builds) or packed (what an import reads). */
+const samplesSchema = z.union([
+	z.instanceof(PackedSamples),
+	z.array(z.tuple([z.number(), z.number(), z.number()])),
+]);
+
+/** The i-th sample of either form. */
+export function sampleAt(
+	s: PackedSamples | ReadonlyArray<readonly [number, number, number]>,
+	i: number,
+): { tS: number; volts: number; amps: number } {
+	if (s instanceof PackedSamples)
+		return { tS: s.values[i * 3]!, volts: s.values[i * 3 + 1]!, amps: s.values[i * 3 + 2]! };
+	const [tS, volts, amps] = s[i]!;
+	return { tS, volts, amps };
+}
+
 export const backupFileSchema = z.object({
 	key,
 	kind: z.enum(['logger', 'photo', 'thumbnail']),
@@ -114,7 +165,7 @@ export const teamBackupContentSchema = z.object({
 			authorEmail: email.nullable(),
 			createdAt: iso,
 			/** Logger samples as [seconds, volts, amps]. */
-			samples: z.array(z.tuple([z.number(), z.number(), z.number()])),
+			samples: samplesSchema,
 			files: z.array(backupFileSchema),
 		}),
 	),

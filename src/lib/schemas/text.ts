@@ -37,6 +37,8 @@ export function notesText(max: number, opts: { required?: string; maxMessage?: s
 export function findControlCharacter(value: unknown, path: string[] = []): string | null {
 	if (typeof value === 'string')
 		return CONTROL_IN_NOTES.test(value) ? path.join('.') || '(body)' : null;
+	// Numbers packed in a typed array hold no text.
+	if (ArrayBuffer.isView(value)) return null;
 	if (Array.isArray(value)) {
 		for (let i = 0; i < value.length; i++) {
 			const found = findControlCharacter(value[i], [...path, String(i)]);

@@ -17,6 +17,7 @@ import {
 	BACKUP_FORMAT,
 	BACKUP_VERSION,
 	backupEnvelopeSchema,
+	PackedSamples,
 	type TeamBackup,
 	type TeamBackupContent,
 	teamBackupContentSchema,
@@ -253,11 +254,37 @@ export type ParseBackupResult =
 			errors?: { path: string; message: string }[];
 	  };
 
+/**
+ * JSON.stringify(team)'s SHA-256 without the string: a season's runs are hashed one at a time
+ * (the same bytes as the whole, in the same order).
+ */
+function checksumOfParsed(team: unknown): string {
+	if (team === null || typeof team !== 'object' || Array.isArray(team)) return checksumOf(team);
+	const hash = createHash('sha256');
+	hash.update('{');
+	let first = true;
+	for (const [k, v] of Object.entries(team)) {
+		hash.update(`${first ? '' : ','}${JSON.stringify(k)}:`);
+		first = false;
+		if (k === 'runs' && Array.isArray(v)) {
+			hash.update('[');
+			v.forEach((r: unknown, i) => hash.update(`${i ? ',' : ''}${JSON.stringify(r)}`));
+			hash.update(']');
+		} else hash.update(JSON.stringify(v));
+	}
+	hash.update('}');
+	return hash.digest('hex');
+}
+
+/** Reads the file's JSON with every run's samples packed as they are read (see `PackedSamples`). */
+const packSamples = (key: string, value: unknown) =>
+	key === 'samples' ? (PackedSamples.pack(value) ?? value) : value;
+
 /** Checks a backup file before anything is written: JSON, format, version, checksum, then every record. */
 export function parseBackup(text: string): ParseBackupResult {
 	let raw: unknown;
 	try {
-		raw = JSON.parse(text);
+		raw = JSON.parse(text, packSamples);
 	} catch {
 		return {
 			ok: false,
@@ -284,7 +311,7 @@ export function parseBackup(text: string): ParseBackupResult {
 			detail: `This backup was written by a newer version of the product (format ${envelope.data.version}; this installation reads up to ${BACKUP_VERSION}). Update this installation, then import it again.`,
 		};
 	}
-	if (checksumOf(envelope.data.team) !== envelope.data.checksum) {
+	if (checksumOfParsed(envelope.data.team) !== envelope.data.checksum) {
 		return {
 			ok: false,
 			code: 'invalid_backup',
@@ -396,6 +423,8 @@ export async function prepareBackupFiles(t: TeamBackupContent): Promise<PrepareF
 		for (const [j, f] of r.files.entries()) {
 			const path = `team.runs.${i}.files.${j}`;
 			const bytes = new Uint8Array(Buffer.from(f.data, 'base64'));
+			// Its text is not needed again: let it go while the rest is checked and written.
+			f.data = '';
 			const base = {
 				fileName: f.fileName.slice(0, 200),
 				createdAt: f.createdAt,

@@ -24,7 +24,7 @@ const FIGURES: Figure[] = [
 	{
 		key: 'settle',
 		label: 'Settles at, burp',
-		short: 'Settles, burp',
+		short: 'Settles',
 		unit: 'V',
 		digits: 2,
 		better: 'up',
@@ -33,7 +33,7 @@ const FIGURES: Figure[] = [
 	{
 		key: 'lowest',
 		label: 'Lowest amplifier',
-		short: 'Lowest amp',
+		short: 'Low amp',
 		unit: 'V',
 		digits: 2,
 		better: 'up',
@@ -60,7 +60,7 @@ const FIGURES: Figure[] = [
 	{
 		key: 'bank',
 		label: 'Banks at music level',
-		short: 'Banks, music',
+		short: 'Banks',
 		unit: 'A',
 		digits: 0,
 		better: 'down',
@@ -118,7 +118,7 @@ export function SummaryStrip({
 			// Changes with every recomputed figure: what the page bench waits for after a keystroke.
 			data-figures={`${now.settleV}|${now.lowestAmpV}|${now.cableLossW}|${now.bankCurrentA}`}
 		>
-			<div className="grid grid-cols-3 gap-x-3 gap-y-1 sm:grid-cols-4 lg:grid-cols-7">
+			<div className="grid grid-cols-4 gap-x-2 gap-y-1 sm:gap-x-3 lg:grid-cols-7">
 				{FIGURES.map((f) => {
 					const a = f.value(now);
 					const b = before ? f.value(before) : null;
@@ -135,7 +135,7 @@ export function SummaryStrip({
 				<div className="min-w-0" data-figure="findings">
 					<p className="truncate text-[11px] font-semibold tracking-wide text-ink-soft uppercase">
 						<span className="sm:hidden" aria-hidden="true">
-							Danger · warn
+							Findings
 						</span>
 						<span className="max-sm:sr-only">Findings</span>
 					</p>

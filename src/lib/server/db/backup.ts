@@ -1,7 +1,7 @@
 import type { Kysely } from 'kysely';
 import type { Database, Role } from '@/lib/server/db/schema';
 import { measurementColumns } from '@/lib/schemas/run-measurements';
-import type { TeamBackupContent } from '@/lib/schemas/team-backup';
+import { sampleAt, type TeamBackupContent } from '@/lib/schemas/team-backup';
 import type { ImportSummary } from '@/lib/schemas/teams';
 import { storeLoggerSummary } from '@/lib/server/db/runs';
 
@@ -385,11 +385,12 @@ export async function insertTeamFromBackup(
 				})
 				.returning('id')
 				.executeTakeFirstOrThrow();
-			for (let k = 0; k < r.samples.length; k += 5000) {
+			const samples = Array.from({ length: r.samples.length }, (_, j) => sampleAt(r.samples, j));
+			for (let k = 0; k < samples.length; k += 5000) {
 				await trx
 					.insertInto('run_sample')
 					.values(
-						r.samples.slice(k, k + 5000).map(([tS, volts, amps], j) => ({
+						samples.slice(k, k + 5000).map(({ tS, volts, amps }, j) => ({
 							run_id: run.id,
 							seq: k + j,
 							t_s: tS,
@@ -399,12 +400,7 @@ export async function insertTeamFromBackup(
 					)
 					.execute();
 			}
-			if (r.samples.length)
-				await storeLoggerSummary(
-					trx,
-					run.id,
-					r.samples.map(([tS, volts, amps]) => ({ tS, volts, amps })),
-				);
+			if (samples.length) await storeLoggerSummary(trx, run.id, samples);
 			// Photos first, so each thumbnail takes its photo's new name.
 			const runFiles = [...(p.files[i] ?? [])].sort(
 				(a, b) => Number(a.kind === 'thumbnail') - Number(b.kind === 'thumbnail'),

@@ -18,37 +18,62 @@ const formSchema = z.object({
  * untrusted: a damaged, edited, newer-version file or one holding a file that is not what it says
  * is refused before anything is written.
  */
-export const POST: APIRoute = async ({ request, locals }) => {
-	if (!locals.user) return problem(401, 'unauthenticated', 'Sign in first');
+/**
+ * Reads the upload and checks it through, in its own scope: the request's bytes, the form and the
+ * file's text are let go before the import writes anything (a season's file is tens of megabytes).
+ */
+async function readBackupUpload(
+	request: Request,
+): Promise<
+	| { ok: false; response: Response }
+	| {
+			ok: true;
+			name: string | undefined;
+			backup: Extract<ReturnType<typeof parseBackup>, { ok: true }>['backup'];
+	  }
+> {
 	const read = await readMultipart(
 		request,
 		MAX_BACKUP_BYTES + 64 * 1024,
 		'Backups are limited to 200 MB',
 	);
-	if (!read.ok) return read.response;
+	if (!read.ok) return read;
 	const form = read.data;
 	const file = form.get('file');
 	if (!(file instanceof File))
-		return problem(400, 'invalid_input', 'Attach the backup file', [
-			{ path: 'file', message: 'No file' },
-		]);
+		return {
+			ok: false,
+			response: problem(400, 'invalid_input', 'Attach the backup file', [
+				{ path: 'file', message: 'No file' },
+			]),
+		};
 	if (file.size > MAX_BACKUP_BYTES)
-		return problem(413, 'too_large', 'Backups are limited to 200 MB');
+		return { ok: false, response: problem(413, 'too_large', 'Backups are limited to 200 MB') };
 	const fields = validated(
 		formSchema,
 		{ name: form.get('name') ?? undefined },
 		'Some fields need attention',
 	);
-	if (!fields.ok) return fields.response;
+	if (!fields.ok) return fields;
 	const parsed = parseBackup(await file.text());
 	if (!parsed.ok)
-		return problem(
-			parsed.code === 'unsupported_version' ? 422 : 400,
-			parsed.code,
-			parsed.detail,
-			parsed.errors ?? [{ path: 'file', message: parsed.detail }],
-		);
-	const prepared = await prepareBackupFiles(parsed.backup.team);
+		return {
+			ok: false,
+			response: problem(
+				parsed.code === 'unsupported_version' ? 422 : 400,
+				parsed.code,
+				parsed.detail,
+				parsed.errors ?? [{ path: 'file', message: parsed.detail }],
+			),
+		};
+	return { ok: true, name: fields.data.name, backup: parsed.backup };
+}
+
+export const POST: APIRoute = async ({ request, locals }) => {
+	if (!locals.user) return problem(401, 'unauthenticated', 'Sign in first');
+	const upload = await readBackupUpload(request);
+	if (!upload.ok) return upload.response;
+	const prepared = await prepareBackupFiles(upload.backup.team);
 	if (!prepared.ok)
 		return problem(
 			400,
@@ -60,9 +85,9 @@ export const POST: APIRoute = async ({ request, locals }) => {
 		const summary = await importTeam(
 			locals.db,
 			locals.storage,
-			parsed.backup,
+			upload.backup,
 			locals.user,
-			fields.data.name,
+			upload.name,
 			prepared,
 		);
 		return Response.json(summary, { status: 201 });
