@@ -77,6 +77,9 @@ describe('focus after adding a part, in chromium', () => {
 			await b.page.setViewportSize(viewport);
 			await b.page.goto(buildUrl);
 			await b.page.locator('[data-summary]').waitFor();
+			await b.page.waitForSelector('astro-island[component-export="BuildWorkspace"]:not([ssr])', {
+				state: 'attached',
+			});
 			const outside = await b.page.evaluate(() =>
 				[...document.querySelectorAll('[data-summary] [data-figure]')]
 					.filter((el) => el.getBoundingClientRect().bottom > window.innerHeight)
@@ -125,5 +128,12 @@ describe('focus after adding a part, in chromium', () => {
 		});
 		expect(overlaps).toEqual([]);
 		expect(await b.page.locator('[data-summary] [data-figure]').count()).toBeGreaterThanOrEqual(6);
+		// And none cut short: each figure's value and label reads whole in the narrower strip.
+		const cut = await b.page.evaluate(() =>
+			[...document.querySelectorAll('[data-summary] [data-figure] p')]
+				.filter((p) => p.scrollWidth > p.clientWidth + 1)
+				.map((p) => `${p.closest('[data-figure]')!.getAttribute('data-figure')}: ${p.textContent}`),
+		);
+		expect(cut).toEqual([]);
 	}, 60_000);
 });

@@ -107,6 +107,9 @@ export function SummaryStrip({
 	nav?: React.ReactNode;
 }) {
 	const now = headline(report);
+	// Beside the inspector the strip has two thirds of a laptop's width: the phone's short labels.
+	const short = besideInspector ? '' : 'sm:hidden';
+	const long = besideInspector ? 'sr-only' : 'max-sm:sr-only';
 	const before = baseline ? headline(baseline) : null;
 	const added = baseline ? addedFindings(baseline.warnings, report.warnings) : [];
 	const cleared = baseline ? addedFindings(report.warnings, baseline.warnings) : [];
@@ -124,6 +127,9 @@ export function SummaryStrip({
 					const b = before ? f.value(before) : null;
 					return (
 						<Cell
+							short={short}
+							long={long}
+							compact={besideInspector}
 							key={f.key}
 							figure={f}
 							after={now.collapse && f.unit === 'V' ? null : a}
@@ -134,18 +140,18 @@ export function SummaryStrip({
 				})}
 				<div className="min-w-0" data-figure="findings">
 					<p className="truncate text-[11px] font-semibold tracking-wide text-ink-soft uppercase">
-						<span className="sm:hidden" aria-hidden="true">
+						<span className={short} aria-hidden="true">
 							Findings
 						</span>
-						<span className="max-sm:sr-only">Findings</span>
+						<span className={long}>Findings</span>
 					</p>
 					<p className="num truncate text-sm font-semibold whitespace-nowrap">
 						<span className={now.findings.danger ? 'text-brick' : ''}>
-							{now.findings.danger} <span className="max-sm:sr-only">danger</span>
+							{now.findings.danger} <span className={long}>danger</span>
 						</span>{' '}
 						·{' '}
 						<span className={now.findings.warning ? 'text-amber-text' : ''}>
-							{now.findings.warning} <span className="max-sm:sr-only">warn</span>
+							{now.findings.warning} <span className={long}>warn</span>
 						</span>
 					</p>
 					<p className="num h-4 text-[11px] leading-4 text-ink-soft">
@@ -191,7 +197,15 @@ function Cell({
 	after,
 	before,
 	collapse,
+	short,
+	long,
+	compact,
 }: {
+	/** Beside the inspector: the narrow strip. */
+	compact: boolean;
+	/** Classes of the short (phone) label and of the full one. */
+	short: string;
+	long: string;
 	figure: Figure;
 	after: number | null;
 	before: number | null;
@@ -205,10 +219,10 @@ function Cell({
 	return (
 		<div className="min-w-0" data-figure={f.key}>
 			<p className="truncate text-[11px] font-semibold tracking-wide text-ink-soft uppercase">
-				<span className="sm:hidden" aria-hidden="true">
+				<span className={short} aria-hidden="true">
 					{f.short}
 				</span>
-				<span className="max-sm:sr-only">{f.label}</span>
+				<span className={long}>{f.label}</span>
 			</p>
 			<p className="num text-sm font-semibold whitespace-nowrap">
 				{collapse ? (
@@ -227,7 +241,8 @@ function Cell({
 					className={`num h-4 text-[11px] leading-4 whitespace-nowrap ${better ? 'text-teal' : 'text-brick'}`}
 					data-change={better ? 'better' : 'worse'}
 				>
-					{said(before)} → {said(after!)}{' '}
+					{/* Beside the inspector, the value above is the after: only the before is said. */}
+					{compact ? `was ${said(before)}` : `${said(before)} → ${said(after!)}`}{' '}
 					<span className="sr-only">{better ? 'better' : 'worse'}</span>
 					<span aria-hidden="true">{better ? '▲' : '▼'}</span>
 				</p>
