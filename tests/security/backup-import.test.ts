@@ -5,7 +5,7 @@ import { pebbleBuild } from '../../db/demo/builds';
 import type { AppUser } from '../../src/lib/server/auth';
 import { appendRevision } from '../../src/lib/server/db/builds';
 import { insertVehicleWithBuild } from '../../src/lib/server/db/vehicles';
-import { exportTeam } from '../../src/lib/server/team-backup';
+import { exportTeam, parseBackup, readBackup } from '../../src/lib/server/team-backup';
 import * as importRoute from '../../src/pages/api/teams/import';
 import { callEndpoint } from '../helpers/container';
 import { addMember, localsFor, makeTeam, makeUser, memoryStorage } from '../helpers/fixtures';
@@ -286,6 +286,32 @@ describe('team backup import treats the file as untrusted input', () => {
 			.update(JSON.stringify(b.team).replace('"HUGE"', 'null'))
 			.digest('hex');
 		await refused(JSON.stringify(b).replace('"HUGE"', '1e400'));
+		expect(await counts()).toEqual(start);
+	});
+
+	it('reads a file in any slicing alike, and refuses one with a record twice or a key of its own', async () => {
+		const whole = await parseBackup(original);
+		expect(whole.ok).toBe(true);
+		// The same bytes arriving seven at a time: the same team, packed samples and all.
+		const bytes = Buffer.from(original);
+		const slices = Array.from({ length: Math.ceil(bytes.length / 7) }, (_, i) =>
+			bytes.subarray(i * 7, i * 7 + 7),
+		);
+		const sliced = await readBackup(slices);
+		expect(JSON.stringify(sliced)).toBe(JSON.stringify(whole));
+		// Trailing white space (an editor's newline) is still the same file.
+		expect((await parseBackup(`${original}\n\n`)).ok).toBe(true);
+
+		const start = await counts();
+		// "runs" twice: JSON.parse would keep the second; this reader refuses the file.
+		const twice = original.replace('"runs":[', '"runs":[],"runs":[');
+		const dup = await upload(twice);
+		expect(dup.status).toBe(400);
+		expect((await dup.json()).detail).toMatch(/appears twice/);
+		// A key the format does not have is not kept, so the checksum no longer matches.
+		const extra = await upload(edited((b) => (b.team.extra = { anything: true })));
+		expect(extra.status).toBe(400);
+		expect((await extra.json()).detail).toMatch(/checksum/);
 		expect(await counts()).toEqual(start);
 	});
 });

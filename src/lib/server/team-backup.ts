@@ -1,4 +1,5 @@
 import { createHash, randomBytes, randomUUID } from 'node:crypto';
+import { JSONParser } from '@streamparser/json';
 import type { Kysely } from 'kysely';
 import type { BuildDocument } from '@/engine';
 import {
@@ -30,8 +31,6 @@ import { hashToken } from '@/lib/server/tokens';
 type Db = Kysely<Database>;
 
 const iso = (d: Date) => d.toISOString();
-const checksumOf = (team: unknown) =>
-	createHash('sha256').update(JSON.stringify(team)).digest('hex');
 const lastSegment = (key: string) => key.slice(key.lastIndexOf('/') + 1);
 
 /** Runs whose samples and files are read together while a backup streams. */
@@ -254,45 +253,104 @@ export type ParseBackupResult =
 			errors?: { path: string; message: string }[];
 	  };
 
+const NOT_JSON =
+	'This file is not a team backup: it is not valid JSON (it may be cut short or damaged).';
+
+/** Bytes read between two turns of the event loop while a backup is parsed. */
+const PARSE_SLICE = 1024 * 1024;
+
 /**
- * JSON.stringify(team)'s SHA-256 without the string: a season's runs are hashed one at a time
- * (the same bytes as the whole, in the same order).
+ * Reads a backup file as it streams in, without holding its JSON whole: each run is taken out of
+ * the parse as soon as it is complete, its samples packed (`PackedSamples`); the rest of the team
+ * (members, documents, events, sign-offs) is kept as read. The checksum — the SHA-256 of
+ * JSON.stringify(team) — is computed on the way, in the file's own order. Keys the format does not
+ * have are not kept, so a file carrying any fails its checksum. Then the checks of `checkBackup`,
+ * before anything is written.
  */
-function checksumOfParsed(team: unknown): string {
-	if (team === null || typeof team !== 'object' || Array.isArray(team)) return checksumOf(team);
-	const hash = createHash('sha256');
-	hash.update('{');
-	let first = true;
-	for (const [k, v] of Object.entries(team)) {
-		hash.update(`${first ? '' : ','}${JSON.stringify(k)}:`);
-		first = false;
-		if (k === 'runs' && Array.isArray(v)) {
-			hash.update('[');
-			v.forEach((r: unknown, i) => hash.update(`${i ? ',' : ''}${JSON.stringify(r)}`));
-			hash.update(']');
-		} else hash.update(JSON.stringify(v));
-	}
-	hash.update('}');
-	return hash.digest('hex');
-}
-
-/** Reads the file's JSON with every run's samples packed as they are read (see `PackedSamples`). */
-const packSamples = (key: string, value: unknown) =>
-	key === 'samples' ? (PackedSamples.pack(value) ?? value) : value;
-
-/** Checks a backup file before anything is written: JSON, format, version, checksum, then every record. */
-export function parseBackup(text: string): ParseBackupResult {
-	let raw: unknown;
+export async function readBackup(
+	source: AsyncIterable<Uint8Array> | Iterable<Uint8Array>,
+): Promise<ParseBackupResult> {
+	const envelopeKeys = Object.keys(backupEnvelopeSchema.shape).filter((k) => k !== 'team');
+	const teamKeys = Object.keys(teamBackupContentSchema.shape);
+	const parser = new JSONParser({
+		paths: [
+			...envelopeKeys.map((k) => `$.${k}`),
+			...teamKeys.map((k) => `$.team.${k}`),
+			'$.team.runs.*',
+		],
+		keepStack: false,
+	});
+	const envelope: Record<string, unknown> = {};
+	const team: Record<string, unknown> = {};
+	const runs: unknown[] = [];
+	const hash = createHash('sha256').update('{');
+	let fields = 0;
+	let runsOpen = false;
+	let duplicate = false;
+	const field = (k: string) => `${fields++ ? ',' : ''}${JSON.stringify(k)}:`;
+	parser.onValue = ({ value, key, parent, stack }) => {
+		if (stack.length === 1 && typeof key === 'string') {
+			envelope[key] = value;
+		} else if (stack.length === 2 && stack[1]!.key === 'team' && typeof key === 'string') {
+			if (Object.hasOwn(team, key)) duplicate = true;
+			if (key === 'runs' && Array.isArray(value)) {
+				hash.update(runsOpen ? ']' : `${field('runs')}[]`);
+				runsOpen = false;
+				team.runs = runs;
+			} else {
+				hash.update(`${field(key)}${JSON.stringify(value)}`);
+				team[key] = value;
+			}
+		} else if (
+			stack.length === 3 &&
+			stack[1]!.key === 'team' &&
+			stack[2]!.key === 'runs' &&
+			Array.isArray(parent)
+		) {
+			hash.update(runsOpen ? ',' : `${field('runs')}[`);
+			runsOpen = true;
+			hash.update(JSON.stringify(value));
+			if (value && typeof value === 'object' && 'samples' in value) {
+				const run = value as { samples: unknown };
+				run.samples = PackedSamples.pack(run.samples) ?? run.samples;
+			}
+			runs.push(value);
+			// Out of the parser's tree: only the packed copy stays.
+			parent.length -= 1;
+		}
+	};
 	try {
-		raw = JSON.parse(text, packSamples);
+		let sinceTurn = 0;
+		for await (const chunk of source) {
+			parser.write(chunk);
+			sinceTurn += chunk.byteLength;
+			if (sinceTurn >= PARSE_SLICE) {
+				sinceTurn = 0;
+				// Other requests are served between slices of a large file.
+				await new Promise((resolve) => setImmediate(resolve));
+			}
+		}
+		if (!parser.isEnded) parser.end();
 	} catch {
+		return { ok: false, code: 'invalid_backup', detail: NOT_JSON };
+	}
+	if (duplicate)
 		return {
 			ok: false,
 			code: 'invalid_backup',
-			detail:
-				'This file is not a team backup: it is not valid JSON (it may be cut short or damaged).',
+			detail: 'This file is not a team backup from this product: a record appears twice.',
 		};
-	}
+	hash.update('}');
+	return checkBackup({ ...envelope, team }, hash.digest('hex'));
+}
+
+/** Checks a backup file's text (small files and tests; uploads go through `readBackup`). */
+export function parseBackup(text: string): Promise<ParseBackupResult> {
+	return readBackup([Buffer.from(text)]);
+}
+
+/** The checks of a read file: format, version, checksum (computed as read), then every record. */
+function checkBackup(raw: unknown, checksum: string): ParseBackupResult {
 	const envelope = backupEnvelopeSchema.safeParse(raw);
 	if (!envelope.success) {
 		return {
@@ -311,7 +369,7 @@ export function parseBackup(text: string): ParseBackupResult {
 			detail: `This backup was written by a newer version of the product (format ${envelope.data.version}; this installation reads up to ${BACKUP_VERSION}). Update this installation, then import it again.`,
 		};
 	}
-	if (checksumOfParsed(envelope.data.team) !== envelope.data.checksum) {
+	if (checksum !== envelope.data.checksum) {
 		return {
 			ok: false,
 			code: 'invalid_backup',

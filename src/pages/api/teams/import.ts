@@ -3,7 +3,7 @@ import { z } from '@/lib/zod';
 import { teamNameSchema } from '@/lib/schemas/account';
 import { readMultipart } from '@/lib/server/body';
 import { problem, unavailable, validated } from '@/lib/server/http';
-import { importTeam, parseBackup, prepareBackupFiles } from '@/lib/server/team-backup';
+import { importTeam, prepareBackupFiles, readBackup } from '@/lib/server/team-backup';
 import { isDatabaseUnavailable, isStorageUnavailable } from '@/lib/server/unavailable';
 import { errorField, log } from '@/lib/server/log';
 
@@ -29,7 +29,7 @@ async function readBackupUpload(
 	| {
 			ok: true;
 			name: string | undefined;
-			backup: Extract<ReturnType<typeof parseBackup>, { ok: true }>['backup'];
+			backup: Extract<Awaited<ReturnType<typeof readBackup>>, { ok: true }>['backup'];
 	  }
 > {
 	const read = await readMultipart(
@@ -55,7 +55,7 @@ async function readBackupUpload(
 		'Some fields need attention',
 	);
 	if (!fields.ok) return fields;
-	const parsed = parseBackup(await file.text());
+	const parsed = await readBackup(file.stream());
 	if (!parsed.ok)
 		return {
 			ok: false,
