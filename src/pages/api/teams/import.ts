@@ -1,7 +1,7 @@
 import type { APIRoute } from 'astro';
 import { z } from '@/lib/zod';
 import { teamNameSchema } from '@/lib/schemas/account';
-import { readMultipart } from '@/lib/server/body';
+import { streamMultipartFile } from '@/lib/server/body';
 import { problem, unavailable, validated } from '@/lib/server/http';
 import { importTeam, prepareBackupFiles, readBackup } from '@/lib/server/team-backup';
 import { isDatabaseUnavailable, isStorageUnavailable } from '@/lib/server/unavailable';
@@ -19,12 +19,10 @@ const formSchema = z.object({
  * is refused before anything is written.
  */
 /**
- * Reads the upload and checks it through, in its own scope: the request's bytes, the form and the
- * file's text are let go before the import writes anything (a season's file is tens of megabytes).
+ * Reads the upload as it arrives and checks it through: the file streams into the backup reader
+ * (never held whole), and what stays of it is the parsed team, runs' samples packed.
  */
-async function readBackupUpload(
-	request: Request,
-): Promise<
+async function readBackupUpload(request: Request): Promise<
 	| { ok: false; response: Response }
 	| {
 			ok: true;
@@ -32,30 +30,26 @@ async function readBackupUpload(
 			backup: Extract<Awaited<ReturnType<typeof readBackup>>, { ok: true }>['backup'];
 	  }
 > {
-	const read = await readMultipart(
+	const read = await streamMultipartFile(
 		request,
-		MAX_BACKUP_BYTES + 64 * 1024,
-		'Backups are limited to 200 MB',
+		{ limit: MAX_BACKUP_BYTES, tooLarge: 'Backups are limited to 200 MB' },
+		(file) => readBackup(file),
 	);
 	if (!read.ok) return read;
-	const form = read.data;
-	const file = form.get('file');
-	if (!(file instanceof File))
+	const parsed = read.data.result;
+	if (!parsed)
 		return {
 			ok: false,
 			response: problem(400, 'invalid_input', 'Attach the backup file', [
 				{ path: 'file', message: 'No file' },
 			]),
 		};
-	if (file.size > MAX_BACKUP_BYTES)
-		return { ok: false, response: problem(413, 'too_large', 'Backups are limited to 200 MB') };
 	const fields = validated(
 		formSchema,
-		{ name: form.get('name') ?? undefined },
+		{ name: read.data.fields.name },
 		'Some fields need attention',
 	);
 	if (!fields.ok) return fields;
-	const parsed = await readBackup(file.stream());
 	if (!parsed.ok)
 		return {
 			ok: false,
