@@ -3,7 +3,7 @@ import { marlinBuild } from '../../db/demo/builds';
 import { upgradeHints } from '../../src/engine/hints';
 import { DEFAULT_SCENARIO } from '../../src/engine/report';
 import type { BuildDocument } from '../../src/engine/types';
-import { type Browser, openBrowser, signUpWithTeam } from '../helpers/browser';
+import { type Browser, openBrowser, signUpWithBuild } from '../helpers/browser';
 
 const appUrl = inject('appUrl');
 const LAPTOP = { width: 1366, height: 768 };
@@ -20,30 +20,12 @@ describe('the build page’s layout, in chromium', () => {
 	beforeAll(async () => {
 		// As a newcomer: the page's own choice of open sections.
 		b = await openBrowser({ viewport: LAPTOP, sections: 'default' });
-		await signUpWithTeam(b, appUrl, {
-			name: 'Layout Captain',
-			email: `layout-${Date.now()}@sagwise.test`,
-			password: 'layout-captain-2026',
-			team: `Layout Team ${Date.now()}`,
-		});
-		const teamId = /\/teams\/([0-9a-f-]{36})/.exec(b.page.url())![1]!;
-		const post = async (path: string, data: unknown) => {
-			const res = await b.page.request.fetch(`${appUrl}${path}`, {
-				method: 'POST',
-				headers: { Origin: appUrl, 'content-type': 'application/json' },
-				data: JSON.stringify(data),
-			});
-			expect(res.status()).toBe(201);
-			return (await res.json()) as { id: string };
-		};
-		api = async (path) => (await b.page.request.get(`${appUrl}${path}`)).json();
-		const v = await post(`/api/teams/${teamId}/vehicles`, { name: 'Layout car' });
-		await post(`/api/teams/${teamId}/vehicles/${v.id}/revisions`, {
-			parentId: null,
-			message: 'Start',
+		buildUrl = await signUpWithBuild(b, appUrl, {
+			name: 'Layout',
+			slug: 'layout',
 			document: marlinBuild,
 		});
-		buildUrl = `${appUrl}/teams/${teamId}/vehicles/${v.id}`;
+		api = async (path) => (await b.page.request.get(`${appUrl}${path}`)).json();
 	}, 120_000);
 	afterAll(async () => b?.close());
 

@@ -1,6 +1,6 @@
 import { afterAll, beforeAll, describe, expect, inject, it } from 'vitest';
 import { pebbleBuild } from '../../db/demo/builds';
-import { type Browser, openBrowser, signUpWithTeam } from '../helpers/browser';
+import { type Browser, openBrowser, signUpWithBuild } from '../helpers/browser';
 
 const appUrl = inject('appUrl');
 
@@ -10,29 +10,11 @@ describe('focus after adding a part, in chromium', () => {
 	let buildUrl: string;
 	beforeAll(async () => {
 		b = await openBrowser({ viewport: { width: 1366, height: 768 } });
-		await signUpWithTeam(b, appUrl, {
-			name: 'Focus Captain',
-			email: `focus-${Date.now()}@sagwise.test`,
-			password: 'focus-captain-2026',
-			team: `Focus Team ${Date.now()}`,
-		});
-		const teamId = /\/teams\/([0-9a-f-]{36})/.exec(b.page.url())![1]!;
-		const post = async (path: string, data: unknown) => {
-			const res = await b.page.request.fetch(`${appUrl}${path}`, {
-				method: 'POST',
-				headers: { Origin: appUrl, 'content-type': 'application/json' },
-				data: JSON.stringify(data),
-			});
-			expect(res.status()).toBe(201);
-			return (await res.json()) as { id: string };
-		};
-		const v = await post(`/api/teams/${teamId}/vehicles`, { name: 'Focus car' });
-		await post(`/api/teams/${teamId}/vehicles/${v.id}/revisions`, {
-			parentId: null,
-			message: 'Start',
+		buildUrl = await signUpWithBuild(b, appUrl, {
+			name: 'Focus',
+			slug: 'focus',
 			document: pebbleBuild,
 		});
-		buildUrl = `${appUrl}/teams/${teamId}/vehicles/${v.id}`;
 	}, 120_000);
 	afterAll(async () => b?.close());
 

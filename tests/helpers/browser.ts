@@ -144,3 +144,38 @@ export async function signUpWithTeam(
 	await b.page.getByRole('button', { name: 'Create the team' }).click();
 	await b.page.getByRole('heading', { name: who.team, level: 1 }).waitFor();
 }
+
+/**
+ * A new captain with a team of their own and one vehicle whose build starts as `document`, signed in
+ * in `b`; answers the build page's address.
+ */
+export async function signUpWithBuild(
+	b: Browser,
+	appUrl: string,
+	who: { name: string; slug: string; document: unknown },
+): Promise<string> {
+	const stamp = Date.now();
+	await signUpWithTeam(b, appUrl, {
+		name: who.name,
+		email: `${who.slug}-${stamp}@sagwise.test`,
+		password: `${who.slug}-captain-2026`,
+		team: `${who.name} Team ${stamp}`,
+	});
+	const teamId = /\/teams\/([0-9a-f-]{36})/.exec(b.page.url())![1]!;
+	const post = async (path: string, data: unknown) => {
+		const res = await b.page.request.fetch(`${appUrl}${path}`, {
+			method: 'POST',
+			headers: { Origin: appUrl, 'content-type': 'application/json' },
+			data: JSON.stringify(data),
+		});
+		if (res.status() !== 201) throw new Error(`${path} answered ${res.status()}`);
+		return (await res.json()) as { id: string };
+	};
+	const v = await post(`/api/teams/${teamId}/vehicles`, { name: `${who.name} car` });
+	await post(`/api/teams/${teamId}/vehicles/${v.id}/revisions`, {
+		parentId: null,
+		message: 'Start',
+		document: who.document,
+	});
+	return `${appUrl}/teams/${teamId}/vehicles/${v.id}`;
+}
