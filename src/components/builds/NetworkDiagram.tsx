@@ -1,4 +1,4 @@
-import { useMemo } from 'react';
+import { useMemo, useState } from 'react';
 import { cableAreaMm2 } from '@/engine/conductors';
 import type { BuildDocument, NodeKind, PartGroup } from '@/engine';
 import { ScrollRegion } from '@/components/ui/ScrollRegion';
@@ -169,6 +169,7 @@ export function NetworkDiagram({
 	onSelect?: (group: PartGroup, id: string) => void;
 }) {
 	const layout = useMemo(() => layoutNetwork(doc), [doc]);
+	const [listed, setListed] = useState(false);
 	const { pos, ground, parts, partX, width } = layout;
 	const nodeLabel = new Map(doc.nodes.map((n) => [n.id, n.label || n.id]));
 	const pairs = new Map<string, number>();
@@ -338,24 +339,30 @@ export function NetworkDiagram({
 				Copper arcs: supply cables. Slate arcs: ground cables. Dashed red: a cable with a finding.
 				Thicker arcs are larger cables.
 			</figcaption>
-			<details className="mt-2 text-sm">
+			<details
+				className="mt-2 text-sm"
+				onToggle={(e) => setListed((e.currentTarget as HTMLDetailsElement).open)}
+			>
 				<summary className="cursor-pointer font-semibold text-teal">List the connections</summary>
-				<ul className="mt-2 flex flex-col gap-0.5" data-connections>
-					{doc.cables.map((c) => (
-						<li key={c.id}>
-							<span className="font-semibold">{c.label || c.id}</span>:{' '}
-							{nodeLabel.get(c.from) ?? c.from} → {nodeLabel.get(c.to) ?? c.to}
-							{flagged.has(c.id) && <span className="text-brick"> (has a finding)</span>}
-						</li>
-					))}
-					{parts.map((p) => (
-						<li key={p.id}>
-							<span className="font-semibold">{p.label || p.id}</span>: + on{' '}
-							{nodeLabel.get(p.positive) ?? p.positive}, − on{' '}
-							{nodeLabel.get(p.negative) ?? p.negative}
-						</li>
-					))}
-				</ul>
+				{/* Written out only once asked for: most page views never open it. */}
+				{listed && (
+					<ul className="mt-2 flex flex-col gap-0.5" data-connections>
+						{doc.cables.map((c) => (
+							<li key={c.id}>
+								<span className="font-semibold">{c.label || c.id}</span>:{' '}
+								{nodeLabel.get(c.from) ?? c.from} → {nodeLabel.get(c.to) ?? c.to}
+								{flagged.has(c.id) && <span className="text-brick"> (has a finding)</span>}
+							</li>
+						))}
+						{parts.map((p) => (
+							<li key={p.id}>
+								<span className="font-semibold">{p.label || p.id}</span>: + on{' '}
+								{nodeLabel.get(p.positive) ?? p.positive}, − on{' '}
+								{nodeLabel.get(p.negative) ?? p.negative}
+							</li>
+						))}
+					</ul>
+				)}
 			</details>
 		</figure>
 	);
