@@ -6,7 +6,7 @@ import tailwindcss from '@tailwindcss/vite';
 import AstroPWA from '@vite-pwa/astro';
 import auth from 'auth-astro';
 import { fileURLToPath } from 'node:url';
-import { precompress } from './cli/precompress.ts';
+import { precompress } from './src/cli/precompress.ts';
 import { defineConfig, envField } from 'astro/config';
 
 const allowedHosts = (process.env.ALLOWED_HOSTS ?? '127.0.0.1,localhost')
@@ -42,7 +42,7 @@ export default defineConfig({
 		{
 			name: 'sagwise-precompress',
 			hooks: {
-				// Static files go out precompressed (brotli and gzip written once, here; cli/serve.ts
+				// Static files go out precompressed (brotli and gzip written once, here; src/cli/serve.ts
 				// picks the one the browser accepts).
 				'astro:build:done': ({ dir, logger }) => {
 					// With server output `dir` is the client folder (dist/client); be sure of it.

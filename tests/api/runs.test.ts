@@ -3,7 +3,7 @@ import { tmpdir } from 'node:os';
 import path from 'node:path';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { pebbleBuild } from '../../db/demo/builds';
-import { type S3Fake, startS3Fake } from '../../cli/s3-fake';
+import { type S3Fake, startS3Fake } from '../../src/cli/s3-fake';
 import * as events from '../../src/pages/api/teams/[teamId]/events/index';
 import * as exportCsv from '../../src/pages/api/teams/[teamId]/runs/export.csv';
 import Papa from 'papaparse';

@@ -10,14 +10,14 @@ export interface AppServer {
 	stop: () => Promise<void>;
 }
 
-/** The built app behind its HTTP front (cli/serve.ts), as `npm start` runs it, on a test port. */
+/** The built app behind its HTTP front (src/cli/serve.ts), as `npm start` runs it, on a test port. */
 export async function startAppServer(
 	port: number,
 	env: Record<string, string>,
 	opts: { healthy?: boolean } = {},
 ): Promise<AppServer> {
 	const url = `http://127.0.0.1:${port}`;
-	const child = spawn(process.execPath, ['--import', 'tsx', 'cli/serve.ts'], {
+	const child = spawn(process.execPath, ['--import', 'tsx', 'src/cli/serve.ts'], {
 		env: {
 			...process.env,
 			HOST: '127.0.0.1',
@@ -88,8 +88,8 @@ export async function startIsolatedApp(
 	const { sql } = await import('kysely');
 	const { ensureCluster } = await import('../../db/cluster');
 	const { seedDemo } = await import('../../db/seed');
-	const { startSmtpFake } = await import('../../cli/smtp-fake');
-	const { startS3Fake } = await import('../../cli/s3-fake');
+	const { startSmtpFake } = await import('../../src/cli/smtp-fake');
+	const { startS3Fake } = await import('../../src/cli/s3-fake');
 	const { createDb } = await import('../../src/lib/server/db/client');
 	const { TEST_CLUSTER } = await import('./pg-global-setup');
 	const cluster = await ensureCluster(TEST_CLUSTER);

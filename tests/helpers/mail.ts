@@ -1,7 +1,7 @@
 import { mkdtempSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import path from 'node:path';
-import { type SmtpFake, startSmtpFake } from '../../cli/smtp-fake';
+import { type SmtpFake, startSmtpFake } from '../../src/cli/smtp-fake';
 import { listOutbox, type OutboxMail } from '../../src/lib/server/dev-outbox';
 import { createSmtpMailer, type Mailer } from '../../src/lib/server/mail';
 

@@ -1,6 +1,6 @@
 import type http from 'node:http';
 import { describe, expect, it } from 'vitest';
-import { clientAddress, parseTrustedProxies } from '../../cli/serve';
+import { clientAddress, parseTrustedProxies } from '../../src/cli/serve';
 import { bodyLimitFor, DEFAULT_BODY_LIMIT } from '../../src/lib/server/body-limits';
 
 const req = (remoteAddress: string, forwarded?: string) =>

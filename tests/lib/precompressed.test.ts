@@ -5,8 +5,8 @@ import { tmpdir } from 'node:os';
 import path from 'node:path';
 import { brotliDecompressSync, gunzipSync } from 'node:zlib';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { precompress } from '../../cli/precompress';
-import { createFront } from '../../cli/serve';
+import { precompress } from '../../src/cli/precompress';
+import { createFront } from '../../src/cli/serve';
 
 describe('precompressed static files', () => {
 	const dir = mkdtempSync(path.join(tmpdir(), 'sagwise-static-'));

@@ -1,5 +1,5 @@
 /**
- * How large a request body each route may send, checked by the HTTP front (cli/serve.ts)
+ * How large a request body each route may send, checked by the HTTP front (src/cli/serve.ts)
  * while the body streams in, before any route reads it, and again by the routes' own readers.
  */
 const MB = 1024 * 1024;

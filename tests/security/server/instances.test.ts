@@ -9,8 +9,8 @@ import { pebbleBuild } from '../../../db/demo/builds';
 import { ensureCluster } from '../../../db/cluster';
 import { migrateToLatest } from '../../../db/migrator';
 import { DEMO_PASSWORD, DEMO_USERS, seedDemo } from '../../../db/seed';
-import { type S3Fake, startS3Fake } from '../../../cli/s3-fake';
-import { type SmtpFake, startSmtpFake } from '../../../cli/smtp-fake';
+import { type S3Fake, startS3Fake } from '../../../src/cli/s3-fake';
+import { type SmtpFake, startSmtpFake } from '../../../src/cli/smtp-fake';
 import { createDb } from '../../../src/lib/server/db/client';
 import { listOutbox } from '../../../src/lib/server/dev-outbox';
 import { type AppServer, startAppServer } from '../../helpers/app-server';
@@ -148,7 +148,7 @@ describe('two app instances behind one database', () => {
 		await db.destroy();
 		const job = () =>
 			new Promise<number>((resolve) => {
-				const child = spawn(process.execPath, ['--import', 'tsx', 'cli/jobs.ts', 'reminders'], {
+				const child = spawn(process.execPath, ['--import', 'tsx', 'src/cli/jobs.ts', 'reminders'], {
 					env: { ...process.env, DATABASE_URL: dbUrl, SMTP_URL: `smtp://127.0.0.1:${smtp.port}` },
 					stdio: 'ignore',
 				});

@@ -33,7 +33,7 @@ describe('npm start when its server is killed', () => {
 		);
 		await admin.destroy();
 
-		start = spawn(process.execPath, ['--import', 'tsx', 'cli/start.ts'], {
+		start = spawn(process.execPath, ['--import', 'tsx', 'src/cli/start.ts'], {
 			env: {
 				...process.env,
 				PORT: String(PORTS.app),

@@ -8,7 +8,7 @@
  *   arrives from a proxy named in TRUST_PROXY (otherwise forwarded headers are dropped);
  * - doubled slashes in a path answer 404 plainly;
  * - the build's hashed static files (/_astro/…) go out precompressed, brotli or gzip as the client
- *   accepts (written at build time by cli/precompress.ts), immutable for a year;
+ *   accepts (written at build time by src/cli/precompress.ts), immutable for a year;
  * - other answers to reads are compressed (brotli or gzip, as the client accepts) when their type
  *   compresses and they are larger than 1 KB: pages, JSON, scripts, styles, CSV.
  */
@@ -19,7 +19,7 @@ import { pathToFileURL } from 'node:url';
 import { existsSync, readdirSync, statSync, createReadStream } from 'node:fs';
 import compression from 'compression';
 import { PRECOMPRESSED_TYPES } from './precompress';
-import { bodyLimitFor } from '../src/lib/server/body-limits';
+import { bodyLimitFor } from '../lib/server/body-limits';
 
 type Handler = (req: http.IncomingMessage, res: http.ServerResponse) => void;
 

@@ -3,13 +3,13 @@
  * row points at, for a scheduler (cron, a systemd timer) to call — hourly is plenty. Safe to run
  * twice and on several machines at once. `npm run jobs -- reminders|digest|sweep` runs one.
  */
-import { createDb } from '../src/lib/server/db/client';
-import { sendEventReminders, sendRevisionDigests } from '../src/lib/server/reminders';
-import { readConfig } from '../src/lib/server/config';
-import { createSmtpMailer } from '../src/lib/server/mail';
-import { sweepOrphanObjects } from '../src/lib/server/object-cleanup';
-import { createS3Storage } from '../src/lib/server/storage';
-import { DEFAULT_CLUSTER, ensureCluster } from '../db/cluster';
+import { createDb } from '../lib/server/db/client';
+import { sendEventReminders, sendRevisionDigests } from '../lib/server/reminders';
+import { readConfig } from '../lib/server/config';
+import { createSmtpMailer } from '../lib/server/mail';
+import { sweepOrphanObjects } from '../lib/server/object-cleanup';
+import { createS3Storage } from '../lib/server/storage';
+import { DEFAULT_CLUSTER, ensureCluster } from '../../db/cluster';
 
 const config = readConfig();
 const url =

@@ -8,7 +8,7 @@ import path from 'node:path';
 import { simpleParser } from 'mailparser';
 import { SMTPServer } from 'smtp-server';
 
-import type { OutboxMail as StoredMail } from '../src/lib/server/dev-outbox';
+import type { OutboxMail as StoredMail } from '../lib/server/dev-outbox';
 
 export interface SmtpFake {
 	port: number;

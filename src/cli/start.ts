@@ -4,16 +4,16 @@
  * build is missing or stale, and serves on http://127.0.0.1:4321. Ctrl-C stops everything it started.
  */
 import { spawn, spawnSync } from 'node:child_process';
-import { createDb } from '../src/lib/server/db/client';
-import { DEFAULT_CLUSTER, ensureCluster, stopCluster, ClusterError } from '../db/cluster';
-import { migrateToLatest } from '../db/migrator';
-import { DEMO_PASSWORD, DEMO_USERS, seedIfEmpty } from '../db/seed';
+import { createDb } from '../lib/server/db/client';
+import { DEFAULT_CLUSTER, ensureCluster, stopCluster, ClusterError } from '../../db/cluster';
+import { migrateToLatest } from '../../db/migrator';
+import { DEMO_PASSWORD, DEMO_USERS, seedIfEmpty } from '../../db/seed';
 import { startSmtpFake } from './smtp-fake';
 import { startS3Fake } from './s3-fake';
 import { buildIsStale } from './build-state';
 import { loadOrCreateSecrets } from './secrets';
-import { readConfig } from '../src/lib/server/config';
-import { createS3Storage, ensureBucket } from '../src/lib/server/storage';
+import { readConfig } from '../lib/server/config';
+import { createS3Storage, ensureBucket } from '../lib/server/storage';
 
 const t0 = performance.now();
 const log = (line: string) => console.log(`[sagwise] ${line}`);
@@ -99,7 +99,7 @@ async function main() {
 	};
 	// The HTTP front (body limits, proxy trust) around the built app. Its stdin is a pipe from this
 	// process: if this process dies, even by SIGKILL, the pipe closes and the server stops too.
-	const server = spawn(process.execPath, ['--import', 'tsx', 'cli/serve.ts'], {
+	const server = spawn(process.execPath, ['--import', 'tsx', 'src/cli/serve.ts'], {
 		env: { ...env, SAGWISE_EXIT_WITH_PARENT: '1' },
 		stdio: ['pipe', 'inherit', 'inherit'],
 	});

@@ -4,7 +4,6 @@ import path from 'node:path';
 const SOURCES = [
 	'src',
 	'db',
-	'cli',
 	'public',
 	'astro.config.mjs',
 	'auth.config.ts',
