@@ -91,8 +91,7 @@ export function upgradeHints(
 			beforeV,
 			afterV,
 			gainV: afterV - beforeV,
-			gainDb:
-				amp && beforeV > 0 ? outputLossDb(amp, afterV) - outputLossDb(amp, beforeV) : null,
+			gainDb: amp && beforeV > 0 ? outputLossDb(amp, afterV) - outputLossDb(amp, beforeV) : null,
 			document: next,
 		});
 	};

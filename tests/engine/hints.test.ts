@@ -58,7 +58,12 @@ describe('upgradeHints', () => {
 			const hints = upgradeHints(d, at);
 			const columns = comparePlans(
 				d,
-				hints.map((h, i) => ({ id: String(i), name: h.description, document: h.document, cost: 0 })),
+				hints.map((h, i) => ({
+					id: String(i),
+					name: h.description,
+					document: h.document,
+					cost: 0,
+				})),
 			);
 			hints.forEach((h, i) => {
 				const column = columns.find((c) => c.id === String(i))!;
