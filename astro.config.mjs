@@ -7,6 +7,8 @@ import AstroPWA from '@vite-pwa/astro';
 import auth from 'auth-astro';
 import { fileURLToPath } from 'node:url';
 import { precompress } from './src/cli/precompress.ts';
+import { build } from 'esbuild';
+import path from 'node:path';
 import { defineConfig, envField } from 'astro/config';
 
 const allowedHosts = (process.env.ALLOWED_HOSTS ?? '127.0.0.1,localhost')
@@ -44,11 +46,24 @@ export default defineConfig({
 			hooks: {
 				// Static files go out precompressed (brotli and gzip written once, here; src/cli/serve.ts
 				// picks the one the browser accepts).
-				'astro:build:done': ({ dir, logger }) => {
+				'astro:build:done': async ({ dir, logger }) => {
 					// With server output `dir` is the client folder (dist/client); be sure of it.
 					const out = fileURLToPath(dir);
 					const clientDir = /[\\/]client[\\/]?$/.test(out) ? out : `${out}/client`;
 					logger.info(`precompressed ${precompress(clientDir)} static files`);
+					// The HTTP front as plain JavaScript beside the build: served by `node dist/serve.mjs`,
+					// with no TypeScript loader in the server (its module hooks would see every import).
+					await build({
+						entryPoints: ['src/cli/serve.ts'],
+						outfile: path.join(path.dirname(clientDir), 'serve.mjs'),
+						bundle: true,
+						platform: 'node',
+						format: 'esm',
+						target: 'node20',
+						packages: 'external',
+						logLevel: 'warning',
+					});
+					logger.info('bundled the HTTP front (serve.mjs)');
 				},
 			},
 		},

@@ -21,10 +21,10 @@ function newestMtime(entry: string): number {
 	return newest;
 }
 
-/** True when dist/ is missing or older than any source file that goes into it. */
+/** True when dist/ (the app and its HTTP front) is missing or older than any source file that goes into it. */
 export function buildIsStale(root = process.cwd()): boolean {
 	const entry = path.join(root, 'dist/server/entry.mjs');
-	if (!existsSync(entry)) return true;
+	if (!existsSync(entry) || !existsSync(path.join(root, 'dist/serve.mjs'))) return true;
 	const built = statSync(entry).mtimeMs;
 	return SOURCES.some((source) => newestMtime(path.join(root, source)) > built);
 }

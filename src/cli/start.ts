@@ -99,7 +99,7 @@ async function main() {
 	};
 	// The HTTP front (body limits, proxy trust) around the built app. Its stdin is a pipe from this
 	// process: if this process dies, even by SIGKILL, the pipe closes and the server stops too.
-	const server = spawn(process.execPath, ['--import', 'tsx', 'src/cli/serve.ts'], {
+	const server = spawn(process.execPath, ['dist/serve.mjs'], {
 		env: { ...env, SAGWISE_EXIT_WITH_PARENT: '1' },
 		stdio: ['pipe', 'inherit', 'inherit'],
 	});

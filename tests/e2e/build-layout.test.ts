@@ -129,6 +129,7 @@ describe('the build page’s layout, in chromium', () => {
 			);
 			// And the connections as a list, for a screen too narrow to take the drawing in at once.
 			await b.page.getByText('List the connections').click();
+			await b.page.locator('[data-connections] li').first().waitFor();
 			await expect(b.page.locator('[data-connections] li').count()).resolves.toBe(
 				marlinBuild.cables.length + check.parts,
 			);

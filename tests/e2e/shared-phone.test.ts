@@ -241,6 +241,8 @@ describe('a shared phone at the lanes, in chromium', () => {
 			await p.waitForSelector('astro-island[component-export="VehicleRuns"]:not([ssr])', {
 				state: 'attached',
 			});
+			// What the page asks for as it opens has come back before the signal goes.
+			await p.waitForLoadState('networkidle');
 			const serverRuns = async () =>
 				(
 					(await (

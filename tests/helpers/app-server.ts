@@ -17,7 +17,7 @@ export async function startAppServer(
 	opts: { healthy?: boolean } = {},
 ): Promise<AppServer> {
 	const url = `http://127.0.0.1:${port}`;
-	const child = spawn(process.execPath, ['--import', 'tsx', 'src/cli/serve.ts'], {
+	const child = spawn(process.execPath, ['dist/serve.mjs'], {
 		env: {
 			...process.env,
 			HOST: '127.0.0.1',

@@ -55,7 +55,7 @@ describe('npm start when its server is killed', () => {
 			expect(await portFree(port), `port ${port} taken while running`).toBe(false);
 
 		// The server is the start command's child running the HTTP front.
-		const serverPid = execFileSync('pgrep', ['-P', String(start.pid), '-f', 'serve.ts'], {
+		const serverPid = execFileSync('pgrep', ['-P', String(start.pid), '-f', 'serve.mjs'], {
 			encoding: 'utf8',
 		})
 			.trim()
