@@ -34,7 +34,7 @@ const iso = (d: Date) => d.toISOString();
 const lastSegment = (key: string) => key.slice(key.lastIndexOf('/') + 1);
 
 /** Runs whose samples and files are read together while a backup streams. */
-const RUN_BATCH = 10;
+const RUN_BATCH = 4;
 
 /**
  * A whole team as a backup file, produced piece by piece: members by e-mail and role, manual check
