@@ -84,6 +84,43 @@ describe('focus after adding a part, in chromium', () => {
 		}, 60_000);
 	}
 
+	it('keeps a tap on the conditions made before the page’s script arrives', async () => {
+		await b.page.setViewportSize({ width: 390, height: 844 });
+		await b.page.evaluate(async () => {
+			localStorage.setItem('sagwise.conditions.open', '0');
+			// The offline worker would answer the scripts from its cache, past the hold below.
+			for (const r of await navigator.serviceWorker.getRegistrations()) await r.unregister();
+		});
+		// Hold the page's scripts until the member has tapped, as on a slow phone line.
+		let release!: () => void;
+		const released = new Promise<void>((resolve) => (release = resolve));
+		const hold = async (route: import('playwright-core').Route) => {
+			await released;
+			await route.continue();
+		};
+		await b.page.route('**/_astro/**/*.js', hold);
+		// Module scripts hold DOMContentLoaded back: go on once the page's HTML is in.
+		await b.page.goto(buildUrl, { waitUntil: 'commit' });
+		const conditions = b.page.locator('#conditions details');
+		await conditions.locator('summary').click();
+		await expect(
+			b.page.locator('astro-island[component-export="BuildWorkspace"][ssr]').count(),
+		).resolves.toBe(1);
+		await expect(conditions.getAttribute('open')).resolves.toBe('');
+		release();
+		await b.page.waitForSelector('astro-island[component-export="BuildWorkspace"]:not([ssr])', {
+			state: 'attached',
+		});
+		await b.page.unroute('**/_astro/**/*.js', hold);
+		// Once awake it still reads open, says so, and this browser remembers it.
+		await b.page.getByLabel('Engine speed (rpm)').waitFor();
+		await conditions.getByText('Close', { exact: true }).waitFor();
+		await b.page.reload();
+		await b.page.getByLabel('Engine speed (rpm)').waitFor();
+		await conditions.locator('summary').click();
+		await expect(conditions.getAttribute('open')).resolves.toBeNull();
+	}, 60_000);
+
 	it('keeps every figure of the strip clear of the inspector at 1366 px', async () => {
 		await b.page.setViewportSize({ width: 1366, height: 768 });
 		await b.page.goto(buildUrl);

@@ -1,7 +1,8 @@
-import { useMemo, useState } from 'react';
+import { useMemo } from 'react';
 import { cableAreaMm2 } from '@/engine/conductors';
 import type { BuildDocument, NodeKind, PartGroup } from '@/engine';
 import { ScrollRegion } from '@/components/ui/ScrollRegion';
+import { useDetailsOpen } from '@/lib/client/use-details-open';
 
 /** Where a node's kind sits from the engine bay (left) to the amplifiers (right). */
 const RANK: Record<NodeKind, number> = {
@@ -169,7 +170,7 @@ export function NetworkDiagram({
 	onSelect?: (group: PartGroup, id: string) => void;
 }) {
 	const layout = useMemo(() => layoutNetwork(doc), [doc]);
-	const [listed, setListed] = useState(false);
+	const { ref: listRef, open: listed, onToggle: onListToggle } = useDetailsOpen();
 	const { pos, ground, parts, partX, width } = layout;
 	const nodeLabel = new Map(doc.nodes.map((n) => [n.id, n.label || n.id]));
 	const pairs = new Map<string, number>();
@@ -339,10 +340,7 @@ export function NetworkDiagram({
 				Copper arcs: supply cables. Slate arcs: ground cables. Dashed red: a cable with a finding.
 				Thicker arcs are larger cables.
 			</figcaption>
-			<details
-				className="mt-2 text-sm"
-				onToggle={(e) => setListed((e.currentTarget as HTMLDetailsElement).open)}
-			>
+			<details ref={listRef} className="mt-2 text-sm" onToggle={onListToggle}>
 				<summary className="cursor-pointer font-semibold text-teal">List the connections</summary>
 				{/* Written out only once asked for: most page views never open it. */}
 				{listed && (

@@ -1,4 +1,4 @@
-import { useEffect, useState } from 'react';
+import { useDetailsOpen } from '@/lib/client/use-details-open';
 import type { Scenario } from '@/engine';
 
 /** Where this browser remembers whether the member keeps the conditions open. */
@@ -29,27 +29,28 @@ export function ScenarioControls({
 	const set = <K extends keyof Scenario>(key: K, value: Scenario[K]) =>
 		setScenario((s) => ({ ...s, [key]: value }));
 	// One line until opened (in place); the choice is remembered in this browser.
-	const [open, setOpen] = useState(false);
-	useEffect(() => {
-		try {
-			if (localStorage.getItem(OPEN_KEY) === '1') setOpen(true);
-		} catch {
-			// storage refused (private mode): closed it is
-		}
-	}, []);
+	const { ref, open, onToggle } = useDetailsOpen(
+		() => {
+			try {
+				return localStorage.getItem(OPEN_KEY) === '1';
+			} catch {
+				return null; // storage refused (private mode): closed it is
+			}
+		},
+		(now) => {
+			try {
+				localStorage.setItem(OPEN_KEY, now ? '1' : '0');
+			} catch {
+				// not remembered, still works
+			}
+		},
+	);
 	return (
 		<section aria-labelledby="scenario-heading" id="conditions">
 			<details
+				ref={ref}
 				open={open}
-				onToggle={(e) => {
-					const now = e.currentTarget.open;
-					setOpen(now);
-					try {
-						localStorage.setItem(OPEN_KEY, now ? '1' : '0');
-					} catch {
-						// not remembered, still works
-					}
-				}}
+				onToggle={onToggle}
 				className="rounded-md border border-hairline bg-card"
 			>
 				<summary className="flex cursor-pointer flex-wrap items-baseline gap-x-3 gap-y-0.5 px-4 py-2">
