@@ -172,6 +172,13 @@ export default defineConfig({
 		build: {
 			assetsInlineLimit: 0,
 			rollupOptions: {
+				// The engine is pure (no I/O, nothing done on import): a page takes only the models it
+				// calls, though islands import the engine through one entry. Its document schema
+				// configures zod's messages on import, so that module keeps its side effects.
+				treeshake: {
+					moduleSideEffects: (id) =>
+						!/[\\/]src[\\/]engine[\\/]/.test(id) || /document-schema/.test(id),
+				},
 				// zod's sources carry comments about its own tree-shaking in places Rollup cannot read
 				// as annotations; Rollup drops them (harmless) and says so four times per build.
 				onwarn(warning, warn) {

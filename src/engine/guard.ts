@@ -1,5 +1,5 @@
 import * as z from 'zod/mini';
-import { buildDocumentSchema } from '../lib/schemas/build-document';
+import { buildDocumentSchema } from './document-schema';
 import { checkTopology } from './topology';
 import type { BuildDocument } from './types';
 import { EngineInputError, type EngineProblem } from './errors';

@@ -1,46 +1,10 @@
-export * from './types';
-export * from './conductors';
-export * from './amplifier';
-export * from './battery';
-export * from './alternator';
-export * from './fuses';
-export * from './topology';
-export {
-	compileNetwork,
-	solveCompiled,
-	GMIN_S,
-	type SolveConditions,
-	type CompiledNetwork,
-} from './network';
-export * from './solve';
-export * from './budget';
-export * from './burp';
-export * from './session';
-export * from './report';
-export * from './spice';
-export * from './units';
-export * from './diff';
-export * from './hints';
-export * from './run-analysis';
-export * from './checks';
-export * from './headline';
-export * from './findings';
-export * from './heating';
-export * from './sweep';
-export * from './compare';
-export * from './merge';
-export * from './defaults';
-export { describeFeed, type FeedReference, type FeedShare } from './feed';
-// The calibration fit is its own entry, `@/engine/calibration` (it brings a fitting library that
-// pages without a log should not load); only its types are here.
-export type {
-	CalibrationOptions,
-	CalibrationParameter,
-	CalibrationPoint,
-	CalibrationResult,
-	FittedParameter,
-} from './calibrate';
-export { EngineInputError, type EngineProblem, documentProblems } from './guard';
+/**
+ * The engine's public surface: everything of `./browser`, the document's schema (its input
+ * contract) and each computation wrapped in the input check below.
+ */
+export * from './browser';
+export { documentProblems } from './guard';
+export * from './document-schema';
 
 // The public surface: each computation checks what it is handed first (the schema's fields and
 // ranges, the topology, the options' ranges) and throws EngineInputError naming the fields, so a

@@ -1,7 +1,7 @@
 /**
  * The build document (schema version 1): a vehicle's DC electrical system as a network.
  * SI units throughout: V, A, Ω, m, mm², W, Ah, °C. The zod schema that validates it at every
- * boundary lives in src/lib/schemas/build-document.ts and is checked against these types.
+ * boundary, the engine's input contract, is ./document-schema.ts, checked against these types.
  */
 
 export const AWG_SIZES = ['12', '10', '8', '6', '4', '2', '1', '1/0', '2/0', '3/0', '4/0'] as const;

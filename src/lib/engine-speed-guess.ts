@@ -1,5 +1,9 @@
-import { bankThevenin } from '@/engine/battery';
-import type { BuildDocument, CalibrationParameter, Sample } from '@/engine';
+import {
+	bankThevenin,
+	type BuildDocument,
+	type CalibrationParameter,
+	type Sample,
+} from '@/engine/browser';
 
 /**
  * Whether the engine ran during a logged run, read from where the log rests: the mean voltage of

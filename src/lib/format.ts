@@ -1,6 +1,10 @@
-import type { PartGroup, UnitSystem } from '@/engine';
-import { MM2_PER_CMIL } from '@/engine/conductors';
-import { M_PER_FT, M_PER_IN } from '@/engine/units';
+import {
+	MM2_PER_CMIL,
+	M_PER_FT,
+	M_PER_IN,
+	type PartGroup,
+	type UnitSystem,
+} from '@/engine/browser';
 
 export type { UnitSystem };
 

@@ -1,5 +1,5 @@
 import Papa from 'papaparse';
-import type { Sample } from '@/engine';
+import type { Sample } from '@/engine/browser';
 
 export interface ColumnMapping {
 	time: string;

@@ -1,5 +1,4 @@
-import type { Scenario } from '@/engine';
-import { DEFAULT_SCENARIO } from '@/engine/report';
+import { DEFAULT_SCENARIO, type Scenario } from '@/engine/browser';
 
 /**
  * The step each condition moves in, as the conditions form offers it. A server answer is computed

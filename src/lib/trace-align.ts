@@ -1,4 +1,4 @@
-import type { Sample } from '@/engine';
+import type { Sample } from '@/engine/browser';
 
 /** A burp is a current rise of at least this much over the resting draw (A). */
 const MIN_RISE_A = 5;

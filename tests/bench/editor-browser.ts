@@ -14,7 +14,7 @@ const bundle = await build({
 		contents: `
 			import { buildReport } from './src/engine/report';
 			import { runBurp } from './src/engine/burp';
-			import { parseBuildDocument } from './src/lib/schemas/build-document';
+			import { parseBuildDocument } from './src/engine';
 			window.sagwiseBench = (doc, edits) => {
 				const times = [];
 				for (let i = 0; i < edits; i++) {

@@ -2,8 +2,7 @@
 import { render, screen } from '@testing-library/react';
 import { describe, expect, it } from 'vitest';
 import { SummaryStrip } from '@/components/builds/analysis/SummaryStrip';
-import { buildReport } from '@/engine/report';
-import type { BuildReport } from '@/engine';
+import { buildReport, type BuildReport } from '@/engine';
 import { marlinBuild } from '../../db/demo/builds';
 
 type Ok = Extract<BuildReport, { ok: true }>;

@@ -74,7 +74,7 @@ describe('upgradeHints', () => {
 				expect(Math.sign(Math.round(h.gainDb! * 1e6))).toBe(Math.sign(Math.round(h.gainV * 1e6)));
 			});
 		}
-	});
+	}, 60_000); // a full comparison per change of every demo build: seconds, not milliseconds
 
 	it('never raises a regulator past any bank’s charge limit', () => {
 		for (const d of Object.values(DEMO_BUILDS)) {

@@ -1,6 +1,6 @@
 import { describe, expect, it } from 'vitest';
 import { DEMO_BUILDS, pebbleBuild } from '../../db/demo/builds';
-import { parseBuildDocument } from '../../src/lib/schemas/build-document';
+import { parseBuildDocument } from '../../src/engine';
 import { amp, cable, doc, node } from '../helpers/networks';
 
 type Mutable = Record<string, any>;

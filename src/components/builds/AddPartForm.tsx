@@ -1,6 +1,12 @@
 import { useId, useState } from 'react';
-import type { BuildDocument, BuildNode, Cable, NodeKind, PartGroup } from '@/engine';
-import { NODE_KINDS } from '@/engine/types';
+import {
+	NODE_KINDS,
+	type BuildDocument,
+	type BuildNode,
+	type Cable,
+	type NodeKind,
+	type PartGroup,
+} from '@/engine/browser';
 import { GROUP_NAMES } from '@/lib/format';
 import { Button, Field } from '@/components/ui/Field';
 import {

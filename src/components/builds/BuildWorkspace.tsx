@@ -1,7 +1,6 @@
 import { QueryClientProvider, useQuery } from '@tanstack/react-query';
 import { useEffect, useMemo, useState } from 'react';
-import { diffBuilds } from '@/engine/diff';
-import type { BuildDocument, UpgradeHint } from '@/engine';
+import { diffBuilds, type BuildDocument, type UpgradeHint } from '@/engine/browser';
 import { ApiError } from '@/lib/client/api-client';
 import { buildDrafts } from '@/lib/client/draft-store';
 import { useSetUnits } from '@/lib/client/queries/account';

@@ -2,7 +2,7 @@ import { CategoryScale, Chart as ChartJS, Filler } from 'chart.js';
 import '@/components/ui/chart-setup';
 import { useMemo } from 'react';
 import { Line } from 'react-chartjs-2';
-import type { BudgetRow, BurpRun, SessionRun, SpeedPoint } from '@/engine';
+import type { BudgetRow, BurpRun, SessionRun, SpeedPoint } from '@/engine/browser';
 import {
 	toBudgetChartData,
 	toBurpChartData,

@@ -1,5 +1,5 @@
 import { useEffect, useRef } from 'react';
-import type { BuildDocument, BuildReport, PartGroup, ReportWarning } from '@/engine';
+import type { BuildDocument, BuildReport, PartGroup, ReportWarning } from '@/engine/browser';
 import { fmt, GROUP_NAMES, lengthUnit, toLengthDisplay, type UnitSystem } from '@/lib/format';
 import { Button } from '@/components/ui/Field';
 import {

@@ -1,6 +1,5 @@
 import { useMemo } from 'react';
-import { cableAreaMm2 } from '@/engine/conductors';
-import type { BuildDocument, NodeKind, PartGroup } from '@/engine';
+import { cableAreaMm2, type BuildDocument, type NodeKind, type PartGroup } from '@/engine/browser';
 import { ScrollRegion } from '@/components/ui/ScrollRegion';
 import { useDetailsOpen } from '@/lib/client/use-details-open';
 

@@ -1,5 +1,5 @@
 import { useEffect, useMemo, useState } from 'react';
-import type { BuildDocument, PartGroup } from '@/engine';
+import type { BuildDocument, PartGroup } from '@/engine/browser';
 import type { UnitSystem } from '@/lib/format';
 import { useHydrated } from '@/lib/client/use-hydrated';
 import {

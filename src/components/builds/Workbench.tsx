@@ -1,10 +1,16 @@
 import { memo, useCallback, useMemo, useRef, useState } from 'react';
 import { useAfterPaint } from '@/lib/client/use-after-paint';
-import type { BuildDocument, PartGroup, Scenario, UpgradeHint } from '@/engine';
-// The engine's modules, unchecked: the draft is computed only once its field check passed (or,
-// as first shown, the server checked it), and the scenario's inputs are bounded where typed.
-// The checked public surface would bring the schema library with it to every page view.
-import { buildReport, DEFAULT_SCENARIO } from '@/engine/report';
+import {
+	DEFAULT_SCENARIO,
+	buildReport,
+	type BuildDocument,
+	type PartGroup,
+	type Scenario,
+	type UpgradeHint,
+} from '@/engine/browser';
+// The engine's browser entry, unchecked: the draft is computed only once its field check passed
+// (or, as first shown, the server checked it), and the scenario's inputs are bounded where typed.
+// The checked index would bring the schema library with it to every page view.
 import { GROUP_NAMES, partOfPath, type UnitSystem } from '@/lib/format';
 import { FormMessage } from '@/components/ui/Field';
 import { AmplifiersSection } from './analysis/AmplifiersSection';

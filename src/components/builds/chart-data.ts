@@ -1,4 +1,4 @@
-import type { BudgetRow, BurpRun, SessionRun, SpeedPoint } from '@/engine';
+import type { BudgetRow, BurpRun, SessionRun, SpeedPoint } from '@/engine/browser';
 
 /** Token colours (the @theme palette), for Chart.js which cannot read CSS variables. */
 export const CHART_COLOURS = {

@@ -1,7 +1,17 @@
-import type { Alternator, Amplifier, BatteryBank, BuildNode, Cable, SteadyLoad } from '@/engine';
-import { CHEMISTRY_PROPS } from '@/engine/battery';
-import { MATERIAL_PROPS } from '@/engine/conductors';
-import { AWG_SIZES, CHEMISTRIES, MATERIALS, NODE_KINDS } from '@/engine/types';
+import {
+	CHEMISTRY_PROPS,
+	MATERIAL_PROPS,
+	AWG_SIZES,
+	CHEMISTRIES,
+	MATERIALS,
+	NODE_KINDS,
+	type Alternator,
+	type Amplifier,
+	type BatteryBank,
+	type BuildNode,
+	type Cable,
+	type SteadyLoad,
+} from '@/engine/browser';
 import {
 	fromLengthDisplay,
 	fromShortDisplay,

@@ -1,4 +1,4 @@
-import { alternatorWithDefaults, amplifierWithDefaults, bankWithDefaults } from '@/engine/defaults';
+import { alternatorWithDefaults, amplifierWithDefaults, bankWithDefaults } from '@/engine/browser';
 import type {
 	Alternator,
 	Amplifier,
@@ -7,7 +7,7 @@ import type {
 	BuildNode,
 	Cable,
 	SteadyLoad,
-} from '@/engine';
+} from '@/engine/browser';
 
 /** An id not yet used in the document: `${prefix}-1`, `${prefix}-2`, … */
 export function freshId(doc: BuildDocument, prefix: string): string {

@@ -1,5 +1,5 @@
 import { startTransition, useEffect, useState } from 'react';
-import type { BurpRun, BuildDocument, Scenario, SpeedPoint, UpgradeHint } from '@/engine';
+import type { BurpRun, BuildDocument, Scenario, SpeedPoint, UpgradeHint } from '@/engine/browser';
 import { burpInWorker, hintsInWorker, sweepInWorker } from '@/lib/client/engine-worker';
 
 /** How long typing must pause before the heavy analysis starts again (ms). */

@@ -1,7 +1,6 @@
 import { QueryClientProvider } from '@tanstack/react-query';
 import { useEffect, useMemo, useState } from 'react';
-import { diffBuilds } from '@/engine';
-import type { BuildDocument } from '@/engine';
+import { diffBuilds, type BuildDocument } from '@/engine/browser';
 import { ApiError } from '@/lib/client/api-client';
 import { getQueryClient } from '@/lib/client/query-client';
 import { planDrafts } from '@/lib/client/draft-store';

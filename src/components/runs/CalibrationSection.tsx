@@ -3,7 +3,12 @@ import { useMemo, useState } from 'react';
 import { Scatter } from 'react-chartjs-2';
 import { CHART_COLOURS } from '@/components/builds/chart-data';
 import { Button, FormMessage } from '@/components/ui/Field';
-import type { BuildDocument, CalibrationParameter, CalibrationResult, Sample } from '@/engine';
+import type {
+	BuildDocument,
+	CalibrationParameter,
+	CalibrationResult,
+	Sample,
+} from '@/engine/browser';
 import { ApiError } from '@/lib/client/api-client';
 import { calibrateInWorker } from '@/lib/client/engine-worker';
 import { useCreatePlan } from '@/lib/client/queries/plans';

@@ -1,7 +1,7 @@
 import { useQuery, useQueryClient } from '@tanstack/react-query';
 import { useEffect, useState } from 'react';
 import { format } from 'date-fns';
-import { formatShortDistance } from '@/engine';
+import { formatShortDistance } from '@/engine/browser';
 import { ApiError } from '@/lib/client/api-client';
 import {
 	currentUserId,

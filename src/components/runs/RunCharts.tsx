@@ -1,7 +1,7 @@
 import { voltsAndAmpsOptions, xyOptions } from '@/components/ui/chart-setup';
 import { useMemo } from 'react';
 import { Scatter } from 'react-chartjs-2';
-import type { Sample } from '@/engine';
+import type { Sample } from '@/engine/browser';
 import type { RunDto } from '@/lib/schemas/runs';
 import { toSamplesChartData, toScoresOverTime, toScoreVsVoltage } from './run-chart-data';
 

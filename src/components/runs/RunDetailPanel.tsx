@@ -1,7 +1,7 @@
 import { useQuery } from '@tanstack/react-query';
 import { useMemo } from 'react';
 import { Button, FormMessage } from '@/components/ui/Field';
-import { buildReport } from '@/engine';
+import { buildReport } from '@/engine/browser';
 import { ApiError } from '@/lib/client/api-client';
 import {
 	runDetailQueryOptions,

@@ -1,5 +1,4 @@
-import type { Sample } from '@/engine';
-import { voltageRatioDb } from '@/engine';
+import { voltageRatioDb, type Sample } from '@/engine/browser';
 import type { RunDto } from '@/lib/schemas/runs';
 import { runVoltage } from '@/lib/run-figures';
 import { CHART_COLOURS } from '@/components/builds/chart-data';

@@ -1,4 +1,4 @@
-import { voltageRatioDb, type Sample } from '@/engine';
+import { voltageRatioDb, type Sample } from '@/engine/browser';
 import { CHART_COLOURS } from '@/components/builds/chart-data';
 import { alignTrace } from '@/lib/trace-align';
 import type { RunDto } from '@/lib/schemas/runs';

@@ -1,8 +1,6 @@
-import type { BuildDocument } from '@/engine';
-import { checkTopology } from '@/engine/topology';
-import { buildDocumentSchema } from '@/lib/schemas/build-document';
+import { checkTopology, buildDocumentSchema, type BuildDocument } from '@/engine';
 
-export { parseBuildDocument } from '@/lib/schemas/build-document';
+export { parseBuildDocument } from '@/engine';
 
 /** Field errors of a draft by dotted path: the schema first, then the network's topology. */
 export function validateDraft(doc: BuildDocument): Record<string, string> {

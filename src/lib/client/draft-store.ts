@@ -1,4 +1,4 @@
-import type { BuildDocument } from '@/engine';
+import type { BuildDocument } from '@/engine/browser';
 import { pageUserId } from '@/lib/client/current-user';
 
 /**

@@ -1,5 +1,5 @@
 import { type Remote, wrap } from 'comlink';
-import type { BuildDocument } from '@/engine';
+import type { BuildDocument } from '@/engine/browser';
 import type { EngineWorkerApi } from './engine.worker';
 
 let remote: Remote<EngineWorkerApi> | null | undefined;

@@ -1,7 +1,6 @@
 import { z } from '@/lib/zod';
 import { lineText, notesText } from './text';
-import type { BuildDocument } from '@/engine';
-import { buildDocumentSchema } from './build-document';
+import { buildDocumentSchema, type BuildDocument } from '@/engine';
 
 export const planNameSchema = lineText(120, {
 	required: 'Give the plan a name',

@@ -1,5 +1,5 @@
 import { z } from '@/lib/zod';
-import { buildDocumentSchema } from './build-document';
+import { buildDocumentSchema } from '@/engine';
 import { measurementNumbersShape } from './run-measurements';
 
 /**

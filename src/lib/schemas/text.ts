@@ -6,7 +6,7 @@ import {
 	hasNotesControl,
 	LINE_MESSAGE,
 	NOTES_MESSAGE,
-} from './text-rules';
+} from '@/engine/browser';
 
 export { hasLineControl, hasNotesControl, LINE_MESSAGE, NOTES_MESSAGE };
 

@@ -1,7 +1,6 @@
 import { z } from '@/lib/zod';
 import { lineText, notesText } from './text';
-import type { BuildDocument } from '@/engine';
-import { buildDocumentSchema } from './build-document';
+import { buildDocumentSchema, type BuildDocument } from '@/engine';
 
 export const vehicleFieldsSchema = z.object({
 	name: lineText(80, { required: 'Give the vehicle a name' }),

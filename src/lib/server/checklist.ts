@@ -1,4 +1,9 @@
-import type { BuildDocument, UnitSystem } from '@/engine';
+import {
+	type ComputedCheck,
+	waiverStillHolds,
+	type BuildDocument,
+	type UnitSystem,
+} from '@/engine';
 import type { Checklist } from '@/lib/schemas/checklist';
 import {
 	findRevision,
@@ -15,7 +20,6 @@ import {
 import { findEvent } from '@/lib/server/db/events';
 import { findTeamSettingsRow } from '@/lib/server/db/teams';
 import { cachedRevisionFigures, revisionFigures } from '@/lib/server/engine/summaries';
-import { type ComputedCheck, waiverStillHolds } from '@/engine';
 import type { CheckItemDto } from '@/lib/schemas/teams';
 
 /**

@@ -1,4 +1,4 @@
-import type { AmplifierReport, BurpRun } from '@/engine';
+import type { AmplifierReport, BurpRun } from '@/engine/browser';
 import { fmt } from '@/lib/format';
 import { type ResultColumn, ResultTable, Unit } from './ResultTable';
 

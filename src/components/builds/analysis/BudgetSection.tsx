@@ -1,4 +1,4 @@
-import type { BudgetRow } from '@/engine';
+import type { BudgetRow } from '@/engine/browser';
 import { fmt } from '@/lib/format';
 import { BudgetChart } from '../LazyCharts';
 import { type ResultColumn, ResultTable, Unit } from './ResultTable';

@@ -1,4 +1,4 @@
-import type { BurpRun, BuildDocument } from '@/engine';
+import type { BurpRun, BuildDocument } from '@/engine/browser';
 import { fmt } from '@/lib/format';
 import { BurpChart } from '../LazyCharts';
 

@@ -1,5 +1,10 @@
-import type { BuildDocument, Cable, CableReport, ReportWarning } from '@/engine';
-import { MATERIAL_PROPS } from '@/engine/conductors';
+import {
+	MATERIAL_PROPS,
+	type BuildDocument,
+	type Cable,
+	type CableReport,
+	type ReportWarning,
+} from '@/engine/browser';
 import { fmt, lengthUnit, toLengthDisplay, type UnitSystem } from '@/lib/format';
 import { WarningList } from './Findings';
 import { type ResultColumn, ResultTable, Unit } from './ResultTable';

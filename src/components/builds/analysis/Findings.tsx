@@ -1,5 +1,4 @@
-import type { ReportWarning } from '@/engine';
-import { findingCounts, orderedFindings } from '@/engine/findings';
+import { findingCounts, orderedFindings, type ReportWarning } from '@/engine/browser';
 
 export const SAFETY_LINE =
 	'These figures are estimates. Local codes, event rules and licensed practice govern high-current work.';

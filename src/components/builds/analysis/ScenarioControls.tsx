@@ -1,5 +1,5 @@
 import { useDetailsOpen } from '@/lib/client/use-details-open';
-import type { Scenario } from '@/engine';
+import type { Scenario } from '@/engine/browser';
 
 /** Where this browser remembers whether the member keeps the conditions open. */
 const OPEN_KEY = 'sagwise.conditions.open';

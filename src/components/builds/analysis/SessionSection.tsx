@@ -1,6 +1,12 @@
 import { useEffect, useMemo, useState } from 'react';
-import type { BuildDocument, PlayTime, Scenario, SessionRun } from '@/engine';
-import { DEFAULT_SESSION, RECOVERY_TOLERANCE_V } from '@/engine/session';
+import {
+	DEFAULT_SESSION,
+	RECOVERY_TOLERANCE_V,
+	type BuildDocument,
+	type PlayTime,
+	type Scenario,
+	type SessionRun,
+} from '@/engine/browser';
 import { playTimeInWorker, sessionInWorker } from '@/lib/client/engine-worker';
 import { fmt } from '@/lib/format';
 import { SessionChart } from '../LazyCharts';

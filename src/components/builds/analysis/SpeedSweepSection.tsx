@@ -1,4 +1,4 @@
-import type { SpeedPoint } from '@/engine';
+import type { SpeedPoint } from '@/engine/browser';
 import { fmt } from '@/lib/format';
 import { SweepChart } from '../LazyCharts';
 

@@ -1,6 +1,10 @@
-import type { BuildReport, HeadlineFigures, ReportWarning } from '@/engine';
-import { headlineFigures as headline } from '@/engine/headline';
-import { addedFindings } from '@/engine/findings';
+import {
+	headlineFigures as headline,
+	addedFindings,
+	type BuildReport,
+	type HeadlineFigures,
+	type ReportWarning,
+} from '@/engine/browser';
 import { fmt } from '@/lib/format';
 
 type Ok = Extract<BuildReport, { ok: true }>;

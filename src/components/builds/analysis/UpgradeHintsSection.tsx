@@ -1,5 +1,5 @@
 import { useState } from 'react';
-import type { UpgradeHint } from '@/engine';
+import type { UpgradeHint } from '@/engine/browser';
 import { fmt } from '@/lib/format';
 import { Button } from '@/components/ui/Field';
 import { Unit } from './ResultTable';

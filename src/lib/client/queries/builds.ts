@@ -1,6 +1,6 @@
 import { queryOptions, useMutation, useQueryClient } from '@tanstack/react-query';
 import type { z } from '@/lib/zod';
-import type { BuildDocument } from '@/engine';
+import type { BuildDocument } from '@/engine/browser';
 import type {
 	newVehicleSchema,
 	RevisionDto,

@@ -1,5 +1,5 @@
 import { queryOptions, useMutation, useQueryClient } from '@tanstack/react-query';
-import type { BuildDocument, ComparisonColumn } from '@/engine';
+import type { BuildDocument, ComparisonColumn } from '@/engine/browser';
 import type { PlanDto, PlanSummary, UpdatePlanInput } from '@/lib/schemas/plans';
 import type { RevisionDto } from '@/lib/schemas/vehicles';
 import { api, getJson } from '@/lib/client/api-client';

@@ -1,5 +1,5 @@
 import { queryOptions, useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
-import type { RunAnalysis, Sample } from '@/engine';
+import type { RunAnalysis, Sample } from '@/engine/browser';
 import type { EventDto } from '@/lib/schemas/events';
 import type { z } from '@/lib/zod';
 import type { newRunSchema, RunDto, RunPhoto, updateRunSchema } from '@/lib/schemas/runs';

@@ -15,7 +15,7 @@ import {
 	type Scenario,
 	type UnitSystem,
 } from '@/engine';
-import { DEFAULT_SCENARIO } from '@/engine/report';
+import { DEFAULT_SCENARIO } from '@/engine';
 import { validateDraft } from '@/lib/client/draft-check';
 
 export interface RevisionSummaryFigures {

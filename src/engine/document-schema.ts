@@ -4,9 +4,10 @@
 import * as z from 'zod/mini';
 import en from 'zod/v4/locales/en.js';
 import { hasLineControl, LINE_MESSAGE } from './text-rules';
-// From the engine's modules, not its index (the engine's input guard uses this schema), and
-// relative: the engine worker's bundler does not read the @/ alias.
-import { checkTopology } from '../../engine/topology';
+// The engine's input contract: its guard checks every document by it, and the server's routes and
+// the build page's editor take it from here (through the index). Relative imports: the engine
+// worker's bundler does not read the @/ alias.
+import { checkTopology } from './topology';
 import {
 	AWG_SIZES,
 	type BuildDocument,
@@ -14,7 +15,7 @@ import {
 	MATERIALS,
 	NODE_KINDS,
 	TERMINAL_PART_GROUPS,
-} from '../../engine/types';
+} from './types';
 
 // The small build carries no messages of its own; these are the full build's English ones.
 z.config(en());
