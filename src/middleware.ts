@@ -1,4 +1,5 @@
 import { getSession } from 'auth-astro/server';
+import { cachedSessionUser } from '@/lib/server/session-cache';
 import { defineMiddleware, sequence } from 'astro:middleware';
 import { toAppUser } from '@/lib/server/auth';
 import { db } from '@/lib/server/db/index';
@@ -177,7 +178,9 @@ const SKIP_SESSION = [
 
 const attachUser = defineMiddleware(async (context, next) => {
 	if (!SKIP_SESSION.some((re) => re.test(normalPath(context.url.pathname)))) {
-		context.locals.user = toAppUser(await getSession(context.request));
+		context.locals.user = await cachedSessionUser(context.request.headers.get('cookie'), async () =>
+			toAppUser(await getSession(context.request)),
+		);
 	}
 	// Ids only, for the logs of the rest of this request (access is checked by each route).
 	noteRequestActor({

@@ -1,7 +1,5 @@
 import type { APIRoute } from 'astro';
-
-/** Auth.js's session cookie, under either name, and the chunks it splits a large one into. */
-const SESSION_COOKIE = /^(__Secure-)?authjs\.session-token(\.\d+)?$/;
+import { SESSION_COOKIE } from '@/lib/server/session-cache';
 
 /**
  * Signs out with a plain form (no script): the session cookie is removed and the browser goes home.

@@ -5,6 +5,7 @@ import { ApiError } from '@/lib/client/api-client';
 import { buildDrafts } from '@/lib/client/draft-store';
 import { useSetUnits } from '@/lib/client/queries/account';
 import { getQueryClient } from '@/lib/client/query-client';
+import { unpackJson } from '@/lib/packed-json';
 import {
 	fetchHeadRevision,
 	type RevisionDto,
@@ -43,10 +44,20 @@ export interface BuildWorkspaceProps {
 
 const NO_ERRORS: Record<string, string> = {};
 
-export function BuildWorkspace(props: BuildWorkspaceProps) {
+/** What the page hands over packed (see packJson): the saved head and the revisions list. */
+export interface SavedBuild {
+	head: RevisionDto | null;
+	revisions: RevisionSummary[];
+}
+
+export function BuildWorkspace({
+	savedPacked,
+	...props
+}: Omit<BuildWorkspaceProps, keyof SavedBuild> & { savedPacked: string }) {
+	const saved = useMemo(() => unpackJson<SavedBuild>(savedPacked), [savedPacked]);
 	return (
 		<QueryClientProvider client={getQueryClient()}>
-			<BuildWorkspaceView {...props} />
+			<BuildWorkspaceView {...props} {...saved} />
 		</QueryClientProvider>
 	);
 }

@@ -77,13 +77,17 @@ export async function findRevision(
 	);
 }
 
+/** The build's head revision with its document, in one query (none before the first save). */
 export async function findHeadRevision(db: Db, buildId: string): Promise<RevisionDto | undefined> {
-	const build = await db
-		.selectFrom('build')
-		.select('head_revision_id')
-		.where('id', '=', buildId)
+	const r = await baseRevisionQuery(db)
+		.innerJoin('build as hb', 'hb.head_revision_id', 'r.id')
+		.select([...summaryColumns, 'r.document'])
+		.where('hb.id', '=', buildId)
+		.where('r.build_id', '=', buildId)
 		.executeTakeFirst();
-	return build?.head_revision_id ? findRevision(db, buildId, build.head_revision_id) : undefined;
+	return (
+		r && { ...toSummary(r), schemaVersion: r.schema_version, document: r.document as BuildDocument }
+	);
 }
 
 export type SaveResult =

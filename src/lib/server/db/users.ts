@@ -1,6 +1,7 @@
 import { randomUUID } from 'node:crypto';
 import { type Kysely, sql } from 'kysely';
 import type { Database, RateEventTable, UserRow } from '@/lib/server/db/schema';
+import { forgetSessionsOf } from '@/lib/server/session-cache';
 
 type Db = Kysely<Database>;
 
@@ -125,7 +126,9 @@ export async function dropUnconfirmedPassword(db: Db, userId: string): Promise<b
 		.where('emailVerified', 'is', null)
 		.where('passwordHash', 'is not', null)
 		.executeTakeFirst();
-	return Number(res.numUpdatedRows) > 0;
+	const ended = Number(res.numUpdatedRows) > 0;
+	if (ended) forgetSessionsOf(userId);
+	return ended;
 }
 
 /**
@@ -146,6 +149,7 @@ export async function completePasswordReset(
 		}))
 		.where('id', '=', userId)
 		.execute();
+	forgetSessionsOf(userId);
 	await db
 		.updateTable('password_reset')
 		.set({ used_at: new Date() })
