@@ -18,6 +18,11 @@ export function packJson(value: unknown): string {
 	return packed;
 }
 
+/** JSON text as it is (from the database), packed the same way without parsing it first. */
+export function packJsonText(text: string): string {
+	return Buffer.from(text, 'utf8').toString('base64');
+}
+
 export function unpackJson<T>(packed: string): T {
 	if (typeof window === 'undefined') {
 		const known = packedOnServer.get(packed);

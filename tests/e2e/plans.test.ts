@@ -2,6 +2,7 @@ import { afterAll, describe, expect, inject, it } from 'vitest';
 import { DEMO_PASSWORD, DEMO_TEAM_NAME, DEMO_USERS } from '../../db/seed';
 import { DEMO_PLANS } from '../../db/demo/plans';
 import { type Browser, openBrowser, signInToTeam } from '../helpers/browser';
+import { heavyValidNetwork } from '../bench/fixtures';
 
 const appUrl = inject('appUrl');
 
@@ -129,4 +130,45 @@ describe('upgrade plans in chromium', () => {
 		await b.page.getByText(/Nothing yet: the plan is the same as revision 3/).waitFor();
 		expect(b.problems).toEqual([]);
 	});
+
+	it('a member opens a plan too large to come with the page: it loads once live, and the API gives it whole', async () => {
+		const b = await openBrowser();
+		opened.push(b);
+		await signIn(b, DEMO_USERS[1].email);
+		await b.page.getByRole('link', { name: 'Pebble', exact: true }).click();
+		const vehicleUrl = b.page.url();
+		const [, teamId, vehicleId] = /teams\/([^/]+)\/vehicles\/([^/?#]+)/.exec(vehicleUrl)!;
+		const made = await b.page.request.fetch(
+			`${appUrl}/api/teams/${teamId}/vehicles/${vehicleId}/plans`,
+			{
+				method: 'POST',
+				headers: { Origin: appUrl, 'content-type': 'application/json' },
+				data: JSON.stringify({ name: 'Every trunk run doubled', document: heavyValidNetwork(400) }),
+			},
+		);
+		expect(made.status()).toBe(201);
+		const plan = (await made.json()) as { id: string };
+		const url = `${appUrl}/teams/${teamId}/vehicles/${vehicleId}/plans/${plan.id}`;
+		// The page itself carries no document: it is small whatever the plan's size.
+		const served = await (await b.page.request.get(url)).text();
+		expect(served.length).toBeLessThan(120_000);
+		expect(served).toContain('Loading the plan’s');
+		await b.page.goto(url);
+		await b.page.waitForSelector('astro-island[component-export="PlanWorkspace"]:not([ssr])', {
+			state: 'attached',
+		});
+		await b.page.locator('[data-summary] [data-figure]').first().waitFor();
+		await expect(b.page.getByRole('heading', { level: 1 }).textContent()).resolves.toBe(
+			'Plan: Every trunk run doubled',
+		);
+		// The API's plan is the plan as made, document and all.
+		const api = (await (
+			await b.page.request.get(
+				`${appUrl}/api/teams/${teamId}/vehicles/${vehicleId}/plans/${plan.id}`,
+			)
+		).json()) as { name: string; document: unknown; version: number };
+		expect(api.name).toBe('Every trunk run doubled');
+		expect(api.document).toEqual(heavyValidNetwork(400));
+		expect(b.problems).toEqual([]);
+	}, 120_000);
 });

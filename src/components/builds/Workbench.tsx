@@ -72,7 +72,7 @@ const onServer = typeof window === 'undefined';
  * diagram, the long tables and the part editor to the live page: laying out a thousand cables as
  * HTML on the server would hold every other request behind it.
  */
-const FIRST_RENDER_PARTS = 150;
+export const FIRST_RENDER_PARTS = 150;
 /** Parts past which the network is listed rather than drawn. */
 const DIAGRAM_PARTS = 150;
 /** Parts of a group listed as buttons before "and N more". */

@@ -10,7 +10,7 @@ import {
 	revisionInForce,
 } from '@/lib/server/db/builds';
 import { findEvent } from '@/lib/server/db/events';
-import { findPlan } from '@/lib/server/db/plans';
+import { findPlan, findPlanForPage } from '@/lib/server/db/plans';
 import { findRun } from '@/lib/server/db/runs';
 import { findMembership } from '@/lib/server/db/teams';
 import { findVehicle } from '@/lib/server/db/vehicles';
@@ -253,13 +253,25 @@ export async function vehiclePageAccess(
 	return result.ok ? result.value : refusalPage(astro, result);
 }
 
-/** requirePlan for a page. */
+type PlanForPage = NonNullable<Awaited<ReturnType<typeof findPlanForPage>>>;
+
+/**
+ * requirePlan for the plan's page: the plan without its document, which comes as JSON text when
+ * it has at most `inlineParts` parts (the island fetches a larger one once live).
+ */
 export async function planPageAccess(
 	astro: AstroGlobal,
+	inlineParts: number,
 	min: Role = 'viewer',
-): Promise<(VehicleAccess & { plan: PlanRow }) | Response> {
-	const result = await requirePlan(astro.locals, astro.params, min);
-	return result.ok ? result.value : refusalPage(astro, result);
+): Promise<(VehicleAccess & PlanForPage) | Response> {
+	const found = await requireVehicle(astro.locals, astro.params, min);
+	if (!found.ok) return refusalPage(astro, found);
+	const id = parseUuid(astro.params.planId);
+	const plan = id
+		? await findPlanForPage(astro.locals.db, found.value.vehicle.id, id, inlineParts)
+		: undefined;
+	if (!plan) return refusalPage(astro, notFound('plan'));
+	return { ...found.value, ...plan };
 }
 
 /** requireEvent for a page. */

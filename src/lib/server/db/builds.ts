@@ -90,6 +90,34 @@ export async function findHeadRevision(db: Db, buildId: string): Promise<Revisio
 	);
 }
 
+/** The head revision's id and number (none before the first save), without its document. */
+export async function findHeadNumber(
+	db: Db,
+	buildId: string,
+): Promise<{ id: string; number: number } | undefined> {
+	return db
+		.selectFrom('build as b')
+		.innerJoin('revision as r', 'r.id', 'b.head_revision_id')
+		.select(['r.id', 'r.number'])
+		.where('b.id', '=', buildId)
+		.executeTakeFirst();
+}
+
+/** A revision's document as JSON text, as stored (not parsed here), when the build holds it. */
+export async function findRevisionDocumentText(
+	db: Db,
+	buildId: string,
+	revisionId: string,
+): Promise<string | undefined> {
+	const row = await db
+		.selectFrom('revision')
+		.select(sql<string>`document::text`.as('text'))
+		.where('build_id', '=', buildId)
+		.where('id', '=', revisionId)
+		.executeTakeFirst();
+	return row?.text;
+}
+
 export type SaveResult =
 	{ ok: true; revision: RevisionRow } | { ok: false; reason: 'stale'; headId: string | null };
 

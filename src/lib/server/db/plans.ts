@@ -1,6 +1,6 @@
 import { type Kysely, sql } from 'kysely';
 import type { Database } from '@/lib/server/db/schema';
-import type { BuildDocument } from '@/engine';
+import { TERMINAL_PART_GROUPS, type BuildDocument } from '@/engine';
 import type {
 	PlanDto,
 	PlanPart,
@@ -109,6 +109,57 @@ export async function findPlan(
 			unitPrice: fromMinor(p.unit_price_minor),
 			link: p.link,
 		})),
+	};
+}
+
+/** What the plan page needs: the plan without its document, the document's part count and, when
+ * it has at most `inlineParts` parts, the document as JSON text (never parsed here: the page packs
+ * it as it comes). A larger one the page's island fetches once live. */
+export async function findPlanForPage(
+	db: Db,
+	vehicleId: string,
+	planId: string,
+	inlineParts: number,
+): Promise<
+	| { plan: Omit<PlanDto, 'document'>; documentParts: number; documentText: string | null }
+	| undefined
+> {
+	const parts = sql<number>`(${sql.join(
+		[...TERMINAL_PART_GROUPS, 'cables'].map(
+			(g) => sql`coalesce(jsonb_array_length(p.document -> ${g}), 0)`,
+		),
+		sql` + `,
+	)})`;
+	const row = await planQuery(db)
+		.select([
+			parts.as('document_parts'),
+			sql<string | null>`case when ${parts} <= ${inlineParts} then p.document::text end`.as(
+				'document_text',
+			),
+		])
+		.where('p.vehicle_id', '=', vehicleId)
+		.where('p.id', '=', planId)
+		.executeTakeFirst();
+	if (!row) return undefined;
+	const partRows = await db
+		.selectFrom('plan_part')
+		.selectAll()
+		.where('plan_id', '=', planId)
+		.orderBy('position')
+		.execute();
+	return {
+		plan: {
+			...toSummary(row),
+			version: row.version,
+			parts: partRows.map((p) => ({
+				item: p.item,
+				quantity: p.quantity,
+				unitPrice: fromMinor(p.unit_price_minor),
+				link: p.link,
+			})),
+		},
+		documentParts: Number(row.document_parts),
+		documentText: row.document_text,
 	};
 }
 
