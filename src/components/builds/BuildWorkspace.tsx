@@ -157,7 +157,11 @@ export function BuildWorkspaceView({
 				: message.trim() === ''
 					? 'Add a message saying what changed to save.'
 					: null;
-	const changes = useMemo(() => (head ? diffBuilds(head.document, draft) : []), [head, draft]);
+	// The draft as first served is the head itself: nothing to compare (and nothing to walk).
+	const changes = useMemo(
+		() => (head && draft !== head.document ? diffBuilds(head.document, draft) : []),
+		[head, draft],
+	);
 
 	async function save(parentId: string | null) {
 		setSaveState({ busy: true, error: null, ok: null, conflict: null });

@@ -62,6 +62,40 @@ export async function listRevisions(db: Db, buildId: string): Promise<RevisionSu
 	return rows.map(toSummary);
 }
 
+/**
+ * The same two reads by the vehicle's id, for a page that starts them beside its access check (its
+ * answer is used only once the check has passed, and the check ties the vehicle to the team).
+ */
+export async function findHeadRevisionOfVehicle(
+	db: Db,
+	vehicleId: string,
+): Promise<RevisionDto | undefined> {
+	const r = await baseRevisionQuery(db)
+		.innerJoin('build as hb', 'hb.head_revision_id', 'r.id')
+		.select([...summaryColumns, 'r.document'])
+		.where('hb.vehicle_id', '=', vehicleId)
+		.executeTakeFirst();
+	return (
+		r && { ...toSummary(r), schemaVersion: r.schema_version, document: r.document as BuildDocument }
+	);
+}
+
+export async function listRevisionsOfVehicle(
+	db: Db,
+	vehicleId: string,
+): Promise<RevisionSummary[]> {
+	const rows = await baseRevisionQuery(db)
+		.select(summaryColumns)
+		.where(
+			'r.build_id',
+			'=',
+			db.selectFrom('build').select('id').where('vehicle_id', '=', vehicleId),
+		)
+		.orderBy('r.number', 'desc')
+		.execute();
+	return rows.map(toSummary);
+}
+
 export async function findRevision(
 	db: Db,
 	buildId: string,
