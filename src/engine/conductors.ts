@@ -102,16 +102,24 @@ export function resistancePerMetre(size: CableSize, material: Material, tempC = 
 
 /**
  * Resistance of a whole cable (Ω): ρ(T)·k_lay·L / (A·runs), runs in parallel, plus the resistance
- * of its terminations when one is stated.
+ * of its terminations when one is stated, plus each fuse holder's or breaker's contacts, in series
+ * with the whole cable (resistances in series add).
  */
 export function cableResistanceOhm(
-	cable: Pick<Cable, 'size' | 'material' | 'lengthM' | 'parallelRuns' | 'connectionResistanceOhm'>,
+	cable: Pick<Cable, 'size' | 'material' | 'lengthM' | 'parallelRuns' | 'connectionResistanceOhm'> &
+		Partial<Pick<Cable, 'fuses'>>,
 	tempC = 20,
 ): number {
 	return (
 		(resistancePerMetre(cable.size, cable.material, tempC) * cable.lengthM) / cable.parallelRuns +
-		(cable.connectionResistanceOhm ?? 0)
+		(cable.connectionResistanceOhm ?? 0) +
+		protectionResistanceOhm(cable)
 	);
+}
+
+/** The contacts of a cable's fuse holders and breakers together (Ω). */
+export function protectionResistanceOhm(cable: Partial<Pick<Cable, 'fuses'>>): number {
+	return (cable.fuses ?? []).reduce((sum, f) => sum + (f.contactResistanceOhm ?? 0), 0);
 }
 
 /**

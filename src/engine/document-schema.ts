@@ -14,6 +14,7 @@ import {
 	CHEMISTRIES,
 	MATERIALS,
 	NODE_KINDS,
+	PROTECTION_DEVICES,
 	TERMINAL_PART_GROUPS,
 } from './types';
 
@@ -79,6 +80,16 @@ export const fuseSchema = z.object({
 	ratingA: positive('Fuse rating', 2000, 'Fuse rating above 2000 A is not plausible'),
 	end: z.enum(['from', 'to'], { error: 'Fuse end is "from" or "to"' }),
 	distanceM: nonNegative('Fuse distance', 10, 'Fuse distance above 10 m is not plausible'),
+	device: z.optional(
+		z.enum(PROTECTION_DEVICES, { error: 'Protection is a "fuse" or a "breaker"' }),
+	),
+	contactResistanceOhm: z.optional(
+		nonNegative(
+			'Holder resistance',
+			0.01,
+			'Holder resistance above 10 mΩ is a failing contact, not a holder',
+		),
+	),
 });
 
 export const cableSchema = z.object({

@@ -3,7 +3,15 @@ import { CHEMISTRY_PROPS } from './battery';
 import { describeFeed } from './feed';
 import { MAX_FUSE_FACTOR } from './fuses';
 import type { NetworkSolution } from './solve';
-import type { Alternator, Amplifier, BatteryBank, BuildDocument, Cable, Scenario } from './types';
+import type {
+	Alternator,
+	Amplifier,
+	BatteryBank,
+	BuildDocument,
+	Cable,
+	Fuse,
+	Scenario,
+} from './types';
 import { formatShortDistance, type UnitSystem } from './units';
 import type {
 	AlternatorReport,
@@ -62,6 +70,8 @@ export type AnyFindingRule = { [K in RuleSubject]: FindingRule<K> }[RuleSubject]
 const rule = <K extends RuleSubject>(r: FindingRule<K>): FindingRule<K> => r;
 const when = (cond: boolean, message: () => string): string[] => (cond ? [message()] : []);
 const abs = Math.abs;
+/** What the protection is called in a message: breakers are sized and checked like fuses. */
+const device = (f: Fuse) => f.device ?? 'fuse';
 
 /** The ends of a cable that sit on a bank's positive terminal. */
 export const batteryEnds = (cable: Cable, ctx: FindingContext) =>
@@ -141,7 +151,7 @@ export const FINDING_RULES = [
 				.filter((end) => !part.fuses.some((f) => f.end === end))
 				.map(
 					(end) =>
-						`"${part.label}" leaves the battery positive at "${ctx.nodeLabel(part[end])}" with no fuse at that end.`,
+						`"${part.label}" leaves the battery positive at "${ctx.nodeLabel(part[end])}" with no fuse or breaker at that end.`,
 				),
 	}),
 	rule({
@@ -156,7 +166,7 @@ export const FINDING_RULES = [
 				return when(
 					fuse !== undefined && fuse.distanceM > ctx.scenario.fuseDistanceM,
 					() =>
-						`The fuse on "${part.label}" sits ${formatShortDistance(fuse!.distanceM, ctx.units)} from the battery at "${ctx.nodeLabel(part[end])}"; keep it within ${formatShortDistance(ctx.scenario.fuseDistanceM, ctx.units)}.`,
+						`The ${device(fuse!)} on "${part.label}" sits ${formatShortDistance(fuse!.distanceM, ctx.units)} from the battery at "${ctx.nodeLabel(part[end])}"; keep it within ${formatShortDistance(ctx.scenario.fuseDistanceM, ctx.units)}.`,
 				);
 			}),
 	}),
@@ -171,7 +181,7 @@ export const FINDING_RULES = [
 				.filter((fuse) => f.ampacity && fuse.ratingA > f.ampacity.currentA * MAX_FUSE_FACTOR)
 				.map(
 					(fuse) =>
-						`The ${fmt(fuse.ratingA, 0)} A fuse on "${part.label}" is above the ${fmt(f.ampacity!.currentA * MAX_FUSE_FACTOR, 0)} A the cable may be protected with: it would not blow before the cable overheats.`,
+						`The ${fmt(fuse.ratingA, 0)} A ${device(fuse)} on "${part.label}" is above the ${fmt(f.ampacity!.currentA * MAX_FUSE_FACTOR, 0)} A the cable may be protected with: it would not blow before the cable overheats.`,
 				),
 	}),
 	rule({
@@ -185,7 +195,7 @@ export const FINDING_RULES = [
 				.filter((fuse) => fuse.ratingA < f.designCurrentA)
 				.map(
 					(fuse) =>
-						`The ${fmt(fuse.ratingA, 0)} A fuse on "${part.label}" is below the ${fmt(f.designCurrentA, 0)} A it carries under burp.`,
+						`The ${fmt(fuse.ratingA, 0)} A ${device(fuse)} on "${part.label}" is below the ${fmt(f.designCurrentA, 0)} A it carries under burp.`,
 				),
 	}),
 	rule({

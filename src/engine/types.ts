@@ -35,12 +35,23 @@ export type CableSize =
 	/** A measured metal cross-section, for cable sold under a gauge it does not meet. */
 	| { kind: 'measured'; areaMm2: number };
 
+export const PROTECTION_DEVICES = ['fuse', 'breaker'] as const;
+export type ProtectionDevice = (typeof PROTECTION_DEVICES)[number];
+
+/** Inline protection on a cable: a fuse in its holder, or a resettable breaker, sized alike. */
 export interface Fuse {
 	ratingA: number;
 	/** Which end of the cable the fuse sits at. */
 	end: 'from' | 'to';
 	/** Distance from that end's terminal along the cable. */
 	distanceM: number;
+	/** A fuse (absent means a fuse) or a resettable breaker. */
+	device?: ProtectionDevice;
+	/**
+	 * Resistance of the holder or breaker with its contacts (Ω), in series with the cable: a few
+	 * tenths of a milliohm for a good one. Absent means none stated (counted as zero).
+	 */
+	contactResistanceOhm?: number;
 }
 
 export interface Cable {

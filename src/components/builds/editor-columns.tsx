@@ -5,6 +5,8 @@ import {
 	CHEMISTRIES,
 	MATERIALS,
 	NODE_KINDS,
+	PROTECTION_DEVICES,
+	type ProtectionDevice,
 	type Alternator,
 	type Amplifier,
 	type BatteryBank,
@@ -32,23 +34,69 @@ function fuseAt(c: Cable, end: 'from' | 'to') {
 function setFuse(
 	c: Cable,
 	end: 'from' | 'to',
-	patch: { ratingA?: number | null; distanceM?: number },
+	patch: {
+		ratingA?: number | null;
+		distanceM?: number;
+		device?: ProtectionDevice;
+		contactResistanceOhm?: number | null;
+	},
 ): Cable {
 	const current = fuseAt(c, end);
 	const others = c.fuses.filter((f) => f.end !== end);
 	if (patch.ratingA === null) return { ...c, fuses: others };
+	const { contactResistanceOhm, ...rest } = patch;
 	const next = {
+		...current,
 		ratingA: current?.ratingA ?? 100,
 		end,
 		distanceM: current?.distanceM ?? 0.2,
-		...patch,
+		...rest,
 	} as Cable['fuses'][number];
+	if (contactResistanceOhm === null) delete next.contactResistanceOhm;
+	else if (contactResistanceOhm !== undefined) next.contactResistanceOhm = contactResistanceOhm;
 	return {
 		...c,
 		fuses: [...others, next].sort(
 			(a, b) => (a.end === 'from' ? -1 : 1) - (b.end === 'from' ? -1 : 1),
 		),
 	};
+}
+
+/** The kind of protection at one end and its holder's contacts: editable once that end has one. */
+function protectionColumns(end: 'from' | 'to'): PartColumn<Cable>[] {
+	const at = end === 'from' ? 'start' : 'end';
+	const Id = end === 'from' ? 'From' : 'To';
+	return [
+		{
+			id: `device${Id}`,
+			header: `Kind at ${at}`,
+			errorPath: 'fuses',
+			cell: {
+				kind: 'select',
+				get: (c) => fuseAt(c, end)?.device ?? 'fuse',
+				set: (c, v) => (fuseAt(c, end) ? setFuse(c, end, { device: v as ProtectionDevice }) : c),
+				options: PROTECTION_DEVICES.map((d) => ({ value: d, label: d })),
+			},
+		},
+		{
+			id: `holder${Id}`,
+			header: `Holder at ${at}`,
+			unit: 'mΩ',
+			errorPath: 'fuses',
+			cell: {
+				kind: 'number',
+				digits: 2,
+				get: (c) => {
+					const r = fuseAt(c, end)?.contactResistanceOhm;
+					return r === undefined ? null : r * 1000;
+				},
+				set: (c, v) =>
+					fuseAt(c, end)
+						? setFuse(c, end, { contactResistanceOhm: v === null ? null : num(v) / 1000 })
+						: c,
+			},
+		},
+	];
 }
 
 export function nodeColumns(): PartColumn<BuildNode>[] {
@@ -205,6 +253,7 @@ export function cableColumns(nodes: Opt, units: UnitSystem): PartColumn<Cable>[]
 						: c,
 			},
 		},
+		...protectionColumns('from'),
 		{
 			id: 'fuseTo',
 			header: 'Fuse at end',
@@ -229,6 +278,7 @@ export function cableColumns(nodes: Opt, units: UnitSystem): PartColumn<Cable>[]
 					fuseAt(c, 'to') ? setFuse(c, 'to', { distanceM: fromShortDisplay(num(v), units) }) : c,
 			},
 		},
+		...protectionColumns('to'),
 		{
 			id: 'insulation',
 			header: 'Insulation',
