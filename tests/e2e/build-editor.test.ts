@@ -56,6 +56,22 @@ describe('editing a build in chromium', () => {
 		expect(b.problems).toEqual([]);
 	});
 
+	it('member makes the run’s fuse a breaker with a 5 mΩ holder: its drop rises by I·R before saving', async () => {
+		const b = await openBrowser();
+		opened.push(b);
+		await signInAndOpen(b, DEMO_USERS[1].email, 'Pebble');
+		const before = await dropOf(b, 'run');
+		await b.page.getByLabel('Front-to-rear run: Kind at start').selectOption('breaker');
+		const holder = b.page.getByLabel('Front-to-rear run: Holder at start');
+		await holder.fill('5');
+		// 5 mΩ in series with the run: its drop grows by I × 0.005 Ω (Ohm's law), well past the
+		// figure's rounding.
+		await expect.poll(() => dropOf(b, 'run')).toBeGreaterThan(before + 0.05);
+		await expect(holder.inputValue()).resolves.toBe('5');
+		await b.screenshot('build-editor-breaker-holder');
+		expect(b.problems).toEqual([]);
+	});
+
 	it('the burp and the ranked upgrades arrive from the engine worker: the server sends neither, typing waits for neither', async () => {
 		const b = await openBrowser();
 		opened.push(b);

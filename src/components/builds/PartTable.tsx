@@ -18,6 +18,8 @@ export type CellSpec<T> =
 			get: (row: T) => string;
 			set: (row: T, v: string) => T;
 			options: Array<{ value: string; label: string }>;
+			/** A row where the choice has nothing to apply to (shown dimmed, not editable). */
+			inapplicable?: (row: T) => boolean;
 	  }
 	| { kind: 'checkbox'; get: (row: T) => boolean; set: (row: T, v: boolean) => T };
 
@@ -143,10 +145,10 @@ export function PartCell<T extends { id: string; label: string }>({
 		input = (
 			<select
 				aria-label={label}
-				disabled={readOnly}
+				disabled={readOnly || (c.inapplicable?.(part) ?? false)}
 				value={c.get(part)}
 				onChange={(e) => onChange(i, c.set(part, e.target.value))}
-				className={`field-sizing-content min-w-32 rounded border bg-card px-1 py-1 ${error ? 'border-brick' : 'border-hairline'}`}
+				className={`field-sizing-content min-w-32 rounded border bg-card px-1 py-1 disabled:opacity-40 ${error ? 'border-brick' : 'border-hairline'}`}
 			>
 				{c.options.map((o) => (
 					<option key={o.value} value={o.value}>

@@ -76,6 +76,7 @@ function protectionColumns(end: 'from' | 'to'): PartColumn<Cable>[] {
 				get: (c) => fuseAt(c, end)?.device ?? 'fuse',
 				set: (c, v) => (fuseAt(c, end) ? setFuse(c, end, { device: v as ProtectionDevice }) : c),
 				options: PROTECTION_DEVICES.map((d) => ({ value: d, label: d })),
+				inapplicable: (c) => fuseAt(c, end) === null,
 			},
 		},
 		{
