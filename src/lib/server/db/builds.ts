@@ -53,6 +53,16 @@ function toSummary(r: {
 	};
 }
 
+function toRevisionDto(
+	r: Parameters<typeof toSummary>[0] & { schema_version: number; document: unknown },
+): RevisionDto {
+	return {
+		...toSummary(r),
+		schemaVersion: r.schema_version,
+		document: r.document as BuildDocument,
+	};
+}
+
 export async function listRevisions(db: Db, buildId: string): Promise<RevisionSummary[]> {
 	const rows = await baseRevisionQuery(db)
 		.select(summaryColumns)
@@ -66,19 +76,8 @@ export async function listRevisions(db: Db, buildId: string): Promise<RevisionSu
  * The same two reads by the vehicle's id, for a page that starts them beside its access check (its
  * answer is used only once the check has passed, and the check ties the vehicle to the team).
  */
-export async function findHeadRevisionOfVehicle(
-	db: Db,
-	vehicleId: string,
-): Promise<RevisionDto | undefined> {
-	const r = await baseRevisionQuery(db)
-		.innerJoin('build as hb', 'hb.head_revision_id', 'r.id')
-		.select([...summaryColumns, 'r.document'])
-		.where('hb.vehicle_id', '=', vehicleId)
-		.executeTakeFirst();
-	return (
-		r && { ...toSummary(r), schemaVersion: r.schema_version, document: r.document as BuildDocument }
-	);
-}
+export const findHeadRevisionOfVehicle = (db: Db, vehicleId: string) =>
+	headRevisionBy(db, 'hb.vehicle_id', vehicleId);
 
 export async function listRevisionsOfVehicle(
 	db: Db,
@@ -106,22 +105,24 @@ export async function findRevision(
 		.where('r.build_id', '=', buildId)
 		.where('r.id', '=', revisionId)
 		.executeTakeFirst();
-	return (
-		r && { ...toSummary(r), schemaVersion: r.schema_version, document: r.document as BuildDocument }
-	);
+	return r && toRevisionDto(r);
 }
 
 /** The build's head revision with its document, in one query (none before the first save). */
-export async function findHeadRevision(db: Db, buildId: string): Promise<RevisionDto | undefined> {
+export const findHeadRevision = (db: Db, buildId: string) => headRevisionBy(db, 'hb.id', buildId);
+
+/** The head revision of the build found by `column` (its id, or its vehicle's). */
+async function headRevisionBy(
+	db: Db,
+	column: 'hb.id' | 'hb.vehicle_id',
+	value: string,
+): Promise<RevisionDto | undefined> {
 	const r = await baseRevisionQuery(db)
 		.innerJoin('build as hb', 'hb.head_revision_id', 'r.id')
 		.select([...summaryColumns, 'r.document'])
-		.where('hb.id', '=', buildId)
-		.where('r.build_id', '=', buildId)
+		.where(column, '=', value)
 		.executeTakeFirst();
-	return (
-		r && { ...toSummary(r), schemaVersion: r.schema_version, document: r.document as BuildDocument }
-	);
+	return r && toRevisionDto(r);
 }
 
 /** The head revision's id and number (none before the first save), without its document. */

@@ -93,23 +93,28 @@ export async function findPlan(
 		.where('p.id', '=', planId)
 		.executeTakeFirst();
 	if (!row) return undefined;
-	const parts = await db
+	return {
+		...toSummary(row),
+		version: row.version,
+		document: row.document as BuildDocument,
+		parts: await findPlanParts(db, planId),
+	};
+}
+
+/** A plan's parts list, in its order. */
+async function findPlanParts(db: Db, planId: string): Promise<PlanPart[]> {
+	const rows = await db
 		.selectFrom('plan_part')
 		.selectAll()
 		.where('plan_id', '=', planId)
 		.orderBy('position')
 		.execute();
-	return {
-		...toSummary(row),
-		version: row.version,
-		document: row.document as BuildDocument,
-		parts: parts.map((p) => ({
-			item: p.item,
-			quantity: p.quantity,
-			unitPrice: fromMinor(p.unit_price_minor),
-			link: p.link,
-		})),
-	};
+	return rows.map((p) => ({
+		item: p.item,
+		quantity: p.quantity,
+		unitPrice: fromMinor(p.unit_price_minor),
+		link: p.link,
+	}));
 }
 
 /** What the plan page needs: the plan without its document, the document's part count and, when
@@ -141,23 +146,8 @@ export async function findPlanForPage(
 		.where('p.id', '=', planId)
 		.executeTakeFirst();
 	if (!row) return undefined;
-	const partRows = await db
-		.selectFrom('plan_part')
-		.selectAll()
-		.where('plan_id', '=', planId)
-		.orderBy('position')
-		.execute();
 	return {
-		plan: {
-			...toSummary(row),
-			version: row.version,
-			parts: partRows.map((p) => ({
-				item: p.item,
-				quantity: p.quantity,
-				unitPrice: fromMinor(p.unit_price_minor),
-				link: p.link,
-			})),
-		},
+		plan: { ...toSummary(row), version: row.version, parts: await findPlanParts(db, planId) },
 		documentParts: Number(row.document_parts),
 		documentText: row.document_text,
 	};
