@@ -1,7 +1,8 @@
 import { afterAll, describe, expect, inject, it } from 'vitest';
 import { DEMO_PASSWORD, DEMO_TEAM_NAME, DEMO_USERS } from '../../db/seed';
 import { DEMO_PLANS } from '../../db/demo/plans';
-import { type Browser, openBrowser, signInToTeam } from '../helpers/browser';
+import { type Browser, openBrowser, signInToTeam, signUpWithBuild } from '../helpers/browser';
+import { pebbleBuild } from '../../db/demo/builds';
 import { heavyValidNetwork } from '../bench/fixtures';
 
 const appUrl = inject('appUrl');
@@ -134,9 +135,12 @@ describe('upgrade plans in chromium', () => {
 	it('a member opens a plan too large to come with the page: it loads once live, and the API gives it whole', async () => {
 		const b = await openBrowser();
 		opened.push(b);
-		await signIn(b, DEMO_USERS[1].email);
-		await b.page.getByRole('link', { name: 'Pebble', exact: true }).click();
-		const vehicleUrl = b.page.url();
+		// A team of its own: the demo's vehicles stay as other tests (and their page checks) expect.
+		const vehicleUrl = await signUpWithBuild(b, appUrl, {
+			name: 'Large plan',
+			slug: 'large-plan',
+			document: pebbleBuild,
+		});
 		const [, teamId, vehicleId] = /teams\/([^/]+)\/vehicles\/([^/?#]+)/.exec(vehicleUrl)!;
 		const made = await b.page.request.fetch(
 			`${appUrl}/api/teams/${teamId}/vehicles/${vehicleId}/plans`,
