@@ -3,17 +3,12 @@ import type { UnitSystem } from '@/engine';
 import type { Role } from '@/lib/server/db/schema';
 import type { RunInput } from '@/lib/schemas/runs';
 import { parseUuid } from '@/lib/schemas/ids';
-import {
-	findBuildForVehicle,
-	findRevision,
-	revisionBelongsTo,
-	revisionInForce,
-} from '@/lib/server/db/builds';
+import { findRevision, revisionBelongsTo, revisionInForce } from '@/lib/server/db/builds';
 import { findEvent } from '@/lib/server/db/events';
 import { findPlan, findPlanForPage } from '@/lib/server/db/plans';
 import { findRun } from '@/lib/server/db/runs';
 import { findMembership } from '@/lib/server/db/teams';
-import { findVehicle } from '@/lib/server/db/vehicles';
+import { findVehicle, findVehicleAndBuild } from '@/lib/server/db/vehicles';
 import { type FieldError, problem } from '@/lib/server/http';
 
 /**
@@ -87,13 +82,12 @@ export async function requireTeamRole(
 	};
 }
 
-type VehicleRow = NonNullable<Awaited<ReturnType<typeof findVehicle>>>;
-type BuildRow = NonNullable<Awaited<ReturnType<typeof findBuildForVehicle>>>;
+type Found = NonNullable<Awaited<ReturnType<typeof findVehicleAndBuild>>>;
 
 export interface VehicleAccess {
 	access: TeamAccess;
-	vehicle: VehicleRow;
-	build: BuildRow;
+	vehicle: Found['vehicle'];
+	build: Found['build'];
 }
 
 /** Team role check, then the vehicle (and its build) of the URL inside that team. */
@@ -104,15 +98,16 @@ export async function requireVehicle(
 ): Promise<Access<VehicleAccess>> {
 	const teamId = parseUuid(params.teamId);
 	const vehicleId = parseUuid(params.vehicleId);
-	// The three lookups at once; the vehicle and its build are only looked at once the role passes.
-	const [auth, vehicle, build] = await Promise.all([
+	// Both lookups at once; the vehicle and its build are only looked at once the role passes.
+	const [auth, found] = await Promise.all([
 		requireTeamRole(locals, params.teamId, min),
-		locals.user && teamId && vehicleId ? findVehicle(locals.db, teamId, vehicleId) : undefined,
-		locals.user && teamId && vehicleId ? findBuildForVehicle(locals.db, vehicleId) : undefined,
+		locals.user && teamId && vehicleId
+			? findVehicleAndBuild(locals.db, teamId, vehicleId)
+			: undefined,
 	]);
 	if (!auth.ok) return auth;
-	if (!vehicle || !build) return notFound('vehicle');
-	return { ok: true, value: { access: auth.value, vehicle, build } };
+	if (!found) return notFound('vehicle');
+	return { ok: true, value: { access: auth.value, ...found } };
 }
 
 type RevisionRow = NonNullable<Awaited<ReturnType<typeof findRevision>>>;

@@ -73,26 +73,26 @@ export async function listRevisions(db: Db, buildId: string): Promise<RevisionSu
 }
 
 /**
- * The same two reads by the vehicle's id, for a page that starts them beside its access check (its
- * answer is used only once the check has passed, and the check ties the vehicle to the team).
+ * A vehicle's revisions, newest first, and its head with the document, in one query: what the
+ * build page shows. It is started beside the page's access check.
  */
-export const findHeadRevisionOfVehicle = (db: Db, vehicleId: string) =>
-	headRevisionBy(db, 'hb.vehicle_id', vehicleId);
-
-export async function listRevisionsOfVehicle(
+export async function findRevisionsAndHeadOfVehicle(
 	db: Db,
 	vehicleId: string,
-): Promise<RevisionSummary[]> {
+): Promise<{ head: RevisionDto | undefined; revisions: RevisionSummary[] }> {
 	const rows = await baseRevisionQuery(db)
-		.select(summaryColumns)
-		.where(
-			'r.build_id',
-			'=',
-			db.selectFrom('build').select('id').where('vehicle_id', '=', vehicleId),
-		)
+		.innerJoin('build as b', 'b.id', 'r.build_id')
+		.select([
+			...summaryColumns,
+			'r.schema_version',
+			sql<unknown>`case when r.id = b.head_revision_id then r.document end`.as('document'),
+			sql<boolean>`r.id = b.head_revision_id`.as('is_head'),
+		])
+		.where('b.vehicle_id', '=', vehicleId)
 		.orderBy('r.number', 'desc')
 		.execute();
-	return rows.map(toSummary);
+	const head = rows.find((r) => r.is_head);
+	return { head: head && toRevisionDto(head), revisions: rows.map(toSummary) };
 }
 
 export async function findRevision(

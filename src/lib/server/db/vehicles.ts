@@ -27,6 +27,33 @@ export function findVehicle(db: Db, teamId: string, vehicleId: string) {
 		.executeTakeFirst();
 }
 
+/** A vehicle of the team with its build, in one query (every vehicle has one build). */
+export async function findVehicleAndBuild(db: Db, teamId: string, vehicleId: string) {
+	const row = await db
+		.selectFrom('vehicle as v')
+		.innerJoin('build as b', 'b.vehicle_id', 'v.id')
+		.selectAll('v')
+		.select([
+			'b.id as build_id',
+			'b.head_revision_id as build_head_revision_id',
+			'b.created_at as build_created_at',
+		])
+		.where('v.team_id', '=', teamId)
+		.where('v.id', '=', vehicleId)
+		.executeTakeFirst();
+	if (!row) return undefined;
+	const { build_id, build_head_revision_id, build_created_at, ...vehicle } = row;
+	return {
+		vehicle,
+		build: {
+			id: build_id,
+			vehicle_id: vehicle.id,
+			head_revision_id: build_head_revision_id,
+			created_at: build_created_at,
+		},
+	};
+}
+
 /** The team's vehicles in use (not archived), by name. */
 export function findVehiclesForTeam(db: Db, teamId: string) {
 	return db
