@@ -5,6 +5,7 @@
  * imports the checked index, `@/engine`, which re-exports this.
  */
 export * from './types';
+export * from './part-kinds';
 export * from './conductors';
 export * from './amplifier';
 export * from './battery';
@@ -13,6 +14,7 @@ export * from './fuses';
 export * from './topology';
 export {
 	compileNetwork,
+	conducts,
 	solveCompiled,
 	GMIN_S,
 	type SolveConditions,

@@ -1,5 +1,11 @@
 import { amplifierDrawCurrent } from './amplifier';
-import { alternatorCurrent, bankCurrent, compileNetwork, solveCompiled } from './network';
+import {
+	alternatorCurrent,
+	bankCurrent,
+	compileNetwork,
+	isolatorCurrent,
+	solveCompiled,
+} from './network';
 import { advanceSoc, setBankStates } from './session';
 import type { BuildDocument } from './types';
 
@@ -88,6 +94,10 @@ export function runBurp(
 		for (const c of net.cables) {
 			const dropV = volt(v, c.p) - volt(v, c.n);
 			cableLossW += dropV * c.g * dropV;
+		}
+		for (const x of net.isolators) {
+			const dropV = volt(v, x.p) - volt(v, x.n);
+			cableLossW += isolatorCurrent(dropV, x)[0] * dropV;
 		}
 		energyWh.cableLoss += (cableLossW * stepS) / 3600;
 		for (let i = 0; i < net.banks.length; i++) {

@@ -1,3 +1,4 @@
+import { partsOf } from './part-kinds';
 import { type BuildDocument, PART_GROUPS, type PartGroup } from './types';
 
 export interface FieldChange {
@@ -42,8 +43,12 @@ function flatten(
 export function diffBuilds(before: BuildDocument, after: BuildDocument): ComponentChange[] {
 	const changes: ComponentChange[] = [];
 	for (const group of PART_GROUPS) {
-		const a = new Map<string, { id: string; label: string }>(before[group].map((x) => [x.id, x]));
-		const b = new Map<string, { id: string; label: string }>(after[group].map((x) => [x.id, x]));
+		const a = new Map<string, { id: string; label: string }>(
+			partsOf(before, group).map((x) => [x.id, x]),
+		);
+		const b = new Map<string, { id: string; label: string }>(
+			partsOf(after, group).map((x) => [x.id, x]),
+		);
 		for (const [id, item] of a) {
 			if (!b.has(id)) {
 				const fields = Object.entries(flatten(item))

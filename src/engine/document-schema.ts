@@ -12,11 +12,14 @@ import {
 	AWG_SIZES,
 	type BuildDocument,
 	CHEMISTRIES,
+	ISOLATOR_KINDS,
+	ISOLATOR_STATES,
 	MATERIALS,
 	NODE_KINDS,
+	type PartGroup,
 	PROTECTION_DEVICES,
-	TERMINAL_PART_GROUPS,
 } from './types';
+import { linkParts, PART_KINDS, terminalParts } from './part-kinds';
 
 // The small build carries no messages of its own; these are the full build's English ones.
 z.config(en());
@@ -120,6 +123,23 @@ export const cableSchema = z.object({
 });
 
 const twoTerminal = { id, label, positive: id, negative: id };
+
+export const isolatorSchema = z.object({
+	id,
+	label,
+	from: id,
+	to: id,
+	kind: z.enum(ISOLATOR_KINDS, { error: 'An isolator is a "relay" or a "diode"' }),
+	closes: z.enum(ISOLATOR_STATES, {
+		error: 'It closes with the engine running ("engine_running"), "always" or never ("open")',
+	}),
+	closedResistanceOhm: num(
+		'Closed resistance',
+		z.gte(1e-6, 'Closed resistance must be at least 1 µΩ'),
+		z.lte(1, 'Closed resistance above 1 Ω is an open circuit'),
+	),
+	forwardDropV: nonNegative('Forward drop', 2, 'Forward drop above 2 V is not an isolator diode'),
+});
 
 export const alternatorSchema = z.object({
 	...twoTerminal,
@@ -229,8 +249,17 @@ function checkReferences(
 			ctx.addIssue({ code: 'custom', path, message: `No node named "${nodeId}"` });
 	};
 	const parts = new Set<string>();
-	for (const group of TERMINAL_PART_GROUPS) {
-		doc[group].forEach((p, i) => {
+	const unique = (group: PartGroup, i: number, partId: string) => {
+		if (parts.has(partId))
+			ctx.addIssue({
+				code: 'custom',
+				path: [group, i, 'id'],
+				message: `Id "${partId}" is used twice`,
+			});
+		parts.add(partId);
+	};
+	for (const [group, list] of terminalParts(doc as BuildDocument)) {
+		list.forEach((p, i) => {
 			ref([group, i, 'positive'], p.positive);
 			ref([group, i, 'negative'], p.negative);
 			if (p.positive === p.negative)
@@ -239,44 +268,44 @@ function checkReferences(
 					path: [group, i, 'negative'],
 					message: 'Positive and negative must be different nodes',
 				});
-			if (parts.has(p.id))
-				ctx.addIssue({
-					code: 'custom',
-					path: [group, i, 'id'],
-					message: `Id "${p.id}" is used twice`,
-				});
-			parts.add(p.id);
+			unique(group, i, p.id);
 		});
 	}
-	doc.cables.forEach((c, i) => {
-		ref(['cables', i, 'from'], c.from);
-		ref(['cables', i, 'to'], c.to);
-		if (c.from === c.to)
-			ctx.addIssue({
-				code: 'custom',
-				path: ['cables', i, 'to'],
-				message: 'A cable must join two different nodes',
-			});
-		if (parts.has(c.id))
-			ctx.addIssue({
-				code: 'custom',
-				path: ['cables', i, 'id'],
-				message: `Id "${c.id}" is used twice`,
-			});
-		parts.add(c.id);
-	});
+	for (const [group, list] of linkParts(doc as BuildDocument)) {
+		list.forEach((c, i) => {
+			ref([group, i, 'from'], c.from);
+			ref([group, i, 'to'], c.to);
+			if (c.from === c.to)
+				ctx.addIssue({
+					code: 'custom',
+					path: [group, i, 'to'],
+					message: `A ${PART_KINDS[group].one.toLowerCase()} must join two different nodes`,
+				});
+			unique(group, i, c.id);
+		});
+	}
 }
+
+/** A group's list, bounded by the registry's count for it. */
+const listOf = <T extends z.ZodMiniType>(group: PartGroup, part: T) =>
+	z
+		.array(part)
+		.check(
+			z.maxLength(
+				PART_KINDS[group].most,
+				`At most ${PART_KINDS[group].most} ${PART_KINDS[group].many.toLowerCase()}`,
+			),
+		);
 
 const looseBuildSchema = z.object({
 	schemaVersion: z.literal(1, { error: 'Unsupported build document version; this is version 1' }),
-	nodes: z
-		.array(buildNodeSchema)
-		.check(z.minLength(1, 'A build needs nodes'), z.maxLength(500, 'At most 500 nodes')),
-	alternators: z.array(alternatorSchema).check(z.maxLength(8, 'At most 8 alternators')),
-	banks: z.array(batteryBankSchema).check(z.maxLength(40, 'At most 40 banks')),
-	amplifiers: z.array(amplifierSchema).check(z.maxLength(100, 'At most 100 amplifiers')),
-	loads: z.array(steadyLoadSchema).check(z.maxLength(100, 'At most 100 loads')),
-	cables: z.array(cableSchema).check(z.maxLength(1000, 'At most 1000 cables')),
+	nodes: listOf('nodes', buildNodeSchema).check(z.minLength(1, 'A build needs nodes')),
+	alternators: listOf('alternators', alternatorSchema),
+	banks: listOf('banks', batteryBankSchema),
+	amplifiers: listOf('amplifiers', amplifierSchema),
+	loads: listOf('loads', steadyLoadSchema),
+	cables: listOf('cables', cableSchema),
+	isolators: z.optional(listOf('isolators', isolatorSchema)),
 });
 
 /**

@@ -1,3 +1,4 @@
+import { partsOf } from './part-kinds';
 import type { NetworkSolution } from './solve';
 import type { BuildDocument } from './types';
 
@@ -90,6 +91,16 @@ export function traceFeeds(doc: BuildDocument, sol: NetworkSolution): Map<string
 		const amps = sol.cables[i]?.currentA ?? 0;
 		if (Math.abs(amps) <= TRACE_FLOOR_A) return;
 		const [up, down] = amps > 0 ? [c.from, c.to] : [c.to, c.from];
+		const u = slot.get(up);
+		const d = slot.get(down);
+		if (u === undefined || d === undefined) return;
+		into[d]!.push({ from: u, amps: Math.abs(amps) });
+	});
+	// Relays and isolators carry current the same way (solution and document in the same order).
+	partsOf(doc, 'isolators').forEach((x, i) => {
+		const amps = sol.isolators[i]?.currentA ?? 0;
+		if (Math.abs(amps) <= TRACE_FLOOR_A) return;
+		const [up, down] = amps > 0 ? [x.from, x.to] : [x.to, x.from];
 		const u = slot.get(up);
 		const d = slot.get(down);
 		if (u === undefined || d === undefined) return;

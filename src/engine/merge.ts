@@ -1,3 +1,4 @@
+import { partsOf } from './part-kinds';
 import { type BuildDocument, PART_GROUPS, type PartGroup } from './types';
 
 export interface MergeConflict {
@@ -28,15 +29,15 @@ export function mergePlan(
 	const conflicts: MergeConflict[] = [];
 	const merged = { ...head } as BuildDocument;
 	for (const group of PART_GROUPS) {
-		type Part = BuildDocument[typeof group][number];
+		type Part = NonNullable<BuildDocument[typeof group]>[number];
 		const byId = (list: readonly Part[]) => new Map(list.map((p) => [p.id, p] as const));
-		const b = byId(base[group]);
-		const p = byId(plan[group]);
-		const h = byId(head[group]);
+		const b = byId(partsOf(base, group));
+		const p = byId(partsOf(plan, group));
+		const h = byId(partsOf(head, group));
 		const out: Part[] = [];
 		const verdict = (side: Map<string, Part>, id: string) =>
 			(!b.has(id) ? 'added' : !side.has(id) ? 'removed' : 'changed') as MergeConflict['plan'];
-		for (const headPart of head[group]) {
+		for (const headPart of partsOf(head, group)) {
 			const id = headPart.id;
 			const inBase = b.get(id);
 			const inPlan = p.get(id);
@@ -56,7 +57,7 @@ export function mergePlan(
 				});
 			}
 		}
-		for (const planPart of plan[group]) {
+		for (const planPart of partsOf(plan, group)) {
 			if (h.has(planPart.id)) continue;
 			const inBase = b.get(planPart.id);
 			if (!inBase)
@@ -71,7 +72,9 @@ export function mergePlan(
 				});
 			// else: unchanged by the plan and removed in the head: stays removed.
 		}
-		(merged as unknown as Record<string, Part[]>)[group] = out;
+		// A group none of the three documents has stays absent (older documents keep their shape).
+		if (out.length > 0 || head[group] !== undefined)
+			(merged as unknown as Record<string, Part[]>)[group] = out;
 	}
 	return conflicts.length ? { ok: false, conflicts } : { ok: true, document: merged };
 }

@@ -10,7 +10,8 @@ import { cableResistanceOhm } from './conductors';
 import { EngineInputError } from './errors';
 import { DenseSystem } from './linear';
 import { type FactorResult, SparseLdl, type SymmetricSystem } from './sparse';
-import type { BuildDocument } from './types';
+import { partsOf } from './part-kinds';
+import type { BuildDocument, Isolator } from './types';
 
 /** A tiny conductance from every node to the chassis (as SPICE's gmin) keeps the matrix regular. */
 export const GMIN_S = 1e-9;
@@ -83,6 +84,14 @@ export interface CompiledNetwork {
 	/** `powerW` is the input power at and below the rated voltage; `draw` how it grows above. */
 	amplifiers: Array<TwoTerminal & { id: string; powerW: number; draw: AmplifierDraw }>;
 	loads: Array<TwoTerminal & { id: string; currentA: number }>;
+	/**
+	 * Relays and isolators that conduct under these conditions (an open one joins nothing): a
+	 * conductance `g`, and for a diode a forward drop below which it carries nothing.
+	 */
+	isolators: Array<TwoTerminal & { id: string; g: number; dropV: number; diode: boolean }>;
+	/** Every isolator's id and node indices (from, to), open ones too: what results report. */
+	isolatorIds: string[];
+	isolatorEnds: Array<readonly [number, number]>;
 	/** Highest source voltage: the scale for initial guesses and collapse checks. */
 	nominalV: number;
 	/** The nodal Jacobian's pattern and factorisation, made once per network. */
@@ -171,7 +180,33 @@ export function compileNetwork(
 		currentA: l.currentA,
 		...NO_SLOTS,
 	}));
-	const elements: TwoTerminal[] = [...cables, ...banks, ...alternators, ...amplifiers, ...loads];
+	const allIsolators = partsOf(doc, 'isolators');
+	const isolatorEnds = allIsolators.map(
+		(x, k) => [at(x.from, `isolators.${k}.from`), at(x.to, `isolators.${k}.to`)] as const,
+	);
+	const isolators = allIsolators.flatMap((x, k) =>
+		conducts(x, conditions.engineRpm)
+			? [
+					{
+						id: x.id,
+						p: isolatorEnds[k]![0],
+						n: isolatorEnds[k]![1],
+						...NO_SLOTS,
+						g: 1 / x.closedResistanceOhm,
+						dropV: x.kind === 'diode' ? x.forwardDropV : 0,
+						diode: x.kind === 'diode',
+					},
+				]
+			: [],
+	);
+	const elements: TwoTerminal[] = [
+		...cables,
+		...banks,
+		...alternators,
+		...amplifiers,
+		...loads,
+		...isolators,
+	];
 	const n = nodeIds.length;
 	const system: SymmetricSystem =
 		opts.linear === 'dense'
@@ -185,7 +220,7 @@ export function compileNetwork(
 		e.snn = system.slot(e.n, e.n);
 		e.spn = e.p === e.n ? -1 : system.slot(e.p, e.n);
 	}
-	const modeCount = banks.length + alternators.length;
+	const modeCount = banks.length + alternators.length + isolators.length;
 	return {
 		nodeIds,
 		index,
@@ -194,6 +229,9 @@ export function compileNetwork(
 		alternators,
 		amplifiers,
 		loads,
+		isolators,
+		isolatorIds: allIsolators.map((x) => x.id),
+		isolatorEnds,
 		nominalV,
 		system,
 		diagSlot: Int32Array.from({ length: n }, (_, i) => system.slot(i, i)),
@@ -209,6 +247,25 @@ export function compileNetwork(
 }
 
 const NO_SLOTS = { spp: -1, snn: -1, spn: -1 };
+
+/** Whether a relay or isolator is closed at this engine speed (0 = engine off). */
+export function conducts(x: Pick<Isolator, 'closes'>, engineRpm: number): boolean {
+	return x.closes === 'always' || (x.closes === 'engine_running' && engineRpm > 0);
+}
+
+/**
+ * Current from a closed isolator's `from` end to its `to` end at voltage x across it, and dI/dx:
+ * a relay is a resistance both ways; a diode conducts forward only, past its drop, through its
+ * slope resistance (the piecewise-linear diode model).
+ */
+export function isolatorCurrent(
+	x: number,
+	iso: CompiledNetwork['isolators'][number],
+): [number, number] {
+	if (!iso.diode) return [iso.g * x, iso.g];
+	// The knee belongs to the conducting side, as the banks' and alternators' knees do.
+	return x >= iso.dropV ? [iso.g * (x - iso.dropV), iso.g] : [0, 0];
+}
 
 const volt = (v: Float64Array, i: number) => (i < 0 ? 0 : v[i]!);
 
@@ -301,6 +358,12 @@ function assemble(net: CompiledNetwork, v: Float64Array, lambda: number) {
 		stamp(f, j, a, i, di);
 	}
 	for (const l of net.loads) stamp(f, j, l, l.currentA, 0);
+	for (const x of net.isolators) {
+		const vx = volt(v, x.p) - volt(v, x.n);
+		const [i, di] = isolatorCurrent(vx, x);
+		stamp(f, j, x, i, di);
+		work.modes[m++] = x.diode && vx >= x.dropV ? 1 : 0;
+	}
 	work.minAmpV = minAmpV;
 }
 
@@ -350,6 +413,10 @@ function coContent(net: CompiledNetwork, v: Float64Array, lambda: number, floorV
 		e += amplifierDrawCoContent(a.draw, x, lambda);
 	}
 	for (const l of net.loads) e += l.currentA * (volt(v, l.p) - volt(v, l.n));
+	for (const x of net.isolators) {
+		const over = volt(v, x.p) - volt(v, x.n) - x.dropV;
+		if (!x.diode || over > 0) e += 0.5 * x.g * over * over;
+	}
 	return e;
 }
 
@@ -528,6 +595,11 @@ function dischargeGuess(net: CompiledNetwork, lambda: number): Float64Array | nu
 	const vRef = Math.min(net.nominalV, ...net.banks.map((x) => x.ocvV));
 	for (const a of net.amplifiers) stampG(a, (lambda * a.powerW) / (vRef * vRef));
 	for (const l of net.loads) inject(l, -l.currentA);
+	// A diode taken as conducting: its conductance, and its drop as a source pushing back.
+	for (const x of net.isolators) {
+		stampG(x, x.g);
+		if (x.dropV > 0) inject(x, x.g * x.dropV);
+	}
 	if (system.factor() === 'singular') return null;
 	system.solve(b);
 	return b;

@@ -3,6 +3,7 @@ import {
 	alternatorCurrent,
 	bankCurrent,
 	compileNetwork,
+	isolatorCurrent,
 	type CompiledNetwork,
 	type RawSolution,
 	type SolveConditions,
@@ -54,6 +55,17 @@ export interface LoadResult {
 	currentA: number;
 }
 
+export interface IsolatorResult {
+	id: string;
+	/** Closed (or, for a diode, free to conduct) under these conditions. */
+	closed: boolean;
+	/** Current from its `from` end to its `to` end (A). */
+	currentA: number;
+	/** Voltage from `from` to `to` (V): the drop while it conducts, the gap it holds while open. */
+	dropV: number;
+	lossW: number;
+}
+
 export interface NetworkSolution {
 	status: 'ok' | 'collapse';
 	/** Node voltages against the chassis (V). */
@@ -63,11 +75,13 @@ export interface NetworkSolution {
 	alternators: AlternatorResult[];
 	amplifiers: AmplifierResult[];
 	loads: LoadResult[];
+	/** Every relay and isolator of the document, in its order, open ones too. */
+	isolators: IsolatorResult[];
 	/** When status is 'collapse': the largest fraction of the requested demand with an operating point. */
 	solvedDemandFraction: number;
 	iterations: number;
 	maxResidualA: number;
-	/** Power into the network from sources, into loads, and lost in cables (W). */
+	/** Power into the network from sources, into loads, and lost in the wiring: cables, relays, isolators (W). */
 	power: { sourcesW: number; loadsW: number; cableLossW: number };
 }
 
@@ -123,7 +137,16 @@ export function describeSolution(net: CompiledNetwork, raw: RawSolution): Networ
 	const loadsW =
 		amplifiers.reduce((s, a) => s + a.inputPowerW, 0) +
 		loads.reduce((s, l) => s + l.currentA * l.terminalV, 0);
-	const cableLossW = cables.reduce((s, c) => s + c.lossW, 0);
+	const closed = new Map(net.isolators.map((x) => [x.id, x]));
+	const isolators = net.isolatorIds.map((id, k) => {
+		const x = closed.get(id);
+		const ends = net.isolatorEnds[k]!;
+		const dropV = v(ends[0]) - v(ends[1]);
+		const currentA = x ? isolatorCurrent(dropV, x)[0] : 0;
+		return { id, closed: x !== undefined, currentA, dropV, lossW: currentA * dropV };
+	});
+	const cableLossW =
+		cables.reduce((s, c) => s + c.lossW, 0) + isolators.reduce((s, x) => s + x.lossW, 0);
 	return {
 		status: raw.collapsed ? 'collapse' : 'ok',
 		nodeVoltages,
@@ -132,6 +155,7 @@ export function describeSolution(net: CompiledNetwork, raw: RawSolution): Networ
 		alternators,
 		amplifiers,
 		loads,
+		isolators,
 		solvedDemandFraction: raw.lambda,
 		iterations: raw.iterations,
 		maxResidualA: raw.residualA,

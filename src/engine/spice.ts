@@ -90,6 +90,15 @@ export function toSpiceNetlist(
 	net.loads.forEach((l, i) =>
 		lines.push(`iload${i + 1} ${name(l.p)} ${name(l.n)} DC ${num(l.currentA)}`),
 	);
+	// A closed relay is a resistor; a diode isolator conducts past its drop through its slope
+	// resistance: I = max(V − Vf, 0)/R, the engine's piecewise-linear law. An open one is left out.
+	net.isolators.forEach((x, i) =>
+		lines.push(
+			x.diode
+				? `biso${i + 1} ${name(x.p)} ${name(x.n)} I=max(${v(x.p, x.n)}-${num(x.dropV)}, 0)*${num(x.g)}`
+				: `riso${i + 1} ${name(x.p)} ${name(x.n)} ${num(1 / x.g)}`,
+		),
+	);
 	// The engine's gmin, so both solve the same equations.
 	net.nodeIds.forEach((_, i) => lines.push(`rgmin${i + 1} ${name(i)} 0 1e9`));
 	if (nodeset && Object.keys(nodeset).length > 0) {

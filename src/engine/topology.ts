@@ -1,4 +1,12 @@
-import { type BuildDocument, TERMINAL_PART_GROUPS } from './types';
+import {
+	linkParts,
+	PART_KINDS,
+	partsOf,
+	terminalParts,
+	type LinkPart,
+	type TerminalPart,
+} from './part-kinds';
+import type { BuildDocument, PartGroup } from './types';
 
 export interface TopologyIssue {
 	code:
@@ -67,8 +75,9 @@ export function checkTopology(doc: BuildDocument): TopologyIssue[] {
 		ids.add(n.id);
 	});
 	const partIds = new Set<string>();
-	for (const group of [...TERMINAL_PART_GROUPS, 'cables'] as const) {
-		doc[group].forEach((part, i) => {
+	for (const group of Object.keys(PART_KINDS) as PartGroup[]) {
+		if (group === 'nodes') continue;
+		partsOf(doc, group).forEach((part, i) => {
 			if (partIds.has(part.id))
 				issues.push({
 					code: 'duplicate_id',
@@ -82,8 +91,8 @@ export function checkTopology(doc: BuildDocument): TopologyIssue[] {
 		if (!ids.has(nodeId))
 			issues.push({ code: 'unknown_node', path, message: `No node named "${nodeId}".` });
 	};
-	for (const group of TERMINAL_PART_GROUPS) {
-		doc[group].forEach((part, i) => {
+	for (const [group, parts] of terminalParts(doc)) {
+		parts.forEach((part, i) => {
 			check(`${group}.${i}.positive`, part.positive);
 			check(`${group}.${i}.negative`, part.negative);
 			if (part.positive === part.negative) {
@@ -95,44 +104,49 @@ export function checkTopology(doc: BuildDocument): TopologyIssue[] {
 			}
 		});
 	}
-	doc.cables.forEach((c, i) => {
-		check(`cables.${i}.from`, c.from);
-		check(`cables.${i}.to`, c.to);
-		if (c.from === c.to)
-			issues.push({
-				code: 'same_terminals',
-				path: `cables.${i}.to`,
-				message: `Cable "${c.label}" starts and ends on "${c.from}".`,
-			});
-	});
+	for (const [group, parts] of linkParts(doc)) {
+		parts.forEach((c, i) => {
+			check(`${group}.${i}.from`, c.from);
+			check(`${group}.${i}.to`, c.to);
+			if (c.from === c.to)
+				issues.push({
+					code: 'same_terminals',
+					path: `${group}.${i}.to`,
+					message: `${PART_KINDS[group].one} "${c.label}" starts and ends on "${c.from}".`,
+				});
+		});
+	}
 	if (issues.length > 0 || chassis.length !== 1) return issues;
 
-	// Conductive connectivity to the chassis.
+	// Conductive connectivity to the chassis (a relay counts whatever its state: this checks the
+	// wiring; an open one leaves its side to the sources there).
 	const conductive = new Map(doc.nodes.map((n) => [n.id, n.id]));
-	for (const c of doc.cables) union(conductive, c.from, c.to);
-	for (const s of [...doc.banks, ...doc.alternators]) union(conductive, s.positive, s.negative);
+	const { links, sources } = conductorsOf(doc);
+	for (const c of links) union(conductive, c.from, c.to);
+	for (const s of sources) union(conductive, s.positive, s.negative);
 	const ground = find(conductive, chassis[0]!.id);
 	doc.nodes.forEach((n, i) => {
 		if (find(conductive, n.id) !== ground) {
 			issues.push({
 				code: 'not_connected',
 				path: `nodes.${i}`,
-				message: `Node "${n.label}" is not connected to the chassis through cables, banks or alternators.`,
+				message: `Node "${n.label}" is not connected to the chassis through cables, relays, banks or alternators.`,
 			});
 		}
 	});
 
-	// Every cable-joined group that feeds a load holds a source terminal.
-	const byCable = new Map(doc.nodes.map((n) => [n.id, n.id]));
-	for (const c of doc.cables) union(byCable, c.from, c.to);
+	// Every group of nodes joined by cables and relays that feeds a load holds a source terminal.
+	const byLink = new Map(doc.nodes.map((n) => [n.id, n.id]));
+	for (const c of links) union(byLink, c.from, c.to);
 	const fed = new Set<string>();
-	for (const s of [...doc.banks, ...doc.alternators]) {
-		fed.add(find(byCable, s.positive));
-		fed.add(find(byCable, s.negative));
+	for (const s of sources) {
+		fed.add(find(byLink, s.positive));
+		fed.add(find(byLink, s.negative));
 	}
-	for (const group of ['amplifiers', 'loads'] as const) {
-		doc[group].forEach((part, i) => {
-			if (!fed.has(find(byCable, part.positive))) {
+	for (const [group, parts] of terminalParts(doc)) {
+		if (PART_KINDS[group].conducts) continue;
+		parts.forEach((part, i) => {
+			if (!fed.has(find(byLink, part.positive))) {
 				issues.push({
 					code: 'no_source',
 					path: `${group}.${i}.positive`,
@@ -142,4 +156,13 @@ export function checkTopology(doc: BuildDocument): TopologyIssue[] {
 		});
 	}
 	return issues;
+}
+
+/** The parts that join nodes (cables, relays) and the sources, as the registry says. */
+function conductorsOf(doc: BuildDocument): { links: LinkPart[]; sources: TerminalPart[] } {
+	const links = linkParts(doc).flatMap(([, parts]) => parts);
+	const sources = terminalParts(doc)
+		.filter(([group]) => PART_KINDS[group].source)
+		.flatMap(([, parts]) => parts);
+	return { links, sources };
 }

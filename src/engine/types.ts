@@ -160,6 +160,32 @@ export interface SteadyLoad {
 	currentA: number;
 }
 
+export const ISOLATOR_KINDS = ['relay', 'diode'] as const;
+export type IsolatorKind = (typeof ISOLATOR_KINDS)[number];
+
+/** When a relay or isolator conducts: with the engine running (on the ignition), always, or never. */
+export const ISOLATOR_STATES = ['engine_running', 'always', 'open'] as const;
+export type IsolatorState = (typeof ISOLATOR_STATES)[number];
+
+/**
+ * A relay (a solenoid's contacts) or a diode isolator between two nodes, commonly between the
+ * starting bank and the rear banks. A relay conducts both ways through its closed resistance; a
+ * diode isolator only from `from` to `to`, once the voltage across it passes its forward drop.
+ */
+export interface Isolator {
+	id: string;
+	label: string;
+	from: string;
+	to: string;
+	kind: IsolatorKind;
+	/** When it conducts (for a diode: when it may; it also needs forward voltage). */
+	closes: IsolatorState;
+	/** Resistance while conducting (Ω): contacts and studs, or the diode's slope resistance. */
+	closedResistanceOhm: number;
+	/** A diode isolator's forward drop (V); a relay has none (0). */
+	forwardDropV: number;
+}
+
 /**
  * The part groups of a build document, listed once: the diff, the merge, the topology check, the
  * document schema and the editor all read this list.
@@ -171,16 +197,9 @@ export const PART_GROUPS = [
 	'amplifiers',
 	'loads',
 	'cables',
+	'isolators',
 ] as const;
 export type PartGroup = (typeof PART_GROUPS)[number];
-
-/** The groups whose parts connect a positive and a negative node (cables join any two nodes). */
-export const TERMINAL_PART_GROUPS = [
-	'alternators',
-	'banks',
-	'amplifiers',
-	'loads',
-] as const satisfies readonly PartGroup[];
 
 export interface BuildDocument {
 	schemaVersion: 1;
@@ -190,6 +209,8 @@ export interface BuildDocument {
 	amplifiers: Amplifier[];
 	loads: SteadyLoad[];
 	cables: Cable[];
+	/** Relays and isolators; absent in documents saved before they existed (read as none). */
+	isolators?: Isolator[];
 }
 
 /** What the team asks the engine: operating conditions for a report. */

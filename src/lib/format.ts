@@ -2,6 +2,7 @@ import {
 	MM2_PER_CMIL,
 	M_PER_FT,
 	M_PER_IN,
+	PART_KINDS,
 	type PartGroup,
 	type UnitSystem,
 } from '@/engine/browser';
@@ -64,6 +65,9 @@ const FIELD_NAMES: Record<string, string> = {
 	unitResistanceOhm: 'internal resistance per unit',
 	stateOfCharge: 'state of charge',
 	currentA: 'current',
+	closes: 'conducts',
+	closedResistanceOhm: 'closed resistance',
+	forwardDropV: 'forward drop',
 };
 
 export function fieldName(field: string): string {
@@ -74,14 +78,10 @@ export function fieldName(field: string): string {
 	return field.replace(/([A-Z])/g, ' $1').toLowerCase();
 }
 
-export const GROUP_NAMES: Record<PartGroup, string> = {
-	nodes: 'Node',
-	alternators: 'Alternator',
-	banks: 'Bank',
-	amplifiers: 'Amplifier',
-	loads: 'Steady load',
-	cables: 'Cable',
-};
+/** A part's kind as a line names it ("Steady load"), from the engine's registry. */
+export const GROUP_NAMES = Object.fromEntries(
+	Object.entries(PART_KINDS).map(([group, kind]) => [group, kind.one]),
+) as Record<PartGroup, string>;
 
 /** A price in the team's currency (ISO 4217 code), e.g. "$1,234.50" or "€86.35". */
 export function formatMoney(x: number, currency: string): string {

@@ -92,7 +92,7 @@ describe('the build page as a workbench, in chromium', () => {
 			opened.push(b);
 			await openMarlin(b);
 			await b.page.getByRole('button', { name: '+ Add to amplifiers' }).click();
-			const form = b.page.getByRole('form', { name: 'Add a amplifier' });
+			const form = b.page.getByRole('form', { name: 'Add an amplifier' });
 			await form.getByLabel('Name').fill('Door amplifier');
 			await expect(form.getByLabel('Power input (+)').inputValue()).resolves.toBe('__new__');
 			await expect(form.getByLabel('Ground input (−)').inputValue()).resolves.toBe('__new__');

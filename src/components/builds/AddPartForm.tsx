@@ -1,6 +1,7 @@
 import { useId, useState } from 'react';
 import {
 	NODE_KINDS,
+	partsOf,
 	type BuildDocument,
 	type BuildNode,
 	type Cable,
@@ -9,84 +10,10 @@ import {
 } from '@/engine/browser';
 import { GROUP_NAMES } from '@/lib/format';
 import { Button, Field } from '@/components/ui/Field';
-import {
-	freshId,
-	newAlternator,
-	newAmplifier,
-	newBank,
-	newCable,
-	newLoad,
-	newNode,
-} from './new-parts';
-
-const NEW = '__new__';
-
-type Terminal = { key: 'from' | 'to' | 'positive' | 'negative'; label: string };
-const TERMINALS: Record<Exclude<PartGroup, 'nodes'>, Terminal[]> = {
-	cables: [
-		{ key: 'from', label: 'From node' },
-		{ key: 'to', label: 'To node' },
-	],
-	banks: [
-		{ key: 'positive', label: 'Positive terminal' },
-		{ key: 'negative', label: 'Negative terminal' },
-	],
-	alternators: [
-		{ key: 'positive', label: 'Output (B+)' },
-		{ key: 'negative', label: 'Case ground' },
-	],
-	amplifiers: [
-		{ key: 'positive', label: 'Power input (+)' },
-		{ key: 'negative', label: 'Ground input (−)' },
-	],
-	loads: [
-		{ key: 'positive', label: 'Fed from' },
-		{ key: 'negative', label: 'Returns to' },
-	],
-};
-
-/** The kind a node made for a part's terminal gets. */
-const NEW_NODE_KIND: Record<Exclude<PartGroup, 'nodes'>, NodeKind> = {
-	cables: 'block',
-	banks: 'battery',
-	alternators: 'alternator',
-	amplifiers: 'amplifier',
-	loads: 'block',
-};
-
-const MAKE = {
-	cables: newCable,
-	banks: newBank,
-	alternators: newAlternator,
-	amplifiers: newAmplifier,
-	loads: newLoad,
-} as const;
+import { freshId, newCable, newNode } from './new-parts';
+import { NEW_NODE as NEW, UI_PART_KINDS } from './part-kinds';
 
 const byKind = (d: BuildDocument, kind: NodeKind) => d.nodes.find((n) => n.kind === kind)?.id;
-
-/** Where a new part most likely connects: its suggestion for each terminal. */
-function suggest(d: BuildDocument, group: Exclude<PartGroup, 'nodes'>): Record<string, string> {
-	const chassis = byKind(d, 'chassis') ?? d.nodes[0]?.id ?? NEW;
-	const battery = byKind(d, 'battery') ?? d.nodes[0]?.id ?? NEW;
-	switch (group) {
-		case 'cables': {
-			const wired = new Set(d.cables.flatMap((c) => [c.from, c.to]));
-			const loose = d.nodes.find((n) => !wired.has(n.id) && n.id !== battery)?.id;
-			return { from: battery, to: loose ?? byKind(d, 'block') ?? NEW };
-		}
-		case 'banks':
-			return { positive: NEW, negative: chassis };
-		case 'alternators':
-			return {
-				positive: byKind(d, 'alternator') ?? NEW,
-				negative: byKind(d, 'junction') ?? chassis,
-			};
-		case 'amplifiers':
-			return { positive: NEW, negative: NEW };
-		case 'loads':
-			return { positive: battery, negative: chassis };
-	}
-}
 
 /**
  * Adds a part by asking where it goes: its name and the node at each terminal, with suggestions
@@ -107,12 +34,11 @@ export function AddPartForm({
 	const id = useId();
 	const noun = GROUP_NAMES[group].toLowerCase();
 	const [label, setLabel] = useState(
-		() => `${GROUP_NAMES[group]} ${(draft[group] as unknown[]).length + 1}`,
+		() => `${GROUP_NAMES[group]} ${partsOf(draft, group).length + 1}`,
 	);
 	const [kind, setKind] = useState<NodeKind>('block');
-	const [ends, setEnds] = useState<Record<string, string>>(() =>
-		group === 'nodes' ? {} : suggest(draft, group),
-	);
+	const kindUi = UI_PART_KINDS[group];
+	const [ends, setEnds] = useState<Record<string, string>>(() => kindUi.suggest(draft));
 	const [wire, setWire] = useState(group === 'amplifiers');
 	const [feedFrom, setFeedFrom] = useState(
 		() => byKind(draft, 'block') ?? byKind(draft, 'battery') ?? draft.nodes[0]?.id ?? '',
@@ -123,8 +49,8 @@ export function AddPartForm({
 		e.preventDefault();
 		const name = label.trim();
 		if (!name) return setError(`Name the ${noun}`);
-		if (group !== 'nodes') {
-			const [a, b] = TERMINALS[group].map((t) => ends[t.key]);
+		if (kindUi.ends.length === 2) {
+			const [a, b] = kindUi.ends.map((t) => ends[t.key]);
 			if (a !== NEW && a === b) return setError('The two ends must be different nodes');
 		}
 		onAdd((d) => {
@@ -132,7 +58,7 @@ export function AddPartForm({
 				return { ...d, nodes: [...d.nodes, { ...newNode(d), label: name, kind }] };
 			const nodes: BuildNode[] = [...d.nodes];
 			const at: Record<string, string> = {};
-			for (const t of TERMINALS[group]) {
+			for (const t of kindUi.ends) {
 				if (ends[t.key] !== NEW) {
 					at[t.key] = ends[t.key]!;
 					continue;
@@ -141,14 +67,17 @@ export function AddPartForm({
 				const node: BuildNode = {
 					id: freshId({ ...d, nodes }, 'node'),
 					label: group === 'cables' ? `${name} end` : `${name} ${sign}`,
-					kind: t.key === 'negative' && group !== 'amplifiers' ? 'block' : NEW_NODE_KIND[group],
+					kind: t.key === 'negative' && group !== 'amplifiers' ? 'block' : kindUi.newNodeKind,
 				};
 				nodes.push(node);
 				at[t.key] = node.id;
 			}
 			const withNodes = { ...d, nodes };
-			const part = { ...MAKE[group](withNodes), label: name, ...at };
-			const next = { ...withNodes, [group]: [...withNodes[group], part] } as BuildDocument;
+			const part = { ...kindUi.make(withNodes), label: name, ...at };
+			const next = {
+				...withNodes,
+				[group]: [...partsOf(withNodes, group), part],
+			} as BuildDocument;
 			if (group !== 'amplifiers' || !wire) return next;
 			const chassis = byKind(next, 'chassis');
 			const extra: Cable[] = [];
@@ -197,7 +126,7 @@ export function AddPartForm({
 	return (
 		<form
 			onSubmit={submit}
-			aria-label={`Add ${noun === 'steady load' ? 'a steady load' : `a ${noun}`}`}
+			aria-label={`Add ${/^[aeiou]/.test(noun) ? 'an' : 'a'} ${noun}`}
 			className="mb-3 flex flex-col gap-3 rounded-md border border-copper/50 bg-copper-tint/30 p-3"
 		>
 			<div className="grid grid-cols-1 gap-3 sm:grid-cols-3">
@@ -230,7 +159,7 @@ export function AddPartForm({
 						</select>
 					</div>
 				) : (
-					TERMINALS[group].map((t) => nodeSelect(t.key, t.label))
+					kindUi.ends.map((t) => nodeSelect(t.key, t.label))
 				)}
 			</div>
 			{group === 'amplifiers' && (

@@ -1,15 +1,15 @@
 import { useEffect, useRef } from 'react';
-import type { BuildDocument, BuildReport, PartGroup, ReportWarning } from '@/engine/browser';
+import {
+	PART_KINDS,
+	partsOf,
+	type BuildDocument,
+	type BuildReport,
+	type PartGroup,
+	type ReportWarning,
+} from '@/engine/browser';
 import { fmt, GROUP_NAMES, lengthUnit, toLengthDisplay, type UnitSystem } from '@/lib/format';
 import { Button } from '@/components/ui/Field';
-import {
-	alternatorColumns,
-	amplifierColumns,
-	bankColumns,
-	cableColumns,
-	loadColumns,
-	nodeColumns,
-} from './editor-columns';
+import { UI_PART_KINDS } from './part-kinds';
 import { WarningList } from './analysis/Findings';
 import { type PartColumn, PartCell } from './PartTable';
 
@@ -19,20 +19,17 @@ export interface Selection {
 	id: string;
 }
 
-const ELEMENT_KIND: Partial<Record<PartGroup, string>> = {
-	cables: 'cable',
-	amplifiers: 'amplifier',
-	banks: 'bank',
-	alternators: 'alternator',
-	loads: 'load',
-};
+type Rows = Array<[string, string]>;
+type Figures = (id: string, report: Ok, doc: BuildDocument, units: UnitSystem) => Rows;
 
-/** The part's own computed figures, in words and units. */
-function figuresOf(sel: Selection, report: Ok, doc: BuildDocument, units: UnitSystem) {
-	const rows: Array<[string, string]> = [];
-	if (sel.group === 'cables') {
-		const c = report.cables.find((x) => x.id === sel.id);
-		const cable = doc.cables.find((x) => x.id === sel.id);
+/** Each kind's own computed figures, in words and units (a node has none of its own). */
+export const INSPECTOR_FIGURES: Record<PartGroup, Figures> = {
+	nodes: () => [],
+	loads: () => [],
+	cables: (id, report, doc, units) => {
+		const rows: Rows = [];
+		const c = report.cables.find((x) => x.id === id);
+		const cable = doc.cables.find((x) => x.id === id);
 		if (!c || !cable) return rows;
 		rows.push(
 			['Current under burp', `${fmt(Math.abs(c.burp.currentA), 0)} A`],
@@ -62,8 +59,11 @@ function figuresOf(sel: Selection, report: Ok, doc: BuildDocument, units: UnitSy
 				`${fmt(toLengthDisplay(cable.lengthM, units), units === 'imperial' ? 1 : 2)} ${lengthUnit(units)}`,
 			],
 		);
-	} else if (sel.group === 'amplifiers') {
-		const a = report.amplifiers.find((x) => x.id === sel.id);
+		return rows;
+	},
+	amplifiers: (id, report) => {
+		const rows: Rows = [];
+		const a = report.amplifiers.find((x) => x.id === id);
 		if (!a) return rows;
 		rows.push(
 			['Terminal voltage, burp', `${fmt(a.burpTerminalV)} V`],
@@ -81,8 +81,11 @@ function figuresOf(sel: Selection, report: Ok, doc: BuildDocument, units: UnitSy
 			],
 			['Output model', a.outputModel === 'regulated' ? 'regulated' : 'unregulated, (V/V_rated)²'],
 		);
-	} else if (sel.group === 'banks') {
-		const b = report.banks.find((x) => x.id === sel.id);
+		return rows;
+	},
+	banks: (id, report) => {
+		const rows: Rows = [];
+		const b = report.banks.find((x) => x.id === id);
 		if (!b) return rows;
 		rows.push(
 			['Open-circuit voltage', `${fmt(b.ocvV)} V`],
@@ -97,17 +100,39 @@ function figuresOf(sel: Selection, report: Ok, doc: BuildDocument, units: UnitSy
 			],
 			['Charge acceptance', `${fmt(b.chargeAcceptanceA, 0)} A`],
 		);
-	} else if (sel.group === 'alternators') {
-		const a = report.alternators.find((x) => x.id === sel.id);
+		return rows;
+	},
+	alternators: (id, report) => {
+		const rows: Rows = [];
+		const a = report.alternators.find((x) => x.id === id);
 		if (!a) return rows;
 		rows.push(
 			['Output limit at this engine speed', `${fmt(a.limitA, 0)} A`],
 			['Current, burp', `${fmt(a.burpCurrentA, 0)} A (${a.burpMode})`],
 			['Current, music', `${fmt(a.sustainedCurrentA, 0)} A`],
 		);
-	}
-	return rows;
-}
+		return rows;
+	},
+	isolators: (id, report, doc) => {
+		const part = partsOf(doc, 'isolators').find((x) => x.id === id);
+		const k = partsOf(doc, 'isolators').findIndex((x) => x.id === id);
+		const burp = report.burp.isolators[k];
+		const music = report.sustained.isolators[k];
+		if (!part || !burp || !music) return [];
+		const state = (r: typeof burp) =>
+			!r.closed ? `open (holds ${fmt(Math.abs(r.dropV), 2)} V apart)` : `${fmt(r.currentA, 0)} A`;
+		return [
+			[
+				'At this engine speed',
+				burp.closed ? (part.kind === 'diode' ? 'free to conduct forward' : 'closed') : 'open',
+			],
+			['Current, burp', state(burp)],
+			['Current, music', state(music)],
+			['Drop, burp', burp.closed ? `${fmt(burp.dropV, 3)} V` : '—'],
+			['Loss, burp', burp.closed ? `${fmt(burp.lossW, 0)} W` : '—'],
+		];
+	},
+};
 
 /**
  * One part, opened from the diagram or the part lists: its fields in words and units, its own
@@ -134,8 +159,9 @@ export function Inspector({
 	onClose: () => void;
 }) {
 	const { group, id } = selection;
-	const index = (draft[group] as Array<{ id: string }>).findIndex((p) => p.id === id);
-	const part = (draft[group] as Array<{ id: string; label: string }>)[index];
+	const parts = partsOf(draft, group) as Array<{ id: string; label: string }>;
+	const index = parts.findIndex((p) => p.id === id);
+	const part = parts[index];
 	const panel = useRef<HTMLElement>(null);
 	useEffect(() => {
 		const back = document.activeElement as HTMLElement | null;
@@ -150,21 +176,15 @@ export function Inspector({
 	}, [group, id]);
 	if (!part) return null;
 	const nodeOptions = draft.nodes.map((n) => ({ value: n.id, label: n.label || n.id }));
-	const columns = (
-		{
-			cables: cableColumns(nodeOptions, units),
-			banks: bankColumns(nodeOptions),
-			alternators: alternatorColumns(nodeOptions),
-			amplifiers: amplifierColumns(nodeOptions),
-			loads: loadColumns(nodeOptions),
-			nodes: nodeColumns(),
-		} as unknown as Record<PartGroup, PartColumn<{ id: string; label: string }>[]>
-	)[group];
-	const kind = ELEMENT_KIND[group];
+	const columns = UI_PART_KINDS[group].columns(nodeOptions, units) as unknown as PartColumn<{
+		id: string;
+		label: string;
+	}>[];
+	const kind = PART_KINDS[group].element;
 	const findings: ReportWarning[] = report
 		? report.warnings.filter((w) => w.element.kind === kind && w.element.id === id)
 		: [];
-	const figures = report ? figuresOf(selection, report, draft, units) : [];
+	const figures = report ? INSPECTOR_FIGURES[group](id, report, draft, units) : [];
 	return (
 		<aside
 			ref={panel}
@@ -217,7 +237,7 @@ export function Inspector({
 							onChange={(i, next) =>
 								onChange((d) => ({
 									...d,
-									[group]: (d[group] as unknown[]).map((x, j) => (j === i ? next : x)),
+									[group]: (partsOf(d, group) as unknown[]).map((x, j) => (j === i ? next : x)),
 								}))
 							}
 						/>

@@ -1,7 +1,15 @@
 import { useMemo } from 'react';
-import { cableAreaMm2, type BuildDocument, type NodeKind, type PartGroup } from '@/engine/browser';
+import {
+	cableAreaMm2,
+	partsOf,
+	PART_KINDS,
+	type BuildDocument,
+	type NodeKind,
+	type PartGroup,
+} from '@/engine/browser';
 import { ScrollRegion } from '@/components/ui/ScrollRegion';
 import { useDetailsOpen } from '@/lib/client/use-details-open';
+import { UI_PART_KINDS } from './part-kinds';
 
 /** Where a node's kind sits from the engine bay (left) to the amplifiers (right). */
 const RANK: Record<NodeKind, number> = {
@@ -29,12 +37,11 @@ export const DIAGRAM = {
 } as const;
 const H = DIAGRAM.groundY + DIAGRAM.arcMax + 2 * DIAGRAM.lineH + 16;
 
-const PART_COLOUR = {
-	banks: '#0f7076',
-	alternators: '#0f7076',
-	amplifiers: '#a85a23',
-	loads: '#55616b',
-} as const;
+/** A box part's colour in the diagram, from the interface's registry. */
+const colourOf = (group: PartGroup) => {
+	const glyph = UI_PART_KINDS[group].glyph;
+	return glyph.shape === 'box' ? glyph.colour : '#55616b';
+};
 
 /** A label in at most `lines` lines of `DIAGRAM.lineChars`, the last cut with an ellipsis. */
 export function wrapLabel(text: string, lines: number): string[] {
@@ -222,12 +229,37 @@ export function NetworkDiagram({
 							</path>
 						);
 					})}
+					{partsOf(doc, 'isolators').map((x) => {
+						const a = pos.get(x.from);
+						const b = pos.get(x.to);
+						if (!a || !b) return null;
+						const pair = [x.from, x.to].sort().join('|');
+						const lift = (pairs.get(pair) ?? 0) * 10;
+						pairs.set(pair, (pairs.get(pair) ?? 0) + 1);
+						const glyph = UI_PART_KINDS.isolators.glyph;
+						return (
+							<path
+								key={x.id}
+								d={arcPath(a, b, lift)}
+								fill="none"
+								stroke={flagged.has(x.id) ? '#b3261e' : '#0f7076'}
+								strokeWidth={3}
+								strokeLinecap="round"
+								strokeDasharray={glyph.shape === 'arc' ? glyph.dash : undefined}
+								onClick={onSelect && (() => onSelect('isolators', x.id))}
+								className={onSelect ? 'cursor-pointer' : undefined}
+								data-isolator={x.id}
+							>
+								<title>{`${PART_KINDS.isolators.one} ${x.label}: ${nodeLabel.get(x.from)} to ${nodeLabel.get(x.to)} (${x.kind}, conducts ${x.closes === 'engine_running' ? 'with the engine running' : x.closes === 'always' ? 'always' : 'never'})`}</title>
+							</path>
+						);
+					})}
 					{parts.map((p, k) => {
 						const a = pos.get(p.positive);
 						const b = pos.get(p.negative);
 						const px = partX.get(p.id);
 						if (!a || !b || px === undefined) return null;
-						const colour = PART_COLOUR[p.group];
+						const colour = colourOf(p.group);
 						const lines = wrapLabel(p.label || p.id, 3);
 						const boxH = lines.length * DIAGRAM.lineH + 8;
 						const top = midY - boxH / 2;
@@ -337,7 +369,7 @@ export function NetworkDiagram({
 			<figcaption className="mt-1 text-xs text-ink-soft">
 				Supply side above, ground side below; each part in its own column between its terminals.
 				Copper arcs: supply cables. Slate arcs: ground cables. Dashed red: a cable with a finding.
-				Thicker arcs are larger cables.
+				Thicker arcs are larger cables. Dotted teal arcs: relays and isolators.
 			</figcaption>
 			<details ref={listRef} className="mt-2 text-sm" onToggle={onListToggle}>
 				<summary className="cursor-pointer font-semibold text-teal">List the connections</summary>
@@ -349,6 +381,12 @@ export function NetworkDiagram({
 								<span className="font-semibold">{c.label || c.id}</span>:{' '}
 								{nodeLabel.get(c.from) ?? c.from} → {nodeLabel.get(c.to) ?? c.to}
 								{flagged.has(c.id) && <span className="text-brick"> (has a finding)</span>}
+							</li>
+						))}
+						{partsOf(doc, 'isolators').map((x) => (
+							<li key={x.id}>
+								<span className="font-semibold">{x.label || x.id}</span> ({x.kind}):{' '}
+								{nodeLabel.get(x.from) ?? x.from} → {nodeLabel.get(x.to) ?? x.to}
 							</li>
 						))}
 						{parts.map((p) => (

@@ -1,17 +1,12 @@
 import { useEffect, useMemo, useState } from 'react';
-import type { BuildDocument, PartGroup } from '@/engine/browser';
+import { PART_KINDS, partsOf, type BuildDocument, type PartGroup } from '@/engine/browser';
 import type { UnitSystem } from '@/lib/format';
 import { useHydrated } from '@/lib/client/use-hydrated';
-import {
-	alternatorColumns,
-	amplifierColumns,
-	bankColumns,
-	cableColumns,
-	loadColumns,
-	nodeColumns,
-} from './editor-columns';
 import { AddPartForm } from './AddPartForm';
-import { MemoPartTable as PartTable } from './PartTable';
+import { EDITOR_ORDER, UI_PART_KINDS } from './part-kinds';
+import { MemoPartTable as PartTable, type PartColumn } from './PartTable';
+
+type AnyPart = { id: string; label: string };
 
 /** The part tables of a build or plan: every part editable in place, added and removed by group. */
 export function PartEditor({
@@ -36,18 +31,16 @@ export function PartEditor({
 	const nodesKey = draft.nodes.map((n) => `${n.id}\u0000${n.label}`).join('\u0001');
 	const cols = useMemo(() => {
 		const nodeOptions = draft.nodes.map((n) => ({ value: n.id, label: n.label || n.id }));
-		return {
-			cables: cableColumns(nodeOptions, units),
-			banks: bankColumns(nodeOptions),
-			alternators: alternatorColumns(nodeOptions),
-			amplifiers: amplifierColumns(nodeOptions),
-			loads: loadColumns(nodeOptions),
-			nodes: nodeColumns(),
-		};
+		return Object.fromEntries(
+			EDITOR_ORDER.map((g) => [g, UI_PART_KINDS[g].columns(nodeOptions, units)]),
+		) as unknown as Record<PartGroup, PartColumn<AnyPart>[]>;
 		// eslint-disable-next-line react-hooks/exhaustive-deps -- nodesKey stands for draft.nodes
 	}, [nodesKey, units]);
-	function update<G extends PartGroup>(group: G, index: number, next: BuildDocument[G][number]) {
-		onChange((d) => ({ ...d, [group]: d[group].map((x, i) => (i === index ? next : x)) }));
+	function update(group: PartGroup, index: number, next: AnyPart) {
+		onChange((d) => ({
+			...d,
+			[group]: (partsOf(d, group) as AnyPart[]).map((x, i) => (i === index ? next : x)),
+		}));
 	}
 	const [adding, setAdding] = useState<PartGroup | null>(null);
 	// After a part is added, the work goes on in its row: focus moves to the new row's first field.
@@ -78,7 +71,10 @@ export function PartEditor({
 			/>
 		);
 	function remove(group: PartGroup, index: number) {
-		onChange((d) => ({ ...d, [group]: d[group].filter((_, i) => i !== index) }));
+		onChange((d) => ({
+			...d,
+			[group]: (partsOf(d, group) as AnyPart[]).filter((_, i) => i !== index),
+		}));
 	}
 	return (
 		<section aria-labelledby="edit-heading" className="flex flex-col gap-6">
@@ -99,86 +95,23 @@ export function PartEditor({
 				</p>
 			) : (
 				<>
-					<EditGroup title="Cables" onAdd={add('cables')}>
-						{addForm('cables')}
-						<PartTable
-							caption="Cables"
-							rows={draft.cables}
-							columns={cols.cables}
-							pathPrefix="cables"
-							errors={errors}
-							readOnly={!canEdit}
-							onChange={(i, v) => update('cables', i, v)}
-							onRemove={canEdit ? (i) => remove('cables', i) : undefined}
-							rowFlag={(c) => (flagged.has(c.id) ? 'flag' : null)}
-							refreshKey={flagged}
-						/>
-					</EditGroup>
-					<EditGroup title="Battery banks" onAdd={add('banks')}>
-						{addForm('banks')}
-						<PartTable
-							caption="Battery banks"
-							rows={draft.banks}
-							columns={cols.banks}
-							pathPrefix="banks"
-							errors={errors}
-							readOnly={!canEdit}
-							onChange={(i, v) => update('banks', i, v)}
-							onRemove={canEdit ? (i) => remove('banks', i) : undefined}
-						/>
-					</EditGroup>
-					<EditGroup title="Alternators" onAdd={add('alternators')}>
-						{addForm('alternators')}
-						<PartTable
-							caption="Alternators"
-							rows={draft.alternators}
-							columns={cols.alternators}
-							pathPrefix="alternators"
-							errors={errors}
-							readOnly={!canEdit}
-							onChange={(i, v) => update('alternators', i, v)}
-							onRemove={canEdit ? (i) => remove('alternators', i) : undefined}
-						/>
-					</EditGroup>
-					<EditGroup title="Amplifiers" onAdd={add('amplifiers')}>
-						{addForm('amplifiers')}
-						<PartTable
-							caption="Amplifiers"
-							rows={draft.amplifiers}
-							columns={cols.amplifiers}
-							pathPrefix="amplifiers"
-							errors={errors}
-							readOnly={!canEdit}
-							onChange={(i, v) => update('amplifiers', i, v)}
-							onRemove={canEdit ? (i) => remove('amplifiers', i) : undefined}
-						/>
-					</EditGroup>
-					<EditGroup title="Steady loads" onAdd={add('loads')}>
-						{addForm('loads')}
-						<PartTable
-							caption="Steady loads"
-							rows={draft.loads}
-							columns={cols.loads}
-							pathPrefix="loads"
-							errors={errors}
-							readOnly={!canEdit}
-							onChange={(i, v) => update('loads', i, v)}
-							onRemove={canEdit ? (i) => remove('loads', i) : undefined}
-						/>
-					</EditGroup>
-					<EditGroup title="Nodes" onAdd={add('nodes')}>
-						{addForm('nodes')}
-						<PartTable
-							caption="Nodes"
-							rows={draft.nodes}
-							columns={cols.nodes}
-							pathPrefix="nodes"
-							errors={errors}
-							readOnly={!canEdit}
-							onChange={(i, v) => update('nodes', i, v)}
-							onRemove={canEdit ? (i) => remove('nodes', i) : undefined}
-						/>
-					</EditGroup>
+					{EDITOR_ORDER.map((group) => (
+						<EditGroup key={group} title={PART_KINDS[group].many} onAdd={add(group)}>
+							{addForm(group)}
+							<PartTable
+								caption={PART_KINDS[group].many}
+								rows={partsOf(draft, group) as AnyPart[]}
+								columns={cols[group]}
+								pathPrefix={group}
+								errors={errors}
+								readOnly={!canEdit}
+								onChange={(i, v) => update(group, i, v)}
+								onRemove={canEdit ? (i) => remove(group, i) : undefined}
+								rowFlag={(p) => (flagged.has(p.id) ? 'flag' : null)}
+								refreshKey={flagged}
+							/>
+						</EditGroup>
+					))}
 				</>
 			)}
 		</section>

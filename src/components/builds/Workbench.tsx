@@ -3,6 +3,9 @@ import { useAfterPaint } from '@/lib/client/use-after-paint';
 import {
 	DEFAULT_SCENARIO,
 	buildReport,
+	PART_GROUPS,
+	PART_KINDS,
+	partsOf,
 	type BuildDocument,
 	type PartGroup,
 	type Scenario,
@@ -25,6 +28,7 @@ import { SpeedSweepSection } from './analysis/SpeedSweepSection';
 import { UpgradeHintsSection } from './analysis/UpgradeHintsSection';
 import { Inspector, type Selection } from './Inspector';
 import { NetworkDiagram } from './NetworkDiagram';
+import { EDITOR_ORDER } from './part-kinds';
 import { PartEditor } from './PartEditor';
 import { useDeferredAnalysis } from './use-deferred-analysis';
 import { useHydrated } from '@/lib/client/use-hydrated';
@@ -78,7 +82,7 @@ const DIAGRAM_PARTS = 150;
 /** Parts of a group listed as buttons before "and N more". */
 const LISTED_PARTS = 60;
 const partCount = (d: BuildDocument) =>
-	d.cables.length + d.amplifiers.length + d.banks.length + d.alternators.length + d.loads.length;
+	PART_GROUPS.reduce((n, g) => (g === 'nodes' ? n : n + partsOf(d, g).length), 0);
 
 /**
  * The report of a document under a scenario, remembered per document object (an unedited draft is
@@ -143,14 +147,11 @@ export interface WorkbenchProps {
 	onMakePlan?: (hint: UpgradeHint) => Promise<string>;
 }
 
-const KIND_GROUP = {
-	cable: 'cables',
-	amplifier: 'amplifiers',
-	bank: 'banks',
-	alternator: 'alternators',
-	load: 'loads',
-	node: 'nodes',
-} as const;
+/** The part group a finding's or a hint's element names, from the engine's registry. */
+const KIND_GROUP = Object.fromEntries(PART_GROUPS.map((g) => [PART_KINDS[g].element, g])) as Record<
+	string,
+	PartGroup | undefined
+>;
 
 /**
  * The shared build editor and its live analysis: conditions, key figures, findings, the network,
@@ -245,7 +246,7 @@ export function Workbench({
 					nav={<SectionNav onOpen={openFromNav} />}
 					besideInspector={selection !== null}
 					partLabel={(w) => {
-						const group = KIND_GROUP[w.element.kind as keyof typeof KIND_GROUP];
+						const group = KIND_GROUP[w.element.kind];
 						const part = group
 							? (draft[group] as Array<{ id: string; label?: string }>).find(
 									(p) => p.id === w.element.id,
@@ -464,13 +465,8 @@ function Waiting() {
 	);
 }
 
-const LIST_GROUPS: Array<[PartGroup, string]> = [
-	['cables', 'cable'],
-	['amplifiers', 'amplifier'],
-	['banks', 'bank'],
-	['alternators', 'alternator'],
-	['loads', 'load'],
-];
+/** The groups listed as buttons: every kind but the nodes, in the editor's order. */
+const LIST_GROUPS = EDITOR_ORDER.filter((g) => g !== 'nodes');
 
 /** Every part as a button, by group, marked when it has a finding: the way into the inspector. */
 function PartLists({
@@ -495,15 +491,15 @@ function PartLists({
 	};
 	return (
 		<nav aria-label="Parts of the build" className="mt-3 flex flex-col gap-2 text-sm">
-			{LIST_GROUPS.filter(([g]) => draft[g].length > 0).map(([group, kind]) => (
+			{LIST_GROUPS.filter((g) => partsOf(draft, g).length > 0).map((group) => (
 				<div key={group} className="flex flex-wrap items-center gap-1.5">
 					<span className="w-24 shrink-0 text-xs font-semibold text-ink-soft uppercase">
 						{GROUP_NAMES[group]}s
 					</span>
-					{(draft[group] as Array<{ id: string; label: string }>)
+					{(partsOf(draft, group) as Array<{ id: string; label: string }>)
 						.slice(0, LISTED_PARTS)
 						.map((p) => {
-							const w = worst(kind, p.id);
+							const w = worst(PART_KINDS[group].element, p.id);
 							const on = selected?.group === group && selected.id === p.id;
 							return (
 								<button
@@ -523,9 +519,9 @@ function PartLists({
 								</button>
 							);
 						})}
-					{draft[group].length > LISTED_PARTS && (
+					{partsOf(draft, group).length > LISTED_PARTS && (
 						<span className="text-xs text-ink-soft">
-							and {draft[group].length - LISTED_PARTS} more (in the tables below)
+							and {partsOf(draft, group).length - LISTED_PARTS} more (in the tables below)
 						</span>
 					)}
 				</div>

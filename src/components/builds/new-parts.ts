@@ -1,4 +1,10 @@
-import { alternatorWithDefaults, amplifierWithDefaults, bankWithDefaults } from '@/engine/browser';
+import {
+	alternatorWithDefaults,
+	amplifierWithDefaults,
+	bankWithDefaults,
+	PART_GROUPS,
+	partsOf,
+} from '@/engine/browser';
 import type {
 	Alternator,
 	Amplifier,
@@ -6,20 +12,14 @@ import type {
 	BuildDocument,
 	BuildNode,
 	Cable,
+	Isolator,
 	SteadyLoad,
 } from '@/engine/browser';
 
 /** An id not yet used in the document: `${prefix}-1`, `${prefix}-2`, … */
 export function freshId(doc: BuildDocument, prefix: string): string {
 	const used = new Set(
-		[
-			...doc.nodes,
-			...doc.alternators,
-			...doc.banks,
-			...doc.amplifiers,
-			...doc.loads,
-			...doc.cables,
-		].map((x) => x.id),
+		PART_GROUPS.flatMap((g) => partsOf(doc, g) as Array<{ id: string }>).map((x) => x.id),
 	);
 	for (let i = 1; ; i++) if (!used.has(`${prefix}-${i}`)) return `${prefix}-${i}`;
 }
@@ -83,6 +83,21 @@ export const newLoad = (doc: BuildDocument): SteadyLoad => ({
 	positive: firstOf(doc, 'battery'),
 	negative: chassisOf(doc),
 	currentA: 10,
+});
+
+/**
+ * A relay between the starting bank's node and the rear: closed while the engine runs, as a
+ * solenoid on the ignition is. Half a milliohm closed is a plain product default, to be edited.
+ */
+export const newIsolator = (doc: BuildDocument): Isolator => ({
+	id: freshId(doc, 'iso'),
+	label: 'New relay',
+	from: firstOf(doc, 'battery'),
+	to: firstOf(doc, 'block'),
+	kind: 'relay',
+	closes: 'engine_running',
+	closedResistanceOhm: 0.0005,
+	forwardDropV: 0,
 });
 
 /** A starting point for a vehicle with no revision yet: one battery, one amplifier, wired. */

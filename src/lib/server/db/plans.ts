@@ -1,6 +1,6 @@
 import { type Kysely, sql } from 'kysely';
 import type { Database } from '@/lib/server/db/schema';
-import { TERMINAL_PART_GROUPS, type BuildDocument } from '@/engine';
+import { PART_GROUPS, type BuildDocument } from '@/engine';
 import type {
 	PlanDto,
 	PlanPart,
@@ -130,7 +130,7 @@ export async function findPlanForPage(
 	| undefined
 > {
 	const parts = sql<number>`(${sql.join(
-		[...TERMINAL_PART_GROUPS, 'cables'].map(
+		PART_GROUPS.filter((g) => g !== 'nodes').map(
 			(g) => sql`coalesce(jsonb_array_length(p.document -> ${g}), 0)`,
 		),
 		sql` + `,
