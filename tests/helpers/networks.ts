@@ -7,6 +7,7 @@ import type {
 	BuildNode,
 	Cable,
 	CableSize,
+	Isolator,
 	SteadyLoad,
 } from '../../src/engine/types';
 import { AWG_SIZES, MATERIALS } from '../../src/engine/types';
@@ -288,6 +289,28 @@ export function withUnfusedBank(d: BuildDocument): BuildDocument {
 				to: 'chassis',
 				fuses: [],
 			},
+		],
+	};
+}
+
+/**
+ * The document with an isolated rear side: a new node carrying a bank of its own (a copy of the
+ * first) and a steady load, joined to the first bank's positive by a relay or a diode isolator.
+ */
+export function withIsolatedRear(
+	d: BuildDocument,
+	iso: Pick<Isolator, 'kind' | 'closes' | 'closedResistanceOhm' | 'forwardDropV'>,
+	rearLoadA = 20,
+): BuildDocument {
+	const first = d.banks[0]!;
+	return {
+		...d,
+		nodes: [...d.nodes, node('rear_pos', 'battery')],
+		banks: [...d.banks, { ...first, id: 'rear', label: 'Rear bank', positive: 'rear_pos' }],
+		loads: [...d.loads, steady('rear_load', 'rear_pos', first.negative, rearLoadA)],
+		isolators: [
+			...(d.isolators ?? []),
+			{ id: 'iso', label: 'Rear isolator', from: first.positive, to: 'rear_pos', ...iso },
 		],
 	};
 }

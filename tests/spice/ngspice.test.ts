@@ -8,7 +8,7 @@ import { solveNetwork } from '../../src/engine/solve';
 import { toSpiceNetlist } from '../../src/engine/spice';
 import type { BuildDocument } from '../../src/engine/types';
 import { syntheticNetwork } from '../bench/fixtures';
-import { randomNetwork } from '../helpers/networks';
+import { randomNetwork, rng, withIsolatedRear } from '../helpers/networks';
 
 // Cross-check against a general-purpose circuit simulator: Debian's ngspice solves the DC
 // operating point of the same netlist the engine exports.
@@ -114,6 +114,39 @@ describe.runIf(available)('engine against ngspice', () => {
 			compared++;
 		}
 		expect(compared).toBeGreaterThanOrEqual(50);
+	});
+
+	it('agrees on 30 generated networks with a relay or a diode isolator to a rear bank', () => {
+		let compared = 0;
+		let conducting = 0;
+		for (let k = 1; k <= 30; k++) {
+			const r = rng(5000 + k);
+			const diode = k % 2 === 0;
+			const doc = withIsolatedRear(
+				randomNetwork(3000 + k * 41),
+				{
+					kind: diode ? 'diode' : 'relay',
+					closes: r.pick(['engine_running', 'always', 'open'] as const),
+					closedResistanceOhm: r.between(0.0002, 0.01),
+					forwardDropV: diode ? r.between(0.3, 0.9) : 0,
+				},
+				r.between(0, 40),
+			);
+			doc.banks[doc.banks.length - 1]!.stateOfCharge = r.between(0.3, 1);
+			const conditions = {
+				engineRpm: k % 3 === 0 ? 0 : 1800,
+				demand: k % 2 === 0 ? 1 : 1 / 8,
+				conductorTempC: 25,
+			};
+			const s = solveNetwork(doc, conditions);
+			if (s.status !== 'ok') continue;
+			if (Math.abs(s.isolators[0]!.currentA) > 0.1) conducting++;
+			compare(doc, `iso_${k}`, conditions);
+			compared++;
+		}
+		expect(compared).toBeGreaterThanOrEqual(25);
+		// The cases must exercise the isolator, not only leave it open.
+		expect(conducting).toBeGreaterThanOrEqual(8);
 	});
 
 	it('reads the export of a 1,000-cable network whole, and agrees on every node and cable', () => {

@@ -1,6 +1,7 @@
 import { useId, useState } from 'react';
 import {
 	NODE_KINDS,
+	PART_KINDS,
 	partsOf,
 	type BuildDocument,
 	type BuildNode,
@@ -66,7 +67,7 @@ export function AddPartForm({
 				const sign = t.key === 'negative' || t.key === 'to' ? '−' : '+';
 				const node: BuildNode = {
 					id: freshId({ ...d, nodes }, 'node'),
-					label: group === 'cables' ? `${name} end` : `${name} ${sign}`,
+					label: PART_KINDS[group].ends === 'link' ? `${name} end` : `${name} ${sign}`,
 					kind: t.key === 'negative' && group !== 'amplifiers' ? 'block' : kindUi.newNodeKind,
 				};
 				nodes.push(node);

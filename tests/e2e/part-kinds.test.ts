@@ -1,0 +1,61 @@
+import { afterAll, describe, expect, inject, it } from 'vitest';
+import { DEMO_PASSWORD, DEMO_TEAM_NAME, DEMO_USERS } from '../../db/seed';
+import { type Browser, openBrowser, signInToTeam } from '../helpers/browser';
+
+const appUrl = inject('appUrl');
+
+async function openPebble(b: Browser) {
+	await signInToTeam(b, appUrl, DEMO_USERS[1].email, DEMO_PASSWORD, DEMO_TEAM_NAME);
+	await b.page.getByRole('link', { name: 'Pebble', exact: true }).click();
+	await b.page.waitForSelector('astro-island[component-export="BuildWorkspace"]:not([ssr])', {
+		state: 'attached',
+	});
+	await b.page.getByRole('heading', { name: 'Cables: current, drop and protection' }).waitFor();
+}
+
+describe('adding the newer kinds of part through the add-part form, in chromium', () => {
+	const opened: Browser[] = [];
+	afterAll(async () => {
+		for (const b of opened) await b.close();
+	});
+
+	for (const viewport of [
+		{ width: 1366, height: 900 },
+		{ width: 390, height: 844 },
+	])
+		it(`at ${viewport.width} px: a member adds a relay to a rear node, turns it into a diode isolator and reads its figures`, async () => {
+			const b = await openBrowser({ viewport });
+			opened.push(b);
+			await openPebble(b);
+			await b.page.getByRole('button', { name: '+ Add to relays and isolators' }).click();
+			const form = b.page.getByRole('form', { name: 'Add an isolator' });
+			await form.getByLabel('Name').fill('Rear relay');
+			// It suggests the battery's node as the supply side and a new node behind it.
+			await expect(form.getByLabel('Far side (to)').inputValue()).resolves.toBe('__new__');
+			await form.getByRole('button', { name: 'Add the isolator' }).click();
+			await form.waitFor({ state: 'detached' });
+
+			// The work goes on in its row: focus on its first field.
+			const name = b.page.getByLabel('Rear relay: Relay or isolator');
+			await expect.poll(() => name.evaluate((el) => el === document.activeElement)).toBe(true);
+			await expect(b.page.getByLabel('Rear relay: Conducts').inputValue()).resolves.toBe(
+				'engine_running',
+			);
+			// Drawn as a link between the battery's node and its new node, and listed.
+			await b.page.locator('[data-isolator]').first().waitFor({ state: 'attached' });
+
+			await b.page.getByLabel('Rear relay: Kind').selectOption('diode');
+			await expect
+				.poll(() => b.page.getByLabel('Rear relay: Forward drop').inputValue())
+				.toBe('0.7');
+
+			await b.page.getByRole('button', { name: 'Rear relay', exact: true }).click();
+			const inspector = b.page.locator('[data-inspector]');
+			await inspector.waitFor();
+			await expect(inspector.textContent()).resolves.toMatch(/At this engine speed/);
+			await expect(inspector.textContent()).resolves.toMatch(/free to conduct forward/);
+			await b.screenshot(`part-kinds-isolator-${viewport.width}`);
+			await b.page.keyboard.press('Escape');
+			expect(b.problems).toEqual([]);
+		});
+});
