@@ -1,4 +1,5 @@
 import { amplifierDrawCurrent } from './amplifier';
+import { beginCapacitorStep, capacitorBranchA, endCapacitorStep } from './capacitor';
 import {
 	alternatorCurrent,
 	bankCurrent,
@@ -6,7 +7,7 @@ import {
 	isolatorCurrent,
 	solveCompiled,
 } from './network';
-import { advanceSoc, setBankStates } from './session';
+import { advanceSoc, capacitorRestVoltages, setBankStates } from './session';
 import type { BuildDocument } from './types';
 
 const volt = (v: Float64Array, i: number) => (i < 0 ? 0 : v[i]!);
@@ -22,8 +23,27 @@ export interface BurpRun {
 	bankV: Record<string, number[]>;
 	/** Lowest terminal voltage each amplifier saw during the run (V). */
 	amplifierMinV: Record<string, number>;
-	/** Energy into the amplifiers, out of the banks and out of the alternators (Wh). */
-	energyWh: { amplifiers: number; banks: number; alternators: number; cableLoss: number };
+	/** Energy into the amplifiers, out of the banks, the alternators and the capacitor banks (Wh). */
+	energyWh: {
+		amplifiers: number;
+		banks: number;
+		alternators: number;
+		capacitors: number;
+		cableLoss: number;
+	};
+	/**
+	 * Each capacitor bank through the burp: its voltage before it (charged at the operating point
+	 * at rest), its lowest terminal voltage and its largest discharge current.
+	 */
+	capacitors: Record<
+		string,
+		{ startV: number; minV: number; peakA: number; shareFirst100ms: number }
+	>;
+	/**
+	 * Share of the charge the sources (banks, alternators, capacitor banks) delivered in the first
+	 * 100 ms that came from the capacitor banks (0..1); null without any.
+	 */
+	capacitorShareFirst100ms: number | null;
 	startSoc: Record<string, number>;
 	endSoc: Record<string, number>;
 	/** Time (s) at which the system had no operating point any more, or null. */
@@ -62,7 +82,18 @@ export function runBurp(
 	const amplifierMinV: Record<string, number> = Object.fromEntries(
 		doc.amplifiers.map((a) => [a.id, Number.POSITIVE_INFINITY]),
 	);
-	const energyWh = { amplifiers: 0, banks: 0, alternators: 0, cableLoss: 0 };
+	const energyWh = { amplifiers: 0, banks: 0, alternators: 0, capacitors: 0, cableLoss: 0 };
+	const caps = net.capacitors;
+	const restV = caps.length > 0 ? capacitorRestVoltages(doc, opts) : [];
+	caps.forEach((c, k) => (c.vcV = restV[k]!));
+	const capacitors = Object.fromEntries(
+		caps.map((c) => [c.id, { startV: c.vcV, minV: c.vcV, peakA: 0, shareFirst100ms: 0 }]),
+	);
+	beginCapacitorStep(caps, opts.stepS);
+	// Charge delivered in the first 100 ms: by the capacitor banks, and by every source.
+	let earlyCapC = 0;
+	let earlyAllC = 0;
+	const earlyByCap = new Float64Array(caps.length);
 	let warm: Float64Array | undefined;
 	let collapsedAtS: number | null = null;
 	const { stepS } = opts;
@@ -85,11 +116,27 @@ export function runBurp(
 			energyWh.amplifiers += (currentA * terminalV * stepS) / 3600;
 		}
 		minAmplifierV.push(doc.amplifiers.length ? minV : Number.NaN);
+		const early = t <= 0.1 + 1e-9;
 		for (const a of net.alternators) {
 			const terminalV = volt(v, a.p) - volt(v, a.n);
 			const [currentA] = alternatorCurrent(a, terminalV);
 			energyWh.alternators += (currentA * terminalV * stepS) / 3600;
+			if (early) earlyAllC += Math.max(0, currentA) * stepS;
 		}
+		caps.forEach((c, k) => {
+			const terminalV = volt(v, c.p) - volt(v, c.n);
+			const outA = -capacitorBranchA(c, terminalV);
+			energyWh.capacitors += (outA * terminalV * stepS) / 3600;
+			const seen = capacitors[c.id]!;
+			seen.minV = Math.min(seen.minV, terminalV);
+			seen.peakA = Math.max(seen.peakA, outA);
+			if (early) {
+				earlyByCap[k] += Math.max(0, outA) * stepS;
+				earlyCapC += Math.max(0, outA) * stepS;
+				earlyAllC += Math.max(0, outA) * stepS;
+			}
+		});
+		endCapacitorStep(caps, (k) => volt(v, caps[k]!.p) - volt(v, caps[k]!.n), stepS);
 		let cableLossW = 0;
 		for (const c of net.cables) {
 			const dropV = volt(v, c.p) - volt(v, c.n);
@@ -107,6 +154,7 @@ export function runBurp(
 			const [currentA] = bankCurrent(b, terminalV);
 			bankSeries[i]!.push(terminalV);
 			energyWh.banks += (currentA * terminalV * stepS) / 3600;
+			if (early) earlyAllC += Math.max(0, currentA) * stepS;
 			soc[bank.id] = advanceSoc(bank, soc[bank.id]!, currentA, stepS);
 		}
 		if (raw.collapsed) {
@@ -114,6 +162,9 @@ export function runBurp(
 			break;
 		}
 	}
+	caps.forEach((c, k) => {
+		capacitors[c.id]!.shareFirst100ms = earlyAllC > 0 ? earlyByCap[k]! / earlyAllC : 0;
+	});
 	return {
 		durationS: opts.durationS,
 		stepS: opts.stepS,
@@ -122,6 +173,8 @@ export function runBurp(
 		bankV,
 		amplifierMinV,
 		energyWh,
+		capacitors,
+		capacitorShareFirst100ms: caps.length === 0 ? null : earlyAllC > 0 ? earlyCapC / earlyAllC : 0,
 		startSoc,
 		endSoc: soc,
 		collapsedAtS,

@@ -124,6 +124,20 @@ export const cableSchema = z.object({
 
 const twoTerminal = { id, label, positive: id, negative: id };
 
+export const capacitorBankSchema = z.object({
+	...twoTerminal,
+	moduleFarads: positive('Capacitance', 100000, 'Capacitance above 100 000 F per module'),
+	moduleEsrOhm: num(
+		'Series resistance',
+		z.gte(1e-6, 'Series resistance must be at least 1 µΩ'),
+		z.lte(1, 'Series resistance above 1 Ω'),
+	),
+	moduleRatedV: positive('Rated voltage', 100, 'Rated voltage above 100 V per module'),
+	moduleLeakageA: nonNegative('Leakage', 1, 'Leakage above 1 A is a failed module'),
+	inSeries: whole('Modules in series is a whole number', [1, 'At least one'], [12, 'At most 12']),
+	inParallel: whole('Strings is a whole number', [1, 'At least one'], [20, 'At most 20']),
+});
+
 export const isolatorSchema = z.object({
 	id,
 	label,
@@ -306,6 +320,7 @@ const looseBuildSchema = z.object({
 	loads: listOf('loads', steadyLoadSchema),
 	cables: listOf('cables', cableSchema),
 	isolators: z.optional(listOf('isolators', isolatorSchema)),
+	capacitors: z.optional(listOf('capacitors', capacitorBankSchema)),
 });
 
 /**

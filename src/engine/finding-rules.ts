@@ -9,6 +9,7 @@ import type {
 	BatteryBank,
 	BuildDocument,
 	Cable,
+	CapacitorBank,
 	Fuse,
 	Scenario,
 } from './types';
@@ -18,6 +19,7 @@ import type {
 	AmplifierReport,
 	BankReport,
 	CableReport,
+	CapacitorReport,
 	ReportWarning,
 	Severity,
 	WarningCode,
@@ -46,6 +48,7 @@ interface Subjects {
 	amplifier: { part: Amplifier; figures: AmplifierReport };
 	bank: { part: BatteryBank; figures: BankReport };
 	alternator: { part: Alternator; figures: AlternatorReport };
+	capacitor: { part: CapacitorBank; figures: CapacitorReport };
 	build: { part: BuildDocument; figures: null };
 }
 export type RuleSubject = keyof Subjects;
@@ -325,6 +328,32 @@ export const FINDING_RULES = [
 			);
 		},
 	}),
+	rule({
+		code: 'capacitor_over_rating',
+		severity: 'danger',
+		safety: true,
+		about: 'capacitor',
+		reads: ['highestV', 'ratedV'],
+		test: ({ part, figures: f }) =>
+			when(
+				f.highestV > f.ratedV,
+				() =>
+					`Capacitor bank "${part.label}" sits at ${fmt(f.highestV)} V, above its rating of ${fmt(f.ratedV)} V (${part.inSeries} × ${fmt(part.moduleRatedV)} V): an over-voltage module can vent or fail. Add modules in series, or lower the charging voltage; follow the maker's limits.`,
+			),
+	}),
+	rule({
+		code: 'capacitor_burp_share',
+		severity: 'info',
+		safety: false,
+		about: 'capacitor',
+		reads: ['shareFirst100ms', 'burpPeakA'],
+		test: ({ part, figures: f }) =>
+			f.shareFirst100ms === null || f.burpPeakA === null
+				? []
+				: [
+						`Capacitor bank "${part.label}" carries ${fmt(f.shareFirst100ms * 100, 0)} % of what the sources deliver in the first 100 ms of the burp (up to ${fmt(f.burpPeakA, 0)} A); the banks and alternators carry the rest and all of what follows.`,
+					],
+	}),
 ] as const satisfies readonly AnyFindingRule[];
 
 /** The parts of one kind a report holds, each with its id and what its rules read. */
@@ -340,12 +369,13 @@ const RULES_BY_SUBJECT = {
 	amplifier: rulesAbout('amplifier'),
 	bank: rulesAbout('bank'),
 	alternator: rulesAbout('alternator'),
+	capacitor: rulesAbout('capacitor'),
 } satisfies Record<RuleSubject, AnyFindingRule[]>;
 
 /** Every finding, part by part (the build's own first), each part's in the table's order. */
 export function evaluateFindings(ctx: FindingContext, subjects: FindingSubjects): ReportWarning[] {
 	const warnings: ReportWarning[] = [];
-	for (const about of ['build', 'cable', 'amplifier', 'bank', 'alternator'] as const) {
+	for (const about of ['build', 'cable', 'amplifier', 'bank', 'alternator', 'capacitor'] as const) {
 		const rules = RULES_BY_SUBJECT[about] as FindingRule<typeof about>[];
 		for (const { id, subject } of subjects[about] as Array<{ id: string; subject: never }>)
 			for (const r of rules)

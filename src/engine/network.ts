@@ -6,6 +6,7 @@ import {
 } from './amplifier';
 import { alternatorLimitA } from './alternator';
 import { bankThevenin, chargeAcceptanceA } from './battery';
+import { capacitorCurrent, compileCapacitor, type CompiledCapacitor } from './capacitor';
 import { cableResistanceOhm } from './conductors';
 import { EngineInputError } from './errors';
 import { DenseSystem } from './linear';
@@ -89,6 +90,8 @@ export interface CompiledNetwork {
 	 * conductance `g`, and for a diode a forward drop below which it carries nothing.
 	 */
 	isolators: Array<TwoTerminal & { id: string; g: number; dropV: number; diode: boolean }>;
+	/** Capacitor banks: open but for their leakage at a steady point; companion branches in a step. */
+	capacitors: Array<TwoTerminal & CompiledCapacitor>;
 	/** Every isolator's id and node indices (from, to), open ones too: what results report. */
 	isolatorIds: string[];
 	isolatorEnds: Array<readonly [number, number]>;
@@ -199,7 +202,14 @@ export function compileNetwork(
 				]
 			: [],
 	);
+	const capacitors = partsOf(doc, 'capacitors').map((c, k) => ({
+		...compileCapacitor(c),
+		p: at(c.positive, `capacitors.${k}.positive`),
+		n: at(c.negative, `capacitors.${k}.negative`),
+		...NO_SLOTS,
+	}));
 	const elements: TwoTerminal[] = [
+		...capacitors,
 		...cables,
 		...banks,
 		...alternators,
@@ -230,6 +240,7 @@ export function compileNetwork(
 		amplifiers,
 		loads,
 		isolators,
+		capacitors,
 		isolatorIds: allIsolators.map((x) => x.id),
 		isolatorEnds,
 		nominalV,
@@ -358,6 +369,10 @@ function assemble(net: CompiledNetwork, v: Float64Array, lambda: number) {
 		stamp(f, j, a, i, di);
 	}
 	for (const l of net.loads) stamp(f, j, l, l.currentA, 0);
+	for (const c of net.capacitors) {
+		const [i, di] = capacitorCurrent(c, volt(v, c.p) - volt(v, c.n));
+		stamp(f, j, c, i, di);
+	}
 	for (const x of net.isolators) {
 		const vx = volt(v, x.p) - volt(v, x.n);
 		const [i, di] = isolatorCurrent(vx, x);
@@ -413,6 +428,10 @@ function coContent(net: CompiledNetwork, v: Float64Array, lambda: number, floorV
 		e += amplifierDrawCoContent(a.draw, x, lambda);
 	}
 	for (const l of net.loads) e += l.currentA * (volt(v, l.p) - volt(v, l.n));
+	for (const c of net.capacitors) {
+		const x = volt(v, c.p) - volt(v, c.n);
+		e += 0.5 * c.gLeak * x * x + 0.5 * c.gStep * (x - c.vcV) ** 2;
+	}
 	for (const x of net.isolators) {
 		const over = volt(v, x.p) - volt(v, x.n) - x.dropV;
 		if (!x.diode || over > 0) e += 0.5 * x.g * over * over;
@@ -595,6 +614,10 @@ function dischargeGuess(net: CompiledNetwork, lambda: number): Float64Array | nu
 	const vRef = Math.min(net.nominalV, ...net.banks.map((x) => x.ocvV));
 	for (const a of net.amplifiers) stampG(a, (lambda * a.powerW) / (vRef * vRef));
 	for (const l of net.loads) inject(l, -l.currentA);
+	for (const c of net.capacitors) {
+		stampG(c, c.gLeak + c.gStep);
+		inject(c, c.gStep * c.vcV);
+	}
 	// A diode taken as conducting: its conductance, and its drop as a source pushing back.
 	for (const x of net.isolators) {
 		stampG(x, x.g);

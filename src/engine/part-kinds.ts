@@ -96,6 +96,17 @@ export const PART_KINDS = {
 		source: false,
 		most: 40,
 	},
+	capacitors: {
+		one: 'Capacitor bank',
+		many: 'Capacitor banks',
+		idPrefix: 'cap',
+		element: 'capacitor',
+		ends: 'terminals',
+		// At a steady point only its leakage flows: it joins nothing and feeds nothing there.
+		conducts: false,
+		source: false,
+		most: 20,
+	},
 } as const satisfies Record<PartGroup, PartKindFacts>;
 
 /** The parts of one group (a group a document predates reads as empty). */
@@ -127,7 +138,7 @@ const groupsWith = (ends: PartKindFacts['ends']) =>
 
 /** The groups whose parts have a positive and a negative terminal. */
 export const TERMINAL_GROUPS = groupsWith('terminals') as ReadonlyArray<
-	'alternators' | 'banks' | 'amplifiers' | 'loads'
+	'alternators' | 'banks' | 'amplifiers' | 'loads' | 'capacitors'
 >;
 /** The groups whose parts join two nodes. */
 export const LINK_GROUPS = groupsWith('link') as ReadonlyArray<'cables' | 'isolators'>;

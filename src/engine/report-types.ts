@@ -9,7 +9,7 @@ import type { TopologyIssue } from './topology';
 import type { Scenario } from './types';
 
 export type Severity = 'info' | 'warning' | 'danger';
-export type ElementKind = 'cable' | 'bank' | 'alternator' | 'amplifier' | 'build';
+export type ElementKind = 'cable' | 'bank' | 'alternator' | 'amplifier' | 'capacitor' | 'build';
 
 export type WarningCode =
 	| 'voltage_collapse'
@@ -29,7 +29,9 @@ export type WarningCode =
 	| 'bank_not_secured'
 	| 'flooded_unvented'
 	| 'bank_charge_limited'
-	| 'cable_hot_in_burp';
+	| 'cable_hot_in_burp'
+	| 'capacitor_over_rating'
+	| 'capacitor_burp_share';
 
 export interface ReportWarning {
 	code: WarningCode;
@@ -119,6 +121,25 @@ export interface AlternatorReport {
 	burpMode: 'off' | 'voltage' | 'current';
 }
 
+export interface CapacitorReport {
+	id: string;
+	label: string;
+	farads: number;
+	esrOhm: number;
+	/** The bank's rated voltage: a module's times the modules in series (V). */
+	ratedV: number;
+	/**
+	 * The highest voltage across it at the scenario's steady points: charged at rest before the
+	 * burp (with the time-stepped burp), under music and under the burp (V).
+	 */
+	highestV: number;
+	/** From the time-stepped burp (null without it): lowest terminal voltage, largest current out. */
+	burpMinV: number | null;
+	burpPeakA: number | null;
+	/** Share of the charge the sources delivered in the burp's first 100 ms that this bank carried (0..1). */
+	shareFirst100ms: number | null;
+}
+
 export type BuildReport =
 	| { ok: false; issues: TopologyIssue[] }
 	| {
@@ -133,5 +154,6 @@ export type BuildReport =
 			amplifiers: AmplifierReport[];
 			banks: BankReport[];
 			alternators: AlternatorReport[];
+			capacitors: CapacitorReport[];
 			warnings: ReportWarning[];
 	  };

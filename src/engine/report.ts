@@ -3,6 +3,8 @@ import { alternatorLimitA } from './alternator';
 import { bankChargeTargets, bankThevenin } from './battery';
 import { fixedVoltageBudget } from './budget';
 import { runBurp } from './burp';
+import { capacitorTotals } from './capacitor';
+import { partsOf } from './part-kinds';
 import {
 	ampacityEstimate,
 	cableAreaMm2,
@@ -22,6 +24,7 @@ import type {
 	AlternatorReport,
 	AmplifierReport,
 	BankReport,
+	CapacitorReport,
 	BuildReport,
 	CableReport,
 } from './report-types';
@@ -179,7 +182,31 @@ export function buildReport(
 		burpMode: burp.alternators[i]!.mode,
 	}));
 
+	const capacitors: CapacitorReport[] = partsOf(doc, 'capacitors').map((cap, i) => {
+		const totals = capacitorTotals(cap);
+		const run = burpRun?.capacitors[cap.id];
+		return {
+			id: cap.id,
+			label: cap.label,
+			farads: totals.farads,
+			esrOhm: totals.esrOhm,
+			ratedV: totals.ratedV,
+			highestV: Math.max(
+				run?.startV ?? 0,
+				sustained.capacitors[i]!.terminalV,
+				burp.capacitors[i]!.terminalV,
+			),
+			burpMinV: run?.minV ?? null,
+			burpPeakA: run?.peakA ?? null,
+			shareFirst100ms: run?.shareFirst100ms ?? null,
+		};
+	});
+
 	const warnings = evaluateFindings(ctx, {
+		capacitor: partsOf(doc, 'capacitors').map((part, i) => ({
+			id: part.id,
+			subject: { part, figures: capacitors[i]! },
+		})),
 		build: [{ id: 'build', subject: { part: doc, figures: null } }],
 		cable: doc.cables.map((part, i) => ({ id: part.id, subject: { part, figures: cables[i]! } })),
 		amplifier: doc.amplifiers.map((part, i) => ({
@@ -204,6 +231,7 @@ export function buildReport(
 		amplifiers,
 		banks,
 		alternators,
+		capacitors,
 		warnings,
 	};
 }

@@ -6,6 +6,7 @@ import {
 	chargeAcceptanceA,
 	peukertEffectiveCurrentA,
 } from './battery';
+import { beginCapacitorStep, endCapacitorStep } from './capacitor';
 import { cableAreaMm2 } from './conductors';
 import { ADIABATIC_CONSTANTS } from './heating';
 import {
@@ -126,6 +127,19 @@ export function setBankStates(
 
 const at = (v: Float64Array, i: number) => (i < 0 ? 0 : v[i]!);
 
+/**
+ * Each capacitor bank's voltage before a burp: charged to its terminals' voltage at the operating
+ * point with the amplifiers idle (a capacitor carries no current there but its leakage).
+ */
+export function capacitorRestVoltages(
+	doc: BuildDocument,
+	conditions: { engineRpm: number; conductorTempC: number },
+): number[] {
+	const net = compileNetwork(doc, { ...conditions, demand: 0 });
+	const { v } = solveCompiled(net);
+	return net.capacitors.map((c) => at(v, c.p) - at(v, c.n));
+}
+
 /** The strongest source's terminal voltage: what the system settles at. */
 function busVoltage(net: CompiledNetwork, v: Float64Array): number {
 	let bus = 0;
@@ -182,8 +196,17 @@ export function runSession(
 	/** One step of dt on a network: solve, integrate charge and heat, record. Returns the bus voltage. */
 	const step = (net: CompiledNetwork, dt: number, warm: Float64Array | undefined) => {
 		setBankStates(net, doc.banks, soc);
+		// The capacitor banks' voltages carry from step to step, whichever network the step uses.
+		net.capacitors.forEach((c, k) => (c.vcV = capV[k]!));
+		beginCapacitorStep(net.capacitors, dt);
 		const raw = solveCompiled(net, warm);
 		const v = raw.v;
+		endCapacitorStep(
+			net.capacitors,
+			(k) => at(v, net.capacitors[k]!.p) - at(v, net.capacitors[k]!.n),
+			dt,
+		);
+		net.capacitors.forEach((c, k) => (capV[k] = c.vcV));
 		net.banks.forEach((b, i) => {
 			const [currentA] = bankCurrent(b, at(v, b.p) - at(v, b.n));
 			const bank = doc.banks[i]!;
@@ -211,6 +234,8 @@ export function runSession(
 	setBankStates(restNet, doc.banks, soc);
 	const rested = solveCompiled(restNet);
 	const restingV = busVoltage(restNet, rested.v);
+	// Charged at the resting point before the first burp.
+	const capV = restNet.capacitors.map((c) => at(rested.v, c.p) - at(rested.v, c.n));
 	warmRest = rested.v;
 
 	const out: SessionBurp[] = [];

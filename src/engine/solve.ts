@@ -1,4 +1,5 @@
 import { amplifierDrawCurrent } from './amplifier';
+import { capacitorBranchA, capacitorCurrent } from './capacitor';
 import {
 	alternatorCurrent,
 	bankCurrent,
@@ -66,6 +67,15 @@ export interface IsolatorResult {
 	lossW: number;
 }
 
+export interface CapacitorResult {
+	id: string;
+	terminalV: number;
+	/** Current out of its positive terminal (A): positive discharging; its leakage at a steady point. */
+	currentA: number;
+	/** The capacitor's own voltage behind its series resistance (V). */
+	capacitorV: number;
+}
+
 export interface NetworkSolution {
 	status: 'ok' | 'collapse';
 	/** Node voltages against the chassis (V). */
@@ -75,6 +85,7 @@ export interface NetworkSolution {
 	alternators: AlternatorResult[];
 	amplifiers: AmplifierResult[];
 	loads: LoadResult[];
+	capacitors: CapacitorResult[];
 	/** Every relay and isolator of the document, in its order, open ones too. */
 	isolators: IsolatorResult[];
 	/** When status is 'collapse': the largest fraction of the requested demand with an operating point. */
@@ -131,7 +142,18 @@ export function describeSolution(net: CompiledNetwork, raw: RawSolution): Networ
 		terminalV: v(l.p) - v(l.n),
 		currentA: l.currentA,
 	}));
+	const capacitors = net.capacitors.map((c) => {
+		const terminalV = v(c.p) - v(c.n);
+		const branchA = capacitorBranchA(c, terminalV);
+		return {
+			id: c.id,
+			terminalV,
+			currentA: -capacitorCurrent(c, terminalV)[0],
+			capacitorV: c.gStep > 0 ? terminalV - branchA * c.esrOhm : terminalV,
+		};
+	});
 	const sourcesW =
+		capacitors.reduce((s, c) => s + c.currentA * c.terminalV, 0) +
 		banks.reduce((s, b) => s + b.currentA * b.terminalV, 0) +
 		alternators.reduce((s, a) => s + a.currentA * a.terminalV, 0);
 	const loadsW =
@@ -155,6 +177,7 @@ export function describeSolution(net: CompiledNetwork, raw: RawSolution): Networ
 		alternators,
 		amplifiers,
 		loads,
+		capacitors,
 		isolators,
 		solvedDemandFraction: raw.lambda,
 		iterations: raw.iterations,

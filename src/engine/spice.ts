@@ -35,8 +35,21 @@ export function spiceComment(text: string): string {
 export function toSpiceNetlist(
 	doc: BuildDocument,
 	conditions: SolveConditions,
-	opts: { title?: string; nodeset?: Record<string, number> | 'unloaded'; control?: boolean } = {},
+	opts: {
+		title?: string;
+		nodeset?: Record<string, number> | 'unloaded';
+		control?: boolean;
+		/**
+		 * A transient run instead of an operating point: the burp switched on just after t = 0 (the
+		 * operating point at t = 0 is the network at rest, where the capacitor banks charge), then
+		 * held for `durationS`; `wrdata` writes every node's voltage over time to `file`.
+		 */
+		transient?: { durationS: number; stepS: number; file: string };
+	} = {},
 ): SpiceExport {
+	const tran = opts.transient;
+	/** The burp's demand as a function of time: off at the operating point, on within 1 µs. */
+	const onset = tran ? '*min(time*1e6, 1)' : '';
 	const nodeset = opts.nodeset === 'unloaded' ? spiceNodesetHint(doc, conditions) : opts.nodeset;
 	const net: CompiledNetwork = compileNetwork(doc, conditions);
 	const nodeNames: Record<string, string> = {};
@@ -76,13 +89,13 @@ export function toSpiceNetlist(
 		// Constant power up to the rated voltage; above it an unregulated amplifier's draw grows as
 		// V² (I = P·V/V_rated²) until its stated maximum (constant power again): max(P/V, min(…)).
 		const x = v(a.p, a.n);
-		const constant = `${num(a.powerW)}/${x}`;
+		const constant = `${num(a.powerW)}${onset}/${x}`;
 		if (!Number.isFinite(a.draw.ratedVoltageV))
 			lines.push(`bamp${i + 1} ${name(a.p)} ${name(a.n)} I=${constant}`);
 		else {
-			const growing = `${num(a.powerW / a.draw.ratedVoltageV ** 2)}*${x}`;
+			const growing = `${num(a.powerW / a.draw.ratedVoltageV ** 2)}${onset}*${x}`;
 			const rising = Number.isFinite(a.draw.maxPowerW)
-				? `min(${growing}, ${num(a.draw.maxPowerW)}/${x})`
+				? `min(${growing}, ${num(a.draw.maxPowerW)}${onset}/${x})`
 				: growing;
 			lines.push(`bamp${i + 1} ${name(a.p)} ${name(a.n)} I=max(${constant}, ${rising})`);
 		}
@@ -90,6 +103,16 @@ export function toSpiceNetlist(
 	net.loads.forEach((l, i) =>
 		lines.push(`iload${i + 1} ${name(l.p)} ${name(l.n)} DC ${num(l.currentA)}`),
 	);
+	// A capacitor bank: its leakage across the terminals; in a transient run the capacitor itself
+	// behind its series resistance (an internal node of its own).
+	net.capacitors.forEach((c, i) => {
+		if (c.gLeak > 0) lines.push(`rleak${i + 1} ${name(c.p)} ${name(c.n)} ${num(1 / c.gLeak)}`);
+		if (!tran) return;
+		lines.push(
+			`resr${i + 1} ${name(c.p)} cap${i + 1} ${num(c.esrOhm)}`,
+			`ccap${i + 1} cap${i + 1} ${name(c.n)} ${num(c.farads)}`,
+		);
+	});
 	// A closed relay is a resistor; a diode isolator conducts past its drop through its slope
 	// resistance: I = max(V − Vf, 0)/R, the engine's piecewise-linear law. An open one is left out.
 	net.isolators.forEach((x, i) =>
@@ -110,7 +133,17 @@ export function toSpiceNetlist(
 		);
 	}
 	lines.push('.options reltol=1e-9 vntol=1e-12 abstol=1e-9 gmin=1e-15 itl1=500');
-	if (opts.control !== false) {
+	if (tran) {
+		lines.push(
+			'.control',
+			'set numdgt=15',
+			'set wr_singlescale',
+			'set wr_vecnames',
+			`tran ${num(tran.stepS)} ${num(tran.durationS)} 0 ${num(tran.stepS)}`,
+			`wrdata ${tran.file} ${net.nodeIds.map((_, i) => `v(${name(i)})`).join(' ')}`,
+			'.endc',
+		);
+	} else if (opts.control !== false) {
 		lines.push('.control', 'set numdgt=15', 'op');
 		const vec = [
 			...net.nodeIds.map((_, i) => `v(${name(i)})`),

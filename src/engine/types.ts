@@ -187,6 +187,29 @@ export interface Isolator {
 }
 
 /**
+ * A bank of capacitor modules (`inSeries` modules per string, `inParallel` strings) beside the
+ * amplifiers: it carries the first tens of milliseconds of a burp. At a steady operating point
+ * only its leakage flows; through the time-stepped burp and the session it discharges and
+ * recharges through its equivalent series resistance.
+ */
+export interface CapacitorBank {
+	id: string;
+	label: string;
+	positive: string;
+	negative: string;
+	/** One module's capacitance (F). */
+	moduleFarads: number;
+	/** One module's equivalent series resistance (Ω). */
+	moduleEsrOhm: number;
+	/** One module's rated (surge-free working) voltage (V). */
+	moduleRatedV: number;
+	/** One module's leakage current at its rated voltage (A); 0 for none. */
+	moduleLeakageA: number;
+	inSeries: number;
+	inParallel: number;
+}
+
+/**
  * The part groups of a build document, listed once: the diff, the merge, the topology check, the
  * document schema and the editor all read this list.
  */
@@ -198,6 +221,7 @@ export const PART_GROUPS = [
 	'loads',
 	'cables',
 	'isolators',
+	'capacitors',
 ] as const;
 export type PartGroup = (typeof PART_GROUPS)[number];
 
@@ -211,6 +235,8 @@ export interface BuildDocument {
 	cables: Cable[];
 	/** Relays and isolators; absent in documents saved before they existed (read as none). */
 	isolators?: Isolator[];
+	/** Capacitor banks; absent in documents saved before they existed (read as none). */
+	capacitors?: CapacitorBank[];
 }
 
 /** What the team asks the engine: operating conditions for a report. */

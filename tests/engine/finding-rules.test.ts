@@ -24,6 +24,8 @@ const EVERY_CODE = {
 	flooded_unvented: true,
 	bank_charge_limited: true,
 	cable_hot_in_burp: true,
+	capacitor_over_rating: true,
+	capacitor_burp_share: true,
 } satisfies Record<WarningCode, true>;
 
 describe('the findings table', () => {

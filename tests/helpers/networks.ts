@@ -7,6 +7,7 @@ import type {
 	BuildNode,
 	Cable,
 	CableSize,
+	CapacitorBank,
 	Isolator,
 	SteadyLoad,
 } from '../../src/engine/types';
@@ -311,6 +312,33 @@ export function withIsolatedRear(
 		isolators: [
 			...(d.isolators ?? []),
 			{ id: 'iso', label: 'Rear isolator', from: first.positive, to: 'rear_pos', ...iso },
+		],
+	};
+}
+
+/** The document with a capacitor bank across its first amplifier's terminals. */
+export function withCapacitorBank(
+	d: BuildDocument,
+	over: Partial<CapacitorBank> = {},
+): BuildDocument {
+	const amp = d.amplifiers[0]!;
+	return {
+		...d,
+		capacitors: [
+			...(d.capacitors ?? []),
+			{
+				id: 'cap',
+				label: 'Capacitor bank',
+				positive: amp.positive,
+				negative: amp.negative,
+				moduleFarads: 500,
+				moduleEsrOhm: 0.0008,
+				moduleRatedV: 2.7,
+				moduleLeakageA: 0.003,
+				inSeries: 6,
+				inParallel: 1,
+				...over,
+			},
 		],
 	};
 }

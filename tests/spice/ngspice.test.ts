@@ -8,7 +8,9 @@ import { solveNetwork } from '../../src/engine/solve';
 import { toSpiceNetlist } from '../../src/engine/spice';
 import type { BuildDocument } from '../../src/engine/types';
 import { syntheticNetwork } from '../bench/fixtures';
-import { randomNetwork, rng, withIsolatedRear } from '../helpers/networks';
+import { randomNetwork, rng, withCapacitorBank, withIsolatedRear } from '../helpers/networks';
+import { runBurp } from '../../src/engine/burp';
+import { readFileSync } from 'node:fs';
 
 // Cross-check against a general-purpose circuit simulator: Debian's ngspice solves the DC
 // operating point of the same netlist the engine exports.
@@ -148,6 +150,87 @@ describe.runIf(available)('engine against ngspice', () => {
 		// The cases must exercise the isolator, not only leave it open.
 		expect(conducting).toBeGreaterThanOrEqual(8);
 	});
+
+	// The transient analysis (.tran) of the same netlist with each capacitor bank as a capacitor
+	// behind its series resistance: the burp switches on just after an operating point at rest,
+	// where the capacitors charge; node voltages through the burp within 1e-3 relative.
+	it('agrees through a burp on 12 generated networks with a capacitor bank (transient)', () => {
+		const durationS = 0.3;
+		const stepS = 0.001;
+		let compared = 0;
+		for (let k = 1; k <= 12; k++) {
+			const r = rng(7000 + k);
+			const doc = withCapacitorBank(randomNetwork(6000 + k * 29), {
+				moduleFarads: r.between(50, 600),
+				moduleEsrOhm: r.between(0.0003, 0.003),
+				moduleRatedV: 2.7,
+				inSeries: 6,
+				inParallel: r.int(1, 3),
+			});
+			const conditions = {
+				engineRpm: k % 3 === 0 ? 0 : 1800,
+				demand: 1,
+				conductorTempC: 25,
+			};
+			const run = runBurp(doc, { ...conditions, durationS, stepS });
+			if (run.collapsedAtS !== null) continue;
+			const file = path.join(dir, `tran_${k}.dat`);
+			const ex = toSpiceNetlist(doc, conditions, {
+				title: `tran_${k}`,
+				nodeset: 'unloaded',
+				transient: { durationS, stepS, file },
+			});
+			runNgspice(ex.netlist, `tran_${k}`);
+			const [header, ...rows] = readFileSync(file, 'utf8').trim().split('\n');
+			const names = header!.trim().split(/\s+/);
+			const table = rows.map((line) => line.trim().split(/\s+/).map(Number));
+			const column = (node: string) => (node === '0' ? -1 : names.indexOf(`v(${node})`));
+			/** ngspice's value of a column at time t, linear between its own time points. */
+			const at = (col: number, t: number) => {
+				if (col < 0) return 0;
+				let i = table.findIndex((row) => row[0]! >= t);
+				if (i <= 0) i = Math.max(1, i < 0 ? table.length - 1 : 1);
+				const [a, b] = [table[i - 1]!, table[i]!];
+				const w = b[0]! === a[0]! ? 1 : (t - a[0]!) / (b[0]! - a[0]!);
+				return a[col]! + w * (b[col]! - a[col]!);
+			};
+			const mismatches: string[] = [];
+			doc.banks.forEach((b) => {
+				const p = column(ex.nodeNames[b.positive]!);
+				const n = column(ex.nodeNames[b.negative]!);
+				run.timeS.forEach((t, i) => {
+					const engine = run.bankV[b.id]![i]!;
+					const spice = at(p, t) - at(n, t);
+					if (Math.abs(engine - spice) > 1e-3 * Math.abs(spice))
+						mismatches.push(`bank ${b.id} at ${t}s: engine ${engine} vs ngspice ${spice}`);
+				});
+			});
+			const a = doc.amplifiers[0]!;
+			const ap = column(ex.nodeNames[a.positive]!);
+			const an = column(ex.nodeNames[a.negative]!);
+			const lowest = run.timeS.map((t) =>
+				Math.min(
+					...doc.amplifiers.map(
+						(x) =>
+							at(column(ex.nodeNames[x.positive]!), t) - at(column(ex.nodeNames[x.negative]!), t),
+					),
+				),
+			);
+			run.timeS.forEach((t, i) => {
+				if (Math.abs(run.minAmplifierV[i]! - lowest[i]!) > 1e-3 * Math.abs(lowest[i]!))
+					mismatches.push(
+						`lowest amplifier at ${t}s: engine ${run.minAmplifierV[i]} vs ngspice ${lowest[i]}`,
+					);
+			});
+			// The capacitor does carry the start of the burp: its terminal moves over the run.
+			expect(
+				Math.abs(at(ap, stepS) - at(an, stepS) - (at(ap, durationS) - at(an, durationS))),
+			).toBeGreaterThan(1e-3);
+			expect(mismatches.slice(0, 5), `tran_${k}`).toEqual([]);
+			compared++;
+		}
+		expect(compared).toBeGreaterThanOrEqual(10);
+	}, 120_000);
 
 	it('reads the export of a 1,000-cable network whole, and agrees on every node and cable', () => {
 		const doc = syntheticNetwork(1000);

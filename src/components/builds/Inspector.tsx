@@ -113,6 +113,22 @@ export const INSPECTOR_FIGURES: Record<PartGroup, Figures> = {
 		);
 		return rows;
 	},
+	capacitors: (id, report) => {
+		const c = report.capacitors.find((x) => x.id === id);
+		if (!c) return [];
+		return [
+			['Capacitance', `${fmt(c.farads, c.farads < 10 ? 2 : 0)} F`],
+			['Series resistance', `${fmt(c.esrOhm * 1000, 2)} mΩ`],
+			['Rated voltage', `${fmt(c.ratedV, 1)} V`],
+			['Highest voltage across it', `${fmt(c.highestV)} V`],
+			['Lowest in the burp', c.burpMinV === null ? '—' : `${fmt(c.burpMinV)} V`],
+			['Largest current out', c.burpPeakA === null ? '—' : `${fmt(c.burpPeakA, 0)} A`],
+			[
+				'Share of the first 100 ms',
+				c.shareFirst100ms === null ? '—' : `${fmt(c.shareFirst100ms * 100, 0)} %`,
+			],
+		];
+	},
 	isolators: (id, report, doc) => {
 		const part = partsOf(doc, 'isolators').find((x) => x.id === id);
 		const k = partsOf(doc, 'isolators').findIndex((x) => x.id === id);

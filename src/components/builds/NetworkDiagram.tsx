@@ -3,6 +3,7 @@ import {
 	cableAreaMm2,
 	partsOf,
 	PART_KINDS,
+	type TERMINAL_GROUPS,
 	type BuildDocument,
 	type NodeKind,
 	type PartGroup,
@@ -69,7 +70,7 @@ interface Part {
 	label: string;
 	positive: string;
 	negative: string;
-	group: 'banks' | 'alternators' | 'amplifiers' | 'loads';
+	group: (typeof TERMINAL_GROUPS)[number];
 }
 
 interface Column {
@@ -106,6 +107,7 @@ export function layoutNetwork(doc: BuildDocument) {
 	const parts: Part[] = [
 		...doc.alternators.map((p) => ({ ...p, group: 'alternators' as const })),
 		...doc.banks.map((p) => ({ ...p, group: 'banks' as const })),
+		...partsOf(doc, 'capacitors').map((p) => ({ ...p, group: 'capacitors' as const })),
 		...doc.loads.map((p) => ({ ...p, group: 'loads' as const })),
 		...doc.amplifiers.map((p) => ({ ...p, group: 'amplifiers' as const })),
 	];

@@ -8,6 +8,7 @@ import {
 	type Amplifier,
 	type BatteryBank,
 	type BuildNode,
+	type CapacitorBank,
 	type Isolator,
 	type SteadyLoad,
 } from '@/engine/browser';
@@ -380,5 +381,36 @@ export function isolatorColumns(nodes: Opt): PartColumn<Isolator>[] {
 				set: (x, v) => ({ ...x, forwardDropV: num(v) }),
 			},
 		},
+	];
+}
+
+export function capacitorColumns(nodes: Opt): PartColumn<CapacitorBank>[] {
+	const field = (
+		id: keyof CapacitorBank,
+		header: string,
+		unit: string | undefined,
+		scale = 1,
+		step = 'any',
+	): PartColumn<CapacitorBank> => ({
+		id,
+		header,
+		unit,
+		errorPath: id,
+		cell: {
+			kind: 'number',
+			step,
+			get: (c) => (c[id] as number) * scale,
+			set: (c, v) => ({ ...c, [id]: num(v) / scale }),
+		},
+	});
+	return [
+		label('Capacitor bank'),
+		...terminals<CapacitorBank>(nodes),
+		field('inSeries', 'Modules in series', undefined, 1, '1'),
+		field('inParallel', 'Strings', undefined, 1, '1'),
+		field('moduleFarads', 'Capacitance per module', 'F'),
+		field('moduleEsrOhm', 'Series resistance per module', 'mΩ', 1000),
+		field('moduleRatedV', 'Rated voltage per module', 'V'),
+		field('moduleLeakageA', 'Leakage per module', 'mA', 1000),
 	];
 }

@@ -12,6 +12,7 @@ import type {
 	BuildDocument,
 	BuildNode,
 	Cable,
+	CapacitorBank,
 	Isolator,
 	SteadyLoad,
 } from '@/engine/browser';
@@ -98,6 +99,20 @@ export const newIsolator = (doc: BuildDocument): Isolator => ({
 	closes: 'engine_running',
 	closedResistanceOhm: 0.0005,
 	forwardDropV: 0,
+});
+
+/** A capacitor bank of one module on a new node beside the amplifiers (plain product defaults). */
+export const newCapacitor = (doc: BuildDocument): CapacitorBank => ({
+	id: freshId(doc, 'cap'),
+	label: 'New capacitor bank',
+	positive: firstOf(doc, 'amplifier'),
+	negative: chassisOf(doc),
+	moduleFarads: 100,
+	moduleEsrOhm: 0.001,
+	moduleRatedV: 16,
+	moduleLeakageA: 0.005,
+	inSeries: 1,
+	inParallel: 1,
 });
 
 /** A starting point for a vehicle with no revision yet: one battery, one amplifier, wired. */

@@ -5,6 +5,7 @@ import {
 	amplifierColumns,
 	bankColumns,
 	cableColumns,
+	capacitorColumns,
 	isolatorColumns,
 	loadColumns,
 	nodeColumns,
@@ -14,6 +15,7 @@ import {
 	newAmplifier,
 	newBank,
 	newCable,
+	newCapacitor,
 	newIsolator,
 	newLoad,
 	newNode,
@@ -130,6 +132,18 @@ export const UI_PART_KINDS: { [G in PartGroup]: UiPartKind<G> } = {
 		suggest: (d) => ({ from: batteryOf(d), to: NEW_NODE }),
 		glyph: { shape: 'arc', dash: '2 5' },
 	},
+	capacitors: {
+		columns: (nodes) => capacitorColumns(nodes),
+		make: newCapacitor,
+		ends: TERMINALS('Positive terminal', 'Negative terminal'),
+		newNodeKind: 'block',
+		// Beside the amplifiers: on their positive node, to the chassis.
+		suggest: (d) => ({
+			positive: byKind(d, 'amplifier') ?? byKind(d, 'block') ?? NEW_NODE,
+			negative: chassisOf(d),
+		}),
+		glyph: { shape: 'box', colour: '#6b4c9a' },
+	},
 };
 
 /** The part tables' order on the page: the wiring first, the nodes last. */
@@ -137,6 +151,7 @@ export const EDITOR_ORDER: readonly PartGroup[] = [
 	'cables',
 	'isolators',
 	'banks',
+	'capacitors',
 	'alternators',
 	'amplifiers',
 	'loads',
