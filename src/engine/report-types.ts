@@ -133,8 +133,7 @@ export interface CapacitorReport {
 	 * burp (with the time-stepped burp), under music and under the burp (V).
 	 */
 	highestV: number;
-	/** From the time-stepped burp (null without it): lowest terminal voltage, largest current out. */
-	burpMinV: number | null;
+	/** The largest current out of it as the burp starts (A); null when the burp had no step. */
 	burpPeakA: number | null;
 	/** Share of the charge the sources delivered in the burp's first 100 ms that this bank carried (0..1). */
 	shareFirst100ms: number | null;

@@ -58,4 +58,32 @@ describe('adding the newer kinds of part through the add-part form, in chromium'
 			await b.page.keyboard.press('Escape');
 			expect(b.problems).toEqual([]);
 		});
+
+	it('a member adds a capacitor bank beside the amplifier and sees its share of the burp', async () => {
+		const b = await openBrowser({ viewport: { width: 1366, height: 900 } });
+		opened.push(b);
+		await openPebble(b);
+		await b.page.getByRole('button', { name: '+ Add to capacitor banks' }).click();
+		const form = b.page.getByRole('form', { name: 'Add a capacitor bank' });
+		await form.getByLabel('Name').fill('Door caps');
+		// Suggested beside the amplifiers, to the chassis.
+		await expect(form.getByLabel('Positive terminal').inputValue()).resolves.not.toBe('__new__');
+		await form.getByRole('button', { name: 'Add the capacitor bank' }).click();
+		await form.waitFor({ state: 'detached' });
+		const series = b.page.getByLabel('Door caps: Modules in series');
+		await expect.poll(() => series.inputValue()).toBe('1');
+		// One 16 V module under a 14.4 V regulator is inside its rating; six 2.7 V ones in series too.
+		await b.page.getByLabel('Door caps: Rated voltage per module').fill('2.7');
+		await series.fill('6');
+		await b.page.getByRole('button', { name: 'Door caps', exact: true }).click();
+		const inspector = b.page.locator('[data-inspector]');
+		await inspector.waitFor();
+		await expect.poll(() => inspector.textContent()).toMatch(/Rated voltage16\.2 V/);
+		await expect(inspector.textContent()).resolves.toMatch(/Share of the first 100 ms\d+ %/);
+		await b.screenshot('part-kinds-capacitor-1366');
+		// Five modules are 13.5 V: under the charging voltage, a danger finding on the part.
+		await b.page.getByLabel('Inspector · Door caps: Modules in series').fill('5');
+		await expect.poll(() => inspector.textContent()).toMatch(/above its rating of 13\.50 V/);
+		expect(b.problems).toEqual([]);
+	});
 });

@@ -121,7 +121,6 @@ export const INSPECTOR_FIGURES: Record<PartGroup, Figures> = {
 			['Series resistance', `${fmt(c.esrOhm * 1000, 2)} mΩ`],
 			['Rated voltage', `${fmt(c.ratedV, 1)} V`],
 			['Highest voltage across it', `${fmt(c.highestV)} V`],
-			['Lowest in the burp', c.burpMinV === null ? '—' : `${fmt(c.burpMinV)} V`],
 			['Largest current out', c.burpPeakA === null ? '—' : `${fmt(c.burpPeakA, 0)} A`],
 			[
 				'Share of the first 100 ms',
