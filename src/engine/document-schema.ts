@@ -138,6 +138,19 @@ export const capacitorBankSchema = z.object({
 	inParallel: whole('Strings is a whole number', [1, 'At least one'], [20, 'At most 20']),
 });
 
+export const dcDcChargerSchema = z.object({
+	id,
+	label,
+	from: id,
+	to: id,
+	targetV: positive('Target voltage', 20, 'Target voltage above 20 V is outside a 12–16 V system'),
+	maxOutputA: positive('Output limit', 500, 'Output limit above 500 A is not plausible'),
+	efficiency: positive('Efficiency', 1, 'Efficiency is at most 1 (100 %)'),
+	runs: z.enum(ISOLATOR_STATES, {
+		error: 'It runs with the engine running ("engine_running"), "always" or never ("open")',
+	}),
+});
+
 export const isolatorSchema = z.object({
 	id,
 	label,
@@ -321,6 +334,7 @@ const looseBuildSchema = z.object({
 	cables: listOf('cables', cableSchema),
 	isolators: z.optional(listOf('isolators', isolatorSchema)),
 	capacitors: z.optional(listOf('capacitors', capacitorBankSchema)),
+	chargers: z.optional(listOf('chargers', dcDcChargerSchema)),
 });
 
 /**

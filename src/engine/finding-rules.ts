@@ -10,6 +10,7 @@ import type {
 	BuildDocument,
 	Cable,
 	CapacitorBank,
+	DcDcCharger,
 	Fuse,
 	Scenario,
 } from './types';
@@ -20,6 +21,7 @@ import type {
 	BankReport,
 	CableReport,
 	CapacitorReport,
+	ChargerReport,
 	ReportWarning,
 	Severity,
 	WarningCode,
@@ -49,6 +51,7 @@ interface Subjects {
 	bank: { part: BatteryBank; figures: BankReport };
 	alternator: { part: Alternator; figures: AlternatorReport };
 	capacitor: { part: CapacitorBank; figures: CapacitorReport };
+	charger: { part: DcDcCharger; figures: ChargerReport };
 	build: { part: BuildDocument; figures: null };
 }
 export type RuleSubject = keyof Subjects;
@@ -354,6 +357,19 @@ export const FINDING_RULES = [
 						`Capacitor bank "${part.label}" carries ${fmt(f.shareFirst100ms * 100, 0)} % of what the sources deliver in the first 100 ms of the burp (up to ${fmt(f.burpPeakA, 0)} A); the banks and alternators carry the rest and all of what follows.`,
 					],
 	}),
+	rule({
+		code: 'charger_at_limit',
+		severity: 'info',
+		safety: false,
+		about: 'charger',
+		reads: ['atLimit', 'limitA', 'outputV', 'inputA'],
+		test: ({ part, figures: f }) =>
+			when(
+				f.atLimit,
+				() =>
+					`DC-DC charger "${part.label}" runs at its limit of ${fmt(f.limitA, 0)} A under sustained music (its output at ${fmt(f.outputV)} V, drawing ${fmt(f.inputA, 0)} A from its input): the bank behind it charges no faster than that.`,
+			),
+	}),
 ] as const satisfies readonly AnyFindingRule[];
 
 /** The parts of one kind a report holds, each with its id and what its rules read. */
@@ -370,12 +386,21 @@ const RULES_BY_SUBJECT = {
 	bank: rulesAbout('bank'),
 	alternator: rulesAbout('alternator'),
 	capacitor: rulesAbout('capacitor'),
+	charger: rulesAbout('charger'),
 } satisfies Record<RuleSubject, AnyFindingRule[]>;
 
 /** Every finding, part by part (the build's own first), each part's in the table's order. */
 export function evaluateFindings(ctx: FindingContext, subjects: FindingSubjects): ReportWarning[] {
 	const warnings: ReportWarning[] = [];
-	for (const about of ['build', 'cable', 'amplifier', 'bank', 'alternator', 'capacitor'] as const) {
+	for (const about of [
+		'build',
+		'cable',
+		'amplifier',
+		'bank',
+		'alternator',
+		'capacitor',
+		'charger',
+	] as const) {
 		const rules = RULES_BY_SUBJECT[about] as FindingRule<typeof about>[];
 		for (const { id, subject } of subjects[about] as Array<{ id: string; subject: never }>)
 			for (const r of rules)

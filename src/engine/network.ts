@@ -92,6 +92,17 @@ export interface CompiledNetwork {
 	isolators: Array<TwoTerminal & { id: string; g: number; dropV: number; diode: boolean }>;
 	/** Capacitor banks: open but for their leakage at a steady point; companion branches in a step. */
 	capacitors: Array<TwoTerminal & CompiledCapacitor>;
+	/**
+	 * DC-DC chargers: the output a source toward its target up to its limit (as an alternator is;
+	 * limit 0 while it does not run), the input a constant-power draw of the output power over the
+	 * efficiency, settled by `solveCompiled`'s outer iteration.
+	 */
+	chargers: Array<{
+		id: string;
+		efficiency: number;
+		output: TwoTerminal & { id: string; setPointV: number; resistanceOhm: number; limitA: number };
+		input: TwoTerminal & { powerW: number; draw: AmplifierDraw };
+	}>;
 	/** Every isolator's id and node indices (from, to), open ones too: what results report. */
 	isolatorIds: string[];
 	isolatorEnds: Array<readonly [number, number]>;
@@ -208,7 +219,29 @@ export function compileNetwork(
 		n: at(c.negative, `capacitors.${k}.negative`),
 		...NO_SLOTS,
 	}));
+	const chassisIndex = -1;
+	const chargers = partsOf(doc, 'chargers').map((c, k) => ({
+		id: c.id,
+		efficiency: c.efficiency,
+		output: {
+			id: c.id,
+			p: at(c.to, `chargers.${k}.to`),
+			n: chassisIndex,
+			...NO_SLOTS,
+			setPointV: c.targetV,
+			resistanceOhm: CHARGER_SOURCE_OHM,
+			limitA: conducts({ closes: c.runs }, conditions.engineRpm) ? c.maxOutputA : 0,
+		},
+		input: {
+			p: at(c.from, `chargers.${k}.from`),
+			n: chassisIndex,
+			...NO_SLOTS,
+			powerW: 0,
+			draw: { powerW: 0, ratedVoltageV: Infinity, maxPowerW: Infinity },
+		},
+	}));
 	const elements: TwoTerminal[] = [
+		...chargers.flatMap((c) => [c.output, c.input]),
 		...capacitors,
 		...cables,
 		...banks,
@@ -230,7 +263,7 @@ export function compileNetwork(
 		e.snn = system.slot(e.n, e.n);
 		e.spn = e.p === e.n ? -1 : system.slot(e.p, e.n);
 	}
-	const modeCount = banks.length + alternators.length + isolators.length;
+	const modeCount = banks.length + alternators.length + isolators.length + chargers.length;
 	return {
 		nodeIds,
 		index,
@@ -241,6 +274,7 @@ export function compileNetwork(
 		loads,
 		isolators,
 		capacitors,
+		chargers,
 		isolatorIds: allIsolators.map((x) => x.id),
 		isolatorEnds,
 		nominalV,
@@ -258,6 +292,9 @@ export function compileNetwork(
 }
 
 const NO_SLOTS = { spp: -1, snn: -1, spn: -1 };
+
+/** A DC-DC charger's output stiffness in voltage mode (Ω): small, as a regulator's. */
+export const CHARGER_SOURCE_OHM = 0.001;
 
 /** Whether a relay or isolator is closed at this engine speed (0 = engine off). */
 export function conducts(x: Pick<Isolator, 'closes'>, engineRpm: number): boolean {
@@ -373,6 +410,20 @@ function assemble(net: CompiledNetwork, v: Float64Array, lambda: number) {
 		const [i, di] = capacitorCurrent(c, volt(v, c.p) - volt(v, c.n));
 		stamp(f, j, c, i, di);
 	}
+	for (const { output, input } of net.chargers) {
+		const x = volt(v, output.p) - volt(v, output.n);
+		const [i, di] = alternatorCurrent(output, x);
+		stamp(f, j, output, -i, -di);
+		work.modes[m++] = alternatorMode(output, x);
+		if (input.powerW > 0) {
+			const [ii, dii] = amplifierDrawCurrent(
+				input.draw,
+				volt(v, input.p) - volt(v, input.n),
+				lambda,
+			);
+			stamp(f, j, input, ii, dii);
+		}
+	}
 	for (const x of net.isolators) {
 		const vx = volt(v, x.p) - volt(v, x.n);
 		const [i, di] = isolatorCurrent(vx, x);
@@ -431,6 +482,21 @@ function coContent(net: CompiledNetwork, v: Float64Array, lambda: number, floorV
 	for (const c of net.capacitors) {
 		const x = volt(v, c.p) - volt(v, c.n);
 		e += 0.5 * c.gLeak * x * x + 0.5 * c.gStep * (x - c.vcV) ** 2;
+	}
+	for (const { output: a, input } of net.chargers) {
+		if (a.limitA > 0) {
+			const x = volt(v, a.p) - volt(v, a.n);
+			const knee = a.setPointV - a.resistanceOhm * a.limitA;
+			if (x < a.setPointV)
+				e +=
+					x > knee
+						? (x - a.setPointV) ** 2 / (2 * a.resistanceOhm)
+						: (a.resistanceOhm * a.limitA ** 2) / 2 - a.limitA * (x - knee);
+		}
+		if (lambda * input.powerW === 0) continue;
+		const x = volt(v, input.p) - volt(v, input.n);
+		if (x < floorV) return Number.POSITIVE_INFINITY;
+		e += amplifierDrawCoContent(input.draw, x, lambda);
 	}
 	for (const x of net.isolators) {
 		const over = volt(v, x.p) - volt(v, x.n) - x.dropV;
@@ -618,6 +684,10 @@ function dischargeGuess(net: CompiledNetwork, lambda: number): Float64Array | nu
 		stampG(c, c.gLeak + c.gStep);
 		inject(c, c.gStep * c.vcV);
 	}
+	for (const { output, input } of net.chargers) {
+		inject(output, output.limitA);
+		stampG(input, (lambda * input.powerW) / (vRef * vRef));
+	}
 	// A diode taken as conducting: its conductance, and its drop as a source pushing back.
 	for (const x of net.isolators) {
 		stampG(x, x.g);
@@ -640,7 +710,7 @@ function minAmplifierVoltage(net: CompiledNetwork, v: Float64Array): number {
  * operating point the demand is ramped from zero (continuation) to find the largest fraction that
  * still has one: the voltage-collapse point.
  */
-export function solveCompiled(net: CompiledNetwork, start?: Float64Array): RawSolution {
+function solveOnce(net: CompiledNetwork, start?: Float64Array): RawSolution {
 	const n = net.nodeIds.length;
 	let iterations = 0;
 	const attempt = (
@@ -721,4 +791,30 @@ export function solveCompiled(net: CompiledNetwork, start?: Float64Array): RawSo
 		}
 	}
 	return { v, lambda, collapsed: lambda < 1, iterations, residualA };
+}
+
+/** Largest change in a charger's input power (W, relative to it) the outer iteration accepts. */
+const CHARGER_POWER_TOL = 1e-10;
+
+/**
+ * Solves the compiled network (see `solveOnce`). A DC-DC charger couples its input to its output,
+ * which the symmetric nodal system cannot hold: its input is a constant-power draw of the last
+ * solution's output power over the efficiency, and the network is solved again until that power
+ * stops changing (a fixed point; the output barely depends on the input, so a few rounds do).
+ */
+export function solveCompiled(net: CompiledNetwork, start?: Float64Array): RawSolution {
+	let raw = solveOnce(net, start);
+	for (let round = 0; round < 50 && net.chargers.length > 0; round++) {
+		let change = 0;
+		for (const { output, input, efficiency } of net.chargers) {
+			const x = volt(raw.v, output.p) - volt(raw.v, output.n);
+			const powerW = (Math.max(0, alternatorCurrent(output, x)[0]) * x) / efficiency;
+			change = Math.max(change, Math.abs(powerW - input.powerW) / Math.max(1, powerW));
+			input.powerW = powerW;
+			input.draw.powerW = powerW;
+		}
+		if (change <= CHARGER_POWER_TOL) break;
+		raw = solveOnce(net, raw.v);
+	}
+	return raw;
 }

@@ -107,6 +107,17 @@ export const PART_KINDS = {
 		source: false,
 		most: 20,
 	},
+	chargers: {
+		one: 'DC-DC charger',
+		many: 'DC-DC chargers',
+		idPrefix: 'dcdc',
+		element: 'charger',
+		ends: 'link',
+		// It moves energy from one side to the other through its converter, not along a wire.
+		conducts: false,
+		source: false,
+		most: 8,
+	},
 } as const satisfies Record<PartGroup, PartKindFacts>;
 
 /** The parts of one group (a group a document predates reads as empty). */
@@ -141,7 +152,7 @@ export const TERMINAL_GROUPS = groupsWith('terminals') as ReadonlyArray<
 	'alternators' | 'banks' | 'amplifiers' | 'loads' | 'capacitors'
 >;
 /** The groups whose parts join two nodes. */
-export const LINK_GROUPS = groupsWith('link') as ReadonlyArray<'cables' | 'isolators'>;
+export const LINK_GROUPS = groupsWith('link') as ReadonlyArray<'cables' | 'isolators' | 'chargers'>;
 
 /** Every part of the document that has terminals, with its group. */
 export function terminalParts(doc: BuildDocument): Array<[PartGroup, TerminalPart[]]> {

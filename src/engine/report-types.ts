@@ -9,7 +9,8 @@ import type { TopologyIssue } from './topology';
 import type { Scenario } from './types';
 
 export type Severity = 'info' | 'warning' | 'danger';
-export type ElementKind = 'cable' | 'bank' | 'alternator' | 'amplifier' | 'capacitor' | 'build';
+export type ElementKind =
+	'cable' | 'bank' | 'alternator' | 'amplifier' | 'capacitor' | 'charger' | 'build';
 
 export type WarningCode =
 	| 'voltage_collapse'
@@ -31,7 +32,8 @@ export type WarningCode =
 	| 'bank_charge_limited'
 	| 'cable_hot_in_burp'
 	| 'capacitor_over_rating'
-	| 'capacitor_burp_share';
+	| 'capacitor_burp_share'
+	| 'charger_at_limit';
 
 export interface ReportWarning {
 	code: WarningCode;
@@ -139,6 +141,19 @@ export interface CapacitorReport {
 	shareFirst100ms: number | null;
 }
 
+/** A DC-DC charger under sustained music (what it does for the auxiliary bank between burps). */
+export interface ChargerReport {
+	id: string;
+	label: string;
+	running: boolean;
+	limitA: number;
+	outputA: number;
+	outputV: number;
+	inputA: number;
+	inputV: number;
+	atLimit: boolean;
+}
+
 export type BuildReport =
 	| { ok: false; issues: TopologyIssue[] }
 	| {
@@ -154,5 +169,6 @@ export type BuildReport =
 			banks: BankReport[];
 			alternators: AlternatorReport[];
 			capacitors: CapacitorReport[];
+			chargers: ChargerReport[];
 			warnings: ReportWarning[];
 	  };

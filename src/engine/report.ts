@@ -25,6 +25,7 @@ import type {
 	AmplifierReport,
 	BankReport,
 	CapacitorReport,
+	ChargerReport,
 	BuildReport,
 	CableReport,
 } from './report-types';
@@ -214,7 +215,26 @@ export function buildReport(
 		};
 	});
 
+	const chargers: ChargerReport[] = partsOf(doc, 'chargers').map((part, i) => {
+		const r = sustained.chargers[i]!;
+		return {
+			id: part.id,
+			label: part.label,
+			running: r.running,
+			limitA: part.maxOutputA,
+			outputA: r.outputA,
+			outputV: r.outputV,
+			inputA: r.inputA,
+			inputV: r.inputV,
+			atLimit: sustained.status === 'ok' && r.atLimit,
+		};
+	});
+
 	const warnings = evaluateFindings(ctx, {
+		charger: partsOf(doc, 'chargers').map((part, i) => ({
+			id: part.id,
+			subject: { part, figures: chargers[i]! },
+		})),
 		capacitor: partsOf(doc, 'capacitors').map((part, i) => ({
 			id: part.id,
 			subject: { part, figures: capacitors[i]! },
@@ -244,6 +264,7 @@ export function buildReport(
 		banks,
 		alternators,
 		capacitors,
+		chargers,
 		warnings,
 	};
 }

@@ -76,6 +76,18 @@ export interface CapacitorResult {
 	capacitorV: number;
 }
 
+export interface ChargerResult {
+	id: string;
+	/** It runs under these conditions. */
+	running: boolean;
+	outputA: number;
+	outputV: number;
+	inputA: number;
+	inputV: number;
+	/** It delivers its whole output limit: what it charges is bounded by the charger. */
+	atLimit: boolean;
+}
+
 export interface NetworkSolution {
 	status: 'ok' | 'collapse';
 	/** Node voltages against the chassis (V). */
@@ -86,6 +98,7 @@ export interface NetworkSolution {
 	amplifiers: AmplifierResult[];
 	loads: LoadResult[];
 	capacitors: CapacitorResult[];
+	chargers: ChargerResult[];
 	/** Every relay and isolator of the document, in its order, open ones too. */
 	isolators: IsolatorResult[];
 	/** When status is 'collapse': the largest fraction of the requested demand with an operating point. */
@@ -152,11 +165,28 @@ export function describeSolution(net: CompiledNetwork, raw: RawSolution): Networ
 			capacitorV: c.gStep > 0 ? terminalV - branchA * c.esrOhm : terminalV,
 		};
 	});
+	const chargers = net.chargers.map(({ id, output, input }) => {
+		const outputV = v(output.p) - v(output.n);
+		const inputV = v(input.p) - v(input.n);
+		const [outputA] = alternatorCurrent(output, outputV);
+		const [inputA] = input.powerW > 0 ? amplifierDrawCurrent(input.draw, inputV, raw.lambda) : [0];
+		return {
+			id,
+			running: output.limitA > 0,
+			outputA,
+			outputV,
+			inputA,
+			inputV,
+			atLimit: output.limitA > 0 && outputA >= output.limitA * (1 - 1e-9),
+		};
+	});
 	const sourcesW =
+		chargers.reduce((s, c) => s + c.outputA * c.outputV, 0) +
 		capacitors.reduce((s, c) => s + c.currentA * c.terminalV, 0) +
 		banks.reduce((s, b) => s + b.currentA * b.terminalV, 0) +
 		alternators.reduce((s, a) => s + a.currentA * a.terminalV, 0);
 	const loadsW =
+		chargers.reduce((s, c) => s + c.inputA * c.inputV, 0) +
 		amplifiers.reduce((s, a) => s + a.inputPowerW, 0) +
 		loads.reduce((s, l) => s + l.currentA * l.terminalV, 0);
 	const closed = new Map(net.isolators.map((x) => [x.id, x]));
@@ -178,6 +208,7 @@ export function describeSolution(net: CompiledNetwork, raw: RawSolution): Networ
 		amplifiers,
 		loads,
 		capacitors,
+		chargers,
 		isolators,
 		solvedDemandFraction: raw.lambda,
 		iterations: raw.iterations,

@@ -113,6 +113,18 @@ export function toSpiceNetlist(
 			`ccap${i + 1} cap${i + 1} ${name(c.n)} ${num(c.farads)}`,
 		);
 	});
+	// A DC-DC charger: its output an alternator-like source toward its target, its input drawing
+	// that output's power over the efficiency from its own node (the same expression, so SPICE
+	// solves the coupling the engine iterates).
+	net.chargers.forEach(({ output, input, efficiency }, i) => {
+		if (output.limitA <= 0) return;
+		const xo = v(output.p, output.n);
+		const out = `min(max((${num(output.setPointV)}-${xo})/${num(output.resistanceOhm)}, 0), ${num(output.limitA)})`;
+		lines.push(
+			`bdcout${i + 1} ${name(output.n)} ${name(output.p)} I=${out}`,
+			`bdcin${i + 1} ${name(input.p)} ${name(input.n)} I=${out}*${xo}/(${num(efficiency)}*${v(input.p, input.n)})`,
+		);
+	});
 	// A closed relay is a resistor; a diode isolator conducts past its drop through its slope
 	// resistance: I = max(V − Vf, 0)/R, the engine's piecewise-linear law. An open one is left out.
 	net.isolators.forEach((x, i) =>

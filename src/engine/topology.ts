@@ -160,7 +160,9 @@ export function checkTopology(doc: BuildDocument): TopologyIssue[] {
 
 /** The parts that join nodes (cables, relays) and the sources, as the registry says. */
 function conductorsOf(doc: BuildDocument): { links: LinkPart[]; sources: TerminalPart[] } {
-	const links = linkParts(doc).flatMap(([, parts]) => parts);
+	const links = linkParts(doc)
+		.filter(([group]) => PART_KINDS[group].conducts)
+		.flatMap(([, parts]) => parts);
 	const sources = terminalParts(doc)
 		.filter(([group]) => PART_KINDS[group].source)
 		.flatMap(([, parts]) => parts);

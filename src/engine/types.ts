@@ -210,6 +210,26 @@ export interface CapacitorBank {
 }
 
 /**
+ * A DC-DC charger between two banks: it draws from the starting system at `from` and charges an
+ * auxiliary bank at `to` toward its target voltage, up to its output current limit; input and
+ * output both return through the chassis. Its input draws the output power over its efficiency.
+ */
+export interface DcDcCharger {
+	id: string;
+	label: string;
+	from: string;
+	to: string;
+	/** Output voltage it regulates toward (V). */
+	targetV: number;
+	/** Largest output current (A). */
+	maxOutputA: number;
+	/** Output power over input power, 0 < η ≤ 1. */
+	efficiency: number;
+	/** When it runs: with the engine running (an ignition trigger), always, or never. */
+	runs: IsolatorState;
+}
+
+/**
  * The part groups of a build document, listed once: the diff, the merge, the topology check, the
  * document schema and the editor all read this list.
  */
@@ -222,6 +242,7 @@ export const PART_GROUPS = [
 	'cables',
 	'isolators',
 	'capacitors',
+	'chargers',
 ] as const;
 export type PartGroup = (typeof PART_GROUPS)[number];
 
@@ -237,6 +258,8 @@ export interface BuildDocument {
 	isolators?: Isolator[];
 	/** Capacitor banks; absent in documents saved before they existed (read as none). */
 	capacitors?: CapacitorBank[];
+	/** DC-DC chargers; absent in documents saved before they existed (read as none). */
+	chargers?: DcDcCharger[];
 }
 
 /** What the team asks the engine: operating conditions for a report. */

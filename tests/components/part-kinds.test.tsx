@@ -50,6 +50,21 @@ function withNew(group: PartGroup): { doc: BuildDocument; id: string } {
 		if (at.negative!.startsWith('new-')) extra.push(wire('new-ground', at.negative!, chassis));
 		doc = { ...doc, cables: [...doc.cables, ...extra] };
 	}
+	// A charger's new output node gets the bank it charges.
+	if (
+		!PART_KINDS[group].conducts &&
+		PART_KINDS[group].ends === 'link' &&
+		at.to!.startsWith('new-')
+	) {
+		const chassis = doc.nodes.find((n) => n.kind === 'chassis')!.id;
+		doc = {
+			...doc,
+			banks: [
+				...doc.banks,
+				{ ...UI_PART_KINDS.banks.make(doc), id: 'new-aux', positive: at.to!, negative: chassis },
+			],
+		};
+	}
 	return { doc, id: part.id };
 }
 

@@ -26,6 +26,7 @@ const EVERY_CODE = {
 	cable_hot_in_burp: true,
 	capacitor_over_rating: true,
 	capacitor_burp_share: true,
+	charger_at_limit: true,
 } satisfies Record<WarningCode, true>;
 
 describe('the findings table', () => {

@@ -8,6 +8,7 @@ import type {
 	Cable,
 	CableSize,
 	CapacitorBank,
+	DcDcCharger,
 	Isolator,
 	SteadyLoad,
 } from '../../src/engine/types';
@@ -338,6 +339,42 @@ export function withCapacitorBank(
 				inSeries: 6,
 				inParallel: 1,
 				...over,
+			},
+		],
+	};
+}
+
+/**
+ * The document with an auxiliary bank (a copy of the first, at `auxSoc`) on a node of its own,
+ * charged from the first bank's positive by a DC-DC charger, and a steady load on it.
+ */
+export function withCharger(
+	d: BuildDocument,
+	charger: Partial<DcDcCharger> = {},
+	auxSoc = 0.4,
+	auxLoadA = 5,
+): BuildDocument {
+	const first = d.banks[0]!;
+	return {
+		...d,
+		nodes: [...d.nodes, node('aux_pos', 'battery')],
+		banks: [
+			...d.banks,
+			{ ...first, id: 'aux', label: 'Auxiliary bank', positive: 'aux_pos', stateOfCharge: auxSoc },
+		],
+		loads: [...d.loads, steady('aux_load', 'aux_pos', first.negative, auxLoadA)],
+		chargers: [
+			...(d.chargers ?? []),
+			{
+				id: 'dcdc',
+				label: 'Charger',
+				from: first.positive,
+				to: 'aux_pos',
+				targetV: 14.2,
+				maxOutputA: 30,
+				efficiency: 0.88,
+				runs: 'always',
+				...charger,
 			},
 		],
 	};

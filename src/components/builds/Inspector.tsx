@@ -128,6 +128,16 @@ export const INSPECTOR_FIGURES: Record<PartGroup, Figures> = {
 			],
 		];
 	},
+	chargers: (id, report) => {
+		const c = report.chargers.find((x) => x.id === id);
+		if (!c) return [];
+		if (!c.running) return [['At this engine speed', 'not running']];
+		return [
+			['Output, music', `${fmt(c.outputA, 0)} A at ${fmt(c.outputV)} V`],
+			['Input, music', `${fmt(c.inputA, 0)} A at ${fmt(c.inputV)} V`],
+			['At its limit', c.atLimit ? `yes (${fmt(c.limitA, 0)} A)` : 'no'],
+		];
+	},
 	isolators: (id, report, doc) => {
 		const part = partsOf(doc, 'isolators').find((x) => x.id === id);
 		const k = partsOf(doc, 'isolators').findIndex((x) => x.id === id);

@@ -231,31 +231,36 @@ export function NetworkDiagram({
 							</path>
 						);
 					})}
-					{partsOf(doc, 'isolators').map((x) => {
-						const a = pos.get(x.from);
-						const b = pos.get(x.to);
-						if (!a || !b) return null;
-						const pair = [x.from, x.to].sort().join('|');
-						const lift = (pairs.get(pair) ?? 0) * 10;
-						pairs.set(pair, (pairs.get(pair) ?? 0) + 1);
-						const glyph = UI_PART_KINDS.isolators.glyph;
-						return (
-							<path
-								key={x.id}
-								d={arcPath(a, b, lift)}
-								fill="none"
-								stroke={flagged.has(x.id) ? '#b3261e' : '#0f7076'}
-								strokeWidth={3}
-								strokeLinecap="round"
-								strokeDasharray={glyph.shape === 'arc' ? glyph.dash : undefined}
-								onClick={onSelect && (() => onSelect('isolators', x.id))}
-								className={onSelect ? 'cursor-pointer' : undefined}
-								data-isolator={x.id}
-							>
-								<title>{`${PART_KINDS.isolators.one} ${x.label}: ${nodeLabel.get(x.from)} to ${nodeLabel.get(x.to)} (${x.kind}, conducts ${x.closes === 'engine_running' ? 'with the engine running' : x.closes === 'always' ? 'always' : 'never'})`}</title>
-							</path>
-						);
-					})}
+					{(['isolators', 'chargers'] as const).flatMap((group) =>
+						(
+							partsOf(doc, group) as Array<{ id: string; label: string; from: string; to: string }>
+						).map((x) => {
+							const a = pos.get(x.from);
+							const b = pos.get(x.to);
+							if (!a || !b) return null;
+							const pair = [x.from, x.to].sort().join('|');
+							const lift = (pairs.get(pair) ?? 0) * 10;
+							pairs.set(pair, (pairs.get(pair) ?? 0) + 1);
+							const glyph = UI_PART_KINDS[group].glyph;
+							return (
+								<path
+									key={x.id}
+									d={arcPath(a, b, lift)}
+									fill="none"
+									stroke={flagged.has(x.id) ? '#b3261e' : '#0f7076'}
+									strokeWidth={3}
+									strokeLinecap="round"
+									strokeDasharray={glyph.shape === 'arc' ? glyph.dash : undefined}
+									onClick={onSelect && (() => onSelect(group, x.id))}
+									className={onSelect ? 'cursor-pointer' : undefined}
+									data-link={group}
+									data-isolator={group === 'isolators' ? x.id : undefined}
+								>
+									<title>{`${PART_KINDS[group].one} ${x.label}: ${nodeLabel.get(x.from)} to ${nodeLabel.get(x.to)}`}</title>
+								</path>
+							);
+						}),
+					)}
 					{parts.map((p, k) => {
 						const a = pos.get(p.positive);
 						const b = pos.get(p.negative);
@@ -371,7 +376,8 @@ export function NetworkDiagram({
 			<figcaption className="mt-1 text-xs text-ink-soft">
 				Supply side above, ground side below; each part in its own column between its terminals.
 				Copper arcs: supply cables. Slate arcs: ground cables. Dashed red: a cable with a finding.
-				Thicker arcs are larger cables. Dotted teal arcs: relays and isolators.
+				Thicker arcs are larger cables. Dotted teal arcs: relays and isolators; dash-dot teal arcs:
+				DC-DC chargers.
 			</figcaption>
 			<details ref={listRef} className="mt-2 text-sm" onToggle={onListToggle}>
 				<summary className="cursor-pointer font-semibold text-teal">List the connections</summary>
@@ -388,6 +394,12 @@ export function NetworkDiagram({
 						{partsOf(doc, 'isolators').map((x) => (
 							<li key={x.id}>
 								<span className="font-semibold">{x.label || x.id}</span> ({x.kind}):{' '}
+								{nodeLabel.get(x.from) ?? x.from} → {nodeLabel.get(x.to) ?? x.to}
+							</li>
+						))}
+						{partsOf(doc, 'chargers').map((x) => (
+							<li key={x.id}>
+								<span className="font-semibold">{x.label || x.id}</span> (DC-DC charger):{' '}
 								{nodeLabel.get(x.from) ?? x.from} → {nodeLabel.get(x.to) ?? x.to}
 							</li>
 						))}

@@ -9,6 +9,7 @@ import {
 	type BatteryBank,
 	type BuildNode,
 	type CapacitorBank,
+	type DcDcCharger,
 	type Isolator,
 	type SteadyLoad,
 } from '@/engine/browser';
@@ -412,5 +413,69 @@ export function capacitorColumns(nodes: Opt): PartColumn<CapacitorBank>[] {
 		field('moduleEsrOhm', 'Series resistance per module', 'mΩ', 1000),
 		field('moduleRatedV', 'Rated voltage per module', 'V'),
 		field('moduleLeakageA', 'Leakage per module', 'mA', 1000),
+	];
+}
+
+export function chargerColumns(nodes: Opt): PartColumn<DcDcCharger>[] {
+	const end = (key: 'from' | 'to', header: string): PartColumn<DcDcCharger> => ({
+		id: key,
+		header,
+		errorPath: key,
+		cell: {
+			kind: 'select',
+			get: (x) => x[key],
+			set: (x, v) => ({ ...x, [key]: v }),
+			options: nodes,
+		},
+	});
+	return [
+		label('DC-DC charger'),
+		end('from', 'Input from'),
+		end('to', 'Output to'),
+		{
+			id: 'targetV',
+			header: 'Target',
+			unit: 'V',
+			errorPath: 'targetV',
+			cell: {
+				kind: 'number',
+				step: '0.1',
+				get: (x) => x.targetV,
+				set: (x, v) => ({ ...x, targetV: num(v) }),
+			},
+		},
+		{
+			id: 'maxOutputA',
+			header: 'Output limit',
+			unit: 'A',
+			errorPath: 'maxOutputA',
+			cell: {
+				kind: 'number',
+				get: (x) => x.maxOutputA,
+				set: (x, v) => ({ ...x, maxOutputA: num(v) }),
+			},
+		},
+		{
+			id: 'efficiency',
+			header: 'Efficiency',
+			unit: '%',
+			errorPath: 'efficiency',
+			cell: {
+				kind: 'number',
+				get: (x) => x.efficiency * 100,
+				set: (x, v) => ({ ...x, efficiency: num(v) / 100 }),
+			},
+		},
+		{
+			id: 'runs',
+			header: 'Runs',
+			errorPath: 'runs',
+			cell: {
+				kind: 'select',
+				get: (x) => x.runs,
+				set: (x, v) => ({ ...x, runs: v as DcDcCharger['runs'] }),
+				options: ISOLATOR_STATES.map((k) => ({ value: k, label: ISOLATOR_STATE_LABELS[k] })),
+			},
+		},
 	];
 }

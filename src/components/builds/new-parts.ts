@@ -13,6 +13,7 @@ import type {
 	BuildNode,
 	Cable,
 	CapacitorBank,
+	DcDcCharger,
 	Isolator,
 	SteadyLoad,
 } from '@/engine/browser';
@@ -113,6 +114,18 @@ export const newCapacitor = (doc: BuildDocument): CapacitorBank => ({
 	moduleLeakageA: 0.005,
 	inSeries: 1,
 	inParallel: 1,
+});
+
+/** A DC-DC charger from the starting bank's node to an auxiliary bank (plain product defaults). */
+export const newCharger = (doc: BuildDocument): DcDcCharger => ({
+	id: freshId(doc, 'dcdc'),
+	label: 'New DC-DC charger',
+	from: firstOf(doc, 'battery'),
+	to: firstOf(doc, 'block'),
+	targetV: 14.4,
+	maxOutputA: 40,
+	efficiency: 0.9,
+	runs: 'engine_running',
 });
 
 /** A starting point for a vehicle with no revision yet: one battery, one amplifier, wired. */

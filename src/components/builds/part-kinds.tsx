@@ -6,6 +6,7 @@ import {
 	bankColumns,
 	cableColumns,
 	capacitorColumns,
+	chargerColumns,
 	isolatorColumns,
 	loadColumns,
 	nodeColumns,
@@ -16,6 +17,7 @@ import {
 	newBank,
 	newCable,
 	newCapacitor,
+	newCharger,
 	newIsolator,
 	newLoad,
 	newNode,
@@ -144,6 +146,22 @@ export const UI_PART_KINDS: { [G in PartGroup]: UiPartKind<G> } = {
 		}),
 		glyph: { shape: 'box', colour: '#6b4c9a' },
 	},
+	chargers: {
+		columns: (nodes) => chargerColumns(nodes),
+		make: newCharger,
+		ends: [
+			{ key: 'from', label: 'Input from' },
+			{ key: 'to', label: 'Output to (the bank it charges)' },
+		],
+		newNodeKind: 'battery',
+		// From the first bank's node to another bank's, when the build has a second one.
+		suggest: (d) => {
+			const from = batteryOf(d);
+			const other = d.nodes.find((n) => n.kind === 'battery' && n.id !== from)?.id;
+			return { from, to: other ?? NEW_NODE };
+		},
+		glyph: { shape: 'arc', dash: '9 3 2 3' },
+	},
 };
 
 /** The part tables' order on the page: the wiring first, the nodes last. */
@@ -152,6 +170,7 @@ export const EDITOR_ORDER: readonly PartGroup[] = [
 	'isolators',
 	'banks',
 	'capacitors',
+	'chargers',
 	'alternators',
 	'amplifiers',
 	'loads',
