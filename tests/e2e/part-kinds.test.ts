@@ -86,4 +86,38 @@ describe('adding the newer kinds of part through the add-part form, in chromium'
 		await expect.poll(() => inspector.textContent()).toMatch(/above its rating of 13\.50 V/);
 		expect(b.problems).toEqual([]);
 	});
+
+	it('a member adds a DC-DC charger to a new node, is told the node needs its bank, adds the bank and reads the charger', async () => {
+		const b = await openBrowser({ viewport: { width: 1366, height: 900 } });
+		opened.push(b);
+		await openPebble(b);
+		await b.page.getByRole('button', { name: '+ Add to dc-dc chargers' }).click();
+		const form = b.page.getByRole('form', { name: 'Add a dc-dc charger' });
+		await form.getByLabel('Name').fill('Aux charger');
+		await expect(form.getByLabel('Output to (the bank it charges)').inputValue()).resolves.toBe(
+			'__new__',
+		);
+		await form.getByRole('button', { name: 'Add the dc-dc charger' }).click();
+		await form.waitFor({ state: 'detached' });
+		// Its new node has nothing yet to tie it to the chassis: said plainly, nothing lost.
+		await b.page
+			.getByText(/“Aux charger end” is not connected|Aux charger end" is not connected/)
+			.first()
+			.waitFor();
+		await expect(b.page.getByLabel('Aux charger: Output limit').inputValue()).resolves.toBe('40');
+
+		await b.page.getByRole('button', { name: '+ Add to battery banks' }).click();
+		const bankForm = b.page.getByRole('form', { name: 'Add a bank' });
+		await bankForm.getByLabel('Name').fill('Aux bank');
+		await bankForm.getByLabel('Positive terminal').selectOption({ label: 'Aux charger end' });
+		await bankForm.getByRole('button', { name: 'Add the bank' }).click();
+		await bankForm.waitFor({ state: 'detached' });
+
+		await b.page.getByRole('button', { name: 'Aux charger', exact: true }).click();
+		const inspector = b.page.locator('[data-inspector]');
+		await inspector.waitFor();
+		await expect.poll(() => inspector.textContent()).toMatch(/Output, music\d+ A at \d+\.\d\d V/);
+		await b.screenshot('part-kinds-charger-1366');
+		expect(b.problems).toEqual([]);
+	});
 });

@@ -156,8 +156,8 @@ export const UI_PART_KINDS: { [G in PartGroup]: UiPartKind<G> } = {
 		newNodeKind: 'battery',
 		// From the first bank's node to another bank's, when the build has a second one.
 		suggest: (d) => {
-			const from = batteryOf(d);
-			const other = d.nodes.find((n) => n.kind === 'battery' && n.id !== from)?.id;
+			const from = d.banks[0]?.positive ?? batteryOf(d);
+			const other = d.banks.map((b) => b.positive).find((p) => p !== from);
 			return { from, to: other ?? NEW_NODE };
 		},
 		glyph: { shape: 'arc', dash: '9 3 2 3' },
