@@ -12,10 +12,10 @@ export * from './battery';
 export * from './alternator';
 export * from './fuses';
 export * from './topology';
+export { solveCompiled } from './solver';
 export {
 	compileNetwork,
 	conducts,
-	solveCompiled,
 	GMIN_S,
 	type SolveConditions,
 	type CompiledNetwork,

@@ -1,12 +1,7 @@
 import { amplifierDrawCurrent } from './amplifier';
 import { beginCapacitorStep, capacitorBranchA, endCapacitorStep } from './capacitor';
-import {
-	alternatorCurrent,
-	bankCurrent,
-	compileNetwork,
-	isolatorCurrent,
-	solveCompiled,
-} from './network';
+import { alternatorCurrent, bankCurrent, compileNetwork, isolatorCurrent } from './network';
+import { solveCompiled } from './solver';
 import { advanceSoc, capacitorRestVoltages, setBankStates } from './session';
 import type { BuildDocument } from './types';
 

@@ -9,13 +9,8 @@ import {
 import { beginCapacitorStep, endCapacitorStep } from './capacitor';
 import { cableAreaMm2 } from './conductors';
 import { ADIABATIC_CONSTANTS } from './heating';
-import {
-	alternatorCurrent,
-	bankCurrent,
-	type CompiledNetwork,
-	compileNetwork,
-	solveCompiled,
-} from './network';
+import { alternatorCurrent, bankCurrent, type CompiledNetwork, compileNetwork } from './network';
+import { solveCompiled } from './solver';
 import type { BatteryBank, BuildDocument } from './types';
 
 /** A competition session: `burps` burps of `burpS` seconds with `restS` seconds between. */

@@ -6,10 +6,9 @@ import {
 	compileNetwork,
 	isolatorCurrent,
 	type CompiledNetwork,
-	type RawSolution,
 	type SolveConditions,
-	solveCompiled,
 } from './network';
+import { type RawSolution, solveCompiled } from './solver';
 import type { BuildDocument } from './types';
 
 export interface CableResult {

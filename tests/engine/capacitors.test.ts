@@ -8,7 +8,8 @@ import {
 	endCapacitorStep,
 } from '../../src/engine/capacitor';
 import { parseBuildDocument } from '../../src/engine/document-schema';
-import { compileNetwork, solveCompiled } from '../../src/engine/network';
+import { compileNetwork } from '../../src/engine/network';
+import { solveCompiled } from '../../src/engine/solver';
 import { buildReport } from '../../src/engine/report';
 import { runSession } from '../../src/engine/session';
 import { solveNetwork } from '../../src/engine/solve';

@@ -1,7 +1,8 @@
 import { describe, expect, it } from 'vitest';
 import { DEMO_BUILDS } from '../../db/demo/builds';
 import { DenseSystem } from '../../src/engine/linear';
-import { compileNetwork, solveCompiled } from '../../src/engine/network';
+import { compileNetwork } from '../../src/engine/network';
+import { solveCompiled } from '../../src/engine/solver';
 import { SparseLdl, type SymmetricSystem } from '../../src/engine/sparse';
 import { syntheticNetwork } from '../bench/fixtures';
 import { randomNetwork, rng } from '../helpers/networks';
