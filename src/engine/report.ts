@@ -12,7 +12,8 @@ import {
 	mm2ToCmil,
 	requiredCmilPerAmp,
 } from './conductors';
-import { batteryEnds, evaluateFindings, type FindingContext } from './finding-rules';
+import { evaluateFindings } from './evaluate-findings';
+import { batteryEnds, type FindingContext } from './finding-rules';
 import { adviseFuse } from './fuses';
 import { adiabaticFinalC } from './heating';
 import { traceFeeds } from './feed';
