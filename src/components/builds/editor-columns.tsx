@@ -1,22 +1,19 @@
 import {
 	CHEMISTRY_PROPS,
 	CHEMISTRIES,
-	ISOLATOR_KINDS,
-	ISOLATOR_STATES,
 	NODE_KINDS,
 	type Alternator,
 	type Amplifier,
 	type BatteryBank,
 	type BuildNode,
 	type CapacitorBank,
-	type DcDcCharger,
-	type Isolator,
 	type SteadyLoad,
 } from '@/engine/browser';
-import { num, type Opt } from './column-kit';
+import { label, num, type Opt, terminals } from './column-kit';
 import type { PartColumn } from './PartTable';
 
 export { cableColumns } from './cable-columns';
+export { chargerColumns, isolatorColumns } from './switching-columns';
 
 export function nodeColumns(): PartColumn<BuildNode>[] {
 	return [
@@ -45,39 +42,6 @@ export function nodeColumns(): PartColumn<BuildNode>[] {
 		},
 	];
 }
-
-const terminals = <T extends { positive: string; negative: string }>(
-	nodes: Opt,
-): PartColumn<T & { id: string; label: string }>[] => [
-	{
-		id: 'positive',
-		header: '+',
-		errorPath: 'positive',
-		cell: {
-			kind: 'select',
-			get: (p) => p.positive,
-			set: (p, v) => ({ ...p, positive: v }),
-			options: nodes,
-		},
-	},
-	{
-		id: 'negative',
-		header: '−',
-		errorPath: 'negative',
-		cell: {
-			kind: 'select',
-			get: (p) => p.negative,
-			set: (p, v) => ({ ...p, negative: v }),
-			options: nodes,
-		},
-	},
-];
-const label = <T extends { label: string; id: string }>(header: string): PartColumn<T> => ({
-	id: 'label',
-	header,
-	errorPath: 'label',
-	cell: { kind: 'text', get: (p) => p.label, set: (p, v) => ({ ...p, label: v }) },
-});
 
 export function bankColumns(nodes: Opt): PartColumn<BatteryBank>[] {
 	return [
@@ -305,86 +269,6 @@ export function loadColumns(nodes: Opt): PartColumn<SteadyLoad>[] {
 	];
 }
 
-const ISOLATOR_KIND_LABELS: Record<Isolator['kind'], string> = {
-	relay: 'relay (both ways)',
-	diode: 'diode (one way)',
-};
-const ISOLATOR_STATE_LABELS: Record<Isolator['closes'], string> = {
-	engine_running: 'with the engine running',
-	always: 'always',
-	open: 'never (open)',
-};
-
-export function isolatorColumns(nodes: Opt): PartColumn<Isolator>[] {
-	const end = (key: 'from' | 'to', header: string): PartColumn<Isolator> => ({
-		id: key,
-		header,
-		errorPath: key,
-		cell: {
-			kind: 'select',
-			get: (x) => x[key],
-			set: (x, v) => ({ ...x, [key]: v }),
-			options: nodes,
-		},
-	});
-	return [
-		label('Relay or isolator'),
-		end('from', 'From (supply side)'),
-		end('to', 'To'),
-		{
-			id: 'kind',
-			header: 'Kind',
-			errorPath: 'kind',
-			cell: {
-				kind: 'select',
-				get: (x) => x.kind,
-				// A diode without a drop is no diode: switching to one starts it at a common 0.7 V
-				// (a silicon junction; common practice, no published source); a relay has none.
-				set: (x, v) =>
-					v === 'diode'
-						? { ...x, kind: 'diode', forwardDropV: x.forwardDropV || 0.7 }
-						: { ...x, kind: 'relay', forwardDropV: 0 },
-				options: ISOLATOR_KINDS.map((k) => ({ value: k, label: ISOLATOR_KIND_LABELS[k] })),
-			},
-		},
-		{
-			id: 'closes',
-			header: 'Conducts',
-			errorPath: 'closes',
-			cell: {
-				kind: 'select',
-				get: (x) => x.closes,
-				set: (x, v) => ({ ...x, closes: v as Isolator['closes'] }),
-				options: ISOLATOR_STATES.map((k) => ({ value: k, label: ISOLATOR_STATE_LABELS[k] })),
-			},
-		},
-		{
-			id: 'closedResistance',
-			header: 'Closed resistance',
-			unit: 'mΩ',
-			errorPath: 'closedResistanceOhm',
-			cell: {
-				kind: 'number',
-				step: '0.01',
-				get: (x) => x.closedResistanceOhm * 1000,
-				set: (x, v) => ({ ...x, closedResistanceOhm: num(v) / 1000 }),
-			},
-		},
-		{
-			id: 'forwardDrop',
-			header: 'Forward drop',
-			unit: 'V',
-			errorPath: 'forwardDropV',
-			cell: {
-				kind: 'number',
-				step: '0.01',
-				get: (x) => x.forwardDropV,
-				set: (x, v) => ({ ...x, forwardDropV: num(v) }),
-			},
-		},
-	];
-}
-
 export function capacitorColumns(nodes: Opt): PartColumn<CapacitorBank>[] {
 	const field = (
 		id: keyof CapacitorBank,
@@ -413,69 +297,5 @@ export function capacitorColumns(nodes: Opt): PartColumn<CapacitorBank>[] {
 		field('moduleEsrOhm', 'Series resistance per module', 'mΩ', 1000),
 		field('moduleRatedV', 'Rated voltage per module', 'V'),
 		field('moduleLeakageA', 'Leakage per module', 'mA', 1000),
-	];
-}
-
-export function chargerColumns(nodes: Opt): PartColumn<DcDcCharger>[] {
-	const end = (key: 'from' | 'to', header: string): PartColumn<DcDcCharger> => ({
-		id: key,
-		header,
-		errorPath: key,
-		cell: {
-			kind: 'select',
-			get: (x) => x[key],
-			set: (x, v) => ({ ...x, [key]: v }),
-			options: nodes,
-		},
-	});
-	return [
-		label('DC-DC charger'),
-		end('from', 'Input from'),
-		end('to', 'Output to'),
-		{
-			id: 'targetV',
-			header: 'Target',
-			unit: 'V',
-			errorPath: 'targetV',
-			cell: {
-				kind: 'number',
-				step: '0.1',
-				get: (x) => x.targetV,
-				set: (x, v) => ({ ...x, targetV: num(v) }),
-			},
-		},
-		{
-			id: 'maxOutputA',
-			header: 'Output limit',
-			unit: 'A',
-			errorPath: 'maxOutputA',
-			cell: {
-				kind: 'number',
-				get: (x) => x.maxOutputA,
-				set: (x, v) => ({ ...x, maxOutputA: num(v) }),
-			},
-		},
-		{
-			id: 'efficiency',
-			header: 'Efficiency',
-			unit: '%',
-			errorPath: 'efficiency',
-			cell: {
-				kind: 'number',
-				get: (x) => x.efficiency * 100,
-				set: (x, v) => ({ ...x, efficiency: num(v) / 100 }),
-			},
-		},
-		{
-			id: 'runs',
-			header: 'Runs',
-			errorPath: 'runs',
-			cell: {
-				kind: 'select',
-				get: (x) => x.runs,
-				set: (x, v) => ({ ...x, runs: v as DcDcCharger['runs'] }),
-				options: ISOLATOR_STATES.map((k) => ({ value: k, label: ISOLATOR_STATE_LABELS[k] })),
-			},
-		},
 	];
 }

@@ -1,0 +1,42 @@
+import type { PartColumn } from './PartTable';
+
+/** What the part tables' column definitions share. */
+export type Opt = Array<{ value: string; label: string }>;
+
+/** A number field's value for the document: a blank field is NaN, which the schema refuses by name. */
+export const num = (v: number | null) => (v === null ? Number.NaN : v);
+
+/** The positive and negative terminal columns of a two-terminal part. */
+export const terminals = <T extends { positive: string; negative: string }>(
+	nodes: Opt,
+): PartColumn<T & { id: string; label: string }>[] => [
+	{
+		id: 'positive',
+		header: '+',
+		errorPath: 'positive',
+		cell: {
+			kind: 'select',
+			get: (p) => p.positive,
+			set: (p, v) => ({ ...p, positive: v }),
+			options: nodes,
+		},
+	},
+	{
+		id: 'negative',
+		header: '−',
+		errorPath: 'negative',
+		cell: {
+			kind: 'select',
+			get: (p) => p.negative,
+			set: (p, v) => ({ ...p, negative: v }),
+			options: nodes,
+		},
+	},
+];
+/** A part's name column, headed as its kind. */
+export const label = <T extends { label: string; id: string }>(header: string): PartColumn<T> => ({
+	id: 'label',
+	header,
+	errorPath: 'label',
+	cell: { kind: 'text', get: (p) => p.label, set: (p, v) => ({ ...p, label: v }) },
+});
