@@ -2,7 +2,6 @@ import { memo, useCallback, useMemo, useRef, useState } from 'react';
 import { useAfterPaint } from '@/lib/client/use-after-paint';
 import {
 	DEFAULT_SCENARIO,
-	buildReport,
 	PART_GROUPS,
 	PART_KINDS,
 	partsOf,
@@ -28,48 +27,12 @@ import { SpeedSweepSection } from './analysis/SpeedSweepSection';
 import { UpgradeHintsSection } from './analysis/UpgradeHintsSection';
 import { Inspector, type Selection } from './Inspector';
 import { NetworkDiagram } from './NetworkDiagram';
-import { EDITOR_ORDER } from './part-kinds';
+import { reportOf } from './report-cache';
+import { PartLists } from './PartLists';
 import { PartEditor } from './PartEditor';
 import { useDeferredAnalysis } from './use-deferred-analysis';
 import { useHydrated } from '@/lib/client/use-hydrated';
 import { PageSection, SectionNav, type SectionId, useOpenSections } from './PageSections';
-
-/**
- * Answers about saved revisions, by revision id and what else they depend on: a revision never
- * changes, so every render in this process (each request's server render, above all) shares them.
- * Bounded, least recently used out first.
- */
-const bySavedRevision = new Map<string, unknown>();
-export function rememberForRevision<T>(key: string, make: () => T): T {
-	if (bySavedRevision.has(key)) {
-		const hit = bySavedRevision.get(key) as T;
-		bySavedRevision.delete(key);
-		bySavedRevision.set(key, hit);
-		return hit;
-	}
-	const made = make();
-	bySavedRevision.set(key, made);
-	if (bySavedRevision.size > 64) bySavedRevision.delete(bySavedRevision.keys().next().value!);
-	return made;
-}
-
-/** An answer about a saved revision when one is in place (no work). */
-export const peekForRevision = <T,>(key: string): T | undefined =>
-	bySavedRevision.get(key) as T | undefined;
-
-/** Puts an answer about a saved revision in place (the server's page, from the engine's pool). */
-export function primeForRevision<T>(key: string, value: T): void {
-	bySavedRevision.set(key, value);
-	if (bySavedRevision.size > 64) bySavedRevision.delete(bySavedRevision.keys().next().value!);
-}
-
-const reportKey = (scenario: Scenario, units: UnitSystem) => `${JSON.stringify(scenario)}|${units}`;
-
-/** Where the build page's server leaves its saved head's report for the first render. */
-export const savedReportKey = (revisionId: string, units: UnitSystem) =>
-	`report|${revisionId}|${reportKey(DEFAULT_SCENARIO, units)}`;
-
-const onServer = typeof window === 'undefined';
 
 /**
  * Parts past which the first render (the server's, and the browser's hydration of it) leaves the
@@ -79,42 +42,8 @@ const onServer = typeof window === 'undefined';
 export const FIRST_RENDER_PARTS = 150;
 /** Parts past which the network is listed rather than drawn. */
 const DIAGRAM_PARTS = 150;
-/** Parts of a group listed as buttons before "and N more". */
-const LISTED_PARTS = 60;
 const partCount = (d: BuildDocument) =>
 	PART_GROUPS.reduce((n, g) => (g === 'nodes' ? n : n + partsOf(d, g).length), 0);
-
-/**
- * The report of a document under a scenario, remembered per document object (an unedited draft is
- * its baseline, so the page as first served solves once) and, for a saved revision's own document,
- * by its id across renders. On the server nothing is solved here: a saved head's report is put in
- * place beforehand by the page, from the engine's pool (null when it is not).
- */
-const reports = new WeakMap<BuildDocument, Map<string, ReturnType<typeof buildReport>>>();
-function reportOf(
-	doc: BuildDocument,
-	scenario: Scenario,
-	units: UnitSystem,
-	revisionId: string | null,
-): ReturnType<typeof buildReport> | null {
-	const key = reportKey(scenario, units);
-	if (onServer) {
-		const k = `report|${revisionId}|${key}`;
-		return revisionId && bySavedRevision.has(k)
-			? (bySavedRevision.get(k) as ReturnType<typeof buildReport>)
-			: null;
-	}
-	let byKey = reports.get(doc);
-	if (!byKey) reports.set(doc, (byKey = new Map()));
-	let r = byKey.get(key);
-	if (!r) {
-		const solve = () => buildReport(doc, scenario, { burpRun: false, units });
-		r = revisionId ? rememberForRevision(`report|${revisionId}|${key}`, solve) : solve();
-		if (byKey.size >= 8) byKey.delete(byKey.keys().next().value!);
-		byKey.set(key, r);
-	}
-	return r;
-}
 
 export interface WorkbenchProps {
 	draft: BuildDocument;
@@ -462,70 +391,5 @@ function Waiting() {
 		<p role="status" className="text-sm text-ink-soft">
 			Working out the figures…
 		</p>
-	);
-}
-
-/** The groups listed as buttons: every kind but the nodes, in the editor's order. */
-const LIST_GROUPS = EDITOR_ORDER.filter((g) => g !== 'nodes');
-
-/** Every part as a button, by group, marked when it has a finding: the way into the inspector. */
-function PartLists({
-	draft,
-	warned,
-	selected,
-	onSelect,
-}: {
-	draft: BuildDocument;
-	flagged: Set<string>;
-	warned: Array<{ element: { kind: string; id: string }; severity: string }>;
-	selected: Selection | null;
-	onSelect: (s: Selection) => void;
-}) {
-	const worst = (kind: string, id: string) => {
-		const ws = warned.filter((w) => w.element.kind === kind && w.element.id === id);
-		return ws.some((w) => w.severity === 'danger')
-			? 'danger'
-			: ws.some((w) => w.severity === 'warning')
-				? 'warning'
-				: null;
-	};
-	return (
-		<nav aria-label="Parts of the build" className="mt-3 flex flex-col gap-2 text-sm">
-			{LIST_GROUPS.filter((g) => partsOf(draft, g).length > 0).map((group) => (
-				<div key={group} className="flex flex-wrap items-center gap-1.5">
-					<span className="w-24 shrink-0 text-xs font-semibold text-ink-soft uppercase">
-						{GROUP_NAMES[group]}s
-					</span>
-					{(partsOf(draft, group) as Array<{ id: string; label: string }>)
-						.slice(0, LISTED_PARTS)
-						.map((p) => {
-							const w = worst(PART_KINDS[group].element, p.id);
-							const on = selected?.group === group && selected.id === p.id;
-							return (
-								<button
-									key={p.id}
-									type="button"
-									aria-pressed={on}
-									onClick={() => onSelect({ group, id: p.id })}
-									className={`max-w-full truncate rounded-md border px-2 py-0.5 ${on ? 'border-copper bg-copper-tint' : 'border-hairline bg-card hover:border-copper'}`}
-								>
-									{w && (
-										<span className={w === 'danger' ? 'text-brick' : 'text-amber-text'}>
-											{w === 'danger' ? '✕ ' : '! '}
-											<span className="sr-only">{w === 'danger' ? 'danger: ' : 'warning: '}</span>
-										</span>
-									)}
-									{p.label || p.id}
-								</button>
-							);
-						})}
-					{partsOf(draft, group).length > LISTED_PARTS && (
-						<span className="text-xs text-ink-soft">
-							and {partsOf(draft, group).length - LISTED_PARTS} more (in the tables below)
-						</span>
-					)}
-				</div>
-			))}
-		</nav>
 	);
 }
