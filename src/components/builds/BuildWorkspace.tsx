@@ -13,14 +13,16 @@ import {
 	revisionsQueryOptions,
 	useSaveRevision,
 } from '@/lib/client/queries/builds';
-import { fieldName, fmt, formatFieldValue, GROUP_NAMES, type UnitSystem } from '@/lib/format';
+import { fmt, type UnitSystem } from '@/lib/format';
 import { useCreatePlan } from '@/lib/client/queries/plans';
 import { Button, FormMessage } from '@/components/ui/Field';
 import { starterDocument } from './new-parts';
-import { loadDraftCheck, useDraftCheck } from '@/lib/client/use-draft-check';
+import { useDraftCheck } from '@/lib/client/use-draft-check';
 import { Workbench } from './Workbench';
-import { RelativeTime } from '@/components/ui/RelativeTime';
+
 import { sameJson } from '@/lib/same-json';
+import { ConflictPanel } from './ConflictPanel';
+import { LoadJsonButton, RecentRevisions, UnitsChoice, UnsavedNote } from './build-page-parts';
 
 export interface BuildWorkspaceProps {
 	teamId: string;
@@ -269,24 +271,7 @@ export function BuildWorkspaceView({
 								</span>
 							)}
 							<span className="flex-1" />
-							<fieldset className="flex items-center gap-1 text-sm">
-								<legend className="sr-only">Units</legend>
-								{(['imperial', 'metric'] as const).map((u) => (
-									<label
-										key={u}
-										className={`cursor-pointer rounded px-2 py-1 ${units === u ? 'bg-slate-deep text-paper' : 'bg-paper'}`}
-									>
-										<input
-											type="radio"
-											name="units"
-											className="sr-only"
-											checked={units === u}
-											onChange={() => void saveUnits(u)}
-										/>
-										{u === 'imperial' ? 'ft · AWG' : 'm · mm²'}
-									</label>
-								))}
-							</fieldset>
+							<UnitsChoice units={units} onChoose={(u) => void saveUnits(u)} />
 						</div>
 						{canEdit && (
 							<form
@@ -316,47 +301,17 @@ export function BuildWorkspaceView({
 									Save revision
 								</Button>
 
-								<label className="cursor-pointer rounded-md border border-hairline bg-card px-3 py-2 text-sm font-semibold hover:border-copper">
-									Load a JSON file
-									<input
-										type="file"
-										accept="application/json,.json"
-										className="sr-only"
-										onChange={async (e) => {
-											const f = e.target.files?.[0];
-											e.target.value = '';
-											if (!f) return;
-											let raw: unknown;
-											try {
-												raw = JSON.parse(await f.text());
-											} catch {
-												return setSaveState((s) => ({
-													...s,
-													error: `${f.name} is not valid JSON.`,
-													ok: null,
-												}));
-											}
-											const { parseBuildDocument } = await loadDraftCheck();
-											const parsed = parseBuildDocument(raw);
-											if (!parsed.ok) {
-												return setSaveState((s) => ({
-													...s,
-													ok: null,
-													error: `${f.name} was not loaded: ${parsed.problems
-														.slice(0, 4)
-														.map((p) => `${p.path || 'document'}: ${p.message}`)
-														.join(' · ')}`,
-												}));
-											}
-											setDraft(parsed.doc);
-											setSaveState((s) => ({
-												...s,
-												error: null,
-												ok: `${f.name} is loaded into the draft; save it as a revision to keep it.`,
-											}));
-										}}
-									/>
-								</label>
+								<LoadJsonButton
+									onLoaded={(doc, name) => {
+										setDraft(doc);
+										setSaveState((st) => ({
+											...st,
+											error: null,
+											ok: `${name} is loaded into the draft; save it as a revision to keep it.`,
+										}));
+									}}
+									onRefused={(error) => setSaveState((st) => ({ ...st, ok: null, error }))}
+								/>
 								{dirty && (
 									<Button
 										type="button"
@@ -419,26 +374,13 @@ export function BuildWorkspaceView({
 					</section>
 				}
 				summaryExtra={
-					// Always one line tall (a change appearing must not move the page under the cursor).
-					canEdit &&
-					(dirty ? (
-						<button
-							type="button"
-							className="mt-1 block h-5 w-full truncate rounded bg-amber-tint px-2 text-left text-xs font-semibold text-ink"
-							onClick={() => {
-								const field = document.getElementById('revision-message');
-								field?.scrollIntoView({ block: 'center' });
-								field?.focus({ preventScroll: true });
-							}}
-						>
-							● {changes.length} unsaved change{changes.length === 1 ? '' : 's'}:{' '}
-							{saveBlocked ?? 'ready to save'} — go to Save
-						</button>
-					) : (
-						<p className="mt-1 h-5 truncate px-2 text-xs text-ink-soft">
-							No unsaved change: the draft is revision {head?.number ?? '—'}.
-						</p>
-					))
+					canEdit && (
+						<UnsavedNote
+							changes={dirty ? changes.length : 0}
+							blocked={saveBlocked}
+							headNumber={head?.number ?? null}
+						/>
+					)
 				}
 				onChange={(next: (d: BuildDocument) => BuildDocument) => {
 					setDraft(next);
@@ -446,83 +388,8 @@ export function BuildWorkspaceView({
 				}}
 			/>
 
-			<section aria-labelledby="recent-heading">
-				<h2 id="recent-heading" className="text-xl font-bold">
-					Recent revisions
-				</h2>
-				{revisions.data.length === 0 ? (
-					<p className="mt-2 text-sm text-ink-soft">No revision saved yet.</p>
-				) : (
-					<ol className="mt-2 divide-y divide-hairline rounded-md border border-hairline bg-card text-sm">
-						{revisions.data.slice(0, 5).map((r) => (
-							<li key={r.id} className="flex flex-wrap gap-3 px-4 py-2">
-								<span className="num font-semibold">r{r.number}</span>
-								<span className="flex-1">{r.message}</span>
-								<span className="text-ink-soft">
-									{r.authorName ?? 'someone'} · <RelativeTime at={r.createdAt} />
-								</span>
-							</li>
-						))}
-					</ol>
-				)}
-				<a
-					href={`/teams/${teamId}/vehicles/${vehicleId}/history`}
-					className="mt-2 inline-block text-sm font-semibold text-copper-dark underline"
-				>
-					Full history with changes
-				</a>
-			</section>
+			<RecentRevisions revisions={revisions.data} teamId={teamId} vehicleId={vehicleId} />
 			<p className="sr-only">{vehicleName}</p>
-		</div>
-	);
-}
-
-function ConflictPanel({
-	theirs,
-	mine,
-	units,
-	onKeepMine,
-	onTakeTheirs,
-}: {
-	theirs: RevisionDto;
-	mine: BuildDocument;
-	units: UnitSystem;
-	onKeepMine: () => void;
-	onTakeTheirs: () => void;
-}) {
-	const diff = diffBuilds(theirs.document, mine);
-	return (
-		<div role="alert" className="rounded-md border border-amber/60 bg-amber-tint p-3 text-sm">
-			<p className="font-semibold">
-				Revision {theirs.number} (“{theirs.message}”, by {theirs.authorName ?? 'someone'}) was saved
-				while you edited.
-			</p>
-			<p className="mt-1">
-				Your draft differs from it in {diff.length} part{diff.length === 1 ? '' : 's'}:
-			</p>
-			<ul className="mt-1 list-disc pl-5">
-				{diff.slice(0, 8).map((c) => (
-					<li key={`${c.group}.${c.id}`}>
-						{GROUP_NAMES[c.group]} {c.label}:{' '}
-						{c.kind === 'changed'
-							? c.fields
-									.map(
-										(f) =>
-											`${fieldName(f.field)} ${formatFieldValue(f.field, f.before, units)} → ${formatFieldValue(f.field, f.after, units)}`,
-									)
-									.join('; ')
-							: c.kind === 'added'
-								? 'only in yours'
-								: 'only in theirs'}
-					</li>
-				))}
-			</ul>
-			<div className="mt-2 flex flex-wrap gap-2">
-				<Button onClick={onKeepMine}>Save mine on top of theirs</Button>
-				<Button variant="secondary" onClick={onTakeTheirs}>
-					Drop mine, load theirs
-				</Button>
-			</div>
 		</div>
 	);
 }
