@@ -7,7 +7,7 @@ import { EngineInputError } from './errors';
 import { DenseSystem } from './linear';
 import { SparseLdl, type SymmetricSystem } from './sparse';
 import { partsOf } from './part-kinds';
-import type { BuildDocument, Isolator } from './types';
+import type { BuildDocument, Isolator, PartGroup } from './types';
 
 /** A tiny conductance from every node to the chassis (as SPICE's gmin) keeps the matrix regular. */
 export const GMIN_S = 1e-9;
@@ -92,6 +92,23 @@ export interface CompiledNetwork {
 	diagSlot: Int32Array;
 	work: Workspace;
 }
+
+/**
+ * Where each kind of part goes in the compiled network, one entry per part of the document in its
+ * order (nodes are the unknowns, not elements): `compileNetwork` below fills each list, and the
+ * compiler names a kind left out here.
+ */
+export const COMPILED_LIST = {
+	nodes: null,
+	alternators: 'alternators',
+	banks: 'banks',
+	amplifiers: 'amplifiers',
+	loads: 'loads',
+	cables: 'cables',
+	isolators: 'isolatorIds',
+	capacitors: 'capacitors',
+	chargers: 'chargers',
+} as const satisfies Record<PartGroup, keyof CompiledNetwork | null>;
 
 /**
  * Reduces a build to numbers for the solver. `linear: 'dense'` holds the Jacobian dense (the

@@ -1,6 +1,6 @@
 import { compileNetwork, type CompiledNetwork, type SolveConditions } from './network';
 import { solveNetwork } from './solve';
-import type { BuildDocument } from './types';
+import type { BuildDocument, PartGroup } from './types';
 
 export interface SpiceExport {
 	netlist: string;
@@ -11,6 +11,23 @@ export interface SpiceExport {
 }
 
 const num = (x: number) => x.toPrecision(15);
+
+/**
+ * Each kind's SPICE devices by name prefix (device k of a kind is `<prefix><k>`, counting only the
+ * parts that conduct under the conditions): the export below writes them, and the compiler names a
+ * kind left out here.
+ */
+export const SPICE_DEVICES = {
+	nodes: [],
+	alternators: ['balt'],
+	banks: ['bbank'],
+	amplifiers: ['bamp'],
+	loads: ['iload'],
+	cables: ['rc'],
+	isolators: ['riso', 'biso'],
+	capacitors: ['rleak', 'resr', 'ccap'],
+	chargers: ['bdcout', 'bdcin'],
+} as const satisfies Record<PartGroup, readonly string[]>;
 
 /**
  * The build as a SPICE netlist for a DC operating point (.op): cables as resistors, banks and

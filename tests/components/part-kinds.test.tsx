@@ -14,6 +14,8 @@ import {
 	type PartGroup,
 } from '@/engine';
 import { GROUP_NAMES } from '@/lib/format';
+import { COMPILED_LIST, compileNetwork } from '../../src/engine/network';
+import { SPICE_DEVICES } from '../../src/engine/spice';
 import { oldOakBuild } from '../../db/demo/builds';
 
 /** The demo build with one new part of the group, its ends where the add form suggests. */
@@ -105,9 +107,18 @@ describe('the part-kind registry: every kind has every face', () => {
 			expect(report.ok).toBe(true);
 			const changes = diffBuilds(oldOakBuild, doc);
 			expect(changes).toContainEqual(expect.objectContaining({ group, id, kind: 'added' }));
-			expect(() =>
-				toSpiceNetlist(doc, { engineRpm: 1500, demand: 1, conductorTempC: 25 }),
-			).not.toThrow();
+			// The solver compiles it, one entry per part, and the SPICE export writes its devices.
+			const conditions = { engineRpm: 1500, demand: 1, conductorTempC: 25 };
+			const list = COMPILED_LIST[group];
+			expect(list).not.toBeNull();
+			const net = compileNetwork(doc, conditions);
+			expect((net[list!] as unknown[]).length).toBe(partsOf(doc, group).length);
+			const { netlist } = toSpiceNetlist(doc, conditions);
+			const k = partsOf(doc, group).length;
+			expect(
+				SPICE_DEVICES[group].some((prefix) => new RegExp(`^${prefix}${k} `, 'm').test(netlist)),
+				`${group}: no ${SPICE_DEVICES[group].join('/')}${k} line`,
+			).toBe(true);
 			if (report.ok)
 				expect(() => INSPECTOR_FIGURES[group](id, report, doc, 'metric')).not.toThrow();
 		},
