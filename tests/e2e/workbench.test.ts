@@ -1,17 +1,11 @@
 import { afterAll, describe, expect, inject, it } from 'vitest';
 import { DEMO_PASSWORD, DEMO_TEAM_NAME, DEMO_USERS } from '../../db/seed';
-import { type Browser, openBrowser, signInToTeam } from '../helpers/browser';
+import { type Browser, openBrowser, openDemoVehicle } from '../helpers/browser';
 
 const appUrl = inject('appUrl');
 
-async function openMarlin(b: Browser) {
-	await signInToTeam(b, appUrl, DEMO_USERS[1].email, DEMO_PASSWORD, DEMO_TEAM_NAME);
-	await b.page.getByRole('link', { name: 'Marlin', exact: true }).click();
-	await b.page.waitForSelector('astro-island[component-export="BuildWorkspace"]:not([ssr])', {
-		state: 'attached',
-	});
-	await b.page.getByRole('heading', { name: 'Cables: current, drop and protection' }).waitFor();
-}
+const openMarlin = (b: Browser) =>
+	openDemoVehicle(b, appUrl, DEMO_USERS[1].email, DEMO_PASSWORD, DEMO_TEAM_NAME, 'Marlin');
 
 /** Whether an element lies wholly inside the window as it is scrolled now. */
 const inView = (b: Browser, selector: string) =>

@@ -179,3 +179,20 @@ export async function signUpWithBuild(
 	});
 	return `${appUrl}/teams/${teamId}/vehicles/${v.id}`;
 }
+
+/** Signs in to the demo team and opens one of its vehicles' build page, live. */
+export async function openDemoVehicle(
+	b: Browser,
+	appUrl: string,
+	email: string,
+	password: string,
+	teamName: string,
+	vehicle: string,
+): Promise<void> {
+	await signInToTeam(b, appUrl, email, password, teamName);
+	await b.page.getByRole('link', { name: vehicle, exact: true }).click();
+	await b.page.waitForSelector('astro-island[component-export="BuildWorkspace"]:not([ssr])', {
+		state: 'attached',
+	});
+	await b.page.getByRole('heading', { name: 'Cables: current, drop and protection' }).waitFor();
+}

@@ -40,3 +40,20 @@ export const label = <T extends { label: string; id: string }>(header: string): 
 	errorPath: 'label',
 	cell: { kind: 'text', get: (p) => p.label, set: (p, v) => ({ ...p, label: v }) },
 });
+
+/** One end of a part that joins two nodes (a relay's, a charger's): a choice of node. */
+export const linkEnd = <T extends { from: string; to: string; id: string; label: string }>(
+	nodes: Opt,
+	key: 'from' | 'to',
+	header: string,
+): PartColumn<T> => ({
+	id: key,
+	header,
+	errorPath: key,
+	cell: {
+		kind: 'select',
+		get: (x) => x[key],
+		set: (x, v) => ({ ...x, [key]: v }),
+		options: nodes,
+	},
+});

@@ -1,5 +1,5 @@
 import { ISOLATOR_KINDS, ISOLATOR_STATES, type DcDcCharger, type Isolator } from '@/engine/browser';
-import { label, num, type Opt } from './column-kit';
+import { label, linkEnd, num, type Opt } from './column-kit';
 import type { PartColumn } from './PartTable';
 
 const ISOLATOR_KIND_LABELS: Record<Isolator['kind'], string> = {
@@ -13,21 +13,10 @@ const ISOLATOR_STATE_LABELS: Record<Isolator['closes'], string> = {
 };
 
 export function isolatorColumns(nodes: Opt): PartColumn<Isolator>[] {
-	const end = (key: 'from' | 'to', header: string): PartColumn<Isolator> => ({
-		id: key,
-		header,
-		errorPath: key,
-		cell: {
-			kind: 'select',
-			get: (x) => x[key],
-			set: (x, v) => ({ ...x, [key]: v }),
-			options: nodes,
-		},
-	});
 	return [
 		label('Relay or isolator'),
-		end('from', 'From (supply side)'),
-		end('to', 'To'),
+		linkEnd<Isolator>(nodes, 'from', 'From (supply side)'),
+		linkEnd<Isolator>(nodes, 'to', 'To'),
 		{
 			id: 'kind',
 			header: 'Kind',
@@ -83,21 +72,10 @@ export function isolatorColumns(nodes: Opt): PartColumn<Isolator>[] {
 }
 
 export function chargerColumns(nodes: Opt): PartColumn<DcDcCharger>[] {
-	const end = (key: 'from' | 'to', header: string): PartColumn<DcDcCharger> => ({
-		id: key,
-		header,
-		errorPath: key,
-		cell: {
-			kind: 'select',
-			get: (x) => x[key],
-			set: (x, v) => ({ ...x, [key]: v }),
-			options: nodes,
-		},
-	});
 	return [
 		label('DC-DC charger'),
-		end('from', 'Input from'),
-		end('to', 'Output to'),
+		linkEnd<DcDcCharger>(nodes, 'from', 'Input from'),
+		linkEnd<DcDcCharger>(nodes, 'to', 'Output to'),
 		{
 			id: 'targetV',
 			header: 'Target',
