@@ -1,6 +1,7 @@
 import { amplifierDrawCurrent } from './amplifier';
 import { beginCapacitorStep, capacitorBranchA, endCapacitorStep } from './capacitor';
-import { alternatorCurrent, bankCurrent, compileNetwork, isolatorCurrent } from './network';
+import { compileNetwork } from './network';
+import { alternatorCurrent, bankCurrent, isolatorCurrent } from './newton';
 import { solveCompiled } from './solver';
 import { advanceSoc, capacitorRestVoltages, setBankStates } from './session';
 import type { BuildDocument } from './types';

@@ -2,18 +2,68 @@
 // co-content the line search descends, and the damped, voltage-limited step.
 import { amplifierDrawCoContent, amplifierDrawCurrent } from './amplifier';
 import { capacitorCurrent } from './capacitor';
-import {
-	alternatorCurrent,
-	alternatorMode,
-	bankCurrent,
-	bankMode,
-	type CompiledNetwork,
-	GMIN_S,
-	isolatorCurrent,
-	type TwoTerminal,
-	volt,
-} from './network';
+import { type CompiledNetwork, GMIN_S, type TwoTerminal } from './network';
 import type { FactorResult } from './sparse';
+
+/**
+ * A node's voltage by index (the chassis, index −1, is 0 V). The element laws live here with the
+ * assembly that calls them thousands of times a burp: a call across modules costs more where the
+ * code runs unbundled.
+ */
+export const volt = (v: Float64Array, i: number) => (i < 0 ? 0 : v[i]!);
+
+/**
+ * Current from a closed isolator's `from` end to its `to` end at voltage x across it, and dI/dx:
+ * a relay is a resistance both ways; a diode conducts forward only, past its drop, through its
+ * slope resistance (the piecewise-linear diode model).
+ */
+export function isolatorCurrent(
+	x: number,
+	iso: CompiledNetwork['isolators'][number],
+): [number, number] {
+	if (!iso.diode) return [iso.g * x, iso.g];
+	// The knee belongs to the conducting side, as the banks' and alternators' knees do.
+	return x >= iso.dropV ? [iso.g * (x - iso.dropV), iso.g] : [0, 0];
+}
+
+/** A node's voltage by index (the chassis, index −1, is 0 V). */
+/**
+ * Current out of a bank's positive terminal at terminal voltage v, and its derivative dI/dv:
+ * (V_oc − v)/R discharging; charging (V_oc − v)/R_charge until the bank takes its charge
+ * acceptance, then exactly that (a limit, like an alternator's).
+ */
+export function bankCurrent(b: CompiledNetwork['banks'][number], v: number): [number, number] {
+	if (v <= b.ocvV) return [(b.ocvV - v) / b.resistanceOhm, -1 / b.resistanceOhm];
+	const i = (b.ocvV - v) / b.chargeResistanceOhm;
+	// Each boundary belongs to the side with a slope: a Newton step that lands exactly on a knee
+	// (it does, when a limited step is halved onto a set point) must still see the source there.
+	if (-i > b.chargeAcceptanceA) return [-b.chargeAcceptanceA, 0];
+	return [i, -1 / b.chargeResistanceOhm];
+}
+
+/** Current out of an alternator: a voltage source at its set point until its limit, never negative. */
+export function alternatorCurrent(
+	a: CompiledNetwork['alternators'][number],
+	v: number,
+): [number, number] {
+	if (a.limitA <= 0) return [0, 0];
+	const i = (a.setPointV - v) / a.resistanceOhm;
+	if (i < 0) return [0, 0];
+	if (i > a.limitA) return [a.limitA, 0];
+	return [i, -1 / a.resistanceOhm];
+}
+
+/** Operating mode codes for the mode signature (a change means the Jacobian's form changed). */
+export function bankMode(b: CompiledNetwork['banks'][number], x: number): number {
+	if (x <= b.ocvV) return 0;
+	return -(b.ocvV - x) / b.chargeResistanceOhm > b.chargeAcceptanceA ? 2 : 1;
+}
+
+export function alternatorMode(a: CompiledNetwork['alternators'][number], x: number): number {
+	if (a.limitA <= 0) return 0;
+	const i = (a.setPointV - x) / a.resistanceOhm;
+	return i < 0 ? 0 : i > a.limitA ? 2 : 1;
+}
 
 const MAX_ITERATIONS = 80;
 const RESIDUAL_TOL_A = 1e-8;
@@ -83,11 +133,15 @@ function assemble(net: CompiledNetwork, v: Float64Array, lambda: number) {
 		stamp(f, j, a, i, di);
 	}
 	for (const l of net.loads) stamp(f, j, l, l.currentA, 0);
-	for (const c of net.capacitors) {
+	// Indexed loops over the kinds most builds have none of: an empty for-of still makes an
+	// iterator, thousands of times a burp.
+	for (let k = 0; k < net.capacitors.length; k++) {
+		const c = net.capacitors[k]!;
 		const [i, di] = capacitorCurrent(c, volt(v, c.p) - volt(v, c.n));
 		stamp(f, j, c, i, di);
 	}
-	for (const { output, input } of net.chargers) {
+	for (let k = 0; k < net.chargers.length; k++) {
+		const { output, input } = net.chargers[k]!;
 		const x = volt(v, output.p) - volt(v, output.n);
 		const [i, di] = alternatorCurrent(output, x);
 		stamp(f, j, output, -i, -di);
@@ -101,7 +155,8 @@ function assemble(net: CompiledNetwork, v: Float64Array, lambda: number) {
 			stamp(f, j, input, ii, dii);
 		}
 	}
-	for (const x of net.isolators) {
+	for (let k = 0; k < net.isolators.length; k++) {
+		const x = net.isolators[k]!;
 		const vx = volt(v, x.p) - volt(v, x.n);
 		const [i, di] = isolatorCurrent(vx, x);
 		stamp(f, j, x, i, di);
@@ -156,11 +211,13 @@ function coContent(net: CompiledNetwork, v: Float64Array, lambda: number, floorV
 		e += amplifierDrawCoContent(a.draw, x, lambda);
 	}
 	for (const l of net.loads) e += l.currentA * (volt(v, l.p) - volt(v, l.n));
-	for (const c of net.capacitors) {
+	for (let k = 0; k < net.capacitors.length; k++) {
+		const c = net.capacitors[k]!;
 		const x = volt(v, c.p) - volt(v, c.n);
 		e += 0.5 * c.gLeak * x * x + 0.5 * c.gStep * (x - c.vcV) ** 2;
 	}
-	for (const { output: a, input } of net.chargers) {
+	for (let k = 0; k < net.chargers.length; k++) {
+		const { output: a, input } = net.chargers[k]!;
 		if (a.limitA > 0) {
 			const x = volt(v, a.p) - volt(v, a.n);
 			const knee = a.setPointV - a.resistanceOhm * a.limitA;
@@ -175,7 +232,8 @@ function coContent(net: CompiledNetwork, v: Float64Array, lambda: number, floorV
 		if (x < floorV) return Number.POSITIVE_INFINITY;
 		e += amplifierDrawCoContent(input.draw, x, lambda);
 	}
-	for (const x of net.isolators) {
+	for (let k = 0; k < net.isolators.length; k++) {
+		const x = net.isolators[k]!;
 		const over = volt(v, x.p) - volt(v, x.n) - x.dropV;
 		if (!x.diode || over > 0) e += 0.5 * x.g * over * over;
 	}

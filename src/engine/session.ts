@@ -9,7 +9,8 @@ import {
 import { beginCapacitorStep, endCapacitorStep } from './capacitor';
 import { cableAreaMm2 } from './conductors';
 import { ADIABATIC_CONSTANTS } from './heating';
-import { alternatorCurrent, bankCurrent, type CompiledNetwork, compileNetwork } from './network';
+import { type CompiledNetwork, compileNetwork } from './network';
+import { alternatorCurrent, bankCurrent } from './newton';
 import { solveCompiled } from './solver';
 import type { BatteryBank, BuildDocument } from './types';
 

@@ -1,13 +1,7 @@
 import { amplifierDrawCurrent } from './amplifier';
 import { capacitorBranchA, capacitorCurrent } from './capacitor';
-import {
-	alternatorCurrent,
-	bankCurrent,
-	compileNetwork,
-	isolatorCurrent,
-	type CompiledNetwork,
-	type SolveConditions,
-} from './network';
+import { alternatorCurrent, bankCurrent, isolatorCurrent } from './newton';
+import { compileNetwork, type CompiledNetwork, type SolveConditions } from './network';
 import { type RawSolution, solveCompiled } from './solver';
 import type { BuildDocument } from './types';
 

@@ -1,8 +1,8 @@
 // Solving a compiled network: Newton from the unloaded point or a warm start, the discharge-side
 // guess, demand continuation to the collapse point, and the outer rounds for DC-DC chargers.
 import { EngineInputError } from './errors';
-import { newton, type NewtonResult } from './newton';
-import { alternatorCurrent, type CompiledNetwork, GMIN_S, type TwoTerminal, volt } from './network';
+import { type CompiledNetwork, GMIN_S, type TwoTerminal } from './network';
+import { alternatorCurrent, newton, type NewtonResult, volt } from './newton';
 
 export interface RawSolution {
 	/** Node voltages by index (chassis excluded). */
