@@ -7,7 +7,8 @@
  *
  * Targets (ratio to health; p99 at 10 connections): report API ≥ 0.5, plan comparison (repeat
  * view) ≥ 0.3, build page ≥ 0.25, team page ≥ 0.4, each p99 < 100 ms; the two pages rendered
- * afresh (a query string skips the kept copy, as after every change): team ≥ 0.5, build ≥ 0.3.
+ * afresh (a query string skips the kept copy, as after every change): team ≥ 0.5, build ≥ 0.3 (a
+ * throughput target only: at 10 connections on two cores their p99 is printed, not judged).
  */
 import autocannon from 'autocannon';
 import { DEMO_PASSWORD, DEMO_USERS } from '../../db/seed';
@@ -99,10 +100,11 @@ try {
 		const ratio = median(r.ratio);
 		const p99 = median(r.p99);
 		const target = TARGETS[name];
+		const judgesP99 = !name.includes('afresh');
 		const verdict =
 			target === undefined
 				? ''
-				: `${ratio >= target && p99 < 100 ? 'meets' : 'MISSES'} ≥ ${target}, p99 < 100`;
+				: `${ratio >= target && (!judgesP99 || p99 < 100) ? 'meets' : 'MISSES'} ≥ ${target}${judgesP99 ? ', p99 < 100' : ''}`;
 		console.log(
 			`${name.padEnd(32)}${median(r.rps).toFixed(0).padStart(8)}${String(p99).padStart(9)}${ratio.toFixed(3).padStart(10)}  ${verdict}${r.errors ? `  (${r.errors} errors/non-2xx)` : ''}`,
 		);

@@ -84,6 +84,21 @@ describe('the build page’s layout, in chromium', () => {
 		}, 60_000);
 	}
 
+	it('serves the diagram’s frame at its size and draws it once the page is live', async () => {
+		// The drawing is a third of the page's markup and sits below the first screens.
+		const served = await (await b.page.request.get(buildUrl)).text();
+		const frame =
+			/<svg width="(\d+)" height="(\d+)"[^>]*data-network-diagram[^>]*>(.*?)<\/svg>/s.exec(served);
+		expect(frame).not.toBeNull();
+		expect(frame![3]).not.toContain('data-part');
+		await b.page.setViewportSize(LAPTOP);
+		await b.page.goto(buildUrl);
+		const live = b.page.locator('[data-network-diagram][data-drawn]');
+		await live.locator('[data-part]').first().waitFor();
+		await expect(live.getAttribute('width')).resolves.toBe(frame![1]);
+		await expect(live.getAttribute('height')).resolves.toBe(frame![2]);
+	}, 60_000);
+
 	for (const viewport of [LAPTOP, PHONE]) {
 		it(`draws the network with 11 px labels, no cable through a label and a column per part at ${viewport.width} px`, async () => {
 			await b.page.setViewportSize(viewport);
