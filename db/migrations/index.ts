@@ -10,6 +10,7 @@ import * as hardenAccounts from './2026_12_02_090000_harden_accounts_and_imports
 import * as trustworthyRecords from './2026_12_02_190000_trustworthy_records';
 import * as teamDataVersion from './2026_12_04_130000_team_data_version';
 import * as waiverScope from './2026_12_05_090000_waiver_scope';
+import * as partsShelf from './2026_12_05_160000_parts_shelf';
 
 /**
  * Every migration, by name, in the order they apply. Listed explicitly (rather than read from the
@@ -28,4 +29,5 @@ export const migrations: Record<string, Migration> = {
 	'2026_12_02_190000_trustworthy_records': trustworthyRecords,
 	'2026_12_04_130000_team_data_version': teamDataVersion,
 	'2026_12_05_090000_waiver_scope': waiverScope,
+	'2026_12_05_160000_parts_shelf': partsShelf,
 };

@@ -11,6 +11,8 @@ import { hashToken } from '../../src/lib/server/tokens';
 import { callEndpoint, type EndpointModule, jsonRequest } from '../helpers/container';
 import { addMember, localsFor, makeTeam, makeUser, memoryStorage } from '../helpers/fixtures';
 import { createTestDb, type TestDb } from '../helpers/test-db';
+import { shelfBank } from '../helpers/shelf';
+import { insertShelfItems } from '../../src/lib/server/db/shelf';
 
 /**
  * Every team route, called as anonymous, viewer, member, captain and the captain of another team.
@@ -33,6 +35,8 @@ interface World {
 	runId: string;
 	fileId: string;
 	planId: string;
+	shelfItemId: string;
+	shelfReadAt: string;
 }
 
 interface Case {
@@ -245,6 +249,37 @@ const MATRIX: Record<string, Case[]> = {
 			method: 'POST',
 			params: planScoped,
 			body: (w) => ({ parentId: w.revisionId }),
+			expect: memberWrite(201),
+		},
+	],
+	'teams/[teamId]/shelf/index.ts': [
+		{ method: 'GET', params: teamScoped, expect: read },
+		{ method: 'POST', params: teamScoped, body: () => shelfBank(), expect: memberWrite(201) },
+	],
+	'teams/[teamId]/shelf/[itemId].ts': [
+		{
+			method: 'PUT',
+			params: (w) => ({ teamId: w.teamId, itemId: w.shelfItemId }),
+			body: (w) => ({ item: shelfBank({ label: 'Renamed' }), updatedAt: w.shelfReadAt }),
+			expect: memberWrite(200),
+		},
+		{
+			method: 'DELETE',
+			params: (w) => ({ teamId: w.teamId, itemId: w.shelfItemId }),
+			expect: memberWrite(204),
+		},
+	],
+	'teams/[teamId]/shelf/export.csv.ts': [{ method: 'GET', params: teamScoped, expect: read }],
+	'teams/[teamId]/shelf/import.ts': [
+		{
+			method: 'POST',
+			params: teamScoped,
+			request: () =>
+				new Request('http://localhost/x', {
+					method: 'POST',
+					headers: { 'content-type': 'text/csv' },
+					body: 'kind,name,price,currentA\nloads,Fan,12.50,2\n',
+				}),
 			expect: memberWrite(201),
 		},
 	],
@@ -485,7 +520,10 @@ describe('authorization matrix', () => {
 			document: pebbleBuild,
 			createdBy: users.member.id,
 		});
+		const [shelfItem] = await insertShelfItems(t.db, teamId, [shelfBank()]);
 		return {
+			shelfItemId: shelfItem!.id,
+			shelfReadAt: shelfItem!.updatedAt,
 			teamId,
 			teamName,
 			users,

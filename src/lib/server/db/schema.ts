@@ -270,7 +270,26 @@ export interface PlanPartTable {
 	link: Generated<string>;
 }
 
+export interface ShelfItemTable {
+	id: Generated<string>;
+	team_id: string;
+	/** One of SHELF_KINDS. */
+	kind: string;
+	label: string;
+	/** The part's fields the engine needs, checked by the kind's schema before it is written. */
+	spec: ColumnType<unknown, string, string>;
+	/** Price of one (a cable's per metre), in minor units of the team's currency; bigint arrives as a string. */
+	price_minor: ColumnType<string | null, number | null, number | null>;
+	supplier: Generated<string>;
+	link: Generated<string>;
+	owned: Generated<number>;
+	notes: Generated<string>;
+	created_at: DefaultTimestamp;
+	updated_at: DefaultTimestamp;
+}
+
 export interface Database {
+	shelf_item: ShelfItemTable;
 	plan: PlanTable;
 	plan_part: PlanPartTable;
 	check_item: CheckItemTable;
