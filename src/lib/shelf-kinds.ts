@@ -17,6 +17,19 @@ export const SHELF_KINDS = [
 ] as const;
 export type ShelfKind = (typeof SHELF_KINDS)[number];
 
+/** One entry of the kind, in words ("a battery bank"). */
+export const SHELF_NAMES: Record<ShelfKind, string> = {
+	banks: 'a battery bank',
+	alternators: 'an alternator',
+	amplifiers: 'an amplifier',
+	cables: 'a cable',
+	fuses: 'a fuse or breaker',
+	loads: 'a steady load',
+	isolators: 'a relay or isolator',
+	capacitors: 'a capacitor module',
+	chargers: 'a DC-DC charger',
+};
+
 /** The build's part group a shelf kind places as (a fuse goes on a cable's end instead). */
 export const SHELF_GROUP: Record<ShelfKind, Exclude<PartGroup, 'nodes'> | null> = {
 	banks: 'banks',

@@ -3,7 +3,7 @@ import type * as zm from 'zod/mini';
 import { minorToText, parseMoney } from '@/lib/money';
 import { SHELF_SPECS, shelfItemSchema, type ShelfItemInput } from '@/lib/schemas/shelf';
 import { findControlCharacter, NOTES_MESSAGE } from '@/lib/schemas/text';
-import { SHELF_KINDS, type ShelfItemDto, type ShelfKind } from '@/lib/shelf-kinds';
+import { SHELF_KINDS, SHELF_NAMES, type ShelfItemDto, type ShelfKind } from '@/lib/shelf-kinds';
 import type { FieldError } from './http';
 
 /**
@@ -13,6 +13,12 @@ import type { FieldError } from './http';
  * spreadsheet would run as a formula go out with a leading apostrophe and come back without it.
  */
 const FIXED = ['kind', 'name', 'price', 'supplier', 'link', 'owned', 'notes'] as const;
+/** A field of a part named like a column every entry has (a relay's `kind`) goes by `spec.kind`. */
+const SPEC_PREFIX = 'spec.';
+const columnOf = (key: string) =>
+	(FIXED as readonly string[]).includes(key.split('.')[0]!) ? `${SPEC_PREFIX}${key}` : key;
+const keyOf = (column: string) =>
+	column.startsWith(SPEC_PREFIX) ? column.slice(SPEC_PREFIX.length) : column;
 
 function flatten(value: Record<string, unknown>, prefix = '', into: Record<string, string> = {}) {
 	for (const [k, v] of Object.entries(value)) {
@@ -27,7 +33,9 @@ function flatten(value: Record<string, unknown>, prefix = '', into: Record<strin
 export function shelfToCsv(items: ShelfItemDto[]): string {
 	const specColumns: string[] = [];
 	const rows = items.map((item) => {
-		const spec = flatten(item.spec);
+		const spec = Object.fromEntries(
+			Object.entries(flatten(item.spec)).map(([k, v]) => [columnOf(k), v]),
+		);
 		for (const key of Object.keys(spec)) if (!specColumns.includes(key)) specColumns.push(key);
 		return {
 			kind: item.kind,
@@ -162,14 +170,15 @@ export function parseShelfCsv(text: string, limit: number): ShelfCsvResult {
 		const specSchema = SHELF_SPECS[kind] as unknown as Schema;
 		const fields = new Set(Object.keys(specSchema._zod.def.shape ?? {}));
 		const cells: Array<[string, string]> = [];
-		for (const key of header) {
-			if ((FIXED as readonly string[]).includes(key) || key === '__parsed_extra') continue;
-			const value = cell(key);
+		for (const column of header) {
+			if ((FIXED as readonly string[]).includes(column) || column === '__parsed_extra') continue;
+			const key = keyOf(column);
+			const value = cell(column);
 			if (value === '' && !fields.has(key.split('.')[0]!)) continue;
 			if (!fields.has(key.split('.')[0]!)) {
 				errors.push({
-					path: where(key),
-					message: `Row ${line}: a ${kind} entry has no "${key}"`,
+					path: where(column),
+					message: `Row ${line}: ${SHELF_NAMES[kind]} has no "${column}"`,
 				});
 				continue;
 			}
@@ -198,7 +207,11 @@ export function parseShelfCsv(text: string, limit: number): ShelfCsvResult {
 			for (const issue of result.error.issues) {
 				const path = issue.path.map(String);
 				const column =
-					path[0] === 'spec' ? path.slice(1).join('.') : path[0] === 'label' ? 'name' : path[0];
+					path[0] === 'spec'
+						? columnOf(path.slice(1).join('.'))
+						: path[0] === 'label'
+							? 'name'
+							: path[0];
 				errors.push({
 					path: where(column ?? ''),
 					message: `Row ${line}${column ? `, ${column}` : ''}: ${issue.message}`,
