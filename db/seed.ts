@@ -14,6 +14,7 @@ import { DEFAULT_CLUSTER, ensureCluster } from './cluster';
 import { migrateToLatest } from './migrator';
 import { DEMO_BUILDS, DEMO_HISTORIES } from './demo/builds';
 import { DEMO_PLANS } from './demo/plans';
+import { DEMO_SHELF } from './demo/shelf';
 import { DEMO_EVENTS, DEMO_RUNS, demoTrace } from './demo/runs';
 import type { Storage } from '../src/lib/server/storage';
 import type { Database } from '../src/lib/server/db/schema';
@@ -241,6 +242,23 @@ export async function seedDemo(db: Kysely<Database>, storage?: Storage): Promise
 				)
 				.execute();
 		}
+		await trx
+			.insertInto('shelf_item')
+			.values(
+				DEMO_SHELF.map((x, i) => ({
+					team_id: team.id,
+					kind: x.kind,
+					label: x.label,
+					spec: JSON.stringify(x.spec),
+					price_minor: x.priceMinor,
+					supplier: x.supplier,
+					owned: x.owned,
+					notes: x.notes,
+					created_at: at('2026-08-01', 9 + i),
+					updated_at: at('2026-08-01', 9 + i),
+				})),
+			)
+			.execute();
 		await trx
 			.insertInto('check_item')
 			.values([

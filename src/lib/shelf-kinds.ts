@@ -60,6 +60,14 @@ export const PLACEMENT_FIELDS: Record<ShelfKind, readonly string[]> = {
 	chargers: ['runs'],
 };
 
+const PLACE = ['id', 'label', 'positive', 'negative', 'from', 'to'];
+
+/** A part as a shelf entry's fields: the part without its place in a build. */
+export function shelfSpecOf(kind: ShelfKind, part: object): Record<string, unknown> {
+	const drop = new Set([...PLACE, ...PLACEMENT_FIELDS[kind]]);
+	return Object.fromEntries(Object.entries(part).filter(([k]) => !drop.has(k)));
+}
+
 /** What one price buys: a cable is priced per metre, everything else per piece. */
 export const priceUnit = (kind: ShelfKind) => (kind === 'cables' ? 'per m' : 'each');
 

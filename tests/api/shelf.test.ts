@@ -7,6 +7,8 @@ import * as shelfExport from '../../src/pages/api/teams/[teamId]/shelf/export.cs
 import * as shelfImport from '../../src/pages/api/teams/[teamId]/shelf/import';
 import type { AppUser } from '../../src/lib/server/auth';
 import { parseBuildDocument } from '../../src/engine';
+import { DEMO_SHELF } from '../../db/demo/shelf';
+import { shelfItemSchema } from '../../src/lib/schemas/shelf';
 import { SHELF_GROUP, SHELF_KINDS, type ShelfItemDto } from '../../src/lib/shelf-kinds';
 import { parseMoney, minorToText } from '../../src/lib/money';
 import { callEndpoint, jsonRequest } from '../helpers/container';
@@ -201,6 +203,15 @@ describe('the parts shelf', () => {
 		expect(await count()).toBe(n);
 		const notCsv = await call(shelfImport, 'POST', {}, { a: 1 });
 		expect(notCsv.status).toBe(415);
+	});
+});
+
+describe('the demo shelf', () => {
+	it('holds only entries the shelf’s own check accepts', () => {
+		for (const x of DEMO_SHELF) {
+			const r = shelfItemSchema.safeParse({ ...x, link: '' });
+			expect(r.success, `${x.label}: ${JSON.stringify(r.error?.issues)}`).toBe(true);
+		}
 	});
 });
 

@@ -3,6 +3,7 @@ import type { Kysely } from 'kysely';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import type { Database } from '../../src/lib/server/db/schema';
 import { DEMO_USERS, seedDemo } from '../../db/seed';
+import { DEMO_SHELF } from '../../db/demo/shelf';
 import type { AppUser } from '../../src/lib/server/auth';
 import { appendRevision, findHeadRevision } from '../../src/lib/server/db/builds';
 import type { Storage } from '../../src/lib/server/storage';
@@ -148,6 +149,11 @@ async function snapshot(db: Kysely<Database>, storage: Storage, teamId: string) 
 					installed: rev(installed_revision_id),
 					by: person(created_by, imported_by),
 				}),
+			),
+		),
+		shelf: sorted(
+			(await db.selectFrom('shelf_item').selectAll().where('team_id', '=', teamId).execute()).map(
+				({ id, team_id, ...x }) => x,
 			),
 		),
 		parts: sorted(
@@ -412,6 +418,7 @@ describe('team backup', () => {
 		expect(before.files.join()).toContain('"kind":"thumbnail"');
 		expect(before.signoffs.length).toBe(3);
 		expect(before.parts.length).toBe(10);
+		expect(before.shelf.length).toBe(DEMO_SHELF.length);
 	});
 
 	it('imports on another installation: unknown members are invited, the importer is captain', async () => {

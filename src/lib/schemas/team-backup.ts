@@ -1,6 +1,7 @@
 import { z } from '@/lib/zod';
 import { buildDocumentSchema } from '@/engine';
 import { measurementNumbersShape } from './run-measurements';
+import { shelfItemSchema } from './shelf';
 
 /**
  * A whole team as one file. Records refer to each other by keys local to the file (`v1`, `v1.r3`,
@@ -186,6 +187,11 @@ export const teamBackupContentSchema = z.object({
 			waivedReasons: z.array(z.string().max(2000)).max(500).nullable().default(null),
 		}),
 	),
+	/** The team's parts shelf, each entry checked as the shelf's own route checks it; older files have none. */
+	shelf: z
+		.array(z.object({ item: shelfItemSchema, createdAt: iso }))
+		.max(2000)
+		.default([]),
 });
 export type TeamBackupContent = z.infer<typeof teamBackupContentSchema>;
 

@@ -10,6 +10,7 @@ import {
 	readVehiclePlans,
 } from '@/lib/server/db/backup';
 import type { Database } from '@/lib/server/db/schema';
+import { findShelfForBackup } from '@/lib/server/db/shelf';
 import { measurementsOf } from '@/lib/schemas/run-measurements';
 
 import {
@@ -225,6 +226,22 @@ export async function* exportTeamChunks(
 				waivedValue: x.waived_value,
 				waivedReasons: x.waived_reasons,
 			})),
+	);
+	yield field(
+		'shelf',
+		(await findShelfForBackup(db, teamId)).map(({ createdAt, ...x }) => ({
+			item: {
+				kind: x.kind,
+				label: x.label,
+				spec: x.spec,
+				priceMinor: x.priceMinor,
+				supplier: x.supplier,
+				link: x.link,
+				owned: x.owned,
+				notes: x.notes,
+			},
+			createdAt,
+		})),
 	);
 	yield part('}');
 	yield `,"checksum":${JSON.stringify(hash.digest('hex'))}}`;

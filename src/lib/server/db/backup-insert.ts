@@ -276,6 +276,25 @@ export async function insertTeamFromBackup(
 				})
 				.execute();
 		}
+		for (let i = 0; i < t.shelf.length; i += 500)
+			await trx
+				.insertInto('shelf_item')
+				.values(
+					t.shelf.slice(i, i + 500).map(({ item, createdAt }) => ({
+						team_id: team.id,
+						kind: item.kind,
+						label: item.label,
+						spec: JSON.stringify(item.spec),
+						price_minor: item.priceMinor,
+						supplier: item.supplier,
+						link: item.link,
+						owned: item.owned,
+						notes: item.notes,
+						created_at: createdAt,
+						updated_at: createdAt,
+					})),
+				)
+				.execute();
 		return {
 			teamId: team.id,
 			name: team.name,

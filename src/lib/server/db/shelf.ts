@@ -144,3 +144,20 @@ export async function deleteShelfItem(db: Db, teamId: string, id: string): Promi
 		.executeTakeFirst();
 	return Number(r.numDeletedRows) > 0;
 }
+
+/** The shelf as a backup writes it: in the order entries were made, with when. */
+export async function findShelfForBackup(
+	db: Db,
+	teamId: string,
+): Promise<Array<ShelfItemDto & { createdAt: string }>> {
+	const rows = await db
+		.selectFrom('shelf_item')
+		.select([...COLUMNS, 'created_at'])
+		.where('team_id', '=', teamId)
+		.orderBy('created_at')
+		.orderBy('kind')
+		.orderBy('label')
+		.orderBy('id')
+		.execute();
+	return rows.map((r) => ({ ...toShelfDto(r), createdAt: r.created_at.toISOString() }));
+}
