@@ -67,7 +67,14 @@ describe('accessibility (axe-core in chromium): no critical or serious violation
 			open.push(b);
 			await signInToTeam(b, appUrl, user.email, DEMO_PASSWORD, DEMO_TEAM_NAME);
 			const team = b.page.url();
-			const pages = [`${appUrl}/teams`, team, `${team}/day`, `${team}/events`, `${team}/settings`];
+			const pages = [
+				`${appUrl}/teams`,
+				team,
+				`${team}/day`,
+				`${team}/events`,
+				`${team}/settings`,
+				`${team}/shelf`,
+			];
 			await b.page.goto(`${team}/events`);
 			const checks = await firstHref(b, 'a[href*="/checks"]');
 			if (checks) pages.push(new URL(checks, appUrl).href);

@@ -1,4 +1,4 @@
-import { useId, useState } from 'react';
+import { useContext, useId, useState } from 'react';
 import {
 	NODE_KINDS,
 	PART_KINDS,
@@ -13,6 +13,8 @@ import { GROUP_NAMES } from '@/lib/format';
 import { Button, Field } from '@/components/ui/Field';
 import { freshId, newCable, newNode } from './new-parts';
 import { NEW_NODE as NEW, UI_PART_KINDS } from './part-kinds';
+import { ShelfContext, ShelfPicker } from './shelf-context';
+import type { ShelfItemDto } from '@/lib/shelf-kinds';
 
 const byKind = (d: BuildDocument, kind: NodeKind) => d.nodes.find((n) => n.kind === kind)?.id;
 
@@ -45,6 +47,8 @@ export function AddPartForm({
 		() => byKind(draft, 'block') ?? byKind(draft, 'battery') ?? draft.nodes[0]?.id ?? '',
 	);
 	const [error, setError] = useState<string | undefined>();
+	const shelf = useContext(ShelfContext);
+	const [picked, setPicked] = useState<ShelfItemDto | null>(null);
 
 	function submit(e: React.FormEvent) {
 		e.preventDefault();
@@ -74,7 +78,9 @@ export function AddPartForm({
 				at[t.key] = node.id;
 			}
 			const withNodes = { ...d, nodes };
-			const part = { ...kindUi.make(withNodes), label: name, ...at };
+			// A shelf entry's fields over the kind's defaults; its place (ends, length) from the build.
+			const part = { ...kindUi.make(withNodes), ...(picked?.spec ?? {}), label: name, ...at };
+			if (picked) shelf?.onPick?.(picked, part);
 			const next = {
 				...withNodes,
 				[group]: [...partsOf(withNodes, group), part],
@@ -130,6 +136,20 @@ export function AddPartForm({
 			aria-label={`Add ${/^[aeiou]/.test(noun) ? 'an' : 'a'} ${noun}`}
 			className="mb-3 flex flex-col gap-3 rounded-md border border-copper/50 bg-copper-tint/30 p-3"
 		>
+			{shelf && group !== 'nodes' && (
+				<ShelfPicker
+					id={`${id}-shelf`}
+					teamId={shelf.teamId}
+					group={group}
+					noun={noun}
+					picked={picked}
+					onPicked={(entry) => {
+						setPicked(entry);
+						if (entry) setLabel(entry.label);
+					}}
+					carriesPrice={shelf.onPick !== undefined}
+				/>
+			)}
 			<div className="grid grid-cols-1 gap-3 sm:grid-cols-3">
 				<Field
 					label="Name"

@@ -18,6 +18,7 @@ import { useCreatePlan } from '@/lib/client/queries/plans';
 import { Button, FormMessage } from '@/components/ui/Field';
 import { starterDocument } from './new-parts';
 import { useDraftCheck } from '@/lib/client/use-draft-check';
+import { ShelfContext } from './shelf-context';
 import { Workbench } from './Workbench';
 
 import { sameJson } from '@/lib/same-json';
@@ -226,6 +227,7 @@ export function BuildWorkspaceView({
 		setUnitsOnAccount.mutate(next);
 	}
 
+	const shelf = useMemo(() => ({ teamId }), [teamId]);
 	return (
 		<div
 			className="flex flex-col gap-8"
@@ -233,160 +235,162 @@ export function BuildWorkspaceView({
 			onFocusCapture={canEdit ? want : undefined}
 			onPointerDownCapture={canEdit ? want : undefined}
 		>
-			<Workbench
-				draft={draft}
-				errors={errors ?? NO_ERRORS}
-				checking={checking}
-				units={units}
-				canEdit={canEdit}
-				baseline={head ? baseDoc : null}
-				baselineRevisionId={head?.id ?? null}
-				computeOnServer={figuresServed}
-				sections="build"
-				onMakePlan={makePlan}
-				// The draft and its save box sit right under the key figures, not above them.
-				afterSummary={
-					<section
-						aria-label="Draft and saving"
-						className="-mx-2 flex flex-col gap-2 rounded-md border border-hairline bg-card/95 p-3 shadow-sm backdrop-blur"
-					>
-						<div className="flex flex-wrap items-center gap-3">
-							<span className="text-sm">
-								{head ? (
-									<>
-										Based on <strong>revision {head.number}</strong> · {head.message}
-									</>
-								) : (
-									<strong>No revision yet: this is a starting point</strong>
-								)}
-							</span>
-							{dirty && (
-								<span className="rounded bg-amber-tint px-2 py-0.5 text-xs font-semibold text-ink">
-									● {changes.length} unsaved change{changes.length === 1 ? '' : 's'}
+			<ShelfContext.Provider value={shelf}>
+				<Workbench
+					draft={draft}
+					errors={errors ?? NO_ERRORS}
+					checking={checking}
+					units={units}
+					canEdit={canEdit}
+					baseline={head ? baseDoc : null}
+					baselineRevisionId={head?.id ?? null}
+					computeOnServer={figuresServed}
+					sections="build"
+					onMakePlan={makePlan}
+					// The draft and its save box sit right under the key figures, not above them.
+					afterSummary={
+						<section
+							aria-label="Draft and saving"
+							className="-mx-2 flex flex-col gap-2 rounded-md border border-hairline bg-card/95 p-3 shadow-sm backdrop-blur"
+						>
+							<div className="flex flex-wrap items-center gap-3">
+								<span className="text-sm">
+									{head ? (
+										<>
+											Based on <strong>revision {head.number}</strong> · {head.message}
+										</>
+									) : (
+										<strong>No revision yet: this is a starting point</strong>
+									)}
 								</span>
-							)}
-							{errorCount > 0 && (
-								<span className="rounded bg-brick-tint px-2 py-0.5 text-xs font-semibold text-brick">
-									✕ {errorCount} field{errorCount === 1 ? '' : 's'} to fix
-								</span>
-							)}
-							<span className="flex-1" />
-							<UnitsChoice units={units} onChoose={(u) => void saveUnits(u)} />
-						</div>
-						{canEdit && (
-							<form
-								className="flex flex-wrap items-center gap-2"
-								onSubmit={(e) => {
-									e.preventDefault();
-									void save(baseId);
-								}}
-							>
-								<label htmlFor="revision-message" className="sr-only">
-									What changed and why
-								</label>
-								<input
-									id="revision-message"
-									value={message}
-									onChange={(e) => setMessage(e.target.value)}
-									placeholder="What changed and why (e.g. run upgraded to 1/0 after the last event)"
-									className="min-w-72 flex-1 rounded-md border border-hairline bg-card px-3 py-2"
-									maxLength={500}
-								/>
-								<Button
-									type="submit"
-									busy={saveState.busy}
-									disabled={saveBlocked !== null}
-									aria-describedby="save-blocked"
-								>
-									Save revision
-								</Button>
-
-								<LoadJsonButton
-									onLoaded={(doc, name) => {
-										setDraft(doc);
-										setSaveState((st) => ({
-											...st,
-											error: null,
-											ok: `${name} is loaded into the draft; save it as a revision to keep it.`,
-										}));
-									}}
-									onRefused={(error) => setSaveState((st) => ({ ...st, ok: null, error }))}
-								/>
 								{dirty && (
-									<Button
-										type="button"
-										variant="secondary"
-										onClick={() => {
-											if (!window.confirm('Throw away the unsaved changes?')) return;
-											buildDrafts.clear(vehicleId);
-											setDraft(baseDoc);
-											setBaseId(head?.id ?? null);
-											setRestored(null);
-										}}
-									>
-										Discard
-									</Button>
+									<span className="rounded bg-amber-tint px-2 py-0.5 text-xs font-semibold text-ink">
+										● {changes.length} unsaved change{changes.length === 1 ? '' : 's'}
+									</span>
 								)}
-							</form>
-						)}
-						{canEdit && (
-							// Always there and one line tall: its words change as the draft does, its height never.
-							<p
-								id="save-blocked"
-								className="h-5 truncate text-sm text-ink-soft"
-								data-save-blocked
-								aria-live="polite"
-							>
-								{saveBlocked ?? 'Ready to save.'}
-							</p>
-						)}
-						{restored && <FormMessage tone="info">{restored}</FormMessage>}
-						{saveState.ok && (
-							<FormMessage tone="ok">
-								{saveState.ok}{' '}
-								<a
-									className="font-semibold underline"
-									href={`/teams/${teamId}/vehicles/${vehicleId}/history`}
+								{errorCount > 0 && (
+									<span className="rounded bg-brick-tint px-2 py-0.5 text-xs font-semibold text-brick">
+										✕ {errorCount} field{errorCount === 1 ? '' : 's'} to fix
+									</span>
+								)}
+								<span className="flex-1" />
+								<UnitsChoice units={units} onChoose={(u) => void saveUnits(u)} />
+							</div>
+							{canEdit && (
+								<form
+									className="flex flex-wrap items-center gap-2"
+									onSubmit={(e) => {
+										e.preventDefault();
+										void save(baseId);
+									}}
 								>
-									See the history
-								</a>
-							</FormMessage>
-						)}
-						{saveState.error && <FormMessage tone="error">{saveState.error}</FormMessage>}
-						{saveState.conflict && (
-							<ConflictPanel
-								theirs={saveState.conflict}
-								mine={draft}
-								units={units}
-								onKeepMine={() => {
-									setHead(saveState.conflict);
-									void save(saveState.conflict!.id);
-								}}
-								onTakeTheirs={() => {
-									buildDrafts.clear(vehicleId);
-									setHead(saveState.conflict);
-									setBaseId(saveState.conflict!.id);
-									setDraft(saveState.conflict!.document);
-									setSaveState({ busy: false, error: null, ok: null, conflict: null });
-								}}
+									<label htmlFor="revision-message" className="sr-only">
+										What changed and why
+									</label>
+									<input
+										id="revision-message"
+										value={message}
+										onChange={(e) => setMessage(e.target.value)}
+										placeholder="What changed and why (e.g. run upgraded to 1/0 after the last event)"
+										className="min-w-72 flex-1 rounded-md border border-hairline bg-card px-3 py-2"
+										maxLength={500}
+									/>
+									<Button
+										type="submit"
+										busy={saveState.busy}
+										disabled={saveBlocked !== null}
+										aria-describedby="save-blocked"
+									>
+										Save revision
+									</Button>
+
+									<LoadJsonButton
+										onLoaded={(doc, name) => {
+											setDraft(doc);
+											setSaveState((st) => ({
+												...st,
+												error: null,
+												ok: `${name} is loaded into the draft; save it as a revision to keep it.`,
+											}));
+										}}
+										onRefused={(error) => setSaveState((st) => ({ ...st, ok: null, error }))}
+									/>
+									{dirty && (
+										<Button
+											type="button"
+											variant="secondary"
+											onClick={() => {
+												if (!window.confirm('Throw away the unsaved changes?')) return;
+												buildDrafts.clear(vehicleId);
+												setDraft(baseDoc);
+												setBaseId(head?.id ?? null);
+												setRestored(null);
+											}}
+										>
+											Discard
+										</Button>
+									)}
+								</form>
+							)}
+							{canEdit && (
+								// Always there and one line tall: its words change as the draft does, its height never.
+								<p
+									id="save-blocked"
+									className="h-5 truncate text-sm text-ink-soft"
+									data-save-blocked
+									aria-live="polite"
+								>
+									{saveBlocked ?? 'Ready to save.'}
+								</p>
+							)}
+							{restored && <FormMessage tone="info">{restored}</FormMessage>}
+							{saveState.ok && (
+								<FormMessage tone="ok">
+									{saveState.ok}{' '}
+									<a
+										className="font-semibold underline"
+										href={`/teams/${teamId}/vehicles/${vehicleId}/history`}
+									>
+										See the history
+									</a>
+								</FormMessage>
+							)}
+							{saveState.error && <FormMessage tone="error">{saveState.error}</FormMessage>}
+							{saveState.conflict && (
+								<ConflictPanel
+									theirs={saveState.conflict}
+									mine={draft}
+									units={units}
+									onKeepMine={() => {
+										setHead(saveState.conflict);
+										void save(saveState.conflict!.id);
+									}}
+									onTakeTheirs={() => {
+										buildDrafts.clear(vehicleId);
+										setHead(saveState.conflict);
+										setBaseId(saveState.conflict!.id);
+										setDraft(saveState.conflict!.document);
+										setSaveState({ busy: false, error: null, ok: null, conflict: null });
+									}}
+								/>
+							)}
+						</section>
+					}
+					summaryExtra={
+						canEdit && (
+							<UnsavedNote
+								changes={dirty ? changes.length : 0}
+								blocked={saveBlocked}
+								headNumber={head?.number ?? null}
 							/>
-						)}
-					</section>
-				}
-				summaryExtra={
-					canEdit && (
-						<UnsavedNote
-							changes={dirty ? changes.length : 0}
-							blocked={saveBlocked}
-							headNumber={head?.number ?? null}
-						/>
-					)
-				}
-				onChange={(next: (d: BuildDocument) => BuildDocument) => {
-					setDraft(next);
-					setSaveState((st) => ({ ...st, ok: null }));
-				}}
-			/>
+						)
+					}
+					onChange={(next: (d: BuildDocument) => BuildDocument) => {
+						setDraft(next);
+						setSaveState((st) => ({ ...st, ok: null }));
+					}}
+				/>
+			</ShelfContext.Provider>
 
 			<RecentRevisions revisions={revisions.data} teamId={teamId} vehicleId={vehicleId} />
 			<p className="sr-only">{vehicleName}</p>

@@ -20,6 +20,9 @@ import { installConfirmed } from '@/lib/client/install-plan';
 import { useHydrated } from '@/lib/client/use-hydrated';
 
 import { PlanChanges } from './PlanChanges';
+import { ShelfContext } from '@/components/builds/shelf-context';
+import { minorToText } from '@/lib/money';
+import type { ShelfItemDto } from '@/lib/shelf-kinds';
 import { fromDraft, type PartDraft, PlanPartsTable, toDraft } from './plan-parts';
 import type { PlanWorkspaceProps } from './PlanWorkspace';
 
@@ -243,6 +246,26 @@ export function PlanWorkspaceView({
 		}
 	}
 
+	// A part started from the team's shelf goes into the parts to buy at the shelf's price (a
+	// cable by the metre, its length rounded up).
+	const shelf = useMemo(
+		() => ({
+			teamId,
+			onPick: (entry: ShelfItemDto, part: Record<string, unknown>) =>
+				setParts((ps) => [
+					...ps,
+					{
+						item: entry.label,
+						quantity: String(
+							entry.kind === 'cables' ? Math.max(1, Math.ceil(Number(part.lengthM) || 1)) : 1,
+						),
+						unitPrice: entry.priceMinor === null ? '0.00' : minorToText(entry.priceMinor),
+						link: entry.link,
+					},
+				]),
+		}),
+		[teamId],
+	);
 	const setPart = (i: number, patch: Partial<PartDraft>) =>
 		setParts((ps) => ps.map((p, j) => (j === i ? { ...p, ...patch } : p)));
 
@@ -365,18 +388,20 @@ export function PlanWorkspaceView({
 
 			<PlanChanges changes={changes} baseRevisionNumber={plan.baseRevisionNumber} units={units} />
 
-			<Workbench
-				draft={draft}
-				errors={docErrors}
-				checking={!hydrated}
-				units={units}
-				canEdit={canEdit}
-				subject="plan"
-				baseline={baseDocument}
-				onChange={(next) => setDraft(next)}
-				// A plan's figures are worked out in the browser, never on the server's request thread.
-				computeOnServer={false}
-			/>
+			<ShelfContext.Provider value={shelf}>
+				<Workbench
+					draft={draft}
+					errors={docErrors}
+					checking={!hydrated}
+					units={units}
+					canEdit={canEdit}
+					subject="plan"
+					baseline={baseDocument}
+					onChange={(next) => setDraft(next)}
+					// A plan's figures are worked out in the browser, never on the server's request thread.
+					computeOnServer={false}
+				/>
+			</ShelfContext.Provider>
 		</div>
 	);
 }
