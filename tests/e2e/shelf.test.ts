@@ -1,6 +1,9 @@
 import { afterAll, beforeAll, describe, expect, inject, it } from 'vitest';
-import { pebbleBuild } from '../../db/demo/builds';
-import { type Browser, openBrowser, signUpWithBuild } from '../helpers/browser';
+import { marlinBuild, pebbleBuild } from '../../db/demo/builds';
+import { DEMO_SHELF } from '../../db/demo/shelf';
+import { DEMO_PASSWORD, DEMO_TEAM_NAME, DEMO_USERS } from '../../db/seed';
+import { minorToText } from '../../src/lib/money';
+import { type Browser, openBrowser, openDemoVehicle, signUpWithBuild } from '../helpers/browser';
 
 const appUrl = inject('appUrl');
 
@@ -111,5 +114,38 @@ describe('the parts shelf, in chromium', () => {
 		await expect(parts.textContent()).resolves.toMatch(/189\.90/);
 		await b.screenshot('shelf-plan-1366');
 		expect(b.problems).toEqual([]);
+	}, 60_000);
+
+	it('prices a ranked change with the shelf entry that is its part, in dB per 100', async () => {
+		const d = await openBrowser({ viewport: { width: 1366, height: 900 } });
+		try {
+			await openDemoVehicle(
+				d,
+				appUrl,
+				DEMO_USERS[1].email,
+				DEMO_PASSWORD,
+				DEMO_TEAM_NAME,
+				'Marlin',
+			);
+			const rear = marlinBuild.banks.find((x) => x.id === 'rear')!;
+			const spare = DEMO_SHELF.find((x) => x.label === '100 Ah AGM, rear spare')!;
+			const ranking = d.page.locator('[data-upgrades]');
+			await ranking.locator('li').first().waitFor();
+			const more = d.page.getByRole('button', { name: /Show all \d+ changes/ });
+			if (await more.count()) await more.click();
+			const line = ranking.locator('li[data-upgrade="add_bank"]').filter({ hasText: rear.label });
+			// One battery per unit of the added string, at the shelf's price.
+			await expect
+				.poll(() => line.locator('[data-shelf-cost]').textContent())
+				.toMatch(
+					new RegExp(
+						`^${minorToText(spare.priceMinor! * rear.unitsInSeries).replace('.', '\\.')} from the shelf( · \\d+\\.\\d\\d dB per 100)?$`,
+					),
+				);
+			await d.screenshot('shelf-priced-upgrades-1366');
+			expect(d.problems).toEqual([]);
+		} finally {
+			await d.close();
+		}
 	}, 60_000);
 });

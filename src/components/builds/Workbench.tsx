@@ -128,6 +128,10 @@ export function Workbench({
 	}, [baseline, scenario, units, baselineRevisionId, canCompute]);
 	// The heavy part (burp, upgrades) runs in the engine worker once typing pauses.
 	const { burp, hints, sweep, stale: hintsStale } = useDeferredAnalysis(draft, scenario, valid);
+	// The build the ranking was made from, to price its changes from the shelf: taken when the
+	// ranking arrives, so typing does not render the ranking again.
+	// eslint-disable-next-line react-hooks/exhaustive-deps -- follows the ranking, not each keystroke
+	const hintsBase = useMemo(() => draft, [hints]);
 	const { open, set: setOpenSection } = useOpenSections(sections);
 	const openFromNav = useCallback(
 		(id: SectionId) => {
@@ -218,6 +222,7 @@ export function Workbench({
 					stale={stale || hintsStale}
 					fromDraft={baseline !== null && draft !== baseline}
 					onMakePlan={canEdit ? onMakePlan : undefined}
+					before={hintsBase}
 				/>
 			)}
 

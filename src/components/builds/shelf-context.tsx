@@ -1,5 +1,5 @@
 import { useQuery } from '@tanstack/react-query';
-import { createContext } from 'react';
+import { createContext, useEffect } from 'react';
 import type { PartGroup } from '@/engine/browser';
 import { getJson } from '@/lib/client/api-client';
 import { minorToText } from '@/lib/money';
@@ -85,4 +85,23 @@ export function ShelfPicker({
 			)}
 		</div>
 	);
+}
+
+/** Reads the team's shelf and hands its entries up (renders nothing): for prices beside a ranking. */
+export function ShelfLoader({
+	teamId,
+	onEntries,
+}: {
+	teamId: string;
+	onEntries: (entries: ShelfItemDto[]) => void;
+}) {
+	const query = useQuery({
+		queryKey: shelfQueryKey(teamId),
+		queryFn: ({ signal }) => getJson<ShelfItemDto[]>(`/api/teams/${teamId}/shelf`, { signal }),
+		staleTime: 30_000,
+	});
+	useEffect(() => {
+		if (query.data) onEntries(query.data);
+	}, [query.data, onEntries]);
+	return null;
 }

@@ -1,5 +1,9 @@
-import { useState } from 'react';
-import type { UpgradeHint } from '@/engine/browser';
+import { useContext, useState } from 'react';
+import type { BuildDocument, UpgradeHint } from '@/engine/browser';
+import { minorToText } from '@/lib/money';
+import { dbPer100, shelfCostOf } from '@/lib/shelf-prices';
+import type { ShelfItemDto } from '@/lib/shelf-kinds';
+import { ShelfContext, ShelfLoader } from '../shelf-context';
 import { fmt } from '@/lib/format';
 import { Button } from '@/components/ui/Field';
 import { Unit } from './ResultTable';
@@ -19,8 +23,11 @@ export function UpgradeHintsSection({
 	stale = false,
 	fromDraft = false,
 	onMakePlan,
+	before,
 }: {
 	hints: UpgradeHint[] | null;
+	/** The build the changes start from (to price what each adds from the team's shelf). */
+	before?: BuildDocument;
 	/** The ranking is for an earlier draft; a newer one is being worked out. */
 	stale?: boolean;
 	/** The draft has unsaved changes: a plan made here carries them too. */
@@ -32,8 +39,13 @@ export function UpgradeHintsSection({
 	const [making, setMaking] = useState<string | null>(null);
 	const [failed, setFailed] = useState<{ key: string; message: string } | null>(null);
 	const shown = hints ? (all ? hints : hints.slice(0, FIRST_HINTS)) : [];
+	const shelf = useContext(ShelfContext);
+	const [entries, setEntries] = useState<ShelfItemDto[]>([]);
+	// A column for the shelf's price once the shelf has any entry.
+	const priced = before !== undefined && entries.length > 0;
 	return (
 		<section aria-labelledby="section-upgrades-heading" id="section-upgrades">
+			{shelf && <ShelfLoader teamId={shelf.teamId} onEntries={setEntries} />}
 			<h2 id="section-upgrades-heading" className="text-xl font-bold">
 				<span data-section-focus tabIndex={-1}>
 					What to change next
@@ -62,10 +74,12 @@ export function UpgradeHintsSection({
 					>
 						{shown.map((h, i) => {
 							const key = hintKey(h);
+							const cost = priced ? shelfCostOf(before, h, entries) : null;
+							const perHundred = cost ? dbPer100(h.gainDb, cost.costMinor) : null;
 							return (
 								<li
 									key={key}
-									className="grid grid-cols-[1.5rem_1fr] items-center gap-x-3 gap-y-1 px-3 py-2 sm:grid-cols-[1.5rem_1fr_auto_auto_auto]"
+									className={`grid grid-cols-[1.5rem_1fr] items-center gap-x-3 gap-y-1 px-3 py-2 ${priced ? 'sm:grid-cols-[1.5rem_1fr_auto_auto_auto_auto]' : 'sm:grid-cols-[1.5rem_1fr_auto_auto_auto]'}`}
 									data-upgrade={h.kind}
 								>
 									<span className="num text-ink-soft">{i + 1}.</span>
@@ -92,6 +106,20 @@ export function UpgradeHintsSection({
 												</>
 											)}
 										</span>
+										{priced && (
+											<span
+												className="num text-xs text-ink-soft"
+												data-shelf-cost={cost ? cost.costMinor : undefined}
+												title={
+													cost
+														? `From the shelf: ${cost.quantity} × “${cost.entry.label}”`
+														: undefined
+												}
+											>
+												{cost &&
+													`${minorToText(cost.costMinor)} from the shelf${perHundred !== null ? ` · ${fmt(perHundred, 2)} dB per 100` : ''}`}
+											</span>
+										)}
 										{onMakePlan && (
 											<span>
 												<Button
@@ -123,7 +151,10 @@ export function UpgradeHintsSection({
 										)}
 									</span>
 									{failed?.key === key && (
-										<p role="alert" className="text-xs text-brick sm:col-span-5 max-sm:col-start-2">
+										<p
+											role="alert"
+											className="text-xs text-brick sm:col-span-full max-sm:col-start-2"
+										>
 											{failed.message}
 										</p>
 									)}
