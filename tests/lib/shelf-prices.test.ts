@@ -9,7 +9,7 @@ const entry = (
 	kind: ShelfKind,
 	spec: object,
 	priceMinor: number | null,
-	label = kind,
+	label: string = kind,
 ): ShelfItemDto => ({
 	id: `${kind}-${label}`,
 	kind,

@@ -1,7 +1,7 @@
 import { useQuery } from '@tanstack/react-query';
 import { createContext, useEffect } from 'react';
 import type { PartGroup } from '@/engine/browser';
-import { getJson } from '@/lib/client/api-client';
+import { shelfQueryOptions } from '@/lib/client/queries/shelf';
 import { minorToText } from '@/lib/money';
 import { priceUnit, SHELF_GROUP, type ShelfItemDto } from '@/lib/shelf-kinds';
 
@@ -16,15 +16,9 @@ export interface ShelfPick {
 
 export const ShelfContext = createContext<ShelfPick | null>(null);
 
-export const shelfQueryKey = (teamId: string) => ['shelf', teamId] as const;
-
 /** The shelf's entries that place as parts of this group (asked for once the form opens). */
 function useShelfFor(teamId: string, group: PartGroup) {
-	const query = useQuery({
-		queryKey: shelfQueryKey(teamId),
-		queryFn: ({ signal }) => getJson<ShelfItemDto[]>(`/api/teams/${teamId}/shelf`, { signal }),
-		staleTime: 30_000,
-	});
+	const query = useQuery(shelfQueryOptions(teamId));
 	return {
 		entries: (query.data ?? []).filter((x) => SHELF_GROUP[x.kind] === group),
 		loading: query.isPending,
@@ -95,11 +89,7 @@ export function ShelfLoader({
 	teamId: string;
 	onEntries: (entries: ShelfItemDto[]) => void;
 }) {
-	const query = useQuery({
-		queryKey: shelfQueryKey(teamId),
-		queryFn: ({ signal }) => getJson<ShelfItemDto[]>(`/api/teams/${teamId}/shelf`, { signal }),
-		staleTime: 30_000,
-	});
+	const query = useQuery(shelfQueryOptions(teamId));
 	useEffect(() => {
 		if (query.data) onEntries(query.data);
 	}, [query.data, onEntries]);

@@ -2,7 +2,15 @@ import { useEffect, useMemo, useRef, useState } from 'react';
 import type { UnitSystem } from '@/engine/browser';
 import { MemoPartTable as PartTable } from '@/components/builds/PartTable';
 import { Button } from '@/components/ui/Field';
-import { api, ApiError, getJson } from '@/lib/client/api-client';
+import { ApiError } from '@/lib/client/api-client';
+import { withQueryClient } from '@/lib/client/query-client';
+import {
+	shelfQueryOptions,
+	useImportShelf,
+	useRemoveShelfItem,
+	useSaveShelfItem,
+} from '@/lib/client/queries/shelf';
+import { useQueryClient } from '@tanstack/react-query';
 import { formatMoney } from '@/lib/format';
 import { parseMoney } from '@/lib/money';
 import { SHELF_KINDS, SHELF_NAMES, type ShelfItemDto, type ShelfKind } from '@/lib/shelf-kinds';
@@ -37,7 +45,7 @@ const tableKey = (kind: ShelfKind, index: number, path: string) =>
  * "Save changes" (the page warns before leaving with unsaved ones); a row the server refuses
  * keeps what was typed and shows why under the field.
  */
-export function ShelfBoard({
+export const ShelfBoard = withQueryClient(function ShelfBoard({
 	teamId,
 	canEdit,
 	currency,
@@ -59,6 +67,10 @@ export function ShelfBoard({
 	const [focusId, setFocusId] = useState<string | null>(null);
 	const [importErrors, setImportErrors] = useState<string[]>([]);
 	const fileRef = useRef<HTMLInputElement>(null);
+	const saveItem = useSaveShelfItem(teamId);
+	const removeItem = useRemoveShelfItem(teamId);
+	const importShelf = useImportShelf(teamId);
+	const qc = useQueryClient();
 	const columns = useMemo(
 		() =>
 			Object.fromEntries(SHELF_KINDS.map((k) => [k, shelfColumns(k, units)])) as Record<
@@ -110,7 +122,7 @@ export function ShelfBoard({
 		const row = rows[kind][index]!;
 		if (row.saved) {
 			try {
-				await api(`/api/teams/${teamId}/shelf/${row.id}`, { method: 'DELETE' });
+				await removeItem.mutateAsync(row.id);
 			} catch (error) {
 				if (!(error instanceof ApiError && error.status === 404)) {
 					setStatus(error instanceof Error ? error.message : 'Could not remove it.');
@@ -157,12 +169,9 @@ export function ShelfBoard({
 					notes: row.shelf.notes,
 				};
 				try {
-					const answer = row.saved
-						? await api<ShelfItemDto>(`/api/teams/${teamId}/shelf/${row.id}`, {
-								method: 'PUT',
-								json: { item, updatedAt: row.updatedAt },
-							})
-						: await api<ShelfItemDto>(`/api/teams/${teamId}/shelf`, { json: item });
+					const answer = await saveItem.mutateAsync(
+						row.saved ? { id: row.id, updatedAt: row.updatedAt, item } : { item },
+					);
 					next = { ...next, [kind]: next[kind].map((x) => (x.id === row.id ? toRow(answer) : x)) };
 					stillDirty.delete(row.id);
 					saved++;
@@ -202,24 +211,15 @@ export function ShelfBoard({
 		setImportErrors([]);
 		setStatus(null);
 		try {
-			const res = await fetch(`/api/teams/${teamId}/shelf/import`, {
-				method: 'POST',
-				headers: { 'content-type': 'text/csv', accept: 'application/json' },
-				body: await file.text(),
-			});
-			const body = (await res.json()) as {
-				added?: number;
-				detail?: string;
-				errors?: Array<{ message: string }>;
-			};
-			if (!res.ok) {
+			const { ok, body } = await importShelf.mutateAsync(file);
+			if (!ok) {
 				setImportErrors([
 					body.detail ?? 'The file was refused',
 					...(body.errors ?? []).map((e) => e.message),
 				]);
 				return;
 			}
-			const items = await getJson<ShelfItemDto[]>(`/api/teams/${teamId}/shelf`);
+			const items = await qc.fetchQuery({ ...shelfQueryOptions(teamId), staleTime: 0 });
 			// Unsaved rows stay as typed; the saved ones come back with the file's entries.
 			setRows((r) => {
 				const fresh = group(items);
@@ -350,4 +350,4 @@ export function ShelfBoard({
 			))}
 		</div>
 	);
-}
+});
