@@ -11,6 +11,7 @@ import * as trustworthyRecords from './2026_12_02_190000_trustworthy_records';
 import * as teamDataVersion from './2026_12_04_130000_team_data_version';
 import * as waiverScope from './2026_12_05_090000_waiver_scope';
 import * as partsShelf from './2026_12_05_160000_parts_shelf';
+import * as seasonBudget from './2026_12_05_170000_season_budget';
 
 /**
  * Every migration, by name, in the order they apply. Listed explicitly (rather than read from the
@@ -30,4 +31,5 @@ export const migrations: Record<string, Migration> = {
 	'2026_12_04_130000_team_data_version': teamDataVersion,
 	'2026_12_05_090000_waiver_scope': waiverScope,
 	'2026_12_05_160000_parts_shelf': partsShelf,
+	'2026_12_05_170000_season_budget': seasonBudget,
 };

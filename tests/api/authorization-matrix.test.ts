@@ -13,6 +13,7 @@ import { addMember, localsFor, makeTeam, makeUser, memoryStorage } from '../help
 import { createTestDb, type TestDb } from '../helpers/test-db';
 import { shelfBank } from '../helpers/shelf';
 import { insertShelfItems } from '../../src/lib/server/db/shelf';
+import { insertPurchase, insertSeason } from '../../src/lib/server/db/seasons';
 
 /**
  * Every team route, called as anonymous, viewer, member, captain and the captain of another team.
@@ -37,6 +38,8 @@ interface World {
 	planId: string;
 	shelfItemId: string;
 	shelfReadAt: string;
+	seasonId: string;
+	purchaseId: string;
 }
 
 interface Case {
@@ -283,6 +286,49 @@ const MATRIX: Record<string, Case[]> = {
 			expect: memberWrite(201),
 		},
 	],
+	'teams/[teamId]/seasons/index.ts': [
+		{ method: 'GET', params: teamScoped, expect: read },
+		{
+			method: 'POST',
+			params: teamScoped,
+			body: () => ({
+				name: 'Next season',
+				startsOn: '2027-03-01',
+				endsOn: '2027-10-31',
+				budgetMinor: 250_000,
+			}),
+			expect: captainOnly(201),
+		},
+	],
+	'teams/[teamId]/seasons/[seasonId]/index.ts': [
+		{ method: 'GET', params: (w) => ({ teamId: w.teamId, seasonId: w.seasonId }), expect: read },
+		{
+			method: 'DELETE',
+			params: (w) => ({ teamId: w.teamId, seasonId: w.seasonId }),
+			expect: captainOnly(204),
+		},
+	],
+	'teams/[teamId]/seasons/[seasonId]/purchases/index.ts': [
+		{
+			method: 'POST',
+			params: (w) => ({ teamId: w.teamId, seasonId: w.seasonId }),
+			body: (w) => ({
+				boughtOn: '2027-04-02',
+				item: 'Ring terminals',
+				quantity: 20,
+				unitPriceMinor: 95,
+				paidBy: w.users.member.id,
+			}),
+			expect: memberWrite(201),
+		},
+	],
+	'teams/[teamId]/seasons/[seasonId]/purchases/[purchaseId].ts': [
+		{
+			method: 'DELETE',
+			params: (w) => ({ teamId: w.teamId, seasonId: w.seasonId, purchaseId: w.purchaseId }),
+			expect: memberWrite(204),
+		},
+	],
 	'teams/[teamId]/events/index.ts': [
 		{ method: 'GET', params: teamScoped, expect: read },
 		{
@@ -521,7 +567,26 @@ describe('authorization matrix', () => {
 			createdBy: users.member.id,
 		});
 		const [shelfItem] = await insertShelfItems(t.db, teamId, [shelfBank()]);
+		const seasonId = await insertSeason(t.db, teamId, {
+			name: 'Matrix season',
+			startsOn: '2027-03-01',
+			endsOn: '2027-10-31',
+			budgetMinor: 100_000,
+		});
+		const purchaseId = await insertPurchase(t.db, seasonId, {
+			boughtOn: '2027-03-05',
+			shelfItemId: null,
+			item: 'Fuse holder',
+			quantity: 1,
+			unitPriceMinor: 3_450,
+			paidBy: users.captain.id,
+			paidByName: 'Captain',
+			notes: '',
+			createdBy: users.captain.id,
+		});
 		return {
+			seasonId,
+			purchaseId,
 			shelfItemId: shelfItem!.id,
 			shelfReadAt: shelfItem!.updatedAt,
 			teamId,

@@ -5,6 +5,7 @@ import * as shelf from '../../src/pages/api/teams/[teamId]/shelf/index';
 import * as shelfItem from '../../src/pages/api/teams/[teamId]/shelf/[itemId]';
 import * as shelfExport from '../../src/pages/api/teams/[teamId]/shelf/export.csv';
 import * as shelfImport from '../../src/pages/api/teams/[teamId]/shelf/import';
+import * as teamRoute from '../../src/pages/api/teams/[teamId]';
 import type { AppUser } from '../../src/lib/server/auth';
 import { parseBuildDocument } from '../../src/engine';
 import { DEMO_SHELF } from '../../db/demo/shelf';
@@ -178,6 +179,31 @@ describe('the parts shelf', () => {
 				.map(({ id: _id, updatedAt: _u, ...rest }) => rest)
 				.sort((a, b) => a.label.localeCompare(b.label));
 		expect(strip(after)).toEqual(strip(before));
+	});
+
+	it('refuses a change of currency once the team has a priced entry, and allows it before', async () => {
+		const captain = await makeUser(t.db);
+		const fresh = await makeTeam(t.db, 'Currency Team');
+		await addMember(t.db, fresh, captain, 'captain');
+		const patch = (currency: string) =>
+			callEndpoint(teamRoute, {
+				locals: localsFor(t.db, captain),
+				params: { teamId: fresh },
+				request: jsonRequest('/x', 'PATCH', { currency }),
+			});
+		expect((await patch('EUR')).status).toBe(204);
+		await callEndpoint(shelf, {
+			locals: localsFor(t.db, captain),
+			params: { teamId: fresh },
+			request: jsonRequest('/x', 'POST', shelfBank()),
+		});
+		const refused = await patch('GBP');
+		expect(refused.status).toBe(409);
+		expect(((await refused.json()) as { errors: Array<{ path: string }> }).errors[0]!.path).toBe(
+			'currency',
+		);
+		// Naming the same currency again is no change.
+		expect((await patch('EUR')).status).toBe(204);
 	});
 
 	it('refuses a file with rows in error, naming each row and column, and adds nothing', async () => {

@@ -288,7 +288,36 @@ export interface ShelfItemTable {
 	updated_at: DefaultTimestamp;
 }
 
+export interface SeasonTable {
+	id: Generated<string>;
+	team_id: string;
+	name: string;
+	/** YYYY-MM-DD. */
+	starts_on: ColumnType<string, string, string>;
+	ends_on: ColumnType<string, string, string>;
+	/** Minor units of the team's currency; bigint arrives as a string. */
+	budget_minor: ColumnType<string, number, number>;
+	created_at: DefaultTimestamp;
+}
+
+export interface PurchaseTable {
+	id: Generated<string>;
+	season_id: string;
+	bought_on: ColumnType<string, string, string>;
+	shelf_item_id: string | null;
+	item: string;
+	quantity: number;
+	unit_price_minor: ColumnType<string, number, number>;
+	paid_by: string | null;
+	paid_by_name: Generated<string>;
+	notes: Generated<string>;
+	created_by: string | null;
+	created_at: DefaultTimestamp;
+}
+
 export interface Database {
+	season: SeasonTable;
+	purchase: PurchaseTable;
 	shelf_item: ShelfItemTable;
 	plan: PlanTable;
 	plan_part: PlanPartTable;

@@ -387,3 +387,50 @@ export async function updateTeamSettings(
 	if (Object.keys(set).length)
 		await db.updateTable('team').set(set).where('id', '=', teamId).execute();
 }
+
+/**
+ * Whether the team has money recorded in its currency (a priced shelf entry, a priced line of a
+ * plan's parts, a season's budget or a purchase): its currency can no longer change, since no amount would be converted.
+ */
+export async function teamHasMoney(db: Db, teamId: string): Promise<boolean> {
+	const row = await db
+		.selectNoFrom((eb) => [
+			eb
+				.or([
+					eb.exists(
+						eb
+							.selectFrom('shelf_item')
+							.select('id')
+							.where('team_id', '=', teamId)
+							.where('price_minor', '>', 0 as never),
+					),
+					eb.exists(
+						eb
+							.selectFrom('purchase as pu')
+							.innerJoin('season as se', 'se.id', 'pu.season_id')
+							.select('pu.id')
+							.where('se.team_id', '=', teamId)
+							.where('se.budget_minor', '>=', 0 as never),
+					),
+					eb.exists(
+						eb
+							.selectFrom('season')
+							.select('id')
+							.where('team_id', '=', teamId)
+							.where('budget_minor', '>', 0 as never),
+					),
+					eb.exists(
+						eb
+							.selectFrom('plan_part as pp')
+							.innerJoin('plan as p', 'p.id', 'pp.plan_id')
+							.innerJoin('vehicle as v', 'v.id', 'p.vehicle_id')
+							.select('pp.plan_id')
+							.where('v.team_id', '=', teamId)
+							.where('pp.unit_price_minor', '>', 0 as never),
+					),
+				])
+				.as('has'),
+		])
+		.executeTakeFirstOrThrow();
+	return Boolean(row.has);
+}

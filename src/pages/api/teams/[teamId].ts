@@ -6,6 +6,7 @@ import {
 	deleteTeam,
 	findTeamSettings,
 	renameTeam,
+	teamHasMoney,
 	updateTeamSettings,
 } from '@/lib/server/db/teams';
 import { problem, readJson } from '@/lib/server/http';
@@ -21,6 +22,16 @@ export const PATCH: APIRoute = async ({ params, request, locals }) => {
 	if (!auth.ok) return auth.response;
 	const body = await readJson(request, renameTeamSchema);
 	if (!body.ok) return body.response;
+	if (body.data.currency !== undefined) {
+		const { currency } = await findTeamSettings(locals.db, auth.value);
+		if (currency !== body.data.currency && (await teamHasMoney(locals.db, auth.value.teamId)))
+			return problem(
+				409,
+				'conflict',
+				`Prices are recorded in ${currency}; the currency cannot change once money is recorded`,
+				[{ path: 'currency', message: `Prices are recorded in ${currency}` }],
+			);
+	}
 	if (body.data.name !== undefined) await renameTeam(locals.db, auth.value.teamId, body.data.name);
 	await updateTeamSettings(locals.db, auth.value.teamId, body.data);
 	return new Response(null, { status: 204 });
