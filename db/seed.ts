@@ -14,7 +14,7 @@ import { DEFAULT_CLUSTER, ensureCluster } from './cluster';
 import { migrateToLatest } from './migrator';
 import { DEMO_BUILDS, DEMO_HISTORIES } from './demo/builds';
 import { DEMO_PLANS } from './demo/plans';
-import { DEMO_SHELF } from './demo/shelf';
+import { DEMO_SEASON, DEMO_SHELF } from './demo/shelf';
 import { DEMO_EVENTS, DEMO_RUNS, demoTrace } from './demo/runs';
 import type { Storage } from '../src/lib/server/storage';
 import type { Database } from '../src/lib/server/db/schema';
@@ -242,7 +242,7 @@ export async function seedDemo(db: Kysely<Database>, storage?: Storage): Promise
 				)
 				.execute();
 		}
-		await trx
+		const shelfRows = await trx
 			.insertInto('shelf_item')
 			.values(
 				DEMO_SHELF.map((x, i) => ({
@@ -256,6 +256,37 @@ export async function seedDemo(db: Kysely<Database>, storage?: Storage): Promise
 					notes: x.notes,
 					created_at: at('2026-08-01', 9 + i),
 					updated_at: at('2026-08-01', 9 + i),
+				})),
+			)
+			.returning(['id', 'label'])
+			.execute();
+		const season = await trx
+			.insertInto('season')
+			.values({
+				team_id: team.id,
+				name: DEMO_SEASON.name,
+				starts_on: DEMO_SEASON.startsOn,
+				ends_on: DEMO_SEASON.endsOn,
+				budget_minor: DEMO_SEASON.budgetMinor,
+				created_at: at(DEMO_SEASON.startsOn, 9),
+			})
+			.returning('id')
+			.executeTakeFirstOrThrow();
+		await trx
+			.insertInto('purchase')
+			.values(
+				DEMO_SEASON.purchases.map((p) => ({
+					season_id: season.id,
+					bought_on: p.on,
+					shelf_item_id: shelfRows.find((r) => r.label === p.shelf)?.id ?? null,
+					item: p.item,
+					quantity: p.quantity,
+					unit_price_minor: p.unitPriceMinor,
+					paid_by: userIds[p.payer]!,
+					paid_by_name: DEMO_USERS[p.payer]!.name,
+					notes: p.notes,
+					created_by: userIds[p.payer]!,
+					created_at: at(p.on, 18),
 				})),
 			)
 			.execute();

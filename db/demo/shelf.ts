@@ -89,3 +89,49 @@ export const DEMO_SHELF: DemoShelfEntry[] = [
 		notes: 'Price to ask.',
 	},
 ];
+
+/** Invented demo data: the demo team's season, its budget and what was bought in it (minor units). */
+export const DEMO_SEASON = {
+	name: '2026 season',
+	startsOn: '2026-03-01',
+	endsOn: '2026-11-30',
+	budgetMinor: 450_000,
+	purchases: [
+		{
+			on: '2026-04-11',
+			shelf: '100 Ah AGM, rear spare',
+			item: '100 Ah AGM, rear spare',
+			quantity: 2,
+			unitPriceMinor: 27_450,
+			payer: 1,
+			notes: 'The Marlin rear pair.',
+		},
+		{
+			on: '2026-05-03',
+			shelf: null,
+			item: 'Terminal lugs and heat-shrink',
+			quantity: 1,
+			unitPriceMinor: 4_680,
+			payer: 0,
+			notes: '',
+		},
+		{
+			on: '2026-06-20',
+			shelf: '250 A fuse and holder',
+			item: '250 A fuse and holder',
+			quantity: 3,
+			unitPriceMinor: 3_450,
+			payer: 0,
+			notes: '',
+		},
+		{
+			on: '2026-08-29',
+			shelf: null,
+			item: 'Alternator rebuild and bearings',
+			quantity: 1,
+			unitPriceMinor: 18_000,
+			payer: 1,
+			notes: 'Old Oak, before the finals.',
+		},
+	],
+};

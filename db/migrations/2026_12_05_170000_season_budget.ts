@@ -48,6 +48,8 @@ export async function up(db: Kysely<any>): Promise<void> {
 		.addColumn('paid_by', 'text', (col) => col.references('User.id').onDelete('set null'))
 		/** Who paid as the team knew them when it was recorded (kept if the account goes). */
 		.addColumn('paid_by_name', 'text', (col) => col.notNull().defaultTo(''))
+		/** Who paid, as a restored backup recorded them (their address; never a live account here). */
+		.addColumn('imported_by', 'text')
 		.addColumn('notes', 'text', (col) => col.notNull().defaultTo(''))
 		.addColumn('created_by', 'text', (col) => col.references('User.id').onDelete('set null'))
 		.addColumn('created_at', 'timestamptz', (col) => col.notNull().defaultTo(sql`now()`))

@@ -3,7 +3,7 @@ import type { Kysely } from 'kysely';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import type { Database } from '../../src/lib/server/db/schema';
 import { DEMO_USERS, seedDemo } from '../../db/seed';
-import { DEMO_SHELF } from '../../db/demo/shelf';
+import { DEMO_SEASON, DEMO_SHELF } from '../../db/demo/shelf';
 import type { AppUser } from '../../src/lib/server/auth';
 import { appendRevision, findHeadRevision } from '../../src/lib/server/db/builds';
 import type { Storage } from '../../src/lib/server/storage';
@@ -149,6 +149,31 @@ async function snapshot(db: Kysely<Database>, storage: Storage, teamId: string) 
 					installed: rev(installed_revision_id),
 					by: person(created_by, imported_by),
 				}),
+			),
+		),
+		seasons: sorted(
+			await Promise.all(
+				(await db.selectFrom('season').selectAll().where('team_id', '=', teamId).execute()).map(
+					async ({ id, team_id, ...x }) => ({
+						...x,
+						purchases: (
+							await db
+								.selectFrom('purchase as p')
+								.leftJoin('shelf_item as s', 's.id', 'p.shelf_item_id')
+								.selectAll('p')
+								.select('s.label as shelf_label')
+								.where('p.season_id', '=', id)
+								.orderBy('p.bought_on')
+								.orderBy('p.item')
+								.execute()
+						).map(
+							({ id: _id, season_id, shelf_item_id, paid_by, imported_by, created_by, ...p }) => ({
+								...p,
+								paidBy: person(paid_by, imported_by),
+							}),
+						),
+					}),
+				),
 			),
 		),
 		shelf: sorted(
@@ -419,6 +444,8 @@ describe('team backup', () => {
 		expect(before.signoffs.length).toBe(3);
 		expect(before.parts.length).toBe(10);
 		expect(before.shelf.length).toBe(DEMO_SHELF.length);
+		expect(before.seasons.join()).toContain('"shelf_label":"100 Ah AGM, rear spare"');
+		expect(before.seasons.join().match(/"bought_on"/g)).toHaveLength(DEMO_SEASON.purchases.length);
 	});
 
 	it('imports on another installation: unknown members are invited, the importer is captain', async () => {

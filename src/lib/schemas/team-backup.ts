@@ -187,6 +187,35 @@ export const teamBackupContentSchema = z.object({
 			waivedReasons: z.array(z.string().max(2000)).max(500).nullable().default(null),
 		}),
 	),
+	/** The team's seasons with their budgets and purchases; older files have none. */
+	seasons: z
+		.array(
+			z.object({
+				name: z.string().trim().min(1).max(80),
+				startsOn: day,
+				endsOn: day,
+				budgetMinor: z.number().int().min(0).max(100_000_000_000),
+				createdAt: iso,
+				purchases: z
+					.array(
+						z.object({
+							boughtOn: day,
+							/** The shelf entry bought, by its place in the file's shelf (from 0). */
+							shelfIndex: z.number().int().min(0).max(1999).nullable(),
+							item: z.string().trim().min(1).max(200),
+							quantity: z.number().int().min(1).max(10_000),
+							unitPriceMinor: z.number().int().min(0).max(100_000_000_000),
+							paidByEmail: email.nullable(),
+							paidByName: z.string().max(200),
+							notes: z.string().max(500),
+							createdAt: iso,
+						}),
+					)
+					.max(5000),
+			}),
+		)
+		.max(200)
+		.default([]),
 	/** The team's parts shelf, each entry checked as the shelf's own route checks it; older files have none. */
 	shelf: z
 		.array(z.object({ item: shelfItemSchema, createdAt: iso }))

@@ -11,6 +11,7 @@ import {
 } from '@/lib/server/db/backup';
 import type { Database } from '@/lib/server/db/schema';
 import { findShelfForBackup } from '@/lib/server/db/shelf';
+import { findSeasonsForBackup } from '@/lib/server/db/seasons';
 import { measurementsOf } from '@/lib/schemas/run-measurements';
 
 import {
@@ -227,9 +228,10 @@ export async function* exportTeamChunks(
 				waivedReasons: x.waived_reasons,
 			})),
 	);
+	const shelf = await findShelfForBackup(db, teamId);
 	yield field(
 		'shelf',
-		(await findShelfForBackup(db, teamId)).map(({ createdAt, ...x }) => ({
+		shelf.map(({ createdAt, ...x }) => ({
 			item: {
 				kind: x.kind,
 				label: x.label,
@@ -241,6 +243,33 @@ export async function* exportTeamChunks(
 				notes: x.notes,
 			},
 			createdAt,
+		})),
+	);
+	const shelfIndex = new Map(shelf.map((x, i) => [x.id, i]));
+	const seasons = await findSeasonsForBackup(db, teamId);
+	const payerEmails = await emailsOf(
+		db,
+		seasons.flatMap((x) => x.purchases.map((p) => p.paid_by)).filter((id): id is string => !!id),
+	);
+	yield field(
+		'seasons',
+		seasons.map((x) => ({
+			name: x.name,
+			startsOn: x.starts_on,
+			endsOn: x.ends_on,
+			budgetMinor: Number(x.budget_minor),
+			createdAt: iso(x.created_at),
+			purchases: x.purchases.map((p) => ({
+				boughtOn: p.bought_on,
+				shelfIndex: p.shelf_item_id ? (shelfIndex.get(p.shelf_item_id) ?? null) : null,
+				item: p.item,
+				quantity: p.quantity,
+				unitPriceMinor: Number(p.unit_price_minor),
+				paidByEmail: (p.paid_by ? payerEmails.get(p.paid_by) : null) ?? p.imported_by,
+				paidByName: p.paid_by_name,
+				notes: p.notes,
+				createdAt: iso(p.created_at),
+			})),
 		})),
 	);
 	yield part('}');

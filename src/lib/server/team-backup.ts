@@ -189,7 +189,7 @@ function checkBackup(raw: unknown, checksum: string): ParseBackupResult {
 	};
 }
 
-/** References inside the file must resolve: vehicles, events, revision numbers, check items. */
+/** References inside the file must resolve: vehicles, events, revision numbers, check items, shelf entries. */
 function crossCheck(t: TeamBackupContent): { path: string; message: string }[] {
 	const out: { path: string; message: string }[] = [];
 	const vehicles = new Map(
@@ -232,6 +232,17 @@ function crossCheck(t: TeamBackupContent): { path: string; message: string }[] {
 		const nums = vehicles.get(s.vehicle);
 		if (nums && s.revision !== null && !nums.has(s.revision))
 			out.push({ path: `team.signoffs.${i}.revision`, message: `No revision ${s.revision}` });
+	});
+	t.seasons.forEach((season, i) => {
+		if (season.endsOn < season.startsOn)
+			out.push({ path: `team.seasons.${i}.endsOn`, message: 'Ends before it starts' });
+		season.purchases.forEach((p, j) => {
+			if (p.shelfIndex !== null && p.shelfIndex >= t.shelf.length)
+				out.push({
+					path: `team.seasons.${i}.purchases.${j}.shelfIndex`,
+					message: `No shelf entry ${p.shelfIndex}`,
+				});
+		});
 	});
 	return out;
 }

@@ -276,8 +276,9 @@ export async function insertTeamFromBackup(
 				})
 				.execute();
 		}
-		for (let i = 0; i < t.shelf.length; i += 500)
-			await trx
+		const shelfIds: string[] = [];
+		for (let i = 0; i < t.shelf.length; i += 500) {
+			const rows = await trx
 				.insertInto('shelf_item')
 				.values(
 					t.shelf.slice(i, i + 500).map(({ item, createdAt }) => ({
@@ -294,7 +295,43 @@ export async function insertTeamFromBackup(
 						updated_at: createdAt,
 					})),
 				)
+				.returning('id')
 				.execute();
+			shelfIds.push(...rows.map((r) => r.id));
+		}
+		for (const season of t.seasons) {
+			const { id: seasonId } = await trx
+				.insertInto('season')
+				.values({
+					team_id: team.id,
+					name: season.name,
+					starts_on: season.startsOn,
+					ends_on: season.endsOn,
+					budget_minor: season.budgetMinor,
+					created_at: season.createdAt,
+				})
+				.returning('id')
+				.executeTakeFirstOrThrow();
+			for (let i = 0; i < season.purchases.length; i += 500)
+				await trx
+					.insertInto('purchase')
+					.values(
+						season.purchases.slice(i, i + 500).map((p) => ({
+							season_id: seasonId,
+							bought_on: p.boughtOn,
+							shelf_item_id: p.shelfIndex === null ? null : (shelfIds[p.shelfIndex] ?? null),
+							item: p.item,
+							quantity: p.quantity,
+							unit_price_minor: p.unitPriceMinor,
+							paid_by: null,
+							paid_by_name: p.paidByName,
+							imported_by: recorded(p.paidByEmail),
+							notes: p.notes,
+							created_at: p.createdAt,
+						})),
+					)
+					.execute();
+		}
 		return {
 			teamId: team.id,
 			name: team.name,

@@ -310,6 +310,8 @@ export interface PurchaseTable {
 	unit_price_minor: ColumnType<string, number, number>;
 	paid_by: string | null;
 	paid_by_name: Generated<string>;
+	/** As recorded in a restored backup (never a live account of this installation). */
+	imported_by: string | null;
 	notes: Generated<string>;
 	created_by: string | null;
 	created_at: DefaultTimestamp;

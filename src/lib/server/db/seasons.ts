@@ -154,3 +154,30 @@ export async function findCommittedPlans(db: Db, teamId: string) {
 		totalMinor: Number(r.total_minor ?? 0),
 	}));
 }
+
+/** Every season of the team with its purchases' rows, in a fixed order, for the team backup. */
+export async function findSeasonsForBackup(db: Db, teamId: string) {
+	const seasons = await db
+		.selectFrom('season')
+		.selectAll()
+		.where('team_id', '=', teamId)
+		.orderBy('starts_on')
+		.orderBy('name')
+		.orderBy('id')
+		.execute();
+	const purchases = seasons.length
+		? await db
+				.selectFrom('purchase')
+				.selectAll()
+				.where(
+					'season_id',
+					'in',
+					seasons.map((x) => x.id),
+				)
+				.orderBy('bought_on')
+				.orderBy('created_at')
+				.orderBy('id')
+				.execute()
+		: [];
+	return seasons.map((x) => ({ ...x, purchases: purchases.filter((p) => p.season_id === x.id) }));
+}
