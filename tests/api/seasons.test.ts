@@ -5,7 +5,7 @@ import * as purchases from '../../src/pages/api/teams/[teamId]/seasons/[seasonId
 import * as teamRoute from '../../src/pages/api/teams/[teamId]';
 import type { AppUser } from '../../src/lib/server/auth';
 import { insertShelfItems } from '../../src/lib/server/db/shelf';
-import type { SeasonDetail } from '../../src/lib/server/seasons';
+import type { SeasonDetail } from '../../src/lib/schemas/seasons';
 import { callEndpoint, jsonRequest } from '../helpers/container';
 import { addMember, localsFor, makeTeam, makeUser } from '../helpers/fixtures';
 import { shelfBank } from '../helpers/shelf';

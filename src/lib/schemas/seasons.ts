@@ -1,5 +1,6 @@
 import { z } from '@/lib/zod';
 import { MAX_MINOR } from '@/lib/money';
+import type { Settlement } from '@/lib/settle-up';
 import { lineText, notesText } from './text';
 
 const day = z.iso.date({ error: 'Use a date like 2027-03-14' });
@@ -59,4 +60,24 @@ export interface PurchaseDto {
 	paidBy: string | null;
 	paidByName: string;
 	notes: string;
+}
+
+export interface CommittedPlanDto {
+	id: string;
+	name: string;
+	vehicleId: string;
+	vehicleName: string;
+	totalMinor: number;
+}
+
+/** A season as its page and its API show it: purchases, the settling up, plans committed. */
+export interface SeasonDetail {
+	season: SeasonDto;
+	purchases: PurchaseDto[];
+	/** What each paying member (captains and members) paid against an even share. */
+	settlement: Settlement;
+	/** Plans not yet installed, with their parts' totals. */
+	committed: CommittedPlanDto[];
+	/** Who may be named as having paid: the team's captains and members. */
+	payers: Array<{ id: string; name: string }>;
 }

@@ -1,20 +1,9 @@
 import type { Kysely } from 'kysely';
 import type { Database } from '@/lib/server/db/schema';
-import type { PurchaseDto, SeasonDto } from '@/lib/schemas/seasons';
+import type { SeasonDetail, SeasonDto } from '@/lib/schemas/seasons';
 import { findCommittedPlans, findPurchases } from '@/lib/server/db/seasons';
 import { findMembers } from '@/lib/server/db/teams';
-import { settleUp, type Settlement } from '@/lib/settle-up';
-
-export interface SeasonDetail {
-	season: SeasonDto;
-	purchases: PurchaseDto[];
-	/** What each paying member (captains and members) paid against an even share. */
-	settlement: Settlement;
-	/** Plans not yet installed, with their parts' totals. */
-	committed: Awaited<ReturnType<typeof findCommittedPlans>>;
-	/** Who may be named as having paid: the team's captains and members. */
-	payers: Array<{ id: string; name: string }>;
-}
+import { settleUp } from '@/lib/settle-up';
 
 /** A season as its page and its API show it: purchases, the settling up, plans committed. */
 export async function seasonDetail(
