@@ -74,6 +74,7 @@ describe('accessibility (axe-core in chromium): no critical or serious violation
 				`${team}/events`,
 				`${team}/settings`,
 				`${team}/shelf`,
+				`${team}/season`,
 			];
 			await b.page.goto(`${team}/events`);
 			const checks = await firstHref(b, 'a[href*="/checks"]');

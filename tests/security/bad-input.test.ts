@@ -22,6 +22,11 @@ import * as plans from '../../src/pages/api/teams/[teamId]/vehicles/[vehicleId]/
 import * as revisions from '../../src/pages/api/teams/[teamId]/vehicles/[vehicleId]/revisions/index';
 import * as vehicles from '../../src/pages/api/teams/[teamId]/vehicles/index';
 import * as teams from '../../src/pages/api/teams/index';
+import * as shelf from '../../src/pages/api/teams/[teamId]/shelf/index';
+import * as seasons from '../../src/pages/api/teams/[teamId]/seasons/index';
+import * as purchases from '../../src/pages/api/teams/[teamId]/seasons/[seasonId]/purchases/index';
+import { insertSeason } from '../../src/lib/server/db/seasons';
+import { shelfBank } from '../helpers/shelf';
 import { callEndpoint, type EndpointModule } from '../helpers/container';
 import { addMember, localsFor, makeTeam, makeUser } from '../helpers/fixtures';
 import { createTestDb, type TestDb } from '../helpers/test-db';
@@ -54,6 +59,9 @@ const TABLES = [
 	'plan',
 	'plan_part',
 	'invitation',
+	'shelf_item',
+	'season',
+	'purchase',
 	'User',
 ] as const;
 
@@ -128,11 +136,65 @@ describe('bad input on every write route', () => {
 			createdBy: captain.id,
 		});
 	});
+	beforeAll(async () => {
+		// No budget: the team has no money recorded, so its currency may still change.
+		ids.seasonId = await insertSeason(t.db, ids.teamId, {
+			name: 'Corpus season',
+			startsOn: '2027-01-01',
+			endsOn: '2027-12-31',
+			budgetMinor: 0,
+		});
+	});
 	afterAll(async () => t?.drop());
 
 	const team_ = () => ({ teamId: ids.teamId });
 	const veh = () => ({ teamId: ids.teamId, vehicleId: ids.vehicleId });
 	const routes: Route[] = [
+		{
+			name: 'shelf entry',
+			module: shelf,
+			method: 'POST',
+			params: team_,
+			valid: () => shelfBank(),
+			lines: ['label', 'supplier', 'link'],
+			notes: ['notes'],
+			numbers: ['priceMinor', 'owned', 'spec.unitCapacityAh', 'spec.unitResistanceOhm'],
+			required: ['label', 'kind', 'spec'],
+		},
+		{
+			name: 'new season',
+			module: seasons,
+			method: 'POST',
+			params: team_,
+			valid: () => ({
+				name: '2027',
+				startsOn: '2027-03-01',
+				endsOn: '2027-10-31',
+				budgetMinor: 150_000,
+			}),
+			lines: ['name'],
+			notes: [],
+			numbers: ['budgetMinor'],
+			required: ['name', 'startsOn', 'endsOn', 'budgetMinor'],
+		},
+		{
+			name: 'purchase',
+			module: purchases,
+			method: 'POST',
+			params: () => ({ teamId: ids.teamId, seasonId: ids.seasonId! }),
+			valid: () => ({
+				boughtOn: '2027-04-02',
+				item: 'Ring terminals',
+				quantity: 2,
+				unitPriceMinor: 95,
+				paidBy: captain.id,
+				notes: 'For the rear bank',
+			}),
+			lines: ['item'],
+			notes: ['notes'],
+			numbers: ['quantity', 'unitPriceMinor'],
+			required: ['item', 'boughtOn', 'paidBy', 'quantity', 'unitPriceMinor'],
+		},
 		{
 			name: 'new team',
 			module: teams,
