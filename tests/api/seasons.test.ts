@@ -3,6 +3,11 @@ import * as seasons from '../../src/pages/api/teams/[teamId]/seasons/index';
 import * as season from '../../src/pages/api/teams/[teamId]/seasons/[seasonId]/index';
 import * as purchases from '../../src/pages/api/teams/[teamId]/seasons/[seasonId]/purchases/index';
 import * as teamRoute from '../../src/pages/api/teams/[teamId]';
+import * as install from '../../src/pages/api/teams/[teamId]/vehicles/[vehicleId]/plans/[planId]/install';
+import { pebbleBuild } from '../../db/demo/builds';
+import { appendRevision } from '../../src/lib/server/db/builds';
+import { insertPlan } from '../../src/lib/server/db/plans';
+import { insertVehicleWithBuild } from '../../src/lib/server/db/vehicles';
 import type { AppUser } from '../../src/lib/server/auth';
 import { insertShelfItems } from '../../src/lib/server/db/shelf';
 import type { SeasonDetail } from '../../src/lib/schemas/seasons';
@@ -118,6 +123,78 @@ describe('a season’s budget', () => {
 		const outsider = await makeUser(t.db);
 		await addMember(t.db, other, outsider, 'captain');
 		expect((await call(season, 'GET', { seasonId }, undefined, outsider, other)).status).toBe(404);
+	});
+
+	it('installing a plan can record its parts as purchases in a season, in the same step', async () => {
+		const { vehicle, buildId } = await insertVehicleWithBuild(t.db, {
+			teamId,
+			name: 'Budget car',
+			description: '',
+			competitionClass: '',
+			notes: '',
+			ownerId: null,
+		});
+		const saved = await appendRevision(t.db, {
+			buildId,
+			parentId: null,
+			document: pebbleBuild,
+			message: 'Start',
+			authorId: member.id,
+		});
+		if (!saved.ok) throw new Error('seed');
+		const planId = await insertPlan(t.db, {
+			vehicleId: vehicle.id,
+			name: 'Heavier feed',
+			notes: '',
+			baseRevisionId: saved.revision.id,
+			document: pebbleBuild,
+			createdBy: member.id,
+		});
+		await t.db
+			.insertInto('plan_part')
+			.values([
+				{
+					plan_id: planId,
+					position: 0,
+					item: '1/0 AWG, 5 m',
+					quantity: 5,
+					unit_price_minor: 1_185,
+				},
+				{ plan_id: planId, position: 1, item: 'Fuse holder', quantity: 1, unit_price_minor: 3_450 },
+			])
+			.execute();
+		const before = (await (
+			await call(season, 'GET', { seasonId }, undefined, member)
+		).json()) as SeasonDetail;
+		const params = { vehicleId: vehicle.id, planId };
+		const wrong = await call(
+			install,
+			'POST',
+			params,
+			{ parentId: saved.revision.id, recordPurchasesIn: planId },
+			member,
+		);
+		expect(wrong.status).toBe(400);
+		expect(JSON.stringify(await wrong.json())).toContain('recordPurchasesIn');
+		const res = await call(
+			install,
+			'POST',
+			params,
+			{ parentId: saved.revision.id, recordPurchasesIn: seasonId },
+			member,
+		);
+		expect(res.status).toBe(201);
+		const after = (await (
+			await call(season, 'GET', { seasonId }, undefined, member)
+		).json()) as SeasonDetail;
+		expect(after.season.spentMinor - before.season.spentMinor).toBe(5 * 1_185 + 3_450);
+		const added = after.purchases
+			.filter((p) => p.notes.includes('Heavier feed'))
+			.sort((a, b) => a.item.localeCompare(b.item));
+		expect(added.map((p) => [p.item, p.quantity, p.unitPriceMinor, p.paidByName])).toEqual([
+			['1/0 AWG, 5 m', 5, 1_185, 'Mem'],
+			['Fuse holder', 1, 3_450, 'Mem'],
+		]);
 	});
 
 	it('keeps the currency once money is recorded', async () => {

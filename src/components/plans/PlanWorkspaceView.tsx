@@ -21,9 +21,8 @@ import { useHydrated } from '@/lib/client/use-hydrated';
 
 import { PlanChanges } from './PlanChanges';
 import { ShelfContext } from '@/components/builds/shelf-context';
-import { minorToText } from '@/lib/money';
-import type { ShelfItemDto } from '@/lib/shelf-kinds';
-import { fromDraft, type PartDraft, PlanPartsTable, toDraft } from './plan-parts';
+import { RecordPurchasesChoice } from './RecordPurchasesChoice';
+import { fromDraft, useShelfPicks, type PartDraft, PlanPartsTable, toDraft } from './plan-parts';
 import type { PlanWorkspaceProps } from './PlanWorkspace';
 
 export interface PlanWorkspaceViewProps extends Omit<
@@ -207,7 +206,12 @@ export function PlanWorkspaceView({
 			// A danger finding the plan brings is named by the server and asked about before saving.
 			const revision = await installConfirmed(
 				(acceptDangers) =>
-					installPlan.mutateAsync({ planId: plan.id, parentId: head.id, acceptDangers }),
+					installPlan.mutateAsync({
+						planId: plan.id,
+						parentId: head.id,
+						acceptDangers,
+						recordPurchasesIn: recordIn,
+					}),
 				plan.name,
 				[],
 			);
@@ -246,26 +250,8 @@ export function PlanWorkspaceView({
 		}
 	}
 
-	// A part started from the team's shelf goes into the parts to buy at the shelf's price (a
-	// cable by the metre, its length rounded up).
-	const shelf = useMemo(
-		() => ({
-			teamId,
-			onPick: (entry: ShelfItemDto, part: Record<string, unknown>) =>
-				setParts((ps) => [
-					...ps,
-					{
-						item: entry.label,
-						quantity: String(
-							entry.kind === 'cables' ? Math.max(1, Math.ceil(Number(part.lengthM) || 1)) : 1,
-						),
-						unitPrice: entry.priceMinor === null ? '0.00' : minorToText(entry.priceMinor),
-						link: entry.link,
-					},
-				]),
-		}),
-		[teamId],
-	);
+	const shelf = useShelfPicks(teamId, setParts);
+	const [recordIn, setRecordIn] = useState<string | null>(null);
 	const setPart = (i: number, patch: Partial<PartDraft>) =>
 		setParts((ps) => ps.map((p, j) => (j === i ? { ...p, ...patch } : p)));
 
@@ -328,6 +314,12 @@ export function PlanWorkspaceView({
 						>
 							Install as next revision
 						</Button>
+						<RecordPurchasesChoice
+							teamId={teamId}
+							totalMinor={Math.round(total * 100)}
+							value={recordIn}
+							onChange={setRecordIn}
+						/>
 						<a
 							href={`/teams/${teamId}/vehicles/${vehicleId}/plans?compare=${plan.id}`}
 							className="rounded-md border border-hairline bg-card px-4 py-2 font-semibold hover:border-copper"

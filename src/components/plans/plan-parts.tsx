@@ -1,4 +1,7 @@
+import { useMemo } from 'react';
 import type { PlanDto } from '@/lib/client/queries/plans';
+import { minorToText } from '@/lib/money';
+import type { ShelfItemDto } from '@/lib/shelf-kinds';
 import { formatMoney } from '@/lib/format';
 import { ScrollRegion } from '@/components/ui/ScrollRegion';
 
@@ -22,6 +25,34 @@ export const fromDraft = (p: PartDraft) => ({
 	unitPrice: Number(p.unitPrice),
 	link: p.link,
 });
+
+/**
+ * The shelf as a plan's add form reaches it: a part started from an entry adds a line to the parts
+ * to buy at the shelf's price (a cable by the metre, its length rounded up).
+ */
+export function useShelfPicks(
+	teamId: string,
+	setParts: (update: (parts: PartDraft[]) => PartDraft[]) => void,
+) {
+	return useMemo(
+		() => ({
+			teamId,
+			onPick: (entry: ShelfItemDto, part: Record<string, unknown>) =>
+				setParts((ps) => [
+					...ps,
+					{
+						item: entry.label,
+						quantity: String(
+							entry.kind === 'cables' ? Math.max(1, Math.ceil(Number(part.lengthM) || 1)) : 1,
+						),
+						unitPrice: entry.priceMinor === null ? '0.00' : minorToText(entry.priceMinor),
+						link: entry.link,
+					},
+				]),
+		}),
+		[teamId, setParts],
+	);
+}
 
 /** The plan's parts to buy, each field editable in place, with line totals and the plan's total. */
 export function PlanPartsTable({

@@ -58,6 +58,11 @@ export const installPlanSchema = z.object({
 	 * brings answers 409 `confirm_findings` naming them, and nothing is saved.
 	 */
 	acceptDangers: z.array(lineText(300)).max(500).default([]),
+	/** A season of the team to record the plan's parts in as purchases, paid by the installer. */
+	recordPurchasesIn: z
+		.uuid({ error: 'recordPurchasesIn is a season’s id' })
+		.nullable()
+		.default(null),
 });
 
 export const compareQuerySchema = z.object({

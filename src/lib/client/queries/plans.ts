@@ -77,14 +77,17 @@ export function useInstallPlan(teamId: string, vehicleId: string) {
 			planId,
 			parentId,
 			acceptDangers = [],
+			recordPurchasesIn = null,
 		}: {
 			planId: string;
 			parentId: string | null;
 			/** Keys of the danger findings the installer was shown and accepts. */
 			acceptDangers?: string[];
+			/** A season to record the plan's parts in as purchases, paid by the installer. */
+			recordPurchasesIn?: string | null;
 		}) =>
 			api<RevisionDto>(`/api/teams/${teamId}/vehicles/${vehicleId}/plans/${planId}/install`, {
-				json: { parentId, acceptDangers },
+				json: { parentId, acceptDangers, recordPurchasesIn },
 			}),
 		onSuccess: () =>
 			Promise.all([

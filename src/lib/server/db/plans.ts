@@ -279,6 +279,14 @@ export function installPlan(
 		document: BuildDocument;
 		message: string;
 		authorId: string;
+		/** The plan's parts, recorded as purchases in this season on this day, paid by the author. */
+		purchases?: {
+			seasonId: string;
+			boughtOn: string;
+			paidByName: string;
+			planName: string;
+			parts: PlanPart[];
+		};
 	},
 ): Promise<SaveResult> {
 	return appendRevision(
@@ -296,6 +304,24 @@ export function installPlan(
 				.set({ installed_revision_id: revision.id, installed_at: new Date() })
 				.where('id', '=', p.planId)
 				.execute();
+			const bought = p.purchases;
+			if (bought && bought.parts.length)
+				await trx
+					.insertInto('purchase')
+					.values(
+						bought.parts.map((part) => ({
+							season_id: bought.seasonId,
+							bought_on: bought.boughtOn,
+							item: part.item,
+							quantity: part.quantity,
+							unit_price_minor: toMinor(part.unitPrice),
+							paid_by: p.authorId,
+							paid_by_name: bought.paidByName,
+							notes: `From the installed plan “${bought.planName}”`.slice(0, 500),
+							created_by: p.authorId,
+						})),
+					)
+					.execute();
 		},
 	);
 }

@@ -3,6 +3,7 @@ import { documentProblems, mergePlan } from '@/engine';
 import type { RevisionDto } from '@/lib/schemas/vehicles';
 import { findHeadRevision, findRevision } from '@/lib/server/db/builds';
 import { installPlan } from '@/lib/server/db/plans';
+import { findSeason } from '@/lib/server/db/seasons';
 import { conflict, problem, readJson } from '@/lib/server/http';
 import { installPlanSchema } from '@/lib/schemas/plans';
 import { requirePlan } from '@/lib/server/access';
@@ -22,6 +23,13 @@ export const POST: APIRoute = async ({ params, request, locals }) => {
 	const { build, plan, access } = found.value;
 	const head = await findHeadRevision(locals.db, build.id);
 	if ((head?.id ?? null) !== body.data.parentId) return stale(head);
+	const season = body.data.recordPurchasesIn
+		? await findSeason(locals.db, access.teamId, body.data.recordPurchasesIn)
+		: null;
+	if (body.data.recordPurchasesIn && !season)
+		return problem(400, 'invalid_input', 'No such season in this team', [
+			{ path: 'recordPurchasesIn', message: 'Not a season of this team' },
+		]);
 	// The plan's changes since its base go on top of the head, keeping what others saved since.
 	let document = plan.document;
 	if (head && plan.baseRevisionId && plan.baseRevisionId !== head.id) {
@@ -76,6 +84,15 @@ export const POST: APIRoute = async ({ params, request, locals }) => {
 		document,
 		message,
 		authorId: access.userId,
+		purchases: season
+			? {
+					seasonId: season.id,
+					boughtOn: new Date().toISOString().slice(0, 10),
+					paidByName: locals.user?.name || locals.user?.email || '',
+					planName: plan.name,
+					parts: plan.parts,
+				}
+			: undefined,
 	});
 	if (!result.ok) return stale(await findHeadRevision(locals.db, build.id));
 	return Response.json(
