@@ -4,6 +4,7 @@ import { measurementColumns } from '@/lib/schemas/run-measurements';
 import { sampleAt, type TeamBackupContent } from '@/lib/schemas/team-backup';
 import type { ImportSummary } from '@/lib/schemas/teams';
 import { storeLoggerSummary } from '@/lib/server/db/runs';
+import { shelfRowValues } from '@/lib/server/db/shelf';
 
 type Db = Kysely<Database>;
 
@@ -283,14 +284,7 @@ export async function insertTeamFromBackup(
 				.values(
 					t.shelf.slice(i, i + 500).map(({ item, createdAt }) => ({
 						team_id: team.id,
-						kind: item.kind,
-						label: item.label,
-						spec: JSON.stringify(item.spec),
-						price_minor: item.priceMinor,
-						supplier: item.supplier,
-						link: item.link,
-						owned: item.owned,
-						notes: item.notes,
+						...shelfRowValues(item),
 						created_at: createdAt,
 						updated_at: createdAt,
 					})),

@@ -47,7 +47,8 @@ const COLUMNS = [
 	'updated_at',
 ] as const;
 
-const values = (item: ShelfItemInput) => ({
+/** An entry's columns as written (the route, the import and the backup's restore). */
+export const shelfRowValues = (item: ShelfItemInput) => ({
 	kind: item.kind,
 	label: item.label,
 	spec: JSON.stringify(item.spec),
@@ -80,6 +81,22 @@ export async function countShelf(db: Db, teamId: string): Promise<number> {
 	return Number(row.n);
 }
 
+/**
+ * Adds entries to the team's shelf in one transaction, all or none; null when they would take it
+ * past SHELF_LIMIT. One writer per team at a time, so the limit holds however many add at once.
+ */
+export async function addShelfItems(
+	db: Db,
+	teamId: string,
+	items: ShelfItemInput[],
+): Promise<ShelfItemDto[] | null> {
+	return db.transaction().execute(async (tx) => {
+		await sql`select pg_advisory_xact_lock(hashtext(${`shelf:${teamId}`}))`.execute(tx);
+		if ((await countShelf(tx, teamId)) + items.length > SHELF_LIMIT) return null;
+		return insertShelfItems(tx, teamId, items);
+	});
+}
+
 /** Adds entries in one statement; the caller runs it in the transaction the entries belong to. */
 export async function insertShelfItems(
 	db: Db,
@@ -89,7 +106,7 @@ export async function insertShelfItems(
 	if (items.length === 0) return [];
 	const rows = await db
 		.insertInto('shelf_item')
-		.values(items.map((item) => ({ team_id: teamId, ...values(item) })))
+		.values(items.map((item) => ({ team_id: teamId, ...shelfRowValues(item) })))
 		.returning(COLUMNS)
 		.execute();
 	return rows.map(toShelfDto);
@@ -118,7 +135,7 @@ export async function updateShelfItem(
 		if (current.updated_at.getTime() !== new Date(readAt).getTime()) return 'stale';
 		const row = await tx
 			.updateTable('shelf_item')
-			.set({ ...values(item), updated_at: sql`clock_timestamp()` })
+			.set({ ...shelfRowValues(item), updated_at: sql`clock_timestamp()` })
 			.where('id', '=', id)
 			.returning(COLUMNS)
 			.executeTakeFirstOrThrow();

@@ -1,8 +1,7 @@
 import type { APIRoute } from 'astro';
-import { sql } from 'kysely';
 import { requireTeamRole } from '@/lib/server/access';
 import { BodyTooLargeError, MAX_JSON_BYTES, readBytes } from '@/lib/server/body';
-import { countShelf, insertShelfItems, SHELF_LIMIT } from '@/lib/server/db/shelf';
+import { addShelfItems, SHELF_LIMIT } from '@/lib/server/db/shelf';
 import { problem } from '@/lib/server/http';
 import { parseShelfCsv } from '@/lib/server/shelf-csv';
 
@@ -34,12 +33,7 @@ export const POST: APIRoute = async ({ params, request, locals }) => {
 			'Some rows need attention; nothing was added',
 			parsed.errors,
 		);
-	const teamId = auth.value.teamId;
-	const added = await locals.db.transaction().execute(async (tx) => {
-		await sql`select pg_advisory_xact_lock(hashtext(${`shelf:${teamId}`}))`.execute(tx);
-		if ((await countShelf(tx, teamId)) + parsed.items.length > SHELF_LIMIT) return null;
-		return insertShelfItems(tx, teamId, parsed.items);
-	});
+	const added = await addShelfItems(locals.db, auth.value.teamId, parsed.items);
 	if (!added)
 		return problem(
 			409,

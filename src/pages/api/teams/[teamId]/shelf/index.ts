@@ -1,8 +1,7 @@
 import type { APIRoute } from 'astro';
-import { sql } from 'kysely';
 import { shelfItemSchema } from '@/lib/schemas/shelf';
 import { requireTeamRole } from '@/lib/server/access';
-import { countShelf, findShelf, insertShelfItems, SHELF_LIMIT } from '@/lib/server/db/shelf';
+import { addShelfItems, findShelf, SHELF_LIMIT } from '@/lib/server/db/shelf';
 import { problem, readJson } from '@/lib/server/http';
 
 /** The team's parts shelf: every member reads it. */
@@ -20,13 +19,7 @@ export const POST: APIRoute = async ({ params, request, locals }) => {
 	if (!auth.ok) return auth.response;
 	const body = await readJson(request, shelfItemSchema);
 	if (!body.ok) return body.response;
-	const teamId = auth.value.teamId;
-	const added = await locals.db.transaction().execute(async (tx) => {
-		// One writer per team at a time, so the limit holds however many add at once.
-		await sql`select pg_advisory_xact_lock(hashtext(${`shelf:${teamId}`}))`.execute(tx);
-		if ((await countShelf(tx, teamId)) >= SHELF_LIMIT) return null;
-		return (await insertShelfItems(tx, teamId, [body.data]))[0]!;
-	});
+	const added = (await addShelfItems(locals.db, auth.value.teamId, [body.data]))?.[0];
 	if (!added)
 		return problem(
 			409,
