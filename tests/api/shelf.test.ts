@@ -227,6 +227,15 @@ describe('the parts shelf', () => {
 		expect(errors.find((e) => e.path === 'rows.3.price')!.message).toMatch(/^Row 3: price/);
 		expect(paths.some((p) => p.startsWith('rows.2'))).toBe(false);
 		expect(await count()).toBe(n);
+		// A column that would reach an object's prototype is refused, and reaches nothing.
+		const sly = [
+			'kind,name,material,insulationC,size.kind,size.awg,size.__proto__.polluted',
+			'cables,Red,copper,105,awg,4,yes',
+		].join('\n');
+		const slyRes = await call(shelfImport, 'POST', {}, undefined, member, csvRequest(sly));
+		expect(slyRes.status).toBe(400);
+		expect(({} as Record<string, unknown>).polluted).toBeUndefined();
+		expect(await count()).toBe(n);
 		const notCsv = await call(shelfImport, 'POST', {}, { a: 1 });
 		expect(notCsv.status).toBe(415);
 	});

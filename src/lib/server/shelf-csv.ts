@@ -114,13 +114,20 @@ function coerce(schema: Schema | undefined, raw: unknown): unknown {
 /** Undoes the apostrophe a formula-looking cell was sent out with. */
 const unescape = (cell: string) => (/^'[=+\-@\t\r]/.test(cell) ? cell.slice(1) : cell);
 
+/** A column name's parts that could reach an object's prototype: never a field of ours. */
+const UNSAFE_KEY = /^(__proto__|constructor|prototype)$/;
+export const isSafeColumn = (key: string) =>
+	key.split('.').every((p) => p !== '' && !UNSAFE_KEY.test(p));
+
+/** Dotted column names as nested objects, own properties only. */
 function nest(cells: Array<[string, string]>): Record<string, unknown> {
 	const out: Record<string, unknown> = {};
 	for (const [key, value] of cells) {
 		const parts = key.split('.');
 		let at = out;
 		for (const p of parts.slice(0, -1)) {
-			if (typeof at[p] !== 'object' || at[p] === null) at[p] = {};
+			const next = Object.hasOwn(at, p) ? at[p] : undefined;
+			if (typeof next !== 'object' || next === null) at[p] = {};
 			at = at[p] as Record<string, unknown>;
 		}
 		at[parts.at(-1)!] = value;
@@ -174,6 +181,13 @@ export function parseShelfCsv(text: string, limit: number): ShelfCsvResult {
 			if ((FIXED as readonly string[]).includes(column) || column === '__parsed_extra') continue;
 			const key = keyOf(column);
 			const value = cell(column);
+			if (!isSafeColumn(key)) {
+				errors.push({
+					path: where('header'),
+					message: `Row ${line}: no field is called "${column}"`,
+				});
+				continue;
+			}
 			if (value === '' && !fields.has(key.split('.')[0]!)) continue;
 			if (!fields.has(key.split('.')[0]!)) {
 				errors.push({
