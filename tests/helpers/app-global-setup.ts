@@ -56,6 +56,8 @@ export default async function setup(project: TestProject) {
 		SAGWISE_DEV_OUTBOX: smtp.dir,
 		S3_ENDPOINT: s3.endpoint,
 		S3_BUCKET: 'sagwise-files',
+		// Every browser test signs up from this one address; each makes a team of its own.
+		SAGWISE_SIGNUPS_PER_CLIENT_HOUR: '100',
 	});
 	project.provide('appUrl', appUrl);
 	project.provide('outboxDir', smtp.dir);

@@ -34,13 +34,24 @@ export type RateKind = 'reset_mail' | 'link_mail' | 'sign_up';
  * PostgreSQL so every app instance counts the same. Unknown addresses count like known ones, so
  * the limit tells nothing about who has an account.
  */
+/** A whole number from the environment, or the default when it is unset or not one. */
+function wholeFromEnv(name: string, fallback: number): number {
+	const v = Number(process.env[name]);
+	return Number.isInteger(v) && v > 0 ? v : fallback;
+}
+
 export const RATE_LIMITS: Record<
 	RateKind,
 	{ windowMs: number; perEmail: number; perClient: number }
 > = {
 	reset_mail: { windowMs: 15 * 60_000, perEmail: 3, perClient: 10 },
 	link_mail: { windowMs: 15 * 60_000, perEmail: 5, perClient: 20 },
-	sign_up: { windowMs: 60 * 60_000, perEmail: 3, perClient: 10 },
+	// Many sign-ups from one address are a script, or a venue behind one router: the operator says which.
+	sign_up: {
+		windowMs: 60 * 60_000,
+		perEmail: 3,
+		perClient: wholeFromEnv('SAGWISE_SIGNUPS_PER_CLIENT_HOUR', 10),
+	},
 };
 
 /**
