@@ -132,18 +132,19 @@ function SeasonView({
 	return (
 		<>
 			<dl className="grid grid-cols-2 gap-3 sm:grid-cols-4" data-season-figures>
-				{[
-					['Budget', money(season.budgetMinor)],
-					['Spent', money(season.spentMinor)],
-					['Left', money(left)],
-					['Left after plans', money(left - committedMinor)],
-				].map(([k, v]) => (
+				{(
+					[
+						['Budget', season.budgetMinor],
+						['Spent', season.spentMinor],
+						['Left', left],
+						['Left after plans', left - committedMinor],
+					] as const
+				).map(([k, minor]) => (
 					<div key={k} className="rounded-md border border-hairline bg-card p-3">
 						<dt className="text-xs font-semibold text-ink-soft uppercase">{k}</dt>
-						<dd
-							className={`num text-lg font-bold ${k!.startsWith('Left') && v!.includes('-') ? 'text-brick' : ''}`}
-						>
-							{v}
+						{/* Over budget reads in red. */}
+						<dd className={`num text-lg font-bold ${minor < 0 ? 'text-brick' : ''}`}>
+							{money(minor)}
 						</dd>
 					</div>
 				))}

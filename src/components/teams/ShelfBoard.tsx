@@ -5,12 +5,11 @@ import { Button } from '@/components/ui/Field';
 import { ApiError } from '@/lib/client/api-client';
 import { withQueryClient } from '@/lib/client/query-client';
 import {
-	shelfQueryOptions,
+	fetchShelf,
 	useImportShelf,
 	useRemoveShelfItem,
 	useSaveShelfItem,
 } from '@/lib/client/queries/shelf';
-import { useQueryClient } from '@tanstack/react-query';
 import { formatMoney } from '@/lib/format';
 import { parseMoney } from '@/lib/money';
 import { SHELF_KINDS, SHELF_NAMES, type ShelfItemDto, type ShelfKind } from '@/lib/shelf-kinds';
@@ -70,7 +69,6 @@ export const ShelfBoard = withQueryClient(function ShelfBoard({
 	const saveItem = useSaveShelfItem(teamId);
 	const removeItem = useRemoveShelfItem(teamId);
 	const importShelf = useImportShelf(teamId);
-	const qc = useQueryClient();
 	const columns = useMemo(
 		() =>
 			Object.fromEntries(SHELF_KINDS.map((k) => [k, shelfColumns(k, units)])) as Record<
@@ -219,7 +217,7 @@ export const ShelfBoard = withQueryClient(function ShelfBoard({
 				]);
 				return;
 			}
-			const items = await qc.fetchQuery({ ...shelfQueryOptions(teamId), staleTime: 0 });
+			const items = await fetchShelf(teamId);
 			// Unsaved rows stay as typed; the saved ones come back with the file's entries.
 			setRows((r) => {
 				const fresh = group(items);

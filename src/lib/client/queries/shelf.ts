@@ -8,10 +8,14 @@ export const shelfKeys = {
 	team: (teamId: string) => [...shelfKeys.all, teamId] as const,
 };
 
+/** The team's shelf as it is now. */
+export const fetchShelf = (teamId: string, signal?: AbortSignal) =>
+	getJson<ShelfItemDto[]>(`/api/teams/${teamId}/shelf`, { signal });
+
 export const shelfQueryOptions = (teamId: string) =>
 	queryOptions({
 		queryKey: shelfKeys.team(teamId),
-		queryFn: ({ signal }) => getJson<ShelfItemDto[]>(`/api/teams/${teamId}/shelf`, { signal }),
+		queryFn: ({ signal }) => fetchShelf(teamId, signal),
 		staleTime: 30_000,
 	});
 
