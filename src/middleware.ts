@@ -210,7 +210,7 @@ function withHeader(response: Response, name: string, value: string): Response {
 	}
 }
 
-const APP_PAGES = [/^\/teams(\/|$)/, /^\/account(\/|$)/];
+const APP_PAGES = [/^\/teams(\/|$)/, /^\/account(\/|$)/, /^\/notifications(\/|$)/];
 
 /** Anonymous visitors of app pages go to the sign-in page and come back afterwards. */
 const guardPages = defineMiddleware((context, next) => {

@@ -12,6 +12,7 @@ import * as teamDataVersion from './2026_12_04_130000_team_data_version';
 import * as waiverScope from './2026_12_05_090000_waiver_scope';
 import * as partsShelf from './2026_12_05_160000_parts_shelf';
 import * as seasonBudget from './2026_12_05_170000_season_budget';
+import * as commentThreads from './2026_12_05_190000_comment_threads';
 
 /**
  * Every migration, by name, in the order they apply. Listed explicitly (rather than read from the
@@ -32,4 +33,5 @@ export const migrations: Record<string, Migration> = {
 	'2026_12_05_090000_waiver_scope': waiverScope,
 	'2026_12_05_160000_parts_shelf': partsShelf,
 	'2026_12_05_170000_season_budget': seasonBudget,
+	'2026_12_05_190000_comment_threads': commentThreads,
 };

@@ -1,10 +1,12 @@
 /**
- * `npm run jobs`: event reminders, the captains' revision digest and the sweep of stored files no
+ * `npm run jobs`: event reminders, the captains' revision digest, mention mail (any the app could
+ * not send at once, and each day's digest for those who chose it) and the sweep of stored files no
  * row points at, for a scheduler (cron, a systemd timer) to call — hourly is plenty. Safe to run
- * twice and on several machines at once. `npm run jobs -- reminders|digest|sweep` runs one.
+ * twice and on several machines at once. `npm run jobs -- reminders|digest|mentions|sweep` runs one.
  */
 import { createDb } from '../lib/server/db/client';
 import { sendEventReminders, sendRevisionDigests } from '../lib/server/reminders';
+import { sendMentionDigests, sendMentionMail } from '../lib/server/mention-mail';
 import { readConfig } from '../lib/server/config';
 import { createSmtpMailer } from '../lib/server/mail';
 import { sweepOrphanObjects } from '../lib/server/object-cleanup';
@@ -22,6 +24,10 @@ try {
 		console.log(`event reminders sent: ${await sendEventReminders(db, mailer, config)}`);
 	if (which === 'all' || which === 'digest')
 		console.log(`revision digests sent: ${await sendRevisionDigests(db, mailer, config)}`);
+	if (which === 'all' || which === 'mentions') {
+		console.log(`mention mails sent: ${await sendMentionMail(db, mailer, config)}`);
+		console.log(`mention digests sent: ${await sendMentionDigests(db, mailer, config)}`);
+	}
 	if (which === 'all' || which === 'sweep')
 		console.log(
 			`stored files without a row removed: ${await sweepOrphanObjects(db, createS3Storage(config.s3))}`,

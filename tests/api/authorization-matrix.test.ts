@@ -40,6 +40,8 @@ interface World {
 	shelfReadAt: string;
 	seasonId: string;
 	purchaseId: string;
+	/** A comment written by the member a moment ago. */
+	commentId: string;
 }
 
 interface Case {
@@ -329,6 +331,35 @@ const MATRIX: Record<string, Case[]> = {
 			expect: memberWrite(204),
 		},
 	],
+	// Viewers read threads; they write only where a captain allows it (off here).
+	'teams/[teamId]/comments/index.ts': [
+		{
+			method: 'GET',
+			params: teamScoped,
+			query: (w) => `?on=run&id=${w.runId}`,
+			expect: read,
+		},
+		{
+			method: 'POST',
+			params: teamScoped,
+			body: (w) => ({ on: 'plan', id: w.planId, body: 'Why 1/0 here?' }),
+			expect: memberWrite(201),
+		},
+	],
+	// A comment is changed by its author only (the member), and deleted by its author or a captain.
+	'teams/[teamId]/comments/[commentId].ts': [
+		{
+			method: 'PATCH',
+			params: (w) => ({ teamId: w.teamId, commentId: w.commentId }),
+			body: () => ({ body: 'Changed my mind' }),
+			expect: { anonymous: 401, viewer: 403, member: 200, captain: 403, outsider: 404 },
+		},
+		{
+			method: 'DELETE',
+			params: (w) => ({ teamId: w.teamId, commentId: w.commentId }),
+			expect: memberWrite(204),
+		},
+	],
 	'teams/[teamId]/events/index.ts': [
 		{ method: 'GET', params: teamScoped, expect: read },
 		{
@@ -584,7 +615,18 @@ describe('authorization matrix', () => {
 			notes: '',
 			createdBy: users.captain.id,
 		});
+		const comment = await t.db
+			.insertInto('comment')
+			.values({
+				team_id: teamId,
+				run_id: run.id,
+				author_id: users.member.id,
+				body: 'Rear bank warm',
+			})
+			.returning('id')
+			.executeTakeFirstOrThrow();
 		return {
+			commentId: comment.id,
 			seasonId,
 			purchaseId,
 			shelfItemId: shelfItem!.id,

@@ -12,6 +12,7 @@ export const TEST_CONFIG: ServerConfig = {
 	smtpUrl: 'smtp://unused',
 	mailFrom: 'tests@sagwise.test',
 	devOutboxDir: null,
+	linkSigningKey: 'test-link-key',
 	s3: {
 		endpoint: null,
 		region: 'us-east-1',

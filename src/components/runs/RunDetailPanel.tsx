@@ -12,6 +12,7 @@ import {
 } from '@/lib/client/queries/runs';
 import { MISMATCH_MARGIN_V } from '@/lib/schemas/runs';
 import { fmt } from '@/lib/format';
+import { CommentThreadView } from '@/components/comments/CommentThread';
 import { CalibrationSection } from './CalibrationSection';
 import { EditRunForm } from './EditRunForm';
 import { SamplesChart } from './RunCharts';
@@ -116,6 +117,11 @@ export function RunDetailPanel({
 				<p className="mt-3 text-sm text-ink-soft">No logger file for this run.</p>
 			)}
 			<RunPhotos teamId={teamId} runId={runId} canEdit={canEdit} />
+			<CommentThreadView
+				teamId={teamId}
+				subject={{ on: 'run', id: runId }}
+				title="Discussion of this run"
+			/>
 			{canEdit && <EditRunForm teamId={teamId} vehicleId={vehicleId} run={run} />}
 			{canEdit && (
 				<div className="mt-4">

@@ -24,6 +24,8 @@ export interface VehicleRunsProps {
 	vehicleId: string;
 	canEdit: boolean;
 	initialRuns: RunDto[];
+	/** The run to open first (a notification's link); the newest otherwise. */
+	openRunId?: string | null;
 	events: EventDto[];
 	revisions: RevisionSummary[];
 }
@@ -41,6 +43,7 @@ export function VehicleRunsView({
 	vehicleId,
 	canEdit,
 	initialRuns,
+	openRunId = null,
 	events,
 	revisions,
 }: VehicleRunsProps) {
@@ -48,7 +51,9 @@ export function VehicleRunsView({
 		...vehicleRunsQueryOptions(teamId, vehicleId),
 		initialData: initialRuns,
 	});
-	const [selected, setSelected] = useState<string | null>(initialRuns.at(-1)?.id ?? null);
+	const [selected, setSelected] = useState<string | null>(
+		initialRuns.find((r) => r.id === openRunId)?.id ?? initialRuns.at(-1)?.id ?? null,
+	);
 	const [referenceId, setReferenceId] = useState<string | null>(null);
 	const [compare, setCompare] = useState<string[]>([]);
 	const fmtTime = useLocalFormat();

@@ -7,6 +7,7 @@ import { MembersSection } from './MembersSection';
 import { PendingSection } from './PendingSection';
 import { TeamNameSection } from './TeamNameSection';
 import { CurrencySection, ReminderSection } from './TeamSettingForm';
+import { ViewerCommentSection } from './ViewerCommentSection';
 
 export interface TeamSettingsProps {
 	teamId: string;
@@ -16,6 +17,7 @@ export interface TeamSettingsProps {
 	initialMembers: MemberDto[];
 	reminderDays: number;
 	currency: string;
+	viewersMayComment: boolean;
 }
 
 export function TeamSettings(props: TeamSettingsProps) {
@@ -34,6 +36,7 @@ export function TeamSettingsView({
 	initialMembers,
 	reminderDays,
 	currency,
+	viewersMayComment,
 }: TeamSettingsProps) {
 	const captain = myRole === 'captain';
 	return (
@@ -49,6 +52,7 @@ export function TeamSettingsView({
 			{captain && <TeamNameSection teamId={teamId} teamName={teamName} />}
 			{captain && <ReminderSection teamId={teamId} initialDays={reminderDays} />}
 			{captain && <CurrencySection teamId={teamId} initial={currency} />}
+			{captain && <ViewerCommentSection teamId={teamId} initial={viewersMayComment} />}
 			<LeaveOrDeleteSection
 				teamId={teamId}
 				teamName={teamName}

@@ -15,7 +15,7 @@ export interface DraftStore<T> {
 }
 
 /** What this device keeps per member in localStorage: drafts, and the vehicle last logged for. */
-const MEMBER_PREFIXES = ['draft', 'plan-draft', 'last-vehicle'] as const;
+const MEMBER_PREFIXES = ['draft', 'plan-draft', 'last-vehicle', 'comment-draft'] as const;
 
 export function draftStore<T>(prefix: (typeof MEMBER_PREFIXES)[number]): DraftStore<T> {
 	const key = (id: string) => {
@@ -97,6 +97,8 @@ export interface PlanDraft {
 
 export const buildDrafts = draftStore<BuildDraft>('draft');
 export const planDrafts = draftStore<PlanDraft>('plan-draft');
+/** A comment being written, per thread (`on:id`). */
+export const commentDrafts = draftStore<{ body: string }>('comment-draft');
 
 /** The vehicle a member last logged a run for, per team (the day page puts it first). */
 export const lastVehicles = draftStore<{ vehicleId: string }>('last-vehicle');

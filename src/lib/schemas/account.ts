@@ -56,9 +56,15 @@ export const renameTeamSchema = z
 			.toUpperCase()
 			.regex(/^[A-Z]{3}$/, 'Use a three-letter currency code such as EUR')
 			.optional(),
+		/** Whether viewers (a sponsor, an advising shop) may comment in the team's threads. */
+		viewersMayComment: z.boolean({ error: 'viewersMayComment is true or false' }).optional(),
 	})
 	.refine(
-		(v) => v.name !== undefined || v.reminderDays !== undefined || v.currency !== undefined,
+		(v) =>
+			v.name !== undefined ||
+			v.reminderDays !== undefined ||
+			v.currency !== undefined ||
+			v.viewersMayComment !== undefined,
 		'Nothing to change',
 	);
 export const deleteTeamSchema = z.object({

@@ -2,6 +2,8 @@ import { z } from '@/lib/zod';
 import { buildDocumentSchema } from '@/engine';
 import { measurementNumbersShape } from './run-measurements';
 import { shelfItemSchema } from './shelf';
+import { COMMENT_MAX_CHARS } from './comments';
+import { notesText } from './text';
 
 /**
  * A whole team as one file. Records refer to each other by keys local to the file (`v1`, `v1.r3`,
@@ -81,6 +83,31 @@ export const backupFileSchema = z.object({
 	/** The bytes, base64. */
 	data: z.base64(),
 });
+
+const commentFields = {
+	authorEmail: email.nullable(),
+	/** The author as the team knew them when they wrote. */
+	authorName: z.string().max(200),
+	body: notesText(COMMENT_MAX_CHARS, { required: 'A comment has text' }),
+	createdAt: iso,
+	editedAt: iso.nullable(),
+};
+const backupCommentSchema = z.discriminatedUnion('on', [
+	z.object({
+		on: z.literal('revision'),
+		vehicle: key,
+		revision: z.number().int().positive(),
+		...commentFields,
+	}),
+	z.object({ on: z.literal('run'), run: key, ...commentFields }),
+	z.object({
+		on: z.literal('plan'),
+		vehicle: key,
+		plan: z.number().int().min(0).max(10_000),
+		...commentFields,
+	}),
+	z.object({ on: z.literal('event'), event: key, ...commentFields }),
+]);
 
 export const teamBackupContentSchema = z.object({
 	name: z.string().min(1).max(80),
@@ -216,6 +243,14 @@ export const teamBackupContentSchema = z.object({
 		)
 		.max(200)
 		.default([]),
+	/** Whether viewers may comment; older files have none (off). */
+	viewersMayComment: z.boolean().default(false),
+	/**
+	 * The comment threads, each comment naming what it is beside: a revision (its vehicle and
+	 * number), a plan (its vehicle and place in that vehicle's plans, from 0), a run or an event
+	 * (their keys). Older files have none.
+	 */
+	comments: z.array(backupCommentSchema).max(20_000).default([]),
 	/** The team's parts shelf, each entry checked as the shelf's own route checks it; older files have none. */
 	shelf: z
 		.array(z.object({ item: shelfItemSchema, createdAt: iso }))

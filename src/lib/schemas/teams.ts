@@ -21,6 +21,8 @@ export const teamSettingsSchema = z.object({
 	currency: z.string(),
 	reminderDays: z.number().int(),
 	fuseDistanceM: z.number(),
+	/** Whether viewers may write in the team's threads (off unless a captain allows it). */
+	viewersMayComment: z.boolean(),
 });
 export type TeamSettingsDto = z.infer<typeof teamSettingsSchema>;
 

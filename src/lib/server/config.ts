@@ -1,3 +1,5 @@
+import { randomBytes } from 'node:crypto';
+
 /** Runtime settings from the environment (the start command fills in local defaults). */
 export interface ServerConfig {
 	publicUrl: string;
@@ -5,6 +7,8 @@ export interface ServerConfig {
 	mailFrom: string;
 	/** Folder of the local SMTP fake's mail, shown at /dev/outbox; null when mail goes out for real. */
 	devOutboxDir: string | null;
+	/** Signs the one-click unsubscribe links in mail (the auth secret; a fresh one per process without it). */
+	linkSigningKey: string;
 	s3: {
 		endpoint: string | null;
 		region: string;
@@ -27,6 +31,7 @@ export function readConfig(env: Record<string, string | undefined> = process.env
 		smtpUrl: env.SMTP_URL ?? 'smtp://127.0.0.1:2525',
 		mailFrom: env.MAIL_FROM ?? 'Sagwise <no-reply@sagwise.invalid>',
 		devOutboxDir: production ? null : (env.SAGWISE_DEV_OUTBOX ?? null),
+		linkSigningKey: env.AUTH_SECRET || randomBytes(32).toString('hex'),
 		s3: {
 			// Unset: the local fake. Set to an empty string: AWS's own endpoint for the region.
 			endpoint: env.S3_ENDPOINT === '' ? null : (env.S3_ENDPOINT ?? 'http://127.0.0.1:4569'),

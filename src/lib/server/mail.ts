@@ -5,6 +5,8 @@ export interface MailMessage {
 	subject: string;
 	text: string;
 	html: string;
+	/** Extra headers (List-Unsubscribe on mail a person may stop). */
+	headers?: Record<string, string>;
 }
 
 export interface Mailer {

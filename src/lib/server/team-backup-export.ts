@@ -12,6 +12,7 @@ import {
 import type { Database } from '@/lib/server/db/schema';
 import { findShelfForBackup } from '@/lib/server/db/shelf';
 import { findSeasonsForBackup } from '@/lib/server/db/seasons';
+import { findCommentsForBackup } from '@/lib/server/db/comments';
 import { measurementsOf } from '@/lib/schemas/run-measurements';
 
 import {
@@ -61,6 +62,9 @@ export async function* exportTeamChunks(
 	const revisionNumber = new Map(outline.revisionNumbers.map((r) => [r.id, r.number]));
 	const num = (id: string | null) => (id ? (revisionNumber.get(id) ?? null) : null);
 	const eventKey = new Map(events.map((e, i) => [e.id, `e${i + 1}`]));
+	const runKey = new Map(runs.map((r, i) => [r.id, `run${i + 1}`]));
+	/** A plan's vehicle and place among its plans, filled as the vehicles go out. */
+	const planPlace = new Map<string, { vehicle: string; plan: number }>();
 
 	const hash = createHash('sha256');
 	const exportedAt = new Date().toISOString();
@@ -126,6 +130,7 @@ export async function* exportTeamChunks(
 		}
 		yield part('],"plans":[');
 		for (const [k, p] of plans.entries()) {
+			planPlace.set(p.id, { vehicle: vehicleKey.get(v.id)!, plan: k });
 			const plan: TeamBackupContent['vehicles'][number]['plans'][number] = {
 				name: p.name,
 				notes: p.notes,
@@ -271,6 +276,34 @@ export async function* exportTeamChunks(
 				createdAt: iso(p.created_at),
 			})),
 		})),
+	);
+	yield field('viewersMayComment', team.viewers_may_comment);
+	const comments = await findCommentsForBackup(db, teamId);
+	const authorEmails = await emailsOf(
+		db,
+		comments.map((c) => c.author_id).filter((id): id is string => !!id),
+	);
+	yield field(
+		'comments',
+		comments.flatMap((c): TeamBackupContent['comments'] => {
+			const common = {
+				authorEmail: (c.author_id ? authorEmails.get(c.author_id) : null) ?? c.imported_by,
+				authorName: c.author_name,
+				body: c.body,
+				createdAt: iso(c.created_at),
+				editedAt: c.edited_at ? iso(c.edited_at) : null,
+			};
+			const vehicle = c.rev_vehicle_id ? vehicleKey.get(c.rev_vehicle_id) : undefined;
+			if (c.revision_id && vehicle && c.rev_number !== null)
+				return [{ on: 'revision', vehicle, revision: c.rev_number, ...common }];
+			const plan = c.plan_id ? planPlace.get(c.plan_id) : undefined;
+			if (plan) return [{ on: 'plan', ...plan, ...common }];
+			const run = c.run_id ? runKey.get(c.run_id) : undefined;
+			if (run) return [{ on: 'run', run, ...common }];
+			const event = c.event_id ? eventKey.get(c.event_id) : undefined;
+			if (event) return [{ on: 'event', event, ...common }];
+			return [];
+		}),
 	);
 	yield part('}');
 	yield `,"checksum":${JSON.stringify(hash.digest('hex'))}}`;

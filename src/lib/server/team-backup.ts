@@ -189,7 +189,7 @@ function checkBackup(raw: unknown, checksum: string): ParseBackupResult {
 	};
 }
 
-/** References inside the file must resolve: vehicles, events, revision numbers, check items, shelf entries. */
+/** References inside the file must resolve: vehicles, events, revision numbers, check items, shelf entries, what comments are beside. */
 function crossCheck(t: TeamBackupContent): { path: string; message: string }[] {
 	const out: { path: string; message: string }[] = [];
 	const vehicles = new Map(
@@ -243,6 +243,18 @@ function crossCheck(t: TeamBackupContent): { path: string; message: string }[] {
 					message: `No shelf entry ${p.shelfIndex}`,
 				});
 		});
+	});
+	const runs = new Set(t.runs.map((r) => r.key));
+	const plans = new Map(t.vehicles.map((v) => [v.key, v.plans.length]));
+	t.comments.forEach((c, i) => {
+		const path = `team.comments.${i}`;
+		if (c.on === 'revision' && !vehicles.get(c.vehicle)?.has(c.revision))
+			out.push({ path, message: `No revision ${c.revision} of vehicle ${c.vehicle}` });
+		if (c.on === 'plan' && !(c.plan < (plans.get(c.vehicle) ?? 0)))
+			out.push({ path, message: `No plan ${c.plan} of vehicle ${c.vehicle}` });
+		if (c.on === 'run' && !runs.has(c.run)) out.push({ path, message: `No run ${c.run}` });
+		if (c.on === 'event' && !events.has(c.event))
+			out.push({ path, message: `No event ${c.event}` });
 	});
 	return out;
 }

@@ -67,8 +67,12 @@ export function useCreateTeam() {
 /** Changes the team's name, currency or reminder days (captains). */
 export function useUpdateTeam(teamId: string) {
 	return useMutation({
-		mutationFn: (changes: { name?: string; currency?: string; reminderDays?: number }) =>
-			api(`/api/teams/${teamId}`, { method: 'PATCH', json: changes }),
+		mutationFn: (changes: {
+			name?: string;
+			currency?: string;
+			reminderDays?: number;
+			viewersMayComment?: boolean;
+		}) => api(`/api/teams/${teamId}`, { method: 'PATCH', json: changes }),
 	});
 }
 

@@ -2,16 +2,18 @@ import { type Kysely, sql } from 'kysely';
 import { CHECK_TITLES } from '@/engine';
 import type { Database } from '@/lib/server/db/schema';
 import { runVoltage } from '@/lib/run-figures';
+import { authorLabel, recentComments } from '@/lib/server/db/comments';
 
 type Db = Kysely<Database>;
 
 /** One thing that happened in the team, for its activity list. */
 export interface ActivityEntry {
-	kind: 'revision' | 'run' | 'signoff' | 'install';
+	kind: 'revision' | 'run' | 'signoff' | 'install' | 'comment';
 	at: Date;
 	who: string | null;
-	vehicleId: string;
-	vehicleName: string;
+	/** The vehicle it is about; none for a comment on an event. */
+	vehicleId: string | null;
+	vehicleName: string | null;
 	/** What happened, in words ("r4: Second alternator", "148.3 dB at 11.70 V"). */
 	text: string;
 }
@@ -21,7 +23,7 @@ const who = (name: string | null, email: string | null, imported: string | null)
 
 /**
  * The team's recent activity, newest first: revisions with their messages, runs, sign-offs and
- * waivers, and plan installs, each with who did it. Each kind is read newest first up to `limit`
+ * waivers, plan installs and comments, each with who did it. Each kind is read newest first up to `limit`
  * and the lists merged.
  */
 export async function findRecentActivity(
@@ -29,7 +31,7 @@ export async function findRecentActivity(
 	teamId: string,
 	limit = 12,
 ): Promise<ActivityEntry[]> {
-	const [revisions, runs, signoffs, installs] = await Promise.all([
+	const [revisions, runs, signoffs, installs, comments] = await Promise.all([
 		db
 			.selectFrom('revision as r')
 			.innerJoin('build as b', 'b.id', 'r.build_id')
@@ -122,6 +124,7 @@ export async function findRecentActivity(
 			.orderBy('r.created_at', 'desc')
 			.limit(limit)
 			.execute(),
+		recentComments(db, teamId, limit),
 	]);
 	const entries: ActivityEntry[] = [
 		...revisions.map((r) => ({
@@ -158,6 +161,14 @@ export async function findRecentActivity(
 			vehicleId: p.vehicle_id,
 			vehicleName: p.vehicle_name,
 			text: `installed the plan “${p.plan_name}” as r${p.number}`,
+		})),
+		...comments.map((c) => ({
+			kind: 'comment' as const,
+			at: c.created_at,
+			who: authorLabel(c),
+			vehicleId: c.place.vehicleId,
+			vehicleName: c.place.vehicleName,
+			text: `commented on ${c.place.label}: “${c.body.length > 80 ? `${c.body.slice(0, 80)}…` : c.body}”`,
 		})),
 	];
 	return entries.sort((a, b) => b.at.getTime() - a.at.getTime()).slice(0, limit);

@@ -58,6 +58,7 @@ export async function insertTeamFromBackup(
 				reminder_days: t.reminderDays,
 				fuse_distance_m: t.fuseDistanceM,
 				currency: t.currency,
+				viewers_may_comment: t.viewersMayComment,
 				created_at: t.createdAt,
 			})
 			.returning(['id', 'name'])
@@ -92,6 +93,7 @@ export async function insertTeamFromBackup(
 
 		const vehicleIds = new Map<string, string>();
 		const revisionIds = new Map<string, string>(); // `${vehicleKey}#${number}` → id
+		const planIds = new Map<string, string>(); // `${vehicleKey}#${place}` → id
 		let revisions = 0;
 		let plans = 0;
 		for (const v of t.vehicles) {
@@ -143,7 +145,7 @@ export async function insertTeamFromBackup(
 				.set({ head_revision_id: rev(v.headRevision) })
 				.where('id', '=', build.id)
 				.execute();
-			for (const plan of v.plans) {
+			for (const [place, plan] of v.plans.entries()) {
 				const row = await trx
 					.insertInto('plan')
 					.values({
@@ -163,6 +165,7 @@ export async function insertTeamFromBackup(
 					})
 					.returning('id')
 					.executeTakeFirstOrThrow();
+				planIds.set(`${v.key}#${place}`, row.id);
 				if (plan.parts.length) {
 					await trx
 						.insertInto('plan_part')
@@ -202,6 +205,7 @@ export async function insertTeamFromBackup(
 		}
 
 		let files = 0;
+		const runIds = new Map<string, string>();
 		for (const [i, r] of t.runs.entries()) {
 			const run = await trx
 				.insertInto('run')
@@ -218,6 +222,7 @@ export async function insertTeamFromBackup(
 				})
 				.returning('id')
 				.executeTakeFirstOrThrow();
+			runIds.set(r.key, run.id);
 			const samples = Array.from({ length: r.samples.length }, (_, j) => sampleAt(r.samples, j));
 			for (let k = 0; k < samples.length; k += 5000) {
 				await trx
@@ -326,6 +331,31 @@ export async function insertTeamFromBackup(
 					)
 					.execute();
 		}
+		// Threads: each comment beside what it named in the file (checked to exist before this).
+		const subjectOf = (c: TeamBackupContent['comments'][number]) =>
+			c.on === 'revision'
+				? { revision_id: revisionIds.get(`${c.vehicle}#${c.revision}`)! }
+				: c.on === 'plan'
+					? { plan_id: planIds.get(`${c.vehicle}#${c.plan}`)! }
+					: c.on === 'run'
+						? { run_id: runIds.get(c.run)! }
+						: { event_id: eventIds.get(c.event)! };
+		for (let i = 0; i < t.comments.length; i += 500)
+			await trx
+				.insertInto('comment')
+				.values(
+					t.comments.slice(i, i + 500).map((c) => ({
+						team_id: team.id,
+						...subjectOf(c),
+						author_id: null,
+						author_name: c.authorName,
+						imported_by: recorded(c.authorEmail),
+						body: c.body,
+						created_at: c.createdAt,
+						edited_at: c.editedAt,
+					})),
+				)
+				.execute();
 		return {
 			teamId: team.id,
 			name: team.name,

@@ -40,7 +40,7 @@ export function findDueReminders(db: Db, today: string) {
 /** Writes a notification to the ledger; false when it was already there (someone else sent it). */
 export async function claimNotification(
 	db: Db,
-	kind: 'event_reminder' | 'revision_digest',
+	kind: 'event_reminder' | 'revision_digest' | 'mention_digest',
 	subjectKey: string,
 	userId: string,
 ): Promise<boolean> {

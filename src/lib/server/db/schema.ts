@@ -20,13 +20,15 @@ export interface TeamTable {
 	/** ISO 4217 code that plan prices are in. */
 	currency: Generated<string>;
 	last_digest_at: Timestamp | null;
+	/** Whether viewers (a sponsor, an advising shop) may comment; off unless a captain allows it. */
+	viewers_may_comment: Generated<boolean>;
 	created_at: DefaultTimestamp;
 	/** Bumped by the database at each commit that changes what the team page reads (pg bigint: a string). */
 	data_version: ColumnType<string, never, never>;
 }
 
 export interface NotificationSentTable {
-	kind: 'event_reminder' | 'revision_digest';
+	kind: 'event_reminder' | 'revision_digest' | 'mention_digest';
 	subject_key: string;
 	user_id: string;
 	sent_at: DefaultTimestamp;
@@ -82,6 +84,8 @@ export interface UserTable {
 	createdAt: DefaultTimestamp;
 	/** Bumped by a password reset or a first e-mail sign-in: sessions issued under an older version end. */
 	sessionVersion: Generated<number>;
+	/** How mentions reach this person by e-mail: at once, in a daily digest, or not at all. */
+	mention_mail: Generated<'immediate' | 'daily' | 'off'>;
 }
 
 export interface AccountTable {
@@ -317,7 +321,36 @@ export interface PurchaseTable {
 	created_at: DefaultTimestamp;
 }
 
+/** A comment on exactly one subject: a revision, a run, a plan or an event of the team. */
+export interface CommentTable {
+	id: Generated<string>;
+	team_id: string;
+	revision_id: string | null;
+	run_id: string | null;
+	plan_id: string | null;
+	event_id: string | null;
+	author_id: string | null;
+	author_name: Generated<string>;
+	imported_by: string | null;
+	body: string;
+	created_at: DefaultTimestamp;
+	edited_at: Timestamp | null;
+}
+
+/** A mention of a member in a comment: read in the app, mailed at once or in a digest. */
+export interface NotificationTable {
+	id: Generated<string>;
+	user_id: string;
+	team_id: string;
+	comment_id: string;
+	created_at: DefaultTimestamp;
+	read_at: Timestamp | null;
+	mailed_at: Timestamp | null;
+}
+
 export interface Database {
+	comment: CommentTable;
+	notification: NotificationTable;
 	season: SeasonTable;
 	purchase: PurchaseTable;
 	shelf_item: ShelfItemTable;

@@ -162,6 +162,12 @@ export async function removeMember(
 			.where('team_id', '=', teamId)
 			.where('user_id', '=', userId)
 			.execute();
+		// What mentioned them in this team is no longer theirs to read, nor to be mailed.
+		await trx
+			.deleteFrom('notification')
+			.where('team_id', '=', teamId)
+			.where('user_id', '=', userId)
+			.execute();
 		return { ok: true } as const;
 	});
 }
@@ -355,7 +361,7 @@ export async function acceptInvitation(
 export function findTeamSettingsRow(db: Db, teamId: string) {
 	return db
 		.selectFrom('team')
-		.select(['name', 'currency', 'reminder_days', 'fuse_distance_m'])
+		.select(['name', 'currency', 'reminder_days', 'fuse_distance_m', 'viewers_may_comment'])
 		.where('id', '=', teamId)
 		.executeTakeFirstOrThrow();
 }
@@ -372,16 +378,18 @@ export async function findTeamSettings(
 		currency: team.currency,
 		reminderDays: team.reminder_days,
 		fuseDistanceM: team.fuse_distance_m,
+		viewersMayComment: team.viewers_may_comment,
 	};
 }
 
 export async function updateTeamSettings(
 	db: Db,
 	teamId: string,
-	s: { currency?: string; reminderDays?: number },
+	s: { currency?: string; reminderDays?: number; viewersMayComment?: boolean },
 ): Promise<void> {
 	const set = {
 		...(s.currency !== undefined && { currency: s.currency }),
+		...(s.viewersMayComment !== undefined && { viewers_may_comment: s.viewersMayComment }),
 		...(s.reminderDays !== undefined && { reminder_days: s.reminderDays }),
 	};
 	if (Object.keys(set).length)
