@@ -15,6 +15,7 @@ import { migrateToLatest } from './migrator';
 import { DEMO_BUILDS, DEMO_HISTORIES } from './demo/builds';
 import { DEMO_PLANS } from './demo/plans';
 import { DEMO_SEASON, DEMO_SHELF } from './demo/shelf';
+import { seedDemoComments } from './demo/comments';
 import { DEMO_EVENTS, DEMO_RUNS, demoTrace } from './demo/runs';
 import type { Storage } from '../src/lib/server/storage';
 import type { Database } from '../src/lib/server/db/schema';
@@ -297,6 +298,11 @@ export async function seedDemo(db: Kysely<Database>, storage?: Storage): Promise
 				{ team_id: team.id, label: 'Main fuse holders closed, spare fuses in the kit' },
 			])
 			.execute();
+		await seedDemoComments(
+			trx,
+			team.id,
+			DEMO_USERS.map((u, i) => ({ id: userIds[i]!, name: u.name })),
+		);
 		return team.id;
 	});
 }

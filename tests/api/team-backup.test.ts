@@ -4,6 +4,7 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import type { Database } from '../../src/lib/server/db/schema';
 import { DEMO_USERS, seedDemo } from '../../db/seed';
 import { DEMO_SEASON, DEMO_SHELF } from '../../db/demo/shelf';
+import { DEMO_COMMENTS } from '../../db/demo/comments';
 import type { AppUser } from '../../src/lib/server/auth';
 import { appendRevision, findHeadRevision } from '../../src/lib/server/db/builds';
 import type { Storage } from '../../src/lib/server/storage';
@@ -174,6 +175,31 @@ async function snapshot(db: Kysely<Database>, storage: Storage, teamId: string) 
 						),
 					}),
 				),
+			),
+		),
+		comments: sorted(
+			(await db.selectFrom('comment').selectAll().where('team_id', '=', teamId).execute()).map(
+				({
+					id,
+					team_id,
+					revision_id,
+					run_id,
+					plan_id,
+					event_id,
+					author_id,
+					imported_by,
+					...c
+				}) => ({
+					...c,
+					on: revision_id
+						? `revision ${rev(revision_id)}`
+						: plan_id
+							? `plan ${pName.get(plan_id)}`
+							: run_id
+								? `run ${runName.get(run_id)}`
+								: `event ${eName.get(event_id!)}`,
+					author: person(author_id, imported_by),
+				}),
 			),
 		),
 		shelf: sorted(
@@ -374,6 +400,18 @@ describe('team backup', () => {
 				},
 			])
 			.execute();
+		// A setting away from its default, and a comment changed after it was written.
+		await t.db
+			.updateTable('team')
+			.set({ viewers_may_comment: true })
+			.where('id', '=', teamId)
+			.execute();
+		await t.db
+			.updateTable('comment')
+			.set({ edited_at: new Date('2026-10-21T08:00:00Z') })
+			.where('team_id', '=', teamId)
+			.where('event_id', 'is not', null)
+			.execute();
 		await t.db
 			.updateTable('vehicle')
 			.set({ archived_at: new Date('2026-10-01T00:00:00Z') })
@@ -444,6 +482,9 @@ describe('team backup', () => {
 		expect(before.signoffs.length).toBe(3);
 		expect(before.parts.length).toBe(10);
 		expect(before.shelf.length).toBe(DEMO_SHELF.length);
+		expect(before.comments.length).toBe(DEMO_COMMENTS.length);
+		for (const on of ['revision Marlin#', 'plan Old Oak/', 'run Old Oak@', 'event '])
+			expect(before.comments.join()).toContain(`"on":"${on}`);
 		expect(before.seasons.join()).toContain('"shelf_label":"100 Ah AGM, rear spare"');
 		expect(before.seasons.join().match(/"bought_on"/g)).toHaveLength(DEMO_SEASON.purchases.length);
 	});

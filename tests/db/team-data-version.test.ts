@@ -109,6 +109,25 @@ describe('a team’s data version, behind the team page’s cache', () => {
 				},
 			],
 			[
+				'a comment written (the activity lists it)',
+				async () => {
+					const event = await t.db
+						.selectFrom('event')
+						.select('id')
+						.where('team_id', '=', teamId)
+						.executeTakeFirstOrThrow();
+					await t.db
+						.insertInto('comment')
+						.values({
+							team_id: teamId,
+							event_id: event.id,
+							author_id: captainId,
+							body: 'Bring the clamp meter',
+						})
+						.execute();
+				},
+			],
+			[
 				'a member renamed',
 				() =>
 					t.db

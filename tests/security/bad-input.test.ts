@@ -6,6 +6,9 @@ import { appendRevision } from '../../src/lib/server/db/builds';
 import { insertVehicleWithBuild } from '../../src/lib/server/db/vehicles';
 import { insertPlan } from '../../src/lib/server/db/plans';
 import * as preferences from '../../src/pages/api/account/preferences';
+import * as comments from '../../src/pages/api/teams/[teamId]/comments/index';
+import * as comment from '../../src/pages/api/teams/[teamId]/comments/[commentId]';
+import * as markRead from '../../src/pages/api/notifications/read';
 import * as passwordReset from '../../src/pages/api/account/password-reset';
 import * as signUp from '../../src/pages/api/account/sign-up';
 import * as team from '../../src/pages/api/teams/[teamId]';
@@ -62,6 +65,8 @@ const TABLES = [
 	'shelf_item',
 	'season',
 	'purchase',
+	'comment',
+	'notification',
 	'User',
 ] as const;
 
@@ -137,6 +142,15 @@ describe('bad input on every write route', () => {
 		});
 	});
 	beforeAll(async () => {
+		ids.commentId = (
+			await t.db
+				.insertInto('comment')
+				.values({ team_id: ids.teamId, plan_id: ids.planId, author_id: captain.id, body: 'First' })
+				.returning('id')
+				.executeTakeFirstOrThrow()
+		).id;
+	});
+	beforeAll(async () => {
 		// No budget: the team has no money recorded, so its currency may still change.
 		ids.seasonId = await insertSeason(t.db, ids.teamId, {
 			name: 'Corpus season',
@@ -194,6 +208,43 @@ describe('bad input on every write route', () => {
 			notes: ['notes'],
 			numbers: ['quantity', 'unitPriceMinor'],
 			required: ['item', 'boughtOn', 'paidBy', 'quantity', 'unitPriceMinor'],
+		},
+		{
+			name: 'comment',
+			module: comments,
+			method: 'POST',
+			params: team_,
+			valid: () => ({
+				on: 'revision',
+				id: ids.revisionId,
+				body: 'Why 1/0 here?\nAsk @Corpus Captain',
+			}),
+			lines: [],
+			notes: ['body'],
+			numbers: [],
+			required: ['on', 'id', 'body'],
+		},
+		{
+			name: 'comment change',
+			module: comment,
+			method: 'PATCH',
+			params: () => ({ teamId: ids.teamId, commentId: ids.commentId! }),
+			valid: () => ({ body: 'Changed\nmy mind' }),
+			lines: [],
+			notes: ['body'],
+			numbers: [],
+			required: ['body'],
+		},
+		{
+			name: 'notifications read',
+			module: markRead,
+			method: 'POST',
+			params: () => ({}),
+			valid: () => ({ all: true }),
+			lines: [],
+			notes: [],
+			numbers: [],
+			required: ['all'],
 		},
 		{
 			name: 'new team',

@@ -28,18 +28,19 @@ export const mailChoiceSchema = z.enum(['immediate', 'daily', 'off'], {
 });
 export type MailChoice = z.infer<typeof mailChoiceSchema>;
 
-export const markReadSchema = z.union(
-	[
-		z.object({ all: z.literal(true) }),
-		z.object({
-			ids: z
-				.array(z.uuid({ error: 'Each id is a notification’s id' }))
-				.min(1)
-				.max(500),
-		}),
-	],
-	{ error: 'Send { all: true } or { ids: [...] }' },
-);
+export const markReadSchema = z
+	.object({
+		all: z.literal(true, { error: 'all is true (or send ids)' }).optional(),
+		ids: z
+			.array(z.uuid({ error: 'Each id is a notification’s id' }))
+			.min(1, 'Name at least one notification')
+			.max(500, 'At most 500 at once')
+			.optional(),
+	})
+	.refine((v) => v.all !== undefined || v.ids !== undefined, {
+		path: ['all'],
+		message: 'Send all: true, or the ids to mark read',
+	});
 
 export interface CommentDto {
 	id: string;

@@ -13,7 +13,10 @@ const preferencesSchema = z
 		/** How mentions reach this person by e-mail: at once, in a daily digest, or not at all. */
 		mentionMail: mailChoiceSchema.optional(),
 	})
-	.refine((v) => v.unitSystem !== undefined || v.mentionMail !== undefined, 'Nothing to change');
+	.refine((v) => v.unitSystem !== undefined || v.mentionMail !== undefined, {
+		path: ['unitSystem'],
+		message: 'Nothing to change: send unitSystem or mentionMail',
+	});
 
 /** The signed-in person's preferences: units (feet/AWG or metres/mm²) and how mentions are mailed. */
 export const PATCH: APIRoute = async ({ request, locals }) => {

@@ -8,6 +8,7 @@ export const POST: APIRoute = async ({ request, locals }) => {
 	if (!locals.user) return problem(401, 'unauthenticated', 'Sign in first');
 	const body = await readJson(request, markReadSchema);
 	if (!body.ok) return body.response;
-	const marked = await markRead(locals.db, locals.user.id, body.data);
+	const { ids } = body.data;
+	const marked = await markRead(locals.db, locals.user.id, ids ? { ids } : { all: true });
 	return Response.json({ marked, unread: await unreadCount(locals.db, locals.user.id) });
 };
