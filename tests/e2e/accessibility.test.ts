@@ -53,7 +53,14 @@ describe('accessibility (axe-core in chromium): no critical or serious violation
 		const b = await openBrowser();
 		open.push(b);
 		const found: Record<string, string[]> = {};
-		for (const path of ['/', '/sign-in', '/sign-up', '/forgot-password', '/no-such-page']) {
+		for (const path of [
+			'/',
+			'/sign-in',
+			'/sign-up',
+			'/forgot-password',
+			'/no-such-page',
+			'/unsubscribe?token=not-a-token',
+		]) {
 			await settle(b, `${appUrl}${path}`);
 			const v = await seriousViolations(b);
 			if (v.length) found[path] = v;
@@ -75,6 +82,7 @@ describe('accessibility (axe-core in chromium): no critical or serious violation
 				`${team}/settings`,
 				`${team}/shelf`,
 				`${team}/season`,
+				`${appUrl}/notifications`,
 			];
 			await b.page.goto(`${team}/events`);
 			const checks = await firstHref(b, 'a[href*="/checks"]');

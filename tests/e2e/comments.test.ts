@@ -1,0 +1,75 @@
+import { afterAll, describe, expect, inject, it } from 'vitest';
+import { DEMO_PASSWORD, DEMO_TEAM_NAME, DEMO_USERS } from '../../db/seed';
+import { type Browser, openBrowser, signInToTeam } from '../helpers/browser';
+
+const appUrl = inject('appUrl');
+
+/** A member asks the captain something beside a revision; the captain sees it on a phone. */
+describe('comments with a mention, in chromium', () => {
+	const opened: Browser[] = [];
+	afterAll(async () => {
+		for (const b of opened) await b.close();
+	});
+
+	it('a member mentions the captain beside a revision; the captain is notified and reads it', async () => {
+		const member = await openBrowser({ viewport: { width: 1366, height: 900 } });
+		opened.push(member);
+		await signInToTeam(member, appUrl, DEMO_USERS[1].email, DEMO_PASSWORD, DEMO_TEAM_NAME);
+		const marlin = await member.page
+			.getByRole('link', { name: 'Marlin', exact: true })
+			.getAttribute('href');
+		await member.page.goto(`${appUrl}${marlin}/history`);
+		const current = member.page.locator('li[data-revision]').first();
+		// The demo's thread on Marlin's current revision, shut until opened.
+		await current.getByText('Comments (2)').click();
+		const thread = current.locator('[data-thread]');
+		await thread.getByText(/why the jump to 1\/0/).waitFor();
+		await expect(thread.locator('[data-mention]').first().textContent()).resolves.toBe(
+			'@Demo Member',
+		);
+		const box = thread.getByLabel('Add a comment');
+		const text =
+			'@Demo Captain 150 A or 200 A on the rear feed fuse?\nAsked at <b>the counter</b> https://parts.example.test';
+		await box.fill(text);
+		// What is typed is kept: a reload brings it back.
+		await member.page.reload();
+		await member.page.locator('li[data-revision]').first().getByText('Comments (2)').click();
+		await expect(
+			member.page.locator('li[data-revision]').first().getByLabel('Add a comment').inputValue(),
+		).resolves.toBe(text);
+		const again = member.page.locator('li[data-revision]').first().locator('[data-thread]');
+		await again.getByRole('button', { name: 'Post the comment' }).click();
+		await again.getByText('Notified: Demo Captain.').waitFor();
+		const posted = again.locator('[data-comment]').last();
+		// Plain text: the markup shows as typed, the link is no link, the line break stays.
+		await expect(posted.textContent()).resolves.toContain('Asked at <b>the counter</b>');
+		await expect(posted.locator('b').count()).resolves.toBe(0);
+		await expect(posted.locator('a').count()).resolves.toBe(0);
+		await expect(posted.locator('p').last().innerText()).resolves.toContain('fuse?\nAsked at');
+		await expect(again.getByLabel('Add a comment').inputValue()).resolves.toBe('');
+		await member.screenshot('comments-member-1366');
+
+		const captain = await openBrowser({ viewport: { width: 390, height: 844 } });
+		opened.push(captain);
+		await signInToTeam(captain, appUrl, DEMO_USERS[0].email, DEMO_PASSWORD, DEMO_TEAM_NAME);
+		const bell = captain.page.locator('header [data-notifications]');
+		await expect.poll(() => bell.getAttribute('aria-label')).toMatch(/^Notifications, \d+ unread$/);
+		await bell.click();
+		await captain.page.waitForURL(/\/notifications$/);
+		const item = captain.page.locator('[data-notification="unread"]').first();
+		await expect(item.textContent()).resolves.toMatch(
+			/Demo Member mentioned you on r\d+ of Marlin/,
+		);
+		await captain.screenshot('comments-notifications-390');
+		await item.getByRole('link', { name: /of Marlin/ }).click();
+		await captain.page.waitForURL(/\/history\?r=\d+#r\d+$/);
+		// The thread of the revision named is open, with the question in it.
+		await captain.page.getByText('150 A or 200 A on the rear feed fuse?').waitFor();
+		await captain.page.goto(`${appUrl}/notifications`);
+		await captain.page.getByRole('button', { name: 'Mark all read' }).click();
+		await captain.page.getByText('Nothing unread.').waitFor();
+		await expect.poll(() => bell.getAttribute('aria-label')).toBe('Notifications');
+		expect(member.problems).toEqual([]);
+		expect(captain.problems).toEqual([]);
+	}, 120_000);
+});
