@@ -1,8 +1,10 @@
 import { afterAll, describe, expect, inject, it } from 'vitest';
 import { DEMO_PASSWORD, DEMO_TEAM_NAME, DEMO_USERS } from '../../db/seed';
 import { type Browser, openBrowser, signInToTeam } from '../helpers/browser';
+import { linkIn, waitForMail } from '../helpers/mail';
 
 const appUrl = inject('appUrl');
+const outbox = inject('outboxDir');
 
 /** A member asks the captain something beside a revision; the captain sees it on a phone. */
 describe('comments with a mention, in chromium', () => {
@@ -72,4 +74,23 @@ describe('comments with a mention, in chromium', () => {
 		expect(member.problems).toEqual([]);
 		expect(captain.problems).toEqual([]);
 	}, 120_000);
+
+	it('the mention was mailed; its link stops such mail without signing in, and can undo it', async () => {
+		const mail = await waitForMail(outbox, DEMO_USERS[0].email, { timeoutMs: 10_000 });
+		expect(mail.subject).toMatch(/^Demo Member mentioned you on r\d+ of Marlin$/);
+		expect(mail.text).toContain('150 A or 200 A on the rear feed fuse?');
+		const link = linkIn(mail, '/unsubscribe?token=');
+		const anyone = await openBrowser({ viewport: { width: 390, height: 844 } });
+		opened.push(anyone);
+		await anyone.page.goto(link);
+		await anyone.page.getByText('Sagwise no longer mails').waitFor();
+		// A token changed by one character is refused.
+		const res = await anyone.page.request.get(
+			`${link.slice(0, -1)}${link.endsWith('A') ? 'B' : 'A'}`,
+		);
+		expect(res.status()).toBe(400);
+		await anyone.page.getByRole('button', { name: 'Mail me each mention again' }).click();
+		await anyone.page.getByText('are mailed as they happen again').waitFor();
+		expect(anyone.problems).toEqual([]);
+	}, 60_000);
 });
