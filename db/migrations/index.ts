@@ -13,6 +13,7 @@ import * as waiverScope from './2026_12_05_090000_waiver_scope';
 import * as partsShelf from './2026_12_05_160000_parts_shelf';
 import * as seasonBudget from './2026_12_05_170000_season_budget';
 import * as commentThreads from './2026_12_05_190000_comment_threads';
+import * as purchaseReceipts from './2026_12_05_200000_purchase_receipts';
 
 /**
  * Every migration, by name, in the order they apply. Listed explicitly (rather than read from the
@@ -34,4 +35,5 @@ export const migrations: Record<string, Migration> = {
 	'2026_12_05_160000_parts_shelf': partsShelf,
 	'2026_12_05_170000_season_budget': seasonBudget,
 	'2026_12_05_190000_comment_threads': commentThreads,
+	'2026_12_05_200000_purchase_receipts': purchaseReceipts,
 };

@@ -55,6 +55,10 @@ interface Case {
 }
 
 const storage = memoryStorage();
+const ONE_PIXEL_PNG = Buffer.from(
+	'iVBORw0KGgoAAAANSUhEUgAAAAEAAAABCAYAAAAfFcSJAAAADUlEQVR42mP8z8BQDwAEhQGAhKmMIQAAAABJRU5ErkJggg==',
+	'base64',
+);
 let currentDb: TestDb['db'] | undefined;
 const matrixDb = () => currentDb!;
 
@@ -360,6 +364,23 @@ const MATRIX: Record<string, Case[]> = {
 			expect: memberWrite(204),
 		},
 	],
+	'teams/[teamId]/seasons/[seasonId]/purchases/[purchaseId]/receipt.ts': [
+		{
+			method: 'POST',
+			params: (w) => ({ teamId: w.teamId, seasonId: w.seasonId, purchaseId: w.purchaseId }),
+			request: () => {
+				const form = new FormData();
+				form.set('file', new Blob([ONE_PIXEL_PNG]), 'receipt.png');
+				return new Request('http://localhost/x', { method: 'POST', body: form });
+			},
+			expect: memberWrite(201),
+		},
+		{
+			method: 'DELETE',
+			params: (w) => ({ teamId: w.teamId, seasonId: w.seasonId, purchaseId: w.purchaseId }),
+			expect: memberWrite(204),
+		},
+	],
 	'teams/[teamId]/events/index.ts': [
 		{ method: 'GET', params: teamScoped, expect: read },
 		{
@@ -615,6 +636,19 @@ describe('authorization matrix', () => {
 			notes: '',
 			createdBy: users.captain.id,
 		});
+		await t.db
+			.insertInto('stored_file')
+			.values({
+				team_id: teamId,
+				purchase_id: purchaseId,
+				kind: 'receipt',
+				object_key: `matrix/receipt-${purchaseId}.png`,
+				file_name: 'receipt.png',
+				content_type: 'image/png',
+				size_bytes: ONE_PIXEL_PNG.byteLength,
+			})
+			.execute();
+		await storage.put(`matrix/receipt-${purchaseId}.png`, ONE_PIXEL_PNG, 'image/png');
 		const comment = await t.db
 			.insertInto('comment')
 			.values({

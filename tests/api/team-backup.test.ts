@@ -78,15 +78,26 @@ async function snapshot(db: Kysely<Database>, storage: Storage, teamId: string) 
 		.execute();
 	const sorted = (rows: Row[]) => rows.map((r) => JSON.stringify(r)).sort();
 	const fileRows = [];
-	for (const { id, team_id, run_id, object_key, ...f } of files) {
+	const purchaseName = new Map(
+		(
+			await db
+				.selectFrom('purchase as p')
+				.innerJoin('season as se', 'se.id', 'p.season_id')
+				.select(['p.id', 'p.item', 'p.bought_on', 'se.name'])
+				.where('se.team_id', '=', teamId)
+				.execute()
+		).map((p) => [p.id, `${p.name}/${p.bought_on}/${p.item}`]),
+	);
+	for (const { id, team_id, run_id, purchase_id, object_key, ...f } of files) {
 		const bytes = await storage.get(object_key);
 		// Object names are made by the server on import; what must survive is the kind and the photo-thumbnail pairing.
 		fileRows.push({
 			...f,
-			run: runName.get(run_id!),
+			run: run_id ? runName.get(run_id) : null,
+			purchase: purchase_id ? purchaseName.get(purchase_id) : null,
 			object: object_key
 				.slice(object_key.lastIndexOf('/') + 1)
-				.replace(/^(photo|logger)-[^.]+?(-thumb)?\./, '$1$2.'),
+				.replace(/^(photo|logger|receipt)-[^.]+?(-thumb)?\./, '$1$2.'),
 			sha256: bytes ? createHash('sha256').update(bytes).digest('hex') : 'missing',
 		});
 	}
@@ -400,6 +411,28 @@ describe('team backup', () => {
 				},
 			])
 			.execute();
+		// A receipt photo on the demo season's first purchase.
+		const bought = await t.db
+			.selectFrom('purchase as p')
+			.innerJoin('season as se', 'se.id', 'p.season_id')
+			.select('p.id')
+			.where('se.team_id', '=', teamId)
+			.orderBy('p.bought_on')
+			.executeTakeFirstOrThrow();
+		const receiptKey = `teams/${teamId}/receipts/${bought.id}/receipt-1.png`;
+		await storage.put(receiptKey, new Uint8Array(PNG), 'image/png');
+		await t.db
+			.insertInto('stored_file')
+			.values({
+				team_id: teamId,
+				purchase_id: bought.id,
+				kind: 'receipt',
+				object_key: receiptKey,
+				file_name: 'till slip.png',
+				content_type: 'image/png',
+				size_bytes: PNG.byteLength,
+			})
+			.execute();
 		// A setting away from its default, and a comment changed after it was written.
 		await t.db
 			.updateTable('team')
@@ -479,6 +512,7 @@ describe('team backup', () => {
 		expect(before.revisions.length).toBe(10);
 		expect(before.files.length).toBeGreaterThanOrEqual(6);
 		expect(before.files.join()).toContain('"kind":"thumbnail"');
+		expect(before.files.join()).toContain('"kind":"receipt"');
 		expect(before.signoffs.length).toBe(3);
 		expect(before.parts.length).toBe(10);
 		expect(before.shelf.length).toBe(DEMO_SHELF.length);

@@ -230,6 +230,60 @@ describe('team backup import treats the file as untrusted input', () => {
 		);
 		expect(logger.status).toBe(400);
 		expect((await logger.json()).errors[0].path).toBe('team.runs.0.files.2');
+
+		// A receipt on a purchase is checked as a photo upload is.
+		const receipt = await upload(
+			edited((b) => {
+				const purchase = {
+					boughtOn: '2026-09-01',
+					shelfIndex: null,
+					item: 'Fuse holder',
+					quantity: 1,
+					unitPriceMinor: 2_990,
+					paidByEmail: null,
+					paidByName: 'Someone',
+					notes: '',
+					createdAt: '2026-09-01T10:00:00.000Z',
+				};
+				b.team.seasons = [
+					{
+						name: 'Hostile',
+						startsOn: '2026-01-01',
+						endsOn: '2026-12-31',
+						budgetMinor: 0,
+						createdAt: '2026-01-01T10:00:00.000Z',
+						purchases: [
+							{ ...purchase, receipt: null },
+							{
+								...purchase,
+								receipt: { fileName: 'till.png', createdAt: purchase.createdAt, data: html },
+							},
+						],
+					},
+				];
+			}),
+		);
+		expect(receipt.status).toBe(400);
+		expect((await receipt.json()).errors[0].path).toBe('team.seasons.0.purchases.1.receipt');
+
+		// A comment beside a revision the file does not hold.
+		const comment = await upload(
+			edited((b) => {
+				b.team.comments = b.team.comments ?? [];
+				b.team.comments.push({
+					on: 'revision',
+					vehicle: b.team.vehicles[0].key,
+					revision: 999,
+					authorEmail: null,
+					authorName: 'Someone',
+					body: 'Orphan',
+					createdAt: '2026-09-01T10:00:00.000Z',
+					editedAt: null,
+				});
+			}),
+		);
+		expect(comment.status).toBe(400);
+		expect((await comment.json()).errors[0].path).toMatch(/^team\.comments\.\d+$/);
 		expect(await counts()).toEqual(start);
 	});
 

@@ -3,6 +3,7 @@ import { useState } from 'react';
 import { FormMessage } from '@/components/ui/Field';
 import { ScrollRegion } from '@/components/ui/ScrollRegion';
 import { lazyChart } from '@/components/ui/lazy-chart';
+import { ReceiptCell } from './ReceiptCell';
 import { NewSeasonForm, PurchaseForm } from './season-forms';
 import { withQueryClient } from '@/lib/client/query-client';
 import {
@@ -191,6 +192,9 @@ function SeasonView({
 								<th scope="col" className="px-3 py-2">
 									Paid by
 								</th>
+								<th scope="col" className="px-3 py-2">
+									Receipt
+								</th>
 								{canEdit && (
 									<th scope="col" className="px-3 py-2">
 										<span className="sr-only">Remove</span>
@@ -212,6 +216,14 @@ function SeasonView({
 										{money(p.quantity * p.unitPriceMinor)}
 									</td>
 									<td className="px-3 py-2">{p.paidByName}</td>
+									<td className="px-3 py-2">
+										<ReceiptCell
+											teamId={teamId}
+											seasonId={season.id}
+											purchase={p}
+											canEdit={canEdit}
+										/>
+									</td>
 									{canEdit && (
 										<td className="px-3 py-2">
 											<button
@@ -228,7 +240,7 @@ function SeasonView({
 							))}
 							{purchases.length === 0 && (
 								<tr>
-									<td colSpan={canEdit ? 7 : 6} className="px-3 py-3 text-ink-soft">
+									<td colSpan={canEdit ? 8 : 7} className="px-3 py-3 text-ink-soft">
 										Nothing bought in this season yet.
 									</td>
 								</tr>

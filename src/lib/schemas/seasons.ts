@@ -60,6 +60,8 @@ export interface PurchaseDto {
 	paidBy: string | null;
 	paidByName: string;
 	notes: string;
+	/** The receipt photo's stored file, when one was added. */
+	receiptFileId: string | null;
 }
 
 export interface CommittedPlanDto {

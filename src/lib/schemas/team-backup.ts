@@ -236,6 +236,16 @@ export const teamBackupContentSchema = z.object({
 							paidByName: z.string().max(200),
 							notes: z.string().max(500),
 							createdAt: iso,
+							/** The receipt photo, checked on restore as an upload is; older files have none. */
+							receipt: z
+								.object({
+									fileName: z.string().max(300),
+									createdAt: iso,
+									/** The bytes, base64. */
+									data: z.base64(),
+								})
+								.nullable()
+								.default(null),
 						}),
 					)
 					.max(5000),

@@ -1,7 +1,12 @@
 import { format } from 'date-fns';
 import type { Kysely } from 'kysely';
-import { authorLabel, claimMailed, digestRecipients, findUnmailed } from '@/lib/server/db/comments';
-import { claimNotification } from '@/lib/server/db/notifications';
+import { authorLabel } from '@/lib/server/db/comments';
+import {
+	claimMailed,
+	claimNotification,
+	digestRecipients,
+	findUnmailed,
+} from '@/lib/server/db/notifications';
 import type { Database } from '@/lib/server/db/schema';
 import type { ServerConfig } from './config';
 import { log } from './log';

@@ -256,15 +256,22 @@ export async function* exportTeamChunks(
 		db,
 		seasons.flatMap((x) => x.purchases.map((p) => p.paid_by)).filter((id): id is string => !!id),
 	);
-	yield field(
-		'seasons',
-		seasons.map((x) => ({
+	// A season at a time and a purchase at a time: receipts carry their photos' bytes.
+	yield part(',"seasons":[');
+	for (const [i, x] of seasons.entries()) {
+		const outline = {
 			name: x.name,
 			startsOn: x.starts_on,
 			endsOn: x.ends_on,
 			budgetMinor: Number(x.budget_minor),
 			createdAt: iso(x.created_at),
-			purchases: x.purchases.map((p) => ({
+		};
+		yield part(`${i ? ',' : ''}${JSON.stringify(outline).slice(0, -1)},"purchases":[`);
+		for (const [k, p] of x.purchases.entries()) {
+			const bytes = p.receipt_key ? await storage.get(p.receipt_key) : null;
+			if (p.receipt_key && !bytes)
+				throw new Error(`The receipt ${p.receipt_name} (${p.receipt_key}) is missing from storage`);
+			const purchase: TeamBackupContent['seasons'][number]['purchases'][number] = {
 				boughtOn: p.bought_on,
 				shelfIndex: p.shelf_item_id ? (shelfIndex.get(p.shelf_item_id) ?? null) : null,
 				item: p.item,
@@ -274,9 +281,19 @@ export async function* exportTeamChunks(
 				paidByName: p.paid_by_name,
 				notes: p.notes,
 				createdAt: iso(p.created_at),
-			})),
-		})),
-	);
+				receipt: bytes
+					? {
+							fileName: p.receipt_name!,
+							createdAt: iso(p.receipt_created_at!),
+							data: Buffer.from(bytes).toString('base64'),
+						}
+					: null,
+			};
+			yield part(`${k ? ',' : ''}${JSON.stringify(purchase)}`);
+		}
+		yield part(']}');
+	}
+	yield part(']');
 	yield field('viewersMayComment', team.viewers_may_comment);
 	const comments = await findCommentsForBackup(db, teamId);
 	const authorEmails = await emailsOf(

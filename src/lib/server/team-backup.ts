@@ -1,7 +1,10 @@
 import { createHash, randomBytes, randomUUID } from 'node:crypto';
 import { JSONParser } from '@streamparser/json';
 import type { Kysely } from 'kysely';
-import { type ImportedFile, insertTeamFromBackup } from '@/lib/server/db/backup-insert';
+import { insertTeamFromBackup } from '@/lib/server/db/backup-insert';
+import type { PrepareFilesResult } from '@/lib/server/team-backup-files';
+
+export { prepareBackupFiles, type PrepareFilesResult } from '@/lib/server/team-backup-files';
 import type { Database } from '@/lib/server/db/schema';
 import type { ImportSummary } from '@/lib/schemas/teams';
 import {
@@ -14,7 +17,6 @@ import {
 	teamBackupContentSchema,
 } from '@/lib/schemas/team-backup';
 import { findControlCharacter, NOTES_MESSAGE } from '@/lib/schemas/text';
-import { checkLoggerFile, checkPhoto, checkThumbnail } from '@/lib/server/file-content';
 import type { Storage } from '@/lib/server/storage';
 import { hashToken } from '@/lib/server/tokens';
 
@@ -259,76 +261,6 @@ function crossCheck(t: TeamBackupContent): { path: string; message: string }[] {
 	return out;
 }
 
-export type PrepareFilesResult =
-	| { ok: true; files: ImportedFile[][]; photosCleaned: number }
-	| { ok: false; errors: { path: string; message: string }[] };
-
-const stem = (objectName: string) => objectName.replace(/\.[^.]*$/, '');
-
-/**
- * Checks every file of a backup by its content, exactly as an upload is checked, before anything is
- * written: photos must be JPEG, PNG or WebP (their metadata is removed), thumbnails WebP, logger
- * files CSV text. The file's own type, object name and size are never trusted; the object name is
- * used only to pair a thumbnail with its photo inside one run.
- */
-export async function prepareBackupFiles(t: TeamBackupContent): Promise<PrepareFilesResult> {
-	const errors: { path: string; message: string }[] = [];
-	const out: ImportedFile[][] = [];
-	let photosCleaned = 0;
-	for (const [i, r] of t.runs.entries()) {
-		const files: ImportedFile[] = [];
-		const photoByStem = new Map<string, number>();
-		r.files.forEach((f, j) => f.kind === 'photo' && photoByStem.set(stem(f.objectName), j));
-		for (const [j, f] of r.files.entries()) {
-			const path = `team.runs.${i}.files.${j}`;
-			const bytes = new Uint8Array(Buffer.from(f.data, 'base64'));
-			// Its text is not needed again: let it go while the rest is checked and written.
-			f.data = '';
-			const base = {
-				fileName: f.fileName.slice(0, 200),
-				createdAt: f.createdAt,
-				sourceIndex: j,
-				pairedWith: null,
-			};
-			if (f.kind === 'photo') {
-				const checked = await checkPhoto(bytes);
-				if (!checked.ok)
-					errors.push({ path, message: `Photo "${f.fileName}": ${checked.message}` });
-				else {
-					if (checked.stripped) photosCleaned++;
-					files.push({ ...base, kind: 'photo', contentType: checked.type, bytes: checked.bytes });
-				}
-			} else if (f.kind === 'thumbnail') {
-				const checked = await checkThumbnail(bytes);
-				const photo = photoByStem.get(stem(f.objectName).replace(/-thumb$/, ''));
-				if (!checked.ok)
-					errors.push({ path, message: `Thumbnail "${f.fileName}": ${checked.message}` });
-				else if (photo === undefined)
-					errors.push({
-						path,
-						message: `Thumbnail "${f.fileName}" belongs to no photo of this run`,
-					});
-				else
-					files.push({
-						...base,
-						kind: 'thumbnail',
-						contentType: 'image/webp',
-						bytes,
-						pairedWith: photo,
-					});
-			} else {
-				const checked = checkLoggerFile(bytes);
-				if (!checked.ok)
-					errors.push({ path, message: `Logger file "${f.fileName}": ${checked.message}` });
-				else files.push({ ...base, kind: 'logger', contentType: 'text/csv', bytes });
-			}
-			if (errors.length >= 10) return { ok: false, errors };
-		}
-		out.push(files);
-	}
-	return errors.length ? { ok: false, errors } : { ok: true, files: out, photosCleaned };
-}
-
 /**
  * Writes a parsed backup as a new team, all in one transaction; files go to storage first and are
  * removed again if the transaction fails, so a failed import leaves nothing behind (a crash in
@@ -355,11 +287,15 @@ export async function importTeam(
 				importer,
 				name,
 				files: prepared.files,
+				receipts: prepared.receipts,
 				invitationTokenHash: () => hashToken(randomBytes(32).toString('base64url')),
 			},
-			async (teamId, runId, f, photoBase) => {
+			async (teamId, folder, f, photoBase) => {
 				let objectKey: string;
-				if (f.kind === 'photo') {
+				const runId = folder.runId;
+				if (f.kind === 'receipt') {
+					objectKey = `teams/${teamId}/receipts/${folder.purchaseId}/receipt-${randomUUID()}.${f.contentType.split('/')[1]}`;
+				} else if (f.kind === 'photo') {
 					const base = `teams/${teamId}/runs/${runId}/photo-${randomUUID()}`;
 					photoBase.set(f.sourceIndex, base);
 					objectKey = `${base}.${f.contentType.split('/')[1]}`;

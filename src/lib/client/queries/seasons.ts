@@ -54,3 +54,30 @@ export function useRemovePurchase(teamId: string, seasonId: string) {
 		onSettled: () => qc.invalidateQueries({ queryKey: seasonKeys.all }),
 	});
 }
+
+/** Adds or replaces a purchase's receipt photo (checked and stripped of metadata by the server). */
+export function useUploadReceipt(teamId: string, seasonId: string) {
+	const qc = useQueryClient();
+	return useMutation({
+		mutationFn: (input: { purchaseId: string; file: File }) => {
+			const form = new FormData();
+			form.set('file', input.file);
+			return api<{ fileId: string; metadataRemoved: boolean }>(
+				`/api/teams/${teamId}/seasons/${seasonId}/purchases/${input.purchaseId}/receipt`,
+				{ form },
+			);
+		},
+		onSettled: () => qc.invalidateQueries({ queryKey: seasonKeys.detail(teamId, seasonId) }),
+	});
+}
+
+export function useRemoveReceipt(teamId: string, seasonId: string) {
+	const qc = useQueryClient();
+	return useMutation({
+		mutationFn: (purchaseId: string) =>
+			api(`/api/teams/${teamId}/seasons/${seasonId}/purchases/${purchaseId}/receipt`, {
+				method: 'DELETE',
+			}),
+		onSettled: () => qc.invalidateQueries({ queryKey: seasonKeys.detail(teamId, seasonId) }),
+	});
+}

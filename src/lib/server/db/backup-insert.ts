@@ -10,7 +10,7 @@ type Db = Kysely<Database>;
 
 /** A file of a backup, checked by its content and ready to store. */
 export interface ImportedFile {
-	kind: 'logger' | 'photo' | 'thumbnail';
+	kind: 'logger' | 'photo' | 'thumbnail' | 'receipt';
 	fileName: string;
 	contentType: string;
 	bytes: Uint8Array;
@@ -24,7 +24,8 @@ export interface ImportedFile {
 /** Puts one file in storage and answers its object key; `photoBase` pairs a run's thumbnails with their photos. */
 export type StoreImportedFile = (
 	teamId: string,
-	runId: string,
+	/** Where the file belongs: a run's files, or a purchase's receipt. */
+	folder: { runId: string; purchaseId?: undefined } | { purchaseId: string; runId?: undefined },
 	file: ImportedFile,
 	photoBase: Map<number, string>,
 ) => Promise<string>;
@@ -41,6 +42,7 @@ export async function insertTeamFromBackup(
 		importer: { id: string; email: string };
 		name: string | undefined;
 		files: ImportedFile[][];
+		receipts: Map<string, ImportedFile>;
 		invitationTokenHash: () => string;
 	},
 	storeFile: StoreImportedFile,
@@ -245,7 +247,7 @@ export async function insertTeamFromBackup(
 			);
 			const photoBase = new Map<number, string>();
 			for (const f of runFiles) {
-				const objectKey = await storeFile(team.id, run.id, f, photoBase);
+				const objectKey = await storeFile(team.id, { runId: run.id }, f, photoBase);
 				await trx
 					.insertInto('stored_file')
 					.values({
@@ -298,7 +300,7 @@ export async function insertTeamFromBackup(
 				.execute();
 			shelfIds.push(...rows.map((r) => r.id));
 		}
-		for (const season of t.seasons) {
+		for (const [seasonIndex, season] of t.seasons.entries()) {
 			const { id: seasonId } = await trx
 				.insertInto('season')
 				.values({
@@ -311,8 +313,8 @@ export async function insertTeamFromBackup(
 				})
 				.returning('id')
 				.executeTakeFirstOrThrow();
-			for (let i = 0; i < season.purchases.length; i += 500)
-				await trx
+			for (let i = 0; i < season.purchases.length; i += 500) {
+				const rows = await trx
 					.insertInto('purchase')
 					.values(
 						season.purchases.slice(i, i + 500).map((p) => ({
@@ -329,7 +331,29 @@ export async function insertTeamFromBackup(
 							created_at: p.createdAt,
 						})),
 					)
+					.returning('id')
 					.execute();
+				// Each receipt (checked already) to storage, then its row.
+				for (const [k, row] of rows.entries()) {
+					const receipt = p.receipts.get(`${seasonIndex}.${i + k}`);
+					if (!receipt) continue;
+					const objectKey = await storeFile(team.id, { purchaseId: row.id }, receipt, new Map());
+					await trx
+						.insertInto('stored_file')
+						.values({
+							team_id: team.id,
+							purchase_id: row.id,
+							kind: 'receipt',
+							object_key: objectKey,
+							file_name: receipt.fileName,
+							content_type: receipt.contentType,
+							size_bytes: receipt.bytes.byteLength,
+							created_at: receipt.createdAt,
+						})
+						.execute();
+					files++;
+				}
+			}
 		}
 		// Threads: each comment beside what it named in the file (checked to exist before this).
 		const subjectOf = (c: TeamBackupContent['comments'][number]) =>

@@ -201,7 +201,9 @@ export interface StoredFileTable {
 	id: Generated<string>;
 	team_id: string;
 	run_id: string | null;
-	kind: 'logger' | 'photo' | 'thumbnail';
+	/** The purchase a receipt belongs to (receipts only). */
+	purchase_id: string | null;
+	kind: 'logger' | 'photo' | 'thumbnail' | 'receipt';
 	object_key: string;
 	file_name: string;
 	content_type: string;

@@ -58,23 +58,40 @@ export async function insertSeason(db: Db, teamId: string, s: NewSeasonInput): P
 	return row.id;
 }
 
-export async function deleteSeason(db: Db, teamId: string, seasonId: string): Promise<boolean> {
-	const r = await db
-		.deleteFrom('season')
-		.where('team_id', '=', teamId)
-		.where('id', '=', seasonId)
-		.executeTakeFirst();
-	return Number(r.numDeletedRows) > 0;
+/** Deletes a season with its purchases; their receipts' object keys, or null when none was found. */
+export async function deleteSeason(
+	db: Db,
+	teamId: string,
+	seasonId: string,
+): Promise<string[] | null> {
+	return db.transaction().execute(async (trx) => {
+		const keys = (
+			await trx
+				.selectFrom('stored_file as f')
+				.innerJoin('purchase as p', 'p.id', 'f.purchase_id')
+				.select('f.object_key')
+				.where('p.season_id', '=', seasonId)
+				.execute()
+		).map((f) => f.object_key);
+		const r = await trx
+			.deleteFrom('season')
+			.where('team_id', '=', teamId)
+			.where('id', '=', seasonId)
+			.executeTakeFirst();
+		return Number(r.numDeletedRows) > 0 ? keys : null;
+	});
 }
 
 export async function findPurchases(db: Db, seasonId: string): Promise<PurchaseDto[]> {
 	const rows = await db
-		.selectFrom('purchase')
-		.selectAll()
-		.where('season_id', '=', seasonId)
-		.orderBy('bought_on')
-		.orderBy('created_at')
-		.orderBy('id')
+		.selectFrom('purchase as p')
+		.leftJoin('stored_file as f', 'f.purchase_id', 'p.id')
+		.selectAll('p')
+		.select('f.id as receipt_id')
+		.where('p.season_id', '=', seasonId)
+		.orderBy('p.bought_on')
+		.orderBy('p.created_at')
+		.orderBy('p.id')
 		.execute();
 	return rows.map((r) => ({
 		id: r.id,
@@ -86,6 +103,7 @@ export async function findPurchases(db: Db, seasonId: string): Promise<PurchaseD
 		paidBy: r.paid_by,
 		paidByName: r.paid_by_name,
 		notes: r.notes,
+		receiptFileId: r.receipt_id,
 	}));
 }
 
@@ -113,13 +131,90 @@ export async function insertPurchase(
 	return row.id;
 }
 
-export async function deletePurchase(db: Db, seasonId: string, id: string): Promise<boolean> {
-	const r = await db
-		.deleteFrom('purchase')
+/** Deletes a purchase (its receipt's row with it); the object keys to remove, or null when none was found. */
+export async function deletePurchase(
+	db: Db,
+	seasonId: string,
+	id: string,
+): Promise<string[] | null> {
+	return db.transaction().execute(async (trx) => {
+		const keys = await receiptKeys(trx, id);
+		const r = await trx
+			.deleteFrom('purchase')
+			.where('season_id', '=', seasonId)
+			.where('id', '=', id)
+			.executeTakeFirst();
+		return Number(r.numDeletedRows) > 0 ? keys : null;
+	});
+}
+
+export async function findPurchase(db: Db, seasonId: string, id: string) {
+	return db
+		.selectFrom('purchase')
+		.selectAll()
 		.where('season_id', '=', seasonId)
 		.where('id', '=', id)
 		.executeTakeFirst();
-	return Number(r.numDeletedRows) > 0;
+}
+
+async function receiptKeys(db: Db, purchaseId: string): Promise<string[]> {
+	const rows = await db
+		.selectFrom('stored_file')
+		.select('object_key')
+		.where('purchase_id', '=', purchaseId)
+		.execute();
+	return rows.map((r) => r.object_key);
+}
+
+/**
+ * Records a purchase's receipt, replacing any it had; answers the new file's id and the object
+ * keys of the receipt it replaced (to remove from storage once this has committed).
+ */
+export function setReceipt(
+	db: Db,
+	r: {
+		teamId: string;
+		purchaseId: string;
+		objectKey: string;
+		fileName: string;
+		contentType: string;
+		sizeBytes: number;
+	},
+): Promise<{ fileId: string; replaced: string[] }> {
+	return db.transaction().execute(async (trx) => {
+		// The purchase row is locked so two uploads at once replace one another in turn.
+		await trx
+			.selectFrom('purchase')
+			.select('id')
+			.where('id', '=', r.purchaseId)
+			.forUpdate()
+			.executeTakeFirstOrThrow();
+		const replaced = await receiptKeys(trx, r.purchaseId);
+		await trx.deleteFrom('stored_file').where('purchase_id', '=', r.purchaseId).execute();
+		const row = await trx
+			.insertInto('stored_file')
+			.values({
+				team_id: r.teamId,
+				purchase_id: r.purchaseId,
+				kind: 'receipt',
+				object_key: r.objectKey,
+				file_name: r.fileName,
+				content_type: r.contentType,
+				size_bytes: r.sizeBytes,
+			})
+			.returning('id')
+			.executeTakeFirstOrThrow();
+		return { fileId: row.id, replaced };
+	});
+}
+
+/** Removes a purchase's receipt; the object keys to remove from storage (none when it had none). */
+export function removeReceipt(db: Db, purchaseId: string): Promise<string[]> {
+	return db.transaction().execute(async (trx) => {
+		const keys = await receiptKeys(trx, purchaseId);
+		await trx.deleteFrom('stored_file').where('purchase_id', '=', purchaseId).execute();
+		return keys;
+	});
 }
 
 /**
@@ -167,16 +262,22 @@ export async function findSeasonsForBackup(db: Db, teamId: string) {
 		.execute();
 	const purchases = seasons.length
 		? await db
-				.selectFrom('purchase')
-				.selectAll()
+				.selectFrom('purchase as p')
+				.leftJoin('stored_file as f', 'f.purchase_id', 'p.id')
+				.selectAll('p')
+				.select([
+					'f.object_key as receipt_key',
+					'f.file_name as receipt_name',
+					'f.created_at as receipt_created_at',
+				])
 				.where(
-					'season_id',
+					'p.season_id',
 					'in',
 					seasons.map((x) => x.id),
 				)
-				.orderBy('bought_on')
-				.orderBy('created_at')
-				.orderBy('id')
+				.orderBy('p.bought_on')
+				.orderBy('p.created_at')
+				.orderBy('p.id')
 				.execute()
 		: [];
 	return seasons.map((x) => ({ ...x, purchases: purchases.filter((p) => p.season_id === x.id) }));

@@ -1,7 +1,7 @@
 import type { APIRoute } from 'astro';
 import { z } from '@/lib/zod';
 import { mailChoiceSchema } from '@/lib/schemas/comments';
-import { setMentionMail } from '@/lib/server/db/comments';
+import { setMentionMail } from '@/lib/server/db/notifications';
 import { setUnitSystem } from '@/lib/server/db/users';
 import { problem, readJson } from '@/lib/server/http';
 

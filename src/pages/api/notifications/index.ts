@@ -1,11 +1,7 @@
 import type { APIRoute } from 'astro';
 import type { NotificationsDto } from '@/lib/schemas/comments';
-import {
-	authorLabel,
-	findNotifications,
-	mentionMailOf,
-	unreadCount,
-} from '@/lib/server/db/comments';
+import { authorLabel } from '@/lib/server/db/comments';
+import { findNotifications, mentionMailOf, unreadCount } from '@/lib/server/db/notifications';
 import { problem } from '@/lib/server/http';
 
 /** The signed-in person's mentions, newest first, from the teams they are in; `?count` only counts. */

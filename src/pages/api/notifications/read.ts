@@ -1,6 +1,6 @@
 import type { APIRoute } from 'astro';
 import { markReadSchema } from '@/lib/schemas/comments';
-import { markRead, unreadCount } from '@/lib/server/db/comments';
+import { markRead, unreadCount } from '@/lib/server/db/notifications';
 import { problem, readJson } from '@/lib/server/http';
 
 /** Marks the caller's notifications read: these ids (anyone else's are left alone), or all. */

@@ -3,6 +3,7 @@ import { parseUuid } from '@/lib/schemas/ids';
 import { requireTeamRole } from '@/lib/server/access';
 import { deleteSeason, findSeason } from '@/lib/server/db/seasons';
 import { problem } from '@/lib/server/http';
+import { removeObjects } from '@/lib/server/object-cleanup';
 import { seasonDetail } from '@/lib/server/seasons';
 
 const notFound = () => problem(404, 'not_found', 'No such season in this team');
@@ -22,6 +23,8 @@ export const DELETE: APIRoute = async ({ params, locals }) => {
 	const auth = await requireTeamRole(locals, params.teamId, 'captain');
 	if (!auth.ok) return auth.response;
 	const id = parseUuid(params.seasonId);
-	if (!id || !(await deleteSeason(locals.db, auth.value.teamId, id))) return notFound();
+	const receipts = id ? await deleteSeason(locals.db, auth.value.teamId, id) : null;
+	if (!receipts) return notFound();
+	await removeObjects(locals.storage, receipts);
 	return new Response(null, { status: 204 });
 };
