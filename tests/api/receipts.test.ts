@@ -49,7 +49,7 @@ describe('receipt photos on purchases', () => {
 		});
 	const send = (purchaseId: string, bytes: Uint8Array, name: string, who = member) => {
 		const form = new FormData();
-		form.set('file', new Blob([bytes]), name);
+		form.set('file', new Blob([Buffer.from(bytes)]), name);
 		return callEndpoint(receipt, {
 			locals: localsFor(t.db, who, undefined, storage),
 			params: { teamId, seasonId, purchaseId },

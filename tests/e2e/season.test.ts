@@ -49,6 +49,21 @@ describe('the season budget, in chromium', () => {
 			await expect(
 				b.page.getByRole('row', { name: /Ring terminals/ }).textContent(),
 			).resolves.toMatch(/34\.50.*\$69\.00.*Budget Lead/);
+			// A photo of the receipt, added from the purchase's row.
+			await b.page.getByLabel('Add receipt photo for Ring terminals').setInputFiles({
+				name: 'till.png',
+				mimeType: 'image/png',
+				buffer: Buffer.from(
+					'iVBORw0KGgoAAAANSUhEUgAAAAEAAAABCAYAAAAfFcSJAAAADUlEQVR42mP8z8BQDwAEhQGAhKmMIQAAAABJRU5ErkJggg==',
+					'base64',
+				),
+			});
+			const link = b.page.getByRole('link', { name: 'Receipt for Ring terminals' });
+			await link.waitFor();
+			const served = await b.page.request.get(
+				new URL((await link.getAttribute('href'))!, appUrl).href,
+			);
+			expect(served.headers()['content-type']).toBe('image/png');
 			await b.screenshot(`season-${viewport.width}`);
 			expect(b.problems).toEqual([]);
 		}, 90_000);

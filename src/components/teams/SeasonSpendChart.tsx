@@ -65,6 +65,9 @@ export function SeasonSpendChart({
 					scales: {
 						x: {
 							type: 'linear',
+							// The season's own span: a linear axis would otherwise round out to dates before it.
+							min: t(startsOn),
+							max: budget[1]!.x,
 							title: { display: true, text: 'Date' },
 							ticks: { callback: (v) => format(new Date(Number(v)), 'd MMM') },
 						},
