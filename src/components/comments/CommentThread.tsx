@@ -114,7 +114,11 @@ function ThreadBody({ teamId, subject }: { teamId: string; subject: ThreadSubjec
 				</ol>
 			)}
 			{canComment ? (
-				<NewComment teamId={teamId} subject={subject} />
+				<NewComment
+					teamId={teamId}
+					subject={subject}
+					example={members.find((m) => m.name.includes(' '))?.name ?? members[0]?.name}
+				/>
 			) : (
 				<p className="text-sm text-ink-soft">{whyNot}</p>
 			)}
@@ -220,7 +224,16 @@ function CommentItem({
 	);
 }
 
-function NewComment({ teamId, subject }: { teamId: string; subject: ThreadSubject }) {
+function NewComment({
+	teamId,
+	subject,
+	example,
+}: {
+	teamId: string;
+	subject: ThreadSubject;
+	/** A member's name for the hint. */
+	example: string | undefined;
+}) {
 	const draftKey = `${subject.on}:${subject.id}`;
 	const [text, setText] = useState('');
 	const [result, setResult] = useState<CommentWriteResult | null>(null);
@@ -260,6 +273,7 @@ function NewComment({ teamId, subject }: { teamId: string; subject: ThreadSubjec
 				onChange={change}
 				error={add.error}
 				onSubmitKey={send}
+				example={example}
 			/>
 			<div className="flex flex-wrap items-center gap-3">
 				<Button type="submit" busy={add.isPending}>
@@ -278,12 +292,14 @@ function CommentBox({
 	onChange,
 	error,
 	onSubmitKey,
+	example,
 }: {
 	label: string;
 	value: string;
 	onChange: (v: string) => void;
 	error: Error | null;
 	onSubmitKey?: () => void;
+	example?: string;
 }) {
 	const id = useId();
 	const message =
@@ -314,8 +330,8 @@ function CommentBox({
 				className={`rounded-md border bg-card px-3 py-2 text-base shadow-sm outline-none focus:border-copper focus:ring-2 focus:ring-copper/30 ${message ? 'border-brick' : 'border-hairline'}`}
 			/>
 			<p id={`${id}-hint`} className="text-xs text-ink-soft">
-				Plain text; links show as text. Mention a team member with @ and their name (e.g. @Sam
-				Reyes) to notify them.
+				Plain text; links show as text. Mention a team member with @ and their name
+				{example ? ` (e.g. @${example})` : ''} to notify them.
 			</p>
 			{message && (
 				<p id={`${id}-error`} role="alert" className="text-sm text-brick">
