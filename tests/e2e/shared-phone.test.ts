@@ -22,7 +22,7 @@ const keptCopies = (b: Browser) =>
 /** The drafts this browser holds (localStorage keys). */
 const draftKeys = (b: Browser) =>
 	b.page.evaluate(() =>
-		Object.keys(window.localStorage).filter((k) => /^sagwise\.(plan-)?draft\./.test(k)),
+		Object.keys(window.localStorage).filter((k) => /^sagwise\.(plan-|comment-)?draft\./.test(k)),
 	);
 
 async function signOut(b: Browser) {
@@ -61,6 +61,10 @@ describe('a shared phone at the lanes, in chromium', () => {
 			.poll(async () => (await keptCopies(b!))['sagwise-pages'] ?? [])
 			.toContain(new URL(runsUrl).pathname);
 
+		// A comment half typed beside the newest run: kept under this member.
+		await p.getByLabel('Add a comment').fill('Half-typed question for the captain');
+		await expect.poll(() => draftKeys(b!)).toHaveLength(1);
+
 		// An unsaved edit on the build page: kept under this member.
 		await p.goto(buildUrl);
 		await p.waitForSelector('astro-island[component-export="BuildWorkspace"]:not([ssr])', {
@@ -68,7 +72,7 @@ describe('a shared phone at the lanes, in chromium', () => {
 		});
 		await p.getByLabel('What changed and why').fill('Half-done edit by the member');
 		await p.getByLabel('Front-to-rear run: Size').selectOption('awg:1/0');
-		await expect.poll(() => draftKeys(b!)).toHaveLength(1);
+		await expect.poll(() => draftKeys(b!)).toHaveLength(2);
 
 		// An answer still in flight when the member signs out is not kept: the worker hears of the
 		// sign-out first, then the answer (made for the member) arrives.
