@@ -240,6 +240,29 @@ describe('comment threads and mentions', () => {
 		expect((await call(markRead, 'POST', sam, { body: { some: 1 } })).status).toBe(400);
 	});
 
+	it('a mention whose mail the SMTP service refuses is mailed by the next run of the job', async () => {
+		const refusing: Mailer = {
+			send: async () => {
+				throw new Error('421 service not available');
+			},
+		};
+		const res = await callEndpoint(comments, {
+			locals: localsFor(t.db, writer, refusing),
+			params: { teamId },
+			request: jsonRequest('/x', 'POST', {
+				on: 'revision',
+				id: revisionId,
+				body: '@Sam Reyes the mail server is down',
+			}),
+		});
+		expect(res.status).toBe(201);
+		const before = mail.count(sam.email);
+		// The send after the answer failed and gave the mention back.
+		await expect.poll(() => sendMentionMail(t.db, mailer, TEST_CONFIG), { timeout: 5000 }).toBe(1);
+		await mail.waitFor(sam.email, { after: before });
+		expect(await sendMentionMail(t.db, mailer, TEST_CONFIG)).toBe(0);
+	});
+
 	it('a daily digest goes once, however often the job runs', async () => {
 		expect((await call(preferences, 'PATCH', sam, { body: { mentionMail: 'daily' } })).status).toBe(
 			204,

@@ -6,6 +6,8 @@ import {
 	claimNotification,
 	digestRecipients,
 	findUnmailed,
+	releaseMailed,
+	releaseNotification,
 } from '@/lib/server/db/notifications';
 import type { Database } from '@/lib/server/db/schema';
 import type { ServerConfig } from './config';
@@ -45,10 +47,11 @@ const footer = (url: string) => ({
 });
 
 /**
- * Mails each mention at once to the people who chose that, still in the team. Each notification
- * is marked mailed in the transaction that sends it, so two senders never both mail it and a
- * failed send leaves it for the next try (`npm run jobs mentions`). `ids` narrows it to the
- * notifications a comment just made.
+ * Mails each mention at once to the people who chose that, still in the team. A notification is
+ * marked mailed before its mail goes (so two senders never both mail it) and given back if the
+ * send fails, for the next try (`npm run jobs mentions`). No transaction is held open while the
+ * mail server answers: a slow or stopped SMTP service ties up no database connection. `ids`
+ * narrows it to the notifications a comment just made.
  */
 export async function sendMentionMail(
 	db: Db,
@@ -58,23 +61,21 @@ export async function sendMentionMail(
 ): Promise<number> {
 	let sent = 0;
 	for (const n of await findUnmailed(db, 'immediate', { ids })) {
+		if ((await claimMailed(db, [n.id])).length === 0) continue;
+		const m = mentionText(n, config);
+		const stop = unsubscribe(config, n.user_id);
+		const end = footer(stop.url);
 		try {
-			const wrote = await db.transaction().execute(async (trx) => {
-				if ((await claimMailed(trx, [n.id])).length === 0) return false;
-				const m = mentionText(n, config);
-				const stop = unsubscribe(config, n.user_id);
-				const end = footer(stop.url);
-				await mailer.send({
-					to: n.to_email,
-					subject: `${authorLabel(n)} mentioned you on ${n.place.label}`,
-					text: `${m.line}:\n\n${m.body}\n\nThe thread: ${m.url}${end.text}`,
-					html: `<p>${esc(m.line)}:</p><blockquote style="white-space:pre-wrap">${esc(m.body)}</blockquote><p><a href="${esc(m.url)}">The thread</a></p>${end.html}`,
-					headers: stop.headers,
-				});
-				return true;
+			await mailer.send({
+				to: n.to_email,
+				subject: `${authorLabel(n)} mentioned you on ${n.place.label}`,
+				text: `${m.line}:\n\n${m.body}\n\nThe thread: ${m.url}${end.text}`,
+				html: `<p>${esc(m.line)}:</p><blockquote style="white-space:pre-wrap">${esc(m.body)}</blockquote><p><a href="${esc(m.url)}">The thread</a></p>${end.html}`,
+				headers: stop.headers,
 			});
-			if (wrote) sent++;
+			sent++;
 		} catch (error) {
+			await releaseMailed(db, [n.id]).catch(() => undefined);
 			log.warn({ err: error, notification: n.id }, 'mention mail not sent; the job retries it');
 		}
 	}
@@ -83,8 +84,9 @@ export async function sendMentionMail(
 
 /**
  * One mail a day to each person who chose the digest, listing their mentions not yet mailed. The
- * day is written to the ledger with the mail, in one transaction: a second run that day (or a
- * second machine at once) finds it and sends nothing.
+ * day goes into the ledger and the mentions are marked mailed in one transaction, committed before
+ * the mail is sent: a second run that day (or a second machine at once) finds them taken and sends
+ * nothing. A failed send gives both back for the next run.
  */
 export async function sendMentionDigests(
 	db: Db,
@@ -95,33 +97,42 @@ export async function sendMentionDigests(
 	const day = format(now, 'yyyy-MM-dd');
 	let sent = 0;
 	for (const userId of await digestRecipients(db)) {
+		const mine = await db.transaction().execute(async (trx) => {
+			const items = await findUnmailed(trx, 'daily', { userId });
+			if (items.length === 0) return [];
+			if (!(await claimNotification(trx, 'mention_digest', day, userId))) return [];
+			const taken = new Set(
+				await claimMailed(
+					trx,
+					items.map((i) => i.id),
+				),
+			);
+			return items.filter((i) => taken.has(i.id));
+		});
+		if (mine.length === 0) continue;
+		const stop = unsubscribe(config, userId);
+		const end = footer(stop.url);
+		const parts = mine.map((n) => mentionText(n, config));
 		try {
-			const wrote = await db.transaction().execute(async (trx) => {
-				const items = await findUnmailed(trx, 'daily', { userId });
-				if (items.length === 0) return false;
-				if (!(await claimNotification(trx, 'mention_digest', day, userId))) return false;
-				const taken = new Set(
-					await claimMailed(
-						trx,
-						items.map((i) => i.id),
-					),
-				);
-				const mine = items.filter((i) => taken.has(i.id));
-				if (mine.length === 0) return false;
-				const stop = unsubscribe(config, userId);
-				const end = footer(stop.url);
-				const parts = mine.map((n) => mentionText(n, config));
-				await mailer.send({
-					to: mine[0]!.to_email,
-					subject: `${mine.length} mention${mine.length === 1 ? '' : 's'} of you today`,
-					text: `${parts.map((p) => `${p.line}:\n${p.body}\n${p.url}`).join('\n\n')}${end.text}`,
-					html: `${parts.map((p) => `<p>${esc(p.line)}:</p><blockquote style="white-space:pre-wrap">${esc(p.body)}</blockquote><p><a href="${esc(p.url)}">The thread</a></p>`).join('<hr>')}${end.html}`,
-					headers: stop.headers,
-				});
-				return true;
+			await mailer.send({
+				to: mine[0]!.to_email,
+				subject: `${mine.length} mention${mine.length === 1 ? '' : 's'} of you today`,
+				text: `${parts.map((p) => `${p.line}:\n${p.body}\n${p.url}`).join('\n\n')}${end.text}`,
+				html: `${parts.map((p) => `<p>${esc(p.line)}:</p><blockquote style="white-space:pre-wrap">${esc(p.body)}</blockquote><p><a href="${esc(p.url)}">The thread</a></p>`).join('<hr>')}${end.html}`,
+				headers: stop.headers,
 			});
-			if (wrote) sent++;
+			sent++;
 		} catch (error) {
+			await db
+				.transaction()
+				.execute(async (trx) => {
+					await releaseMailed(
+						trx,
+						mine.map((i) => i.id),
+					);
+					await releaseNotification(trx, 'mention_digest', day, userId);
+				})
+				.catch(() => undefined);
 			log.warn({ err: error, user: userId }, 'mention digest not sent; the next run retries it');
 		}
 	}

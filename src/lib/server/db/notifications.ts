@@ -209,6 +209,27 @@ export async function claimMailed(db: Db, ids: string[]): Promise<string[]> {
 	return rows.map((r) => r.id);
 }
 
+/** Gives mentions back to the senders after their mail failed, so a later run tries again. */
+export async function releaseMailed(db: Db, ids: string[]): Promise<void> {
+	if (ids.length === 0) return;
+	await db.updateTable('notification').set({ mailed_at: null }).where('id', 'in', ids).execute();
+}
+
+/** Takes a ledger entry back after its mail failed. */
+export async function releaseNotification(
+	db: Db,
+	kind: 'event_reminder' | 'revision_digest' | 'mention_digest',
+	subjectKey: string,
+	userId: string,
+): Promise<void> {
+	await db
+		.deleteFrom('notification_sent')
+		.where('kind', '=', kind)
+		.where('subject_key', '=', subjectKey)
+		.where('user_id', '=', userId)
+		.execute();
+}
+
 /** Everyone with unmailed notifications who wants a daily digest. */
 export async function digestRecipients(db: Db): Promise<string[]> {
 	const rows = await db
