@@ -48,6 +48,9 @@ export function CommentThreadView({
 }: CommentThreadProps) {
 	const [open, setOpen] = useState(!collapsed || startOpen);
 	const headingId = useId();
+	// Once opened, the summary counts what the thread holds now (a comment just posted included).
+	const loaded = useQuery({ ...threadQueryOptions(teamId, subject), enabled: collapsed && open });
+	const shown = loaded.data?.comments.length ?? count;
 	if (collapsed)
 		return (
 			<details
@@ -57,7 +60,7 @@ export function CommentThreadView({
 				data-thread={`${subject.on}:${subject.id}`}
 			>
 				<summary className="cursor-pointer px-3 py-2 text-sm font-semibold text-copper-dark">
-					{count ? `Comments (${count})` : 'Comment'}
+					{shown ? `Comments (${shown})` : 'Comment'}
 				</summary>
 				{open && (
 					<div className="border-t border-hairline p-3">
