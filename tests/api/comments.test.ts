@@ -227,6 +227,21 @@ describe('comment threads and mentions', () => {
 		expect(c.vehicleName).toBe('Heron');
 	});
 
+	it('notifications are the signed-in person’s own: anonymous callers get 401', async () => {
+		for (const [module, method, body] of [
+			[notifications, 'GET', undefined],
+			[markRead, 'POST', { all: true }],
+			[preferences, 'PATCH', { mentionMail: 'off' }],
+		] as const) {
+			const res = await callEndpoint(module, {
+				locals: localsFor(t.db, null),
+				request: jsonRequest('/x', method, body),
+			});
+			expect(res.status).toBe(401);
+			expect(res.headers.get('content-type')).toBe('application/problem+json');
+		}
+	});
+
 	it('marks read one or all, only the caller’s own', async () => {
 		const before = await inbox(sam);
 		const one = before.items.find((i) => !i.read)!;
