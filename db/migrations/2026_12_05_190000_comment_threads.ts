@@ -48,6 +48,12 @@ export async function up(db: Kysely<any>): Promise<void> {
 		await sql`create index ${sql.raw(`comment_${subject}_idx`)} on comment (${sql.raw(subject)}, created_at) where ${sql.raw(subject)} is not null`.execute(
 			db,
 		);
+	// For the limit on how fast one person writes.
+	await db.schema
+		.createIndex('comment_author_idx')
+		.on('comment')
+		.columns(['author_id', 'created_at'])
+		.execute();
 	await db.schema
 		.createIndex('comment_team_idx')
 		.on('comment')

@@ -220,6 +220,27 @@ describe('comment threads and mentions', () => {
 		expect((await call(comment, 'DELETE', captain, { params })).status).toBe(404);
 	});
 
+	it('one person writing a flood of comments is slowed down (429), their text refused whole', async () => {
+		const flooder = await makeUser(t.db, undefined, 'Fast Typist');
+		await addMember(t.db, teamId, flooder, 'member');
+		await t.db
+			.insertInto('comment')
+			.values(
+				Array.from({ length: 60 }, (_, i) => ({
+					team_id: teamId,
+					revision_id: revisionId,
+					author_id: flooder.id,
+					body: `spam ${i}`,
+				})),
+			)
+			.execute();
+		const res = await post(flooder, '@Sam Reyes once more');
+		expect(res.status).toBe(429);
+		expect(res.headers.get('retry-after')).toBe('600');
+		// Someone else writes on.
+		expect((await post(writer, 'Meanwhile, fine')).status).toBe(201);
+	});
+
 	it('comments show in the team’s activity', async () => {
 		const activity = await findRecentActivity(t.db, teamId);
 		const c = activity.find((a) => a.kind === 'comment')!;

@@ -34,6 +34,9 @@ interface CommentRow {
 	email?: string | null;
 }
 
+/** How many comments one person may write in a window: a thread, not a flood of mentions and mail. */
+export const COMMENT_RATE = { windowMs: 10 * 60_000, max: 60 };
+
 /** Whether the author may still change or delete what they wrote. */
 export const withinEditWindow = (createdAt: Date, now = Date.now()) =>
 	now - createdAt.getTime() <= COMMENT_EDIT_WINDOW_MS;

@@ -200,6 +200,17 @@ export async function mentionableMembers(db: Db, teamId: string): Promise<Mentio
 	return rows.map((r) => ({ id: r.id, name: r.name?.trim() || r.email.split('@')[0]! }));
 }
 
+/** How many comments this person wrote since then (in any team). */
+export async function commentsWrittenSince(db: Db, authorId: string, since: Date): Promise<number> {
+	const row = await db
+		.selectFrom('comment')
+		.select((eb) => eb.fn.countAll<string>().as('n'))
+		.where('author_id', '=', authorId)
+		.where('created_at', '>', since)
+		.executeTakeFirstOrThrow();
+	return Number(row.n);
+}
+
 export function findComment(db: Db, teamId: string, commentId: string) {
 	return db
 		.selectFrom('comment')

@@ -5,8 +5,14 @@ import {
 	type CommentWriteResult,
 } from '@/lib/schemas/comments';
 import { requireTeamRole } from '@/lib/server/access';
-import { commentRight, mentionsIn, threadOf, toCommentDto } from '@/lib/server/comments';
-import { insertComment, subjectInTeam } from '@/lib/server/db/comments';
+import {
+	COMMENT_RATE,
+	commentRight,
+	mentionsIn,
+	threadOf,
+	toCommentDto,
+} from '@/lib/server/comments';
+import { commentsWrittenSince, insertComment, subjectInTeam } from '@/lib/server/db/comments';
 import { problem, readJson, readQuery } from '@/lib/server/http';
 import { log } from '@/lib/server/log';
 import { sendMentionMail } from '@/lib/server/mention-mail';
@@ -37,8 +43,21 @@ export const POST: APIRoute = async ({ params, request, locals }) => {
 	const { body: text, ...subject } = body.data;
 	if (!(await subjectInTeam(locals.db, teamId, subject)))
 		return problem(404, 'not_found', `No such ${subject.on} in this team`);
+	const written = await commentsWrittenSince(
+		locals.db,
+		userId,
+		new Date(Date.now() - COMMENT_RATE.windowMs),
+	);
+	if (written >= COMMENT_RATE.max)
+		return problem(
+			429,
+			'rate_limited',
+			'That is a lot of comments at once. Wait a few minutes and try again; your text is kept.',
+			undefined,
+			{ 'retry-after': String(Math.round(COMMENT_RATE.windowMs / 1000)) },
+		);
 	const mentions = await mentionsIn(locals.db, teamId, text, userId);
-	const { row, notifications } = await insertComment(
+	const saved = await insertComment(
 		locals.db,
 		{
 			teamId,
@@ -48,7 +67,13 @@ export const POST: APIRoute = async ({ params, request, locals }) => {
 			body: text,
 		},
 		mentions.notify.map((m) => m.id),
-	);
+	).catch((error: unknown) => {
+		// The subject was deleted between the check and the write.
+		if ((error as { code?: string }).code === '23503') return null;
+		throw error;
+	});
+	if (!saved) return problem(404, 'not_found', `No such ${subject.on} in this team`);
+	const { row, notifications } = saved;
 	if (notifications.length > 0)
 		void sendMentionMail(locals.db, locals.mailer, locals.config, notifications).catch((error) =>
 			log.warn({ err: error }, 'mention mail not sent; the job retries it'),
