@@ -71,3 +71,32 @@ export function findMentions(
 	}
 	return { mentioned: [...mentioned.values()], unknown: [...unknown] };
 }
+
+/**
+ * The name being typed after an `@` that ends at the caret ("@Sam Re|"), with where its `@` is;
+ * null when the caret is not in one (an `@` inside a word, or more than a name's length back).
+ */
+export function mentionQueryAt(
+	text: string,
+	caret: number,
+): { start: number; query: string } | null {
+	const before = text.slice(0, caret);
+	const m = /(?:^|[^\p{L}\p{N}_])@([^@\n]{0,40})$/u.exec(before);
+	if (!m) return null;
+	return { start: caret - m[1]!.length - 1, query: m[1]! };
+}
+
+/** Members whose name starts with what is typed (any case), a name typed in full excepted. */
+export function suggestMembers(
+	query: string,
+	members: readonly Mentionable[],
+	max = 5,
+): Mentionable[] {
+	const q = query.toLocaleLowerCase();
+	return members
+		.filter((m) => {
+			const name = m.name.toLocaleLowerCase();
+			return name.startsWith(q) && name !== q.trimEnd();
+		})
+		.slice(0, max);
+}

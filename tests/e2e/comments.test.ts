@@ -30,9 +30,19 @@ describe('comments with a mention, in chromium', () => {
 			'@Demo Member',
 		);
 		const box = thread.getByLabel('Add a comment');
+		// Typing "@demo c" offers the captain; choosing writes the name in full.
+		await box.pressSequentially('@demo c');
+		await thread
+			.getByRole('group', { name: 'Mention a member' })
+			.getByRole('button', { name: '@Demo Captain' })
+			.click();
+		await expect(box.inputValue()).resolves.toBe('@Demo Captain ');
+		await box.pressSequentially('150 A or 200 A on the rear feed fuse?');
+		await box.press('Shift+Enter');
+		await box.pressSequentially('Asked at <b>the counter</b> https://parts.example.test');
 		const text =
 			'@Demo Captain 150 A or 200 A on the rear feed fuse?\nAsked at <b>the counter</b> https://parts.example.test';
-		await box.fill(text);
+		await expect(box.inputValue()).resolves.toBe(text);
 		// What is typed is kept: a reload brings it back.
 		await member.page.reload();
 		await member.page.locator('li[data-revision]').first().getByText('Comments (2)').click();

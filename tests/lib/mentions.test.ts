@@ -1,5 +1,10 @@
 import { describe, expect, it } from 'vitest';
-import { findMentions, mentionSegments } from '../../src/lib/mentions';
+import {
+	findMentions,
+	mentionQueryAt,
+	mentionSegments,
+	suggestMembers,
+} from '../../src/lib/mentions';
 
 /** Who an @mention in a comment names, against the team's members. */
 describe('mentions', () => {
@@ -46,5 +51,18 @@ describe('mentions', () => {
 		const parts = mentionSegments(body, members);
 		expect(parts.map((p) => p.text).join('')).toBe(body);
 		expect(parts.filter((p) => 'member' in p).map((p) => p.text)).toEqual(['@Sam Reyes', '@Ola']);
+	});
+
+	it('offers the members whose name starts with what is typed after an @ at the caret', () => {
+		const text = 'Ask @sam r';
+		const at = mentionQueryAt(text, text.length)!;
+		expect(at).toEqual({ start: 4, query: 'sam r' });
+		expect(suggestMembers(at.query, members).map((m) => m.id)).toEqual(['u1']);
+		expect(suggestMembers('', members)).toHaveLength(4);
+		// Typed in full: nothing left to offer.
+		expect(suggestMembers('Ola', members)).toEqual([]);
+		// Not in a mention: an address, or the caret elsewhere.
+		expect(mentionQueryAt('mail sam@exa', 12)).toBeNull();
+		expect(mentionQueryAt('@Sam then\nmore', 14)).toBeNull();
 	});
 });

@@ -14,8 +14,8 @@ import {
 	type ThreadSubject,
 } from '@/lib/client/queries/comments';
 import type { CommentDto } from '@/lib/schemas/comments';
-import { COMMENT_MAX_CHARS } from '@/lib/schemas/comments';
 import { CommentBody } from './CommentBody';
+import { CommentBox } from './CommentBox';
 
 export interface CommentThreadProps {
 	teamId: string;
@@ -117,11 +117,7 @@ function ThreadBody({ teamId, subject }: { teamId: string; subject: ThreadSubjec
 				</ol>
 			)}
 			{canComment ? (
-				<NewComment
-					teamId={teamId}
-					subject={subject}
-					example={members.find((m) => m.name.includes(' '))?.name ?? members[0]?.name}
-				/>
+				<NewComment teamId={teamId} subject={subject} members={members} />
 			) : (
 				<p className="text-sm text-ink-soft">{whyNot}</p>
 			)}
@@ -176,6 +172,7 @@ function CommentItem({
 						value={text}
 						onChange={setText}
 						error={edit.error}
+						members={members}
 					/>
 					<div className="flex gap-2">
 						<Button type="submit" variant="secondary" busy={edit.isPending}>
@@ -230,12 +227,11 @@ function CommentItem({
 function NewComment({
 	teamId,
 	subject,
-	example,
+	members,
 }: {
 	teamId: string;
 	subject: ThreadSubject;
-	/** A member's name for the hint. */
-	example: string | undefined;
+	members: Array<{ id: string; name: string }>;
 }) {
 	const draftKey = `${subject.on}:${subject.id}`;
 	const [text, setText] = useState('');
@@ -276,7 +272,7 @@ function NewComment({
 				onChange={change}
 				error={add.error}
 				onSubmitKey={send}
-				example={example}
+				members={members}
 			/>
 			<div className="flex flex-wrap items-center gap-3">
 				<Button type="submit" busy={add.isPending}>
@@ -286,62 +282,6 @@ function NewComment({
 			</div>
 			{result && <MentionNote result={result} />}
 		</form>
-	);
-}
-
-function CommentBox({
-	label,
-	value,
-	onChange,
-	error,
-	onSubmitKey,
-	example,
-}: {
-	label: string;
-	value: string;
-	onChange: (v: string) => void;
-	error: Error | null;
-	onSubmitKey?: () => void;
-	example?: string;
-}) {
-	const id = useId();
-	const message =
-		error instanceof ApiError
-			? (error.byField().body ?? error.message)
-			: error
-				? 'Could not send it; your text is kept here'
-				: null;
-	return (
-		<div className="flex flex-col gap-1">
-			<label htmlFor={id} className="text-sm font-semibold">
-				{label}
-			</label>
-			<textarea
-				id={id}
-				rows={3}
-				maxLength={COMMENT_MAX_CHARS}
-				value={value}
-				onChange={(e) => onChange(e.target.value)}
-				onKeyDown={(e) => {
-					if (onSubmitKey && e.key === 'Enter' && (e.ctrlKey || e.metaKey)) {
-						e.preventDefault();
-						onSubmitKey();
-					}
-				}}
-				aria-invalid={message ? true : undefined}
-				aria-describedby={`${id}-hint${message ? ` ${id}-error` : ''}`}
-				className={`rounded-md border bg-card px-3 py-2 text-base shadow-sm outline-none focus:border-copper focus:ring-2 focus:ring-copper/30 ${message ? 'border-brick' : 'border-hairline'}`}
-			/>
-			<p id={`${id}-hint`} className="text-xs text-ink-soft">
-				Plain text; links show as text. Mention a team member with @ and their name
-				{example ? ` (e.g. @${example})` : ''} to notify them.
-			</p>
-			{message && (
-				<p id={`${id}-error`} role="alert" className="text-sm text-brick">
-					<span aria-hidden="true">✕</span> {message}
-				</p>
-			)}
-		</div>
 	);
 }
 
