@@ -77,8 +77,12 @@ function NotificationsView() {
 								<a
 									href={n.href}
 									className="text-copper-dark underline"
-									onClick={() => {
-										if (!n.read) markRead.mutate({ ids: [n.id] });
+									onClick={(e) => {
+										if (n.read || e.metaKey || e.ctrlKey || e.shiftKey) return;
+										// Read before leaving: a request still in flight would die with the page.
+										e.preventDefault();
+										const go = () => window.location.assign(n.href);
+										markRead.mutateAsync({ ids: [n.id] }).then(go, go);
 									}}
 								>
 									{n.subject}
