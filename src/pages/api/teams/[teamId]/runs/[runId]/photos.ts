@@ -2,9 +2,8 @@ import { randomUUID } from 'node:crypto';
 import type { APIRoute } from 'astro';
 import { requireRun } from '@/lib/server/access';
 import { findRunPhotos, insertPhotoPair } from '@/lib/server/db/files';
-import { problem } from '@/lib/server/http';
-import { readMultipart } from '@/lib/server/body';
-import { checkPhoto, makeThumbnail, MAX_PHOTO_BYTES } from '@/lib/server/file-content';
+import { makeThumbnail } from '@/lib/server/file-content';
+import { readPhotoUpload } from '@/lib/server/photo-upload';
 
 /**
  * Adds a photo to a run: JPEG, PNG or WebP up to 10 MB by content, stored without its metadata
@@ -14,31 +13,17 @@ export const POST: APIRoute = async ({ params, request, locals }) => {
 	const found = await requireRun(locals, params, 'member');
 	if (!found.ok) return found.response;
 	const { access, run } = found.value;
-	const form = await readMultipart(
-		request,
-		MAX_PHOTO_BYTES + 64 * 1024,
-		'Photos are limited to 10 MB',
-	);
-	if (!form.ok) return form.response;
-	const file = form.data.get('file');
-	if (!(file instanceof File))
-		return problem(400, 'invalid_input', 'Attach a photo', [{ path: 'file', message: 'No file' }]);
-	if (file.size > MAX_PHOTO_BYTES) return problem(413, 'too_large', 'Photos are limited to 10 MB');
-	const checked = await checkPhoto(new Uint8Array(await file.arrayBuffer()));
-	if (!checked.ok)
-		return problem(
-			400,
-			'invalid_input',
-			checked.message === 'Not a JPEG, PNG or WebP image'
-				? 'Photos must be JPEG, PNG or WebP images'
-				: checked.message,
-			[{ path: 'file', message: checked.message }],
-		);
+	const upload = await readPhotoUpload(request, {
+		tooLarge: 'Photos are limited to 10 MB',
+		attach: 'Attach a photo',
+		notAnImage: 'Photos must be JPEG, PNG or WebP images',
+	});
+	if (!upload.ok) return upload.response;
+	const { name, photo: checked } = upload.data;
 	const thumb = await makeThumbnail(checked.bytes);
 	const base = `teams/${access.teamId}/runs/${run.id}/photo-${randomUUID()}`;
 	const ext = checked.type.split('/')[1];
 	const keys = [`${base}.${ext}`, `${base}-thumb.webp`];
-	const name = file.name.slice(0, 200);
 	try {
 		await locals.storage.put(keys[0]!, checked.bytes, checked.type);
 		await locals.storage.put(keys[1]!, thumb, 'image/webp');

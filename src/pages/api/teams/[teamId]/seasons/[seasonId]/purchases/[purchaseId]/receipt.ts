@@ -3,8 +3,7 @@ import type { APIRoute } from 'astro';
 import { parseUuid } from '@/lib/schemas/ids';
 import { requireTeamRole } from '@/lib/server/access';
 import { findPurchase, findSeason, removeReceipt, setReceipt } from '@/lib/server/db/seasons';
-import { readMultipart } from '@/lib/server/body';
-import { checkPhoto, MAX_PHOTO_BYTES } from '@/lib/server/file-content';
+import { readPhotoUpload } from '@/lib/server/photo-upload';
 import { problem } from '@/lib/server/http';
 import { removeObjects } from '@/lib/server/object-cleanup';
 
@@ -31,29 +30,13 @@ export const POST: APIRoute = async ({ params, request, locals }) => {
 	const found = await purchaseOf(params, locals);
 	if (!found.ok) return found.response;
 	const { teamId, purchase } = found.value;
-	const form = await readMultipart(
-		request,
-		MAX_PHOTO_BYTES + 64 * 1024,
-		'Receipt photos are limited to 10 MB',
-	);
-	if (!form.ok) return form.response;
-	const file = form.data.get('file');
-	if (!(file instanceof File))
-		return problem(400, 'invalid_input', 'Attach a photo of the receipt', [
-			{ path: 'file', message: 'No file' },
-		]);
-	if (file.size > MAX_PHOTO_BYTES)
-		return problem(413, 'too_large', 'Receipt photos are limited to 10 MB');
-	const checked = await checkPhoto(new Uint8Array(await file.arrayBuffer()));
-	if (!checked.ok)
-		return problem(
-			400,
-			'invalid_input',
-			checked.message === 'Not a JPEG, PNG or WebP image'
-				? 'A receipt must be a JPEG, PNG or WebP photo'
-				: checked.message,
-			[{ path: 'file', message: checked.message }],
-		);
+	const upload = await readPhotoUpload(request, {
+		tooLarge: 'Receipt photos are limited to 10 MB',
+		attach: 'Attach a photo of the receipt',
+		notAnImage: 'A receipt must be a JPEG, PNG or WebP photo',
+	});
+	if (!upload.ok) return upload.response;
+	const { name, photo: checked } = upload.data;
 	const key = `teams/${teamId}/receipts/${purchase.id}/receipt-${randomUUID()}.${checked.type.split('/')[1]}`;
 	await locals.storage.put(key, checked.bytes, checked.type);
 	try {
@@ -61,7 +44,7 @@ export const POST: APIRoute = async ({ params, request, locals }) => {
 			teamId,
 			purchaseId: purchase.id,
 			objectKey: key,
-			fileName: file.name.slice(0, 200),
+			fileName: name,
 			contentType: checked.type,
 			sizeBytes: checked.bytes.byteLength,
 		});
